@@ -1,0 +1,25 @@
+#pragma once
+// Verdicts and the tolerance policy a balance is judged by.
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "core/units.hpp"
+
+namespace plumb {
+
+enum class Verdict { pass, fail };
+inline std::string_view to_string(Verdict v) { return v == Verdict::pass ? "pass" : "fail"; }
+
+/// Which tolerances a weekly check is judged against.
+struct TolerancePolicy {
+  enum class Kind { usp41, lab };
+  Kind kind = Kind::usp41;
+  std::optional<ExactMass> max_bias;  ///< lab policy: |bias| limit
+  std::optional<ExactMass> max_sd;    ///< lab policy: repeatability SD limit
+
+  [[nodiscard]] std::string name() const { return kind == Kind::usp41 ? "USP <41>" : "lab limits"; }
+  [[nodiscard]] std::string key() const { return kind == Kind::usp41 ? "usp41" : "lab"; }
+};
+
+}  // namespace plumb

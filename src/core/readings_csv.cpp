@@ -1,0 +1,98 @@
+#include "core/readings_csv.hpp"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+
+#include "core/errors.hpp"
+
+namespace plumb {
+namespace {
+
+std::string_view trim(std::string_view s) {
+  while (!s.empty() && (s.front() == ' ' || s.front() == '\t')) s.remove_prefix(1);
+  while (!s.empty() && (s.back() == ' ' || s.back() == '\t' || s.back() == '\r')) s.remove_suffix(1);
+  return s;
+}
+
+}  // namespace
+
+std::vector<std::string> split_csv_line(std::string_view line) {
+  std::vector<std::string> fields(1);
+  bool quoted = false;
+  for (std::size_t i = 0; i < line.size(); ++i) {
+    const char c = line[i];
+    if (quoted) {
+      if (c == '"' && i + 1 < line.size() && line[i + 1] == '"') {
+        fields.back() += '"';
+        ++i;
+      } else if (c == '"') {
+        quoted = false;
+      } else {
+        fields.back() += c;
+      }
+    } else if (c == '"') {
+      quoted = true;
+    } else if (c == ',') {
+      fields.emplace_back();
+    } else {
+      fields.back() += c;
+    }
+  }
+  for (auto& f : fields) f = std::string(trim(f));
+  return fields;
+}
+
+std::vector<CsvReading> parse_readings_csv(std::string_view text, std::string_view source, MassUnit default_unit) {
+  std::vector<CsvReading> out;
+  int line_no = 0;
+  int reading_col = -1, unit_col = -1;
+  std::size_t columns = 0;
+  std::size_t pos = 0;
+  if (text.substr(0, 3) == "\xEF\xBB\xBF") pos = 3;  // a UTF-8 byte-order mark from spreadsheet exports
+  while (pos <= text.size()) {
+    std::size_t end = text.find('\n', pos);
+    if (end == std::string_view::npos) end = text.size();
+    std::string_view raw = text.substr(pos, end - pos);
+    pos = end + 1;
+    ++line_no;
+    if (trim(raw).empty()) {
+      if (end == text.size()) break;
+      continue;
+    }
+    if (raw.find('\0') != std::string_view::npos)
+      throw InputError(fmt::format("{} line {}: contains a NUL byte; this is not a text CSV file.", source, line_no));
+    const auto fields = split_csv_line(raw);
+    if (reading_col < 0) {
+      for (std::size_t i = 0; i < fields.size(); ++i) {
+        std::string name = fields[i];
+        std::transform(name.begin(), name.end(), name.begin(), [](unsigned char c) { return std::tolower(c); });
+        if (name == "reading") reading_col = static_cast<int>(i);
+        if (name == "unit") unit_col = static_cast<int>(i);
+      }
+      if (reading_col < 0)
+        throw InputError(fmt::format("{} line {}: the header has no \"reading\" column.", source, line_no));
+      columns = fields.size();
+      continue;
+    }
+    if (fields.size() != columns)
+      throw InputError(fmt::format("{} line {}: {} field(s) where the header has {}.", source, line_no,
+                                   fields.size(), columns));
+    CsvReading r;
+    r.line = line_no;
+    const std::string where = fmt::format("{} line {} column reading: value", source, line_no);
+    r.reading.text = fields[static_cast<std::size_t>(reading_col)];
+    r.reading.value = Decimal::parse(r.reading.text, where);
+    r.reading.unit = default_unit;
+    if (unit_col >= 0) {
+      const std::string& u = fields[static_cast<std::size_t>(unit_col)];
+      if (!u.empty()) r.reading.unit = parse_mass_unit(u, fmt::format("{} line {} column unit: value", source, line_no));
+    }
+    out.push_back(std::move(r));
+    if (end == text.size()) break;
+  }
+  if (reading_col < 0) throw InputError(fmt::format("{}: is empty; expected a header row with a \"reading\" column.", source));
+  return out;
+}
+
+}  // namespace plumb
