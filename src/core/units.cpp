@@ -58,7 +58,14 @@ ExactMass ExactMass::parse(std::string_view text, std::string_view field, MassUn
   if (number.empty())
     throw InputError(fmt::format("{} \"{}\" is not a mass (expected a number and a unit, e.g. 100g).", field, text));
   const Decimal value = Decimal::parse(number, field);
-  const MassUnit u = unit.empty() ? default_unit : parse_mass_unit(unit, field);
+  MassUnit u = default_unit;
+  if (!unit.empty()) {
+    try {
+      u = parse_mass_unit(unit, field);
+    } catch (const InputError&) {
+      throw InputError(fmt::format("{} \"{}\" does not end in a unit of mass (use ug, mg, g or kg).", field, text));
+    }
+  }
   return from(value, u);
 }
 
