@@ -63,10 +63,15 @@ Zone zone_of(double z) {
 }
 
 // Rules 2 and 3: `needed` of the last `window` points beyond `k` sigma on one side, counting only
-// windows whose last point is itself beyond (the point that completes the signal).
+// windows whose last point is itself beyond (the point that completes the signal). Triggering windows
+// that share points with the previous signal of the same side are one episode: a sustained shift is
+// reported once, with all its points, rather than once per completing point.
 void window_rule(std::span<const Observation> h, const std::vector<double>& z, const ControlLimits& l,
                  WesternElectricRule rule, std::size_t window, std::size_t needed, double k, const std::string& unit,
                  std::vector<RuleFlag>& out) {
+  std::vector<RuleFlag> found;
+  std::optional<std::size_t> open[2];  // index into `found` of the episode still open, per side
+  std::size_t open_end[2] = {0, 0};    // last point of that episode
   for (std::size_t i = window - 1; i < z.size(); ++i) {
     for (Side s : {Side::above, Side::below}) {
       if (!beyond(z[i], s, k)) continue;
@@ -74,15 +79,27 @@ void window_rule(std::span<const Observation> h, const std::vector<double>& z, c
       for (std::size_t j = i + 1 - window; j <= i; ++j)
         if (beyond(z[j], s, k)) idx.push_back(j);
       if (idx.size() < needed) continue;
-      const double line = l.line(s == Side::above ? static_cast<int>(k) : -static_cast<int>(k));
-      RuleFlag f{rule, s, idx, {}};
-      f.explanation = fmt::format(
-          "{} of {} checks in a row ({}) lie {} the {:g}-sigma line at {}; a stable instrument does this rarely, "
-          "so the result has probably shifted {} ({}).",
-          idx.size(), window, checks_text(h, idx), side_word(s), k, value_text(line, unit),
-          s == Side::above ? "upwards" : "downwards", describe(rule));
-      out.push_back(std::move(f));
+      const int side = s == Side::above ? 0 : 1;
+      if (open[side] && idx.front() <= open_end[side]) {
+        auto& merged = found[*open[side]].indices;
+        for (std::size_t j : idx)
+          if (j > merged.back()) merged.push_back(j);
+      } else {
+        open[side] = found.size();
+        found.push_back(RuleFlag{rule, s, idx, {}});
+      }
+      open_end[side] = i;
     }
+  }
+  for (auto& f : found) {
+    const double line = l.line(f.side == Side::above ? static_cast<int>(k) : -static_cast<int>(k));
+    f.explanation = fmt::format(
+        "{} lie {} the {:g}-sigma line at {}, {} or more of {} consecutive checks at a time; a stable instrument does this "
+        "rarely, so the result has probably shifted {} ({}).",
+        checks_text(h, f.indices), side_word(f.side), k, value_text(line, unit), needed, window,
+        f.side == Side::above ? "upwards" : "downwards", describe(rule));
+    f.explanation[0] = 'C';
+    out.push_back(std::move(f));
   }
 }
 
@@ -100,12 +117,12 @@ std::string_view to_string(Zone z) {
 
 std::string describe(WesternElectricRule r) {
   switch (r) {
-    case WesternElectricRule::one_beyond_3_sigma: return "Western Electric rule 1 (1 point beyond 3 sigma)";
+    case WesternElectricRule::one_beyond_3_sigma: return "Western Electric rule 1: 1 point beyond 3 sigma";
     case WesternElectricRule::two_of_three_beyond_2_sigma:
-      return "Western Electric rule 2 (2 of 3 beyond 2 sigma, same side)";
+      return "Western Electric rule 2: 2 of 3 beyond 2 sigma, same side";
     case WesternElectricRule::four_of_five_beyond_1_sigma:
-      return "Western Electric rule 3 (4 of 5 beyond 1 sigma, same side)";
-    case WesternElectricRule::eight_on_one_side: return "Western Electric rule 4 (8 in a row on one side)";
+      return "Western Electric rule 3: 4 of 5 beyond 1 sigma, same side";
+    case WesternElectricRule::eight_on_one_side: return "Western Electric rule 4: 8 in a row on one side";
   }
   return "Western Electric rule ?";
 }

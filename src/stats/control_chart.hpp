@@ -48,7 +48,7 @@ enum class WesternElectricRule {
   four_of_five_beyond_1_sigma = 3,
   eight_on_one_side = 4,
 };
-/// "Western Electric rule 2 (2 of 3 beyond 2 sigma, same side)".
+/// "Western Electric rule 2: 2 of 3 beyond 2 sigma, same side".
 std::string describe(WesternElectricRule r);
 
 enum class Side { above, below };
@@ -81,7 +81,8 @@ struct ControlChartOptions {
 /// Builds the chart and applies the four rules to every point (baseline included). A point exactly on a
 /// limit is not beyond it, and a point exactly on the centre line breaks a run of rule 4.
 /// Rules 2 and 3 signal at the point that completes the pattern (that point is itself beyond the
-/// line), so one excursion is reported once per completing point; rule 4 reports each maximal run once.
+/// line), and overlapping signals of one rule and side merge into one flag, so a sustained shift is
+/// reported once with all its points; rule 4 reports each maximal run once.
 /// Throws InputError for a baseline outside the history, fewer than 2 baseline points, or a baseline
 /// whose values are all equal (no moving range, so no limits).
 ControlChart individuals_chart(std::span<const Observation> history, const ControlChartOptions& options = {});

@@ -130,6 +130,20 @@ TEST_CASE("Western Electric rule 2: 2 of 3 beyond 2 sigma on one side", "[stats]
     CHECK(f[0].side == Side::below);
     CHECK(f[0].indices == Idx{4, 5});
   }
+  SECTION("a sustained shift 2.5, 2.5, 0.5, 2.5, 2.5 is one episode, not one flag per completing point") {
+    // Windows completing at 0-based 5, 7 and 8 all trigger and overlap: one flag with points 4, 5, 7, 8.
+    const auto c = individuals_chart(unit_baseline_then({2.5, 2.5, 0.5, 2.5, 2.5}), first_four);
+    const auto f = flags_of(c, WesternElectricRule::two_of_three_beyond_2_sigma);
+    REQUIRE(f.size() == 1);
+    CHECK(f[0].indices == Idx{4, 5, 7, 8});
+  }
+  SECTION("two excursions far apart are two flags") {
+    const auto c = individuals_chart(unit_baseline_then({2.5, 2.5, 0.1, -0.1, 0.1, -0.1, 2.5, 2.5}), first_four);
+    const auto f = flags_of(c, WesternElectricRule::two_of_three_beyond_2_sigma);
+    REQUIRE(f.size() == 2);
+    CHECK(f[0].indices == Idx{4, 5});
+    CHECK(f[1].indices == Idx{10, 11});
+  }
   SECTION("2.5, 0.5, -2.5: beyond 2 sigma but on opposite sides, must not trigger") {
     const auto c = individuals_chart(unit_baseline_then({2.5, 0.5, -2.5}), first_four);
     CHECK(flags_of(c, WesternElectricRule::two_of_three_beyond_2_sigma).empty());
