@@ -1,0 +1,617 @@
+#include "report/chart.hpp"
+
+#include <cairo-pdf.h>
+#include <cairo-svg.h>
+#include <cairo.h>
+#include <fmt/format.h>
+#include <pango/pangocairo.h>
+
+#include <algorithm>
+#include <cmath>
+#include <fstream>
+#include <functional>
+#include <memory>
+#include <numbers>
+#include <stdexcept>
+
+#include "core/errors.hpp"
+#include "report/axis_ticks.hpp"
+#include "report/chart_record.hpp"
+
+namespace plumb::report {
+namespace {
+
+struct Rgb {
+  double r, g, b;
+};
+// Okabe & Ito's colour-blind-safe palette (Okabe and Ito, "Color Universal Design", 2008) for data;
+// neutral greys for the frame and grid so the data stand out.
+constexpr Rgb ink{0.10, 0.10, 0.10};
+constexpr Rgb muted{0.35, 0.35, 0.35};
+constexpr Rgb grid_grey{0.87, 0.87, 0.87};
+constexpr Rgb series_colours[] = {{0.000, 0.447, 0.698}, {0.902, 0.624, 0.000}, {0.337, 0.706, 0.914},
+                                  {0.000, 0.000, 0.000}};
+constexpr Rgb tolerance_colour{0.835, 0.369, 0.000};  // vermillion
+constexpr Rgb tolerance_fill{0.94, 0.98, 0.94};        // the allowed region, faintly green
+constexpr Rgb control_colour{0.000, 0.620, 0.451};    // bluish green
+constexpr Rgb trend_colour{0.800, 0.475, 0.655};      // reddish purple
+constexpr Rgb band_fill{0.96, 0.90, 0.94};
+
+constexpr const char* font_family = "DejaVu Sans";
+constexpr double margin = 16;
+constexpr double legend_width = 210;
+constexpr double point_radius = 3.6;
+constexpr double flag_radius = 7.5;
+
+void set_colour(cairo_t* cr, Rgb c, double alpha = 1.0) { cairo_set_source_rgba(cr, c.r, c.g, c.b, alpha); }
+
+std::string num(double v) { return fmt::format("{:.6g}", v); }
+std::string px(double v) { return fmt::format("{:.2f}", v); }
+
+// One pango layout at 72 dpi, so that font sizes are in the same points as the cairo user space on
+// every surface (PDF and SVG in points, PNG scaled to 2 pixels per point).
+class Text {
+public:
+  Text(cairo_t* cr, const std::string& s, double size, bool bold = false, bool italic = false, double wrap = -1)
+      : cr_(cr) {
+    ctx_ = pango_cairo_create_context(cr);
+    pango_cairo_context_set_resolution(ctx_, 72);
+    layout_ = pango_layout_new(ctx_);
+    PangoFontDescription* fd = pango_font_description_new();
+    pango_font_description_set_family(fd, font_family);
+    pango_font_description_set_size(fd, static_cast<gint>(size * PANGO_SCALE));
+    pango_font_description_set_weight(fd, bold ? PANGO_WEIGHT_BOLD : PANGO_WEIGHT_NORMAL);
+    pango_font_description_set_style(fd, italic ? PANGO_STYLE_ITALIC : PANGO_STYLE_NORMAL);
+    pango_layout_set_font_description(layout_, fd);
+    pango_font_description_free(fd);
+    if (wrap > 0) {
+      pango_layout_set_width(layout_, static_cast<int>(wrap * PANGO_SCALE));
+      pango_layout_set_wrap(layout_, PANGO_WRAP_WORD_CHAR);
+    }
+    pango_layout_set_text(layout_, s.c_str(), static_cast<int>(s.size()));
+  }
+  ~Text() {
+    g_object_unref(layout_);
+    g_object_unref(ctx_);
+  }
+  Text(const Text&) = delete;
+  Text& operator=(const Text&) = delete;
+
+  [[nodiscard]] double width() const { return extent().width / double(PANGO_SCALE); }
+  [[nodiscard]] double height() const { return extent().height / double(PANGO_SCALE); }
+  /// Draws with the top-left corner at (x, y) in the current transformation.
+  void draw(double x, double y) const {
+    cairo_move_to(cr_, x, y);
+    pango_cairo_update_context(cr_, ctx_);
+    pango_layout_context_changed(layout_);
+    pango_cairo_show_layout(cr_, layout_);
+  }
+
+private:
+  [[nodiscard]] PangoRectangle extent() const {
+    PangoRectangle logical;
+    pango_layout_get_extents(layout_, nullptr, &logical);
+    return logical;
+  }
+  cairo_t* cr_;
+  PangoContext* ctx_;
+  PangoLayout* layout_;
+};
+
+void require_finite(double v, std::string_view field) {
+  if (!std::isfinite(v)) throw InputError(fmt::format("chart {} is {}; it must be a finite number.", field, v));
+}
+
+void validate(const ChartSpec& s) {
+  if (s.title.empty()) throw InputError("chart title is empty; name the instrument, the quantity and the period.");
+  if (s.x.label.empty()) throw InputError("chart x axis label is empty; name the quantity on the x axis.");
+  if (s.y.label.empty()) throw InputError("chart y axis label is empty; name the quantity and its unit.");
+  if (!(s.width >= 320 && s.height >= 240))
+    throw InputError(fmt::format("chart size {} x {} is too small; use at least 320 x 240 points.", s.width,
+                                 s.height));
+  for (const auto& series : s.series)
+    for (std::size_t i = 0; i < series.points.size(); ++i) {
+      const auto& p = series.points[i];
+      const std::string where = fmt::format("point {} of series \"{}\"", i + 1, series.name);
+      require_finite(p.x, where + " x");
+      require_finite(p.y, where + " y");
+      if (p.error && !(std::isfinite(*p.error) && *p.error >= 0))
+        throw InputError(fmt::format("chart {} has error bar {}; it must be a finite number >= 0.", where, *p.error));
+    }
+  if (s.tolerance && s.tolerance->lower && s.tolerance->upper && *s.tolerance->lower >= *s.tolerance->upper)
+    throw InputError(fmt::format("chart tolerance lower limit {} is not below the upper limit {}.",
+                                 *s.tolerance->lower, *s.tolerance->upper));
+}
+
+struct Range {
+  double lo = INFINITY, hi = -INFINITY;
+  void add(double v) {
+    lo = std::min(lo, v);
+    hi = std::max(hi, v);
+  }
+  [[nodiscard]] bool empty() const { return lo > hi; }
+};
+
+class Renderer {
+public:
+  Renderer(cairo_t* cr, const ChartSpec& s, DrawRecord& rec) : cr_(cr), s_(s), rec_(rec) {}
+
+  void draw() {
+    set_colour(cr_, {1, 1, 1});
+    cairo_paint(cr_);
+    double y = margin;
+    y = heading(y);
+    layout(y);
+    plot_background();
+    grid();
+    data_layers();
+    axes_text();
+    legend();
+    notes();
+  }
+
+private:
+  // ---- layout -------------------------------------------------------------------------------------
+  double heading(double y) {
+    Text title(cr_, s_.title, 15, true, false, s_.width - 2 * margin);
+    set_colour(cr_, ink);
+    title.draw(margin, y);
+    rec_.add("text", {{"role", "title"}}, s_.title);
+    y += title.height() + 2;
+    if (!s_.subtitle.empty()) {
+      Text sub(cr_, s_.subtitle, 10.5, false, false, s_.width - 2 * margin);
+      set_colour(cr_, muted);
+      sub.draw(margin, y);
+      rec_.add("text", {{"role", "subtitle"}}, s_.subtitle);
+      y += sub.height();
+    }
+    return y + 14;
+  }
+
+  void layout(double top) {
+    Range xr, yr;
+    for (const auto& series : s_.series)
+      for (const auto& p : series.points) {
+        xr.add(p.x);
+        yr.add(p.y - p.error.value_or(0));
+        yr.add(p.y + p.error.value_or(0));
+      }
+    // Honest scaling: the limits, the zero line, control lines and the whole trend are always in view.
+    if (s_.tolerance) {
+      if (s_.tolerance->lower) yr.add(*s_.tolerance->lower);
+      if (s_.tolerance->upper) yr.add(*s_.tolerance->upper);
+    }
+    if (s_.zero_line) yr.add(0);
+    if (s_.control) {
+      yr.add(s_.control->lower);
+      yr.add(s_.control->upper);
+    }
+    if (s_.trend) {
+      const auto& t = *s_.trend;
+      xr.add(t.x0), xr.add(t.x1), yr.add(t.y0), yr.add(t.y1);
+      if (t.x_extrapolated && t.y_extrapolated) xr.add(*t.x_extrapolated), yr.add(*t.y_extrapolated);
+      for (const auto& b : t.prediction_band) xr.add(b.x), yr.add(b.lower), yr.add(b.upper);
+    }
+    if (xr.empty()) xr.add(0), xr.add(1);
+    if (yr.empty()) yr.add(0), yr.add(1);
+    // A little air so that no point sits on the frame.
+    const double ypad = 0.04 * (yr.hi - yr.lo), xpad = 0.03 * (xr.hi - xr.lo);
+    yt_ = number_ticks(yr.lo - ypad, yr.hi + ypad, 6);
+
+    double widest_y = 0;
+    for (const auto& t : yt_.ticks) widest_y = std::max(widest_y, Text(cr_, t.label, 9).width());
+    const double y_label_h = Text(cr_, s_.y.text(), 10.5).height();
+    left_ = margin + y_label_h + 8 + widest_y + 6;
+    right_ = s_.width - margin - legend_width - 18;
+    top_ = top;
+    // Notes may take at most a third of the height, so the plot never shrinks away; the rest are
+    // counted in a last line that says where to read them.
+    notes_h_ = 0;
+    shown_notes_.clear();
+    const double wrap = s_.width - 2 * margin;
+    for (std::size_t i = 0; i < s_.notes.size(); ++i) {
+      const double h = Text(cr_, s_.notes[i], 8, false, false, wrap).height();
+      if (notes_h_ + 2 * h > s_.height / 3 && i + 1 < s_.notes.size()) {
+        shown_notes_.push_back(fmt::format("({} further note(s) are in the text report.)", s_.notes.size() - i));
+        notes_h_ += Text(cr_, shown_notes_.back(), 8, false, false, wrap).height();
+        break;
+      }
+      shown_notes_.push_back(s_.notes[i]);
+      notes_h_ += h;
+    }
+    const double tick_h = Text(cr_, "0123456789", 9).height();
+    const double x_label_h = Text(cr_, s_.x.text(), 10.5).height();
+    bottom_ = s_.height - margin - notes_h_ - (notes_h_ > 0 ? 8 : 0) - x_label_h - 6 - tick_h - 6;
+
+    const double plot_w = right_ - left_;
+    if (s_.x.scale == AxisScale::date) {
+      const double label_w = Text(cr_, "2024-12-31", 9).width();
+      const int max_ticks = std::max(2, static_cast<int>(plot_w / (label_w + 18)));
+      xt_ = date_ticks(xr.lo - xpad, xr.hi + xpad, max_ticks);
+    } else {
+      const int target = std::max(2, std::min(8, static_cast<int>(plot_w / 70)));
+      xt_ = number_ticks(xr.lo - xpad, xr.hi + xpad, target);
+    }
+    rec_.add("plot", {{"left", px(left_)}, {"right", px(right_)}, {"top", px(top_)}, {"bottom", px(bottom_)},
+                      {"x-min", num(xt_.min)}, {"x-max", num(xt_.max)}, {"y-min", num(yt_.min)},
+                      {"y-max", num(yt_.max)}});
+  }
+
+  [[nodiscard]] double X(double x) const { return left_ + (x - xt_.min) / (xt_.max - xt_.min) * (right_ - left_); }
+  [[nodiscard]] double Y(double y) const { return bottom_ - (y - yt_.min) / (yt_.max - yt_.min) * (bottom_ - top_); }
+
+  void clip_to_plot() {
+    cairo_save(cr_);
+    cairo_rectangle(cr_, left_, top_, right_ - left_, bottom_ - top_);
+    cairo_clip(cr_);
+  }
+
+  // ---- plot area ----------------------------------------------------------------------------------
+  void plot_background() {
+    if (!s_.tolerance || (!s_.tolerance->lower && !s_.tolerance->upper)) return;
+    const double hi = s_.tolerance->upper ? Y(*s_.tolerance->upper) : top_;
+    const double lo = s_.tolerance->lower ? Y(*s_.tolerance->lower) : bottom_;
+    set_colour(cr_, tolerance_fill);
+    cairo_rectangle(cr_, left_, hi, right_ - left_, lo - hi);
+    cairo_fill(cr_);
+  }
+
+  void grid() {
+    cairo_set_line_width(cr_, 0.6);
+    set_colour(cr_, grid_grey);
+    for (const auto& t : yt_.ticks) {
+      cairo_move_to(cr_, left_, Y(t.value));
+      cairo_line_to(cr_, right_, Y(t.value));
+    }
+    for (const auto& t : xt_.ticks) {
+      cairo_move_to(cr_, X(t.value), top_);
+      cairo_line_to(cr_, X(t.value), bottom_);
+    }
+    cairo_stroke(cr_);
+    set_colour(cr_, muted);
+    cairo_set_line_width(cr_, 0.8);
+    cairo_rectangle(cr_, left_, top_, right_ - left_, bottom_ - top_);
+    cairo_stroke(cr_);
+  }
+
+  void hline(double y, Rgb c, double width, bool dashed) {
+    set_colour(cr_, c);
+    cairo_set_line_width(cr_, width);
+    const double dash[] = {5, 3};
+    cairo_set_dash(cr_, dash, dashed ? 2 : 0, 0);
+    cairo_move_to(cr_, left_, Y(y));
+    cairo_line_to(cr_, right_, Y(y));
+    cairo_stroke(cr_);
+    cairo_set_dash(cr_, nullptr, 0, 0);
+  }
+
+  void data_layers() {
+    clip_to_plot();
+    if (s_.zero_line) {
+      hline(0, ink, 0.9, false);
+      rec_.add("zero-line", {{"py", px(Y(0))}});
+    }
+    if (s_.trend && s_.trend->prediction_band.size() >= 2) {
+      const auto& b = s_.trend->prediction_band;
+      cairo_move_to(cr_, X(b.front().x), Y(b.front().upper));
+      for (const auto& p : b) cairo_line_to(cr_, X(p.x), Y(p.upper));
+      for (auto it = b.rbegin(); it != b.rend(); ++it) cairo_line_to(cr_, X(it->x), Y(it->lower));
+      cairo_close_path(cr_);
+      set_colour(cr_, band_fill);
+      cairo_fill(cr_);
+      rec_.add("prediction-band", {{"points", std::to_string(b.size())}});
+    }
+    if (s_.tolerance) {
+      for (const auto& [side, v] : {std::pair{"lower", s_.tolerance->lower}, std::pair{"upper", s_.tolerance->upper}}) {
+        if (!v) continue;
+        hline(*v, tolerance_colour, 1.6, false);
+        rec_.add("tolerance-limit", {{"side", side}, {"value", num(*v)}, {"py", px(Y(*v))}});
+      }
+    }
+    if (s_.control) {
+      hline(s_.control->centre, control_colour, 1.1, false);
+      hline(s_.control->upper, control_colour, 1.1, true);
+      hline(s_.control->lower, control_colour, 1.1, true);
+      rec_.add("control-lines", {{"centre", num(s_.control->centre)},
+                                 {"lower", num(s_.control->lower)},
+                                 {"upper", num(s_.control->upper)}});
+    }
+    if (s_.trend) trend();
+    std::size_t k = 0;
+    for (const auto& series : s_.series) {
+      const Rgb c = series_colours[k++ % std::size(series_colours)];
+      for (const auto& p : series.points) error_bar(p, c);
+      for (const auto& p : series.points) point(series.name, p, c);
+    }
+    cairo_restore(cr_);
+  }
+
+  void trend() {
+    const auto& t = *s_.trend;
+    set_colour(cr_, trend_colour);
+    cairo_set_line_width(cr_, 2.0);
+    cairo_move_to(cr_, X(t.x0), Y(t.y0));
+    cairo_line_to(cr_, X(t.x1), Y(t.y1));
+    cairo_stroke(cr_);
+    rec_.add("trend", {{"x0", num(t.x0)}, {"y0", num(t.y0)}, {"x1", num(t.x1)}, {"y1", num(t.y1)}});
+    if (!(t.x_extrapolated && t.y_extrapolated)) return;
+    const double dash[] = {7, 4};
+    cairo_set_dash(cr_, dash, 2, 0);
+    cairo_move_to(cr_, X(t.x1), Y(t.y1));
+    cairo_line_to(cr_, X(*t.x_extrapolated), Y(*t.y_extrapolated));
+    cairo_stroke(cr_);
+    cairo_set_dash(cr_, nullptr, 0, 0);
+    rec_.add("extrapolated", {{"x0", num(t.x1)}, {"y0", num(t.y1)}, {"x1", num(*t.x_extrapolated)},
+                              {"y1", num(*t.y_extrapolated)}, {"dashed", "true"}});
+    // The word sits above the middle of the dashed part (below it when there is no room above),
+    // kept inside the plot so it is never clipped.
+    Text word(cr_, "extrapolated", 9, false, true);
+    const double mx = (X(t.x1) + X(*t.x_extrapolated)) / 2, my = (Y(t.y1) + Y(*t.y_extrapolated)) / 2;
+    double tx = std::clamp(mx - word.width() / 2, left_ + 3, right_ - word.width() - 3);
+    double ty = my - word.height() - 6;
+    if (ty < top_ + 2) ty = my + 6;
+    set_colour(cr_, trend_colour);
+    word.draw(tx, ty);
+    rec_.add("text", {{"role", "extrapolated-label"}}, "extrapolated");
+  }
+
+  void error_bar(const ChartPoint& p, Rgb c) {
+    if (!p.error || *p.error <= 0) return;
+    const double x = X(p.x), y0 = Y(p.y - *p.error), y1 = Y(p.y + *p.error);
+    set_colour(cr_, c, 0.85);
+    cairo_set_line_width(cr_, 1.0);
+    cairo_move_to(cr_, x, y0);
+    cairo_line_to(cr_, x, y1);
+    for (double yy : {y0, y1}) {
+      cairo_move_to(cr_, x - 3, yy);
+      cairo_line_to(cr_, x + 3, yy);
+    }
+    cairo_stroke(cr_);
+    rec_.add("error-bar", {{"x", num(p.x)}, {"y", num(p.y)}, {"u", num(*p.error)}, {"px", px(x)},
+                           {"py-low", px(y0)}, {"py-high", px(y1)}});
+  }
+
+  void point(const std::string& series, const ChartPoint& p, Rgb c) {
+    const double x = X(p.x), y = Y(p.y);
+    // A white halo, then the dot: two plain fills, so that each point is exactly one path in the
+    // point's colour in the SVG (the chart test counts them).
+    cairo_new_sub_path(cr_);
+    cairo_arc(cr_, x, y, point_radius + 0.8, 0, 2 * std::numbers::pi);
+    set_colour(cr_, {1, 1, 1});
+    cairo_fill(cr_);
+    cairo_new_sub_path(cr_);
+    cairo_arc(cr_, x, y, point_radius, 0, 2 * std::numbers::pi);
+    set_colour(cr_, c);
+    cairo_fill(cr_);
+    if (p.flagged) {
+      cairo_new_sub_path(cr_);
+      cairo_arc(cr_, x, y, flag_radius, 0, 2 * std::numbers::pi);
+      set_colour(cr_, tolerance_colour);
+      cairo_set_line_width(cr_, 1.8);
+      cairo_stroke(cr_);
+    }
+    rec_.add("point", {{"series", series}, {"x", num(p.x)}, {"y", num(p.y)}, {"px", px(x)}, {"py", px(y)},
+                       {"flagged", p.flagged ? "true" : "false"}});
+  }
+
+  // ---- text around the plot -----------------------------------------------------------------------
+  void axes_text() {
+    set_colour(cr_, ink);
+    for (const auto& t : yt_.ticks) {
+      Text l(cr_, t.label, 9);
+      l.draw(left_ - 6 - l.width(), Y(t.value) - l.height() / 2);
+      rec_.add("text", {{"role", "y-tick"}, {"value", num(t.value)}}, t.label);
+    }
+    double tick_bottom = bottom_;
+    for (const auto& t : xt_.ticks) {
+      Text l(cr_, t.label, 9);
+      const double cx = std::clamp(X(t.value) - l.width() / 2, 2.0, s_.width - l.width() - 2);
+      l.draw(cx, bottom_ + 6);
+      tick_bottom = std::max(tick_bottom, bottom_ + 6 + l.height());
+      rec_.add("text", {{"role", "x-tick"}, {"value", num(t.value)}}, t.label);
+    }
+    Text xl(cr_, s_.x.text(), 10.5);
+    xl.draw((left_ + right_) / 2 - xl.width() / 2, tick_bottom + 6);
+    rec_.add("text", {{"role", "x-axis-label"}}, s_.x.text());
+
+    Text yl(cr_, s_.y.text(), 10.5);
+    cairo_save(cr_);
+    cairo_translate(cr_, margin, (top_ + bottom_) / 2 + yl.width() / 2);
+    cairo_rotate(cr_, -std::numbers::pi / 2);
+    yl.draw(0, 0);
+    cairo_restore(cr_);
+    rec_.add("text", {{"role", "y-axis-label"}}, s_.y.text());
+  }
+
+  double legend_entry(double y, const std::function<void(double, double)>& symbol, const std::string& text) {
+    const double x = right_ + 18;
+    Text t(cr_, text, 9, false, false, legend_width - 30);
+    symbol(x + 10, y + std::min(t.height(), 12.0) / 2);
+    set_colour(cr_, ink);
+    t.draw(x + 26, y);
+    rec_.add("text", {{"role", "legend"}}, text);
+    return y + t.height() + 5;
+  }
+
+  std::function<void(double, double)> line_symbol(Rgb c, double width, bool dashed) {
+    return [this, c, width, dashed](double x, double y) {
+      set_colour(cr_, c);
+      cairo_set_line_width(cr_, width);
+      const double dash[] = {4, 2.5};
+      cairo_set_dash(cr_, dash, dashed ? 2 : 0, 0);
+      cairo_move_to(cr_, x - 10, y);
+      cairo_line_to(cr_, x + 10, y);
+      cairo_stroke(cr_);
+      cairo_set_dash(cr_, nullptr, 0, 0);
+    };
+  }
+
+  [[nodiscard]] std::string with_unit(double v) const {
+    return s_.y.unit.empty() ? fmt::format("{:.4g}", v) : fmt::format("{:.4g} {}", v, s_.y.unit);
+  }
+
+  void legend() {
+    double y = top_;
+    std::size_t k = 0;
+    bool any_error = false, any_flag = false;
+    for (const auto& series : s_.series) {
+      const Rgb c = series_colours[k++ % std::size(series_colours)];
+      y = legend_entry(y, [this, c](double x, double yy) {
+        cairo_new_sub_path(cr_);
+        cairo_arc(cr_, x, yy, point_radius, 0, 2 * std::numbers::pi);
+        set_colour(cr_, c);
+        cairo_fill(cr_);
+      }, series.name);
+      for (const auto& p : series.points) {
+        any_error = any_error || (p.error && *p.error > 0);
+        any_flag = any_flag || p.flagged;
+      }
+    }
+    if (any_error)
+      y = legend_entry(y, [this](double x, double yy) {
+        set_colour(cr_, muted);
+        cairo_set_line_width(cr_, 1.0);
+        cairo_move_to(cr_, x, yy - 6), cairo_line_to(cr_, x, yy + 6);
+        cairo_move_to(cr_, x - 3, yy - 6), cairo_line_to(cr_, x + 3, yy - 6);
+        cairo_move_to(cr_, x - 3, yy + 6), cairo_line_to(cr_, x + 3, yy + 6);
+        cairo_stroke(cr_);
+      }, "error bar: expanded uncertainty U");
+    if (any_flag)
+      y = legend_entry(y, [this](double x, double yy) {
+        cairo_new_sub_path(cr_);
+        cairo_arc(cr_, x, yy, flag_radius - 1.5, 0, 2 * std::numbers::pi);
+        set_colour(cr_, tolerance_colour);
+        cairo_set_line_width(cr_, 1.8);
+        cairo_stroke(cr_);
+      }, "flagged point (see the notes)");
+    if (s_.tolerance) {
+      std::string t = s_.tolerance->label;
+      if (s_.tolerance->lower && s_.tolerance->upper)
+        t += fmt::format("s {} and {}", with_unit(*s_.tolerance->lower), with_unit(*s_.tolerance->upper));
+      else if (s_.tolerance->upper)
+        t += " (upper) " + with_unit(*s_.tolerance->upper);
+      else if (s_.tolerance->lower)
+        t += " (lower) " + with_unit(*s_.tolerance->lower);
+      y = legend_entry(y, line_symbol(tolerance_colour, 1.6, false), t);
+    }
+    if (s_.control) {
+      y = legend_entry(y, line_symbol(control_colour, 1.1, false), "centre line " + with_unit(s_.control->centre));
+      y = legend_entry(y, line_symbol(control_colour, 1.1, true),
+                       fmt::format("control limits (3 sigma) {} and {}", with_unit(s_.control->lower),
+                                   with_unit(s_.control->upper)));
+    }
+    if (s_.zero_line) y = legend_entry(y, line_symbol(ink, 0.9, false), "zero");
+    if (s_.trend) {
+      y = legend_entry(y, line_symbol(trend_colour, 2.0, false), "trend (least squares)");
+      if (s_.trend->x_extrapolated) y = legend_entry(y, line_symbol(trend_colour, 2.0, true), "trend, extrapolated");
+      if (s_.trend->prediction_band.size() >= 2)
+        y = legend_entry(y, [this](double x, double yy) {
+          set_colour(cr_, band_fill);
+          cairo_rectangle(cr_, x - 10, yy - 5, 20, 10);
+          cairo_fill(cr_);
+        }, s_.trend->band_label);
+      if (!s_.trend->label.empty()) {
+        Text t(cr_, s_.trend->label, 9, false, false, legend_width - 8);
+        set_colour(cr_, ink);
+        t.draw(right_ + 18, y + 6);
+        rec_.add("text", {{"role", "trend-label"}}, s_.trend->label);
+      }
+    }
+  }
+
+  void notes() {
+    double y = s_.height - margin - notes_h_;
+    set_colour(cr_, muted);
+    for (const auto& n : shown_notes_) {
+      Text t(cr_, n, 8, false, false, s_.width - 2 * margin);
+      t.draw(margin, y);
+      rec_.add("text", {{"role", "note"}}, n);
+      y += t.height();
+    }
+  }
+
+  cairo_t* cr_;
+  const ChartSpec& s_;
+  DrawRecord& rec_;
+  AxisTicks xt_, yt_;
+  double left_ = 0, right_ = 0, top_ = 0, bottom_ = 0, notes_h_ = 0;
+  std::vector<std::string> shown_notes_;
+};
+
+cairo_status_t append_to_string(void* closure, const unsigned char* data, unsigned int length) {
+  static_cast<std::string*>(closure)->append(reinterpret_cast<const char*>(data), length);
+  return CAIRO_STATUS_SUCCESS;
+}
+
+void draw_on(cairo_surface_t* surface, const ChartSpec& spec, DrawRecord& rec, double scale) {
+  cairo_t* cr = cairo_create(surface);
+  cairo_scale(cr, scale, scale);
+  Renderer(cr, spec, rec).draw();
+  const cairo_status_t st = cairo_status(cr);
+  cairo_destroy(cr);
+  if (st != CAIRO_STATUS_SUCCESS)
+    throw std::runtime_error(fmt::format("chart drawing failed: {}", cairo_status_to_string(st)));
+}
+
+std::string description(const ChartSpec& s) {
+  std::size_t points = 0;
+  for (const auto& series : s.series) points += series.points.size();
+  return fmt::format("{}{}x axis: {}; y axis: {}; {} point(s).", s.subtitle, s.subtitle.empty() ? "" : ". ",
+                     s.x.text(), s.y.text(), points);
+}
+
+}  // namespace
+
+std::string render_chart(const ChartSpec& spec, ChartFormat format) {
+  validate(spec);
+  std::string out;
+  DrawRecord rec;
+  switch (format) {
+    case ChartFormat::svg: {
+      cairo_surface_t* surface = cairo_svg_surface_create_for_stream(append_to_string, &out, spec.width, spec.height);
+      draw_on(surface, spec, rec, 1.0);
+      cairo_surface_finish(surface);
+      cairo_surface_destroy(surface);
+      return annotate_svg(std::move(out), spec.title, description(spec), rec);
+    }
+    case ChartFormat::pdf: {
+      cairo_surface_t* surface = cairo_pdf_surface_create_for_stream(append_to_string, &out, spec.width, spec.height);
+      cairo_pdf_surface_set_metadata(surface, CAIRO_PDF_METADATA_TITLE, spec.title.c_str());
+      cairo_pdf_surface_set_metadata(surface, CAIRO_PDF_METADATA_CREATOR, "plumb");
+      draw_on(surface, spec, rec, 1.0);
+      cairo_surface_finish(surface);
+      cairo_surface_destroy(surface);
+      return out;
+    }
+    case ChartFormat::png: {
+      // Two pixels per point: sharp on screens and in print at the chart's natural size.
+      constexpr double scale = 2.0;
+      cairo_surface_t* surface =
+          cairo_image_surface_create(CAIRO_FORMAT_ARGB32, static_cast<int>(std::ceil(spec.width * scale)),
+                                     static_cast<int>(std::ceil(spec.height * scale)));
+      draw_on(surface, spec, rec, scale);
+      cairo_surface_write_to_png_stream(surface, append_to_string, &out);
+      cairo_surface_destroy(surface);
+      return out;
+    }
+  }
+  return out;
+}
+
+ChartFormat chart_format_for(const std::filesystem::path& path) {
+  std::string ext = path.extension().string();
+  std::transform(ext.begin(), ext.end(), ext.begin(), [](unsigned char c) { return static_cast<char>(std::tolower(c)); });
+  if (ext == ".svg") return ChartFormat::svg;
+  if (ext == ".png") return ChartFormat::png;
+  if (ext == ".pdf") return ChartFormat::pdf;
+  throw InputError(fmt::format("chart file \"{}\" must end in .svg, .png or .pdf.", path.string()));
+}
+
+void write_chart(const ChartSpec& spec, const std::filesystem::path& path) {
+  const std::string bytes = render_chart(spec, chart_format_for(path));
+  std::ofstream f(path, std::ios::binary);
+  if (!f || !f.write(bytes.data(), static_cast<std::streamsize>(bytes.size())))
+    throw StorageError(fmt::format("cannot write the chart file \"{}\".", path.string()));
+}
+
+}  // namespace plumb::report
