@@ -14,7 +14,11 @@ namespace {
 
 const Decimal zero{0, 0};
 
-std::string ul(Decimal v) { return v.to_string() + " uL"; }
+/// Shortest exact text: 10 % of 100 uL is "10", not "10.0".
+Decimal trimmed(Decimal v) { return v.rescaled(v.significant_scale()); }
+std::string ul(Decimal v) { return trimmed(v).to_string() + " uL"; }
+/// Balance readabilities are stated in mg in ISO 8655-6, so messages state them in mg too.
+std::string in_mg(const ExactMass& m) { return trimmed(m.in_grams().shifted(3)).to_string() + " mg"; }
 
 /// Decimals for printing a volume error next to a selected volume: 5 at 1 uL, 3 at 100 uL, 1 at 10 mL.
 int volume_decimals(Decimal selected) {
@@ -46,7 +50,7 @@ void check_channel_input(const PipetteRunInput& in, const TestVolumeWeighings& t
     if (g.significant_scale() > d_scale)
       throw InputError(fmt::format("{}: weighing {} ({} {}) has more decimals than the readability {} of balance "
                                    "{} allows.",
-                                   where, i + 1, r.text, to_string(r.unit), d.to_string(), in.balance.id));
+                                   where, i + 1, r.text, to_string(r.unit), in_mg(d), in.balance.id));
   }
 }
 
@@ -125,11 +129,11 @@ void validate(const PipetteDefinition& p) {
 }
 
 std::vector<Decimal> default_test_volumes(const PipetteDefinition& p) {
-  std::vector<Decimal> v{p.nominal_ul};
+  std::vector<Decimal> v{trimmed(p.nominal_ul)};
   if (p.kind == PipetteKind::fixed) return v;
   const Decimal lower = p.lower_limit_ul.value_or(zero);
-  const Decimal half = std::max(half_of(p.nominal_ul), lower);
-  const Decimal tenth = std::max(p.nominal_ul.shifted(-1), lower);
+  const Decimal half = trimmed(std::max(half_of(p.nominal_ul), lower));
+  const Decimal tenth = trimmed(std::max(p.nominal_ul.shifted(-1), lower));
   for (Decimal x : {half, tenth})
     if (x != v.back()) v.push_back(x);
   return v;
@@ -144,10 +148,10 @@ PipetteRunResult evaluate_pipette_run(const PipetteRunInput& in) {
   if (in.run_date) pipette_balance::require_usable(in.balance, *in.run_date);
   if (in.balance.readability.in_grams() <= zero)
     throw InputError(fmt::format("balance {}: readability {} must be positive.", in.balance.id,
-                                 in.balance.readability.to_string()));
+                                 in_mg(in.balance.readability)));
   if (in.evaporation_per_weighing && in.evaporation_per_weighing->in_grams() < zero)
     throw InputError(fmt::format("evaporation loss {} is negative; give the mass lost per weighing.",
-                                 in.evaporation_per_weighing->to_string()));
+                                 in_mg(*in.evaporation_per_weighing)));
   out.evaporation_per_weighing = in.evaporation_per_weighing;
   if (in.volumes.empty()) throw InputError("the run has no test volumes; give weighings for at least one volume.");
 
@@ -161,6 +165,13 @@ PipetteRunResult evaluate_pipette_run(const PipetteRunInput& in) {
                                        : fmt::format("{} to {}", ul(lower), ul(p.nominal_ul))));
     if (!seen_volumes.insert(tv.volume_ul).second)
       throw InputError(fmt::format("test volume {} is given twice in the run.", ul(tv.volume_ul)));
+    // An unsuitable balance is the first thing to say: its readings would fail the decimals check anyway.
+    const pipette_balance::Suitability suit = pipette_balance::assess(in.balance, tv.volume_ul);
+    if (!suit.suitable) {
+      std::string why;
+      for (const auto& r : suit.reasons) why += (why.empty() ? "" : "; ") + r;
+      throw InputError(fmt::format("the balance is not suitable for this run: {}.", why));
+    }
     if (tv.channels.empty())
       throw InputError(fmt::format("test volume {} has no weighings.", ul(tv.volume_ul)));
     std::set<int> seen_channels;
@@ -172,12 +183,6 @@ PipetteRunResult evaluate_pipette_run(const PipetteRunInput& in) {
       if (!seen_channels.insert(ch.channel).second)
         throw InputError(fmt::format("test volume {}: channel {} is given twice.", ul(tv.volume_ul), ch.channel));
       check_channel_input(in, tv, ch);
-    }
-    const pipette_balance::Suitability suit = pipette_balance::assess(in.balance, tv.volume_ul);
-    if (!suit.suitable) {
-      std::string why;
-      for (const auto& r : suit.reasons) why += (why.empty() ? "" : "; ") + r;
-      throw InputError(fmt::format("the balance is not suitable for this run: {}.", why));
     }
   }
 

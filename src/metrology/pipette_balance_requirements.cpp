@@ -20,7 +20,9 @@ constexpr std::array<std::array<const char*, 5>, 5> table_text{{
     {"10000", "200000", "1", "2", "2"},
 }};
 
-std::string mg(Decimal v) { return v.to_string() + " mg"; }
+std::string mg(Decimal v) { return v.rescaled(v.significant_scale()).to_string() + " mg"; }
+std::string mg(const ExactMass& m) { return mg(m.in_grams().shifted(3)); }
+std::string ul(Decimal v) { return v.rescaled(v.significant_scale()).to_string() + " uL"; }
 
 // s and u are computed values in binary floating point (a Mass in grams); one equal to the limit as
 // printed (0.02 mg held as 0.00002 g) must count as within it, so the comparison allows a relative 1e-9.
@@ -45,23 +47,22 @@ Requirement requirement_for(Decimal test_volume_ul) {
     return table.front();
   for (const auto& row : table)
     if (test_volume_ul > row.volume_from_ul && test_volume_ul <= row.volume_to_ul) return row;
-  throw InputError(fmt::format("test volume {} uL is outside the balance requirements of ISO 8655-6 Table 1 "
-                               "({} uL to {} uL).",
-                               test_volume_ul.to_string(), table.front().volume_from_ul.to_string(),
-                               table.back().volume_to_ul.to_string()));
+  throw InputError(fmt::format("test volume {} is outside the balance requirements of ISO 8655-6 Table 1 "
+                               "({} to {}).",
+                               ul(test_volume_ul), ul(table.front().volume_from_ul), ul(table.back().volume_to_ul)));
 }
 
 Suitability assess(const BalanceForPipette& balance, Decimal test_volume_ul) {
   Suitability s;
   s.requirement = requirement_for(test_volume_ul);
   const Requirement& req = s.requirement;
-  const std::string where = fmt::format("for a test volume of {} uL (ISO 8655-6 Table 1, from memory)",
-                                        test_volume_ul.to_string());
+  const std::string where =
+      fmt::format("for a test volume of {} (ISO 8655-6 Table 1, from memory)", ul(test_volume_ul));
   const ExactMass d_needed = ExactMass::from(req.readability_mg, MassUnit::mg);
   if (balance.readability > d_needed) {
     s.suitable = false;
     s.reasons.push_back(fmt::format("balance {}: readability {} is coarser than the {} needed {}", balance.id,
-                                    balance.readability.to_string(), mg(req.readability_mg), where));
+                                    mg(balance.readability), mg(req.readability_mg), where));
   }
   if (!balance.repeatability) {
     s.suitable = false;
