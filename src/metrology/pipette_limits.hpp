@@ -56,7 +56,8 @@ struct LimitsPolicy {
 struct AppliedLimits {
   LimitsPolicy::Kind kind = LimitsPolicy::Kind::iso8655_2;
   Volume systematic;            ///< limit on |mean volume - selected volume|
-  Volume random;                ///< limit on the repeatability SD
+  Volume random;                ///< limit on the repeatability SD (lab %: the CV limit times the selected
+                                ///< volume, for display only; the verdict then compares CV with random_pct)
   double systematic_pct = 0.0;  ///< systematic limit as % of the selected volume
   double random_pct = 0.0;      ///< random limit as % of the selected volume (a CV limit)
   bool compare_in_pct = false;  ///< lab % limits: judge e_s % and CV directly
