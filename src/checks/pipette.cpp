@@ -1,0 +1,246 @@
+#include "checks/pipette.hpp"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <cmath>
+#include <set>
+
+#include "core/errors.hpp"
+#include "stats/exact_summary.hpp"
+
+namespace plumb::checks {
+namespace {
+
+const Decimal zero{0, 0};
+
+/// Shortest exact text: 10 % of 100 uL is "10", not "10.0".
+Decimal trimmed(Decimal v) { return v.rescaled(v.significant_scale()); }
+std::string ul(Decimal v) { return trimmed(v).to_string() + " uL"; }
+/// Balance readabilities are stated in mg in ISO 8655-6, so messages state them in mg too.
+std::string in_mg(const ExactMass& m) { return trimmed(m.in_grams().shifted(3)).to_string() + " mg"; }
+
+/// Decimals for printing a volume error next to a selected volume: 5 at 1 uL, 3 at 100 uL, 1 at 10 mL.
+int volume_decimals(Decimal selected) {
+  const double v = selected.to_double();
+  const int d = 5 - static_cast<int>(std::floor(std::log10(v)));
+  return std::clamp(d, 1, 6);
+}
+
+// Simple acceptance (ILAC G8, guard band 0): a value equal to the limit passes. Errors are computed in
+// binary floating point, so "equal" allows a relative 1e-9 for a limit printed as a short decimal.
+bool beyond(double magnitude, double limit) { return magnitude > limit * (1.0 + 1e-9); }
+
+Decimal half_of(Decimal v) { return {v.units() * 5, v.scale() + 1}; }
+
+void check_channel_input(const PipetteRunInput& in, const TestVolumeWeighings& tv, const ChannelWeighings& ch) {
+  const std::string where = fmt::format("test volume {}, channel {}", ul(tv.volume_ul), ch.channel);
+  if (ch.weighings.size() < min_replicates)
+    throw InputError(fmt::format("{}: {} weighing(s) given; the gravimetric check needs at least {} replicates "
+                                 "({} recommended).",
+                                 where, ch.weighings.size(), min_replicates, recommended_replicates));
+  const ExactMass& d = in.balance.readability;
+  const int d_scale = d.in_grams().significant_scale();
+  for (std::size_t i = 0; i < ch.weighings.size(); ++i) {
+    const MassReading& r = ch.weighings[i];
+    const Decimal g = r.mass().in_grams();
+    if (g <= zero)
+      throw InputError(fmt::format("{}: weighing {} ({} {}) is not a positive mass.", where, i + 1, r.text,
+                                   to_string(r.unit)));
+    if (g.significant_scale() > d_scale)
+      throw InputError(fmt::format("{}: weighing {} ({} {}) has more decimals than the readability {} of balance "
+                                   "{} allows.",
+                                   where, i + 1, r.text, to_string(r.unit), in_mg(d), in.balance.id));
+  }
+}
+
+ChannelResult evaluate_channel(const PipetteRunInput& in, const gravimetric::ZFactor& z, Decimal selected,
+                               const ChannelWeighings& ch) {
+  ChannelResult r;
+  r.selected_ul = selected;
+  r.channel = ch.channel;
+  std::vector<Decimal> net_mg;
+  net_mg.reserve(ch.weighings.size());
+  for (const MassReading& w : ch.weighings) {
+    ExactMass m = w.mass();
+    if (in.evaporation_per_weighing) m = m + *in.evaporation_per_weighing;
+    net_mg.push_back(m.in_grams().shifted(3));
+  }
+  const stats::ExactSummary s = stats::summarize_exact(net_mg);
+  const double zf = z.z_ul_per_mg;
+  r.n = s.n;
+  r.mean_mass = {s.mean() / 1e3};
+  r.sd_mass = {s.sd() / 1e3};
+  for (const Decimal& m : net_mg) r.volumes.push_back({m.to_double() * zf});
+  r.mean = {zf * s.mean()};
+  r.systematic_error = {r.mean.ul - selected.to_double()};
+  r.systematic_error_pct = 100.0 * r.systematic_error.ul / selected.to_double();
+  r.random_error = {zf * s.sd()};
+  r.cv_pct = 100.0 * s.sd() / s.mean();  // Z cancels
+  r.limits = pipette_limits::limits_at(in.pipette.limits, in.pipette.nominal_ul, selected, in.pipette.channels);
+
+  const int dp = volume_decimals(selected);
+  const std::string where = fmt::format("{}, channel {}", ul(selected), ch.channel);
+  const auto fail = [&](std::string why) {
+    r.verdict = Verdict::fail;
+    r.reasons.push_back(std::move(why));
+  };
+  const std::string policy = in.pipette.limits.name();
+  if (r.limits.compare_in_pct) {
+    if (beyond(std::abs(r.systematic_error_pct), r.limits.systematic_pct))
+      fail(fmt::format("{}: systematic error {:+.3f} % exceeds the limit +/-{} % ({})", where, r.systematic_error_pct,
+                       in.pipette.limits.systematic->to_string(), policy));
+    if (beyond(r.cv_pct, r.limits.random_pct))
+      fail(fmt::format("{}: random error CV {:.3f} % exceeds the limit {} % ({})", where, r.cv_pct,
+                       in.pipette.limits.random->to_string(), policy));
+  } else {
+    if (beyond(std::abs(r.systematic_error.ul), r.limits.systematic.ul))
+      fail(fmt::format("{}: systematic error {:+.{}f} uL exceeds the limit +/-{:.{}f} uL ({})", where,
+                       r.systematic_error.ul, dp, r.limits.systematic.ul, dp, policy));
+    if (beyond(r.random_error.ul, r.limits.random.ul))
+      fail(fmt::format("{}: random error s = {:.{}f} uL exceeds the limit {:.{}f} uL ({})", where, r.random_error.ul,
+                       dp, r.limits.random.ul, dp, policy));
+  }
+  return r;
+}
+
+}  // namespace
+
+std::string_view to_string(PipetteKind k) { return k == PipetteKind::fixed ? "fixed" : "variable"; }
+
+void validate(const PipetteDefinition& p) {
+  const std::string who = p.id.empty() ? std::string("pipette") : fmt::format("pipette {}", p.id);
+  if (p.nominal_ul <= zero)
+    throw InputError(fmt::format("{}: nominal volume {} must be positive.", who, ul(p.nominal_ul)));
+  if (p.channels < 1 || p.channels > max_channels)
+    throw InputError(fmt::format("{}: channel count {} is outside 1 to {}.", who, p.channels, max_channels));
+  if (p.kind == PipetteKind::variable) {
+    if (!p.lower_limit_ul)
+      throw InputError(fmt::format("{}: a variable-volume pipette needs the lower limit of its range.", who));
+    if (*p.lower_limit_ul <= zero || *p.lower_limit_ul >= p.nominal_ul)
+      throw InputError(fmt::format("{}: lower limit {} must be positive and below the nominal volume {}.", who,
+                                   ul(*p.lower_limit_ul), ul(p.nominal_ul)));
+  } else if (p.lower_limit_ul && *p.lower_limit_ul != p.nominal_ul) {
+    throw InputError(fmt::format("{}: a fixed-volume pipette has no range, but a lower limit {} was given for "
+                                 "nominal volume {}.",
+                                 who, ul(*p.lower_limit_ul), ul(p.nominal_ul)));
+  }
+  pipette_limits::validate_policy(p.limits, p.nominal_ul);
+}
+
+std::vector<Decimal> default_test_volumes(const PipetteDefinition& p) {
+  std::vector<Decimal> v{trimmed(p.nominal_ul)};
+  if (p.kind == PipetteKind::fixed) return v;
+  const Decimal lower = p.lower_limit_ul.value_or(zero);
+  const Decimal half = trimmed(std::max(half_of(p.nominal_ul), lower));
+  const Decimal tenth = trimmed(std::max(p.nominal_ul.shifted(-1), lower));
+  for (Decimal x : {half, tenth})
+    if (x != v.back()) v.push_back(x);
+  return v;
+}
+
+PipetteRunResult evaluate_pipette_run(const PipetteRunInput& in) {
+  const PipetteDefinition& p = in.pipette;
+  validate(p);
+  PipetteRunResult out;
+  out.pipette_id = p.id;
+  out.z = gravimetric::z_factor(in.environment);  // refuses a water temperature outside 15-30 degC
+  if (in.run_date) pipette_balance::require_usable(in.balance, *in.run_date);
+  if (in.balance.readability.in_grams() <= zero)
+    throw InputError(fmt::format("balance {}: readability {} must be positive.", in.balance.id,
+                                 in_mg(in.balance.readability)));
+  if (in.evaporation_per_weighing && in.evaporation_per_weighing->in_grams() < zero)
+    throw InputError(fmt::format("evaporation loss {} is negative; give the mass lost per weighing.",
+                                 in_mg(*in.evaporation_per_weighing)));
+  out.evaporation_per_weighing = in.evaporation_per_weighing;
+  if (in.volumes.empty()) throw InputError("the run has no test volumes; give weighings for at least one volume.");
+
+  const Decimal lower = p.kind == PipetteKind::variable ? *p.lower_limit_ul : p.nominal_ul;
+  std::set<Decimal, std::less<>> seen_volumes;
+  for (const TestVolumeWeighings& tv : in.volumes) {
+    if (tv.volume_ul < lower || tv.volume_ul > p.nominal_ul)
+      throw InputError(fmt::format(
+          "test volume {} is outside the range of pipette {} ({}).", ul(tv.volume_ul), p.id,
+          p.kind == PipetteKind::fixed ? fmt::format("fixed at {}", ul(p.nominal_ul))
+                                       : fmt::format("{} to {}", ul(lower), ul(p.nominal_ul))));
+    if (!seen_volumes.insert(tv.volume_ul).second)
+      throw InputError(fmt::format("test volume {} is given twice in the run.", ul(tv.volume_ul)));
+    // An unsuitable balance is the first thing to say: its readings would fail the decimals check anyway.
+    const pipette_balance::Suitability suit = pipette_balance::assess(in.balance, tv.volume_ul);
+    if (!suit.suitable) {
+      std::string why;
+      for (const auto& r : suit.reasons) why += (why.empty() ? "" : "; ") + r;
+      throw InputError(fmt::format("the balance is not suitable for this run: {}.", why));
+    }
+    if (tv.channels.empty())
+      throw InputError(fmt::format("test volume {} has no weighings.", ul(tv.volume_ul)));
+    std::set<int> seen_channels;
+    for (const ChannelWeighings& ch : tv.channels) {
+      if (ch.channel < 1 || ch.channel > p.channels)
+        throw InputError(fmt::format("test volume {}: channel {} does not exist on pipette {}, which has {} "
+                                     "channel(s).",
+                                     ul(tv.volume_ul), ch.channel, p.id, p.channels));
+      if (!seen_channels.insert(ch.channel).second)
+        throw InputError(fmt::format("test volume {}: channel {} is given twice.", ul(tv.volume_ul), ch.channel));
+      check_channel_input(in, tv, ch);
+    }
+  }
+
+  // Evaluate, largest volume first and channels ascending, so results read the same whatever the input order.
+  std::vector<const TestVolumeWeighings*> order;
+  for (const auto& tv : in.volumes) order.push_back(&tv);
+  std::sort(order.begin(), order.end(), [](auto* a, auto* b) { return a->volume_ul > b->volume_ul; });
+  std::set<std::string> balance_notes;
+  bool few = false;
+  for (const TestVolumeWeighings* tv : order) {
+    TestVolumeResult tr;
+    tr.selected_ul = tv->volume_ul;
+    tr.balance = pipette_balance::assess(in.balance, tv->volume_ul);
+    balance_notes.insert(tr.balance.notes.begin(), tr.balance.notes.end());
+    std::vector<const ChannelWeighings*> chans;
+    for (const auto& ch : tv->channels) chans.push_back(&ch);
+    std::sort(chans.begin(), chans.end(), [](auto* a, auto* b) { return a->channel < b->channel; });
+    for (const ChannelWeighings* ch : chans) {
+      if (ch->weighings.size() < recommended_replicates) few = true;
+      ChannelResult cr = evaluate_channel(in, out.z, tv->volume_ul, *ch);
+      if (cr.verdict == Verdict::fail) {
+        tr.verdict = Verdict::fail;
+        out.verdict = Verdict::fail;
+        out.reasons.insert(out.reasons.end(), cr.reasons.begin(), cr.reasons.end());
+      }
+      tr.channels.push_back(std::move(cr));
+    }
+    if (static_cast<int>(tr.channels.size()) < p.channels) {
+      std::string missing;
+      std::size_t k = 0;
+      for (int c = 1; c <= p.channels; ++c) {
+        if (k < tr.channels.size() && tr.channels[k].channel == c) {
+          ++k;
+          continue;
+        }
+        missing += (missing.empty() ? "" : ", ") + std::to_string(c);
+      }
+      out.complete = false;
+      out.verdict = Verdict::fail;
+      out.reasons.push_back(fmt::format("incomplete: channel(s) {} not tested at {} (ISO 8655-6 tests every channel)",
+                                        missing, ul(tv->volume_ul)));
+    }
+    out.volumes.push_back(std::move(tr));
+  }
+  for (const Decimal& v : default_test_volumes(p)) {
+    if (!seen_volumes.count(v)) {
+      out.complete = false;
+      out.verdict = Verdict::fail;
+      out.reasons.push_back(fmt::format("incomplete: the ISO 8655-6 test volume {} was not tested", ul(v)));
+    }
+  }
+  if (few)
+    out.notes.push_back(fmt::format("Fewer than {} replicates at some volume or channel; ISO 8655-6 asks for {}.",
+                                    recommended_replicates, recommended_replicates));
+  for (auto& n : gravimetric::environment_notes(in.environment)) out.notes.push_back(std::move(n));
+  out.notes.insert(out.notes.end(), balance_notes.begin(), balance_notes.end());
+  out.notes.push_back("Decision rule: simple acceptance (ILAC G8, no guard band); a result equal to a limit passes.");
+  return out;
+}
+
+}  // namespace plumb::checks
