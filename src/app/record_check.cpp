@@ -52,6 +52,14 @@ std::int64_t resolve_run(store::Database& db, const std::string& selector) {
 }
 
 store::RunRecord record_check(store::Database& db, const store::Actor& actor, const CheckInput& in) {
+  SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
+  store::Recorder rec(db.sql(), actor);
+  const std::int64_t id = record_check_in(db, rec, in);
+  tx.commit();
+  return *store::find_run(db.sql(), id);
+}
+
+std::int64_t record_check_in(store::Database& db, store::Recorder& rec, const CheckInput& in) {
   const auto procedures = known_procedures();
   if (std::find(procedures.begin(), procedures.end(), in.procedure) == procedures.end())
     throw InputError(fmt::format("--procedure \"{}\" is not known (known: {}).", in.procedure,
@@ -64,8 +72,6 @@ store::RunRecord record_check(store::Database& db, const store::Actor& actor, co
     throw InputError(fmt::format("--weight: a repeatability check uses exactly one reference weight ({} given).",
                                  in.weight_ids.size()));
   const auto readings = parse_readings_csv(in.readings_csv, in.readings_source, in.default_unit);
-
-  SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   require_lab(db);
   const auto balance = store::find_balance(db.sql(), in.instrument_id);
   if (!balance) throw InputError(fmt::format("balance \"{}\" is not registered.", in.instrument_id));
@@ -111,10 +117,7 @@ store::RunRecord record_check(store::Database& db, const store::Actor& actor, co
   int seq = 1;
   for (const auto& r : readings) run.readings.push_back({seq++, "", r.reading});
 
-  store::Recorder rec(db.sql(), actor);
-  run.id = store::add_run(rec, run);
-  tx.commit();
-  return *store::find_run(db.sql(), run.id);
+  return store::add_run(rec, run);
 }
 
 }  // namespace plumb::app

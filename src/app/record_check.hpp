@@ -23,7 +23,10 @@ struct CheckInput {
   std::string operator_name;
 };
 
+/// Validates, computes and records one check in its own transaction; nothing is written on error.
 store::RunRecord record_check(store::Database& db, const store::Actor& actor, const CheckInput& in);
+/// The same inside a transaction the caller holds (batch import); returns the new run id.
+std::int64_t record_check_in(store::Database& db, store::Recorder& rec, const CheckInput& in);
 
 /// "LAST" or a run number; InputError when there is no such run.
 std::int64_t resolve_run(store::Database& db, const std::string& selector);
