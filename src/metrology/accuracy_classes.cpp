@@ -77,6 +77,7 @@ ExactMass mpe(AccuracyClass cls, ExactMass e, ExactMass load, Verification v) {
     // MPE = mpe_half_e * e / 2 (x2 in service), exact: units * factor at one more decimal.
     const Decimal d = e.in_grams();
     const std::int64_t factor = static_cast<std::int64_t>(b.mpe_half_e) * (v == Verification::in_service ? 2 : 1) * 5;
+    if (factor % 10 == 0) return ExactMass::grams(Decimal(d.units() * (factor / 10), d.scale()));
     return ExactMass::grams(Decimal(d.units() * factor, d.scale() + 1));
   }
   throw InputError(fmt::format("load: {} is above the largest load OIML R 76 class {} covers with e = {}.",

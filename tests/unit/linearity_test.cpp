@@ -131,6 +131,12 @@ TEST_CASE("conventional mass from the certificate, and the buoyancy correction",
   const auto rc = evaluate_linearity(c);
   CHECK(rc.loads[1].class_only);
   CHECK(rc.loads[1].u_weights_g == Approx(0.5e-3 / std::sqrt(3.0)));
+
+  // Drift D = 0.03 mg of W100 and 0.02 mg of W50: u = (0.03 + 0.02) mg / sqrt 3 = 2.886751e-5 g at W100+W50.
+  auto dr = sensitivity_run();
+  dr.weights[1].drift = g("0.03 mg");
+  dr.weights[0].drift = g("0.02 mg");
+  CHECK(evaluate_linearity(dr).loads[2].u_drift_g == Approx(2.886751e-5).epsilon(1e-6));
 }
 
 TEST_CASE("error of indication: bad input is refused, naming the field", "[unit][linearity]") {
