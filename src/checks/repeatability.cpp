@@ -74,18 +74,30 @@ RepeatabilityResult evaluate_repeatability(const RepeatabilityInput& in) {
     r.bias_limit = usp41::accuracy_limit(r.reference);
     if (!in.balance.smallest_net) {
       fail("no smallest net weight is declared for this balance, so USP <41> repeatability cannot be judged");
-    } else if (r.min_weight > in.balance.smallest_net->approx()) {
+    } else {
+      const Mass m = in.balance.smallest_net->approx();
+      r.criteria.push_back({"repeatability", "minimum weight", r.min_weight, m,
+                            "declared smallest net weight (USP <41>)", r.min_weight <= m});
+    }
+    if (in.balance.smallest_net && r.min_weight > in.balance.smallest_net->approx()) {
       fail(fmt::format("repeatability: minimum weight {} exceeds the declared smallest net weight {} (USP <41>)",
                        format_mass(r.min_weight), in.balance.smallest_net->to_string()));
     }
   } else {
     if (in.policy.max_bias) r.bias_limit = in.policy.max_bias->approx();
     if (in.policy.max_sd) r.sd_limit = in.policy.max_sd->approx();
+    if (r.sd_limit)
+      r.criteria.push_back({"repeatability", "SD s", r.sd, *r.sd_limit, "lab limit", r.sd <= *r.sd_limit});
     if (r.sd_limit && r.sd > *r.sd_limit)
       fail(fmt::format("repeatability: s = {} exceeds the lab limit {}", format_mass(r.sd),
                        in.policy.max_sd->to_string()));
   }
   if (r.bias_limit) {
+    const Mass abs_bias{std::abs(r.bias.g)};
+    r.criteria.push_back({"accuracy", "|bias|", abs_bias, *r.bias_limit,
+                          in.policy.kind == TolerancePolicy::Kind::usp41 ? "0.10 % of the reference value (USP <41>)"
+                                                                         : "lab limit",
+                          abs_bias <= *r.bias_limit});
     if (std::abs(r.bias.g) > r.bias_limit->g)
       fail(fmt::format("accuracy: |bias| = {} exceeds the limit {} ({})", format_mass({std::abs(r.bias.g)}),
                        format_mass(*r.bias_limit), in.policy.name()));

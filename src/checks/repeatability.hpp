@@ -46,6 +46,7 @@ struct RepeatabilityResult {
   std::optional<Mass> bias_limit;
   std::optional<Mass> sd_limit;
   bool weight_suitable = true;
+  std::vector<Criterion> criteria;
   Verdict verdict = Verdict::pass;
   std::vector<std::string> reasons;  ///< every fail names its reason; empty on pass
   std::vector<std::string> notes;    ///< observations that do not change the verdict

@@ -11,6 +11,16 @@ namespace plumb {
 enum class Verdict { pass, fail };
 inline std::string_view to_string(Verdict v) { return v == Verdict::pass ? "pass" : "fail"; }
 
+/// One tolerance test of a check: what was measured, the limit, and whether it passed.
+struct Criterion {
+  std::string name;    ///< e.g. "accuracy", "repeatability"
+  std::string quantity;///< what is compared, e.g. "|bias|", "minimum weight"
+  Mass measured;
+  Mass limit;
+  std::string basis;   ///< where the limit comes from, e.g. "0.10 % of the reference value (USP <41>)"
+  bool pass = true;
+};
+
 /// Which tolerances a weekly check is judged against.
 struct TolerancePolicy {
   enum class Kind { usp41, lab };

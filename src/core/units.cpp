@@ -66,7 +66,7 @@ std::string ExactMass::to_string() const {
   const auto tidy = [](Decimal d) { return d.rescaled(d.significant_scale()).to_string(); };
   const double a = std::abs(g_.to_double());
   if (a >= 1.0 || g_.units() == 0) return tidy(g_) + " g";
-  if (a >= 1e-3) return tidy(g_.shifted(3)) + " mg";
+  if (a >= 1e-5) return tidy(g_.shifted(3)) + " mg";
   return tidy(g_.shifted(6)) + " ug";
 }
 
@@ -74,7 +74,7 @@ std::string format_mass(Mass m, int significant) {
   const double a = std::abs(m.g);
   if (a == 0.0) return "0 g";
   if (a >= 1.0) return fmt::format("{:.{}g} g", m.g, significant);
-  if (a >= 1e-3) return fmt::format("{:.{}g} mg", m.g * 1e3, significant);
+  if (a >= 1e-5) return fmt::format("{:.{}g} mg", m.g * 1e3, significant);
   return fmt::format("{:.{}g} ug", m.g * 1e6, significant);
 }
 

@@ -1,0 +1,25 @@
+#pragma once
+// Issuing certificates. The whole certificate is assembled once as JSON and stored with its SHA-256;
+// text, JSON and PDF are renderings of that stored document, so a certificate never changes.
+#include <optional>
+#include <string>
+
+#include "store/database.hpp"
+#include "store/recorder.hpp"
+#include "store/records.hpp"
+
+namespace plumb::app {
+
+struct IssueOutcome {
+  store::CertificateRecord certificate;
+  bool already_issued = false;  ///< the run had a certificate; it is returned unchanged
+};
+
+/// Issues the certificate of run `selector` ("LAST" or a number) with the given layout file (or default).
+IssueOutcome issue_certificate(store::Database& db, const store::Actor& actor, const std::string& selector,
+                               const std::optional<std::string>& layout_path);
+
+/// A stored certificate by number, or by run ("LAST" / run number) when `selector` is not a number.
+store::CertificateRecord find_certificate(store::Database& db, const std::string& selector);
+
+}  // namespace plumb::app

@@ -1,0 +1,125 @@
+#include "app/demo_lab.hpp"
+
+#include <fmt/format.h>
+
+#include <cmath>
+#include <nlohmann/json.hpp>
+#include <random>
+
+#include "app/certificates.hpp"
+#include "app/record_check.hpp"
+#include "app/registry.hpp"
+#include "core/errors.hpp"
+#include "store/embedded.hpp"
+#include "store/repository.hpp"
+
+namespace plumb::app {
+namespace {
+
+using nlohmann::json;
+
+// Box-Muller on mt19937_64's raw output: unlike std::normal_distribution, the same on every platform.
+class Gauss {
+public:
+  explicit Gauss(std::uint64_t seed) : engine_(seed) {}
+  double next() {
+    const double u1 = (static_cast<double>(engine_() >> 11) + 1.0) * 0x1.0p-53;
+    const double u2 = static_cast<double>(engine_() >> 11) * 0x1.0p-53;
+    return std::sqrt(-2.0 * std::log(u1)) * std::cos(2.0 * M_PI * u2);
+  }
+  std::uint64_t raw() { return engine_(); }
+
+private:
+  std::mt19937_64 engine_;
+};
+
+void make_room(const std::filesystem::path& path, const std::string& demo_lab) {
+  if (!std::filesystem::exists(path)) return;
+  {
+    store::Database existing(path, store::Database::Open::existing);
+    const auto lab = store::find_lab(existing.sql());
+    if (!lab || lab->name != demo_lab)
+      throw InputError(fmt::format("--db \"{}\" exists and is not a plumb demo database; choose another file.",
+                                   path.string()));
+  }
+  for (const char* suffix : {"", "-wal", "-shm"}) std::filesystem::remove(path.string() + suffix);
+}
+
+}  // namespace
+
+DemoSummary build_demo(const std::filesystem::path& path, const std::function<void(int, int)>& progress) {
+  const json scenario = json::parse(embedded::demo_scenario());
+  DemoSummary summary;
+  summary.db_path = path;
+  summary.lab = scenario["lab"].get<std::string>();
+  summary.report_on = parse_date(scenario["report_on"].get<std::string>());
+  make_room(path, summary.lab);
+
+  store::Database db(path, store::Database::Open::create);
+  const auto people = scenario["people"].get<std::vector<std::string>>();
+  const store::Actor quality{"Dr. Ines Varga", store::current_os_user()};
+  init_lab(db, quality, summary.lab);
+  for (const auto& w : scenario["weights"]) {
+    WeightInput in;
+    in.id = w["id"];
+    in.nominal = w["nominal"];
+    in.weight_class = w["class"];
+    in.correction = w["correction"];
+    in.uncertainty = w["uncertainty"];
+    in.k = w["k"];
+    in.certificate = w["certificate"];
+    in.calibrated = w["calibrated"];
+    in.due = w["due"];
+    add_weight(db, quality, in);
+  }
+  const Date first = parse_date(scenario["first_check"].get<std::string>());
+  for (const auto& b : scenario["balances"]) {
+    BalanceInput in;
+    in.id = b["id"];
+    in.capacity = b["capacity"];
+    in.readability = b["readability"];
+    in.every = b["every"];
+    in.location = b["location"];
+    in.smallest_net = b["smallest_net"].get<std::string>();
+    in.since = to_string(first);
+    add_balance(db, quality, in);
+  }
+
+  Gauss noise(scenario["seed"].get<std::uint64_t>());
+  const int weeks = scenario["weeks"].get<int>();
+  const int total = weeks * static_cast<int>(scenario["balances"].size());
+  for (int week = 0; week < weeks; ++week) {
+    const Date on = add_days(first, 7 * week);
+    for (const auto& b : scenario["balances"]) {
+      const auto balance = *store::find_balance(db.sql(), b["id"].get<std::string>());
+      const auto weight = *store::find_weight(db.sql(), b["weight"].get<std::string>());
+      const double d_g = balance.readability.approx().g;
+      const int decimals = balance.readability.in_grams().significant_scale();
+      const double bias_mg = b["bias_mg"].get<double>() + b["drift_mg_per_year"].get<double>() * week / 52.0;
+      const bool late = b.contains("late_from_week") && week >= b["late_from_week"].get<int>();
+      const double sd_mg = late ? b["late_sd_mg"].get<double>() : b["sd_mg"].get<double>();
+      std::string csv = "reading\n";
+      for (int i = 0; i < 10; ++i) {
+        const double value = weight.conventional_mass().approx().g + (bias_mg + sd_mg * noise.next()) * 1e-3;
+        // Round to the displayed scale interval, as the balance's display does.
+        csv += fmt::format("{:.{}f}\n", std::round(value / d_g) * d_g, decimals);
+      }
+      CheckInput in;
+      in.instrument_id = balance.id;
+      in.procedure = "repeatability";
+      in.weight_ids = {weight.id};
+      in.readings_csv = csv;
+      in.readings_source = fmt::format("demo {} week {}", balance.id, week + 1);
+      in.on = to_string(on);
+      in.operator_name = people[noise.raw() % people.size()];
+      const auto run = record_check(db, {in.operator_name, quality.os_user}, in);
+      ++summary.runs;
+      if (run.verdict == Verdict::fail) ++summary.failed_runs;
+      if (balance.id == "AB-01") summary.showcase_run = run.id;
+      progress(summary.runs, total);
+    }
+  }
+  return summary;
+}
+
+}  // namespace plumb::app

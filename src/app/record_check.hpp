@@ -1,0 +1,34 @@
+#pragma once
+// Recording a check run: validate everything (instrument, weights and their traceability, readings),
+// compute the results, judge them, schedule the next check, and write it all in one transaction.
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "core/units.hpp"
+#include "store/database.hpp"
+#include "store/recorder.hpp"
+#include "store/records.hpp"
+
+namespace plumb::app {
+
+struct CheckInput {
+  std::string instrument_id;
+  std::string procedure;                ///< "repeatability"
+  std::vector<std::string> weight_ids;  ///< e.g. {"W100"}
+  std::string readings_csv;             ///< the CSV text
+  std::string readings_source;          ///< file name for messages
+  MassUnit default_unit = MassUnit::g;
+  std::string on;                       ///< date performed, YYYY-MM-DD
+  std::string operator_name;
+};
+
+store::RunRecord record_check(store::Database& db, const store::Actor& actor, const CheckInput& in);
+
+/// "LAST" or a run number; InputError when there is no such run.
+std::int64_t resolve_run(store::Database& db, const std::string& selector);
+
+/// The procedures `check record` knows.
+std::vector<std::string> known_procedures();
+
+}  // namespace plumb::app

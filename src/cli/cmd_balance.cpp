@@ -1,0 +1,76 @@
+#include <fmt/ostream.h>
+
+#include <nlohmann/json.hpp>
+
+#include "app/registry.hpp"
+#include "cli/command_groups.hpp"
+#include "store/repository.hpp"
+
+namespace plumb::cli {
+
+std::vector<Command> balance_commands() {
+  Command add{"balance", "add", "register a balance, its check interval and its tolerance policy",
+              "plumb balance add BAL-A --capacity 220g --readability 0.1mg --every 7d --smallest-net 200mg "
+              "--location \"Room 2\"",
+              [](po::options_description& d, po::positional_options_description& p) {
+                d.add_options()("id", po::value<std::string>()->required(), "balance id (positional)")(
+                    "capacity", po::value<std::string>()->required(), "maximum capacity, e.g. 220g")(
+                    "readability", po::value<std::string>()->required(), "readability d (scale interval), e.g. 0.1mg")(
+                    "every", po::value<std::string>()->required(), "check interval: 7d, 4w, 6mo, 1y")(
+                    "smallest-net", po::value<std::string>(),
+                    "smallest net weight the lab weighs on it (USP <41> repeatability)")(
+                    "max-bias", po::value<std::string>(), "lab's own accuracy limit |bias| (replaces USP <41>)")(
+                    "max-sd", po::value<std::string>(), "lab's own repeatability limit s (replaces USP <41>)")(
+                    "location", po::value<std::string>()->default_value(""), "where it stands")(
+                    "since", po::value<std::string>(), "in use since (first check due), default today");
+                add_by_option(d);
+                p.add("id", 1);
+              },
+              [](const po::variables_map& vm, Env& env) {
+                app::BalanceInput in;
+                in.id = vm["id"].as<std::string>();
+                in.capacity = vm["capacity"].as<std::string>();
+                in.readability = vm["readability"].as<std::string>();
+                in.every = vm["every"].as<std::string>();
+                in.location = vm["location"].as<std::string>();
+                in.smallest_net = optional_string(vm, "smallest-net");
+                in.max_bias = optional_string(vm, "max-bias");
+                in.max_sd = optional_string(vm, "max-sd");
+                in.since = optional_string(vm, "since");
+                auto db = env.open();
+                const auto b = app::add_balance(db, Env::actor(vm), in);
+                fmt::print(env.out, "Balance {} registered: capacity {}, d = {}, checked every {} under {}.\n", b.id,
+                           b.capacity.to_string(), b.readability.to_string(), b.every.to_string(), b.policy.name());
+                return 0;
+              }};
+  Command list{"balance", "list", "list balances", "plumb balance list",
+               [](po::options_description& d, po::positional_options_description&) { add_format_option(d); },
+               [](const po::variables_map& vm, Env& env) {
+                 const auto format = format_of(vm, {"text", "json"});
+                 auto db = env.open();
+                 const auto balances = store::list_balances(db.sql());
+                 if (format == "json") {
+                   nlohmann::json j = nlohmann::json::array();
+                   for (const auto& b : balances)
+                     j.push_back({{"id", b.id},
+                                  {"location", b.location},
+                                  {"capacity_g", b.capacity.approx().g},
+                                  {"readability_g", b.readability.approx().g},
+                                  {"smallest_net_g", b.smallest_net ? nlohmann::json(b.smallest_net->approx().g)
+                                                                    : nlohmann::json()},
+                                  {"every", b.every.to_string()},
+                                  {"policy", b.policy.key()}});
+                   env.out << j.dump(2) << "\n";
+                   return 0;
+                 }
+                 fmt::print(env.out, "{:<10}{:<12}{:<12}{:<8}{:<12}{}\n", "id", "capacity", "d", "every", "policy",
+                            "location");
+                 for (const auto& b : balances)
+                   fmt::print(env.out, "{:<10}{:<12}{:<12}{:<8}{:<12}{}\n", b.id, b.capacity.to_string(),
+                              b.readability.to_string(), b.every.to_string(), b.policy.key(), b.location);
+                 return 0;
+               }};
+  return {add, list};
+}
+
+}  // namespace plumb::cli

@@ -1,0 +1,54 @@
+#include <fmt/ostream.h>
+
+#include <filesystem>
+#include <fstream>
+
+#include <nlohmann/json.hpp>
+
+#include "app/certificates.hpp"
+#include "app/demo_lab.hpp"
+#include "app/due_list.hpp"
+#include "cli/command_groups.hpp"
+#include "cli/progress.hpp"
+#include "report/certificate_text.hpp"
+#include "store/embedded.hpp"
+
+namespace plumb::cli {
+
+std::vector<Command> demo_commands() {
+  Command demo{
+      "demo", "", "build an invented demo laboratory with a year of weekly checks, then show what is due",
+      "plumb demo            (writes ./plumb-demo.db; or plumb --db /tmp/demo.db demo)",
+      [](po::options_description&, po::positional_options_description&) {},
+      [](const po::variables_map&, Env& env) {
+        // The demo never touches the lab's default database: without --db it writes ./plumb-demo.db.
+        const std::filesystem::path path = env.db_given ? env.db_path : std::filesystem::path("plumb-demo.db");
+        Progress bar(env.err, "demo: recording weekly checks", env.err_is_terminal);
+        const auto summary = app::build_demo(path, [&](int done, int total) { bar.update(done, total); });
+        bar.finish();
+        fmt::print(env.out, "Demo laboratory \"{}\" written to {}: {} check runs, {} failed.\n\n", summary.lab,
+                   path.string(), summary.runs, summary.failed_runs);
+
+        store::Database db(path, store::Database::Open::existing);
+        fmt::print(env.out, "What is due on {} (within 14 days):\n", to_string(summary.report_on));
+        for (const auto& i : app::due_items(db, summary.report_on, 14))
+          fmt::print(env.out, "  {:<8}{:<8}{:<16}{:<12}{:>8}  {}\n", i.kind, i.id, i.status,
+                     i.due_on ? to_string(*i.due_on) : "-", i.days_left ? fmt::format("{} d", *i.days_left) : "",
+                     i.detail);
+
+        // The certificate uses the demo lab's own layout (address, reviewer), written beside the database.
+        const auto scenario = nlohmann::json::parse(embedded::demo_scenario());
+        const std::filesystem::path layout = path.string() + ".layout.json";
+        std::ofstream(layout) << scenario["layout"].dump(2);
+        const auto cert = app::issue_certificate(db, {"Dr. Ines Varga", store::current_os_user()},
+                                                 std::to_string(summary.showcase_run), layout.string());
+        fmt::print(env.out, "\nCertificate of the latest check of AB-01:\n\n{}",
+                   report::certificate_text(cert.certificate.content, cert.certificate.content_sha256));
+        fmt::print(env.out, "\nTry: plumb --db {} due --on {} --within 14d\n     plumb --db {} check show LAST\n",
+                   path.string(), to_string(summary.report_on), path.string());
+        return 0;
+      }};
+  return {demo};
+}
+
+}  // namespace plumb::cli

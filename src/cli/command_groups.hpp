@@ -1,0 +1,17 @@
+#pragma once
+// One function per noun, each in its own cmd_*.cpp file.
+#include <vector>
+
+#include "cli/command.hpp"
+
+namespace plumb::cli {
+
+std::vector<Command> lab_commands();
+std::vector<Command> weight_commands();
+std::vector<Command> balance_commands();
+std::vector<Command> check_commands();
+std::vector<Command> certificate_commands();
+std::vector<Command> due_commands();
+std::vector<Command> demo_commands();
+
+}  // namespace plumb::cli

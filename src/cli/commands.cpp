@@ -1,0 +1,19 @@
+#include "cli/command.hpp"
+#include "cli/command_groups.hpp"
+
+namespace plumb::cli {
+
+const std::vector<Command>& commands() {
+  static const std::vector<Command> all = [] {
+    std::vector<Command> v;
+    for (auto group : {lab_commands, weight_commands, balance_commands, check_commands, certificate_commands,
+                       due_commands, demo_commands}) {
+      auto g = group();
+      v.insert(v.end(), g.begin(), g.end());
+    }
+    return v;
+  }();
+  return all;
+}
+
+}  // namespace plumb::cli

@@ -1,0 +1,154 @@
+#include <SQLiteCpp/Exception.h>
+#include <fmt/format.h>
+#include <fmt/ostream.h>
+#include <unistd.h>
+
+#include <iostream>
+
+#include "cli/command.hpp"
+#include "core/errors.hpp"
+
+namespace plumb::cli {
+namespace {
+
+constexpr const char* version = "0.1.0";
+
+void print_usage(std::ostream& out) {
+  out << "plumb: calibration and verification records for laboratory balances and pipettes\n\n"
+         "usage: plumb [--db PATH] NOUN [VERB] [options]\n\n"
+         "global options:\n"
+         "  --db PATH     database file (default: $PLUMB_DB, else $XDG_DATA_HOME/plumb/plumb.db)\n"
+         "  --help        this help; `plumb NOUN VERB --help` explains one command\n"
+         "  --version     print the version\n\ncommands:\n";
+  for (const auto& c : commands()) {
+    const std::string name = c.verb.empty() ? c.noun : c.noun + " " + c.verb;
+    out << fmt::format("  {:<22}{}\n", name, c.summary);
+  }
+  out << "\nexit status: 0 ok, 1 a check failed where --gate was asked, 2 bad input (nothing written), "
+         "3 storage or internal error\n";
+}
+
+void print_command_help(const Command& c, const po::options_description& d, std::ostream& out) {
+  const std::string name = c.verb.empty() ? c.noun : c.noun + " " + c.verb;
+  out << fmt::format("plumb {}: {}\n\n{}\nexample:\n  {}\n", name, c.summary, fmt::streamed(d), c.example);
+}
+
+std::string describe(const po::error& e) {
+  std::string what = e.what();
+  if (!what.empty()) what[0] = static_cast<char>(std::toupper(static_cast<unsigned char>(what[0])));
+  if (!what.empty() && what.back() != '.') what += '.';
+  return what;
+}
+
+}  // namespace
+
+store::Actor Env::actor(const po::variables_map& vm) {
+  store::Actor a;
+  a.os_user = store::current_os_user();
+  a.name = vm.count("by") ? vm["by"].as<std::string>() : a.os_user;
+  return a;
+}
+
+void add_format_option(po::options_description& d, const std::string& choices) {
+  d.add_options()("format", po::value<std::string>()->default_value("text"), ("output format: " + choices).c_str());
+}
+
+void add_by_option(po::options_description& d, const std::string& what) {
+  d.add_options()("by", po::value<std::string>(), ("name of " + what + " (recorded as given)").c_str());
+}
+
+std::string format_of(const po::variables_map& vm, const std::vector<std::string>& allowed) {
+  const std::string f = vm["format"].as<std::string>();
+  if (std::find(allowed.begin(), allowed.end(), f) == allowed.end())
+    throw InputError(fmt::format("--format \"{}\" is not one of: {}.", f, fmt::join(allowed, ", ")));
+  return f;
+}
+
+std::optional<std::string> optional_string(const po::variables_map& vm, const char* name) {
+  if (!vm.count(name)) return std::nullopt;
+  return vm[name].as<std::string>();
+}
+
+int run(int argc, const char* const* argv, std::ostream& out, std::ostream& err) {
+  std::vector<std::string> args(argv + 1, argv + argc);
+  Env env{store::default_database_path(), false, out, err, isatty(STDOUT_FILENO) != 0, isatty(STDERR_FILENO) != 0};
+  std::size_t i = 0;
+  try {
+    for (; i < args.size() && args[i].rfind("--", 0) == 0; ++i) {
+      if (args[i] == "--help") {
+        print_usage(out);
+        return 0;
+      }
+      if (args[i] == "--version") {
+        out << "plumb " << version << "\n";
+        return 0;
+      }
+      if (args[i] == "--db" && i + 1 < args.size()) {
+        env.db_path = args[++i];
+        env.db_given = true;
+      } else if (args[i].rfind("--db=", 0) == 0) {
+        env.db_path = args[i].substr(5);
+        env.db_given = true;
+      } else {
+        throw InputError(fmt::format("global option \"{}\" is not known (see plumb --help).", args[i]));
+      }
+    }
+    if (i >= args.size()) {
+      print_usage(err);
+      return 2;
+    }
+    const std::string noun = args[i++];
+    const Command* chosen = nullptr;
+    bool noun_known = false;
+    for (const auto& c : commands()) {
+      if (c.noun != noun) continue;
+      noun_known = true;
+      if (c.verb.empty()) {
+        chosen = &c;
+        break;
+      }
+      if (i < args.size() && c.verb == args[i]) {
+        chosen = &c;
+        ++i;
+        break;
+      }
+    }
+    if (!chosen) {
+      if (!noun_known) throw InputError(fmt::format("command \"{}\" is not known (see plumb --help).", noun));
+      std::vector<std::string> verbs;
+      for (const auto& c : commands())
+        if (c.noun == noun) verbs.push_back(c.verb);
+      throw InputError(fmt::format("\"{}\" needs one of: {} (after it, --help explains).", noun, fmt::join(verbs, ", ")));
+    }
+    po::options_description desc("options");
+    po::positional_options_description positional;
+    desc.add_options()("help", "explain this command");
+    chosen->options(desc, positional);
+    const std::vector<std::string> rest(args.begin() + static_cast<std::ptrdiff_t>(i), args.end());
+    po::variables_map vm;
+    po::store(po::command_line_parser(rest).options(desc).positional(positional).run(), vm);
+    if (vm.count("help")) {
+      print_command_help(*chosen, desc, out);
+      return 0;
+    }
+    po::notify(vm);
+    return chosen->run(vm, env);
+  } catch (const InputError& e) {
+    err << "plumb: " << e.what() << "\n";
+    return 2;
+  } catch (const po::error& e) {
+    err << "plumb: " << describe(e) << "\n";
+    return 2;
+  } catch (const StorageError& e) {
+    err << "plumb: storage error: " << e.what() << "\n";
+    return 3;
+  } catch (const SQLite::Exception& e) {
+    err << "plumb: database error: " << e.what() << "\n";
+    return 3;
+  } catch (const std::exception& e) {
+    err << "plumb: internal error: " << e.what() << "\n";
+    return 3;
+  }
+}
+
+}  // namespace plumb::cli

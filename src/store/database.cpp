@@ -1,0 +1,72 @@
+#include "store/database.hpp"
+
+#include <SQLiteCpp/Transaction.h>
+#include <fmt/format.h>
+
+#include <cstdlib>
+#include <string>
+
+#include "core/errors.hpp"
+#include "store/embedded.hpp"
+
+namespace plumb::store {
+namespace {
+
+int migration_number(std::string_view name) {
+  int n = 0;
+  for (char c : name) {
+    if (c < '0' || c > '9') break;
+    n = n * 10 + (c - '0');
+  }
+  return n;
+}
+
+}  // namespace
+
+std::filesystem::path default_database_path() {
+  if (const char* env = std::getenv("PLUMB_DB"); env && *env) return env;
+  if (const char* xdg = std::getenv("XDG_DATA_HOME"); xdg && *xdg) return std::filesystem::path(xdg) / "plumb" / "plumb.db";
+  const char* home = std::getenv("HOME");
+  return std::filesystem::path(home ? home : ".") / ".local" / "share" / "plumb" / "plumb.db";
+}
+
+Database::Database(const std::filesystem::path& path, Open mode) : path_(path) {
+  if (mode == Open::existing && !std::filesystem::exists(path))
+    throw InputError(fmt::format("database \"{}\" does not exist; create it with `plumb --db {} init --lab NAME`.",
+                                 path.string(), path.string()));
+  if (mode == Open::create && path.has_parent_path()) std::filesystem::create_directories(path.parent_path());
+  try {
+    const int flags = mode == Open::create ? (SQLite::OPEN_READWRITE | SQLite::OPEN_CREATE) : SQLite::OPEN_READWRITE;
+    db_ = std::make_unique<SQLite::Database>(path.string(), flags);
+    // Concurrent writers wait rather than fail: "database is locked" must not reach the user.
+    db_->setBusyTimeout(30000);
+    db_->exec("PRAGMA foreign_keys = ON");
+    if (mode == Open::create) db_->exec("PRAGMA journal_mode = WAL");
+    db_->exec("PRAGMA synchronous = NORMAL");
+    migrate();
+  } catch (const SQLite::Exception& e) {
+    throw StorageError(fmt::format("cannot open database \"{}\": {}", path.string(), e.what()));
+  }
+}
+
+int Database::schema_version() const { return db_->execAndGet("PRAGMA user_version").getInt(); }
+
+void Database::migrate() {
+  const int current = schema_version();
+  const auto& all = embedded::migrations();
+  if (!all.empty() && current > migration_number(all.back().name))
+    throw StorageError(fmt::format("database \"{}\" has schema version {}, newer than this plumb understands ({}).",
+                                   path_.string(), current, migration_number(all.back().name)));
+  for (const auto& m : all) {
+    const int n = migration_number(m.name);
+    if (n <= current) continue;
+    SQLite::Transaction tx(*db_, SQLite::TransactionBehavior::IMMEDIATE);
+    // Re-read inside the write lock: another process may have migrated meanwhile.
+    if (schema_version() >= n) continue;
+    db_->exec(std::string(m.sql));
+    db_->exec(fmt::format("PRAGMA user_version = {}", n));
+    tx.commit();
+  }
+}
+
+}  // namespace plumb::store

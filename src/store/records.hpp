@@ -1,0 +1,90 @@
+#pragma once
+// Plain records read from and written to the database.
+#include <nlohmann/json.hpp>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "checks/verdict.hpp"
+#include "core/dates.hpp"
+#include "core/units.hpp"
+
+namespace plumb::store {
+
+struct LabRecord {
+  std::string name;
+  std::string created_at;
+};
+
+struct WeightCalibration {
+  std::int64_t id = 0;
+  std::string certificate_no;
+  ExactMass correction;
+  ExactMass uncertainty;  ///< expanded, U
+  Decimal k{2, 0};
+  Date calibrated_on;
+  Date due_on;
+};
+
+struct WeightRecord {
+  std::string id;
+  std::string nominal_text;
+  ExactMass nominal;
+  std::string weight_class;
+  std::optional<Decimal> density_kg_m3;
+  WeightCalibration current;  ///< the latest certificate
+
+  [[nodiscard]] ExactMass conventional_mass() const { return nominal + current.correction; }
+};
+
+struct BalanceRecord {
+  std::string id;
+  std::string location;
+  Interval every;
+  Date created_on;
+  ExactMass capacity;
+  ExactMass readability;
+  std::optional<ExactMass> smallest_net;
+  TolerancePolicy policy;
+};
+
+struct StoredReading {
+  int seq = 0;
+  std::string series;
+  MassReading reading;
+};
+
+struct RunWeight {
+  std::string weight_id;
+  std::int64_t weight_calibration_id = 0;
+};
+
+struct RunRecord {
+  std::int64_t id = 0;
+  std::string instrument_id;
+  std::string procedure;
+  Date performed_on;
+  std::string operator_name;
+  nlohmann::json results;
+  Verdict verdict = Verdict::pass;
+  std::optional<Date> next_due;
+  std::optional<std::int64_t> supersedes;
+  std::string reason;
+  std::string recorded_at;
+  std::string os_user;
+  std::vector<RunWeight> weights;
+  std::vector<StoredReading> readings;
+};
+
+struct CertificateRecord {
+  std::int64_t id = 0;
+  std::string number;
+  std::int64_t run_id = 0;
+  std::string kind;
+  std::string issued_at;
+  std::string issued_by;
+  nlohmann::json content;
+  std::string content_sha256;
+};
+
+}  // namespace plumb::store

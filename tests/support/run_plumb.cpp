@@ -1,0 +1,82 @@
+#include "support/run_plumb.hpp"
+
+#include <fstream>
+#include <random>
+#include <sstream>
+#include <stdexcept>
+
+#include "support/paths.hpp"
+
+namespace plumb::test {
+namespace {
+
+std::string quote(const std::string& s) {
+  std::string q = "'";
+  for (char c : s) q += c == '\'' ? std::string("'\\''") : std::string(1, c);
+  return q + "'";
+}
+
+std::string slurp(const std::filesystem::path& p) {
+  std::ifstream in(p, std::ios::binary);
+  std::stringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+
+}  // namespace
+
+ScratchDir::ScratchDir() {
+  std::random_device rd;
+  path_ = std::filesystem::temp_directory_path() / ("plumb-test-" + std::to_string(rd()) + std::to_string(rd()));
+  std::filesystem::create_directories(path_);
+}
+
+ScratchDir::~ScratchDir() {
+  std::error_code ec;
+  std::filesystem::remove_all(path_, ec);
+}
+
+void ScratchDir::write(const std::string& name, const std::string& text) const {
+  std::ofstream(path_ / name, std::ios::binary) << text;
+}
+
+RunResult run_plumb(const std::vector<std::string>& args, const std::filesystem::path& cwd, const std::string& input) {
+  const auto in = cwd / ".stdin", out = cwd / ".stdout", err = cwd / ".stderr";
+  std::ofstream(in, std::ios::binary) << input;
+  std::string cmd = "cd " + quote(cwd.string()) + " && env -u PLUMB_DB -u PLUMB_LAYOUT " + quote(plumb_binary().string());
+  for (const auto& a : args) cmd += " " + quote(a);
+  cmd += " <" + quote(in.string()) + " >" + quote(out.string()) + " 2>" + quote(err.string());
+  const int raw = std::system(cmd.c_str());
+  RunResult r;
+  r.status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
+  r.out = slurp(out);
+  r.err = slurp(err);
+  return r;
+}
+
+std::string dump_database(const std::filesystem::path& db) {
+  const auto out = db.string() + ".dump.txt";
+  const std::string cmd = "sqlite3 " + quote(db.string()) + " .dump > " + quote(out);
+  if (std::system(cmd.c_str()) != 0) throw std::runtime_error("sqlite3 .dump failed for " + db.string());
+  std::string text = slurp(out);
+  std::filesystem::remove(out);
+  return text;
+}
+
+std::filesystem::path example_lab(const ScratchDir& dir) {
+  const auto db = dir.file("lab.db");
+  const std::vector<std::vector<std::string>> steps = {
+      {"--db", db.string(), "init", "--lab", "Example Analytical Lab"},
+      {"--db", db.string(), "weight", "add", "W100", "--nominal", "100g", "--class", "E2", "--correction", "0.03mg",
+       "--uncertainty", "0.05mg", "--k", "2", "--certificate", "RC-2291", "--calibrated", "2026-03-02", "--due",
+       "2027-03-02"},
+      {"--db", db.string(), "balance", "add", "BAL-A", "--capacity", "220g", "--readability", "0.1mg", "--every", "7d",
+       "--smallest-net", "200mg", "--location", "Room 2", "--since", "2026-01-05"}};
+  for (const auto& s : steps) {
+    const auto r = run_plumb(s, dir.path());
+    if (r.status != 0) throw std::runtime_error("example lab setup failed: " + r.err);
+  }
+  return db;
+}
+
+}  // namespace plumb::test
