@@ -89,7 +89,7 @@ TEST_CASE("calibration: the cg-18 budget of E at 100 g, worked by hand", "[unit]
   CHECK_FALSE(r.as_left.has_value());
 }
 
-TEST_CASE("calibration: lab limits under a guard band give the not-proven states; weight suitability",
+TEST_CASE("calibration: lab limits under a guard band give the not-proven states, and weight suitability",
           "[unit][calibration]") {
   auto in = run();
   in.tolerance.kind = CalibrationTolerance::Kind::lab;
