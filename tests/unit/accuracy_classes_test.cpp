@@ -10,7 +10,7 @@ namespace {
 ExactMass g(const char* s) { return ExactMass::parse(s, "mass"); }
 }  // namespace
 
-TEST_CASE("R 76 MPE from class, e and load; in service is twice initial", "[unit][r76]") {
+TEST_CASE("R 76 MPE from class, e and load, in service twice initial", "[unit][r76]") {
   // Class II, e = 0.01 g (hand, OIML R 76-1 Table 6): 50 g = 5000 e -> 0.5 e = 0.005 g initial, 0.01 g in service;
   // 50.01 g = 5001 e -> 1 e = 0.01 g initial, 0.02 g in service; 200 g = 20000 e -> 1 e; 200.01 g -> 1.5 e.
   CHECK(r76::mpe(AccuracyClass::II, g("0.01"), g("50"), r76::Verification::initial) == g("0.005"));

@@ -14,7 +14,7 @@ TEST_CASE("budget: divisors of the distributions (GUM 4.3.7, 4.3.9, F.2.2.1)", "
   CHECK(to_string(Distribution::rounding) == "rounding");
 }
 
-TEST_CASE("budget: all Type B gives infinite dof and k = 2; a fixed k is honoured", "[unit][budget]") {
+TEST_CASE("budget: all Type B gives infinite dof and k = 2, and a fixed k is honoured", "[unit][budget]") {
   // u_c = sqrt(3^2 + 4^2) = 5 by hand.
   const auto r = combine("x", "g", {Contribution::standard("a", 3.0), Contribution::standard("b", 4.0, -1.0)});
   CHECK(r.combined == Approx(5.0));
