@@ -1,0 +1,66 @@
+#include "checks/eccentricity.hpp"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <cctype>
+#include <cmath>
+#include <set>
+
+#include "core/errors.hpp"
+
+namespace plumb::checks {
+
+namespace {
+std::string lower(std::string_view s) {
+  std::string out;
+  for (char ch : s) out.push_back(static_cast<char>(std::tolower(static_cast<unsigned char>(ch))));
+  return out;
+}
+Decimal abs(Decimal d) { return d < Decimal(0, 0) ? -d : d; }
+}  // namespace
+
+double EccentricityResult::half_width_at(double load_g) const {
+  return max_abs_deviation_g.to_double() / (2.0 * load.approx().g) * load_g;
+}
+
+double EccentricityResult::uncertainty_at(double load_g) const { return half_width_at(load_g) / std::sqrt(3.0); }
+
+EccentricityResult evaluate_eccentricity(const EccentricityInput& in) {
+  if (in.load.in_grams().units() <= 0)
+    throw InputError(fmt::format("eccentricity load: {} is not positive.", in.load.to_string()));
+  if (!in.centre_g)
+    throw InputError("eccentricity centre: the run has no centre reading; the deviations are taken from it.");
+  if (in.positions.size() < min_eccentricity_positions)
+    throw InputError(fmt::format("eccentricity positions: {} off-centre position(s) given; at least {} are needed.",
+                                 in.positions.size(), min_eccentricity_positions));
+  std::set<std::string> seen;
+  for (std::size_t i = 0; i < in.positions.size(); ++i) {
+    const auto& p = in.positions[i];
+    const std::string n = lower(p.name);
+    if (n.empty())
+      throw InputError(fmt::format("eccentricity position {}: the position has no name.", i + 1));
+    if (n == "centre" || n == "center")
+      throw InputError(fmt::format("eccentricity position {}: \"{}\" is the centre; give it as the centre reading.",
+                                   i + 1, p.name));
+    if (!seen.insert(n).second)
+      throw InputError(fmt::format("eccentricity position {}: \"{}\" is named twice.", i + 1, p.name));
+  }
+
+  EccentricityResult r;
+  r.load = in.load;
+  r.centre_g = *in.centre_g;
+  r.max_abs_deviation_g = Decimal(0, 0);
+  for (const auto& p : in.positions) {
+    const Decimal dev = p.reading_g - r.centre_g;
+    r.deviations.push_back({p.name, p.reading_g, dev});
+    if (r.max_position.empty() || abs(dev) > r.max_abs_deviation_g) {
+      r.max_abs_deviation_g = abs(dev);
+      r.max_position = p.name;
+    }
+  }
+  r.relative_max = r.max_abs_deviation_g.to_double() / in.load.approx().g;
+  return r;
+}
+
+}  // namespace plumb::checks

@@ -1,0 +1,54 @@
+#pragma once
+// Eccentricity test of a balance: one test load read at the centre of the pan and at four or more named
+// off-centre positions (EURAMET cg-18 v4.0, 5.3; OIML R 76-1 A.4.7).
+// Deviations from the centre reading are exact (Decimal). The contribution to the uncertainty of the
+// error of indication at a load L follows EURAMET cg-18 (7.1.1.4, rectangular distribution):
+//   u(delta_I_ecc)(L) = |Delta_I_ecc|max / (2 L_ecc) * L / sqrt(3)
+// where |Delta_I_ecc|max is the largest |I_position - I_centre| and L_ecc the eccentricity test load.
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "core/units.hpp"
+
+namespace plumb::checks {
+
+struct EccentricityPosition {
+  std::string name;   ///< e.g. "front-left", "back", "2"
+  Decimal reading_g;  ///< exact, as displayed, in grams
+};
+
+struct EccentricityInput {
+  ExactMass load;                        ///< L_ecc, the test load (conventional mass or nominal)
+  std::optional<Decimal> centre_g;       ///< the reading at the centre
+  std::vector<EccentricityPosition> positions;  ///< >= 4 off-centre positions, distinct names
+};
+
+inline constexpr std::size_t min_eccentricity_positions = 4;
+
+struct EccentricityDeviation {
+  std::string name;
+  Decimal reading_g;
+  Decimal deviation_g;  ///< reading - centre, exact
+};
+
+struct EccentricityResult {
+  ExactMass load;
+  Decimal centre_g;
+  std::vector<EccentricityDeviation> deviations;  ///< in input order
+  Decimal max_abs_deviation_g;                    ///< |Delta_I_ecc|max, exact
+  std::string max_position;                       ///< first position where it occurs
+  /// |Delta_I_ecc|max / L_ecc: the relative eccentricity error, scaled to other loads.
+  double relative_max = 0.0;
+
+  /// Half-width of the rectangular distribution at load L (grams): |Delta|max / (2 L_ecc) * L.
+  [[nodiscard]] double half_width_at(double load_g) const;
+  /// EURAMET cg-18 standard uncertainty at load L (grams): half_width_at(L) / sqrt(3).
+  [[nodiscard]] double uncertainty_at(double load_g) const;
+};
+
+/// Throws InputError when the centre reading is missing, there are fewer than 4 positions, a position
+/// has no name or is named twice (or is named "centre"), or the load is not positive.
+EccentricityResult evaluate_eccentricity(const EccentricityInput& in);
+
+}  // namespace plumb::checks

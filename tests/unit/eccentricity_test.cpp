@@ -1,0 +1,59 @@
+#include <catch2/catch.hpp>
+
+#include <cmath>
+
+#include "checks/eccentricity.hpp"
+#include "core/errors.hpp"
+
+using namespace plumb;
+using namespace plumb::checks;
+
+namespace {
+EccentricityInput run() {
+  EccentricityInput in;
+  in.load = ExactMass::parse("100 g", "load");
+  in.centre_g = Decimal::parse("100.0002");
+  in.positions = {{"front-left", Decimal::parse("100.0004")},
+                  {"back-left", Decimal::parse("99.9999")},
+                  {"back-right", Decimal::parse("100.0001")},
+                  {"front-right", Decimal::parse("100.0005")}};
+  return in;
+}
+}  // namespace
+
+TEST_CASE("eccentricity: exact deviations and the cg-18 contribution, by hand", "[unit][eccentricity]") {
+  // Deviations from the centre 100.0002: +0.0002, -0.0003, -0.0001, +0.0003 -> |max| = 0.0003 g, first at
+  // back-left. EURAMET cg-18: u(L) = |dI|max / (2 L_ecc) x L / sqrt 3; at L = 200 g:
+  // 0.0003 / 200 x 200 / sqrt 3 = 1.7320508e-4 g; at L = 50 g a quarter of that, 4.330127e-5 g.
+  const auto r = evaluate_eccentricity(run());
+  REQUIRE(r.deviations.size() == 4);
+  CHECK(r.deviations[0].deviation_g == Decimal::parse("0.0002"));
+  CHECK(r.deviations[1].deviation_g == Decimal::parse("-0.0003"));
+  CHECK(r.max_abs_deviation_g == Decimal::parse("0.0003"));
+  CHECK(r.max_position == "back-left");
+  CHECK(r.relative_max == Approx(3e-6));
+  CHECK(r.uncertainty_at(200.0) == Approx(1.7320508e-4).epsilon(1e-7));
+  CHECK(r.uncertainty_at(50.0) == Approx(4.330127e-5).epsilon(1e-6));
+  CHECK(r.half_width_at(100.0) == Approx(0.00015));
+}
+
+TEST_CASE("eccentricity: bad runs are refused, naming the field", "[unit][eccentricity]") {
+  auto in = run();
+  in.centre_g.reset();
+  CHECK_THROWS_WITH(evaluate_eccentricity(in), Catch::Contains("centre"));
+  in = run();
+  in.positions.pop_back();
+  CHECK_THROWS_WITH(evaluate_eccentricity(in), Catch::Contains("at least 4"));
+  in = run();
+  in.positions[3].name = "Front-Left";
+  CHECK_THROWS_WITH(evaluate_eccentricity(in), Catch::Contains("named twice"));
+  in = run();
+  in.positions[0].name = "centre";
+  CHECK_THROWS_AS(evaluate_eccentricity(in), InputError);
+  in = run();
+  in.load = ExactMass::parse("0 g", "load");
+  CHECK_THROWS_AS(evaluate_eccentricity(in), InputError);
+  in = run();
+  in.positions.push_back({"middle-back", Decimal::parse("100.0002")});
+  CHECK(evaluate_eccentricity(in).deviations.size() == 5);
+}
