@@ -111,7 +111,8 @@ std::string Decimal::to_string() const {
       digits.insert(0, static_cast<std::size_t>(scale_) + 1 - digits.size(), '0');
     digits.insert(digits.size() - static_cast<std::size_t>(scale_), ".");
   }
-  return negative ? "-" + digits : digits;
+  // fmt rather than "-" + digits: GCC 12 misreports -Wrestrict on operator+(const char*, string).
+  return negative ? fmt::format("-{}", digits) : digits;
 }
 
 Decimal operator+(Decimal a, Decimal b) {
