@@ -317,7 +317,7 @@ json recommendation_json(const stats::IntervalRecommendation& r) {
 std::string interval_review_text(const IntervalReviewView& v) {
   std::string out;
   line(out, fmt::format("Interval review of {} (current interval {})", v.instrument_title, v.current.to_string()));
-  line(out, fmt::format("RECOMMENDATION: {} the interval to {} days", upper(std::string(stats::to_string(v.recommended.action))),
+  line(out, fmt::format("RECOMMENDATION: {}, next interval {} days", upper(std::string(stats::to_string(v.recommended.action))),
                         v.recommended.recommended_days));
   para(out, v.combination, "", "  ");
   line(out, "");
