@@ -3,6 +3,7 @@
 #include <SQLiteCpp/Transaction.h>
 #include <fmt/format.h>
 
+#include "app/certificate_history.hpp"
 #include "app/record_check.hpp"
 #include "app/registry.hpp"
 #include "core/errors.hpp"
@@ -92,6 +93,8 @@ IssueOutcome issue_certificate(store::Database& db, const store::Actor& actor, c
                   {"decision_rule", "simple acceptance (ILAC G8: guard band w = 0)"},
                   {"signatories", signatories},
                   {"caution", layout.value("caution", "")}};
+  // The recent history travels inside the certificate, so its PDF chart is part of the hashed record.
+  if (auto history = certificate_history(db, run); !history.is_null()) cert.content["history"] = history;
   cert.content_sha256 = store::sha256_hex(cert.content.dump());
   cert.id = store::add_certificate(rec, cert);
   tx.commit();

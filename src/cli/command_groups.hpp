@@ -13,5 +13,7 @@ std::vector<Command> check_commands();
 std::vector<Command> certificate_commands();
 std::vector<Command> due_commands();
 std::vector<Command> demo_commands();
+std::vector<Command> history_commands();
+std::vector<Command> report_commands();
 
 }  // namespace plumb::cli
