@@ -3,6 +3,7 @@
 #include <SQLiteCpp/Transaction.h>
 #include <fmt/format.h>
 
+#include "app/calibration_certificate.hpp"
 #include "app/record_check.hpp"
 #include "app/registry.hpp"
 #include "core/errors.hpp"
@@ -67,7 +68,9 @@ IssueOutcome issue_certificate(store::Database& db, const store::Actor& actor, c
   store::CertificateRecord cert;
   cert.number = store::next_certificate_number(db.sql(), prefix_for(run.procedure), year);
   cert.run_id = run.id;
-  cert.kind = run.procedure == "repeatability" ? "balance_check" : run.procedure;
+  cert.kind = run.procedure == "repeatability" ? "balance_check"
+              : run.procedure == "calibration" ? "balance_calibration"
+                                               : run.procedure;
   cert.issued_by = actor.name;
   store::Recorder rec(db.sql(), actor);
   cert.issued_at = rec.now();
@@ -92,6 +95,7 @@ IssueOutcome issue_certificate(store::Database& db, const store::Actor& actor, c
                   {"decision_rule", "simple acceptance (ILAC G8: guard band w = 0)"},
                   {"signatories", signatories},
                   {"caution", layout.value("caution", "")}};
+  if (run.procedure == "calibration") add_calibration_content(run, cert.content);
   cert.content_sha256 = store::sha256_hex(cert.content.dump());
   cert.id = store::add_certificate(rec, cert);
   tx.commit();
