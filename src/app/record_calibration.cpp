@@ -342,7 +342,9 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
       {"air_method", environment ? std::string(density::to_string(formula)) : std::string("assumed")},
       {"air_density_kg_m3", result.air ? result.air->rho : 1.2},
       {"u_air_density_kg_m3", result.air ? result.air->u : 0.12 / std::sqrt(3.0)},
-      {"statement", environment ? fmt::format("air density {:.4f} kg/m3 (u = {:.1g} kg/m3) from t, p and h by {}",
+      {"statement", environment ? fmt::format("air density {:.4f} kg/m3 (u = {:.1g} kg/m3) from t, p and h by {}; u "
+                                              "covers the equation only (the thermometer, barometer and hygrometer "
+                                              "uncertainties are not entered)",
                                               result.air->rho, result.air->u, density::to_string(formula))
                                 : std::string("air density not measured: 1.2 kg/m3 +/- 10 % (rectangular) "
                                               "assumed, no buoyancy correction applied")}};

@@ -98,7 +98,7 @@ std::vector<std::string> calibration_set_lines(const json& set, const std::strin
                                              : std::vector<std::string>{"intercept b0 / g", "slope b1"};
   for (std::size_t i = 0; i < coef.size() && i < names.size(); ++i)
     add(fmt::format("    {:<22}{:>+20.10g}  +/- {:.3g} (SE)", names[i], coef[i], i < se.size() ? se[i] : 0.0));
-  add(fmt::format("    R^2 = {:.9f} ({}), RMSE = {} mg, residual SD = {} mg, n = {}, dof = {}", num(fit, "r_squared"),
+  add(fmt::format("    R^2 = {:.12f} ({}), RMSE = {} mg, residual SD = {} mg, n = {}, dof = {}", num(fit, "r_squared"),
                   str(fit, "r_squared_kind"), mg_unsigned(num(fit, "rmse_g"), emg + 1),
                   mg_unsigned(num(fit, "residual_sd_g"), emg + 1), str(fit, "n"), str(fit, "dof")));
   std::string residuals = "    residuals / mg:";
