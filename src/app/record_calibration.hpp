@@ -9,9 +9,11 @@
 //   pass at every load. "pass, not proven" is not accepted: under a guard band its interval reaches past the
 //   limit, so conformity has not been shown. A pass schedules the next calibration one calibration interval
 //   (settings --calibrate-every) after the run; anything else takes the balance out of service.
-// - Weekly checks keep their own schedule (balance --every). A calibration does not replace them; a failed
-//   calibration puts the balance out of service whatever the weekly checks say, and only a passing
-//   calibration returns it (app/due_list.cpp).
+// - Weekly checks keep their own schedule (balance --every) and `due` lists the calibration on its own line.
+//   A failed calibration puts the balance out of service whatever the weekly checks say; only a passing
+//   calibration returns it. A passing calibration counts as a passing weekly check of its date (it covers
+//   repeatability and accuracy with traceable weights), so it also clears an earlier failed weekly check and
+//   the next weekly check falls due one weekly interval after it (app/due_list.cpp).
 #include <nlohmann/json.hpp>
 #include <optional>
 #include <string>
