@@ -49,7 +49,8 @@ std::vector<CalibrationRow> parse_calibration_csv(std::string_view text, std::st
           throw InputError(fmt::format("{} line {}: column \"{}\" is not known (the header is {}).", source, line_no,
                                        fields[i], calibration_csv_header));
         if (!col.emplace(name, i).second)
-          throw InputError(fmt::format("{} line {}: column \"{}\" appears twice in the header.", source, line_no, name));
+          throw InputError(
+              fmt::format("{} line {}: column \"{}\" appears twice in the header.", source, line_no, name));
       }
       for (const char* required : {"stage", "part", "load", "reading"})
         if (!col.count(required))

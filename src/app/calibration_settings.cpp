@@ -13,7 +13,8 @@ store::CalibrationSettings set_calibration_settings(store::Database& db, const s
                                                    const CalibrationSettingsInput& in) {
   store::CalibrationSettings s;
   s.instrument_id = in.instrument_id;
-  if (in.accuracy_class) s.accuracy_class = std::string(r76::to_string(r76::parse_accuracy_class(*in.accuracy_class, "--class")));
+  if (in.accuracy_class)
+    s.accuracy_class = std::string(r76::to_string(r76::parse_accuracy_class(*in.accuracy_class, "--class")));
   if (in.tolerance != "r76" && in.tolerance != "usp41" && in.tolerance != "lab")
     throw InputError(fmt::format("--tolerance \"{}\" is not one of r76, usp41, lab.", in.tolerance));
   s.tolerance = in.tolerance;

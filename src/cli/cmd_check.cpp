@@ -64,8 +64,8 @@ std::vector<Command> check_commands() {
   Command record{
       "check", "record", "record a check run from readings, compute and judge it, schedule the next",
       "plumb check record BAL-A --procedure repeatability --weight W100 --readings readings.csv --on 2026-11-30 "
-      "--by \"A. Technician\"\n  plumb check record BAL-A --procedure calibration --readings cal.csv --temperature 20.3 "
-      "--pressure 1009 --humidity 45 --model line --on 2026-11-30 --by \"A. Technician\"",
+      "--by \"A. Technician\"\n  plumb check record BAL-A --procedure calibration --readings cal.csv "
+      "--temperature 20.3 --pressure 1009 --humidity 45 --model line --on 2026-11-30 --by \"A. Technician\"",
       [](po::options_description& d, po::positional_options_description& p) {
         d.add_options()("instrument", po::value<std::string>()->required(), "instrument id (positional)")(
             "procedure", po::value<std::string>()->default_value("repeatability"),

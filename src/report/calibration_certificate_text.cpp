@@ -69,8 +69,9 @@ std::string calibration_certificate_text(const json& c, const std::string& conte
     add(fmt::format("  {:<8} nominal {}, class {}, conventional mass {}, density {} kg/m3{}", str(w, "id"),
                     str(w, "nominal"), str(w, "class"), grams_text(w, "conventional_mass_g"), str(w, "density_kg_m3"),
                     w.value("density_assumed", false) ? " (assumed)" : ""));
-    add(fmt::format("  {:<8} U = {} (k = {}); certificate {}, calibrated {}, due {}", "", grams_text(w, "uncertainty_g"),
-                    str(w, "k"), str(w, "certificate"), str(w, "calibrated_on"), str(w, "due_on")));
+    add(fmt::format("  {:<8} U = {} (k = {}); certificate {}, calibrated {}, due {}", "",
+                    grams_text(w, "uncertainty_g"), str(w, "k"), str(w, "certificate"), str(w, "calibrated_on"),
+                    str(w, "due_on")));
     add(fmt::format("  {:<8} drift allowance {}: {}", "", w["drift_g"].is_string() ? grams_text(w, "drift_g") : "0",
                     str(w, "drift_basis")));
   }

@@ -17,7 +17,9 @@ std::string str(const json& j, const char* key, const std::string& fallback = "-
   return j[key].is_string() ? j[key].get<std::string>() : j[key].dump();
 }
 
-double num(const json& j, const char* key) { return j.contains(key) && j[key].is_number() ? j[key].get<double>() : 0.0; }
+double num(const json& j, const char* key) {
+  return j.contains(key) && j[key].is_number() ? j[key].get<double>() : 0.0;
+}
 
 /// Decimals of d in grams (0.0001 -> 4).
 int d_scale(const std::string& d_g) { return d_g.empty() ? 4 : Decimal::parse(d_g).significant_scale(); }
@@ -92,10 +94,10 @@ std::vector<std::string> calibration_set_lines(const json& set, const std::strin
   add(fmt::format("    as error: {}", str(fit, "error_equation")));
   const auto coef = fit.value("coef", std::vector<double>{});
   const auto se = fit.value("coef_se", std::vector<double>{});
-  const std::vector<std::string> names = model == "through-origin" ? std::vector<std::string>{"slope b1"}
-                                         : model == "quadratic"
-                                             ? std::vector<std::string>{"intercept b0 / g", "slope b1", "curvature b2 / g^-1"}
-                                             : std::vector<std::string>{"intercept b0 / g", "slope b1"};
+  const std::vector<std::string> names =
+      model == "through-origin" ? std::vector<std::string>{"slope b1"}
+      : model == "quadratic"    ? std::vector<std::string>{"intercept b0 / g", "slope b1", "curvature b2 / g^-1"}
+                                : std::vector<std::string>{"intercept b0 / g", "slope b1"};
   for (std::size_t i = 0; i < coef.size() && i < names.size(); ++i)
     add(fmt::format("    {:<22}{:>+20.10g}  +/- {:.3g} (SE)", names[i], coef[i], i < se.size() ? se[i] : 0.0));
   add(fmt::format("    R^2 = {:.12f} ({}), RMSE = {} mg, residual SD = {} mg, n = {}, dof = {}", num(fit, "r_squared"),
@@ -111,14 +113,15 @@ std::vector<std::string> calibration_set_lines(const json& set, const std::strin
     for (const auto& l : set.value("loads", json::array())) {
       const json& b = l["budget"];
       add(fmt::format("    load {} ({})", str(l, "index"), str(l, "combination")));
-      add(fmt::format("      {:<19}{:>12} {:<12}{:>8}{:>7}{:>13}{:>7}", "source", "value / mg", "distribution", "divisor",
-                      "c_i", "u_i|c_i| /mg", "dof"));
+      add(fmt::format("      {:<19}{:>12} {:<12}{:>8}{:>7}{:>13}{:>7}", "source", "value / mg", "distribution",
+                      "divisor", "c_i", "u_i|c_i| /mg", "dof"));
       for (const auto& r : b["lines"])
         add(fmt::format("      {:<19}{:>12.{}f} {:<12}{:>8.4f}{:>7.1f}{:>13.{}f}{:>7}", str(r, "source"),
                         num(r, "value") * 1e3, emg + 1, str(r, "distribution"), num(r, "divisor"),
                         num(r, "sensitivity"), num(r, "contribution_g") * 1e3, emg + 2, dof_text(r["dof"])));
-      add(fmt::format("      u_c = {} mg, nu_eff = {}, k = {:.3f}, U = k u_c = {} mg", mg_unsigned(num(b, "combined_g"), emg + 2),
-                      dof_text(b["nu_eff"]), num(b, "k"), mg_unsigned(num(b, "expanded_g"), emg + 1)));
+      add(fmt::format("      u_c = {} mg, nu_eff = {}, k = {:.3f}, U = k u_c = {} mg",
+                      mg_unsigned(num(b, "combined_g"), emg + 2), dof_text(b["nu_eff"]), num(b, "k"),
+                      mg_unsigned(num(b, "expanded_g"), emg + 1)));
     }
   }
   for (const auto& n : set.value("notes", json::array()))

@@ -108,9 +108,10 @@ void add_calibration_details(Recorder& rec, const CalibrationRunDetails& d) {
 }
 
 std::optional<CalibrationRunDetails> find_calibration_details(SQLite::Database& db, std::int64_t run_id) {
-  SQLite::Statement q(db,
-                      "SELECT settings_id, model, temperature_c, pressure_hpa, humidity_pct, air_density_kg_m3, "
-                      "u_air_density, air_method, as_found_state, as_left_state FROM calibration_runs WHERE run_id = ?");
+  SQLite::Statement q(
+      db,
+      "SELECT settings_id, model, temperature_c, pressure_hpa, humidity_pct, air_density_kg_m3, "
+      "u_air_density, air_method, as_found_state, as_left_state FROM calibration_runs WHERE run_id = ?");
   q.bind(1, run_id);
   if (!q.executeStep()) return std::nullopt;
   CalibrationRunDetails d;
@@ -147,9 +148,10 @@ std::optional<CalibrationRunDetails> find_calibration_details(SQLite::Database& 
     while (w.executeStep()) load.weights.push_back({w.getColumn(0).getString(), w.getColumn(1).getInt64()});
     d.loads.push_back(std::move(load));
   }
-  SQLite::Statement p(db,
-                      "SELECT seq, stage, part, load_no, position, direction FROM calibration_readings WHERE run_id = ? "
-                      "ORDER BY seq");
+  SQLite::Statement p(
+      db,
+      "SELECT seq, stage, part, load_no, position, direction FROM calibration_readings WHERE run_id = ? "
+      "ORDER BY seq");
   p.bind(1, run_id);
   while (p.executeStep())
     d.places.push_back({p.getColumn(0).getInt(), p.getColumn(1).getString(), p.getColumn(2).getString(),

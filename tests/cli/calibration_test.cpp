@@ -37,7 +37,8 @@ std::string calibration_lab(const plumb::test::ScratchDir& dir, const std::strin
 // +0.0002 g at front-left. Error of indication: one reading up per load, E = +0.1, +0.2, +0.4, +0.6, +0.8 mg.
 std::string calibration_file(const std::string& w200_reading = "200.0008") {
   std::string csv = "stage,part,load,position,direction,reading,unit\n";
-  for (int i = 0; i < 10; ++i) csv += std::string("as-found,repeatability,W100,,,") + (i % 2 ? "100.0004" : "100.0003") + ",g\n";
+  for (int i = 0; i < 10; ++i)
+    csv += std::string("as-found,repeatability,W100,,,") + (i % 2 ? "100.0004" : "100.0003") + ",g\n";
   csv += "as-found,eccentricity,W100,centre,,100.0003,g\n"
          "as-found,eccentricity,W100,front-left,,100.0005,g\n"
          "as-found,eccentricity,W100,front-right,,100.0002,g\n"
@@ -231,7 +232,8 @@ TEST_CASE("calibration: guard band states, a failed as-left puts the balance out
 
   r = run_plumb({"--db", db, "certificate", "issue", "LAST"}, dir.path());
   REQUIRE(r.status == 0);
-  for (const char* must : {"fail, not proven", "guard band", "OUT OF SERVICE", "as found fail, not proven, as left fail"}) {
+  for (const char* must :
+       {"fail, not proven", "guard band", "OUT OF SERVICE", "as found fail, not proven, as left fail"}) {
     INFO(must);
     CHECK_THAT(r.out, Catch::Contains(must));
   }
