@@ -4,6 +4,7 @@
 #include <fmt/format.h>
 
 #include "app/certificate_history.hpp"
+#include "app/calibration_certificate.hpp"
 #include "app/record_check.hpp"
 #include "app/registry.hpp"
 #include "core/errors.hpp"
@@ -68,7 +69,9 @@ IssueOutcome issue_certificate(store::Database& db, const store::Actor& actor, c
   store::CertificateRecord cert;
   cert.number = store::next_certificate_number(db.sql(), prefix_for(run.procedure), year);
   cert.run_id = run.id;
-  cert.kind = run.procedure == "repeatability" ? "balance_check" : run.procedure;
+  cert.kind = run.procedure == "repeatability" ? "balance_check"
+              : run.procedure == "calibration" ? "balance_calibration"
+                                               : run.procedure;
   cert.issued_by = actor.name;
   store::Recorder rec(db.sql(), actor);
   cert.issued_at = rec.now();
@@ -95,6 +98,7 @@ IssueOutcome issue_certificate(store::Database& db, const store::Actor& actor, c
                   {"caution", layout.value("caution", "")}};
   // The recent history travels inside the certificate, so its PDF chart is part of the hashed record.
   if (auto history = certificate_history(db, run); !history.is_null()) cert.content["history"] = history;
+  if (run.procedure == "calibration") add_calibration_content(run, cert.content);
   cert.content_sha256 = store::sha256_hex(cert.content.dump());
   cert.id = store::add_certificate(rec, cert);
   tx.commit();

@@ -6,7 +6,9 @@
 #include <nlohmann/json.hpp>
 #include <random>
 
+#include "app/calibration_settings.hpp"
 #include "app/certificates.hpp"
+#include "app/record_calibration.hpp"
 #include "app/record_check.hpp"
 #include "app/registry.hpp"
 #include "core/errors.hpp"
@@ -43,6 +45,32 @@ void make_room(const std::filesystem::path& path, const std::string& demo_lab) {
                                    path.string()));
   }
   for (const char* suffix : {"", "-wal", "-shm"}) std::filesystem::remove(path.string() + suffix);
+}
+
+/// One calibration of the scenario: its balance's settings, then the run, through the validated paths.
+std::int64_t record_demo_calibration(store::Database& db, const store::Actor& quality, const json& c) {
+  const json& s = c["settings"];
+  CalibrationSettingsInput settings;
+  settings.instrument_id = c["balance"];
+  settings.accuracy_class = s["class"].get<std::string>();
+  settings.e = s["e"].get<std::string>();
+  settings.tolerance = s["tolerance"];
+  settings.decision_rule = s["decision_rule"];
+  settings.calibrate_every = s["calibrate_every"];
+  settings.since = s["since"].get<std::string>();
+  set_calibration_settings(db, quality, settings);
+  CalibrationRunInput in;
+  in.instrument_id = c["balance"];
+  in.readings_csv = c["header"].get<std::string>() + "\n";
+  for (const auto& row : c["rows"]) in.readings_csv += row.get<std::string>() + "\n";
+  in.readings_source = fmt::format("demo calibration of {}", in.instrument_id);
+  in.on = c["on"];
+  in.operator_name = c["by"];
+  in.temperature_c = c["temperature"].get<std::string>();
+  in.pressure_hpa = c["pressure"].get<std::string>();
+  in.humidity_pct = c["humidity"].get<std::string>();
+  in.model = c["model"];
+  return record_calibration(db, {in.operator_name, quality.os_user}, in).id;
 }
 
 }  // namespace
@@ -118,6 +146,10 @@ DemoSummary build_demo(const std::filesystem::path& path, const std::function<vo
       if (balance.id == "AB-01") summary.showcase_run = run.id;
       progress(summary.runs, total);
     }
+  }
+  for (const auto& c : scenario.value("calibrations", json::array())) {
+    record_demo_calibration(db, quality, c);
+    ++summary.runs;
   }
   return summary;
 }

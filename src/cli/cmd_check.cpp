@@ -4,6 +4,7 @@
 #include <iostream>
 #include <sstream>
 
+#include "app/record_calibration.hpp"
 #include "app/record_check.hpp"
 #include "cli/command_groups.hpp"
 #include "core/errors.hpp"
@@ -28,10 +29,33 @@ std::string read_input(const std::string& path, std::string& source) {
   return text.str();
 }
 
-void print_run(const store::RunRecord& run, const std::string& format, Env& env) {
-  const auto j = report::run_json(run);
+void print_run(const store::RunRecord& run, const std::string& format, Env& env,
+               const nlohmann::json& error_at = nullptr) {
+  auto j = report::run_json(run);
+  if (!error_at.is_null()) j["error_at"] = error_at;
   if (format == "json") env.out << j.dump(2) << "\n";
   else env.out << report::run_text(j);
+}
+
+int record_calibration(const po::variables_map& vm, Env& env, const std::string& format) {
+  if (vm.count("weight"))
+    throw InputError("--weight is not used by a calibration: the run file names the weights of each load.");
+  app::CalibrationRunInput in;
+  in.instrument_id = vm["instrument"].as<std::string>();
+  in.default_unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
+  in.readings_csv = read_input(vm["readings"].as<std::string>(), in.readings_source);
+  in.on = vm["on"].as<std::string>();
+  if (!vm.count("by")) throw InputError("--by must name the operator who performed the calibration.");
+  in.operator_name = vm["by"].as<std::string>();
+  in.temperature_c = optional_string(vm, "temperature");
+  in.pressure_hpa = optional_string(vm, "pressure");
+  in.humidity_pct = optional_string(vm, "humidity");
+  in.air_formula = vm["air-formula"].as<std::string>();
+  in.model = vm["model"].as<std::string>();
+  auto db = env.open();
+  const auto run = app::record_calibration(db, Env::actor(vm), in);
+  print_run(run, format, env);
+  return vm["gate"].as<bool>() && run.verdict == Verdict::fail ? 1 : 0;
 }
 
 }  // namespace
@@ -40,13 +64,22 @@ std::vector<Command> check_commands() {
   Command record{
       "check", "record", "record a check run from readings, compute and judge it, schedule the next",
       "plumb check record BAL-A --procedure repeatability --weight W100 --readings readings.csv --on 2026-11-30 "
-      "--by \"A. Technician\"",
+      "--by \"A. Technician\"\n  plumb check record BAL-A --procedure calibration --readings cal.csv "
+      "--temperature 20.3 --pressure 1009 --humidity 45 --model line --on 2026-11-30 --by \"A. Technician\"",
       [](po::options_description& d, po::positional_options_description& p) {
         d.add_options()("instrument", po::value<std::string>()->required(), "instrument id (positional)")(
-            "procedure", po::value<std::string>()->default_value("repeatability"), "check procedure: repeatability")(
-            "weight", po::value<std::vector<std::string>>()->required(), "reference weight id")(
+            "procedure", po::value<std::string>()->default_value("repeatability"),
+            "check procedure: repeatability | calibration")(
+            "weight", po::value<std::vector<std::string>>(), "reference weight id (repeatability)")(
             "readings", po::value<std::string>()->required(),
-            "CSV with a header and a `reading` column (optional `unit`); - for standard input")(
+            "CSV with a header and a `reading` column (optional `unit`); calibration: columns stage,part,load,"
+            "position,direction,reading,unit; - for standard input")(
+            "temperature", po::value<std::string>(), "calibration: air temperature, degC")(
+            "pressure", po::value<std::string>(), "calibration: air pressure, hPa")(
+            "humidity", po::value<std::string>(), "calibration: relative humidity, %")(
+            "air-formula", po::value<std::string>()->default_value("cipm2007"), "calibration: cipm2007 | oiml-r111")(
+            "model", po::value<std::string>()->default_value("line"),
+            "calibration: fitted model, line | through-origin | quadratic")(
             "unit", po::value<std::string>()->default_value("g"), "unit of readings without a unit column")(
             "on", po::value<std::string>()->required(), "date performed, YYYY-MM-DD")(
             "gate", po::bool_switch(), "exit with status 1 when the check fails");
@@ -56,10 +89,14 @@ std::vector<Command> check_commands() {
       },
       [](const po::variables_map& vm, Env& env) {
         const auto format = format_of(vm, {"text", "json"});
+        if (vm["procedure"].as<std::string>() == "calibration") return record_calibration(vm, env, format);
         app::CheckInput in;
         in.instrument_id = vm["instrument"].as<std::string>();
         in.procedure = vm["procedure"].as<std::string>();
-        in.weight_ids = vm["weight"].as<std::vector<std::string>>();
+        for (const char* option : {"temperature", "pressure", "humidity"})
+          if (vm.count(option))
+            throw InputError(fmt::format("--{} applies to --procedure calibration only.", option));
+        if (vm.count("weight")) in.weight_ids = vm["weight"].as<std::vector<std::string>>();
         in.default_unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
         in.readings_csv = read_input(vm["readings"].as<std::string>(), in.readings_source);
         in.on = vm["on"].as<std::string>();
@@ -72,7 +109,9 @@ std::vector<Command> check_commands() {
       }};
   Command show{"check", "show", "show one check run with its results", "plumb check show LAST --format json",
                [](po::options_description& d, po::positional_options_description& p) {
-                 d.add_options()("run", po::value<std::string>()->default_value("LAST"), "run number or LAST");
+                 d.add_options()("run", po::value<std::string>()->default_value("LAST"), "run number or LAST")(
+                     "at", po::value<std::string>(), "calibration: the fitted error at this load, e.g. 120g")(
+                     "extrapolate", po::bool_switch(), "with --at: show a load outside the calibrated range, marked");
                  add_format_option(d);
                  p.add("run", 1);
                },
@@ -80,7 +119,10 @@ std::vector<Command> check_commands() {
                  const auto format = format_of(vm, {"text", "json"});
                  auto db = env.open();
                  const auto id = app::resolve_run(db, vm["run"].as<std::string>());
-                 print_run(*store::find_run(db.sql(), id), format, env);
+                 const auto run = *store::find_run(db.sql(), id);
+                 const auto at = optional_string(vm, "at");
+                 print_run(run, format, env,
+                           at ? app::calibration_error_at(run, *at, vm["extrapolate"].as<bool>()) : nlohmann::json());
                  return 0;
                }};
   return {record, show};

@@ -50,7 +50,7 @@ std::vector<Command> due_commands() {
                            to_string(on));
                 if (items.empty()) fmt::print(env.out, "  nothing is due.\n");
                 for (const auto& i : items)
-                  fmt::print(env.out, "  {:<8}{:<10}{:<16}{:<12}{:>10}  {}\n", i.kind, i.id, i.status,
+                  fmt::print(env.out, "  {:<12}{:<10}{:<16}{:<12}{:>10}  {}\n", i.kind, i.id, i.status,
                              i.due_on ? to_string(*i.due_on) : "-",
                              i.days_left ? fmt::format("{} d", *i.days_left) : "", i.detail);
                 return 0;

@@ -2,11 +2,13 @@
 
 #include <fmt/format.h>
 
+#include "report/calibration_text.hpp"
 #include "report/text_format.hpp"
 
 namespace plumb::report {
 
 std::string run_text(const nlohmann::json& r) {
+  if (r.value("procedure", "") == "calibration") return calibration_run_text(r);
   std::string out;
   const auto line = [&](const std::string& s) { out += s + "\n"; };
   line(fmt::format("Run {}: {} of {} on {} by {} ({})", r.value("run_id", 0), r.value("procedure", ""),

@@ -1,0 +1,240 @@
+// End to end: a full balance calibration recorded, shown, certified and scheduled through the built binary.
+// The key numbers are worked by hand below from the published formulas (EURAMET cg-18 v4.0 sections 7.1 and
+// 7.2, GUM JCGM 100:2008, least squares for a straight line, OIML R 76-1 Table 6 and R 111-1 Annex E).
+#include <catch2/catch.hpp>
+
+#include <nlohmann/json.hpp>
+
+#include "support/run_plumb.hpp"
+
+using nlohmann::json;
+using plumb::test::run_plumb;
+
+namespace {
+
+// A balance of 220 g, d = 0.1 mg, and four E2 weights with zero correction (conventional mass = nominal), so that
+// every E below is the reading minus the nominal value.
+std::string calibration_lab(const plumb::test::ScratchDir& dir, const std::string& rule = "simple") {
+  const auto db = dir.file("cal.db").string();
+  const std::vector<std::vector<std::string>> steps = {
+      {"--db", db, "init", "--lab", "Example Calibration Lab"},
+      {"--db", db, "balance", "add", "BAL-C", "--capacity", "220g", "--readability", "0.1mg", "--every", "7d",
+       "--smallest-net", "200mg", "--since", "2026-01-05"},
+      {"--db", db, "balance", "set-calibration", "BAL-C", "--class", "I", "--e", "1mg", "--tolerance", "r76",
+       "--decision-rule", rule, "--calibrate-every", "1y", "--since", "2026-01-05"}};
+  for (const auto& s : steps) REQUIRE(run_plumb(s, dir.path()).status == 0);
+  for (const auto& [id, nominal, u] : std::vector<std::tuple<std::string, std::string, std::string>>{
+           {"W20", "20g", "0.03mg"}, {"W50", "50g", "0.03mg"}, {"W100", "100g", "0.05mg"}, {"W200", "200g", "0.10mg"}})
+    REQUIRE(run_plumb({"--db", db, "weight", "add", id, "--nominal", nominal, "--class", "E2", "--correction", "0mg",
+                       "--uncertainty", u, "--k", "2", "--certificate", "RC-" + id, "--calibrated", "2026-03-02",
+                       "--due", "2027-03-02"},
+                      dir.path())
+                .status == 0);
+  return db;
+}
+
+// Repeatability at W100: five 100.0003 and five 100.0004. Eccentricity at W100: centre 100.0003, largest deviation
+// +0.0002 g at front-left. Error of indication: one reading up per load, E = +0.1, +0.2, +0.4, +0.6, +0.8 mg.
+std::string calibration_file(const std::string& w200_reading = "200.0008") {
+  std::string csv = "stage,part,load,position,direction,reading,unit\n";
+  for (int i = 0; i < 10; ++i)
+    csv += std::string("as-found,repeatability,W100,,,") + (i % 2 ? "100.0004" : "100.0003") + ",g\n";
+  csv += "as-found,eccentricity,W100,centre,,100.0003,g\n"
+         "as-found,eccentricity,W100,front-left,,100.0005,g\n"
+         "as-found,eccentricity,W100,front-right,,100.0002,g\n"
+         "as-found,eccentricity,W100,back-left,,100.0003,g\n"
+         "as-found,eccentricity,W100,back-right,,100.0004,g\n"
+         "as-found,indication,W20,,up,20.0001,g\n"
+         "as-found,indication,W50,,up,50.0002,g\n"
+         "as-found,indication,W100,,up,100.0004,g\n"
+         "as-found,indication,W100+W50,,up,150.0006,g\n"
+         "as-found,indication,W200,,up," + w200_reading + ",g\n";
+  return csv;
+}
+
+}  // namespace
+
+TEST_CASE("calibration: record, show with budget and fit, error at a load, certificate, due", "[cli][calibration]") {
+  plumb::test::ScratchDir dir;
+  const auto db = calibration_lab(dir);
+  dir.write("cal.csv", calibration_file());
+  auto r = run_plumb({"--db", db, "check", "record", "BAL-C", "--procedure", "calibration", "--readings", "cal.csv",
+                      "--temperature", "20", "--pressure", "1013.25", "--humidity", "50", "--air-formula", "oiml-r111",
+                      "--on", "2026-11-30", "--by", "A. Technician"},
+                     dir.path());
+  INFO(r.err);
+  REQUIRE(r.status == 0);
+  CHECK_THAT(r.out, Catch::Contains("Verdict: PASS"));
+
+  r = run_plumb({"--db", db, "check", "show", "LAST", "--format", "json"}, dir.path());
+  REQUIRE(r.status == 0);
+  const json j = json::parse(r.out);
+  CHECK(j["procedure"] == "calibration");
+  CHECK(j["verdict"] == "pass");
+  CHECK(j["next_due"] == "2027-11-30");  // 2026-11-30 + 1y (--calibrate-every)
+
+  // Air density, OIML R 111-1 Annex E (E.3-1), by hand at t = 20 degC, p = 1013.25 hPa, h = 50 %:
+  //   0.34848 x 1013.25 = 353.09736; 0.009 x 50 x exp(0.061 x 20) = 0.45 x exp(1.22) = 0.45 x 3.387188 = 1.524235
+  //   rho_a = (353.09736 - 1.524235) / 293.15 = 351.573125 / 293.15 = 1.199294 kg/m3
+  CHECK(j["environment"]["air_density_kg_m3"].get<double>() == Approx(1.199294).epsilon(2e-6));
+
+  const json& loads = j["as_found"]["loads"];
+  REQUIRE(loads.size() == 5);
+  // E = I - m_ref with one reading and m_ref = nominal (zero corrections; 8000 kg/m3 weights have no buoyancy
+  // correction since 1/rho - 1/rho_c = 0, cg-18 7.1.2.2): exact decimals.
+  const std::vector<std::string> exact = {"0.0001", "0.0002", "0.0004", "0.0006", "0.0008"};
+  for (std::size_t i = 0; i < 5; ++i) {
+    INFO("load " << i + 1);
+    CHECK(loads[i]["error_exact_g"] == exact[i]);
+  }
+
+  // Budget at load 3 (W100, one reading), by hand, in mg (EURAMET cg-18 7.1; GUM 4.3.7 for rectangular):
+  //   rounding at zero, at load: 0.1 / (2 sqrt 3) = 0.0288675 each (squares 8.33333e-4)
+  //   repeatability: deviations from the mean 100.00035 are +/-0.05; s^2 = 10 x 0.0025 / 9 = 2.777778e-3,
+  //     s = 0.0527046, divided by sqrt(1) (one reading at the load), dof 9
+  //   eccentricity: |dI|max = 0.2 at L_ecc = 100 g; at L = 100 g the half-width is 0.2 / (2 x 100) x 100 = 0.1,
+  //     u = 0.1 / sqrt 3 = 0.0577350 (square 3.333333e-3)
+  //   reference weight W100: U / k = 0.05 / 2 = 0.025 (square 6.25e-4); buoyancy 0; drift 0 (one certificate)
+  //   u_c^2 = 1.666667e-3 + 2.777778e-3 + 3.333333e-3 + 6.25e-4 = 8.402778e-3, u_c = 0.0916667 mg
+  //   nu_eff = 9 x (8.402778e-3 / 2.777778e-3)^2 = 9 x 3.025^2 = 82.36 (Welch-Satterthwaite)
+  //   k: GUM Table G.2 at 95.45 % gives 2.05 for nu = 50 and 2.03 for nu = 100, so 2.03 < k < 2.05
+  //   U = k u_c: between 2.03 x 0.0916667 = 0.18608 and 2.05 x 0.0916667 = 0.18792 mg
+  const json& w100 = loads[2];
+  const json& lines = w100["budget"]["lines"];
+  json ecc_line;
+  for (const auto& l : lines)
+    if (l["source"] == "eccentricity") ecc_line = l;
+  REQUIRE(ecc_line.is_object());
+  CHECK(ecc_line["value"].get<double>() == Approx(0.0001).epsilon(1e-9));  // half-width, g
+  CHECK(ecc_line["divisor"].get<double>() == Approx(1.7320508).epsilon(1e-7));
+  CHECK(ecc_line["contribution_g"].get<double>() == Approx(0.0000577350).epsilon(1e-6));
+  CHECK(w100["u_c_g"].get<double>() == Approx(0.0000916667).epsilon(1e-6));
+  CHECK(w100["nu_eff"].get<double>() == Approx(82.36).epsilon(1e-3));
+  CHECK(w100["k"].get<double>() > 2.03);
+  CHECK(w100["k"].get<double>() < 2.05);
+  CHECK(w100["U_g"].get<double>() > 0.00018608);
+  CHECK(w100["U_g"].get<double>() < 0.00018792);
+  // OIML R 76-1 Table 6 (from memory, cross-checked in tests/reference): class I, e = 1 mg, 100 g = 100 000 e lies
+  // in 50 000 e < m <= 200 000 e: 1 e on initial verification, 2 e = 2 mg in service. At 20 g (20 000 e): 1 mg.
+  CHECK(w100["tolerance_g"].get<double>() == Approx(0.002));
+  CHECK(loads[0]["tolerance_g"].get<double>() == Approx(0.001));
+  CHECK(w100["state"] == "pass");
+
+  // Straight line of I on m, by hand through E = I - m (same residuals; slope of I = 1 + slope of E), mg and g:
+  //   x = 20, 50, 100, 150, 200: mean 104, Sxx = 84^2 + 54^2 + 4^2 + 46^2 + 96^2 = 21320
+  //   E = 0.1, 0.2, 0.4, 0.6, 0.8: mean 0.42; SxE = 26.88 + 11.88 + 0.08 + 8.28 + 36.48 = 83.6
+  //   slope of E = 83.6 / 21320 = 0.00392120 mg/g = 3.92120e-6 -> b1 = 1.00000392120
+  //   intercept = 0.42 - 0.00392120 x 104 = 0.0121951 mg -> b0 = 1.21951e-5 g
+  //   residuals: 0.1 - (0.0121951 + 0.0784240) = +0.0093809, -0.0082552, -0.0043152, -0.0003752, +0.0035647 mg
+  //   SSE = 8.80006e-5 + 6.81477e-5 + 1.86209e-5 + 1.4080e-7 + 1.27073e-5 = 1.876172e-4 mg^2
+  //   RMSE = sqrt(SSE / 5) = 6.12564e-3 mg; residual SD = sqrt(SSE / 3) = 7.90817e-3 mg
+  //   SE(b1) = residual SD / sqrt(Sxx) = 7.90817e-6 g / 146.0137 g = 5.41604e-8
+  const json& fit = j["as_found"]["fit"];
+  CHECK(fit["model"] == "line");
+  CHECK(fit["coef"][1].get<double>() == Approx(1.0000039212).epsilon(1e-12));
+  CHECK(fit["coef"][0].get<double>() == Approx(1.21951e-5).epsilon(1e-4));
+  CHECK(fit["coef_se"][1].get<double>() == Approx(5.41604e-8).epsilon(1e-4));
+  CHECK(fit["rmse_g"].get<double>() == Approx(6.12564e-6).epsilon(1e-4));
+  CHECK(fit["residual_sd_g"].get<double>() == Approx(7.90817e-6).epsilon(1e-4));
+  CHECK(fit["residuals_g"][0].get<double>() == Approx(9.3809e-6).epsilon(1e-3));
+
+  // Interpolated error at 120 g: 0.0121951 + 0.0039212 x 120 = 0.482739 mg.
+  r = run_plumb({"--db", db, "check", "show", "LAST", "--at", "120g", "--format", "json"}, dir.path());
+  REQUIRE(r.status == 0);
+  const json at = json::parse(r.out)["error_at"];
+  CHECK(at["error_g"].get<double>() == Approx(0.000482739).epsilon(1e-5));
+  CHECK(at["extrapolated"] == false);
+  // 210 g lies outside the calibrated 20-200 g: refused, or shown marked as extrapolated.
+  r = run_plumb({"--db", db, "check", "show", "LAST", "--at", "210g"}, dir.path());
+  CHECK(r.status == 2);
+  CHECK_THAT(r.err, Catch::Contains("extrapolation"));
+  r = run_plumb({"--db", db, "check", "show", "LAST", "--at", "210g", "--extrapolate"}, dir.path());
+  REQUIRE(r.status == 0);
+  CHECK_THAT(r.out, Catch::Contains("EXTRAPOLATED"));
+
+  // The text view prints the budget table and the model.
+  r = run_plumb({"--db", db, "check", "show", "LAST"}, dir.path());
+  REQUIRE(r.status == 0);
+  for (const char* must : {"Uncertainty budget", "eccentricity", "rectangular", "Fitted model (line)", "RMSE",
+                           "front-left", "W100+W50"}) {
+    INFO(must);
+    CHECK_THAT(r.out, Catch::Contains(must));
+  }
+
+  // The structure went to the calibration tables too (migration 003).
+  const std::string dump = plumb::test::dump_database(db);
+  CHECK_THAT(dump, Catch::Contains("INSERT INTO calibration_runs"));
+  CHECK_THAT(dump, Catch::Contains("'W100+W50'"));
+  CHECK_THAT(dump, Catch::Contains("'front-left'"));
+
+  r = run_plumb({"--db", db, "certificate", "issue", "LAST", "--by", "Q. Manager"}, dir.path());
+  REQUIRE(r.status == 0);
+  for (const char* must : {"BALANCE CALIBRATION CERTIFICATE", "CC-", "RC-W20", "RC-W200", "U = k u_c",
+                           "ILAC G8", "simple acceptance", "As found", "No adjustment was made", "1.1993 kg/m3",
+                           "RESULT: PASS", "2027-11-30", "does not replace, accredited calibration"}) {
+    INFO(must);
+    CHECK_THAT(r.out, Catch::Contains(must, Catch::CaseSensitive::No));
+  }
+  r = run_plumb({"--db", db, "certificate", "show", "LAST", "--format", "json"}, dir.path());
+  REQUIRE(r.status == 0);
+  const json cert = json::parse(r.out);
+  CHECK(cert["kind"] == "balance_calibration");
+  CHECK_THAT(cert["uncertainty_statement"].get<std::string>(), Catch::Contains("coverage probability of about 95 %"));
+  CHECK(cert["calibration"]["stages"][0]["error_of_indication"].size() == 5);
+  CHECK(cert["weights"].size() == 4);
+
+  // Calibration due beside the weekly check, each on its own schedule.
+  r = run_plumb({"--db", db, "due", "--on", "2026-12-01", "--all", "--format", "json"}, dir.path());
+  REQUIRE(r.status == 0);
+  bool seen = false;
+  const json due = json::parse(r.out);
+  for (const auto& item : due["items"])
+    if (item["kind"] == "calibration") {
+      seen = true;
+      CHECK(item["due_on"] == "2027-11-30");
+      CHECK(item["status"] == "in date");
+    }
+  CHECK(seen);
+}
+
+TEST_CASE("calibration: guard band states, a failed as-left puts the balance out of service", "[cli][calibration]") {
+  plumb::test::ScratchDir dir;
+  const auto db = calibration_lab(dir, "guard-band");
+  // W200 read 200.0021: E = +2.1 mg against 2 mg in service; U there is about 0.3 mg, so the interval
+  // [1.8, 2.4] mg straddles the limit: "fail, not proven" (ILAC G8 guard band w = U).
+  std::string csv = calibration_file("200.0021");
+  // As left: the same, still reading high at 200 g (adjustment did not help).
+  csv += "as-left,indication,W20,,up,20.0001,g\nas-left,indication,W50,,up,50.0002,g\n"
+         "as-left,indication,W100,,up,100.0004,g\nas-left,indication,W100+W50,,up,150.0006,g\n"
+         "as-left,indication,W200,,up,200.0025,g\n";
+  dir.write("cal.csv", csv);
+  auto r = run_plumb({"--db", db, "check", "record", "BAL-C", "--procedure", "calibration", "--readings", "cal.csv",
+                      "--on", "2026-11-30", "--by", "A. Technician", "--format", "json", "--gate"},
+                     dir.path());
+  INFO(r.err);
+  CHECK(r.status == 1);  // --gate: the calibration failed
+  const json j = json::parse(r.out);
+  CHECK(j["as_found"]["loads"][4]["state"] == "fail, not proven");
+  CHECK(j["as_left"]["loads"][4]["state"] == "fail");  // 2.5 mg - U (about 0.3) > 2 mg
+  CHECK(j["as_left"]["loads"][2]["state"] == "pass");
+  CHECK(j["verdict"] == "fail");
+  CHECK(j["next_due"].is_null());
+  // Air not measured: cg-18 with plumb's stated assumption 1.2 kg/m3 +/- 10 %.
+  CHECK(j["environment"]["air_method"] == "assumed");
+
+  r = run_plumb({"--db", db, "due", "--on", "2026-12-01", "--format", "json"}, dir.path());
+  REQUIRE(r.status == 0);
+  int out_of_service = 0;
+  const json due = json::parse(r.out);
+  for (const auto& item : due["items"])
+    if (item["id"] == "BAL-C" && item["status"] == "out of service") ++out_of_service;
+  CHECK(out_of_service == 2);  // the weekly-check line and the calibration line
+
+  r = run_plumb({"--db", db, "certificate", "issue", "LAST"}, dir.path());
+  REQUIRE(r.status == 0);
+  for (const char* must :
+       {"fail, not proven", "guard band", "OUT OF SERVICE", "as found fail, not proven, as left fail"}) {
+    INFO(must);
+    CHECK_THAT(r.out, Catch::Contains(must));
+  }
+}
