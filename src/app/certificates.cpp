@@ -3,6 +3,7 @@
 #include <SQLiteCpp/Transaction.h>
 #include <fmt/format.h>
 
+#include "app/pipette_certificate.hpp"
 #include "app/record_check.hpp"
 #include "app/registry.hpp"
 #include "core/errors.hpp"
@@ -31,7 +32,7 @@ json weight_json(const store::WeightRecord& w, const store::WeightCalibration& c
 std::string prefix_for(const std::string& procedure) {
   if (procedure == "repeatability") return "BC";
   if (procedure == "calibration") return "CC";
-  if (procedure == "pipette") return "PC";
+  if (procedure == "pipette" || procedure == "gravimetric") return "PC";
   return "XC";
 }
 
@@ -68,6 +69,7 @@ IssueOutcome issue_certificate(store::Database& db, const store::Actor& actor, c
   cert.number = store::next_certificate_number(db.sql(), prefix_for(run.procedure), year);
   cert.run_id = run.id;
   cert.kind = run.procedure == "repeatability" ? "balance_check" : run.procedure;
+  if (run.procedure == "gravimetric") cert.kind = pipette_certificate_kind;
   cert.issued_by = actor.name;
   store::Recorder rec(db.sql(), actor);
   cert.issued_at = rec.now();
@@ -92,6 +94,7 @@ IssueOutcome issue_certificate(store::Database& db, const store::Actor& actor, c
                   {"decision_rule", "simple acceptance (ILAC G8: guard band w = 0)"},
                   {"signatories", signatories},
                   {"caution", layout.value("caution", "")}};
+  if (run.procedure == "gravimetric") add_pipette_certificate_parts(db, run, cert.content);
   cert.content_sha256 = store::sha256_hex(cert.content.dump());
   cert.id = store::add_certificate(rec, cert);
   tx.commit();

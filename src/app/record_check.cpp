@@ -35,7 +35,7 @@ store::WeightRecord traceable_weight(store::Database& db, const std::string& id,
 
 }  // namespace
 
-std::vector<std::string> known_procedures() { return {"repeatability"}; }
+std::vector<std::string> known_procedures() { return {"repeatability", "gravimetric"}; }
 
 std::int64_t resolve_run(store::Database& db, const std::string& selector) {
   if (selector == "LAST") {
@@ -64,6 +64,8 @@ std::int64_t record_check_in(store::Database& db, store::Recorder& rec, const Ch
   if (std::find(procedures.begin(), procedures.end(), in.procedure) == procedures.end())
     throw InputError(fmt::format("--procedure \"{}\" is not known (known: {}).", in.procedure,
                                  fmt::join(procedures, ", ")));
+  if (in.procedure == "gravimetric")  // pipettes: app/record_pipette_check.hpp
+    throw InputError("--procedure gravimetric is recorded for a pipette with --balance and the conditions of the run.");
   const Date on = parse_date(in.on, "--on");
   if (days_between(today_utc(), on) > 1)
     throw InputError(fmt::format("--on {} is in the future.", in.on));

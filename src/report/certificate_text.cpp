@@ -5,6 +5,7 @@
 #include <algorithm>
 
 #include "core/units.hpp"
+#include "report/pipette_certificate_text.hpp"
 #include "report/text_format.hpp"
 
 namespace plumb::report {
@@ -35,6 +36,7 @@ void add(std::string& out, const std::string& line) { out += line + "\n"; }
 }  // namespace
 
 std::string certificate_text(const json& c, const std::string& content_sha256) {
+  if (c.value("kind", "") == "pipette_check") return pipette_certificate_text(c, content_sha256);
   std::string out;
   const json& lab = c["lab"];
   const json& inst = c["instrument"];

@@ -1,0 +1,87 @@
+#include "report/pipette_check_text.hpp"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <cmath>
+
+#include "report/text_format.hpp"
+
+namespace plumb::report {
+namespace {
+
+using nlohmann::json;
+
+double num(const json& j, const char* key) { return j.contains(key) && j[key].is_number() ? j[key].get<double>() : 0.0; }
+
+}  // namespace
+
+int pipette_volume_decimals(double selected_ul) {
+  if (selected_ul <= 0) return 3;
+  return std::clamp(5 - static_cast<int>(std::floor(std::log10(selected_ul))), 1, 6);
+}
+
+std::vector<std::string> pipette_results_table(const json& r) {
+  std::vector<std::string> rows;
+  rows.push_back(fmt::format("  {:>9} {:>3} {:>3} {:>12} {:>19} {:>10} {:>7} {:>17} {:>12}  {}", "volume", "ch", "n",
+                             "mean (uL)", "e_s uL (%)", "s_r (uL)", "CV %", "limit e_s uL (%)", "limit s_r", ""));
+  for (const auto& tv : r.value("volumes", json::array())) {
+    const double v = num(tv, "selected_ul");
+    const int dp = pipette_volume_decimals(v);
+    for (const auto& c : tv.value("channels", json::array())) {
+      const json& l = c["limits"];
+      const bool pct = l.value("compare_in_pct", false);
+      const std::string random_limit =
+          pct ? fmt::format("{:.3f} %", num(l, "random_pct")) : fmt::format("{:.{}f} uL", num(l, "random_ul"), dp);
+      rows.push_back(fmt::format("  {:>6} uL {:>3} {:>3} {:>12.{}f} {:>+10.{}f} ({:+.3f}) {:>10.{}f} {:>7.3f} "
+                                 "{:>8.{}f} ({:.3f}) {:>12}  {}",
+                                 tv.value("selected", ""), c.value("channel", 0), c.value("n", 0), num(c, "mean_ul"),
+                                 dp, num(c, "systematic_error_ul"), dp, num(c, "systematic_error_pct"),
+                                 num(c, "random_error_ul"), dp, num(c, "cv_pct"), num(l, "systematic_ul"), dp,
+                                 num(l, "systematic_pct"), random_limit,
+                                 c.value("verdict", "") == "pass" ? "pass" : "FAIL"));
+    }
+  }
+  return rows;
+}
+
+std::string pipette_run_text(const json& r) {
+  std::string out;
+  const auto line = [&](const std::string& s) { out += s + "\n"; };
+  const json& p = r.value("pipette", json::object());
+  const json& b = r.value("balance", json::object());
+  const json& e = r.value("environment", json::object());
+  const json& z = r.value("z", json::object());
+  line(fmt::format("Run {}: gravimetric check of pipette {} on {} by {} ({})", r.value("run_id", 0),
+                   r.value("instrument", ""), r.value("date", ""), r.value("operator", ""), r.value("policy_name", "")));
+  std::string range = p.value("kind", "") == "variable"
+                          ? fmt::format("variable {:g}-{:g} uL", num(p, "lower_limit_ul"), num(p, "nominal_ul"))
+                          : fmt::format("fixed {:g} uL", num(p, "nominal_ul"));
+  line(fmt::format("  pipette            {}, {} channel(s); limits {}", range, p.value("channels", 1),
+                   p.value("limits", "")));
+  line(fmt::format("  balance            {} (d = {}, repeatability s = {} from run {}); latest check run {} on {}, "
+                   "due {}",
+                   b.value("id", ""), mass_text(b["readability_g"]), mass_text(b["repeatability_g"]),
+                   b.contains("repeatability_run") ? b["repeatability_run"].dump() : "-", b.value("latest_check_run", 0),
+                   b.value("latest_check_on", ""), b.contains("due_on") && b["due_on"].is_string() ? b["due_on"].get<std::string>() : "-"));
+  line(fmt::format("  environment        water {:g} degC, air {:g} hPa, {:g} %RH; evaporation per weighing {}",
+                   num(e, "water_temperature_c"), num(e, "air_pressure_hpa"), num(e, "humidity_pct"),
+                   e.contains("evaporation_g") && e["evaporation_g"].is_number() ? mass_text(e["evaporation_g"])
+                                                                                 : "not applied"));
+  line(fmt::format("  Z                  {:.7f} uL/mg (water {:.5f} kg/m3, air {:.5f} kg/m3, weights {:g} kg/m3)",
+                   num(z, "z_ul_per_mg"), num(z, "water_density_kg_m3"), num(z, "air_density_kg_m3"),
+                   num(z, "weight_density_kg_m3")));
+  for (const auto& row : pipette_results_table(r)) line(row);
+  const std::string verdict = r.value("verdict", "");
+  if (verdict == "pass")
+    line(fmt::format("  verdict            PASS, next check due {}", r.value("next_due", "")));
+  else
+    line("  verdict            FAIL: out of service until a passing check");
+  for (const auto& why : r.value("reasons", json::array()))
+    for (const auto& l : wrap(why.get<std::string>(), 78, "    - ", "      ")) line(l);
+  for (const auto& n : r.value("notes", json::array()))
+    for (const auto& l : wrap(n.get<std::string>(), 78, "    note: ", "      ")) line(l);
+  return out;
+}
+
+}  // namespace plumb::report
