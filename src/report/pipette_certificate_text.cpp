@@ -60,38 +60,44 @@ std::string pipette_certificate_text(const json& c, const std::string& content_s
   add(out, fmt::format("{:<14}{} (piston pipette), {}", "Instrument", str(inst, "id"), str(inst, "location")));
   add(out, fmt::format("{:<14}{}, {} channel(s), check interval {}", "", volume, str(inst, "channels"),
                        str(inst, "check_every")));
-  add(out, fmt::format("{:<14}run {}, gravimetric method (ISO 8655-6), performed {} by {}", "Check",
-                       str(run, "run_id"), str(run, "date"), str(run, "operator")));
-  add(out, fmt::format("{:<14}{}; source: {}", "Limits", str(inst, "limits"), str(inst, "limits_source")));
+  add(out, fmt::format("{:<14}run {}, gravimetric method (ISO 8655-6)", "Check", str(run, "run_id")));
+  add(out, fmt::format("{:<14}performed {} by {}", "", str(run, "date"), str(run, "operator")));
+  add(out, fmt::format("{:<14}{}", "Limits", str(inst, "limits")));
+  add(out, fmt::format("{:<14}source: {}", "", str(inst, "limits_source")));
   add(out, "");
   add(out, "Balance used (traceability)");
   add(out, fmt::format("  {} ({}), readability d = {}, capacity {}", str(bal, "id"), str(bal, "location"),
                        grams_text(bal, "readability_g"), grams_text(bal, "capacity_g")));
-  add(out, fmt::format("  in service and in date: check run {} ({}) on {}: {}, due {}; certificate {}",
-                       str(bal, "check_run"), str(bal, "check_procedure"), str(bal, "checked_on"),
-                       str(bal, "check_verdict"), str(bal, "due_on"), str(bal, "check_certificate", "not issued")));
+  add(out, fmt::format("  in service and in date: {} check run {} on {}: {},", str(bal, "check_procedure"),
+                       str(bal, "check_run"), str(bal, "checked_on"), str(bal, "check_verdict")));
+  add(out, fmt::format("  next due {}", str(bal, "due_on")));
+  add(out, fmt::format("  balance check certificate: {}", str(bal, "check_certificate", "not issued")));
   const json& rb = run.value("balance", json::object());
-  add(out, fmt::format("  repeatability s = {} (run {}), judged against ISO 8655-6 Table 1 per test volume",
-                       mass_text(rb.value("repeatability_g", json())), str(rb, "repeatability_run")));
+  const double s_mg = rb.contains("repeatability_g") && rb["repeatability_g"].is_number()
+                          ? rb["repeatability_g"].get<double>() * 1e3
+                          : 0.0;
+  add(out, fmt::format("  repeatability s = {:.5f} mg (run {}), suitable per ISO 8655-6 Table 1", s_mg,
+                       str(rb, "repeatability_run")));
   for (const auto& w : c.value("weights", json::array())) {
     add(out, fmt::format("  reference weight {} nominal {}, class {}, conventional mass {}", str(w, "id"),
                          str(w, "nominal"), str(w, "class"), grams_text(w, "conventional_mass_g")));
-    add(out, fmt::format("    U = {} (k = {}); certificate {}, calibrated {}, due {}", grams_text(w, "uncertainty_g"),
+    add(out, fmt::format("    U = {} (k = {}), certificate {} of {}, due {}", grams_text(w, "uncertainty_g"),
                          str(w, "k"), str(w, "certificate"), str(w, "calibrated_on"), str(w, "due_on")));
   }
   add(out, "");
   add(out, "Conditions and conversion factor");
-  add(out, fmt::format("  water {:g} degC, air pressure {:g} hPa, relative humidity {:g} %; evaporation {}",
-                       num(env, "water_temperature_c"), num(env, "air_pressure_hpa"), num(env, "humidity_pct"),
-                       env.contains("evaporation_g") && env["evaporation_g"].is_number()
-                           ? mass_text(env["evaporation_g"]) + " per weighing, added to each"
-                           : "not applied"));
-  add(out, fmt::format("  Z = {:.7f} uL/mg: water {:.5f} kg/m3 (Tanaka et al. 2001), air {:.5f} kg/m3 (OIML R 111-1 "
-                       "Annex E),",
-                       num(z, "z_ul_per_mg"), num(z, "water_density_kg_m3"), num(z, "air_density_kg_m3")));
-  add(out, fmt::format("  weights {:g} kg/m3; V = (m + evaporation) x Z", num(z, "weight_density_kg_m3")));
+  add(out, fmt::format("  water {:g} degC, air pressure {:g} hPa, relative humidity {:g} %",
+                       num(env, "water_temperature_c"), num(env, "air_pressure_hpa"), num(env, "humidity_pct")));
+  add(out, fmt::format("  evaporation: {}", env.contains("evaporation_g") && env["evaporation_g"].is_number()
+                                                    ? mass_text(env["evaporation_g"]) + " per weighing, added to each"
+                                                    : "not applied"));
+  add(out, fmt::format("  Z = {:.7f} uL/mg; V = (m + evaporation) x Z", num(z, "z_ul_per_mg")));
+  add(out, fmt::format("  water {:.5f} kg/m3 (Tanaka et al. 2001)", num(z, "water_density_kg_m3")));
+  add(out, fmt::format("  air {:.5f} kg/m3 (OIML R 111-1 Annex E), weights {:g} kg/m3", num(z, "air_density_kg_m3"),
+                       num(z, "weight_density_kg_m3")));
   add(out, "");
-  add(out, "Results per test volume and channel (e_s systematic error, s_r random error as SD, CV = s_r / mean)");
+  add(out, "Results per test volume and channel");
+  add(out, "  (e_s systematic error, s_r random error as SD, CV = s_r / mean volume)");
   for (const auto& row : pipette_results_table(run)) add(out, row);
   add(out, "");
   add(out, "Limits applied");
