@@ -5,6 +5,7 @@
 
 #include "app/certificate_history.hpp"
 #include "app/calibration_certificate.hpp"
+#include "app/pipette_certificate.hpp"
 #include "app/record_check.hpp"
 #include "app/registry.hpp"
 #include "core/errors.hpp"
@@ -33,7 +34,7 @@ json weight_json(const store::WeightRecord& w, const store::WeightCalibration& c
 std::string prefix_for(const std::string& procedure) {
   if (procedure == "repeatability") return "BC";
   if (procedure == "calibration") return "CC";
-  if (procedure == "pipette") return "PC";
+  if (procedure == "pipette" || procedure == "gravimetric") return "PC";
   return "XC";
 }
 
@@ -72,6 +73,7 @@ IssueOutcome issue_certificate(store::Database& db, const store::Actor& actor, c
   cert.kind = run.procedure == "repeatability" ? "balance_check"
               : run.procedure == "calibration" ? "balance_calibration"
                                                : run.procedure;
+  if (run.procedure == "gravimetric") cert.kind = pipette_certificate_kind;
   cert.issued_by = actor.name;
   store::Recorder rec(db.sql(), actor);
   cert.issued_at = rec.now();
@@ -99,6 +101,7 @@ IssueOutcome issue_certificate(store::Database& db, const store::Actor& actor, c
   // The recent history travels inside the certificate, so its PDF chart is part of the hashed record.
   if (auto history = certificate_history(db, run); !history.is_null()) cert.content["history"] = history;
   if (run.procedure == "calibration") add_calibration_content(run, cert.content);
+  if (run.procedure == "gravimetric") add_pipette_certificate_parts(db, run, cert.content);
   cert.content_sha256 = store::sha256_hex(cert.content.dump());
   cert.id = store::add_certificate(rec, cert);
   tx.commit();

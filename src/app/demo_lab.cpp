@@ -9,9 +9,13 @@
 #include "app/calibration_settings.hpp"
 #include "app/certificates.hpp"
 #include "app/record_calibration.hpp"
+#include "app/pipette_registry.hpp"
+#include "app/record_pipette_check.hpp"
 #include "app/record_check.hpp"
 #include "app/registry.hpp"
+#include "checks/pipette.hpp"
 #include "core/errors.hpp"
+#include "metrology/gravimetric.hpp"
 #include "store/embedded.hpp"
 #include "store/repository.hpp"
 
@@ -73,6 +77,30 @@ std::int64_t record_demo_calibration(store::Database& db, const store::Actor& qu
   return record_calibration(db, {in.operator_name, quality.os_user}, in).id;
 }
 
+/// The weighings CSV of one invented pipette check: for each ISO 8655-6 test volume and channel, ten
+/// volumes with the pipette's bias and CV (and a fault on one channel when the scenario says so), turned into
+/// masses with Z and rounded to the balance's scale interval as its display would show them (in g).
+std::string pipette_weighings(const json& p, const store::PipetteRecord& rec, int check, double z_ul_per_mg,
+                              const ExactMass& readability, Gauss& noise) {
+  const double d_mg = readability.approx().mg();
+  const int decimals = readability.in_grams().significant_scale();
+  std::string csv = "volume,channel,reading\n";
+  for (const Decimal& v : checks::default_test_volumes(rec.definition)) {
+    for (int ch = 1; ch <= rec.definition.channels; ++ch) {
+      double bias_pct = p["bias_pct"].get<double>();
+      if (p.contains("fault") && p["fault"]["check"].get<int>() == check && p["fault"]["channel"].get<int>() == ch)
+        bias_pct = p["fault"]["bias_pct"].get<double>();
+      const double selected = v.to_double();
+      for (int i = 0; i < 10; ++i) {
+        const double volume = selected * (1.0 + bias_pct / 100.0) + selected * p["cv_pct"].get<double>() / 100.0 * noise.next();
+        const double mg = std::round(volume / z_ul_per_mg / d_mg) * d_mg;
+        csv += fmt::format("{},{},{:.{}f}\n", v.to_string(), ch, mg / 1e3, decimals);
+      }
+    }
+  }
+  return csv;
+}
+
 }  // namespace
 
 DemoSummary build_demo(const std::filesystem::path& path, const std::function<void(int, int)>& progress) {
@@ -113,9 +141,25 @@ DemoSummary build_demo(const std::filesystem::path& path, const std::function<vo
     add_balance(db, quality, in);
   }
 
+  for (const auto& p : scenario["pipettes"]) {
+    PipetteInput in;
+    in.id = p["id"];
+    in.nominal = p["nominal"];
+    in.range = p["range"];
+    in.channels = p["channels"];
+    in.every = p["every"];
+    in.location = p["location"];
+    in.since = to_string(first);
+    add_pipette(db, quality, in);
+  }
+  const json& pc = scenario["pipette_checks"];
+  const auto pipette_weeks = pc["weeks"].get<std::vector<int>>();
+  Gauss pipette_noise(pc["seed"].get<std::uint64_t>());
+
   Gauss noise(scenario["seed"].get<std::uint64_t>());
   const int weeks = scenario["weeks"].get<int>();
-  const int total = weeks * static_cast<int>(scenario["balances"].size());
+  const int total = weeks * static_cast<int>(scenario["balances"].size()) +
+                    static_cast<int>(pipette_weeks.size() * scenario["pipettes"].size());
   for (int week = 0; week < weeks; ++week) {
     const Date on = add_days(first, 7 * week);
     for (const auto& b : scenario["balances"]) {
@@ -144,6 +188,32 @@ DemoSummary build_demo(const std::filesystem::path& path, const std::function<vo
       ++summary.runs;
       if (run.verdict == Verdict::fail) ++summary.failed_runs;
       if (balance.id == "AB-01") summary.showcase_run = run.id;
+      progress(summary.runs, total);
+    }
+    // Pipette checks on the balance checked this week, the day after its check.
+    const auto check = std::find(pipette_weeks.begin(), pipette_weeks.end(), week);
+    if (check == pipette_weeks.end()) continue;
+    const auto k = static_cast<std::size_t>(check - pipette_weeks.begin());
+    const auto balance = *store::find_balance(db.sql(), pc["balance"].get<std::string>());
+    for (const auto& p : scenario["pipettes"]) {
+      const auto pipette = *store::find_pipette(db.sql(), p["id"].get<std::string>());
+      PipetteCheckInput in;
+      in.pipette_id = pipette.id();
+      in.balance_id = balance.id;
+      in.water_temperature = pc["water_temp"][k];
+      in.pressure = pc["pressure"][k];
+      in.humidity = pc["humidity"][k];
+      const double z = gravimetric::z_factor({Decimal::parse(in.water_temperature).to_double(),
+                                              Decimal::parse(in.pressure).to_double(),
+                                              Decimal::parse(in.humidity).to_double()})
+                           .z_ul_per_mg;
+      in.readings_csv = pipette_weighings(p, pipette, static_cast<int>(k), z, balance.readability, pipette_noise);
+      in.readings_source = fmt::format("demo {} check {}", pipette.id(), k + 1);
+      in.on = to_string(add_days(on, pc["day_after_balance_check"].get<int>()));
+      in.operator_name = people[pipette_noise.raw() % people.size()];
+      const auto run = record_pipette_check(db, {in.operator_name, quality.os_user}, in);
+      ++summary.runs;
+      if (run.verdict == Verdict::fail) ++summary.failed_runs;
       progress(summary.runs, total);
     }
   }

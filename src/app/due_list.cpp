@@ -5,6 +5,7 @@
 #include <algorithm>
 
 #include "store/calibration.hpp"
+#include "store/pipettes.hpp"
 #include "store/repository.hpp"
 
 namespace plumb::app {
@@ -61,6 +62,22 @@ std::vector<DueItem> due_items(store::Database& db, Date on, int within_days, bo
                      : "not calibrated yet";
     }
     items.push_back(std::move(c));
+  }
+  // Pipettes: due on the next due date of their latest passing check; out of service after a failed one.
+  for (const auto& p : store::list_pipettes(db.sql())) {
+    DueItem item{"pipette", p.id(), p.location, "", std::nullopt, std::nullopt, ""};
+    const auto last = store::latest_run(db.sql(), p.id());
+    if (last && last->verdict == Verdict::fail) {
+      item.status = "out of service";
+      item.detail = fmt::format("failed check run {} on {}", last->id, to_string(last->performed_on));
+    } else {
+      item.due_on = last && last->next_due ? *last->next_due : p.created_on;
+      item.days_left = days_between(on, *item.due_on);
+      item.status = timing_status(*item.days_left, within_days);
+      item.detail = last ? fmt::format("last passed {} (run {})", to_string(last->performed_on), last->id)
+                         : "no check recorded yet";
+    }
+    items.push_back(std::move(item));
   }
   for (const auto& w : store::list_weights(db.sql())) {
     DueItem item{"weight", w.id, "", "", w.current.due_on, days_between(on, w.current.due_on),

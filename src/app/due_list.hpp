@@ -11,7 +11,7 @@
 namespace plumb::app {
 
 struct DueItem {
-  std::string kind;      ///< "balance" (weekly checks), "calibration" (of a balance), "weight"
+  std::string kind;      ///< "balance" (weekly checks), "calibration" (of a balance), "pipette", "weight"
   std::string id;
   std::string location;
   std::string status;    ///< "overdue", "due", "out of service", "in date"

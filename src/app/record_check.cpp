@@ -35,7 +35,7 @@ store::WeightRecord traceable_weight(store::Database& db, const std::string& id,
 
 }  // namespace
 
-std::vector<std::string> known_procedures() { return {"repeatability", "calibration"}; }
+std::vector<std::string> known_procedures() { return {"repeatability", "calibration", "gravimetric"}; }
 
 std::int64_t resolve_run(store::Database& db, const std::string& selector) {
   if (selector == "LAST") {
@@ -66,6 +66,8 @@ std::int64_t record_check_in(store::Database& db, store::Recorder& rec, const Ch
                                  fmt::join(procedures, ", ")));
   if (in.procedure == "calibration")  // recorded by app/record_calibration.hpp from a calibration run file
     throw InputError("--procedure calibration is recorded from a calibration run file (record_calibration).");
+  if (in.procedure == "gravimetric")  // pipettes: app/record_pipette_check.hpp
+    throw InputError("--procedure gravimetric is recorded for a pipette with --balance and the conditions of the run.");
   const Date on = parse_date(in.on, "--on");
   if (days_between(today_utc(), on) > 1)
     throw InputError(fmt::format("--on {} is in the future.", in.on));

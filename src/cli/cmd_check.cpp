@@ -6,10 +6,12 @@
 
 #include "app/record_calibration.hpp"
 #include "app/record_check.hpp"
+#include "app/record_pipette_check.hpp"
 #include "cli/command_groups.hpp"
 #include "core/errors.hpp"
 #include "report/check_json.hpp"
 #include "report/check_text.hpp"
+#include "report/pipette_check_text.hpp"
 #include "store/repository.hpp"
 
 namespace plumb::cli {
@@ -34,6 +36,7 @@ void print_run(const store::RunRecord& run, const std::string& format, Env& env,
   auto j = report::run_json(run);
   if (!error_at.is_null()) j["error_at"] = error_at;
   if (format == "json") env.out << j.dump(2) << "\n";
+  else if (run.procedure == app::gravimetric_procedure) env.out << report::pipette_run_text(j);
   else env.out << report::run_text(j);
 }
 
@@ -58,6 +61,32 @@ int record_calibration(const po::variables_map& vm, Env& env, const std::string&
   return vm["gate"].as<bool>() && run.verdict == Verdict::fail ? 1 : 0;
 }
 
+std::string required(const po::variables_map& vm, const char* name, const char* what) {
+  if (!vm.count(name)) throw InputError(fmt::format("--{} is required for a gravimetric check: {}.", name, what));
+  return vm[name].as<std::string>();
+}
+
+int record_pipette(const po::variables_map& vm, Env& env, const std::string& format) {
+  if (vm.count("weight"))
+    throw InputError("--weight is not used by a gravimetric check; give the balance with --balance.");
+  app::PipetteCheckInput in;
+  in.pipette_id = vm["instrument"].as<std::string>();
+  in.balance_id = required(vm, "balance", "the balance the water was weighed on");
+  in.water_temperature = required(vm, "water-temp", "the water temperature in degC");
+  in.pressure = required(vm, "pressure", "the air pressure in hPa");
+  in.humidity = required(vm, "humidity", "the relative humidity in %");
+  in.evaporation = optional_string(vm, "evaporation");
+  in.default_unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
+  in.readings_csv = read_input(vm["readings"].as<std::string>(), in.readings_source);
+  in.on = vm["on"].as<std::string>();
+  if (!vm.count("by")) throw InputError("--by must name the operator who performed the check.");
+  in.operator_name = vm["by"].as<std::string>();
+  auto db = env.open();
+  const auto run = app::record_pipette_check(db, Env::actor(vm), in);
+  print_run(run, format, env);
+  return vm["gate"].as<bool>() && run.verdict == Verdict::fail ? 1 : 0;
+}
+
 }  // namespace
 
 std::vector<Command> check_commands() {
@@ -65,21 +94,27 @@ std::vector<Command> check_commands() {
       "check", "record", "record a check run from readings, compute and judge it, schedule the next",
       "plumb check record BAL-A --procedure repeatability --weight W100 --readings readings.csv --on 2026-11-30 "
       "--by \"A. Technician\"\n  plumb check record BAL-A --procedure calibration --readings cal.csv "
-      "--temperature 20.3 --pressure 1009 --humidity 45 --model line --on 2026-11-30 --by \"A. Technician\"",
+      "--temperature 20.3 --pressure 1009 --humidity 45 --model line --on 2026-11-30 --by \"A. Technician\"\n"
+      "  plumb check record P-07 --procedure gravimetric --balance SM-02 --water-temp 20.5 "
+      "--pressure 1013 --humidity 50 --readings weighings.csv --on 2026-11-30 --by \"A. Technician\"",
       [](po::options_description& d, po::positional_options_description& p) {
         d.add_options()("instrument", po::value<std::string>()->required(), "instrument id (positional)")(
             "procedure", po::value<std::string>()->default_value("repeatability"),
-            "check procedure: repeatability | calibration")(
+            "check procedure: repeatability or calibration (balances), gravimetric (pipettes)")(
             "weight", po::value<std::vector<std::string>>(), "reference weight id (repeatability)")(
             "readings", po::value<std::string>()->required(),
             "CSV with a header and a `reading` column (optional `unit`); calibration: columns stage,part,load,"
-            "position,direction,reading,unit; - for standard input")(
+            "position,direction,reading,unit; gravimetric: also `volume` and optional `channel`; - for standard input")(
             "temperature", po::value<std::string>(), "calibration: air temperature, degC")(
-            "pressure", po::value<std::string>(), "calibration: air pressure, hPa")(
-            "humidity", po::value<std::string>(), "calibration: relative humidity, %")(
+            "pressure", po::value<std::string>(), "calibration and gravimetric: air pressure, hPa")(
+            "humidity", po::value<std::string>(), "calibration and gravimetric: relative humidity, %")(
             "air-formula", po::value<std::string>()->default_value("cipm2007"), "calibration: cipm2007 | oiml-r111")(
             "model", po::value<std::string>()->default_value("line"),
             "calibration: fitted model, line | through-origin | quadratic")(
+            "balance", po::value<std::string>(), "gravimetric: the balance the water was weighed on")(
+            "water-temp", po::value<std::string>(), "gravimetric: water temperature in degC (15 to 30)")(
+            "evaporation", po::value<std::string>(),
+            "gravimetric: mass lost by evaporation per weighing, with unit (e.g. 0.01mg); added to each weighing")(
             "unit", po::value<std::string>()->default_value("g"), "unit of readings without a unit column")(
             "on", po::value<std::string>()->required(), "date performed, YYYY-MM-DD")(
             "gate", po::bool_switch(), "exit with status 1 when the check fails");
@@ -89,13 +124,20 @@ std::vector<Command> check_commands() {
       },
       [](const po::variables_map& vm, Env& env) {
         const auto format = format_of(vm, {"text", "json"});
-        if (vm["procedure"].as<std::string>() == "calibration") return record_calibration(vm, env, format);
+        const std::string procedure = vm["procedure"].as<std::string>();
+        if (procedure == "calibration") {
+          for (const char* o : {"balance", "water-temp", "evaporation"})
+            if (vm.count(o)) throw InputError(fmt::format("--{} belongs to a gravimetric (pipette) check, not to "
+                                                          "--procedure calibration.", o));
+          return record_calibration(vm, env, format);
+        }
+        if (procedure == app::gravimetric_procedure) return record_pipette(vm, env, format);
+        for (const char* o : {"temperature", "pressure", "humidity", "balance", "water-temp", "evaporation"})
+          if (vm.count(o))
+            throw InputError(fmt::format("--{} does not apply to --procedure {}.", o, procedure));
         app::CheckInput in;
         in.instrument_id = vm["instrument"].as<std::string>();
-        in.procedure = vm["procedure"].as<std::string>();
-        for (const char* option : {"temperature", "pressure", "humidity"})
-          if (vm.count(option))
-            throw InputError(fmt::format("--{} applies to --procedure calibration only.", option));
+        in.procedure = procedure;
         if (vm.count("weight")) in.weight_ids = vm["weight"].as<std::vector<std::string>>();
         in.default_unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
         in.readings_csv = read_input(vm["readings"].as<std::string>(), in.readings_source);

@@ -10,6 +10,7 @@ std::vector<Command> lab_commands();
 std::vector<Command> weight_commands();
 std::vector<Command> balance_commands();
 std::vector<Command> balance_calibration_commands();
+std::vector<Command> pipette_commands();
 std::vector<Command> check_commands();
 std::vector<Command> certificate_commands();
 std::vector<Command> due_commands();

@@ -6,6 +6,7 @@
 
 #include "core/units.hpp"
 #include "report/calibration_certificate_text.hpp"
+#include "report/pipette_certificate_text.hpp"
 #include "report/text_format.hpp"
 
 namespace plumb::report {
@@ -37,6 +38,7 @@ void add(std::string& out, const std::string& line) { out += line + "\n"; }
 
 std::string certificate_text(const json& c, const std::string& content_sha256) {
   if (c.value("kind", "") == "balance_calibration") return calibration_certificate_text(c, content_sha256);
+  if (c.value("kind", "") == "pipette_check") return pipette_certificate_text(c, content_sha256);
   std::string out;
   const json& lab = c["lab"];
   const json& inst = c["instrument"];

@@ -1,0 +1,46 @@
+#pragma once
+// Recording a gravimetric pipette check (ISO 8655-6): validate everything (the pipette, the balance used,
+// the environment, every weighing line of the CSV), compute volumes, errors and verdicts per test volume
+// and channel (checks/pipette.hpp), schedule the next check and write it all in one transaction.
+//
+// The balance used must be registered and, on the run date, in service (its latest check on or before that
+// date passed) and in date (that check's next due date is not before the run date); its repeatability for
+// ISO 8655-6 Table 1 is the SD of its latest check on or before the run date that measured one
+// (results "sd_g"). An unusable or unsuitable balance refuses the run: exit 2, nothing written.
+//
+// Weighings CSV: a header row with columns `volume` (the selected volume: 100, 100uL or 0.1mL; a bare
+// number is in uL), `channel` (optional, 1-based, default 1), `reading` (the mass exactly as displayed) and
+// optionally `unit` (ug, mg, g, kg); readings without a unit take the default unit (`--unit`, g unless told).
+#include <optional>
+#include <string>
+
+#include "core/units.hpp"
+#include "store/database.hpp"
+#include "store/recorder.hpp"
+#include "store/records.hpp"
+
+namespace plumb::app {
+
+struct PipetteCheckInput {
+  std::string pipette_id;
+  std::string balance_id;
+  std::string water_temperature;  ///< degC, as typed
+  std::string pressure;           ///< hPa, as typed
+  std::string humidity;           ///< %RH, as typed
+  std::optional<std::string> evaporation;  ///< mass lost per weighing, with unit, e.g. "0.01mg"
+  std::string readings_csv;
+  std::string readings_source;    ///< file name for messages
+  MassUnit default_unit = MassUnit::g;
+  std::string on;                 ///< date performed, YYYY-MM-DD
+  std::string operator_name;
+};
+
+/// The procedure name of gravimetric pipette runs in check_runs.
+inline constexpr const char* gravimetric_procedure = "gravimetric";
+
+/// Validates, computes and records one pipette check in its own transaction; nothing is written on error.
+store::RunRecord record_pipette_check(store::Database& db, const store::Actor& actor, const PipetteCheckInput& in);
+/// The same inside a transaction the caller holds; returns the new run id.
+std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, const PipetteCheckInput& in);
+
+}  // namespace plumb::app
