@@ -4,6 +4,7 @@
 #include <SQLiteCpp/Transaction.h>
 #include <fmt/format.h>
 
+#include "app/certificate_history.hpp"
 #include "app/record_check.hpp"
 #include "app/registry.hpp"
 #include "core/errors.hpp"
@@ -111,6 +112,8 @@ store::CertificateRecord issue_certificate_in(store::Database& db, store::Record
                   {"decision_rule", "simple acceptance (ILAC G8: guard band w = 0)"},
                   {"signatories", signatories},
                   {"caution", layout.value("caution", "")}};
+  // The recent history travels inside the certificate, so its PDF chart is part of the hashed record.
+  if (auto history = certificate_history(db, run); !history.is_null()) cert.content["history"] = history;
   // A replacement names the certificate it replaces and why, inside its own (unchangeable) content.
   if (replaces) {
     cert.supersedes = replaces->id;

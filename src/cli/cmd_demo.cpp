@@ -5,12 +5,15 @@
 
 #include <nlohmann/json.hpp>
 
+#include "app/certificate_pdf.hpp"
 #include "app/certificates.hpp"
+#include "app/history_report.hpp"
 #include "app/demo_lab.hpp"
 #include "app/due_list.hpp"
 #include "cli/command_groups.hpp"
 #include "cli/progress.hpp"
 #include "report/certificate_text.hpp"
+#include "report/demo_logo.hpp"
 #include "store/embedded.hpp"
 
 namespace plumb::cli {
@@ -39,13 +42,23 @@ std::vector<Command> demo_commands() {
         // The certificate uses the demo lab's own layout (address, reviewer), written beside the database.
         const auto scenario = nlohmann::json::parse(embedded::demo_scenario());
         const std::filesystem::path layout = path.string() + ".layout.json";
-        std::ofstream(layout) << scenario["layout"].dump(2);
+        const auto logo = std::filesystem::absolute(path.string() + ".logo.png");
+        report::write_demo_logo(logo);
+        auto demo_layout = scenario["layout"];
+        demo_layout["logo_png"] = logo.string();
+        std::ofstream(layout) << demo_layout.dump(2);
         const auto cert = app::issue_certificate(db, {"Dr. Ines Varga", store::current_os_user()},
                                                  std::to_string(summary.showcase_run), layout.string());
         fmt::print(env.out, "\nCertificate of the latest check of AB-01:\n\n{}",
                    report::certificate_text(cert.certificate.content, cert.certificate.content_sha256));
-        fmt::print(env.out, "\nTry: plumb --db {} due --on {} --within 14d\n     plumb --db {} check show LAST\n",
-                   path.string(), to_string(summary.report_on), path.string());
+        // The same certificate as PDF, and the lab's HTML history report, beside the database.
+        const std::filesystem::path pdf = path.string() + ".certificate.pdf", html = path.string() + ".report.html";
+        app::write_certificate_pdf(cert.certificate, pdf);
+        app::write_history_report(db, {html, std::nullopt, summary.report_on});
+        fmt::print(env.out, "\nAlso written: {} (the certificate as PDF) and {} (HTML history report).\n",
+                   pdf.string(), html.string());
+        fmt::print(env.out, "\nTry: plumb --db {} due --on {} --within 14d\n     plumb --db {} check show LAST\n     plumb --db {} drift AB-01 --chart ab01-drift.png\n",
+                   path.string(), to_string(summary.report_on), path.string(), path.string());
         return 0;
       }};
   return {demo};

@@ -104,14 +104,10 @@ double Decimal::to_double() const {
 
 std::string Decimal::to_string() const {
   const bool negative = units_ < 0;
-  const auto magnitude = negative ? -static_cast<Int128>(units_) : static_cast<Int128>(units_);
-  std::string digits = std::to_string(static_cast<unsigned long long>(magnitude));
-  if (scale_ > 0) {
-    if (digits.size() <= static_cast<std::size_t>(scale_))
-      digits.insert(0, static_cast<std::size_t>(scale_) + 1 - digits.size(), '0');
-    digits.insert(digits.size() - static_cast<std::size_t>(scale_), ".");
-  }
-  return negative ? "-" + digits : digits;
+  const auto magnitude = static_cast<unsigned long long>(negative ? -static_cast<Int128>(units_) : units_);
+  const auto divisor = static_cast<unsigned long long>(pow10_i128(scale_));
+  if (scale_ == 0) return fmt::format("{}{}", negative ? "-" : "", magnitude);
+  return fmt::format("{}{}.{:0{}}", negative ? "-" : "", magnitude / divisor, magnitude % divisor, scale_);
 }
 
 Decimal operator+(Decimal a, Decimal b) {

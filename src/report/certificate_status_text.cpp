@@ -40,6 +40,15 @@ std::string certificate_status_banner(const json& status) {
   return out;
 }
 
+std::string certificate_status_summary(const json& status) {
+  const std::string state = status.value("state", "draft");
+  if (state == "superseded") return "SUPERSEDED by " + field(status["superseded"], "by_certificate") + ", no longer valid";
+  if (state == "approved")
+    return fmt::format("APPROVED by {} on {}", field(status["approval"], "by"),
+                       field(status["approval"], "at").substr(0, 10));
+  return "DRAFT, not approved";
+}
+
 std::string certificate_review_lines(const json& status) {
   std::string out = "Review and approval\n";
   const json& a = status.value("approval", json());

@@ -17,6 +17,7 @@
 #include "core/errors.hpp"
 #include "report/axis_ticks.hpp"
 #include "report/chart_record.hpp"
+#include "report/pango_text.hpp"
 
 namespace plumb::report {
 namespace {
@@ -37,7 +38,6 @@ constexpr Rgb control_colour{0.000, 0.620, 0.451};    // bluish green
 constexpr Rgb trend_colour{0.800, 0.475, 0.655};      // reddish purple
 constexpr Rgb band_fill{0.96, 0.90, 0.94};
 
-constexpr const char* font_family = "DejaVu Sans";
 constexpr double margin = 16;
 constexpr double legend_width = 210;
 constexpr double point_radius = 3.6;
@@ -48,55 +48,7 @@ void set_colour(cairo_t* cr, Rgb c, double alpha = 1.0) { cairo_set_source_rgba(
 std::string num(double v) { return fmt::format("{:.6g}", v); }
 std::string px(double v) { return fmt::format("{:.2f}", v); }
 
-// One pango layout at 72 dpi, so that font sizes are in the same points as the cairo user space on
-// every surface (PDF and SVG in points, PNG scaled to 2 pixels per point).
-class Text {
-public:
-  Text(cairo_t* cr, const std::string& s, double size, bool bold = false, bool italic = false, double wrap = -1)
-      : cr_(cr) {
-    ctx_ = pango_cairo_create_context(cr);
-    pango_cairo_context_set_resolution(ctx_, 72);
-    layout_ = pango_layout_new(ctx_);
-    PangoFontDescription* fd = pango_font_description_new();
-    pango_font_description_set_family(fd, font_family);
-    pango_font_description_set_size(fd, static_cast<gint>(size * PANGO_SCALE));
-    pango_font_description_set_weight(fd, bold ? PANGO_WEIGHT_BOLD : PANGO_WEIGHT_NORMAL);
-    pango_font_description_set_style(fd, italic ? PANGO_STYLE_ITALIC : PANGO_STYLE_NORMAL);
-    pango_layout_set_font_description(layout_, fd);
-    pango_font_description_free(fd);
-    if (wrap > 0) {
-      pango_layout_set_width(layout_, static_cast<int>(wrap * PANGO_SCALE));
-      pango_layout_set_wrap(layout_, PANGO_WRAP_WORD_CHAR);
-    }
-    pango_layout_set_text(layout_, s.c_str(), static_cast<int>(s.size()));
-  }
-  ~Text() {
-    g_object_unref(layout_);
-    g_object_unref(ctx_);
-  }
-  Text(const Text&) = delete;
-  Text& operator=(const Text&) = delete;
-
-  [[nodiscard]] double width() const { return extent().width / double(PANGO_SCALE); }
-  [[nodiscard]] double height() const { return extent().height / double(PANGO_SCALE); }
-  /// Draws with the top-left corner at (x, y) in the current transformation.
-  void draw(double x, double y) const {
-    cairo_move_to(cr_, x, y);
-    pango_cairo_update_context(cr_, ctx_);
-    pango_layout_context_changed(layout_);
-    pango_cairo_show_layout(cr_, layout_);
-  }
-
-private:
-  [[nodiscard]] PangoRectangle extent() const {
-    PangoRectangle logical;
-    pango_layout_get_extents(layout_, nullptr, &logical);
-    return logical;
-  }
-  cairo_t* cr_;
-  PangoContext* ctx_;
-  PangoLayout* layout_;
-};
+using Text = TextLayout;
 
 void require_finite(double v, std::string_view field) {
   if (!std::isfinite(v)) throw InputError(fmt::format("chart {} is {}; it must be a finite number.", field, v));
@@ -561,6 +513,17 @@ std::string description(const ChartSpec& s) {
 }
 
 }  // namespace
+
+void draw_chart(cairo_t* cr, const ChartSpec& spec) {
+  validate(spec);
+  DrawRecord unused;
+  cairo_save(cr);
+  // The renderer paints its white background over everything in reach; keep it to the chart's own box.
+  cairo_rectangle(cr, 0, 0, spec.width, spec.height);
+  cairo_clip(cr);
+  Renderer(cr, spec, unused).draw();
+  cairo_restore(cr);
+}
 
 std::string render_chart(const ChartSpec& spec, ChartFormat format) {
   validate(spec);

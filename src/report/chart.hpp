@@ -8,6 +8,8 @@
 // point with its error bar, the tolerance band and the zero line are always in view); visible points;
 // error bars for the expanded uncertainty; a legend; a trend line with its label; its extrapolated part
 // dashed and labelled "extrapolated"; control lines; flagged points marked.
+#include <cairo.h>
+
 #include <filesystem>
 #include <optional>
 #include <string>
@@ -78,6 +80,10 @@ enum class ChartFormat { svg, png, pdf };
 /// The file's bytes. Throws InputError for an empty title, a missing axis label, a non-finite value
 /// or a size below 320 x 240.
 std::string render_chart(const ChartSpec& spec, ChartFormat format);
+
+/// Draws the chart on an existing cairo context, its top-left corner at the current origin, in the spec's
+/// size: for charts embedded in documents (PDF certificates). Throws InputError like render_chart.
+void draw_chart(cairo_t* cr, const ChartSpec& spec);
 
 /// Format from the extension (.svg, .png, .pdf); throws InputError naming the path otherwise.
 ChartFormat chart_format_for(const std::filesystem::path& path);

@@ -75,6 +75,20 @@ ChartSpec drift_chart_spec(std::span<const stats::Observation> h, const stats::D
   return s;
 }
 
+ChartSpec history_chart_spec(std::span<const stats::Observation> current, std::span<const stats::Observation> superseded,
+                             const stats::ToleranceLimits& tol, const HistoryChartLabels& l) {
+  ChartSpec s = base(current, tol, l, "history");
+  if (!superseded.empty()) {
+    ChartSeries old{"superseded by a correction", {}};
+    for (const auto& o : superseded) old.points.push_back({date_axis_value(o.date), o.value, std::nullopt, false});
+    s.series.push_back(std::move(old));
+    s.notes.push_back(fmt::format("{} superseded result(s) are drawn apart; the statistics use the corrections.",
+                                  superseded.size()));
+  }
+  s.notes.push_back(history_chart_caution);
+  return s;
+}
+
 ChartSpec control_chart_spec(std::span<const stats::Observation> h, const stats::ControlChart& c,
                              const stats::ToleranceLimits& tol, const HistoryChartLabels& l) {
   ChartSpec s = base(h, tol, l, "individuals control chart");

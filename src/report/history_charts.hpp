@@ -25,6 +25,11 @@ extern const char* const history_chart_caution;
 ChartSpec drift_chart_spec(std::span<const stats::Observation> history, const stats::DriftResult& drift,
                            const stats::ToleranceLimits& tolerance, const HistoryChartLabels& labels);
 
+/// Every result with its U as error bars, the tolerance band and the zero line, no trend; results that a
+/// correction superseded are drawn as a second series without error bars, so nothing is hidden.
+ChartSpec history_chart_spec(std::span<const stats::Observation> current, std::span<const stats::Observation> superseded,
+                             const stats::ToleranceLimits& tolerance, const HistoryChartLabels& labels);
+
 /// Results with centre line and 3-sigma control limits; points named by a Western Electric flag are
 /// ringed and every flag's explanation is listed under the chart.
 ChartSpec control_chart_spec(std::span<const stats::Observation> history, const stats::ControlChart& chart,

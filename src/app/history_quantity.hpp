@@ -1,0 +1,67 @@
+#pragma once
+// The quantities an instrument's history can be charted by: one number per check run, read from the
+// results stored with the run (check_runs.results_json), with its expanded uncertainty and the tolerance
+// it is judged against. One table entry per quantity, so a new kind of result (a pipette's systematic
+// error, say) is one more entry in history_quantity.cpp and nothing else changes.
+#include <functional>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "core/dates.hpp"
+#include "stats/observation.hpp"
+#include "store/records.hpp"
+
+namespace plumb::app {
+
+/// The instrument whose history is read, with what the quantities need to know about it.
+struct InstrumentInfo {
+  std::string id;
+  std::string kind;  ///< "balance", "pipette"
+  std::string location;
+  Interval every;
+  std::string title;  ///< "Balance AB-01 (220 g, d = 0.1 mg)": names the instrument in chart titles
+  std::optional<store::BalanceRecord> balance;
+};
+
+/// One run as a quantity reads it: the run and the calibration certificate of its first reference weight.
+struct RunContext {
+  const store::RunRecord& run;
+  std::optional<store::WeightCalibration> weight;
+};
+
+struct QuantityValue {
+  double value = 0.0;
+  double expanded_uncertainty = 0.0;  ///< U, k = 2, same unit as value
+};
+
+struct QuantityTolerance {
+  stats::ToleranceLimits limits;  ///< in the quantity's unit
+  std::string basis;              ///< where the limit comes from, as a sentence
+};
+
+struct HistoryQuantity {
+  std::string key;              ///< what --quantity names: "bias", "sd", "min-weight"
+  std::string instrument_kind;  ///< "balance"
+  std::string procedure;        ///< the runs it is read from: "repeatability"
+  std::string label;            ///< "Bias at the check load"
+  std::string unit;             ///< the unit of values, U and limits: "mg"
+  std::string uncertainty_basis;  ///< how U was found, stated under every chart and table
+  /// The value of one run, or nothing when the run does not carry it.
+  std::function<std::optional<QuantityValue>(const RunContext&)> read;
+  /// The axis label, from the latest run: "Bias at 100 g".
+  std::function<std::string(const RunContext&)> axis_label;
+  /// The limits that apply now: from the latest run and the instrument's record.
+  std::function<QuantityTolerance(const RunContext&, const InstrumentInfo&)> tolerance;
+};
+
+/// Every quantity plumb can chart.
+const std::vector<HistoryQuantity>& history_quantities();
+
+/// The quantity `key` for this instrument; InputError naming --quantity and the keys that apply otherwise.
+const HistoryQuantity& find_quantity(const std::string& key, const InstrumentInfo& instrument);
+
+/// The keys that apply to an instrument kind, in table order.
+std::vector<std::string> quantity_keys(const std::string& instrument_kind);
+
+}  // namespace plumb::app
