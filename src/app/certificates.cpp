@@ -1,5 +1,6 @@
 #include "app/certificates.hpp"
 
+#include <SQLiteCpp/Statement.h>
 #include <SQLiteCpp/Transaction.h>
 #include <fmt/format.h>
 
@@ -44,9 +45,28 @@ IssueOutcome issue_certificate(store::Database& db, const store::Actor& actor, c
                                const std::optional<std::string>& layout_path) {
   const json layout = report::load_layout(layout_path);
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
-  const store::LabRecord lab = require_lab(db);
+  require_lab(db);
   const std::int64_t run_id = resolve_run(db, selector);
   if (auto existing = store::certificate_for_run(db.sql(), run_id)) return {*existing, true};
+  if (auto newer = superseding_run(db, run_id))
+    throw InputError(fmt::format("run {} was corrected by run {} ({}); issue the certificate of run {} instead.",
+                                 run_id, newer->id, newer->reason, newer->id));
+  store::Recorder rec(db.sql(), actor);
+  const auto cert = issue_certificate_in(db, rec, run_id, layout, std::nullopt);
+  tx.commit();
+  return {cert, false};
+}
+
+std::optional<store::RunRecord> superseding_run(store::Database& db, std::int64_t run_id) {
+  SQLite::Statement q(db.sql(), "SELECT id FROM check_runs WHERE supersedes = ? ORDER BY id LIMIT 1");
+  q.bind(1, run_id);
+  if (!q.executeStep()) return std::nullopt;
+  return store::find_run(db.sql(), q.getColumn(0).getInt64());
+}
+
+store::CertificateRecord issue_certificate_in(store::Database& db, store::Recorder& rec, std::int64_t run_id,
+                                              const json& layout, const std::optional<store::CertificateRecord>& replaces) {
+  const store::LabRecord lab = require_lab(db);
   const store::RunRecord run = *store::find_run(db.sql(), run_id);
 
   json instrument = {{"id", run.instrument_id}};
@@ -74,8 +94,7 @@ IssueOutcome issue_certificate(store::Database& db, const store::Actor& actor, c
               : run.procedure == "calibration" ? "balance_calibration"
                                                : run.procedure;
   if (run.procedure == "gravimetric") cert.kind = pipette_certificate_kind;
-  cert.issued_by = actor.name;
-  store::Recorder rec(db.sql(), actor);
+  cert.issued_by = rec.actor().name;
   cert.issued_at = rec.now();
   json signatories = layout.value("signatories", json::array());
   for (auto& s : signatories)
@@ -102,10 +121,14 @@ IssueOutcome issue_certificate(store::Database& db, const store::Actor& actor, c
   if (auto history = certificate_history(db, run); !history.is_null()) cert.content["history"] = history;
   if (run.procedure == "calibration") add_calibration_content(run, cert.content);
   if (run.procedure == "gravimetric") add_pipette_certificate_parts(db, run, cert.content);
+  // A replacement names the certificate it replaces and why, inside its own (unchangeable) content.
+  if (replaces) {
+    cert.supersedes = replaces->id;
+    cert.content["replaces"] = {{"number", replaces->number}, {"run_id", replaces->run_id}, {"reason", run.reason}};
+  }
   cert.content_sha256 = store::sha256_hex(cert.content.dump());
   cert.id = store::add_certificate(rec, cert);
-  tx.commit();
-  return {cert, false};
+  return cert;
 }
 
 store::CertificateRecord find_certificate(store::Database& db, const std::string& selector) {

@@ -1,6 +1,7 @@
 #pragma once
 // Issuing certificates. The whole certificate is assembled once as JSON and stored with its SHA-256;
 // text, JSON and PDF are renderings of that stored document, so a certificate never changes.
+#include <nlohmann/json.hpp>
 #include <optional>
 #include <string>
 
@@ -18,6 +19,15 @@ struct IssueOutcome {
 /// Issues the certificate of run `selector` ("LAST" or a number) with the given layout file (or default).
 IssueOutcome issue_certificate(store::Database& db, const store::Actor& actor, const std::string& selector,
                                const std::optional<std::string>& layout_path);
+
+/// Issues the certificate of `run_id` inside the caller's transaction; `replaces` is the certificate it
+/// supersedes after a correction (the caller records the superseded event).
+store::CertificateRecord issue_certificate_in(store::Database& db, store::Recorder& rec, std::int64_t run_id,
+                                              const nlohmann::json& layout,
+                                              const std::optional<store::CertificateRecord>& replaces);
+
+/// The run that corrected (superseded) `run_id`, if any.
+std::optional<store::RunRecord> superseding_run(store::Database& db, std::int64_t run_id);
 
 /// A stored certificate by number, or by run ("LAST" / run number) when `selector` is not a number.
 store::CertificateRecord find_certificate(store::Database& db, const std::string& selector);

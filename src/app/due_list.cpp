@@ -7,6 +7,7 @@
 #include "store/calibration.hpp"
 #include "store/pipettes.hpp"
 #include "store/repository.hpp"
+#include "store/status_events.hpp"
 
 namespace plumb::app {
 namespace {
@@ -85,6 +86,12 @@ std::vector<DueItem> due_items(store::Database& db, Date on, int within_days, bo
     item.status = timing_status(*item.days_left, within_days);
     items.push_back(std::move(item));
   }
+  // Retired instruments and weights are kept in history but are not due for anything.
+  const auto retired_instruments = store::retired_ids(db.sql(), "instrument");
+  const auto retired_weights = store::retired_ids(db.sql(), "weight");
+  std::erase_if(items, [&](const DueItem& i) {
+    return i.kind == "weight" ? retired_weights.count(i.id) > 0 : retired_instruments.count(i.id) > 0;
+  });
   if (!everything)
     std::erase_if(items, [](const DueItem& i) { return i.status == "in date"; });
   std::stable_sort(items.begin(), items.end(), [](const DueItem& a, const DueItem& b) {

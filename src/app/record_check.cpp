@@ -7,6 +7,7 @@
 #include <charconv>
 
 #include "app/registry.hpp"
+#include "app/service_status.hpp"
 #include "checks/repeatability.hpp"
 #include "core/errors.hpp"
 #include "core/readings_csv.hpp"
@@ -80,6 +81,11 @@ std::int64_t record_check_in(store::Database& db, store::Recorder& rec, const Ch
   const auto balance = store::find_balance(db.sql(), in.instrument_id);
   if (!balance) throw InputError(fmt::format("balance \"{}\" is not registered.", in.instrument_id));
   const store::WeightRecord weight = traceable_weight(db, in.weight_ids[0], on);
+  // Retired items take no new checks; a correction of an earlier run is not a new check.
+  if (!in.supersedes) {
+    require_in_service(db, "instrument", balance->id);
+    require_in_service(db, "weight", weight.id);
+  }
 
   const int allowed = balance->readability.in_grams().significant_scale();
   checks::RepeatabilityInput input;
@@ -116,6 +122,8 @@ std::int64_t record_check_in(store::Database& db, store::Recorder& rec, const Ch
   run.results["policy"] = balance->policy.key();
   run.results["policy_name"] = balance->policy.name();
   run.verdict = result.verdict;
+  run.supersedes = in.supersedes;
+  run.reason = in.reason;
   if (result.verdict == Verdict::pass) run.next_due = add_interval(on, balance->every);
   run.weights.push_back({weight.id, weight.current.id});
   int seq = 1;

@@ -1,9 +1,11 @@
 #include <fmt/ostream.h>
 
 #include "app/certificate_pdf.hpp"
+#include "app/certificate_review.hpp"
 #include "app/certificates.hpp"
 #include "cli/command_groups.hpp"
 #include "core/errors.hpp"
+#include "report/certificate_status_text.hpp"
 #include "report/certificate_text.hpp"
 
 namespace plumb::cli {
@@ -18,18 +20,23 @@ std::optional<std::string> pdf_output(const po::variables_map& vm, const std::st
   return output;
 }
 
-void print_certificate(const store::CertificateRecord& c, const std::string& format,
+// The stored content with its standing today (draft / approved / superseded) beside it.
+void print_certificate(store::Database& db, const store::CertificateRecord& c, const std::string& format,
                        const std::optional<std::string>& output, Env& env) {
+  const nlohmann::json doc = app::certificate_document(db, c);
   if (format == "pdf") {
-    const auto outcome = app::write_certificate_pdf(c, *output);
+    // The PDF header shows content["status"] when it is a string: the standing today, not part of the hash.
+    store::CertificateRecord shown = c;
+    shown.content["status"] = report::certificate_status_summary(doc["status"]);
+    const auto outcome = app::write_certificate_pdf(shown, *output);
     for (const auto& w : outcome.warnings) fmt::print(env.err, "plumb: {}\n", w);
     fmt::print(env.out, "Certificate {} written to {} ({} page(s)).\n", c.number, *output, outcome.pages);
   } else if (format == "json") {
-    nlohmann::json j = c.content;
-    j["content_sha256"] = c.content_sha256;
-    env.out << j.dump(2) << "\n";
+    env.out << doc.dump(2) << "\n";
   } else {
+    env.out << report::certificate_status_banner(doc["status"]);
     env.out << report::certificate_text(c.content, c.content_sha256);
+    env.out << report::certificate_review_lines(doc["status"]);
   }
 }
 
@@ -55,7 +62,7 @@ std::vector<Command> certificate_commands() {
                   if (outcome.already_issued)
                     fmt::print(env.err, "plumb: run {} already has certificate {}; shown unchanged.\n",
                                outcome.certificate.run_id, outcome.certificate.number);
-                  print_certificate(outcome.certificate, format, output, env);
+                  print_certificate(db, outcome.certificate, format, output, env);
                   return 0;
                 }};
   Command show{"certificate", "show", "show a stored certificate by number (or by run)",
@@ -70,10 +77,35 @@ std::vector<Command> certificate_commands() {
                  const auto format = format_of(vm, {"text", "json", "pdf"});
                  const auto output = pdf_output(vm, format);
                  auto db = env.open();
-                 print_certificate(app::find_certificate(db, vm["number"].as<std::string>()), format, output, env);
+                 print_certificate(db, app::find_certificate(db, vm["number"].as<std::string>()), format, output, env);
                  return 0;
                }};
-  return {issue, show};
+  Command approve{"certificate", "approve",
+                  "approve a draft certificate as its reviewer (someone other than the run's operator)",
+                  "plumb certificate approve BC-2026-0001 --by \"Q. Manager\" --meaning \"reviewed and approved\"",
+                  [](po::options_description& d, po::positional_options_description& p) {
+                    d.add_options()("number", po::value<std::string>()->required(),
+                                    "certificate number, run number or LAST (positional)")(
+                        "meaning", po::value<std::string>(),
+                        "what the signature means, e.g. \"reviewed and approved\" (required)");
+                    add_format_option(d);
+                    add_by_option(d, "the reviewer approving the certificate");
+                    p.add("number", 1);
+                  },
+                  [](const po::variables_map& vm, Env& env) {
+                    const auto format = format_of(vm, {"text", "json"});
+                    if (!vm.count("by")) throw InputError("--by must name the person approving the certificate.");
+                    if (!vm.count("meaning"))
+                      throw InputError("--meaning must state what the signature means, e.g. \"reviewed and approved\".");
+                    auto db = env.open();
+                    const auto c = app::approve_certificate(db, Env::actor(vm), vm["number"].as<std::string>(),
+                                                            vm["meaning"].as<std::string>());
+                    if (format == "text")
+                      fmt::print(env.out, "Certificate {} approved by {}.\n", c.number, vm["by"].as<std::string>());
+                    print_certificate(db, c, format, std::nullopt, env);
+                    return 0;
+                  }};
+  return {issue, show, approve};
 }
 
 }  // namespace plumb::cli

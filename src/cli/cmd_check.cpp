@@ -5,6 +5,7 @@
 #include <sstream>
 
 #include "app/record_calibration.hpp"
+#include "app/correct_check.hpp"
 #include "app/record_check.hpp"
 #include "app/record_pipette_check.hpp"
 #include "cli/command_groups.hpp"
@@ -167,7 +168,59 @@ std::vector<Command> check_commands() {
                            at ? app::calibration_error_at(run, *at, vm["extrapolate"].as<bool>()) : nlohmann::json());
                  return 0;
                }};
-  return {record, show};
+  Command correct{
+      "check", "correct",
+      "correct a run: a new run supersedes it (reason required); the original stays; a certificate is replaced",
+      "plumb check correct 12 --readings fixed.csv --reason \"reading 4 mistyped (100.0040 for 100.0004)\" --by \"Q. "
+      "Manager\"",
+      [](po::options_description& d, po::positional_options_description& p) {
+        d.add_options()("run", po::value<std::string>()->required(), "run number or LAST (positional)")(
+            "reason", po::value<std::string>(), "why the run is corrected (required; kept with the correction)")(
+            "readings", po::value<std::string>(), "corrected readings CSV (default: the run's readings); - for stdin")(
+            "unit", po::value<std::string>()->default_value("g"), "unit of readings without a unit column")(
+            "on", po::value<std::string>(), "corrected date performed, YYYY-MM-DD")(
+            "operator", po::value<std::string>(), "corrected name of the operator who performed the check")(
+            "weight", po::value<std::vector<std::string>>(), "corrected reference weight id")(
+            "layout", po::value<std::string>(), "layout of the replacement certificate, if one is issued");
+        add_format_option(d);
+        add_by_option(d, "the person making the correction");
+        p.add("run", 1);
+      },
+      [](const po::variables_map& vm, Env& env) {
+        const auto format = format_of(vm, {"text", "json"});
+        if (!vm.count("reason")) throw InputError("--reason must say why the run is corrected (it is kept with the correction).");
+        if (!vm.count("by")) throw InputError("--by must name the person making the correction.");
+        app::CorrectionInput in;
+        in.run = vm["run"].as<std::string>();
+        in.reason = vm["reason"].as<std::string>();
+        if (vm.count("readings")) in.readings_csv = read_input(vm["readings"].as<std::string>(), in.readings_source);
+        in.default_unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
+        in.on = optional_string(vm, "on");
+        in.operator_name = optional_string(vm, "operator");
+        if (vm.count("weight")) in.weight_ids = vm["weight"].as<std::vector<std::string>>();
+        in.layout_path = optional_string(vm, "layout");
+        auto db = env.open();
+        const auto out = app::correct_check(db, Env::actor(vm), in);
+        if (format == "json") {
+          nlohmann::json j = {{"original", report::run_json(out.original)},
+                              {"correction", report::run_json(out.correction)},
+                              {"superseded_certificate", out.superseded_certificate
+                                                             ? nlohmann::json(out.superseded_certificate->number)
+                                                             : nlohmann::json()},
+                              {"new_certificate",
+                               out.new_certificate ? nlohmann::json(out.new_certificate->number) : nlohmann::json()}};
+          env.out << j.dump(2) << "\n";
+          return 0;
+        }
+        fmt::print(env.out, "Run {} corrected by run {} (reason: {}). Run {} stays in history, marked superseded.\n",
+                   out.original.id, out.correction.id, out.correction.reason, out.original.id);
+        if (out.new_certificate)
+          fmt::print(env.out, "Certificate {} is superseded by certificate {} (a draft until approved).\n",
+                     out.superseded_certificate->number, out.new_certificate->number);
+        print_run(out.correction, "text", env);
+        return 0;
+      }};
+  return {record, show, correct};
 }
 
 }  // namespace plumb::cli

@@ -15,6 +15,9 @@ std::vector<Command> check_commands();
 std::vector<Command> certificate_commands();
 std::vector<Command> due_commands();
 std::vector<Command> demo_commands();
+std::vector<Command> service_commands();
+std::vector<Command> audit_commands();
+std::vector<Command> backup_commands();
 std::vector<Command> history_commands();
 std::vector<Command> report_commands();
 

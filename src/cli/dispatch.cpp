@@ -24,7 +24,8 @@ void print_usage(std::ostream& out) {
     const std::string name = c.verb.empty() ? c.noun : c.noun + " " + c.verb;
     out << fmt::format("  {:<22}{}\n", name, c.summary);
   }
-  out << "\nexit status: 0 ok, 1 a check failed where --gate was asked, 2 bad input (nothing written), "
+  out << "\nexit status: 0 ok, 1 a check failed where --gate was asked or a verification failed, 2 bad input "
+         "(nothing written), "
          "3 storage or internal error\n";
 }
 

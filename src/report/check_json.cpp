@@ -52,6 +52,8 @@ nlohmann::json run_json(const store::RunRecord& run) {
   j["next_due"] = run.next_due ? json(to_string(*run.next_due)) : json();
   j["status"] = run.verdict == Verdict::pass ? "in service" : "out of service";
   j["supersedes"] = run.supersedes ? json(*run.supersedes) : json();
+  j["correction_reason"] = run.reason.empty() ? json() : json(run.reason);
+  j["superseded_by"] = run.superseded_by ? json(*run.superseded_by) : json();
   json weights = json::array();
   for (const auto& w : run.weights) weights.push_back(w.weight_id);
   j["weights"] = weights;

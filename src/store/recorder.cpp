@@ -40,6 +40,20 @@ std::string audit_hash(const std::string& prev_hash, const nlohmann::json& recor
   return sha256_hex(prev_hash + "\n" + record.dump());
 }
 
+nlohmann::json row_json(SQLite::Statement& row) {
+  nlohmann::json j = nlohmann::json::object();
+  for (int i = 0; i < row.getColumnCount(); ++i) {
+    const SQLite::Column c = row.getColumn(i);
+    if (c.isNull()) j[c.getName()] = nullptr;
+    else if (c.isInteger()) j[c.getName()] = c.getInt64();
+    else if (c.isFloat()) j[c.getName()] = c.getDouble();
+    else if (c.isText()) j[c.getName()] = c.getString();
+    else j[c.getName()] = "blob:" + sha256_hex(std::string_view(static_cast<const char*>(c.getBlob()),
+                                                                static_cast<std::size_t>(c.getBytes())));
+  }
+  return j;
+}
+
 Recorder::Recorder(SQLite::Database& db, Actor actor) : db_(db), actor_(std::move(actor)), now_(utc_timestamp()) {}
 
 std::int64_t Recorder::insert(const std::string& table, nlohmann::json row, const std::vector<std::string>& key_columns,
@@ -60,7 +74,12 @@ std::int64_t Recorder::insert(const std::string& table, nlohmann::json row, cons
   }
   insert.exec();
   const std::int64_t rowid = db_.getLastInsertRowid();
-  if (key_columns.size() == 1 && !row.contains(key_columns[0])) row[key_columns[0]] = rowid;
+  // The trail records the row as stored (every column, defaults included), so that `audit verify` can
+  // compare each column of the table with what was recorded.
+  SQLite::Statement stored(db_, fmt::format("SELECT * FROM {} WHERE rowid = ?", table));
+  stored.bind(1, rowid);
+  if (!stored.executeStep()) throw StorageError(fmt::format("row {} of {} vanished after insert.", rowid, table));
+  row = row_json(stored);
 
   std::string key;
   for (const auto& k : key_columns) {

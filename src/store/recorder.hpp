@@ -2,6 +2,7 @@
 // The one place where plumb writes records. Every insert is mirrored in the audit trail with who,
 // when, what and why, chained by SHA-256 so that a record changed behind plumb's back is detectable.
 #include <SQLiteCpp/Database.h>
+#include <SQLiteCpp/Statement.h>
 
 #include <nlohmann/json.hpp>
 #include <string>
@@ -40,6 +41,10 @@ private:
 
 /// SHA-256 of `text` as lowercase hex (OpenSSL libcrypto).
 std::string sha256_hex(std::string_view text);
+
+/// The current row of `row` as a JSON object, column -> integer, text, real or null (a blob becomes
+/// "blob:" and its SHA-256). The trail's `after_json` is this object as canonical JSON.
+nlohmann::json row_json(SQLite::Statement& row);
 
 /// The hash of an audit record: SHA-256 over the previous hash and the canonical JSON of the record.
 std::string audit_hash(const std::string& prev_hash, const nlohmann::json& record);

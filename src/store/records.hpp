@@ -70,6 +70,7 @@ struct RunRecord {
   std::optional<Date> next_due;
   std::optional<std::int64_t> supersedes;
   std::string reason;
+  std::optional<std::int64_t> superseded_by;  ///< read only: the run that corrected this one
   std::string recorded_at;
   std::string os_user;
   std::vector<RunWeight> weights;
@@ -85,6 +86,7 @@ struct CertificateRecord {
   std::string issued_by;
   nlohmann::json content;
   std::string content_sha256;
+  std::optional<std::int64_t> supersedes;  ///< the certificate this one replaces (after a correction)
 };
 
 }  // namespace plumb::store

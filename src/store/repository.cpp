@@ -67,7 +67,8 @@ BalanceRecord balance_from(SQLite::Statement& q) {
 
 constexpr const char* run_select =
     "SELECT id, instrument_id, procedure, performed_on, operator, results_json, verdict, next_due, supersedes, "
-    "reason, recorded_at, os_user FROM check_runs";
+    "reason, recorded_at, os_user, (SELECT min(s.id) FROM check_runs s WHERE s.supersedes = check_runs.id) "
+    "FROM check_runs";
 
 RunRecord run_from(SQLite::Statement& q) {
   RunRecord r;
@@ -83,6 +84,7 @@ RunRecord run_from(SQLite::Statement& q) {
   if (!q.getColumn(9).isNull()) r.reason = q.getColumn(9).getString();
   r.recorded_at = q.getColumn(10).getString();
   r.os_user = q.getColumn(11).getString();
+  if (!q.getColumn(12).isNull()) r.superseded_by = q.getColumn(12).getInt64();
   return r;
 }
 
@@ -305,13 +307,15 @@ std::int64_t add_certificate(Recorder& rec, const CertificateRecord& c) {
                      {"issued_at", c.issued_at},
                      {"issued_by", c.issued_by},
                      {"content_json", c.content.dump()},
-                     {"content_sha256", c.content_sha256}},
+                     {"content_sha256", c.content_sha256},
+                     {"supersedes", c.supersedes ? json(*c.supersedes) : json()}},
                     {"id"});
 }
 
 namespace {
 constexpr const char* certificate_select =
-    "SELECT id, number, run_id, kind, issued_at, issued_by, content_json, content_sha256 FROM certificates";
+    "SELECT id, number, run_id, kind, issued_at, issued_by, content_json, content_sha256, supersedes FROM "
+    "certificates";
 
 CertificateRecord certificate_from(SQLite::Statement& q) {
   CertificateRecord c;
@@ -323,6 +327,7 @@ CertificateRecord certificate_from(SQLite::Statement& q) {
   c.issued_by = q.getColumn(5).getString();
   c.content = json::parse(q.getColumn(6).getString());
   c.content_sha256 = q.getColumn(7).getString();
+  if (!q.getColumn(8).isNull()) c.supersedes = q.getColumn(8).getInt64();
   return c;
 }
 }  // namespace
@@ -330,6 +335,13 @@ CertificateRecord certificate_from(SQLite::Statement& q) {
 std::optional<CertificateRecord> find_certificate(SQLite::Database& db, const std::string& number) {
   SQLite::Statement q(db, std::string(certificate_select) + " WHERE number = ?");
   q.bind(1, number);
+  if (!q.executeStep()) return std::nullopt;
+  return certificate_from(q);
+}
+
+std::optional<CertificateRecord> find_certificate_by_id(SQLite::Database& db, std::int64_t id) {
+  SQLite::Statement q(db, std::string(certificate_select) + " WHERE id = ?");
+  q.bind(1, id);
   if (!q.executeStep()) return std::nullopt;
   return certificate_from(q);
 }

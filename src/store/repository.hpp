@@ -46,6 +46,7 @@ std::optional<RunRecord> latest_run(SQLite::Database& db, const std::string& ins
 // Certificates
 std::int64_t add_certificate(Recorder& rec, const CertificateRecord& c);
 std::optional<CertificateRecord> find_certificate(SQLite::Database& db, const std::string& number);
+std::optional<CertificateRecord> find_certificate_by_id(SQLite::Database& db, std::int64_t id);
 std::optional<CertificateRecord> certificate_for_run(SQLite::Database& db, std::int64_t run_id);
 /// Next free number in the series PREFIX-YEAR-NNNN.
 std::string next_certificate_number(SQLite::Database& db, const std::string& prefix, int year);

@@ -1,0 +1,46 @@
+#pragma once
+// Backing up and restoring the database with SQLite's online backup API, which copies a consistent
+// snapshot while other plumb processes keep reading and writing. A copy counts only once it has passed
+// PRAGMA integrity_check and `audit verify`.
+#include <filesystem>
+#include <string>
+
+#include "store/audit_trail.hpp"
+#include "store/database.hpp"
+
+namespace plumb::app {
+
+struct CopyCheck {
+  bool ok = false;
+  std::string failure;       ///< one sentence when not ok
+  std::string integrity;     ///< PRAGMA integrity_check's first line ("ok" when sound)
+  int schema_version = 0;
+  store::AuditVerification audit;
+};
+
+struct BackupOutcome {
+  std::filesystem::path file;
+  CopyCheck check;  ///< when not ok the copy was removed
+};
+
+/// Copies `db` to `file` (refused when it exists, unless `force`), then verifies the copy. The copy is
+/// written beside `file` and renamed into place only when verified.
+BackupOutcome backup_database(store::Database& db, const std::filesystem::path& file, bool force);
+
+struct RestoreOutcome {
+  CopyCheck source;                     ///< verification of the backup file, before anything was written
+  bool restored = false;
+  bool replaced_existing = false;
+  std::filesystem::path previous_saved;  ///< where the replaced database was saved, if there was one
+  std::int64_t previous_records = 0;     ///< audit records the replaced database had
+  store::AuditVerification after;        ///< the restored database, verified again once in place
+};
+
+/// Verifies `file`, then copies it over the database at `db_path` (refused when that exists, unless
+/// `force`; the replaced content is first saved beside it as DB.before-restore-TIMESTAMP).
+RestoreOutcome restore_database(const std::filesystem::path& db_path, const std::filesystem::path& file, bool force);
+
+/// Integrity check, schema version and audit verification of the database file at `path`, opened read-only.
+CopyCheck check_copy(const std::filesystem::path& path);
+
+}  // namespace plumb::app

@@ -1,0 +1,297 @@
+#include "store/audit_trail.hpp"
+
+#include <SQLiteCpp/Statement.h>
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <limits>
+#include <map>
+
+#include "store/recorder.hpp"
+
+namespace plumb::store {
+namespace {
+
+using nlohmann::json;
+
+json text_or_null(const std::optional<std::string>& s) { return s ? json(*s) : json(); }
+
+std::optional<std::string> optional_text(const SQLite::Column& c) {
+  if (c.isNull()) return std::nullopt;
+  return c.getString();
+}
+
+std::string value_text(const json& v) { return v.is_string() ? v.get<std::string>() : v.dump(); }
+
+/// A column's value for messages: strings quoted, long ones shortened.
+std::string shown(const json& v) {
+  std::string s = v.dump();
+  if (s.size() > 80) s = s.substr(0, 60) + fmt::format("... ({} characters)", s.size());
+  return s;
+}
+
+struct ColumnInfo {
+  std::string name;
+  json default_value;  ///< what a column the trail does not mention holds
+};
+
+struct TableInfo {
+  std::vector<ColumnInfo> columns;
+  std::vector<std::string> key_columns;  ///< primary key in key order; empty: rowid
+};
+
+/// A column default as SQLite reports it (an SQL literal) turned into a value.
+json default_of(const SQLite::Column& c) {
+  if (c.isNull()) return json();
+  std::string lit = c.getString();
+  if (lit == "NULL") return json();
+  if (lit.size() >= 2 && lit.front() == '\'' && lit.back() == '\'') {
+    std::string s;
+    for (std::size_t i = 1; i + 1 < lit.size(); ++i) {
+      s += lit[i];
+      if (lit[i] == '\'' && lit[i + 1] == '\'') ++i;
+    }
+    return s;
+  }
+  try {
+    std::size_t used = 0;
+    const long long n = std::stoll(lit, &used);
+    if (used == lit.size()) return n;
+  } catch (const std::exception&) {
+  }
+  return lit;
+}
+
+TableInfo table_info(SQLite::Database& db, const std::string& table) {
+  TableInfo info;
+  SQLite::Statement q(db, fmt::format("PRAGMA table_info(\"{}\")", table));
+  std::vector<std::pair<int, std::string>> pk;
+  while (q.executeStep()) {
+    info.columns.push_back({q.getColumn(1).getString(), default_of(q.getColumn(4))});
+    if (const int n = q.getColumn(5).getInt(); n > 0) pk.emplace_back(n, q.getColumn(1).getString());
+  }
+  std::sort(pk.begin(), pk.end());
+  for (const auto& [_, name] : pk) info.key_columns.push_back(name);
+  return info;
+}
+
+/// The key as the Recorder writes it: "col=value,col=value".
+std::string key_of(const TableInfo& info, const json& row) {
+  std::string key;
+  for (const auto& k : info.key_columns)
+    key += fmt::format("{}{}={}", key.empty() ? "" : ",", k, row.contains(k) ? value_text(row[k]) : "?");
+  return key;
+}
+
+std::vector<std::string> audited_tables(SQLite::Database& db) {
+  SQLite::Statement q(db,
+                      "SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%' "
+                      "AND name <> 'audit_log' ORDER BY name");
+  std::vector<std::string> out;
+  while (q.executeStep()) out.push_back(q.getColumn(0).getString());
+  return out;
+}
+
+struct Recorded {
+  const AuditRecord* record = nullptr;
+  json row;
+  bool matched = false;
+};
+
+std::string where_recorded(const AuditRecord& r) {
+  return fmt::format("recorded {} by {} (audit record {})", r.at, r.actor, r.seq);
+}
+
+/// Columns in which a table row differs from a recorded row (defaults filled in for unmentioned columns).
+std::vector<std::string> differing_columns(const TableInfo& info, const json& recorded, const json& actual) {
+  std::vector<std::string> out;
+  for (const auto& c : info.columns) {
+    const json expected = recorded.contains(c.name) ? recorded[c.name] : c.default_value;
+    if (expected != actual[c.name]) out.push_back(c.name);
+  }
+  for (const auto& [name, _] : recorded.items())
+    if (!actual.contains(name)) out.push_back(name);
+  return out;
+}
+
+AuditProblem field_problem(const TableInfo& info, const Recorded& rec, const json& actual, const std::string& field,
+                           const std::string& key) {
+  const auto col = std::find_if(info.columns.begin(), info.columns.end(),
+                                [&](const ColumnInfo& c) { return c.name == field; });
+  const json recorded_value = rec.row.contains(field) ? rec.row[field] : (col != info.columns.end() ? col->default_value : json());
+  const std::string now = actual.contains(field) ? shown(actual[field]) : "absent (the column is gone)";
+  AuditProblem p{AuditProblem::Kind::field_mismatch, rec.record->seq, rec.record->table_name, key, field,
+                 rec.record->at, ""};
+  p.message = fmt::format("{} {}, {}: field {} is {} in the table but {} was recorded.", p.table, key,
+                          where_recorded(*rec.record), field, now, shown(recorded_value));
+  return p;
+}
+
+void check_chain(const std::vector<AuditRecord>& records, AuditVerification& out) {
+  std::int64_t expected = 1;
+  std::string prev = genesis_hash();
+  for (const auto& r : records) {
+    if (r.seq != expected) {
+      out.problems.push_back({AuditProblem::Kind::missing_record, expected, r.table_name, r.row_key, "", r.at,
+                              fmt::format("audit record {} is missing: the trail jumps from record {} to record {} "
+                                          "(recorded {}); records were deleted.",
+                                          expected, expected - 1, r.seq, r.at)});
+    } else if (r.prev_hash != prev) {
+      out.problems.push_back(
+          {AuditProblem::Kind::broken_link, r.seq, r.table_name, r.row_key, "", r.at,
+           fmt::format("audit record {} ({} {}, recorded {} by {}) does not follow record {}: its previous-record hash "
+                       "does not match; records were removed, inserted or reordered.",
+                       r.seq, r.table_name, r.row_key, r.at, r.actor, r.seq - 1)});
+    }
+    if (audit_hash(r.prev_hash, r.hashed_content()) != r.hash)
+      out.problems.push_back({AuditProblem::Kind::altered_record, r.seq, r.table_name, r.row_key, "", r.at,
+                              fmt::format("audit record {} ({} {}, recorded {} by {}) was altered: its content no "
+                                          "longer matches its hash.",
+                                          r.seq, r.table_name, r.row_key, r.at, r.actor)});
+    prev = r.hash;
+    expected = r.seq + 1;
+  }
+  out.records = static_cast<std::int64_t>(records.size());
+  out.last_hash = prev;
+}
+
+}  // namespace
+
+json AuditRecord::hashed_content() const {
+  return {{"seq", seq},
+          {"at", at},
+          {"os_user", os_user},
+          {"actor", actor},
+          {"action", action},
+          {"table_name", table_name},
+          {"row_key", row_key},
+          {"before_json", text_or_null(before_json)},
+          {"after_json", text_or_null(after_json)},
+          {"reason", text_or_null(reason)}};
+}
+
+std::string genesis_hash() { return std::string(64, '0'); }
+
+std::vector<AuditRecord> audit_records(SQLite::Database& db) {
+  SQLite::Statement q(db,
+                      "SELECT seq, at, os_user, actor, action, table_name, row_key, before_json, after_json, reason, "
+                      "prev_hash, hash FROM audit_log ORDER BY seq");
+  std::vector<AuditRecord> out;
+  while (q.executeStep()) {
+    AuditRecord r;
+    r.seq = q.getColumn(0).getInt64();
+    r.at = q.getColumn(1).getString();
+    r.os_user = q.getColumn(2).getString();
+    r.actor = q.getColumn(3).getString();
+    r.action = q.getColumn(4).getString();
+    r.table_name = q.getColumn(5).getString();
+    r.row_key = q.getColumn(6).getString();
+    r.before_json = optional_text(q.getColumn(7));
+    r.after_json = optional_text(q.getColumn(8));
+    r.reason = optional_text(q.getColumn(9));
+    r.prev_hash = q.getColumn(10).getString();
+    r.hash = q.getColumn(11).getString();
+    out.push_back(std::move(r));
+  }
+  return out;
+}
+
+AuditVerification verify_audit_trail(SQLite::Database& db) {
+  AuditVerification out;
+  const auto records = audit_records(db);
+  check_chain(records, out);
+
+  // What the trail says each table holds, by primary key.
+  const auto tables = audited_tables(db);
+  std::map<std::string, TableInfo> infos;
+  for (const auto& t : tables) infos[t] = table_info(db, t);
+  std::map<std::string, std::map<std::string, Recorded>> recorded;
+  for (const auto& r : records) {
+    if (r.action != "insert" || !r.after_json) continue;
+    const auto info = infos.find(r.table_name);
+    if (info == infos.end()) {
+      out.problems.push_back({AuditProblem::Kind::row_missing, r.seq, r.table_name, r.row_key, "", r.at,
+                              fmt::format("{} {}, {}: the table {} no longer exists.", r.table_name, r.row_key,
+                                          where_recorded(r), r.table_name)});
+      continue;
+    }
+    json row = json::parse(*r.after_json, nullptr, false);
+    if (!row.is_object()) continue;  // an altered record; the chain check has reported it
+    const std::string key = key_of(info->second, row);
+    auto [it, fresh] = recorded[r.table_name].try_emplace(key, Recorded{&r, std::move(row), false});
+    if (!fresh)
+      out.problems.push_back({AuditProblem::Kind::duplicate_record, r.seq, r.table_name, key, "", r.at,
+                              fmt::format("{} {}, {}: the same row was already recorded by audit record {}.",
+                                          r.table_name, key, where_recorded(r), it->second.record->seq)});
+  }
+
+  // Every row of every table against the trail.
+  struct Unaudited {
+    std::string table, key;
+    json row;
+  };
+  std::vector<Unaudited> unaudited;
+  for (const auto& t : tables) {
+    const TableInfo& info = infos[t];
+    ++out.tables;
+    SQLite::Statement q(db, fmt::format("SELECT * FROM \"{}\"", t));
+    auto& expected = recorded[t];
+    while (q.executeStep()) {
+      ++out.rows;
+      const json actual = row_json(q);
+      const std::string key = key_of(info, actual);
+      const auto it = expected.find(key);
+      if (it == expected.end()) {
+        unaudited.push_back({t, key, actual});
+        continue;
+      }
+      it->second.matched = true;
+      for (const auto& field : differing_columns(info, it->second.row, actual))
+        out.problems.push_back(field_problem(info, it->second, actual, field, key));
+    }
+  }
+
+  // A recorded row that is gone, paired with an unrecorded row that differs from it in one column only,
+  // is one changed field (typically a key column); otherwise it is a deleted row.
+  for (auto& [table, rows] : recorded) {
+    for (auto& [key, rec] : rows) {
+      if (rec.matched) continue;
+      const TableInfo& info = infos[table];
+      auto partner = unaudited.end();
+      std::vector<std::string> diff;
+      for (auto u = unaudited.begin(); u != unaudited.end(); ++u) {
+        if (u->table != table) continue;
+        auto d = differing_columns(info, rec.row, u->row);
+        if (d.size() == 1) {
+          partner = u;
+          diff = std::move(d);
+          break;
+        }
+      }
+      if (partner != unaudited.end()) {
+        out.problems.push_back(field_problem(info, rec, partner->row, diff[0], key));
+        unaudited.erase(partner);
+        continue;
+      }
+      out.problems.push_back({AuditProblem::Kind::row_missing, rec.record->seq, table, key, "", rec.record->at,
+                              fmt::format("{} {}, {}: the row is missing from the table.", table, key,
+                                          where_recorded(*rec.record))});
+    }
+  }
+  for (const auto& u : unaudited)
+    out.problems.push_back({AuditProblem::Kind::unaudited_row, 0, u.table, u.key, "", "",
+                            fmt::format("{} {} is in the table but no audit record describes it: it was written "
+                                        "outside plumb.",
+                                        u.table, u.key)});
+
+  // Trail order: the first problem is the earliest record that went wrong; unaudited rows come last.
+  std::stable_sort(out.problems.begin(), out.problems.end(), [](const AuditProblem& a, const AuditProblem& b) {
+    const auto order = [](const AuditProblem& p) {
+      return p.seq == 0 ? std::numeric_limits<std::int64_t>::max() : p.seq;
+    };
+    return order(a) < order(b);
+  });
+  return out;
+}
+
+}  // namespace plumb::store

@@ -1,0 +1,71 @@
+#pragma once
+// Reading the audit trail and proving it: every record chains to the one before it by SHA-256, and every
+// row of every table is exactly what the trail says was inserted.
+#include <SQLiteCpp/Database.h>
+
+#include <cstdint>
+#include <nlohmann/json.hpp>
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace plumb::store {
+
+struct AuditRecord {
+  std::int64_t seq = 0;
+  std::string at;  ///< UTC
+  std::string os_user;
+  std::string actor;
+  std::string action;
+  std::string table_name;
+  std::string row_key;
+  std::optional<std::string> before_json;
+  std::optional<std::string> after_json;
+  std::optional<std::string> reason;
+  std::string prev_hash;
+  std::string hash;
+
+  /// The fields the hash covers, as the Recorder wrote them (everything but the two hashes).
+  [[nodiscard]] nlohmann::json hashed_content() const;
+};
+
+/// The whole trail in sequence order.
+std::vector<AuditRecord> audit_records(SQLite::Database& db);
+
+/// The hash a trail starts from (there is no record before the first).
+std::string genesis_hash();
+
+struct AuditProblem {
+  enum class Kind {
+    missing_record,   ///< a gap in the sequence numbers: audit records were deleted
+    broken_link,      ///< prev_hash is not the hash of the record before: removed, inserted or reordered
+    altered_record,   ///< the record's content does not match its own hash
+    field_mismatch,   ///< a table row differs from what the trail recorded
+    row_missing,      ///< the trail recorded a row that the table no longer has
+    unaudited_row,    ///< a table row that no audit record describes
+    duplicate_record  ///< two audit records describe the same row
+  };
+  Kind kind = Kind::altered_record;
+  std::int64_t seq = 0;  ///< the audit record concerned (0 for an unaudited row)
+  std::string table;
+  std::string key;    ///< primary key, e.g. "run_id=3,seq=2"
+  std::string field;  ///< the column, for a field mismatch
+  std::string recorded_at;
+  std::string message;  ///< one sentence naming table, key, field and when it was recorded
+};
+
+struct AuditVerification {
+  std::int64_t records = 0;       ///< audit records walked
+  std::int64_t rows = 0;          ///< table rows compared with the trail
+  std::int64_t tables = 0;        ///< tables compared
+  std::string last_hash;          ///< hash of the last record (genesis when the trail is empty)
+  std::vector<AuditProblem> problems;  ///< in trail order; the first is the first thing that went wrong
+
+  [[nodiscard]] bool ok() const { return problems.empty(); }
+};
+
+/// Walks the chain and compares every column of every row of every table (but the trail itself) with
+/// the row the trail recorded. Reads only.
+AuditVerification verify_audit_trail(SQLite::Database& db);
+
+}  // namespace plumb::store
