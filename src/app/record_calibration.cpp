@@ -10,6 +10,7 @@
 #include "app/calibration_csv.hpp"
 #include "app/calibration_settings.hpp"
 #include "app/registry.hpp"
+#include "app/service_status.hpp"
 #include "checks/calibration.hpp"
 #include "core/errors.hpp"
 #include "report/calibration_json.hpp"
@@ -70,6 +71,7 @@ public:
       throw InputError(fmt::format("{}: weight {} was due for calibration on {} (certificate {}), before the run date "
                                    "{}; an overdue weight cannot give a traceable calibration.",
                                    where, id, to_string(w->current.due_on), w->current.certificate_no, to_string(on_)));
+    require_in_service(db_, "weight", id);
     UsedWeight u{*w, std::nullopt, std::nullopt};
     // Drift D (EURAMET cg-18 7.1.2.4): estimated from the change between the weight's last two certificates.
     const auto history = store::weight_calibrations_until(db_.sql(), id, on_);
@@ -254,6 +256,7 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
   require_lab(db);
   const auto balance = store::find_balance(db.sql(), in.instrument_id);
   if (!balance) throw InputError(fmt::format("balance \"{}\" is not registered.", in.instrument_id));
+  require_in_service(db, "instrument", balance->id);
   const auto settings = store::find_calibration_settings(db.sql(), balance->id);
   if (!settings)
     throw InputError(fmt::format("balance {} has no calibration settings; set them first with `plumb balance "

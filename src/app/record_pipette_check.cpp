@@ -9,6 +9,7 @@
 
 #include "app/pipette_registry.hpp"
 #include "app/registry.hpp"
+#include "app/service_status.hpp"
 #include "checks/pipette.hpp"
 #include "core/errors.hpp"
 #include "core/readings_csv.hpp"
@@ -185,6 +186,8 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
   require_lab(db);
   const auto pipette = store::find_pipette(db.sql(), in.pipette_id);
   if (!pipette) throw InputError(fmt::format("pipette \"{}\" is not registered.", in.pipette_id));
+  require_in_service(db, "instrument", pipette->id());
+  require_in_service(db, "instrument", in.balance_id);
   const checks::PipetteDefinition& def = pipette->definition;
   const BalanceOnDate bal = balance_on(db, in.balance_id, on);
 
