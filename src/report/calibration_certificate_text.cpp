@@ -13,16 +13,6 @@ namespace {
 
 using nlohmann::json;
 
-std::string str(const json& j, const char* key, const std::string& fallback = "-") {
-  if (!j.is_object() || !j.contains(key) || j[key].is_null()) return fallback;
-  return j[key].is_string() ? j[key].get<std::string>() : j[key].dump();
-}
-
-std::string grams_text(const json& j, const char* key) {
-  if (!j.contains(key) || !j[key].is_string()) return "-";
-  return ExactMass::grams(Decimal::parse(j[key].get<std::string>())).to_string();
-}
-
 std::string upper(std::string s) {
   std::transform(s.begin(), s.end(), s.begin(), [](unsigned char c) { return static_cast<char>(std::toupper(c)); });
   return s;
@@ -41,77 +31,78 @@ std::string calibration_certificate_text(const json& c, const std::string& conte
   const json& cal = c["calibration"];
   const json& run = c["check"];
   add(rule('='));
-  add(str(lab, "name"));
+  add(field_text(lab, "name"));
   for (const auto& l : lab.value("address_lines", json::array())) add(l.get<std::string>());
-  if (!str(lab, "accreditation", "").empty()) para(str(lab, "accreditation"), "", "");
+  if (!field_text(lab, "accreditation", "").empty()) para(field_text(lab, "accreditation"), "", "");
   add(rule('='));
-  add(fmt::format("{:<52}{:>26}", upper(str(c, "title")), "No. " + str(c, "number")));
-  add(fmt::format("Issued {} by {}", str(c, "issued_at"), str(c, "issued_by")));
+  add(fmt::format("{:<52}{:>26}", upper(field_text(c, "title")), "No. " + field_text(c, "number")));
+  add(fmt::format("Issued {} by {}", field_text(c, "issued_at"), field_text(c, "issued_by")));
   add(rule());
-  add(fmt::format("{:<14}{} (balance), {}", "Instrument", str(inst, "id"), str(inst, "location")));
-  add(fmt::format("{:<14}capacity {}, readability d = {}", "", grams_text(inst, "capacity_g"),
-                  grams_text(inst, "readability_g")));
-  add(fmt::format("{:<14}run {}, performed {} by {}", "Calibration", str(run, "run_id"), str(run, "date"),
-                  str(run, "operator")));
-  para(str(cal, "procedure"), fmt::format("{:<14}", "Procedure"), std::string(14, ' '));
-  para(str(cal["settings"], "description"), fmt::format("{:<14}", "Settings"), std::string(14, ' '));
-  para(str(cal, "tolerance"), fmt::format("{:<14}", "Tolerance"), std::string(14, ' '));
+  add(fmt::format("{:<14}{} (balance), {}", "Instrument", field_text(inst, "id"), field_text(inst, "location")));
+  add(fmt::format("{:<14}capacity {}, readability d = {}", "", grams_field(inst, "capacity_g"),
+                  grams_field(inst, "readability_g")));
+  add(fmt::format("{:<14}run {}, performed {} by {}", "Calibration", field_text(run, "run_id"), field_text(run, "date"),
+                  field_text(run, "operator")));
+  para(field_text(cal, "procedure"), fmt::format("{:<14}", "Procedure"), std::string(14, ' '));
+  para(field_text(cal["settings"], "description"), fmt::format("{:<14}", "Settings"), std::string(14, ' '));
+  para(field_text(cal, "tolerance"), fmt::format("{:<14}", "Tolerance"), std::string(14, ' '));
   add("");
   add("Environment");
   const json& env = cal["environment"];
   if (env.value("measured", false))
-    add(fmt::format("  temperature {} degC, pressure {} hPa, relative humidity {} %", str(env, "temperature_c"),
-                    str(env, "pressure_hpa"), str(env, "humidity_pct")));
-  para(str(env, "statement"), "  ", "  ");
+    add(fmt::format("  temperature {} degC, pressure {} hPa, relative humidity {} %", field_text(env, "temperature_c"),
+                    field_text(env, "pressure_hpa"), field_text(env, "humidity_pct")));
+  para(field_text(env, "statement"), "  ", "  ");
   add("");
   add("Reference weights (traceability)");
   for (const auto& w : c["weights"]) {
-    add(fmt::format("  {:<8} nominal {}, class {}, conventional mass {}, density {} kg/m3{}", str(w, "id"),
-                    str(w, "nominal"), str(w, "class"), grams_text(w, "conventional_mass_g"), str(w, "density_kg_m3"),
-                    w.value("density_assumed", false) ? " (assumed)" : ""));
+    add(fmt::format("  {:<8} nominal {}, class {}, conventional mass {}, density {} kg/m3{}", field_text(w, "id"),
+                    field_text(w, "nominal"), field_text(w, "class"), grams_field(w, "conventional_mass_g"),
+                    field_text(w, "density_kg_m3"), w.value("density_assumed", false) ? " (assumed)" : ""));
     add(fmt::format("  {:<8} U = {} (k = {}); certificate {}, calibrated {}, due {}", "",
-                    grams_text(w, "uncertainty_g"), str(w, "k"), str(w, "certificate"), str(w, "calibrated_on"),
-                    str(w, "due_on")));
-    add(fmt::format("  {:<8} drift allowance {}: {}", "", w["drift_g"].is_string() ? grams_text(w, "drift_g") : "0",
-                    str(w, "drift_basis")));
+                    grams_field(w, "uncertainty_g"), field_text(w, "k"), field_text(w, "certificate"),
+                    field_text(w, "calibrated_on"), field_text(w, "due_on")));
+    add(fmt::format("  {:<8} drift allowance {}: {}", "", w["drift_g"].is_string() ? grams_field(w, "drift_g") : "0",
+                    field_text(w, "drift_basis")));
   }
-  const std::string d = str(cal, "readability_g", "");
+  const std::string d = field_text(cal, "readability_g", "");
   const json& results = c["check"];
   for (const auto& stage : cal["stages"]) {
     add("");
     add(rule());
-    add(fmt::format("{}: {}", upper(str(stage, "title")), str(stage, "state")));
-    const json& set = str(stage, "stage") == "as-left" ? results["as_left"] : results["as_found"];
-    for (const auto& l : calibration_set_lines(set, d, {str(stage, "stage") == str(cal, "final_stage")})) add(l);
+    add(fmt::format("{}: {}", upper(field_text(stage, "title")), field_text(stage, "state")));
+    const json& set = field_text(stage, "stage") == "as-left" ? results["as_left"] : results["as_found"];
+    for (const auto& l : calibration_set_lines(set, d, {field_text(stage, "stage") == field_text(cal, "final_stage")}))
+      add(l);
   }
   add(rule());
   add("Uncertainty");
-  para(str(c, "uncertainty_statement"), "  ", "  ");
+  para(field_text(c, "uncertainty_statement"), "  ", "  ");
   add("Decision rule");
-  para(str(cal["decision_rule"], "statement"), "  ", "  ");
+  para(field_text(cal["decision_rule"], "statement"), "  ", "  ");
   for (const auto& m : cal["decision_rule"]["state_meanings"]) para(m.get<std::string>(), "  - ", "    ");
   add("");
   if (cal.value("adjusted", false))
-    add(fmt::format("The balance was adjusted: as found {}, as left {}.", str(cal["stages"][0], "state"),
-                    str(cal["stages"][1], "state")));
+    add(fmt::format("The balance was adjusted: as found {}, as left {}.", field_text(cal["stages"][0], "state"),
+                    field_text(cal["stages"][1], "state")));
   else
-    add(fmt::format("No adjustment was made: as found {}.", str(cal["stages"][0], "state")));
+    add(fmt::format("No adjustment was made: as found {}.", field_text(cal["stages"][0], "state")));
   for (const auto& n : cal.value("notes", json::array())) para(n.get<std::string>(), "Note: ", "  ");
-  if (str(c, "verdict") == "pass")
-    add(fmt::format("RESULT: PASS ({} {})    Next calibration due: {}", str(cal, "final_stage"),
-                    str(cal, "final_state"), str(c, "next_due")));
+  if (field_text(c, "verdict") == "pass")
+    add(fmt::format("RESULT: PASS ({} {})    Next calibration due: {}", field_text(cal, "final_stage"),
+                    field_text(cal, "final_state"), field_text(c, "next_due")));
   else
     add(fmt::format("RESULT: FAIL ({} {})    The balance is OUT OF SERVICE until a passing calibration.",
-                    str(cal, "final_stage"), str(cal, "final_state")));
+                    field_text(cal, "final_stage"), field_text(cal, "final_state")));
   add("");
   add("Signatures");
   for (const auto& s : c.value("signatories", json::array())) {
-    const std::string name = str(s, "name", "");
-    add(fmt::format("  {:<14} {:<24} signature ____________________  date __________", str(s, "role") + ":",
+    const std::string name = field_text(s, "name", "");
+    add(fmt::format("  {:<14} {:<24} signature ____________________  date __________", field_text(s, "role") + ":",
                     name.empty() ? "________________________" : name));
   }
   add("");
-  para(str(c, "caution"), "Caution: ", "  ");
+  para(field_text(c, "caution"), "Caution: ", "  ");
   add(rule());
   add(fmt::format("Certificate content SHA-256: {}", content_sha256));
   return out;

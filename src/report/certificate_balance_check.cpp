@@ -11,26 +11,14 @@ namespace {
 
 using nlohmann::json;
 
-// Exact decimal gram strings (stored as text) print as they are; computed numbers through mass_text.
-std::string grams(const json& j, const char* key) {
-  if (!j.contains(key) || j[key].is_null()) return "-";
-  if (j[key].is_string()) return ExactMass::grams(Decimal::parse(j[key].get<std::string>())).to_string();
-  return mass_text(j[key], 4);
-}
-
-std::string fixed_grams(const json& j, const char* key, int decimals) {
-  if (!j.contains(key) || !j[key].is_number()) return "-";
-  return fmt::format("{:.{}f} g", j[key].get<double>(), decimals);
-}
-
 Table weights_table(const json& weights) {
   Table t{{"Weight", "Nominal", "Class", "Conventional mass", "U (k)", "Certificate", "Calibrated", "Due"},
           {0.8, 0.8, 0.6, 1.3, 1.1, 1.1, 1.0, 1.0},
           {false, true, false, true, true, false, false, false},
           {}};
   for (const auto& w : weights)
-    t.rows.push_back({cell(w, "id"), cell(w, "nominal"), cell(w, "class"), grams(w, "conventional_mass_g"),
-                      fmt::format("{} ({})", grams(w, "uncertainty_g"), cell(w, "k")), cell(w, "certificate"),
+    t.rows.push_back({cell(w, "id"), cell(w, "nominal"), cell(w, "class"), grams_field(w, "conventional_mass_g"),
+                      fmt::format("{} ({})", grams_field(w, "uncertainty_g"), cell(w, "k")), cell(w, "certificate"),
                       cell(w, "calibrated_on"), cell(w, "due_on")});
   return t;
 }
@@ -63,10 +51,11 @@ void balance_check_sections(const json& c, Document& doc) {
   const json& run = c.value("check", json::object());
   const json& inst = c.value("instrument", json::object());
   doc.blocks.push_back(Heading{"Check"});
-  doc.blocks.push_back(KeyValues{{{"Run", cell(run, "run_id")},
-                                  {"Procedure", cell(run, "procedure") + " (replicate weighings of one reference weight)"},
-                                  {"Performed", fmt::format("{} by {}", cell(run, "date"), cell(run, "operator"))},
-                                  {"Tolerance policy", cell(run, "policy_name")}}});
+  doc.blocks.push_back(
+      KeyValues{{{"Run", cell(run, "run_id")},
+                 {"Procedure", cell(run, "procedure") + " (replicate weighings of one reference weight)"},
+                 {"Performed", fmt::format("{} by {}", cell(run, "date"), cell(run, "operator"))},
+                 {"Tolerance policy", cell(run, "policy_name")}}});
 
   doc.blocks.push_back(Heading{"Reference weights (traceability)"});
   doc.blocks.push_back(weights_table(c.value("weights", json::array())));
@@ -82,12 +71,12 @@ void balance_check_sections(const json& c, Document& doc) {
   doc.blocks.push_back(Heading{"Results"});
   doc.blocks.push_back(KeyValues{
       {{"Number of readings n", cell(run, "n")},
-       {"Mean indication", fixed_grams(run, "mean_g", decimals)},
-       {"Reference value (conventional mass)", weights.empty() ? "-" : grams(weights[0], "conventional_mass_g")},
-       {"Bias (accuracy)", fmt::format("{}  ({:+.5f} %)", grams(run, "bias_g"), run.value("bias_pct", 0.0))},
-       {"Repeatability SD s (n - 1)", grams(run, "sd_g")},
+       {"Mean indication", fixed_grams_field(run, "mean_g", decimals)},
+       {"Reference value (conventional mass)", weights.empty() ? "-" : grams_field(weights[0], "conventional_mass_g")},
+       {"Bias (accuracy)", fmt::format("{}  ({:+.5f} %)", grams_field(run, "bias_g"), run.value("bias_pct", 0.0))},
+       {"Repeatability SD s (n - 1)", grams_field(run, "sd_g")},
        {"s / d", fmt::format("{:.2f}", run.value("sd_over_d", 0.0))},
-       {"Minimum weight (USP <41>)", grams(run, "min_weight_g") + "  = 2000 x max(s, 0.41 d)"},
+       {"Minimum weight (USP <41>)", grams_field(run, "min_weight_g") + "  = 2000 x max(s, 0.41 d)"},
        {"Readability", cell(run, "readability_statement")}}});
 
   doc.blocks.push_back(Heading{fmt::format("Tolerances ({})", cell(run, "policy_name"))});
@@ -99,7 +88,8 @@ void balance_check_sections(const json& c, Document& doc) {
     tol.rows.push_back({cell(cr, "name"), cell(cr, "quantity"), mass_text(cr["measured_g"]), mass_text(cr["limit_g"]),
                         cell(cr, "basis"), cr.value("pass", false) ? "pass" : "FAIL"});
   doc.blocks.push_back(std::move(tol));
-  for (const auto& r : run.value("reasons", json::array())) doc.blocks.push_back(Paragraph{"Fail: " + r.get<std::string>()});
+  for (const auto& r : run.value("reasons", json::array()))
+    doc.blocks.push_back(Paragraph{"Fail: " + r.get<std::string>()});
   for (const auto& n : run.value("notes", json::array()))
     doc.blocks.push_back(Paragraph{"Note: " + n.get<std::string>(), true});
 

@@ -1,5 +1,7 @@
 #include "report/text_format.hpp"
 
+#include <fmt/format.h>
+
 #include <sstream>
 
 #include "core/units.hpp"
@@ -30,6 +32,24 @@ std::vector<std::string> wrap(const std::string& text, std::size_t width, const 
   return lines;
 }
 
-std::string rule(char c, std::size_t width) { return std::string(width, c); }
+std::string rule(char c, std::size_t width) {
+  return std::string(width, c);
+}
+
+std::string field_text(const nlohmann::json& j, const char* key, const std::string& fallback) {
+  if (!j.is_object() || !j.contains(key) || j[key].is_null()) return fallback;
+  return j[key].is_string() ? j[key].get<std::string>() : j[key].dump();
+}
+
+std::string grams_field(const nlohmann::json& j, const char* key) {
+  if (!j.is_object() || !j.contains(key) || j[key].is_null()) return "-";
+  if (j[key].is_string()) return ExactMass::grams(Decimal::parse(j[key].get<std::string>())).to_string();
+  return mass_text(j[key], 4);
+}
+
+std::string fixed_grams_field(const nlohmann::json& j, const char* key, int decimals) {
+  if (!j.is_object() || !j.contains(key) || !j[key].is_number()) return "-";
+  return fmt::format("{:.{}f} g", j[key].get<double>(), decimals);
+}
 
 }  // namespace plumb::report

@@ -13,4 +13,12 @@ std::vector<std::string> wrap(const std::string& text, std::size_t width, const 
                               const std::string& indent = "");
 std::string rule(char c = '-', std::size_t width = 78);
 
+/// j[key] as text: strings as they are, numbers as JSON prints them, `fallback` when absent or null.
+std::string field_text(const nlohmann::json& j, const char* key, const std::string& fallback = "-");
+/// A gram value of a certificate or result: exact decimal strings print exactly in a readable unit,
+/// computed numbers through mass_text; "-" when absent.
+std::string grams_field(const nlohmann::json& j, const char* key);
+/// A computed gram value with a fixed number of decimals ("-" when absent).
+std::string fixed_grams_field(const nlohmann::json& j, const char* key, int decimals);
+
 }  // namespace plumb::report
