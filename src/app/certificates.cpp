@@ -19,7 +19,16 @@ namespace {
 
 using nlohmann::json;
 
-json weight_json(const store::WeightRecord& w, const store::WeightCalibration& c) {
+std::string prefix_for(const std::string& procedure) {
+  if (procedure == "repeatability") return "BC";
+  if (procedure == "calibration") return "CC";
+  if (procedure == "pipette" || procedure == "gravimetric") return "PC";
+  return "XC";
+}
+
+}  // namespace
+
+nlohmann::json weight_traceability_json(const store::WeightRecord& w, const store::WeightCalibration& c) {
   return {{"id", w.id},
           {"nominal", w.nominal_text},
           {"class", w.weight_class},
@@ -32,14 +41,6 @@ json weight_json(const store::WeightRecord& w, const store::WeightCalibration& c
           {"due_on", to_string(c.due_on)}};
 }
 
-std::string prefix_for(const std::string& procedure) {
-  if (procedure == "repeatability") return "BC";
-  if (procedure == "calibration") return "CC";
-  if (procedure == "pipette" || procedure == "gravimetric") return "PC";
-  return "XC";
-}
-
-}  // namespace
 
 IssueOutcome issue_certificate(store::Database& db, const store::Actor& actor, const std::string& selector,
                                const std::optional<std::string>& layout_path) {
@@ -83,7 +84,7 @@ store::CertificateRecord issue_certificate_in(store::Database& db, store::Record
   for (const auto& rw : run.weights) {
     const auto w = store::find_weight(db.sql(), rw.weight_id);
     const auto c = store::find_weight_calibration(db.sql(), rw.weight_calibration_id);
-    if (w && c) weights.push_back(weight_json(*w, *c));
+    if (w && c) weights.push_back(weight_traceability_json(*w, *c));
   }
 
   const auto year = static_cast<int>(today_utc().year());

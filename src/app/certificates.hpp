@@ -16,6 +16,9 @@ struct IssueOutcome {
   bool already_issued = false;  ///< the run had a certificate; it is returned unchanged
 };
 
+/// A reference weight and the certificate it was used under, as certificates print it (traceability).
+nlohmann::json weight_traceability_json(const store::WeightRecord& w, const store::WeightCalibration& c);
+
 /// Issues the certificate of run `selector` ("LAST" or a number) with the given layout file (or default).
 IssueOutcome issue_certificate(store::Database& db, const store::Actor& actor, const std::string& selector,
                                const std::optional<std::string>& layout_path);

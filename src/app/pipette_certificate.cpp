@@ -1,5 +1,7 @@
 #include "app/pipette_certificate.hpp"
 
+#include "app/certificates.hpp"
+
 #include "app/pipette_registry.hpp"
 #include "store/pipettes.hpp"
 #include "store/repository.hpp"
@@ -13,19 +15,6 @@ constexpr const char* pipette_caution =
     "Pipettes checked here may dispense for clinical, pharmaceutical or food work: this check verifies volume "
     "against the stated limits under the stated conditions only. It does not replace the manufacturer's "
     "instructions, an accredited calibration where one is required, or local regulations and licensed practice.";
-
-json weight_json(const store::WeightRecord& w, const store::WeightCalibration& c) {
-  return {{"id", w.id},
-          {"nominal", w.nominal_text},
-          {"class", w.weight_class},
-          {"conventional_mass_g", (w.nominal + c.correction).in_grams().to_string()},
-          {"correction_g", c.correction.in_grams().to_string()},
-          {"uncertainty_g", c.uncertainty.in_grams().to_string()},
-          {"k", c.k.to_string()},
-          {"certificate", c.certificate_no},
-          {"calibrated_on", to_string(c.calibrated_on)},
-          {"due_on", to_string(c.due_on)}};
-}
 
 }  // namespace
 
@@ -67,7 +56,7 @@ void add_pipette_certificate_parts(store::Database& db, const store::RunRecord& 
       for (const auto& rw : br->weights) {
         const auto w = store::find_weight(db.sql(), rw.weight_id);
         const auto c = store::find_weight_calibration(db.sql(), rw.weight_calibration_id);
-        if (w && c) weights.push_back(weight_json(*w, *c));
+        if (w && c) weights.push_back(weight_traceability_json(*w, *c));
       }
     }
   }
