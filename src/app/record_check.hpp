@@ -21,6 +21,8 @@ struct CheckInput {
   MassUnit default_unit = MassUnit::g;
   std::string on;                       ///< date performed, YYYY-MM-DD
   std::string operator_name;
+  /// For a batch import: the line of each reading in the import file, so that messages point there.
+  std::vector<int> reading_lines;
 };
 
 /// Validates, computes and records one check in its own transaction; nothing is written on error.

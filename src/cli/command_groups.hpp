@@ -10,8 +10,10 @@ std::vector<Command> lab_commands();
 std::vector<Command> weight_commands();
 std::vector<Command> balance_commands();
 std::vector<Command> check_commands();
+std::vector<Command> history_commands();
 std::vector<Command> certificate_commands();
 std::vector<Command> due_commands();
+std::vector<Command> summary_commands();
 std::vector<Command> demo_commands();
 
 }  // namespace plumb::cli

@@ -6,8 +6,8 @@ namespace plumb::cli {
 const std::vector<Command>& commands() {
   static const std::vector<Command> all = [] {
     std::vector<Command> v;
-    for (auto group : {lab_commands, weight_commands, balance_commands, check_commands, certificate_commands,
-                       due_commands, demo_commands}) {
+    for (auto group : {lab_commands, weight_commands, balance_commands, check_commands, history_commands,
+                       certificate_commands, due_commands, summary_commands, demo_commands}) {
       auto g = group();
       v.insert(v.end(), g.begin(), g.end());
     }

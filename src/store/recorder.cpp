@@ -42,6 +42,14 @@ std::string audit_hash(const std::string& prev_hash, const nlohmann::json& recor
 
 Recorder::Recorder(SQLite::Database& db, Actor actor) : db_(db), actor_(std::move(actor)), now_(utc_timestamp()) {}
 
+SQLite::Statement& Recorder::statement(const std::string& sql) {
+  auto& s = statements_[sql];
+  if (!s) s = std::make_unique<SQLite::Statement>(db_, sql);
+  s->reset();
+  s->clearBindings();
+  return *s;
+}
+
 std::int64_t Recorder::insert(const std::string& table, nlohmann::json row, const std::vector<std::string>& key_columns,
                               const std::string& reason) {
   std::string columns, marks;
@@ -49,7 +57,7 @@ std::int64_t Recorder::insert(const std::string& table, nlohmann::json row, cons
     columns += (columns.empty() ? "" : ", ") + name;
     marks += marks.empty() ? "?" : ", ?";
   }
-  SQLite::Statement insert(db_, fmt::format("INSERT INTO {} ({}) VALUES ({})", table, columns, marks));
+  SQLite::Statement& insert = statement(fmt::format("INSERT INTO {} ({}) VALUES ({})", table, columns, marks));
   int i = 1;
   for (const auto& [name, value] : row.items()) {
     if (value.is_null()) insert.bind(i);
@@ -68,21 +76,23 @@ std::int64_t Recorder::insert(const std::string& table, nlohmann::json row, cons
     key += fmt::format("{}{}={}", key.empty() ? "" : ",", k, v.is_string() ? v.get<std::string>() : v.dump());
   }
 
-  SQLite::Statement last(db_, "SELECT seq, hash FROM audit_log ORDER BY seq DESC LIMIT 1");
+  // Read the chain's tail every time (never cached): it is cheap with a prepared statement, and always right.
+  SQLite::Statement& last = statement("SELECT seq, hash FROM audit_log ORDER BY seq DESC LIMIT 1");
   std::int64_t seq = 1;
   std::string prev = std::string(64, '0');
   if (last.executeStep()) {
     seq = last.getColumn(0).getInt64() + 1;
     prev = last.getColumn(1).getString();
   }
+  last.reset();  // no read cursor left open between inserts
   nlohmann::json record = {{"seq", seq},          {"at", now_},         {"os_user", actor_.os_user},
                            {"actor", actor_.name}, {"action", "insert"}, {"table_name", table},
                            {"row_key", key},       {"before_json", nullptr}, {"after_json", row.dump()},
                            {"reason", reason.empty() ? nlohmann::json() : nlohmann::json(reason)}};
   const std::string hash = audit_hash(prev, record);
-  SQLite::Statement audit(db_,
-                          "INSERT INTO audit_log (seq, at, os_user, actor, action, table_name, row_key, before_json, "
-                          "after_json, reason, prev_hash, hash) VALUES (?, ?, ?, ?, ?, ?, ?, NULL, ?, ?, ?, ?)");
+  SQLite::Statement& audit =
+      statement("INSERT INTO audit_log (seq, at, os_user, actor, action, table_name, row_key, before_json, "
+                "after_json, reason, prev_hash, hash) VALUES (?, ?, ?, ?, ?, ?, ?, NULL, ?, ?, ?, ?)");
   audit.bind(1, seq);
   audit.bind(2, now_);
   audit.bind(3, actor_.os_user);

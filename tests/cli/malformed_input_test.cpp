@@ -29,7 +29,7 @@ std::string substitute(std::string s, const std::string& db) {
 
 TEST_CASE("malformed inputs exit 2 with a clear message and change nothing", "[cli][malformed]") {
   const auto files = cases();
-  REQUIRE(files.size() >= 20);
+  REQUIRE(files.size() >= 40);
   for (const auto& file : files) {
     SECTION(file.filename().string()) {
       std::ifstream in(file);
@@ -42,13 +42,14 @@ TEST_CASE("malformed inputs exit 2 with a clear message and change nothing", "[c
                                       "ok.csv", "--on", "2026-11-02", "--by", "A. Technician"},
                                      dir.path())
                   .status == 0);
+      // Files first: a setup step may use them (importing a file once before importing it again).
+      const json extra = c.value("files", json::object());
+      for (const auto& [name, text] : extra.items()) dir.write(name, text.get<std::string>());
       for (const auto& step : c.value("setup", json::array())) {
         std::vector<std::string> setup_args;
         for (const auto& a : step) setup_args.push_back(substitute(a.get<std::string>(), db));
         REQUIRE(plumb::test::run_plumb(setup_args, dir.path()).status == 0);
       }
-      const json extra = c.value("files", json::object());
-      for (const auto& [name, text] : extra.items()) dir.write(name, text.get<std::string>());
       std::vector<std::string> args;
       for (const auto& a : c["args"]) args.push_back(substitute(a.get<std::string>(), db));
       const std::string before = plumb::test::dump_database(db);
