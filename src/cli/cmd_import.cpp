@@ -60,7 +60,7 @@ std::vector<Command> history_commands() {
       "  Consecutive rows with the same instrument, procedure, date, operator and weight form one run; an optional\n"
       "  `run` column labels runs explicitly. `weight` may join several ids with '+'. Each run is validated and\n"
       "  computed like `check record`; a bad row rejects the whole file with its line number, and the same file\n"
-      "  (by SHA-256) is never imported twice",
+      "  (by SHA-256) is never imported twice.",
       [](po::options_description& d, po::positional_options_description& p) {
         d.add_options()("file", po::value<std::string>()->required(), "the history CSV (positional)");
         add_format_option(d);

@@ -85,9 +85,10 @@ std::int64_t Recorder::insert(const std::string& table, nlohmann::json row, cons
     prev = last.getColumn(1).getString();
   }
   last.reset();  // no read cursor left open between inserts
+  const std::string after = row.dump();
   nlohmann::json record = {{"seq", seq},          {"at", now_},         {"os_user", actor_.os_user},
                            {"actor", actor_.name}, {"action", "insert"}, {"table_name", table},
-                           {"row_key", key},       {"before_json", nullptr}, {"after_json", row.dump()},
+                           {"row_key", key},       {"before_json", nullptr}, {"after_json", after},
                            {"reason", reason.empty() ? nlohmann::json() : nlohmann::json(reason)}};
   const std::string hash = audit_hash(prev, record);
   SQLite::Statement& audit =
@@ -100,7 +101,7 @@ std::int64_t Recorder::insert(const std::string& table, nlohmann::json row, cons
   audit.bind(5, "insert");
   audit.bind(6, table);
   audit.bind(7, key);
-  audit.bind(8, row.dump());
+  audit.bind(8, after);
   if (reason.empty()) audit.bind(9);
   else audit.bind(9, reason);
   audit.bind(10, prev);
