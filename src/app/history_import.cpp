@@ -107,8 +107,6 @@ ImportReport import_history(store::Database& db, const store::Actor& actor, cons
   const std::string sha = store::sha256_of_file(file, "import file");
   std::error_code ec;
   const auto total = static_cast<long long>(std::filesystem::file_size(file, ec));
-  // A large import touches many pages; a bigger page cache (64 MiB) for this connection saves re-reads.
-  db.sql().exec("PRAGMA cache_size = -65536");
 
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   refuse_repeat(db.sql(), source, sha);
