@@ -5,7 +5,7 @@
 #include <algorithm>
 
 #include "store/calibration.hpp"
-#include "store/pipettes.hpp"
+#include "store/lab_status.hpp"
 #include "store/repository.hpp"
 #include "store/status_events.hpp"
 
@@ -18,68 +18,90 @@ std::string timing_status(int days_left, int within_days) {
   return "in date";
 }
 
+/// What the due list needs of a run, whichever query found it.
+struct RunSummary {
+  std::int64_t id = 0;
+  Date performed_on;
+  Verdict verdict = Verdict::pass;
+  std::optional<Date> next_due;
+};
+
+std::optional<RunSummary> summary_of(const std::optional<store::LatestResult>& r) {
+  if (!r) return std::nullopt;
+  return RunSummary{r->run_id, r->performed_on, r->verdict, r->next_due};
+}
+
+std::optional<RunSummary> summary_of(const std::optional<store::RunRecord>& r) {
+  if (!r) return std::nullopt;
+  return RunSummary{r->id, r->performed_on, r->verdict, r->next_due};
+}
+
+/// The weekly-check line of an instrument from its latest check (and, for a calibrated balance, its
+/// latest calibration: a passing calibration counts as a passing check of its day, a failed one takes
+/// the balance out of service; see app/record_calibration.hpp).
+DueItem check_item(const std::string& kind, const store::InstrumentStatus& s, const std::optional<RunSummary>& last,
+                   const std::optional<RunSummary>& cal, Date on, int within_days) {
+  DueItem item{kind, s.id, s.location, "", std::nullopt, std::nullopt, ""};
+  const bool cal_failed = cal && cal->verdict == Verdict::fail;
+  const bool cal_counts = cal && cal->verdict == Verdict::pass && (!last || cal->performed_on >= last->performed_on);
+  if (cal_failed) {
+    item.status = "out of service";
+    item.detail = fmt::format("failed calibration run {} on {}", cal->id, to_string(cal->performed_on));
+  } else if (last && last->verdict == Verdict::fail && !cal_counts) {
+    item.status = "out of service";
+    item.detail = fmt::format("failed check run {} on {}", last->id, to_string(last->performed_on));
+  } else {
+    if (cal_counts) {
+      item.due_on = add_interval(cal->performed_on, Interval::parse(s.check_every));
+      item.detail = fmt::format("last passed calibration {} (run {})", to_string(cal->performed_on), cal->id);
+    } else {
+      item.due_on = last && last->next_due ? *last->next_due : s.created_on;
+      item.detail = last ? fmt::format("last passed {} (run {})", to_string(last->performed_on), last->id)
+                         : "no check recorded yet";
+    }
+    item.days_left = days_between(on, *item.due_on);
+    item.status = timing_status(*item.days_left, within_days);
+  }
+  return item;
+}
+
+DueItem calibration_item(const store::InstrumentStatus& s, const std::optional<store::CalibrationSettings>& settings,
+                         const std::optional<RunSummary>& cal, Date on, int within_days) {
+  DueItem c{"calibration", s.id, s.location, "", std::nullopt, std::nullopt, ""};
+  if (cal && cal->verdict == Verdict::fail) {
+    c.status = "out of service";
+    c.detail = fmt::format("failed calibration run {} on {}", cal->id, to_string(cal->performed_on));
+    return c;
+  }
+  c.due_on = cal && cal->next_due ? *cal->next_due : settings->effective_on;
+  c.days_left = days_between(on, *c.due_on);
+  c.status = timing_status(*c.days_left, within_days);
+  c.detail = cal ? fmt::format("last calibrated {} (run {})", to_string(cal->performed_on), cal->id)
+                 : "not calibrated yet";
+  return c;
+}
+
 }  // namespace
 
 std::vector<DueItem> due_items(store::Database& db, Date on, int within_days, bool everything) {
   std::vector<DueItem> items;
-  for (const auto& b : store::list_balances(db.sql())) {
-    DueItem item{"balance", b.id, b.location, "", std::nullopt, std::nullopt, ""};
-    // Weekly checks and calibrations keep separate schedules (see app/record_calibration.hpp for the rules).
-    const auto last = store::latest_run_by_procedure(db.sql(), b.id, "calibration", false);
-    const auto cal = store::latest_run_by_procedure(db.sql(), b.id, "calibration", true);
-    const bool cal_failed = cal && cal->verdict == Verdict::fail;
-    // A passing calibration counts as a passing check of the day it was done (it covers more).
-    const bool cal_counts = cal && cal->verdict == Verdict::pass && (!last || cal->performed_on >= last->performed_on);
-    if (cal_failed) {
-      item.status = "out of service";
-      item.detail = fmt::format("failed calibration run {} on {}", cal->id, to_string(cal->performed_on));
-    } else if (last && last->verdict == Verdict::fail && !cal_counts) {
-      item.status = "out of service";
-      item.detail = fmt::format("failed check run {} on {}", last->id, to_string(last->performed_on));
-    } else {
-      if (cal_counts) {
-        item.due_on = add_interval(cal->performed_on, b.every);
-        item.detail = fmt::format("last passed calibration {} (run {})", to_string(cal->performed_on), cal->id);
-      } else {
-        item.due_on = last && last->next_due ? *last->next_due : b.created_on;
-        item.detail = last ? fmt::format("last passed {} (run {})", to_string(last->performed_on), last->id)
-                           : "no check recorded yet";
-      }
-      item.days_left = days_between(on, *item.due_on);
-      item.status = timing_status(*item.days_left, within_days);
+  // One set-based query gives every instrument's latest run, so a large lab is not one query per
+  // instrument; only balances with calibration settings need their calibration looked up apart.
+  store::for_each_instrument_status(db.sql(), "", [&](const store::InstrumentStatus& s) {
+    if (s.kind != "balance") {
+      items.push_back(check_item(s.kind, s, summary_of(s.latest), std::nullopt, on, within_days));
+      return;
     }
-    items.push_back(std::move(item));
-    const auto settings = store::find_calibration_settings(db.sql(), b.id);
-    if (!settings && !cal) continue;
-    DueItem c{"calibration", b.id, b.location, "", std::nullopt, std::nullopt, ""};
-    if (cal_failed) {
-      c.status = "out of service";
-      c.detail = fmt::format("failed calibration run {} on {}", cal->id, to_string(cal->performed_on));
-    } else {
-      c.due_on = cal && cal->next_due ? *cal->next_due : settings->effective_on;
-      c.days_left = days_between(on, *c.due_on);
-      c.status = timing_status(*c.days_left, within_days);
-      c.detail = cal ? fmt::format("last calibrated {} (run {})", to_string(cal->performed_on), cal->id)
-                     : "not calibrated yet";
+    const auto settings = store::find_calibration_settings(db.sql(), s.id);
+    if (!settings) {
+      items.push_back(check_item("balance", s, summary_of(s.latest), std::nullopt, on, within_days));
+      return;
     }
-    items.push_back(std::move(c));
-  }
-  // Pipettes: due on the next due date of their latest passing check; out of service after a failed one.
-  for (const auto& p : store::list_pipettes(db.sql())) {
-    DueItem item{"pipette", p.id(), p.location, "", std::nullopt, std::nullopt, ""};
-    const auto last = store::latest_run(db.sql(), p.id());
-    if (last && last->verdict == Verdict::fail) {
-      item.status = "out of service";
-      item.detail = fmt::format("failed check run {} on {}", last->id, to_string(last->performed_on));
-    } else {
-      item.due_on = last && last->next_due ? *last->next_due : p.created_on;
-      item.days_left = days_between(on, *item.due_on);
-      item.status = timing_status(*item.days_left, within_days);
-      item.detail = last ? fmt::format("last passed {} (run {})", to_string(last->performed_on), last->id)
-                         : "no check recorded yet";
-    }
-    items.push_back(std::move(item));
-  }
+    const auto last = summary_of(store::latest_run_by_procedure(db.sql(), s.id, "calibration", false));
+    const auto cal = summary_of(store::latest_run_by_procedure(db.sql(), s.id, "calibration", true));
+    items.push_back(check_item("balance", s, last, cal, on, within_days));
+    items.push_back(calibration_item(s, settings, cal, on, within_days));
+  });
   for (const auto& w : store::list_weights(db.sql())) {
     DueItem item{"weight", w.id, "", "", w.current.due_on, days_between(on, w.current.due_on),
                  fmt::format("certificate {} ({} class {})", w.current.certificate_no, w.nominal_text, w.weight_class)};
@@ -92,8 +114,7 @@ std::vector<DueItem> due_items(store::Database& db, Date on, int within_days, bo
   std::erase_if(items, [&](const DueItem& i) {
     return i.kind == "weight" ? retired_weights.count(i.id) > 0 : retired_instruments.count(i.id) > 0;
   });
-  if (!everything)
-    std::erase_if(items, [](const DueItem& i) { return i.status == "in date"; });
+  if (!everything) std::erase_if(items, [](const DueItem& i) { return i.status == "in date"; });
   std::stable_sort(items.begin(), items.end(), [](const DueItem& a, const DueItem& b) {
     const bool a_out = a.status == "out of service", b_out = b.status == "out of service";
     if (a_out != b_out) return a_out;

@@ -76,7 +76,9 @@ std::int64_t record_check_in(store::Database& db, store::Recorder& rec, const Ch
   if (in.weight_ids.size() != 1)
     throw InputError(fmt::format("--weight: a repeatability check uses exactly one reference weight ({} given).",
                                  in.weight_ids.size()));
-  const auto readings = parse_readings_csv(in.readings_csv, in.readings_source, in.default_unit);
+  auto readings = parse_readings_csv(in.readings_csv, in.readings_source, in.default_unit);
+  if (in.reading_lines.size() == readings.size())
+    for (std::size_t i = 0; i < readings.size(); ++i) readings[i].line = in.reading_lines[i];
   require_lab(db);
   const auto balance = store::find_balance(db.sql(), in.instrument_id);
   if (!balance) throw InputError(fmt::format("balance \"{}\" is not registered.", in.instrument_id));

@@ -23,6 +23,8 @@ struct CheckInput {
   std::string operator_name;
   std::optional<std::int64_t> supersedes;  ///< a correction: the run this one replaces
   std::string reason;                      ///< why it replaces it (required with supersedes)
+  /// For a batch import: the line of each reading in the import file, so that messages point there.
+  std::vector<int> reading_lines;
 };
 
 /// Validates, computes and records one check in its own transaction; nothing is written on error.

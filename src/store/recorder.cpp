@@ -56,6 +56,14 @@ nlohmann::json row_json(SQLite::Statement& row) {
 
 Recorder::Recorder(SQLite::Database& db, Actor actor) : db_(db), actor_(std::move(actor)), now_(utc_timestamp()) {}
 
+SQLite::Statement& Recorder::statement(const std::string& sql) {
+  auto& s = statements_[sql];
+  if (!s) s = std::make_unique<SQLite::Statement>(db_, sql);
+  s->reset();
+  s->clearBindings();
+  return *s;
+}
+
 std::int64_t Recorder::insert(const std::string& table, nlohmann::json row, const std::vector<std::string>& key_columns,
                               const std::string& reason) {
   std::string columns, marks;
@@ -63,7 +71,7 @@ std::int64_t Recorder::insert(const std::string& table, nlohmann::json row, cons
     columns += (columns.empty() ? "" : ", ") + name;
     marks += marks.empty() ? "?" : ", ?";
   }
-  SQLite::Statement insert(db_, fmt::format("INSERT INTO {} ({}) VALUES ({})", table, columns, marks));
+  SQLite::Statement& insert = statement(fmt::format("INSERT INTO {} ({}) VALUES ({})", table, columns, marks));
   int i = 1;
   for (const auto& [name, value] : row.items()) {
     if (value.is_null()) insert.bind(i);
@@ -87,21 +95,24 @@ std::int64_t Recorder::insert(const std::string& table, nlohmann::json row, cons
     key += fmt::format("{}{}={}", key.empty() ? "" : ",", k, v.is_string() ? v.get<std::string>() : v.dump());
   }
 
-  SQLite::Statement last(db_, "SELECT seq, hash FROM audit_log ORDER BY seq DESC LIMIT 1");
+  // Read the chain's tail every time (never cached): it is cheap with a prepared statement, and always right.
+  SQLite::Statement& last = statement("SELECT seq, hash FROM audit_log ORDER BY seq DESC LIMIT 1");
   std::int64_t seq = 1;
   std::string prev = std::string(64, '0');
   if (last.executeStep()) {
     seq = last.getColumn(0).getInt64() + 1;
     prev = last.getColumn(1).getString();
   }
+  last.reset();  // no read cursor left open between inserts
+  const std::string after = row.dump();
   nlohmann::json record = {{"seq", seq},          {"at", now_},         {"os_user", actor_.os_user},
                            {"actor", actor_.name}, {"action", "insert"}, {"table_name", table},
-                           {"row_key", key},       {"before_json", nullptr}, {"after_json", row.dump()},
+                           {"row_key", key},       {"before_json", nullptr}, {"after_json", after},
                            {"reason", reason.empty() ? nlohmann::json() : nlohmann::json(reason)}};
   const std::string hash = audit_hash(prev, record);
-  SQLite::Statement audit(db_,
-                          "INSERT INTO audit_log (seq, at, os_user, actor, action, table_name, row_key, before_json, "
-                          "after_json, reason, prev_hash, hash) VALUES (?, ?, ?, ?, ?, ?, ?, NULL, ?, ?, ?, ?)");
+  SQLite::Statement& audit =
+      statement("INSERT INTO audit_log (seq, at, os_user, actor, action, table_name, row_key, before_json, "
+                "after_json, reason, prev_hash, hash) VALUES (?, ?, ?, ?, ?, ?, ?, NULL, ?, ?, ?, ?)");
   audit.bind(1, seq);
   audit.bind(2, now_);
   audit.bind(3, actor_.os_user);
@@ -109,7 +120,7 @@ std::int64_t Recorder::insert(const std::string& table, nlohmann::json row, cons
   audit.bind(5, "insert");
   audit.bind(6, table);
   audit.bind(7, key);
-  audit.bind(8, row.dump());
+  audit.bind(8, after);
   if (reason.empty()) audit.bind(9);
   else audit.bind(9, reason);
   audit.bind(10, prev);

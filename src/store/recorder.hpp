@@ -4,6 +4,8 @@
 #include <SQLiteCpp/Database.h>
 #include <SQLiteCpp/Statement.h>
 
+#include <map>
+#include <memory>
 #include <nlohmann/json.hpp>
 #include <string>
 #include <vector>
@@ -34,9 +36,14 @@ public:
   [[nodiscard]] const std::string& now() const { return now_; }
 
 private:
+  /// A prepared statement for `sql`, reset for reuse: a batch import inserts millions of rows with a
+  /// handful of distinct statements, and preparing each one anew would cost more than the insert.
+  SQLite::Statement& statement(const std::string& sql);
+
   SQLite::Database& db_;
   Actor actor_;
   std::string now_;  ///< one timestamp for the whole command
+  std::map<std::string, std::unique_ptr<SQLite::Statement>> statements_;
 };
 
 /// SHA-256 of `text` as lowercase hex (OpenSSL libcrypto).

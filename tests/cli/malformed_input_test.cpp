@@ -29,7 +29,7 @@ std::string substitute(std::string s, const std::string& db) {
 
 TEST_CASE("malformed inputs exit 2 with a clear message and change nothing", "[cli][malformed]") {
   const auto files = cases();
-  REQUIRE(files.size() >= 20);
+  REQUIRE(files.size() >= 40);
   for (const auto& file : files) {
     SECTION(file.filename().string()) {
       std::ifstream in(file);

@@ -1,0 +1,145 @@
+#include "app/history_import.hpp"
+
+#include <SQLiteCpp/Statement.h>
+#include <SQLiteCpp/Transaction.h>
+#include <fmt/format.h>
+
+#include <array>
+#include <fstream>
+
+#include "app/record_check.hpp"
+#include "core/errors.hpp"
+#include "core/history_csv.hpp"
+#include "store/file_digest.hpp"
+
+namespace plumb::app {
+namespace {
+
+// record_check_in names the options of `check record`; in an import the same values come from columns.
+std::string as_column_message(std::string message) {
+  constexpr std::array<std::pair<std::string_view, std::string_view>, 4> renames{
+      {{"--weight", "weight"}, {"--on", "date"}, {"--procedure", "procedure"}, {"--by", "operator"}}};
+  for (const auto& [option, column] : renames)
+    if (message.rfind(option, 0) == 0 && message.size() > option.size() &&
+        (message[option.size()] == ' ' || message[option.size()] == ':'))
+      return std::string(column) + message.substr(option.size());
+  return message;
+}
+
+std::string readings_csv_of(const HistoryRun& run) {
+  std::string csv = "reading,unit\n";
+  for (const auto& r : run.readings) csv += fmt::format("{},{}\n", r.reading.text, to_string(r.reading.unit));
+  return csv;
+}
+
+class Importer {
+public:
+  Importer(store::Database& db, store::Recorder& rec, std::string source)
+      : db_(db), rec_(rec), source_(std::move(source)), verdict_of_(db.sql(), "SELECT verdict FROM check_runs WHERE id = ?") {}
+
+  void record(const HistoryRun& run) {
+    CheckInput in;
+    in.instrument_id = run.instrument;
+    in.procedure = run.procedure;
+    in.weight_ids = run.weights;
+    in.on = run.date;
+    in.operator_name = run.operator_name;
+    in.readings_source = source_;
+    in.readings_csv = readings_csv_of(run);
+    for (const auto& r : run.readings) in.reading_lines.push_back(r.line);
+    std::int64_t id = 0;
+    try {
+      id = record_check_in(db_, rec_, in);
+    } catch (const InputError& e) {
+      std::string message = e.what();
+      if (message.rfind(source_ + " line ", 0) == 0) throw;  // already names its line in the import file
+      if (message.rfind(source_ + ": ", 0) == 0) message.erase(0, source_.size() + 2);
+      throw InputError(fmt::format("{} line {} (run of {} on {}): {}", source_, run.first_line, run.instrument,
+                                   run.date, as_column_message(message)));
+    }
+    verdict_of_.reset();
+    verdict_of_.bind(1, id);
+    verdict_of_.executeStep();
+    const bool failed = verdict_of_.getColumn(0).getString() == "fail";
+
+    const Date on = parse_date(run.date, "date");
+    auto [it, fresh] = report_.instruments.try_emplace(run.instrument);
+    ImportedInstrument& ins = it->second;
+    if (fresh) ins.first_on = ins.last_on = on;
+    ins.first_on = std::min(ins.first_on, on);
+    ins.last_on = std::max(ins.last_on, on);
+    ++ins.runs;
+    ins.readings += static_cast<long long>(run.readings.size());
+    if (failed) {
+      ++ins.failed;
+      report_.failures.push_back({id, run.instrument, run.date, run.first_line});
+    }
+    if (report_.first_run_id == 0) report_.first_run_id = id;
+    report_.last_run_id = id;
+    ++report_.runs;
+    report_.readings += static_cast<long long>(run.readings.size());
+  }
+
+  ImportReport& report() { return report_; }
+
+private:
+  store::Database& db_;
+  store::Recorder& rec_;
+  std::string source_;
+  SQLite::Statement verdict_of_;
+  ImportReport report_;
+};
+
+void refuse_repeat(SQLite::Database& db, const std::string& source, const std::string& sha) {
+  SQLite::Statement q(db, "SELECT id, file_name, imported_at, imported_by FROM import_batches WHERE file_sha256 = ?");
+  q.bind(1, sha);
+  if (q.executeStep())
+    throw InputError(fmt::format("{}: this file (SHA-256 {}) was already imported as batch {} (\"{}\", {} by {}); "
+                                 "it is not imported twice.",
+                                 source, sha.substr(0, 16), q.getColumn(0).getInt64(), q.getColumn(1).getString(),
+                                 q.getColumn(2).getString(), q.getColumn(3).getString()));
+}
+
+}  // namespace
+
+ImportReport import_history(store::Database& db, const store::Actor& actor, const std::filesystem::path& file,
+                            const std::string& source, const std::function<void(long long, long long)>& progress) {
+  const std::string sha = store::sha256_of_file(file, "import file");
+  std::error_code ec;
+  const auto total = static_cast<long long>(std::filesystem::file_size(file, ec));
+
+  SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
+  refuse_repeat(db.sql(), source, sha);
+  store::Recorder rec(db.sql(), actor);
+  Importer importer(db, rec, source);
+  HistoryCsvParser parser(source);
+
+  std::ifstream in(file, std::ios::binary);
+  if (!in) throw InputError(fmt::format("import file \"{}\" cannot be read.", file.string()));
+  std::string line;
+  long long done = 0;
+  while (std::getline(in, line)) {
+    done += static_cast<long long>(line.size()) + 1;
+    if (auto run = parser.feed(line)) importer.record(*run);
+    if (progress && (parser.line() & 4095) == 0) progress(done, total);
+  }
+  if (auto run = parser.finish()) importer.record(*run);
+
+  ImportReport& report = importer.report();
+  report.file_sha256 = sha;
+  report.batch_id = rec.insert("import_batches",
+                               {{"file_sha256", sha},
+                                {"file_name", source},
+                                {"runs", report.runs},
+                                {"readings", report.readings},
+                                {"first_run_id", report.first_run_id},
+                                {"last_run_id", report.last_run_id},
+                                {"imported_at", rec.now()},
+                                {"imported_by", actor.name}},
+                               {"id"}, "history import");
+  tx.commit();
+  if (progress) progress(total, total);
+  return std::move(report);
+}
+
+}  // namespace plumb::app

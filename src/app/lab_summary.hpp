@@ -1,0 +1,25 @@
+#pragma once
+// The lab at a glance: every instrument with its latest result (verdict, bias, repeatability SD) and when
+// it is next due. Rows are handed to the caller one at a time, so a lab of thousands of instruments is
+// printed without being held in memory.
+#include <functional>
+#include <optional>
+#include <string>
+
+#include "core/dates.hpp"
+#include "store/database.hpp"
+#include "store/lab_status.hpp"
+
+namespace plumb::app {
+
+struct SummaryRow {
+  store::InstrumentStatus instrument;
+  std::string status;              ///< "out of service", "overdue", "in date" (as of the reference date)
+  std::optional<Date> next_due;    ///< absent when out of service
+  std::optional<int> days_left;    ///< negative when overdue
+};
+
+/// Visits every instrument in id order as of `on`.
+void lab_summary(store::Database& db, Date on, const std::function<void(const SummaryRow&)>& visit);
+
+}  // namespace plumb::app

@@ -1,0 +1,40 @@
+#pragma once
+// The latest result of every instrument in one set-based query, visited row by row: the due list and
+// the lab summary must stay fast and small on thousands of instruments with millions of readings, so
+// nothing here loads readings or holds the whole lab in memory.
+#include <SQLiteCpp/Database.h>
+
+#include <functional>
+#include <optional>
+#include <string>
+
+#include "checks/verdict.hpp"
+#include "core/dates.hpp"
+
+namespace plumb::store {
+
+struct LatestResult {
+  std::int64_t run_id = 0;
+  std::string procedure;
+  Date performed_on;
+  std::string operator_name;
+  Verdict verdict = Verdict::pass;
+  std::optional<Date> next_due;
+  std::optional<double> bias_g;  ///< from the stored results, when the procedure has one
+  std::optional<double> sd_g;
+};
+
+struct InstrumentStatus {
+  std::string id;
+  std::string kind;
+  std::string location;
+  std::string check_every;
+  Date created_on;
+  std::optional<LatestResult> latest;  ///< the latest run not superseded, by date then run number
+};
+
+/// Visits every instrument (of `kind`, or all when empty) in id order with its latest result.
+void for_each_instrument_status(SQLite::Database& db, const std::string& kind,
+                                const std::function<void(const InstrumentStatus&)>& visit);
+
+}  // namespace plumb::store

@@ -1,0 +1,77 @@
+// Concurrency: two processes record 200 checks each at the same time while a third reads the due list in a
+// loop. Every record must land, no "database is locked" (or any other error) may reach a user, and the
+// audit chain must stay contiguous.
+#include <SQLiteCpp/Database.h>
+
+#include <catch2/catch.hpp>
+#include <fstream>
+#include <sstream>
+
+#include "support/audit_chain.hpp"
+#include "support/paths.hpp"
+#include "support/run_plumb.hpp"
+
+namespace {
+
+constexpr int per_writer = 200;
+
+std::string slurp(const std::filesystem::path& p) {
+  std::ifstream in(p);
+  std::stringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+
+}  // namespace
+
+TEST_CASE("concurrency: two writers and a reader never see a locked database", "[cli][concurrency]") {
+  plumb::test::ScratchDir dir;
+  const auto db = plumb::test::example_lab(dir);
+  REQUIRE(plumb::test::run_plumb({"--db", db.string(), "balance", "add", "BAL-B", "--capacity", "220g",
+                                  "--readability", "0.1mg", "--every", "7d", "--smallest-net", "200mg"},
+                                 dir.path())
+              .status == 0);
+  dir.write("r.csv", "reading\n100.0003\n100.0001\n100.0002\n100.0004\n100.0002\n");
+  dir.write("race.sh", R"(set -u
+plumb="$1"; db="$2"; n="$3"
+writer() {
+  for i in $(seq 1 "$n"); do
+    "$plumb" --db "$db" check record "$1" --weight W100 --readings r.csv --on 2026-11-30 --by "Writer $1" \
+      >/dev/null 2>>"err-$1.txt" || echo "$i" >>"failed-$1.txt"
+  done
+}
+reader() {
+  reads=0
+  while [ ! -e writers.done ]; do
+    "$plumb" --db "$db" due --all --on 2026-12-01 >/dev/null 2>>err-reader.txt || echo x >>failed-reader.txt
+    reads=$((reads + 1))
+  done
+  echo "$reads" >reads.txt
+}
+reader & r=$!
+writer BAL-A & a=$!
+writer BAL-B & b=$!
+wait "$a" "$b"
+touch writers.done
+wait "$r"
+)");
+  const std::string cmd = "cd '" + dir.path().string() + "' && bash race.sh '" +
+                          plumb::test::plumb_binary().string() + "' '" + db.string() + "' " +
+                          std::to_string(per_writer);
+  REQUIRE(std::system(cmd.c_str()) == 0);
+
+  for (const char* who : {"BAL-A", "BAL-B", "reader"}) {
+    INFO(who);
+    CHECK(slurp(dir.file(std::string("err-") + who + ".txt")).empty());
+    CHECK_FALSE(std::filesystem::exists(dir.file(std::string("failed-") + who + ".txt")));
+  }
+  CHECK(std::stoi(slurp(dir.file("reads.txt"))) >= 1);
+  SQLite::Database sql(db.string(), SQLite::OPEN_READONLY);
+  CHECK(sql.execAndGet("SELECT count(*) FROM check_runs WHERE instrument_id = 'BAL-A'").getInt() == per_writer);
+  CHECK(sql.execAndGet("SELECT count(*) FROM check_runs WHERE instrument_id = 'BAL-B'").getInt() == per_writer);
+  CHECK(sql.execAndGet("SELECT count(*) FROM readings").getInt() == 2 * per_writer * 5);
+  const auto audit = plumb::test::check_audit_chain(db);
+  CHECK(audit.problem.empty());
+  // Registry: lab 1, weight and certificate 2, two balances 2 x 2; then per run: the run, its weight, 5 readings.
+  CHECK(audit.rows == 7 + 2 * per_writer * 7);
+}

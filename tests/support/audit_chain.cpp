@@ -1,0 +1,52 @@
+#include "support/audit_chain.hpp"
+
+#include <SQLiteCpp/Database.h>
+#include <SQLiteCpp/Statement.h>
+
+#include <nlohmann/json.hpp>
+
+#include "store/recorder.hpp"
+
+namespace plumb::test {
+
+AuditCheck check_audit_chain(const std::filesystem::path& db) {
+  SQLite::Database sql(db.string(), SQLite::OPEN_READONLY);
+  sql.setBusyTimeout(30000);
+  SQLite::Statement q(sql, "SELECT seq, at, os_user, actor, action, table_name, row_key, before_json, after_json, "
+                           "reason, prev_hash, hash FROM audit_log ORDER BY seq");
+  AuditCheck check;
+  std::string prev(64, '0');
+  const auto text_or_null = [](const SQLite::Column& c) {
+    return c.isNull() ? nlohmann::json() : nlohmann::json(c.getString());
+  };
+  while (q.executeStep()) {
+    ++check.rows;
+    const long long seq = q.getColumn(0).getInt64();
+    if (seq != check.rows) {
+      check.problem = "seq " + std::to_string(seq) + " where " + std::to_string(check.rows) + " was expected";
+      return check;
+    }
+    if (q.getColumn(10).getString() != prev) {
+      check.problem = "seq " + std::to_string(seq) + ": prev_hash is not the previous row's hash";
+      return check;
+    }
+    const nlohmann::json record = {{"seq", seq},
+                                   {"at", q.getColumn(1).getString()},
+                                   {"os_user", q.getColumn(2).getString()},
+                                   {"actor", q.getColumn(3).getString()},
+                                   {"action", q.getColumn(4).getString()},
+                                   {"table_name", q.getColumn(5).getString()},
+                                   {"row_key", q.getColumn(6).getString()},
+                                   {"before_json", text_or_null(q.getColumn(7))},
+                                   {"after_json", text_or_null(q.getColumn(8))},
+                                   {"reason", text_or_null(q.getColumn(9))}};
+    prev = q.getColumn(11).getString();
+    if (store::audit_hash(q.getColumn(10).getString(), record) != prev) {
+      check.problem = "seq " + std::to_string(seq) + ": hash does not match its record";
+      return check;
+    }
+  }
+  return check;
+}
+
+}  // namespace plumb::test

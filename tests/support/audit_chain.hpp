@@ -1,0 +1,17 @@
+#pragma once
+// Checks a database's audit trail from the outside, independently of plumb's own code paths except the
+// hash function itself: seq runs 1..N without a gap, each prev_hash is the previous row's hash, and each
+// hash is SHA-256(prev_hash + "\n" + the record's canonical JSON) (store::audit_hash).
+#include <filesystem>
+#include <string>
+
+namespace plumb::test {
+
+struct AuditCheck {
+  long long rows = 0;
+  std::string problem;  ///< empty when the chain is consistent
+};
+
+AuditCheck check_audit_chain(const std::filesystem::path& db);
+
+}  // namespace plumb::test
