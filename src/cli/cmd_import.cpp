@@ -47,7 +47,7 @@ void print_report(std::ostream& out, const app::ImportReport& r, const std::stri
 
 }  // namespace
 
-std::vector<Command> history_commands() {
+std::vector<Command> import_commands() {
   Command import{
       "check", "import",
       fmt::format("import past checks from a CSV, one reading per row (header: {}[,run]); all or nothing",

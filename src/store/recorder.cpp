@@ -84,7 +84,7 @@ std::int64_t Recorder::insert(const std::string& table, nlohmann::json row, cons
   const std::int64_t rowid = db_.getLastInsertRowid();
   // The trail records the row as stored (every column, defaults included), so that `audit verify` can
   // compare each column of the table with what was recorded.
-  SQLite::Statement stored(db_, fmt::format("SELECT * FROM {} WHERE rowid = ?", table));
+  SQLite::Statement& stored = statement(fmt::format("SELECT * FROM {} WHERE rowid = ?", table));
   stored.bind(1, rowid);
   if (!stored.executeStep()) throw StorageError(fmt::format("row {} of {} vanished after insert.", rowid, table));
   row = row_json(stored);
