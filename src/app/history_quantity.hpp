@@ -60,7 +60,7 @@ struct HistoryQuantity {
   bool watched = false;
 };
 
-/// A pipette's systematic error in uL ("systematic-error") or % ("systematic-error-pct"), or its CV ("cv"), at
+/// A pipette's systematic error in uL ("systematic-error") or % ("relative-systematic-error"), or its CV ("cv"), at
 /// one test volume (default: the largest of each run) and channel (default: the worst channel of each run).
 /// Defined in history_quantity_pipette.cpp.
 std::vector<HistoryQuantity> pipette_quantities();

@@ -161,7 +161,7 @@ struct MeasureInfo {
 };
 
 constexpr MeasureInfo measures[] = {
-    {PipetteMeasure::systematic_pct, "systematic-error-pct", "Systematic error", "%",
+    {PipetteMeasure::systematic_pct, "relative-systematic-error", "Systematic error", "%",
      "U (k = 2) of e_s is 2 s_r / sqrt(n) in % of the selected volume: the scatter of the mean of n deliveries "
      "only, a lower bound (the balance, Z and evaporation terms of ISO 8655-6 are not included)"},
     {PipetteMeasure::systematic_ul, "systematic-error", "Systematic error", "uL",

@@ -10,7 +10,7 @@ namespace {
 
 void instrument_options(po::options_description& d, po::positional_options_description& p,
                         const std::string& quantities =
-                            "balance: bias (default)|sd|min-weight; pipette: systematic-error-pct (default)|"
+                            "balance: bias (default)|sd|min-weight; pipette: relative-systematic-error (default)|"
                             "systematic-error|cv, each optionally @VOLUME[/chN], e.g. cv@10uL/ch2") {
   d.add_options()("instrument", po::value<std::string>()->required(), "instrument id")(
       "quantity", po::value<std::string>()->default_value(""), quantities.c_str())(
