@@ -105,9 +105,12 @@ QuantityTolerance min_weight_tolerance(const RunContext&, const InstrumentInfo& 
 const json* largest_load(const json& results) {
   const bool left = results.value("final_stage", "") == "as-left" && results.contains("as_left") &&
                     results["as_left"].is_object();
-  const json& set = left ? results["as_left"] : results.value("as_found", json::object());
+  if (!left && !(results.contains("as_found") && results["as_found"].is_object())) return nullptr;
+  const json& set = left ? results["as_left"] : results["as_found"];
+  // Pointers into the stored results themselves: json::value() would return a copy.
+  if (!set.contains("loads") || !set["loads"].is_array()) return nullptr;
   const json* best = nullptr;
-  for (const auto& l : set.value("loads", json::array()))
+  for (const auto& l : set["loads"])
     if (l.contains("reference_g") && l["reference_g"].is_number() &&
         (!best || l["reference_g"].get<double>() > (*best)["reference_g"].get<double>()))
       best = &l;

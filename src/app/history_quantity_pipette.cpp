@@ -45,7 +45,9 @@ bool same_volume(double a, double b) { return std::abs(a - b) <= 1e-9 * std::max
 // The test volume entry of a run at the point: the named volume, or the largest one tested.
 const json* volume_entry(const json& results, const Point& p) {
   const json* best = nullptr;
-  for (const auto& tv : results.value("volumes", json::array())) {
+  // Pointers into the stored results themselves: json::value() would return a copy.
+  if (!results.contains("volumes") || !results["volumes"].is_array()) return nullptr;
+  for (const auto& tv : results["volumes"]) {
     const double v = num(tv, "selected_ul");
     if (p.volume_ul ? same_volume(v, *p.volume_ul) : (!best || v > num(*best, "selected_ul"))) best = &tv;
   }
@@ -55,7 +57,8 @@ const json* volume_entry(const json& results, const Point& p) {
 // The channel at the point: the named one, the only one, or the one farthest from zero (worst).
 const json* channel_entry(const json& tv, const Point& p, PipetteMeasure m) {
   const json* best = nullptr;
-  for (const auto& ch : tv.value("channels", json::array())) {
+  if (!tv.contains("channels") || !tv["channels"].is_array()) return nullptr;
+  for (const auto& ch : tv["channels"]) {
     if (p.channel) {
       if (ch.value("channel", 0) == *p.channel) return &ch;
       continue;
