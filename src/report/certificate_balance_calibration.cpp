@@ -6,6 +6,7 @@
 #include <fmt/ranges.h>
 
 #include <algorithm>
+#include <cctype>
 #include <cmath>
 
 #include "core/decimal.hpp"
@@ -138,14 +139,15 @@ KeyValues model_block(const json& fit, const MgFormat& f) {
 ChartSpec error_chart(const json& c, const json& stage) {
   ChartSpec s;
   const json& rows = stage.value("error_of_indication", json::array());
-  s.title = fmt::format("Balance {}: error of indication against load, {}", c["instrument"].value("id", ""),
-                        stage.value("title", "") == "" ? "final stage" : stage.value("title", ""));
+  std::string stage_name = stage.value("title", "final stage");
+  if (!stage_name.empty()) stage_name[0] = static_cast<char>(std::tolower(static_cast<unsigned char>(stage_name[0])));
+  s.title = fmt::format("Balance {}: error of indication against load, {}", c["instrument"].value("id", ""), stage_name);
   s.subtitle = fmt::format("Calibration run {} on {}, {} load(s); E = I - m_ref", cell(c["check"], "run_id"),
                            cell(c["check"], "date"), rows.size());
   s.x = {"Load m_ref", "g", AxisScale::number};
   s.y = {"Error of indication E", "mg", AxisScale::number};
   ChartSeries series{"E at each load", {}};
-  ChartCurve upper{"\u00b1MPE at the tested loads (joined)", ChartCurve::Style::limit, {}};
+  ChartCurve upper{"\u00b1MPE at each tested load", ChartCurve::Style::limit, {}};
   ChartCurve lower = upper;
   for (const auto& l : rows) {
     const double m = num(l, "reference_g");
@@ -164,7 +166,8 @@ ChartSpec error_chart(const json& c, const json& stage) {
   }
   s.curves = {std::move(upper), std::move(lower), std::move(model)};
   s.notes = {"Error bars: expanded uncertainty U of E at each load (EURAMET cg-18 budget, k from Welch-Satterthwaite).",
-             "The MPE is known at the tested loads only; the line joining them is a guide, not a limit between loads."};
+             "The MPE is known at the tested loads only: each is marked there; the dotted line joining them is a guide, "
+             "not a limit between loads."};
   s.width = 720;
   s.height = 400;
   return s;
@@ -206,7 +209,7 @@ void budget_block(const json& stage, const MgFormat& f, Document& doc) {
 void decision_block(const json& cal, Document& doc) {
   const json& rule = cal.value("decision_rule", json::object());
   doc.blocks.push_back(Heading{"Decision rule"});
-  doc.blocks.push_back(Paragraph{fmt::format("{}: {}", cell(rule, "name"), cell(rule, "statement"))});
+  doc.blocks.push_back(Paragraph{cell(rule, "statement")});  // the statement names the rule itself
   for (const auto& m : rule.value("state_meanings", json::array()))
     doc.blocks.push_back(Paragraph{"- " + m.get<std::string>(), true});
 }

@@ -27,13 +27,10 @@ std::string grams(const json& j, const char* key) {
 
 void check_block(const json& c, Document& doc) {
   const json& run = c.value("check", json::object());
-  const json& inst = c.value("instrument", json::object());
   doc.blocks.push_back(Heading{"Check"});
   doc.blocks.push_back(KeyValues{{{"Run", cell(run, "run_id")},
                                   {"Method", "gravimetric (ISO 8655-6): each delivery weighed, converted with Z"},
-                                  {"Performed", fmt::format("{} by {}", cell(run, "date"), cell(run, "operator"))},
-                                  {"Limits", cell(inst, "limits")},
-                                  {"Limits source", cell(inst, "limits_source")}}});
+                                  {"Performed", fmt::format("{} by {}", cell(run, "date"), cell(run, "operator"))}}});
 }
 
 void balance_block(const json& c, Document& doc) {
@@ -121,18 +118,22 @@ void results_block(const json& run, Document& doc) {
   doc.blocks.push_back(std::move(t));
 }
 
-// e_s in % of the selected volume against the test volume, one series per channel (up to four; more share one),
-// with U = 2 s_r / sqrt(n) as error bars and the limit in % at each tested volume.
+// e_s against the test volume in the unit the limits are stated in (uL for ISO 8655-2's absolute limits, which then
+// form a constant band; % where the limits compare in %), one series per channel (up to four; more share one),
+// with U = 2 s_r / sqrt(n) as error bars and the limit at each tested volume.
 void chart_block(const json& c, const json& run, Document& doc) {
   const json& volumes = run.value("volumes", json::array());
   if (volumes.size() < 2) return;  // one volume: the table says it all
+  const json first_limits =
+      volumes[0].value("channels", json::array()).empty() ? json::object() : volumes[0]["channels"][0].value("limits", json::object());
+  const bool in_pct = first_limits.value("compare_in_pct", false);
   ChartSpec s;
   s.title = fmt::format("Pipette {}: systematic error per test volume", c["instrument"].value("id", ""));
   s.subtitle = fmt::format("Check run {} on {}, {} test volume(s)", cell(run, "run_id"), cell(run, "date"),
                            volumes.size());
   s.x = {"Test volume", "uL", AxisScale::number};
-  s.y = {"Systematic error e_s", "%", AxisScale::number};
-  ChartCurve upper{"\u00b1e_s limit at the tested volumes (joined)", ChartCurve::Style::limit, {}};
+  s.y = {"Systematic error e_s", in_pct ? "%" : "uL", AxisScale::number};
+  ChartCurve upper{"\u00b1e_s limit at each tested volume", ChartCurve::Style::limit, {}};
   ChartCurve lower = upper;
   int channels = 0;
   for (const auto& tv : volumes) channels = std::max(channels, static_cast<int>(tv.value("channels", json::array()).size()));
@@ -142,23 +143,29 @@ void chart_block(const json& c, const json& run, Document& doc) {
     s.series[i].name = per_channel ? fmt::format("channel {}", i + 1) : channels > 1 ? "all channels" : "e_s";
   for (const auto& tv : volumes) {
     const double v = num(tv, "selected_ul");
+    const double scale = in_pct ? (v > 0 ? 100 / v : 0) : 1;  // uL -> % of the selected volume
     std::size_t i = 0;
     for (const auto& ch : tv.value("channels", json::array())) {
       const double n = num(ch, "n");
-      const double u = n > 0 && v > 0 ? 2 * num(ch, "random_error_ul") / std::sqrt(n) / v * 100 : 0;
-      s.series[per_channel ? i : 0].points.push_back({v, num(ch, "systematic_error_pct"), u, false});
+      const double u = n > 0 ? 2 * num(ch, "random_error_ul") / std::sqrt(n) * scale : 0;
+      s.series[per_channel ? i : 0].points.push_back(
+          {v, num(ch, in_pct ? "systematic_error_pct" : "systematic_error_ul"), u, false});
       ++i;
     }
     const json& chs = tv.value("channels", json::array());
     if (!chs.empty()) {
-      const double lim = num(chs[0].value("limits", json::object()), "systematic_pct");
+      const double lim = num(chs[0].value("limits", json::object()), in_pct ? "systematic_pct" : "systematic_ul");
       upper.points.emplace_back(v, lim);
       lower.points.emplace_back(v, -lim);
     }
   }
+  std::sort(upper.points.begin(), upper.points.end());
+  std::sort(lower.points.begin(), lower.points.end());
   s.curves = {std::move(upper), std::move(lower)};
-  s.notes = {"Error bars: U (k = 2) = 2 s_r / sqrt(n) in % of the selected volume, the scatter of the mean only.",
-             "The limits are known at the tested volumes only; the line joining them is a guide."};
+  s.notes = {fmt::format("Error bars: U (k = 2) = 2 s_r / sqrt(n){}, the scatter of the mean only.",
+                         in_pct ? " in % of the selected volume" : ""),
+             "The limits are known at the tested volumes only: each is marked there; the dotted line joining them "
+             "is a guide."};
   s.width = 720;
   s.height = 360;
   doc.blocks.push_back(Heading{"Systematic error per test volume"});

@@ -369,10 +369,23 @@ private:
     if (c.points.size() < 2) return;
     const bool limit = c.style == ChartCurve::Style::limit;
     set_colour(cr_, limit ? tolerance_colour : trend_colour);
-    cairo_set_line_width(cr_, limit ? 1.6 : 2.0);
+    // A limit known at some points only: a bold bar at each point, joined by a thin dotted guide, so that no
+    // slope between two points is read as a limit nobody stated.
+    cairo_set_line_width(cr_, limit ? 0.9 : 2.0);
+    const double dots[] = {1.5, 2.5};
+    if (limit) cairo_set_dash(cr_, dots, 2, 0);
     cairo_move_to(cr_, X(c.points.front().first), Y(c.points.front().second));
     for (const auto& [x, y] : c.points) cairo_line_to(cr_, X(x), Y(y));
     cairo_stroke(cr_);
+    cairo_set_dash(cr_, nullptr, 0, 0);
+    if (limit) {
+      cairo_set_line_width(cr_, 2.4);
+      for (const auto& [x, y] : c.points) {
+        cairo_move_to(cr_, X(x) - 9, Y(y));
+        cairo_line_to(cr_, X(x) + 9, Y(y));
+      }
+      cairo_stroke(cr_);
+    }
     rec_.add("curve", {{"name", c.name}, {"style", limit ? "limit" : "model"}, {"points", std::to_string(c.points.size())}});
     if (!limit) return;
     double hi = -INFINITY, lo = INFINITY;
