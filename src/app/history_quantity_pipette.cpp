@@ -105,7 +105,9 @@ QuantityTolerance tolerance_at(const RunContext& latest, const Point& p, Pipette
   const json* ch = tv ? channel_entry(*tv, p, m) : nullptr;
   if (!ch || !ch->contains("limits")) return {{}, "no limits are stored with the latest check at this volume"};
   const json& l = (*ch)["limits"];
-  const std::string basis = fmt::format("stored with run {}: {}", latest.run.id, l.value("basis", "the pipette's limits"));
+  std::string stored = l.value("basis", "the pipette's limits");
+  while (!stored.empty() && (stored.back() == '.' || stored.back() == ' ')) stored.pop_back();  // callers end the sentence
+  const std::string basis = fmt::format("stored with run {}: {}", latest.run.id, stored);
   switch (m) {
     case PipetteMeasure::systematic_ul: {
       const double lim = num(l, "systematic_ul");
