@@ -141,6 +141,7 @@ void chart_block(const json& c, const json& run, Document& doc) {
   s.series.resize(per_channel ? static_cast<std::size_t>(channels) : 1);
   for (std::size_t i = 0; i < s.series.size(); ++i)
     s.series[i].name = per_channel ? fmt::format("channel {}", i + 1) : channels > 1 ? "all channels" : "e_s";
+  bool any_failed = false;
   for (const auto& tv : volumes) {
     const double v = num(tv, "selected_ul");
     const double scale = in_pct ? (v > 0 ? 100 / v : 0) : 1;  // uL -> % of the selected volume
@@ -148,8 +149,10 @@ void chart_block(const json& c, const json& run, Document& doc) {
     for (const auto& ch : tv.value("channels", json::array())) {
       const double n = num(ch, "n");
       const double u = n > 0 ? 2 * num(ch, "random_error_ul") / std::sqrt(n) * scale : 0;
+      const bool failed = ch.value("verdict", "") != "pass";
+      any_failed = any_failed || failed;
       s.series[per_channel ? i : 0].points.push_back(
-          {v, num(ch, in_pct ? "systematic_error_pct" : "systematic_error_ul"), u, false});
+          {v, num(ch, in_pct ? "systematic_error_pct" : "systematic_error_ul"), u, failed});
       ++i;
     }
     const json& chs = tv.value("channels", json::array());
@@ -166,6 +169,7 @@ void chart_block(const json& c, const json& run, Document& doc) {
                          in_pct ? " in % of the selected volume" : ""),
              "The limits are known at the tested volumes only: each is marked there; the dotted line joining them "
              "is a guide."};
+  if (any_failed) s.notes.push_back("Ringed: a channel that failed its limits at that volume (see the reasons below).");
   s.width = 720;
   s.height = 360;
   doc.blocks.push_back(Heading{"Systematic error per test volume"});
