@@ -1,5 +1,7 @@
 #include "app/certificate_history.hpp"
 
+#include <algorithm>
+
 #include "app/instrument_history.hpp"
 #include "store/repository.hpp"
 
@@ -8,10 +10,14 @@ namespace plumb::app {
 nlohmann::json certificate_history(store::Database& db, const store::RunRecord& run) {
   if (!store::instrument_exists(db.sql(), run.instrument_id)) return nullptr;
   const InstrumentInfo inst = find_instrument(db, run.instrument_id);
-  const auto keys = quantity_keys(inst.kind);
-  if (keys.empty()) return nullptr;
-  const HistoryQuantity& q = find_quantity(keys.front(), inst);
-  if (q.procedure != run.procedure) return nullptr;
+  // The first quantity of the instrument's kind read from runs of this procedure (bias for a weekly check, the
+  // error at the largest load for a calibration, e_s % for a pipette).
+  const auto& table = history_quantities();
+  const auto found = std::find_if(table.begin(), table.end(), [&](const HistoryQuantity& h) {
+    return h.instrument_kind == inst.kind && h.procedure == run.procedure;
+  });
+  if (found == table.end()) return nullptr;
+  const HistoryQuantity& q = *found;
   const report::SeriesView s = series_view(db, inst, q, {std::nullopt, run.performed_on});
   nlohmann::json points = nlohmann::json::array();
   const std::size_t first = s.points.size() > certificate_history_points ? s.points.size() - certificate_history_points : 0;

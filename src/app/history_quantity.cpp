@@ -100,20 +100,66 @@ QuantityTolerance min_weight_tolerance(const RunContext&, const InstrumentInfo& 
                       inst.balance->smallest_net->to_string())};
 }
 
+// A calibration's error of indication at its largest load, from the final stage (as left after an adjustment,
+// else as found): E = I - m_ref with the U and the MPE the calibration itself computed (EURAMET cg-18 budget).
+const json* largest_load(const json& results) {
+  const bool left = results.value("final_stage", "") == "as-left" && results.contains("as_left") &&
+                    results["as_left"].is_object();
+  if (!left && !(results.contains("as_found") && results["as_found"].is_object())) return nullptr;
+  const json& set = left ? results["as_left"] : results["as_found"];
+  // Pointers into the stored results themselves: json::value() would return a copy.
+  if (!set.contains("loads") || !set["loads"].is_array()) return nullptr;
+  const json* best = nullptr;
+  for (const auto& l : set["loads"])
+    if (l.contains("reference_g") && l["reference_g"].is_number() &&
+        (!best || l["reference_g"].get<double>() > (*best)["reference_g"].get<double>()))
+      best = &l;
+  return best;
+}
+
+std::optional<QuantityValue> read_calibration_error(const RunContext& c) {
+  const json* l = largest_load(c.run.results);
+  if (!l) return std::nullopt;
+  const auto e = number(*l, "error_g"), u = number(*l, "U_g");
+  if (!e) return std::nullopt;
+  return QuantityValue{*e * mg_per_g, u.value_or(0.0) * mg_per_g};
+}
+
+QuantityTolerance calibration_error_tolerance(const RunContext& latest, const InstrumentInfo&) {
+  const json* l = largest_load(latest.run.results);
+  const auto t = l ? number(*l, "tolerance_g") : std::nullopt;
+  if (!t) return {{}, "no tolerance is stored with the latest calibration"};
+  const double mg = *t * mg_per_g;
+  return {{-mg, mg}, fmt::format("|E| <= {:.6g} mg at the largest load, stored with run {} ({})", mg, latest.run.id,
+                                 l->value("tolerance_basis", latest.run.results.value("policy_name", "")))};
+}
+
 std::vector<HistoryQuantity> make_table() {
   std::vector<HistoryQuantity> t;
   t.push_back({"bias", "balance", "repeatability", "Bias at the check load", "mg",
                "U (k = 2) of the bias combines s / sqrt(n), the reference weight's U / k and the rounding of the "
                "zero indication d / (2 sqrt 3) (GUM)",
-               read_bias, [](const RunContext& c) { return "Bias at " + load_text(c); }, bias_tolerance});
+               read_bias, [](const RunContext& c) { return "Bias at " + load_text(c); }, bias_tolerance, {}, true});
   t.push_back({"sd", "balance", "repeatability", "Repeatability SD", "mg",
                "U (k = 2) of the SD is 2 s / sqrt(2 (n - 1)), the spread of a sample SD of n normal readings "
                "(GUM E.4.3)",
-               read_sd, [](const RunContext& c) { return "Repeatability SD at " + load_text(c); }, sd_tolerance});
+               read_sd, [](const RunContext& c) { return "Repeatability SD at " + load_text(c); }, sd_tolerance, {},
+               true});
   t.push_back({"min-weight", "balance", "repeatability", "Minimum weight (USP <41>)", "mg",
                "U (k = 2) of the minimum weight is 2000 U(s) when s > 0.41 d, else 0 (the 0.41 d floor sets it)",
                read_min_weight, [](const RunContext&) { return std::string("Minimum weight (USP <41>)"); },
-               min_weight_tolerance});
+               min_weight_tolerance, {}, false});
+  t.push_back({"cal-error", "balance", "calibration", "Error of indication at the largest load", "mg",
+               "U (k from Welch-Satterthwaite, about 95 %) is the calibration's own EURAMET cg-18 budget at that load",
+               read_calibration_error,
+               [](const RunContext& c) {
+                 const json* l = largest_load(c.run.results);
+                 const auto ref = l ? number(*l, "reference_g") : std::nullopt;
+                 return ref ? fmt::format("Error of indication at {:.4g} g (final stage)", *ref)
+                            : std::string("Error of indication at the largest load");
+               },
+               calibration_error_tolerance, {}, false});
+  for (auto& q : pipette_quantities()) t.push_back(std::move(q));
   return t;
 }
 
@@ -131,9 +177,20 @@ std::vector<std::string> quantity_keys(const std::string& instrument_kind) {
   return keys;
 }
 
-const HistoryQuantity& find_quantity(const std::string& key, const InstrumentInfo& instrument) {
-  for (const auto& q : history_quantities())
-    if (q.key == key && q.instrument_kind == instrument.kind) return q;
+HistoryQuantity find_quantity(const std::string& key_and_selector, const InstrumentInfo& instrument) {
+  const auto at = key_and_selector.find('@');
+  std::string key = key_and_selector.substr(0, at);
+  // No --quantity: the first quantity of the instrument's kind (bias for a balance, e_s % for a pipette).
+  if (key.empty() && at == std::string::npos)
+    if (const auto keys = quantity_keys(instrument.kind); !keys.empty()) key = keys.front();
+  for (const auto& q : history_quantities()) {
+    if (q.key != key || q.instrument_kind != instrument.kind) continue;
+    if (at == std::string::npos) return q;
+    if (!q.select)
+      throw InputError(fmt::format("--quantity \"{}\": {} is read at one point of a run and takes no '@' selector.",
+                                   key_and_selector, key));
+    return q.select(key_and_selector.substr(at + 1));
+  }
   const auto keys = quantity_keys(instrument.kind);
   if (keys.empty())
     throw InputError(fmt::format("--quantity \"{}\": plumb charts no quantity of a {} yet (instrument {}).", key,

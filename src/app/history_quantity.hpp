@@ -53,13 +53,24 @@ struct HistoryQuantity {
   std::function<std::string(const RunContext&)> axis_label;
   /// The limits that apply now: from the latest run and the instrument's record.
   std::function<QuantityTolerance(const RunContext&, const InstrumentInfo&)> tolerance;
+  /// For quantities read at one point of a run (a pipette's test volume and channel): the quantity at the
+  /// point `selector` names ("10" or "10uL/ch3", the text after '@' in --quantity); empty when there is none.
+  std::function<HistoryQuantity(const std::string& selector)> select;
+  /// Watched in the HTML report: control chart and drift for each instrument.
+  bool watched = false;
 };
+
+/// A pipette's systematic error in uL ("systematic-error") or % ("relative-systematic-error"), or its CV ("cv"), at
+/// one test volume (default: the largest of each run) and channel (default: the worst channel of each run).
+/// Defined in history_quantity_pipette.cpp.
+std::vector<HistoryQuantity> pipette_quantities();
 
 /// Every quantity plumb can chart.
 const std::vector<HistoryQuantity>& history_quantities();
 
-/// The quantity `key` for this instrument; InputError naming --quantity and the keys that apply otherwise.
-const HistoryQuantity& find_quantity(const std::string& key, const InstrumentInfo& instrument);
+/// The quantity `key` (optionally `key@selector`) for this instrument; InputError naming --quantity and the keys
+/// that apply otherwise.
+HistoryQuantity find_quantity(const std::string& key, const InstrumentInfo& instrument);
 
 /// The keys that apply to an instrument kind, in table order.
 std::vector<std::string> quantity_keys(const std::string& instrument_kind);

@@ -95,9 +95,10 @@ report::HtmlReport history_report(store::Database& db, const HistoryReportReques
       if (d.id == id && d.kind != "weight") s.status = d.status;
     s.history = history_view(db, inst, {});
     const auto keys = quantity_keys(inst.kind);
-    // Bias and repeatability are what a reviewer watches; the minimum weight follows from the SD.
-    for (const auto& key : keys)
-      if (key == "bias" || key == "sd") add_trends(db, inst, find_quantity(key, inst), s);
+    // The watched quantities (bias and repeatability of a balance, e_s % and CV of a pipette); the others follow
+    // from them (the minimum weight from the SD) or repeat them in another unit.
+    for (const auto& q : history_quantities())
+      if (q.instrument_kind == inst.kind && q.watched) add_trends(db, inst, q, s);
     if (!keys.empty() && !s.history.rows.empty()) {
       const auto review = interval_review(db, {id, keys.front(), {}, std::nullopt});
       s.findings.push_back(fmt::format("Check interval: {} the current {} ({} days recommended). {}",

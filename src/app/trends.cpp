@@ -21,8 +21,9 @@ void add_basis_notes(report::ChartSpec& spec, const report::SeriesView& s) {
   spec.notes.insert(spec.notes.begin(), basis.begin(), basis.end());
 }
 
-void write_if_asked(const report::ChartSpec& spec, const std::optional<std::filesystem::path>& path) {
-  if (path) report::write_chart(spec, *path);
+void write_if_asked(report::ChartSpec spec, const TrendRequest& r) {
+  spec.full_scale = r.full_scale;
+  if (r.chart) report::write_chart(spec, *r.chart);
 }
 
 stats::Baseline choose_baseline(const ControlChartRequest& r, const report::SeriesView& s) {
@@ -62,7 +63,7 @@ report::SeriesView require_series(store::Database& db, const TrendRequest& r, st
   report::SeriesView s = series_view(db, inst, q, r.period);
   if (s.points.size() < at_least)
     throw InputError(fmt::format("instrument {} has {} result(s) of {} in the period; {} needs at least {}.",
-                                 r.instrument, s.points.size(), r.quantity, what, at_least));
+                                 r.instrument, s.points.size(), s.quantity.key, what, at_least));
   return s;
 }
 
@@ -111,8 +112,8 @@ report::HistoryView history(store::Database& db, const TrendRequest& r) {
     const report::SeriesView s = series_view(db, inst, q, r.period);
     if (s.points.empty())
       throw InputError(fmt::format("--chart: instrument {} has no result of {} in the period to draw.", r.instrument,
-                                   r.quantity));
-    write_if_asked(history_chart(s, view), r.chart);
+                                   q.key));
+    write_if_asked(history_chart(s, view), r);
   }
   return view;
 }
@@ -124,7 +125,7 @@ report::ControlChartView control_chart(store::Database& db, const ControlChartRe
   if (r.baseline_count || r.baseline_from || r.baseline_to) options.baseline = choose_baseline(r, v.series);
   options.unit = v.series.quantity.unit;
   v.chart = stats::individuals_chart(v.series.points, options);
-  write_if_asked(control_chart_spec(v), r.trend.chart);
+  write_if_asked(control_chart_spec(v), r.trend);
   return v;
 }
 
@@ -136,7 +137,7 @@ report::DriftView drift(store::Database& db, const TrendRequest& r) {
   options.unit = v.series.quantity.unit;
   options.quantity = v.series.quantity.label;
   v.drift = stats::analyse_drift(v.series.points, options);
-  write_if_asked(drift_chart_spec(v), r.chart);
+  write_if_asked(drift_chart_spec(v), r);
   return v;
 }
 

@@ -17,6 +17,7 @@ struct TrendRequest {
   std::string quantity = "bias";
   Period period;
   std::optional<std::filesystem::path> chart;  ///< .svg, .png or .pdf
+  bool full_scale = false;  ///< --full-scale: draw the whole tolerance band even when it flattens the data
 };
 
 /// Every run as a table; the chart (if asked for) shows `quantity`, superseded results drawn apart.

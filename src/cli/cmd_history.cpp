@@ -9,16 +9,21 @@ namespace plumb::cli {
 namespace {
 
 void instrument_options(po::options_description& d, po::positional_options_description& p,
-                        const std::string& quantities = "bias|sd|min-weight") {
+                        const std::string& quantities =
+                            "balance: bias (default)|sd|min-weight; pipette: relative-systematic-error (default)|"
+                            "systematic-error|cv, each optionally @VOLUME[/chN], e.g. cv@10uL/ch2") {
   d.add_options()("instrument", po::value<std::string>()->required(), "instrument id")(
-      "quantity", po::value<std::string>()->default_value("bias"), quantities.c_str())(
+      "quantity", po::value<std::string>()->default_value(""), quantities.c_str())(
       "from", po::value<std::string>(), "first date of the period, YYYY-MM-DD")(
       "to", po::value<std::string>(), "last date of the period, YYYY-MM-DD");
   p.add("instrument", 1);
 }
 
 void chart_option(po::options_description& d) {
-  d.add_options()("chart", po::value<std::string>(), "also draw the chart to FILE.svg, .png or .pdf");
+  d.add_options()("chart", po::value<std::string>(), "also draw the chart to FILE.svg, .png or .pdf")(
+      "full-scale", po::bool_switch(),
+      "draw the whole tolerance band even when it is over 20 times the span of the data (default: zoom to the "
+      "data and mark the limits off scale)");
 }
 
 app::TrendRequest trend_request(const po::variables_map& vm) {
@@ -27,6 +32,7 @@ app::TrendRequest trend_request(const po::variables_map& vm) {
   r.quantity = vm["quantity"].as<std::string>();
   r.period = app::parse_period(optional_string(vm, "from"), optional_string(vm, "to"));
   if (auto c = optional_string(vm, "chart")) r.chart = *c;
+  r.full_scale = vm.count("full-scale") && vm["full-scale"].as<bool>();
   return r;
 }
 

@@ -21,7 +21,9 @@ KeyValues instrument_block(const json& inst) {
   const std::pair<const char*, const char*> fields[] = {
       {"id", "Instrument"}, {"kind", "Kind"}, {"location", "Location"}, {"capacity_g", "Capacity (g)"},
       {"readability_g", "Readability d (g)"}, {"smallest_net_g", "Smallest net weight (g)"},
-      {"check_every", "Check interval"}};
+      {"check_every", "Check interval"}, {"volume_kind", "Volume"}, {"nominal_ul", "Nominal volume (uL)"},
+      {"lower_limit_ul", "Lowest selectable volume (uL)"}, {"channels", "Channels"}, {"limits_policy", "Limits policy"},
+      {"limits", "Limits"}, {"limits_source", "Limits source"}};
   for (const auto& [key, label] : fields)
     if (inst.contains(key) && !inst[key].is_null()) kv.rows.emplace_back(label, cell(inst, key));
   // Fields other kinds add (model, serial, volume ...) follow, so nothing stored is left off the page.
@@ -57,6 +59,8 @@ std::string cell(const json& j, const char* key, int significant) {
 const std::map<std::string, CertificateSections>& certificate_sections() {
   static const std::map<std::string, CertificateSections> kinds = {
       {"balance_check", balance_check_sections},
+      {"balance_calibration", balance_calibration_sections},
+      {"pipette_check", pipette_check_sections},
   };
   return kinds;
 }
@@ -88,7 +92,8 @@ Document certificate_document(const json& c, const std::string& content_sha256) 
   const bool pass = verdict == "pass";
   doc.blocks.push_back(VerdictBox{
       "VERDICT: " + upper(verdict.empty() ? "none" : verdict),
-      pass ? fmt::format("Next check due: {}", cell(c, "next_due"))
+      pass ? fmt::format("Next {} due: {}", c.value("kind", "") == "balance_calibration" ? "calibration" : "check",
+                         cell(c, "next_due"))
            : "The instrument is OUT OF SERVICE until a passing check.",
       pass});
   if (c.contains("decision_rule")) doc.blocks.push_back(Paragraph{"Decision rule: " + cell(c, "decision_rule")});

@@ -24,6 +24,8 @@ Document certificate_document(const nlohmann::json& certificate, const std::stri
 
 // Section builders of the kinds plumb issues, and helpers they share.
 void balance_check_sections(const nlohmann::json& certificate, Document& doc);
+void balance_calibration_sections(const nlohmann::json& certificate, Document& doc);
+void pipette_check_sections(const nlohmann::json& certificate, Document& doc);
 /// The recent history chart stored with a certificate ("history"), if any.
 void history_chart_section(const nlohmann::json& certificate, Document& doc);
 /// A JSON value as certificate text: strings as they are, numbers with up to `significant` digits, "-" for null.

@@ -84,6 +84,49 @@ struct Range {
   [[nodiscard]] bool empty() const { return lo > hi; }
 };
 
+// The y values the data need (points with error bars, zero, control lines, the fitted trend over the observed
+// span, model curves) and those the limits add (tolerance, limit curves, the extrapolated trend and its band).
+struct YRanges {
+  Range data, limits;
+};
+
+YRanges y_ranges(const ChartSpec& s) {
+  YRanges r;
+  for (const auto& series : s.series)
+    for (const auto& p : series.points) {
+      r.data.add(p.y - p.error.value_or(0));
+      r.data.add(p.y + p.error.value_or(0));
+    }
+  if (s.zero_line) r.data.add(0);
+  if (s.control) r.data.add(s.control->lower), r.data.add(s.control->upper);
+  if (s.trend) {
+    const auto& t = *s.trend;
+    r.data.add(t.y0), r.data.add(t.y1);
+    for (const auto& b : t.prediction_band) {
+      Range& into = b.x <= t.x1 ? r.data : r.limits;
+      into.add(b.lower), into.add(b.upper);
+    }
+    if (t.y_extrapolated) r.limits.add(*t.y_extrapolated);
+  }
+  for (const auto& c : s.curves)
+    for (const auto& [x, y] : c.points) (c.style == ChartCurve::Style::model ? r.data : r.limits).add(y);
+  if (s.tolerance) {
+    if (s.tolerance->lower) r.limits.add(*s.tolerance->lower);
+    if (s.tolerance->upper) r.limits.add(*s.tolerance->upper);
+  }
+  return r;
+}
+
+// Two significant digits: "400", "37", "2.5"; a ratio, not a measurement.
+std::string ratio_text(double r) {
+  const double p = std::pow(10.0, std::floor(std::log10(r)) - 1);
+  return fmt::format("{:.6g}", std::round(r / p) * p);
+}
+
+std::string signed_text(double v, const std::string& unit) {
+  return fmt::format("{:+.4g}{}", v, unit.empty() ? "" : " " + unit);
+}
+
 class Renderer {
 public:
   Renderer(cairo_t* cr, const ChartSpec& s, DrawRecord& rec) : cr_(cr), s_(s), rec_(rec) {}
@@ -117,33 +160,36 @@ private:
       rec_.add("text", {{"role", "subtitle"}}, s_.subtitle);
       y += sub.height();
     }
+    if (scale_.zoomed) {
+      // Said where the reader looks first, in the limit colour: the axis is not the full tolerance band.
+      Text zoom(cr_, scale_.statement, 10.5, true, false, s_.width - 2 * margin);
+      set_colour(cr_, tolerance_colour);
+      zoom.draw(margin, y);
+      rec_.add("scale", {{"zoomed", "true"}, {"ratio", ratio_text(scale_.ratio)}});
+      rec_.add("text", {{"role", "zoom-statement"}}, scale_.statement);
+      y += zoom.height();
+    }
     return y + 14;
   }
 
   void layout(double top) {
-    Range xr, yr;
+    Range xr;
     for (const auto& series : s_.series)
-      for (const auto& p : series.points) {
-        xr.add(p.x);
-        yr.add(p.y - p.error.value_or(0));
-        yr.add(p.y + p.error.value_or(0));
-      }
-    // Honest scaling: the limits, the zero line, control lines and the whole trend are always in view.
-    if (s_.tolerance) {
-      if (s_.tolerance->lower) yr.add(*s_.tolerance->lower);
-      if (s_.tolerance->upper) yr.add(*s_.tolerance->upper);
-    }
-    if (s_.zero_line) yr.add(0);
-    if (s_.control) {
-      yr.add(s_.control->lower);
-      yr.add(s_.control->upper);
-    }
+      for (const auto& p : series.points) xr.add(p.x);
     if (s_.trend) {
       const auto& t = *s_.trend;
-      xr.add(t.x0), xr.add(t.x1), yr.add(t.y0), yr.add(t.y1);
-      if (t.x_extrapolated && t.y_extrapolated) xr.add(*t.x_extrapolated), yr.add(*t.y_extrapolated);
-      for (const auto& b : t.prediction_band) xr.add(b.x), yr.add(b.lower), yr.add(b.upper);
+      xr.add(t.x0), xr.add(t.x1);
+      if (t.x_extrapolated) xr.add(*t.x_extrapolated);
+      for (const auto& b : t.prediction_band) xr.add(b.x);
     }
+    for (const auto& c : s_.curves)
+      for (const auto& pt : c.points) xr.add(pt.first);
+    // Honest scaling: every point with its error bar, the zero line, control lines and the fitted trend are
+    // always in view; the limits and the extrapolated trend too, unless the chart is zoomed to the data
+    // (scale_decision), when the limits left out are marked at the edge of the plot.
+    const YRanges ranges = y_ranges(s_);
+    Range yr = ranges.data;
+    if (!scale_.zoomed && !ranges.limits.empty()) yr.add(ranges.limits.lo), yr.add(ranges.limits.hi);
     if (xr.empty()) xr.add(0), xr.add(1);
     if (yr.empty()) yr.add(0), yr.add(1);
     // A little air so that no point sits on the frame.
@@ -201,8 +247,9 @@ private:
   // ---- plot area ----------------------------------------------------------------------------------
   void plot_background() {
     if (!s_.tolerance || (!s_.tolerance->lower && !s_.tolerance->upper)) return;
-    const double hi = s_.tolerance->upper ? Y(*s_.tolerance->upper) : top_;
-    const double lo = s_.tolerance->lower ? Y(*s_.tolerance->lower) : bottom_;
+    // Clamped to the plot: a zoomed chart may lie wholly inside the band.
+    const double hi = std::clamp(s_.tolerance->upper ? Y(*s_.tolerance->upper) : top_, top_, bottom_);
+    const double lo = std::clamp(s_.tolerance->lower ? Y(*s_.tolerance->lower) : bottom_, top_, bottom_);
     set_colour(cr_, tolerance_fill);
     cairo_rectangle(cr_, left_, hi, right_ - left_, lo - hi);
     cairo_fill(cr_);
@@ -256,10 +303,15 @@ private:
     if (s_.tolerance) {
       for (const auto& [side, v] : {std::pair{"lower", s_.tolerance->lower}, std::pair{"upper", s_.tolerance->upper}}) {
         if (!v) continue;
-        hline(*v, tolerance_colour, 1.6, false);
-        rec_.add("tolerance-limit", {{"side", side}, {"value", num(*v)}, {"py", px(Y(*v))}});
+        if (in_view(*v)) {
+          hline(*v, tolerance_colour, 1.6, false);
+          rec_.add("tolerance-limit", {{"side", side}, {"value", num(*v)}, {"py", px(Y(*v))}});
+        } else {
+          off_scale(*v > yt_.max, fmt::format("{} limit {}, off scale", side, signed_text(*v, s_.y.unit)), *v);
+        }
       }
     }
+    for (const auto& c : s_.curves) curve(c);
     if (s_.control) {
       hline(s_.control->centre, control_colour, 1.1, false);
       hline(s_.control->upper, control_colour, 1.1, true);
@@ -276,6 +328,70 @@ private:
       for (const auto& p : series.points) point(series.name, p, c);
     }
     cairo_restore(cr_);
+  }
+
+  [[nodiscard]] bool in_view(double y) const { return y >= yt_.min && y <= yt_.max; }
+
+  // A limit beyond the zoomed axis: a dashed edge, an arrowhead pointing out of the plot and a label saying
+  // which limit and where it is, so the reader knows the band goes on past the frame.
+  void off_scale(bool top, const std::string& label, double value) {
+    const double edge = top ? top_ + 1.5 : bottom_ - 1.5;
+    set_colour(cr_, tolerance_colour);
+    cairo_set_line_width(cr_, 2.2);
+    const double dash[] = {6, 4};
+    cairo_set_dash(cr_, dash, 2, 0);
+    cairo_move_to(cr_, left_, edge);
+    cairo_line_to(cr_, right_, edge);
+    cairo_stroke(cr_);
+    cairo_set_dash(cr_, nullptr, 0, 0);
+    double& x = top ? top_marker_x_ : bottom_marker_x_;
+    if (x == 0) x = left_ + 8;
+    const double dir = top ? -1 : 1;  // the arrow points away from the data, towards the limit
+    const double tip = edge + dir * 0.5, base = edge - dir * 9;
+    cairo_move_to(cr_, x, tip);
+    cairo_line_to(cr_, x - 5, base);
+    cairo_line_to(cr_, x + 5, base);
+    cairo_close_path(cr_);
+    cairo_fill(cr_);
+    Text t(cr_, label, 9, true);
+    const double ty = top ? edge + 3 : edge - 3 - t.height();
+    set_colour(cr_, {1, 1, 1}, 0.85);
+    cairo_rectangle(cr_, x + 8, ty, t.width() + 6, t.height());
+    cairo_fill(cr_);
+    set_colour(cr_, tolerance_colour);
+    t.draw(x + 11, ty);
+    rec_.add("off-scale-limit", {{"edge", top ? "top" : "bottom"}, {"value", num(value)}, {"py", px(edge)}});
+    rec_.add("text", {{"role", "off-scale-label"}}, label);
+    x += t.width() + 30;
+  }
+
+  void curve(const ChartCurve& c) {
+    if (c.points.size() < 2) return;
+    const bool limit = c.style == ChartCurve::Style::limit;
+    set_colour(cr_, limit ? tolerance_colour : trend_colour);
+    // A limit known at some points only: a bold bar at each point, joined by a thin dotted guide, so that no
+    // slope between two points is read as a limit nobody stated.
+    cairo_set_line_width(cr_, limit ? 0.9 : 2.0);
+    const double dots[] = {1.5, 2.5};
+    if (limit) cairo_set_dash(cr_, dots, 2, 0);
+    cairo_move_to(cr_, X(c.points.front().first), Y(c.points.front().second));
+    for (const auto& [x, y] : c.points) cairo_line_to(cr_, X(x), Y(y));
+    cairo_stroke(cr_);
+    cairo_set_dash(cr_, nullptr, 0, 0);
+    if (limit) {
+      cairo_set_line_width(cr_, 2.4);
+      for (const auto& [x, y] : c.points) {
+        cairo_move_to(cr_, X(x) - 9, Y(y));
+        cairo_line_to(cr_, X(x) + 9, Y(y));
+      }
+      cairo_stroke(cr_);
+    }
+    rec_.add("curve", {{"name", c.name}, {"style", limit ? "limit" : "model"}, {"points", std::to_string(c.points.size())}});
+    if (!limit) return;
+    double hi = -INFINITY, lo = INFINITY;
+    for (const auto& pt : c.points) hi = std::max(hi, pt.second), lo = std::min(lo, pt.second);
+    if (hi > yt_.max) off_scale(true, fmt::format("{} up to {}, off scale", c.name, signed_text(hi, s_.y.unit)), hi);
+    if (lo < yt_.min) off_scale(false, fmt::format("{} down to {}, off scale", c.name, signed_text(lo, s_.y.unit)), lo);
   }
 
   void trend() {
@@ -444,7 +560,16 @@ private:
         t += " (upper) " + with_unit(*s_.tolerance->upper);
       else if (s_.tolerance->lower)
         t += " (lower) " + with_unit(*s_.tolerance->lower);
-      y = legend_entry(y, line_symbol(tolerance_colour, 1.6, false), t);
+      const bool off = (s_.tolerance->lower && !in_view(*s_.tolerance->lower)) ||
+                       (s_.tolerance->upper && !in_view(*s_.tolerance->upper));
+      y = legend_entry(y, line_symbol(tolerance_colour, 1.6, false), off ? t + " (off scale, marked at the edge)" : t);
+    }
+    std::vector<std::string> named;  // an upper and a lower limit curve share one legend entry
+    for (const auto& c : s_.curves) {
+      if (std::find(named.begin(), named.end(), c.name) != named.end()) continue;
+      named.push_back(c.name);
+      const bool limit = c.style == ChartCurve::Style::limit;
+      y = legend_entry(y, line_symbol(limit ? tolerance_colour : trend_colour, limit ? 1.6 : 2.0, false), c.name);
     }
     if (s_.control) {
       y = legend_entry(y, line_symbol(control_colour, 1.1, false), "centre line " + with_unit(s_.control->centre));
@@ -485,6 +610,8 @@ private:
   cairo_t* cr_;
   const ChartSpec& s_;
   DrawRecord& rec_;
+  ScaleDecision scale_ = scale_decision(s_);
+  double top_marker_x_ = 0, bottom_marker_x_ = 0;
   AxisTicks xt_, yt_;
   double left_ = 0, right_ = 0, top_ = 0, bottom_ = 0, notes_h_ = 0;
   std::vector<std::string> shown_notes_;
@@ -513,6 +640,30 @@ std::string description(const ChartSpec& s) {
 }
 
 }  // namespace
+
+ScaleDecision scale_decision(const ChartSpec& s) {
+  const YRanges r = y_ranges(s);
+  if (s.full_scale || r.data.empty() || r.limits.empty()) return {};
+  // The band is measured from zero, so that a one-sided limit (s <= 5 mg) counts as the distance to it.
+  Range band = r.limits;
+  band.add(0);
+  const double data_span = r.data.hi - r.data.lo, band_width = band.hi - band.lo;
+  if (!(data_span > 0) || band_width <= zoom_threshold * data_span) return {};
+  ScaleDecision d{true, band_width / data_span, ""};
+  const std::string unit = s.y.unit.empty() ? "" : " " + s.y.unit;
+  std::string band_text;
+  const auto& t = s.tolerance;
+  if (t && t->lower && t->upper && std::abs(*t->lower + *t->upper) <= 1e-9 * band_width)
+    band_text = fmt::format("the tolerance band \u00b1{:.4g}{} is", *t->upper, unit);
+  else if (t && t->lower && t->upper)
+    band_text = fmt::format("the tolerance band {:.4g} to {:.4g}{} is", *t->lower, *t->upper, unit);
+  else
+    band_text = fmt::format("the limits (up to {:.4g}{} from zero) are", std::max(std::abs(band.lo), band.hi), unit);
+  d.statement = fmt::format("Scale zoomed to the data: {} {} times wider than the span of the results with their "
+                            "error bars; limits off scale are marked at the edge.",
+                            band_text, ratio_text(d.ratio));
+  return d;
+}
 
 void draw_chart(cairo_t* cr, const ChartSpec& spec) {
   validate(spec);

@@ -62,6 +62,19 @@ struct ControlLines {
   double centre = 0, lower = 0, upper = 0;
 };
 
+/// A named polyline in data coordinates: a fitted model across the loads, or a limit that changes along x
+/// (an MPE that steps up with the load). Limits are drawn like the tolerance band; models like the trend.
+struct ChartCurve {
+  enum class Style { model, limit };
+  std::string name;  ///< legend text
+  Style style = Style::model;
+  std::vector<std::pair<double, double>> points;
+};
+
+/// The tolerance band may be at most this many times the span of the data (with error bars and zero)
+/// before the chart zooms to the data; above it, a full-scale chart would draw the results as a flat line.
+constexpr double zoom_threshold = 20.0;
+
 struct ChartSpec {
   std::string title;     ///< instrument, quantity
   std::string subtitle;  ///< period, e.g. "2024-01-01 to 2024-12-16, 50 checks"
@@ -71,9 +84,19 @@ struct ChartSpec {
   bool zero_line = true;
   std::optional<TrendLine> trend;
   std::optional<ControlLines> control;
+  std::vector<ChartCurve> curves;
+  bool full_scale = false;  ///< never zoom: the tolerance band in view however flat it makes the data
   std::vector<std::string> notes;  ///< small print under the chart (caution, method)
   double width = 840, height = 520;  ///< in points (1/72 in); PNG is drawn at 2 pixels per point
 };
+
+/// How the y axis was chosen: the zoom is decided from the spec alone, so callers and tests can ask.
+struct ScaleDecision {
+  bool zoomed = false;
+  double ratio = 1.0;     ///< tolerance band width / span of the data, when zoomed
+  std::string statement;  ///< "scale zoomed to the data; the tolerance band ±100 mg is 400 times wider ..."
+};
+ScaleDecision scale_decision(const ChartSpec& spec);
 
 enum class ChartFormat { svg, png, pdf };
 

@@ -53,7 +53,14 @@ public:
 
   int run() {
     first_header();
-    for (const auto& b : doc_.blocks) std::visit([this](const auto& x) { block(x); }, b);
+    for (std::size_t i = 0; i < doc_.blocks.size(); ++i) {
+      // A heading over a chart moves to the next page with it: a chart never splits, so 40 points are not enough.
+      if (std::holds_alternative<Heading>(doc_.blocks[i]) && i + 1 < doc_.blocks.size())
+        if (const auto* chart = std::get_if<ChartBlock>(&doc_.blocks[i + 1]))
+          need(measure(std::get<Heading>(doc_.blocks[i]).text, 11, true, text_w) + 14 +
+               chart->spec.height * text_w / chart->spec.width + 6);
+      std::visit([this](const auto& x) { block(x); }, doc_.blocks[i]);
+    }
     footer();
     return page_;
   }
@@ -123,11 +130,13 @@ private:
   void continuation_header() {
     const auto& h = doc_.header;
     double y = margin_top;
-    text(h.lab_name + " \u2014 " + h.title, margin_x, y, 8.5, muted, false, false, text_w - 170);
+    // The number (with the status, which can be long) takes the width it needs; the lab and title wrap beside it.
     TextLayout num(cr_, "No. " + h.number + (h.status.empty() ? "" : " (" + h.status + ")"), 10, true);
     colour(cr_, ink);
     num.draw(page_w - margin_x - num.width(), y);
-    y += std::max(num.height(), 12.0) + 4;
+    const double left_h =
+        text(h.lab_name + " \u2014 " + h.title, margin_x, y, 8.5, muted, false, false, text_w - num.width() - 16);
+    y += std::max({num.height(), left_h, 12.0}) + 4;
     hrule(cr_, y, 0.8, ink);
     y_ = y + 10;
     top_of_body_ = y_;

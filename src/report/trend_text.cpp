@@ -72,7 +72,9 @@ std::string upper(std::string s) {
 std::string value_key(const std::string& key, const std::string& unit, const std::string& infix) {
   std::string k = key;
   std::replace(k.begin(), k.end(), '-', '_');
-  return infix.empty() ? k + "_" + unit : k + "_" + infix + "_" + unit;
+  // JSON and CSV keys end in the unit as DESIGN.md spells it: _mg, _ul, _pct.
+  const std::string u = unit == "%" ? "pct" : unit == "uL" ? "ul" : unit;
+  return infix.empty() ? k + "_" + u : k + "_" + infix + "_" + u;
 }
 
 // ---- history --------------------------------------------------------------------------------------

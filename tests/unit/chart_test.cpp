@@ -154,6 +154,58 @@ TEST_CASE("chart scaling keeps the tolerance band, zero line and every point in 
   }
 }
 
+TEST_CASE("chart zooms to the data when the tolerance band is over 20 times wider, and says so", "[report][chart][zoom]") {
+  // Worked by hand: results 0.2 and 0.3 mg with U = 0.1 mg span 0.1 to 0.4 mg; with zero in view the data span
+  // 0 to 0.4 = 0.4 mg. The band -100 to +100 mg is 200 mg wide: 200 / 0.4 = 500 times the data, above 20.
+  ChartSpec s = sample_spec();
+  s.trend.reset();
+  s.series[0].points.resize(2);
+  s.series[0].points[0].y = 0.2, s.series[0].points[0].error = 0.1;
+  s.series[0].points[1].y = 0.3, s.series[0].points[1].error = 0.1;
+  s.tolerance = ToleranceBand{-100.0, 100.0, "tolerance limit"};
+  REQUIRE(scale_decision(s).zoomed);
+  CHECK(scale_decision(s).ratio == Approx(500.0));
+
+  SECTION("zoomed: the axis fits the data, both limits are off-scale markers, the subtitle states the zoom") {
+    const std::string svg = render_chart(s, ChartFormat::svg);
+    const auto plot = xml_elements(svg, "plot").at(0);
+    CHECK(std::stod(plot.attr("y-min")) <= 0.0);  // zero stays in view
+    CHECK(std::stod(plot.attr("y-max")) >= 0.4);  // every error bar too
+    CHECK(std::stod(plot.attr("y-max")) < 1.0);   // and the scale is the data's, not the band's
+    const auto markers = xml_elements(svg, "off-scale-limit");
+    REQUIRE(markers.size() == 2);
+    CHECK(markers[0].attr("edge") == "bottom");
+    CHECK(std::stod(markers[0].attr("value")) == Approx(-100.0));
+    CHECK(markers[1].attr("edge") == "top");
+    CHECK(std::stod(markers[1].attr("value")) == Approx(100.0));
+    CHECK(xml_elements(svg, "tolerance-limit").empty());
+    const auto labels = texts_with_role(svg, "off-scale-label");
+    REQUIRE(labels.size() == 2);
+    CHECK_THAT(labels[1].text, Catch::Contains("upper limit +100 mg, off scale"));
+    CHECK_THAT(labels[0].text, Catch::Contains("lower limit -100 mg, off scale"));
+    const auto zoom = texts_with_role(svg, "zoom-statement");
+    REQUIRE(zoom.size() == 1);
+    CHECK_THAT(zoom[0].text, Catch::Contains("Scale zoomed to the data") && Catch::Contains("100 mg") &&
+                                 Catch::Contains("500 times wider"));
+  }
+  SECTION("--full-scale: the whole band in view, no markers, no zoom statement") {
+    s.full_scale = true;
+    CHECK_FALSE(scale_decision(s).zoomed);
+    const std::string svg = render_chart(s, ChartFormat::svg);
+    const auto plot = xml_elements(svg, "plot").at(0);
+    CHECK(std::stod(plot.attr("y-min")) <= -100.0);
+    CHECK(std::stod(plot.attr("y-max")) >= 100.0);
+    CHECK(xml_elements(svg, "off-scale-limit").empty());
+    CHECK(xml_elements(svg, "tolerance-limit").size() == 2);
+    CHECK(texts_with_role(svg, "zoom-statement").empty());
+  }
+  SECTION("a band 10 times the data is drawn in full (the rule zooms above 20 times only)") {
+    s.tolerance = ToleranceBand{-2.0, 2.0, "tolerance limit"};  // 4 / 0.4 = 10
+    CHECK_FALSE(scale_decision(s).zoomed);
+    CHECK(xml_elements(render_chart(s, ChartFormat::svg), "off-scale-limit").empty());
+  }
+}
+
 TEST_CASE("chart PDF holds the title and axis labels as real text (pdftotext)", "[report][chart][pdf]") {
   if (!have_pdftotext()) {
     WARN("skipped: pdftotext (poppler-utils) is not installed, so the PDF text cannot be extracted");
