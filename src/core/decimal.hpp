@@ -42,7 +42,7 @@ public:
   friend Decimal operator-(Decimal a, Decimal b);
   friend Decimal operator-(Decimal a) { return {-a.units_, a.scale_}; }
   friend std::strong_ordering operator<=>(Decimal a, Decimal b);
-  friend bool operator==(Decimal a, Decimal b) { return (a <=> b) == 0; }
+  friend bool operator==(Decimal a, Decimal b) { return std::is_eq(a <=> b); }
 
 private:
   std::int64_t units_ = 0;

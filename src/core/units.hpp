@@ -33,6 +33,7 @@ struct Mass {
   friend Mass operator*(Mass a, double k) { return {k * a.g}; }
   friend Mass operator/(Mass a, double k) { return {a.g / k}; }
   friend double operator/(Mass a, Mass b) { return a.g / b.g; }
+  // NOLINTNEXTLINE(modernize-use-nullptr): clang-tidy 14 misreads the literal 0 of a defaulted <=>.
   friend auto operator<=>(Mass a, Mass b) = default;
 };
 
@@ -44,6 +45,7 @@ struct Volume {
   friend Volume operator*(double k, Volume a) { return {k * a.ul}; }
   friend Volume operator/(Volume a, double k) { return {a.ul / k}; }
   friend double operator/(Volume a, Volume b) { return a.ul / b.ul; }
+  // NOLINTNEXTLINE(modernize-use-nullptr): clang-tidy 14 misreads the literal 0 of a defaulted <=>.
   friend auto operator<=>(Volume a, Volume b) = default;
 };
 
