@@ -94,17 +94,7 @@ std::string calibration_certificate_text(const json& c, const std::string& conte
   else
     add(fmt::format("RESULT: FAIL ({} {})    The balance is OUT OF SERVICE until a passing calibration.",
                     field_text(cal, "final_stage"), field_text(cal, "final_state")));
-  add("");
-  add("Signatures");
-  for (const auto& s : c.value("signatories", json::array())) {
-    const std::string name = field_text(s, "name", "");
-    add(fmt::format("  {:<14} {:<24} signature ____________________  date __________", field_text(s, "role") + ":",
-                    name.empty() ? "________________________" : name));
-  }
-  add("");
-  para(field_text(c, "caution"), "Caution: ", "  ");
-  add(rule());
-  add(fmt::format("Certificate content SHA-256: {}", content_sha256));
+  out += certificate_closing_text(c, content_sha256);
   return out;
 }
 

@@ -1,5 +1,7 @@
 #include "report/html_report.hpp"
 
+#include "report/chart_record.hpp"
+
 #include <fmt/format.h>
 
 #include <regex>
@@ -71,20 +73,7 @@ void history_table(std::string& out, const HistoryView& h) {
 
 }  // namespace
 
-std::string html_escape(std::string_view s) {
-  std::string out;
-  out.reserve(s.size());
-  for (char c : s) {
-    switch (c) {
-      case '&': out += "&amp;"; break;
-      case '<': out += "&lt;"; break;
-      case '>': out += "&gt;"; break;
-      case '"': out += "&quot;"; break;
-      default: out += c;
-    }
-  }
-  return out;
-}
+std::string html_escape(std::string_view s) { return xml_escape(s); }
 
 std::string inline_svg(const std::string& svg, const std::string& prefix) {
   std::string s = svg;

@@ -124,21 +124,8 @@ std::string pipette_certificate_text(const json& c, const std::string& content_s
     add(out, fmt::format("VERDICT: PASS    Next check due: {}", field_text(c, "next_due")));
   else
     add(out, "VERDICT: FAIL    The pipette is OUT OF SERVICE until a passing check.");
-  for (const auto& r : run.value("reasons", json::array()))
-    for (const auto& l : wrap(r.get<std::string>(), 78, "  - ", "    ")) add(out, l);
-  for (const auto& n : run.value("notes", json::array()))
-    for (const auto& l : wrap(n.get<std::string>(), 78, "  Note: ", "    ")) add(out, l);
-  add(out, "");
-  add(out, "Signatures");
-  for (const auto& s : c.value("signatories", json::array())) {
-    const std::string name = field_text(s, "name", "");
-    add(out, fmt::format("  {:<14} {:<24} signature ____________________  date __________", field_text(s, "role") + ":",
-                         name.empty() ? "________________________" : name));
-  }
-  add(out, "");
-  for (const auto& l : wrap(field_text(c, "caution"), 78, "Caution: ", "  ")) add(out, l);
-  add(out, rule());
-  add(out, fmt::format("Certificate content SHA-256: {}", content_sha256));
+  out += reasons_and_notes_text(run);
+  out += certificate_closing_text(c, content_sha256);
   return out;
 }
 

@@ -53,3 +53,30 @@ std::string fixed_grams_field(const nlohmann::json& j, const char* key, int deci
 }
 
 }  // namespace plumb::report
+
+namespace plumb::report {
+
+std::string certificate_closing_text(const nlohmann::json& c, const std::string& content_sha256) {
+  std::string out = "\nSignatures\n";
+  for (const auto& s : c.value("signatories", nlohmann::json::array())) {
+    const std::string name = field_text(s, "name", "");
+    out += fmt::format("  {:<14} {:<24} signature ____________________  date __________\n", field_text(s, "role") + ":",
+                       name.empty() ? "________________________" : name);
+  }
+  out += "\n";
+  for (const auto& l : wrap(field_text(c, "caution"), 78, "Caution: ", "  ")) out += l + "\n";
+  out += rule() + "\n";
+  out += fmt::format("Certificate content SHA-256: {}\n", content_sha256);
+  return out;
+}
+
+std::string reasons_and_notes_text(const nlohmann::json& result) {
+  std::string out;
+  for (const auto& r : result.value("reasons", nlohmann::json::array()))
+    for (const auto& l : wrap(r.get<std::string>(), 78, "  - ", "    ")) out += l + "\n";
+  for (const auto& n : result.value("notes", nlohmann::json::array()))
+    for (const auto& l : wrap(n.get<std::string>(), 78, "  Note: ", "    ")) out += l + "\n";
+  return out;
+}
+
+}  // namespace plumb::report

@@ -18,6 +18,11 @@ std::string field_text(const nlohmann::json& j, const char* key, const std::stri
 /// A gram value of a certificate or result: exact decimal strings print exactly in a readable unit,
 /// computed numbers through mass_text; "-" when absent.
 std::string grams_field(const nlohmann::json& j, const char* key);
+/// The closing part every text certificate shares: signature lines, the caution and the content hash.
+std::string certificate_closing_text(const nlohmann::json& certificate, const std::string& content_sha256);
+/// The reasons (each fail) and notes of a result, wrapped as list items.
+std::string reasons_and_notes_text(const nlohmann::json& result);
+
 /// A computed gram value with a fixed number of decimals ("-" when absent).
 std::string fixed_grams_field(const nlohmann::json& j, const char* key, int decimals);
 
