@@ -12,33 +12,13 @@
 #include "core/decimal.hpp"
 #include "metrology/density.hpp"
 #include "metrology/gravimetric.hpp"
+#include "support/csv.hpp"
 #include "support/paths.hpp"
 
 namespace {
 
-/// Data rows of a reference CSV: '#' lines skipped, the first other line is the header (checked).
 std::vector<std::vector<std::string>> read_csv(const std::filesystem::path& file, const std::string& header) {
-  std::ifstream in(file);
-  REQUIRE(in.good());
-  std::vector<std::vector<std::string>> rows;
-  std::string line;
-  bool header_seen = false;
-  while (std::getline(in, line)) {
-    if (!line.empty() && line.back() == '\r') line.pop_back();
-    if (line.empty() || line[0] == '#') continue;
-    if (!header_seen) {
-      REQUIRE(line == header);
-      header_seen = true;
-      continue;
-    }
-    std::vector<std::string> fields;
-    std::stringstream ss(line);
-    std::string f;
-    while (std::getline(ss, f, ',')) fields.push_back(f);
-    if (!line.empty() && line.back() == ',') fields.emplace_back();
-    rows.push_back(fields);
-  }
-  return rows;
+  return plumb::test::read_reference_rows(file, header);
 }
 
 /// Half a unit in the last printed decimal of `text`: the check value agrees to the digits it shows.

@@ -44,6 +44,24 @@ inline CsvTable read_reference_csv(const std::filesystem::path& file) {
   return t;
 }
 
+/// The data rows of a reference CSV as cells in file order, after checking that its header is exactly
+/// `expected_header` (so a column moved or renamed in the source fails loudly).
+inline std::vector<std::vector<std::string>> read_reference_rows(const std::filesystem::path& file,
+                                                                 const std::string& expected_header) {
+  const CsvTable t = read_reference_csv(file);
+  std::string header;
+  for (const auto& h : t.header) header += (header.empty() ? "" : ",") + h;
+  if (header != expected_header)
+    throw std::runtime_error(file.string() + ": header \"" + header + "\" is not \"" + expected_header + "\"");
+  std::vector<std::vector<std::string>> rows;
+  for (const auto& r : t.rows) {
+    std::vector<std::string> cells;
+    for (const auto& h : t.header) cells.push_back(r.at(h));
+    rows.push_back(std::move(cells));
+  }
+  return rows;
+}
+
 /// Decimals printed in a number's text ("2.025" -> 3).
 inline int printed_decimals(const std::string& text) {
   const auto dot = text.find('.');

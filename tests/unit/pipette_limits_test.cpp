@@ -12,6 +12,7 @@
 #include "core/errors.hpp"
 #include "metrology/pipette_balance_requirements.hpp"
 #include "metrology/pipette_limits.hpp"
+#include "support/csv.hpp"
 #include "support/paths.hpp"
 
 using Catch::Matchers::Contains;
@@ -23,26 +24,7 @@ namespace pb = plumb::pipette_balance;
 namespace {
 
 std::vector<std::vector<std::string>> read_csv(const std::filesystem::path& file, const std::string& header) {
-  std::ifstream in(file);
-  REQUIRE(in.good());
-  std::vector<std::vector<std::string>> rows;
-  std::string line;
-  bool header_seen = false;
-  while (std::getline(in, line)) {
-    if (!line.empty() && line.back() == '\r') line.pop_back();
-    if (line.empty() || line[0] == '#') continue;
-    if (!header_seen) {
-      REQUIRE(line == header);
-      header_seen = true;
-      continue;
-    }
-    std::vector<std::string> fields;
-    std::stringstream ss(line);
-    std::string f;
-    while (std::getline(ss, f, ',')) fields.push_back(f);
-    rows.push_back(fields);
-  }
-  return rows;
+  return plumb::test::read_reference_rows(file, header);
 }
 
 Decimal dec(const char* s) { return Decimal::parse(s); }
