@@ -41,6 +41,12 @@ void print_run(const store::RunRecord& run, const std::string& format, Env& env,
   else env.out << report::run_text(j);
 }
 
+/// Every recording prints the run and, with --gate, exits 1 when the check failed.
+int print_and_gate(const store::RunRecord& run, const po::variables_map& vm, const std::string& format, Env& env) {
+  print_run(run, format, env);
+  return vm["gate"].as<bool>() && run.verdict == Verdict::fail ? 1 : 0;
+}
+
 int record_calibration(const po::variables_map& vm, Env& env, const std::string& format) {
   if (vm.count("weight"))
     throw InputError("--weight is not used by a calibration: the run file names the weights of each load.");
@@ -58,8 +64,7 @@ int record_calibration(const po::variables_map& vm, Env& env, const std::string&
   in.model = vm["model"].as<std::string>();
   auto db = env.open();
   const auto run = app::record_calibration(db, Env::actor(vm), in);
-  print_run(run, format, env);
-  return vm["gate"].as<bool>() && run.verdict == Verdict::fail ? 1 : 0;
+  return print_and_gate(run, vm, format, env);
 }
 
 std::string required(const po::variables_map& vm, const char* name, const char* what) {
@@ -84,8 +89,7 @@ int record_pipette(const po::variables_map& vm, Env& env, const std::string& for
   in.operator_name = vm["by"].as<std::string>();
   auto db = env.open();
   const auto run = app::record_pipette_check(db, Env::actor(vm), in);
-  print_run(run, format, env);
-  return vm["gate"].as<bool>() && run.verdict == Verdict::fail ? 1 : 0;
+  return print_and_gate(run, vm, format, env);
 }
 
 }  // namespace
@@ -147,8 +151,7 @@ std::vector<Command> check_commands() {
         in.operator_name = vm["by"].as<std::string>();
         auto db = env.open();
         const auto run = app::record_check(db, Env::actor(vm), in);
-        print_run(run, format, env);
-        return vm["gate"].as<bool>() && run.verdict == Verdict::fail ? 1 : 0;
+        return print_and_gate(run, vm, format, env);
       }};
   Command show{"check", "show", "show one check run with its results", "plumb check show LAST --format json",
                [](po::options_description& d, po::positional_options_description& p) {
