@@ -24,10 +24,23 @@ bool in(const json& row, const char* column, const std::set<std::int64_t>& ids) 
 
 bool is_id(const json& row, const char* column, std::int64_t id) { return in(row, column, {id}); }
 
-json row_of(const store::AuditRecord& r) {
-  if (!r.after_json) return json::object();
-  json row = json::parse(*r.after_json, nullptr, false);
-  return row.is_object() ? row : json::object();
+struct RecordedRow {
+  std::string table;
+  json row;
+};
+
+/// The rows an audit record describes: one for "insert", several (of one or more tables) for "insert rows".
+std::vector<RecordedRow> rows_of(const store::AuditRecord& r) {
+  if (!r.after_json) return {};
+  json after = json::parse(*r.after_json, nullptr, false);
+  if (!after.is_object()) return {};
+  if (r.action != "insert rows") return {{r.table_name, std::move(after)}};
+  std::vector<RecordedRow> out;
+  for (auto& [table, rows] : after.items())
+    if (rows.is_array())
+      for (auto& row : rows)
+        if (row.is_object()) out.push_back({table, std::move(row)});
+  return out;
 }
 
 std::vector<store::AuditRecord> of_instrument(const std::vector<store::AuditRecord>& all, const std::string& id) {
@@ -35,14 +48,17 @@ std::vector<store::AuditRecord> of_instrument(const std::vector<store::AuditReco
   std::vector<store::AuditRecord> out;
   // Parents are always recorded before their children, so one pass in trail order collects the ids.
   for (const auto& r : all) {
-    const json row = row_of(r);
-    const bool related = (r.table_name == "instruments" && is(row, "id", id)) || is(row, "instrument_id", id) ||
-                         (is(row, "item_kind", "instrument") && is(row, "item_id", id)) || in(row, "run_id", runs) ||
-                         in(row, "certificate_id", certificates);
-    if (!related) continue;
-    if (r.table_name == "check_runs" && row.contains("id")) runs.insert(row["id"].get<std::int64_t>());
-    if (r.table_name == "certificates" && row.contains("id")) certificates.insert(row["id"].get<std::int64_t>());
-    out.push_back(r);
+    bool related = false;
+    for (const auto& [table, row] : rows_of(r)) {
+      if (!((table == "instruments" && is(row, "id", id)) || is(row, "instrument_id", id) ||
+            (is(row, "item_kind", "instrument") && is(row, "item_id", id)) || in(row, "run_id", runs) ||
+            in(row, "certificate_id", certificates)))
+        continue;
+      related = true;
+      if (table == "check_runs" && row.contains("id")) runs.insert(row["id"].get<std::int64_t>());
+      if (table == "certificates" && row.contains("id")) certificates.insert(row["id"].get<std::int64_t>());
+    }
+    if (related) out.push_back(r);
   }
   return out;
 }
@@ -51,11 +67,12 @@ std::vector<store::AuditRecord> of_certificate(const std::vector<store::AuditRec
                                                const store::CertificateRecord& c) {
   std::vector<store::AuditRecord> out;
   for (const auto& r : all) {
-    const json row = row_of(r);
-    const bool related = r.table_name == "certificates"
-                             ? is_id(row, "id", c.id) || is_id(row, "supersedes", c.id)
-                             : (r.table_name == "check_runs" && is_id(row, "id", c.run_id)) ||
-                                   is_id(row, "run_id", c.run_id) || is_id(row, "certificate_id", c.id);
+    bool related = false;
+    for (const auto& [table, row] : rows_of(r))
+      related = related || (table == "certificates"
+                                ? is_id(row, "id", c.id) || is_id(row, "supersedes", c.id)
+                                : (table == "check_runs" && is_id(row, "id", c.run_id)) ||
+                                      is_id(row, "run_id", c.run_id) || is_id(row, "certificate_id", c.id));
     if (related) out.push_back(r);
   }
   return out;

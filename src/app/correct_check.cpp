@@ -73,7 +73,8 @@ CorrectionOutcome correct_check(store::Database& db, const store::Actor& actor, 
   check.reason = in.reason;
 
   store::Recorder rec(db.sql(), actor);
-  const std::int64_t id = record_check_in(db, rec, check);
+  CheckLookups lookups(db);
+  const std::int64_t id = record_check_in(rec, lookups, check);
   out.correction = *store::find_run(db.sql(), id);
   // Throwing here still writes nothing: the transaction is rolled back.
   if (same_record(out.original, out.correction))

@@ -26,35 +26,30 @@ std::string as_column_message(std::string message) {
   return message;
 }
 
-std::string readings_csv_of(const HistoryRun& run) {
-  std::string csv = "reading,unit\n";
-  for (const auto& r : run.readings) csv += fmt::format("{},{}\n", r.reading.text, to_string(r.reading.unit));
-  return csv;
-}
-
 class Importer {
 public:
   Importer(store::Database& db, store::Recorder& rec, std::string source)
-      : db_(db), rec_(rec), source_(std::move(source)), verdict_of_(db.sql(), "SELECT verdict FROM check_runs WHERE id = ?") {}
+      : rec_(rec), lookups_(db), source_(std::move(source)),
+        verdict_of_(db.sql(), "SELECT verdict FROM check_runs WHERE id = ?") {}
 
-  void record(const HistoryRun& run) {
+  void record(HistoryRun& run) {
     CheckInput in;
-    in.instrument_id = run.instrument;
-    in.procedure = run.procedure;
-    in.weight_ids = run.weights;
+    in.instrument_id = std::move(run.instrument);
+    in.procedure = std::move(run.procedure);
+    in.weight_ids = std::move(run.weights);
     in.on = run.date;
-    in.operator_name = run.operator_name;
+    in.operator_name = std::move(run.operator_name);
     in.readings_source = source_;
-    in.readings_csv = readings_csv_of(run);
-    for (const auto& r : run.readings) in.reading_lines.push_back(r.line);
+    const long long readings = static_cast<long long>(run.readings.size());
+    in.parsed_readings = std::move(run.readings);
     std::int64_t id = 0;
     try {
-      id = record_check_in(db_, rec_, in);
+      id = record_check_in(rec_, lookups_, in);
     } catch (const InputError& e) {
       std::string message = e.what();
       if (message.rfind(source_ + " line ", 0) == 0) throw;  // already names its line in the import file
       if (message.rfind(source_ + ": ", 0) == 0) message.erase(0, source_.size() + 2);
-      throw InputError(fmt::format("{} line {} (run of {} on {}): {}", source_, run.first_line, run.instrument,
+      throw InputError(fmt::format("{} line {} (run of {} on {}): {}", source_, run.first_line, in.instrument_id,
                                    run.date, as_column_message(message)));
     }
     verdict_of_.reset();
@@ -63,28 +58,28 @@ public:
     const bool failed = verdict_of_.getColumn(0).getString() == "fail";
 
     const Date on = parse_date(run.date, "date");
-    auto [it, fresh] = report_.instruments.try_emplace(run.instrument);
+    auto [it, fresh] = report_.instruments.try_emplace(in.instrument_id);
     ImportedInstrument& ins = it->second;
     if (fresh) ins.first_on = ins.last_on = on;
     ins.first_on = std::min(ins.first_on, on);
     ins.last_on = std::max(ins.last_on, on);
     ++ins.runs;
-    ins.readings += static_cast<long long>(run.readings.size());
+    ins.readings += readings;
     if (failed) {
       ++ins.failed;
-      report_.failures.push_back({id, run.instrument, run.date, run.first_line});
+      report_.failures.push_back({id, in.instrument_id, run.date, run.first_line});
     }
     if (report_.first_run_id == 0) report_.first_run_id = id;
     report_.last_run_id = id;
     ++report_.runs;
-    report_.readings += static_cast<long long>(run.readings.size());
+    report_.readings += readings;
   }
 
   ImportReport& report() { return report_; }
 
 private:
-  store::Database& db_;
   store::Recorder& rec_;
+  CheckLookups lookups_;
   std::string source_;
   SQLite::Statement verdict_of_;
   ImportReport report_;

@@ -12,6 +12,7 @@
 #include "core/errors.hpp"
 #include "core/readings_csv.hpp"
 #include "report/check_json.hpp"
+#include "store/calibration.hpp"
 #include "store/repository.hpp"
 
 namespace plumb::app {
@@ -20,23 +21,58 @@ namespace {
 /// Decimals a reading shows once expressed in grams: "100.0003" g -> 4; "100000.3" mg -> 4.
 int decimals_in_grams(const MassReading& r) { return r.value.scale() - exponent_to_gram(r.unit); }
 
-store::WeightRecord traceable_weight(store::Database& db, const std::string& id, Date on) {
-  if (!store::find_weight(db.sql(), id)) throw InputError(fmt::format("--weight \"{}\" is not a known reference weight.", id));
-  auto w = store::find_weight_on(db.sql(), id, on);
-  if (!w)
-    throw InputError(fmt::format("--weight {} has no calibration certificate dated on or before the check date {}.",
-                                 id, to_string(on)));
-  // A reference weight whose own calibration is overdue may not be used to verify an instrument.
-  if (days_between(w->current.due_on, on) > 0)
-    throw InputError(fmt::format("--weight {} was due for calibration on {} (certificate {}), before the check date "
-                                 "{}; an overdue weight cannot give a traceable check.",
-                                 id, to_string(w->current.due_on), w->current.certificate_no, to_string(on)));
-  return *w;
-}
-
 }  // namespace
 
 std::vector<std::string> known_procedures() { return {"repeatability", "calibration", "gravimetric"}; }
+
+void CheckLookups::require_lab() {
+  if (lab_checked_) return;
+  app::require_lab(db_);
+  lab_checked_ = true;
+}
+
+const store::BalanceRecord& CheckLookups::balance(const std::string& id) {
+  auto it = balances_.find(id);
+  if (it == balances_.end()) {
+    auto b = store::find_balance(db_.sql(), id);
+    if (!b) throw InputError(fmt::format("balance \"{}\" is not registered.", id));
+    it = balances_.emplace(id, std::move(*b)).first;
+  }
+  return it->second;
+}
+
+store::WeightRecord CheckLookups::traceable_weight(const std::string& id, Date on) {
+  auto it = weights_.find(id);
+  if (it == weights_.end()) {
+    auto w = store::find_weight(db_.sql(), id);
+    if (!w) throw InputError(fmt::format("--weight \"{}\" is not a known reference weight.", id));
+    WeightHistory h{std::move(*w), store::weight_calibrations_until(db_.sql(), id, Date{date::year{9999}, date::December, date::day{31}})};
+    it = weights_.emplace(id, std::move(h)).first;
+  }
+  const WeightHistory& h = it->second;
+  // The certificate in force on the check date: the latest dated on or before it (by date, then entry order).
+  const store::WeightCalibration* in_force = nullptr;
+  for (const auto& c : h.calibrations)
+    if (c.calibrated_on <= on) in_force = &c;
+  if (!in_force)
+    throw InputError(fmt::format("--weight {} has no calibration certificate dated on or before the check date {}.",
+                                 id, to_string(on)));
+  // A reference weight whose own calibration is overdue may not be used to verify an instrument.
+  if (days_between(in_force->due_on, on) > 0)
+    throw InputError(fmt::format("--weight {} was due for calibration on {} (certificate {}), before the check date "
+                                 "{}; an overdue weight cannot give a traceable check.",
+                                 id, to_string(in_force->due_on), in_force->certificate_no, to_string(on)));
+  store::WeightRecord w = h.weight;
+  w.current = *in_force;
+  return w;
+}
+
+void CheckLookups::require_in_service(const std::string& item_kind, const std::string& id) {
+  const std::string key = item_kind + '/' + id;
+  if (in_service_.count(key)) return;
+  app::require_in_service(db_, item_kind, id);  // throws when retired
+  in_service_[key] = true;
+}
 
 std::int64_t resolve_run(store::Database& db, const std::string& selector) {
   if (selector == "LAST") {
@@ -55,12 +91,13 @@ std::int64_t resolve_run(store::Database& db, const std::string& selector) {
 store::RunRecord record_check(store::Database& db, const store::Actor& actor, const CheckInput& in) {
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   store::Recorder rec(db.sql(), actor);
-  const std::int64_t id = record_check_in(db, rec, in);
+  CheckLookups lookups(db);
+  const std::int64_t id = record_check_in(rec, lookups, in);
   tx.commit();
   return *store::find_run(db.sql(), id);
 }
 
-std::int64_t record_check_in(store::Database& db, store::Recorder& rec, const CheckInput& in) {
+std::int64_t record_check_in(store::Recorder& rec, CheckLookups& lookups, const CheckInput& in) {
   const auto procedures = known_procedures();
   if (std::find(procedures.begin(), procedures.end(), in.procedure) == procedures.end())
     throw InputError(fmt::format("--procedure \"{}\" is not known (known: {}).", in.procedure,
@@ -76,17 +113,15 @@ std::int64_t record_check_in(store::Database& db, store::Recorder& rec, const Ch
   if (in.weight_ids.size() != 1)
     throw InputError(fmt::format("--weight: a repeatability check uses exactly one reference weight ({} given).",
                                  in.weight_ids.size()));
-  auto readings = parse_readings_csv(in.readings_csv, in.readings_source, in.default_unit);
-  if (in.reading_lines.size() == readings.size())
-    for (std::size_t i = 0; i < readings.size(); ++i) readings[i].line = in.reading_lines[i];
-  require_lab(db);
-  const auto balance = store::find_balance(db.sql(), in.instrument_id);
-  if (!balance) throw InputError(fmt::format("balance \"{}\" is not registered.", in.instrument_id));
-  const store::WeightRecord weight = traceable_weight(db, in.weight_ids[0], on);
+  const std::vector<CsvReading> readings =
+      in.parsed_readings ? *in.parsed_readings : parse_readings_csv(in.readings_csv, in.readings_source, in.default_unit);
+  lookups.require_lab();
+  const store::BalanceRecord* balance = &lookups.balance(in.instrument_id);
+  const store::WeightRecord weight = lookups.traceable_weight(in.weight_ids[0], on);
   // Retired items take no new checks; a correction of an earlier run is not a new check.
   if (!in.supersedes) {
-    require_in_service(db, "instrument", balance->id);
-    require_in_service(db, "weight", weight.id);
+    lookups.require_in_service("instrument", balance->id);
+    lookups.require_in_service("weight", weight.id);
   }
 
   const int allowed = balance->readability.in_grams().significant_scale();

@@ -1,10 +1,12 @@
 #pragma once
 // Recording a check run: validate everything (instrument, weights and their traceability, readings),
 // compute the results, judge them, schedule the next check, and write it all in one transaction.
+#include <map>
 #include <optional>
 #include <string>
 #include <vector>
 
+#include "core/readings_csv.hpp"
 #include "core/units.hpp"
 #include "store/database.hpp"
 #include "store/recorder.hpp"
@@ -23,14 +25,44 @@ struct CheckInput {
   std::string operator_name;
   std::optional<std::int64_t> supersedes;  ///< a correction: the run this one replaces
   std::string reason;                      ///< why it replaces it (required with supersedes)
-  /// For a batch import: the line of each reading in the import file, so that messages point there.
-  std::vector<int> reading_lines;
+  /// For a batch import: the readings already parsed, each with its line in the import file (readings_csv
+  /// is then not used).
+  std::optional<std::vector<CsvReading>> parsed_readings;
+};
+
+/// The registry look-ups that recording a check needs: the lab, the balance, the reference weight with the
+/// certificate valid on the check date, and whether both are in service. A batch import keeps one for the
+/// whole file: its transaction holds the registry still, so each balance and weight is read once, not once
+/// per run.
+class CheckLookups {
+public:
+  explicit CheckLookups(store::Database& db) : db_(db) {}
+
+  void require_lab();
+  /// The balance; InputError when it is not registered.
+  const store::BalanceRecord& balance(const std::string& id);
+  /// The weight with the certificate in force on `on`; InputError when it is unknown, has no certificate
+  /// dated on or before `on`, or that certificate was overdue on `on`.
+  store::WeightRecord traceable_weight(const std::string& id, Date on);
+  /// InputError when the instrument or weight is retired.
+  void require_in_service(const std::string& item_kind, const std::string& id);
+
+private:
+  struct WeightHistory {
+    store::WeightRecord weight;
+    std::vector<store::WeightCalibration> calibrations;  ///< oldest first
+  };
+  store::Database& db_;
+  bool lab_checked_ = false;
+  std::map<std::string, store::BalanceRecord> balances_;
+  std::map<std::string, WeightHistory> weights_;
+  std::map<std::string, bool> in_service_;  ///< key: kind + '/' + id
 };
 
 /// Validates, computes and records one check in its own transaction; nothing is written on error.
 store::RunRecord record_check(store::Database& db, const store::Actor& actor, const CheckInput& in);
-/// The same inside a transaction the caller holds (batch import); returns the new run id.
-std::int64_t record_check_in(store::Database& db, store::Recorder& rec, const CheckInput& in);
+/// The same inside a transaction the caller holds (batch import, correction); returns the new run id.
+std::int64_t record_check_in(store::Recorder& rec, CheckLookups& lookups, const CheckInput& in);
 
 /// "LAST" or a run number; InputError when there is no such run.
 std::int64_t resolve_run(store::Database& db, const std::string& selector);

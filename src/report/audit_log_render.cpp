@@ -24,6 +24,11 @@ std::string csv_field(const std::string& s) {
 std::string columns_text(const json& row) {
   std::string out;
   for (const auto& [name, value] : row.items()) {
+    if (value.is_object() && value.contains("sha256")) {  // a long text, recorded by its digest
+      out += fmt::format("{}{}=(SHA-256 {}...)", out.empty() ? "" : ", ", name,
+                         value["sha256"].get<std::string>().substr(0, 16));
+      continue;
+    }
     std::string v = value.is_string() ? value.get<std::string>() : value.dump();
     if (v.size() > 60) v = v.substr(0, 40) + fmt::format("... ({} characters; complete in --format json)", v.size());
     out += fmt::format("{}{}={}", out.empty() ? "" : ", ", name, v);
@@ -42,7 +47,13 @@ std::string audit_log_text(const std::string& scope, const std::vector<store::Au
     const json before = parsed_or_null(r.before_json);
     if (before.is_object()) out += fmt::format("        before: {}\n", columns_text(before));
     const json after = parsed_or_null(r.after_json);
-    if (after.is_object()) out += fmt::format("        after: {}\n", columns_text(after));
+    if (r.action == "insert rows" && after.is_object()) {
+      for (const auto& [table, rows] : after.items())
+        for (const auto& row : rows)
+          if (row.is_object()) out += fmt::format("        {}: {}\n", table, columns_text(row));
+    } else if (after.is_object()) {
+      out += fmt::format("        after: {}\n", columns_text(after));
+    }
   }
   return out;
 }

@@ -8,6 +8,7 @@
 #include <map>
 
 #include "store/recorder.hpp"
+#include "store/table_schema.hpp"
 
 namespace plumb::store {
 namespace {
@@ -21,66 +22,11 @@ std::optional<std::string> optional_text(const SQLite::Column& c) {
   return c.getString();
 }
 
-std::string value_text(const json& v) { return v.is_string() ? v.get<std::string>() : v.dump(); }
-
 /// A column's value for messages: strings quoted, long ones shortened.
 std::string shown(const json& v) {
   std::string s = v.dump();
   if (s.size() > 80) s = s.substr(0, 60) + fmt::format("... ({} characters)", s.size());
   return s;
-}
-
-struct ColumnInfo {
-  std::string name;
-  json default_value;  ///< what a column the trail does not mention holds
-};
-
-struct TableInfo {
-  std::vector<ColumnInfo> columns;
-  std::vector<std::string> key_columns;  ///< primary key in key order; empty: rowid
-};
-
-/// A column default as SQLite reports it (an SQL literal) turned into a value.
-json default_of(const SQLite::Column& c) {
-  if (c.isNull()) return json();
-  std::string lit = c.getString();
-  if (lit == "NULL") return json();
-  if (lit.size() >= 2 && lit.front() == '\'' && lit.back() == '\'') {
-    std::string s;
-    for (std::size_t i = 1; i + 1 < lit.size(); ++i) {
-      s += lit[i];
-      if (lit[i] == '\'' && lit[i + 1] == '\'') ++i;
-    }
-    return s;
-  }
-  try {
-    std::size_t used = 0;
-    const long long n = std::stoll(lit, &used);
-    if (used == lit.size()) return n;
-  } catch (const std::exception&) {
-  }
-  return lit;
-}
-
-TableInfo table_info(SQLite::Database& db, const std::string& table) {
-  TableInfo info;
-  SQLite::Statement q(db, fmt::format("PRAGMA table_info(\"{}\")", table));
-  std::vector<std::pair<int, std::string>> pk;
-  while (q.executeStep()) {
-    info.columns.push_back({q.getColumn(1).getString(), default_of(q.getColumn(4))});
-    if (const int n = q.getColumn(5).getInt(); n > 0) pk.emplace_back(n, q.getColumn(1).getString());
-  }
-  std::sort(pk.begin(), pk.end());
-  for (const auto& [_, name] : pk) info.key_columns.push_back(name);
-  return info;
-}
-
-/// The key as the Recorder writes it: "col=value,col=value".
-std::string key_of(const TableInfo& info, const json& row) {
-  std::string key;
-  for (const auto& k : info.key_columns)
-    key += fmt::format("{}{}={}", key.empty() ? "" : ",", k, row.contains(k) ? value_text(row[k]) : "?");
-  return key;
 }
 
 std::vector<std::string> audited_tables(SQLite::Database& db) {
@@ -103,27 +49,30 @@ std::string where_recorded(const AuditRecord& r) {
 }
 
 /// Columns in which a table row differs from a recorded row (defaults filled in for unmentioned columns).
-std::vector<std::string> differing_columns(const TableInfo& info, const json& recorded, const json& actual) {
+std::vector<std::string> differing_columns(const TableSchema& info, const json& recorded, const json& actual) {
   std::vector<std::string> out;
   for (const auto& c : info.columns) {
     const json expected = recorded.contains(c.name) ? recorded[c.name] : c.default_value;
-    if (expected != actual[c.name]) out.push_back(c.name);
+    if (!matches_recorded(expected, actual[c.name])) out.push_back(c.name);
   }
   for (const auto& [name, _] : recorded.items())
     if (!actual.contains(name)) out.push_back(name);
   return out;
 }
 
-AuditProblem field_problem(const TableInfo& info, const Recorded& rec, const json& actual, const std::string& field,
+AuditProblem field_problem(const TableSchema& info, const Recorded& rec, const json& actual, const std::string& field,
                            const std::string& key) {
-  const auto col = std::find_if(info.columns.begin(), info.columns.end(),
-                                [&](const ColumnInfo& c) { return c.name == field; });
-  const json recorded_value = rec.row.contains(field) ? rec.row[field] : (col != info.columns.end() ? col->default_value : json());
+  const ColumnSchema* col = info.column(field);
+  const json recorded = rec.row.contains(field) ? rec.row[field] : (col ? col->default_value : json());
   const std::string now = actual.contains(field) ? shown(actual[field]) : "absent (the column is gone)";
-  AuditProblem p{AuditProblem::Kind::field_mismatch, rec.record->seq, rec.record->table_name, key, field,
-                 rec.record->at, ""};
+  // A long text is recorded by its SHA-256: the original cannot be shown, only that it was different.
+  const std::string then = recorded.is_object() && recorded.contains("sha256")
+                               ? fmt::format("a different text (SHA-256 {}...)",
+                                             recorded["sha256"].get<std::string>().substr(0, 16))
+                               : shown(recorded);
+  AuditProblem p{AuditProblem::Kind::field_mismatch, rec.record->seq, info.name, key, field, rec.record->at, ""};
   p.message = fmt::format("{} {}, {}: field {} is {} in the table but {} was recorded.", p.table, key,
-                          where_recorded(*rec.record), field, now, shown(recorded_value));
+                          where_recorded(*rec.record), field, now, then);
   return p;
 }
 
@@ -203,26 +152,35 @@ AuditVerification verify_audit_trail(SQLite::Database& db) {
 
   // What the trail says each table holds, by primary key.
   const auto tables = audited_tables(db);
-  std::map<std::string, TableInfo> infos;
-  for (const auto& t : tables) infos[t] = table_info(db, t);
+  std::map<std::string, TableSchema> infos;
+  for (const auto& t : tables) infos[t] = read_table_schema(db, t);
   std::map<std::string, std::map<std::string, Recorded>> recorded;
-  for (const auto& r : records) {
-    if (r.action != "insert" || !r.after_json) continue;
-    const auto info = infos.find(r.table_name);
+  const auto expect = [&](const AuditRecord& r, const std::string& table, json row) {
+    const auto info = infos.find(table);
     if (info == infos.end()) {
-      out.problems.push_back({AuditProblem::Kind::row_missing, r.seq, r.table_name, r.row_key, "", r.at,
-                              fmt::format("{} {}, {}: the table {} no longer exists.", r.table_name, r.row_key,
-                                          where_recorded(r), r.table_name)});
-      continue;
+      out.problems.push_back({AuditProblem::Kind::row_missing, r.seq, table, r.row_key, "", r.at,
+                              fmt::format("{} {}, {}: the table {} no longer exists.", table, r.row_key,
+                                          where_recorded(r), table)});
+      return;
     }
-    json row = json::parse(*r.after_json, nullptr, false);
-    if (!row.is_object()) continue;  // an altered record; the chain check has reported it
-    const std::string key = key_of(info->second, row);
-    auto [it, fresh] = recorded[r.table_name].try_emplace(key, Recorded{&r, std::move(row), false});
+    if (!row.is_object()) return;  // an altered record; the chain check has reported it
+    const std::string key = key_text(info->second.key_columns, row);
+    auto [it, fresh] = recorded[table].try_emplace(key, Recorded{&r, std::move(row), false});
     if (!fresh)
-      out.problems.push_back({AuditProblem::Kind::duplicate_record, r.seq, r.table_name, key, "", r.at,
-                              fmt::format("{} {}, {}: the same row was already recorded by audit record {}.",
-                                          r.table_name, key, where_recorded(r), it->second.record->seq)});
+      out.problems.push_back({AuditProblem::Kind::duplicate_record, r.seq, table, key, "", r.at,
+                              fmt::format("{} {}, {}: the same row was already recorded by audit record {}.", table,
+                                          key, where_recorded(r), it->second.record->seq)});
+  };
+  for (const auto& r : records) {
+    if (!r.after_json) continue;
+    json after = json::parse(*r.after_json, nullptr, false);
+    if (r.action == "insert") {
+      expect(r, r.table_name, std::move(after));
+    } else if (r.action == "insert rows" && after.is_object()) {
+      for (auto& [table, rows] : after.items())
+        if (rows.is_array())
+          for (auto& row : rows) expect(r, table, std::move(row));
+    }
   }
 
   // Every row of every table against the trail.
@@ -232,14 +190,14 @@ AuditVerification verify_audit_trail(SQLite::Database& db) {
   };
   std::vector<Unaudited> unaudited;
   for (const auto& t : tables) {
-    const TableInfo& info = infos[t];
+    const TableSchema& info = infos[t];
     ++out.tables;
     SQLite::Statement q(db, fmt::format("SELECT * FROM \"{}\"", t));
     auto& expected = recorded[t];
     while (q.executeStep()) {
       ++out.rows;
       const json actual = row_json(q);
-      const std::string key = key_of(info, actual);
+      const std::string key = key_text(info.key_columns, actual);
       const auto it = expected.find(key);
       if (it == expected.end()) {
         unaudited.push_back({t, key, actual});
@@ -256,7 +214,7 @@ AuditVerification verify_audit_trail(SQLite::Database& db) {
   for (auto& [table, rows] : recorded) {
     for (auto& [key, rec] : rows) {
       if (rec.matched) continue;
-      const TableInfo& info = infos[table];
+      const TableSchema& info = infos[table];
       auto partner = unaudited.end();
       std::vector<std::string> diff;
       for (auto u = unaudited.begin(); u != unaudited.end(); ++u) {

@@ -4,11 +4,14 @@
 #include <SQLiteCpp/Database.h>
 #include <SQLiteCpp/Statement.h>
 
+#include <functional>
 #include <map>
 #include <memory>
 #include <nlohmann/json.hpp>
 #include <string>
 #include <vector>
+
+#include "store/table_schema.hpp"
 
 namespace plumb::store {
 
@@ -22,6 +25,8 @@ std::string current_os_user();
 /// Current UTC time, ISO 8601 with seconds and a Z.
 std::string utc_timestamp();
 
+class RowGroup;
+
 class Recorder {
 public:
   Recorder(SQLite::Database& db, Actor actor);
@@ -29,13 +34,29 @@ public:
   /// Inserts `row` (column -> string, integer or null) into `table` and appends the audit record.
   /// `key_columns` name the primary key; a single integer key absent from `row` is taken from the
   /// new rowid. Returns the rowid.
-  std::int64_t insert(const std::string& table, nlohmann::json row, const std::vector<std::string>& key_columns,
+  std::int64_t insert(const std::string& table, const nlohmann::json& row, const std::vector<std::string>& key_columns,
                       const std::string& reason = "");
+
+  /// Inserts rows that make one record together (a check run with its weights and readings) under one
+  /// audit record (action "insert rows"): the trail then reads one entry per thing a person recorded, and
+  /// a batch import does not write a trail record for every reading. `fill` inserts the rows.
+  void insert_together(const std::string& reason, const std::function<void(RowGroup&)>& fill);
 
   [[nodiscard]] const Actor& actor() const { return actor_; }
   [[nodiscard]] const std::string& now() const { return now_; }
 
 private:
+  friend class RowGroup;
+  struct Written {
+    std::int64_t rowid = 0;
+    nlohmann::json recorded;  ///< the row as the trail records it
+    std::string key;
+  };
+  /// Writes the row and returns it as the trail records it (every column, without reading it back).
+  Written write_row(const std::string& table, const nlohmann::json& row, const std::vector<std::string>& key_columns);
+  void append_audit(const std::string& action, const std::string& table, const std::string& key,
+                    const std::string& after_json, const std::string& reason);
+  const TableSchema& schema(const std::string& table);
   /// A prepared statement for `sql`, reset for reuse: a batch import inserts millions of rows with a
   /// handful of distinct statements, and preparing each one anew would cost more than the insert.
   SQLite::Statement& statement(const std::string& sql);
@@ -44,14 +65,38 @@ private:
   Actor actor_;
   std::string now_;  ///< one timestamp for the whole command
   std::map<std::string, std::unique_ptr<SQLite::Statement>> statements_;
+  std::map<std::string, TableSchema> schemas_;
+};
+
+/// The rows of one Recorder::insert_together call.
+class RowGroup {
+public:
+  /// As Recorder::insert, without an audit record of its own: the group's record covers the row.
+  std::int64_t insert(const std::string& table, const nlohmann::json& row, const std::vector<std::string>& key_columns);
+
+private:
+  friend class Recorder;
+  explicit RowGroup(Recorder& rec) : rec_(rec) {}
+  Recorder& rec_;
+  std::string first_table_, first_key_;
+  nlohmann::json tables_ = nlohmann::json::object();  ///< table -> array of rows as recorded
 };
 
 /// SHA-256 of `text` as lowercase hex (OpenSSL libcrypto).
 std::string sha256_hex(std::string_view text);
 
 /// The current row of `row` as a JSON object, column -> integer, text, real or null (a blob becomes
-/// "blob:" and its SHA-256). The trail's `after_json` is this object as canonical JSON.
+/// "blob:" and its SHA-256).
 nlohmann::json row_json(SQLite::Statement& row);
+
+/// Texts longer than this are recorded in the trail by their SHA-256 instead of a copy (stored results,
+/// certificate content): the table holds the text, the digest proves it unchanged, and the trail does not
+/// double the size of the database.
+constexpr std::size_t long_text_bytes = 256;
+/// The value the trail records for a stored value: a long text as {"sha256": hex}, anything else as is.
+nlohmann::json recorded_value(const nlohmann::json& stored);
+/// Whether a stored value is what the trail recorded (a copy, or the SHA-256 of a long text).
+bool matches_recorded(const nlohmann::json& recorded, const nlohmann::json& stored);
 
 /// The hash of an audit record: SHA-256 over the previous hash and the canonical JSON of the record.
 std::string audit_hash(const std::string& prev_hash, const nlohmann::json& record);

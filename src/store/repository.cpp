@@ -231,38 +231,41 @@ void add_balance(Recorder& rec, const BalanceRecord& b) {
 }
 
 std::int64_t add_run(Recorder& rec, const RunRecord& run) {
-  const std::int64_t id =
-      rec.insert("check_runs",
-                 {{"instrument_id", run.instrument_id},
-                  {"procedure", run.procedure},
-                  {"performed_on", to_string(run.performed_on)},
-                  {"operator", run.operator_name},
-                  {"results_json", run.results.dump()},
-                  {"verdict", std::string(to_string(run.verdict))},
-                  {"next_due", run.next_due ? json(to_string(*run.next_due)) : json()},
-                  {"supersedes", run.supersedes ? json(*run.supersedes) : json()},
-                  {"reason", run.reason.empty() ? json() : json(run.reason)},
-                  {"recorded_at", rec.now()},
-                  {"os_user", rec.actor().os_user}},
-                 {"id"}, run.reason);
-  int position = 1;
-  for (const auto& w : run.weights)
-    rec.insert("run_weights",
-               {{"run_id", id},
-                {"position", position++},
-                {"weight_id", w.weight_id},
-                {"weight_calibration_id", w.weight_calibration_id}},
-               {"run_id", "position"});
-  for (const auto& r : run.readings)
-    rec.insert("readings",
-               {{"run_id", id},
-                {"seq", r.seq},
-                {"series", r.series},
-                {"text", r.reading.text},
-                {"unit", std::string(to_string(r.reading.unit))},
-                {"units", r.reading.value.units()},
-                {"scale", r.reading.value.scale()}},
-               {"run_id", "seq"});
+  std::int64_t id = 0;
+  // One audit record for the run with its weights and readings: what the operator recorded, as one entry.
+  rec.insert_together(run.reason, [&](RowGroup& group) {
+    id = group.insert("check_runs",
+                      {{"instrument_id", run.instrument_id},
+                       {"procedure", run.procedure},
+                       {"performed_on", to_string(run.performed_on)},
+                       {"operator", run.operator_name},
+                       {"results_json", run.results.dump()},
+                       {"verdict", std::string(to_string(run.verdict))},
+                       {"next_due", run.next_due ? json(to_string(*run.next_due)) : json()},
+                       {"supersedes", run.supersedes ? json(*run.supersedes) : json()},
+                       {"reason", run.reason.empty() ? json() : json(run.reason)},
+                       {"recorded_at", rec.now()},
+                       {"os_user", rec.actor().os_user}},
+                      {"id"});
+    int position = 1;
+    for (const auto& w : run.weights)
+      group.insert("run_weights",
+                   {{"run_id", id},
+                    {"position", position++},
+                    {"weight_id", w.weight_id},
+                    {"weight_calibration_id", w.weight_calibration_id}},
+                   {"run_id", "position"});
+    for (const auto& r : run.readings)
+      group.insert("readings",
+                   {{"run_id", id},
+                    {"seq", r.seq},
+                    {"series", r.series},
+                    {"text", r.reading.text},
+                    {"unit", std::string(to_string(r.reading.unit))},
+                    {"units", r.reading.value.units()},
+                    {"scale", r.reading.value.scale()}},
+                   {"run_id", "seq"});
+  });
   return id;
 }
 

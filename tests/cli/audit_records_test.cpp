@@ -88,16 +88,21 @@ TEST_CASE("a correction supersedes the run and its certificate and keeps both vi
     if (rec["table"] == "check_runs") runs.push_back(rec);
     if (rec["table"] == "certificate_events") events.push_back(rec);
   }
+  // One record per run holds the run with its weight and its readings ("insert rows").
   REQUIRE(runs.size() == 2);
-  CHECK(runs[0]["after"]["id"] == 1);
+  CHECK(runs[0]["action"] == "insert rows");
+  CHECK(runs[0]["row_key"] == "id=1");
+  CHECK(runs[0]["after"]["check_runs"][0]["id"] == 1);
+  CHECK(runs[0]["after"]["run_weights"].size() == 1);
+  CHECK(runs[0]["after"]["readings"].size() == 10);
   CHECK(runs[0]["actor"] == "A. Technician");
-  CHECK(runs[1]["after"]["supersedes"] == 1);
+  CHECK(runs[1]["after"]["check_runs"][0]["supersedes"] == 1);
   CHECK(runs[1]["actor"] == "Q. Manager");
   CHECK(runs[1]["reason"] == "readings typed from the wrong worksheet");
   REQUIRE(events.size() == 1);
   CHECK(events[0]["after"]["event"] == "superseded");
-  // 10 readings per run, 1 weight per run, instrument and balance rows, 2 certificates: all in scope.
-  CHECK(log["records"].size() == 2 + 2 + 2 * 10 + 2 * 1 + 2 + 1);
+  // Instrument and balance rows, two runs (each with its weight and readings), 2 certificates, 1 event.
+  CHECK(log["records"].size() == 2 + 2 + 2 + 1);
 
   r = run_plumb({"--db", db, "audit", "log", "--certificate", old_number, "--format", "csv"}, dir.path());
   REQUIRE(r.status == 0);
@@ -223,8 +228,9 @@ TEST_CASE("audit verify exits 1 naming what the sqlite3 shell changed", "[cli][a
               .status == 0);
   auto r = run_plumb({"--db", db, "audit", "verify"}, dir.path());
   REQUIRE(r.status == 0);
-  // init 1 + weight 2 + balance 2 + run 1 + weight link 1 + 10 readings = 17 records.
-  CHECK_THAT(r.out, Catch::Contains("Audit trail verified: 17 records") && Catch::Contains("Last hash: "));
+  // Records: init 1 + weight 2 + balance 2 + the run 1 = 6; rows: 5 + the run, its weight link, 10 readings = 17.
+  CHECK_THAT(r.out, Catch::Contains("Audit trail verified: 6 records chained by SHA-256, 17 rows") &&
+                        Catch::Contains("Last hash: "));
 
   REQUIRE(sqlite3_shell(db, "DROP TRIGGER readings_no_update; UPDATE readings SET text = '100.0001' WHERE run_id = 1 "
                             "AND seq = 4;") == 0);
@@ -248,7 +254,7 @@ TEST_CASE("backup copies a verified database and restore puts it back, refusing 
   auto r = run_plumb({"--db", db, "backup", "copy.db"}, dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
-  CHECK_THAT(r.out, Catch::Contains("integrity check ok, audit trail verified (17 records"));
+  CHECK_THAT(r.out, Catch::Contains("integrity check ok, audit trail verified (6 records, 17 rows)"));
   CHECK(std::filesystem::exists(dir.file("copy.db")));
   CHECK_FALSE(std::filesystem::exists(dir.file("copy.db-wal")));
   CHECK(plumb::test::dump_database(dir.file("copy.db")) == plumb::test::dump_database(db));
@@ -265,7 +271,7 @@ TEST_CASE("backup copies a verified database and restore puts it back, refusing 
   CHECK(run_plumb({"--db", db, "restore", "copy.db"}, dir.path()).status == 2);  // exists: needs --force
   r = run_plumb({"--db", db, "restore", "copy.db", "--force"}, dir.path());
   REQUIRE(r.status == 0);
-  CHECK_THAT(r.out, Catch::Contains("17 audit records") && Catch::Contains("(29 audit records) was saved as"));
+  CHECK_THAT(r.out, Catch::Contains("6 audit records") && Catch::Contains("(7 audit records) was saved as"));
   CHECK(plumb::test::dump_database(db) == plumb::test::dump_database(dir.file("copy.db")));
 
   // A tampered backup is refused before anything is written; backing up a tampered database keeps nothing.
