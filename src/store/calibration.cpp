@@ -9,7 +9,7 @@ namespace {
 
 using nlohmann::json;
 
-json text_or_null(const std::optional<std::string>& s) { return s ? json(*s) : json(); }
+Value text_or_null(const std::optional<std::string>& s) { return s ? Value(*s) : Value(); }
 std::optional<std::string> optional_text(const SQLite::Column& c) {
   if (c.isNull()) return std::nullopt;
   return c.getString();
@@ -46,11 +46,11 @@ std::int64_t add_calibration_settings(Recorder& rec, const CalibrationSettings& 
       "balance_calibration_settings",
       {{"instrument_id", s.instrument_id},
        {"accuracy_class", text_or_null(s.accuracy_class)},
-       {"verification_interval_g", s.verification_interval ? json(s.verification_interval->in_grams().to_string())
-                                                           : json()},
+       {"verification_interval_g", s.verification_interval ? Value(s.verification_interval->in_grams().to_string())
+                                                           : Value()},
        {"tolerance", s.tolerance},
-       {"lab_limit_g", s.lab_limit ? json(s.lab_limit->in_grams().to_string()) : json()},
-       {"lab_percent", s.lab_percent ? json(s.lab_percent->to_string()) : json()},
+       {"lab_limit_g", s.lab_limit ? Value(s.lab_limit->in_grams().to_string()) : Value()},
+       {"lab_percent", s.lab_percent ? Value(s.lab_percent->to_string()) : Value()},
        {"decision_rule", s.decision_rule},
        {"calibrate_every", s.calibrate_every.to_string()},
        {"effective_on", to_string(s.effective_on)},

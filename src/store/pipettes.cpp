@@ -12,7 +12,7 @@ using nlohmann::json;
 
 Decimal trimmed(Decimal v) { return v.rescaled(v.significant_scale()); }
 
-json text_or_null(const std::optional<Decimal>& d) { return d ? json(trimmed(*d).to_string()) : json(); }
+Value text_or_null(const std::optional<Decimal>& d) { return d ? Value(trimmed(*d).to_string()) : Value(); }
 
 std::optional<Decimal> decimal_or_none(const SQLite::Column& c) {
   if (c.isNull()) return std::nullopt;
@@ -69,11 +69,11 @@ void add_pipette(Recorder& rec, const PipetteRecord& p) {
              {{"instrument_id", d.id},
               {"volume_kind", std::string(checks::to_string(d.kind))},
               {"nominal_ul", trimmed(d.nominal_ul).to_string()},
-              {"lower_limit_ul", d.kind == checks::PipetteKind::variable ? text_or_null(d.lower_limit_ul) : json()},
+              {"lower_limit_ul", d.kind == checks::PipetteKind::variable ? text_or_null(d.lower_limit_ul) : Value()},
               {"channels", d.channels},
               {"limits_policy", d.limits.key()},
-              {"max_systematic", lab ? text_or_null(d.limits.systematic) : json()},
-              {"max_random", lab ? text_or_null(d.limits.random) : json()}},
+              {"max_systematic", lab ? text_or_null(d.limits.systematic) : Value()},
+              {"max_random", lab ? text_or_null(d.limits.random) : Value()}},
              {"instrument_id"});
 }
 
@@ -99,7 +99,7 @@ void add_pipette_run_conditions(Recorder& rec, const PipetteRunConditions& c) {
               {"water_temperature_c", c.water_temperature_c.to_string()},
               {"air_pressure_hpa", c.air_pressure_hpa.to_string()},
               {"humidity_pct", c.humidity_pct.to_string()},
-              {"evaporation_g", c.evaporation ? json(c.evaporation->in_grams().to_string()) : json()}},
+              {"evaporation_g", c.evaporation ? Value(c.evaporation->in_grams().to_string()) : Value()}},
              {"run_id"});
 }
 

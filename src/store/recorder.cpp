@@ -8,9 +8,11 @@
 #include <unistd.h>
 
 #include <chrono>
+#include <algorithm>
 #include <cstdlib>
 
 #include "core/errors.hpp"
+#include "store/canonical_json.hpp"
 
 namespace plumb::store {
 
@@ -44,12 +46,6 @@ std::string sha256_hex(std::string_view text) {
 std::string audit_hash(const std::string& prev_hash, const json& record) {
   // nlohmann::json objects keep keys sorted, so dump() is canonical.
   return sha256_hex(prev_hash + "\n" + record.dump());
-}
-
-json recorded_value(const json& stored) {
-  if (stored.is_string() && stored.get_ref<const std::string&>().size() > long_text_bytes)
-    return {{"sha256", sha256_hex(stored.get_ref<const std::string&>())}};
-  return stored;
 }
 
 bool matches_recorded(const json& recorded, const json& stored) {
@@ -92,45 +88,128 @@ const TableSchema& Recorder::schema(const std::string& table) {
   return it->second;
 }
 
-Recorder::Written Recorder::write_row(const std::string& table, const json& row,
-                                      const std::vector<std::string>& key_columns) {
-  const TableSchema& s = schema(table);
-  // The trail records the row as stored without reading it back: so each value must be stored exactly as
-  // given (an integer in an INTEGER column, a text in a TEXT column), and unmentioned columns take their
-  // literal defaults.
+Recorder::Writer& Recorder::writer(const std::string& table, const Row& row) {
+  const auto same_columns = [&](const Writer& w) {
+    if (w.table != table || w.columns.size() != row.size()) return false;
+    for (std::size_t i = 0; i < row.size(); ++i)
+      if (w.columns[i] != row[i].column) return false;
+    return true;
+  };
+  for (auto& w : writers_)
+    if (same_columns(*w)) return *w;
+
+  auto w = std::make_unique<Writer>();
+  w->table = table;
+  w->schema = &schema(table);
   std::string columns, marks;
-  for (const auto& [name, value] : row.items()) {
-    const ColumnSchema* c = s.column(name);
-    if (!c) throw StorageError(fmt::format("table {} has no column {}.", table, name));
-    const bool fits = value.is_null() || (c->type == "INTEGER" && value.is_number_integer()) ||
-                      (c->type == "TEXT" && value.is_string());
-    if (!fits)
-      throw StorageError(fmt::format("column {}.{} ({}) cannot store {} exactly (exact values only).", table, name,
-                                     c->type, value.dump()));
-    columns += (columns.empty() ? "" : ", ") + name;
+  for (const auto& f : row) {
+    const ColumnSchema* c = w->schema->column(f.column);
+    if (!c) throw StorageError(fmt::format("table {} has no column {}.", table, f.column));
+    if (c->type != "INTEGER" && c->type != "TEXT")
+      throw StorageError(fmt::format("column {}.{} has type {}; plumb stores integers and texts only.", table,
+                                     f.column, c->type));
+    w->columns.emplace_back(f.column);
+    w->kinds.push_back(c->type == "INTEGER" ? Value::Kind::integer : Value::Kind::text);
+    columns += (columns.empty() ? "" : ", ") + std::string(f.column);
     marks += marks.empty() ? "?" : ", ?";
   }
-  SQLite::Statement& insert = statement(fmt::format("INSERT INTO {} ({}) VALUES ({})", table, columns, marks));
-  int i = 1;
-  for (const auto& [name, value] : row.items()) {
-    if (value.is_null()) insert.bind(i);
-    else if (value.is_number_integer()) insert.bind(i, value.get<std::int64_t>());
-    else insert.bind(i, value.get_ref<const std::string&>());
-    ++i;
+  w->insert = std::make_unique<SQLite::Statement>(db_, fmt::format("INSERT INTO {} ({}) VALUES ({})", table, columns, marks));
+  writers_.push_back(std::move(w));
+  return *writers_.back();
+}
+
+Recorder::Written Recorder::write_row(const std::string& table, const Row& row,
+                                      const std::vector<std::string>& key_columns, std::string& recorded) {
+  Writer& w = writer(table, row);
+  // The trail records the row as stored without reading it back: so each value must be stored exactly as
+  // given (an integer in an INTEGER column, a text in a TEXT column; no type conversion by SQLite).
+  SQLite::Statement& insert = *w.insert;
+  insert.reset();
+  insert.clearBindings();
+  for (std::size_t i = 0; i < row.size(); ++i) {
+    const Value& v = row[i].value;
+    const int at = static_cast<int>(i) + 1;
+    if (v.is_null()) {
+      insert.bind(at);
+      continue;
+    }
+    if (v.kind() != w.kinds[i])
+      throw StorageError(fmt::format("column {}.{} cannot store {} exactly (exact values only).", table, row[i].column,
+                                     v.kind() == Value::Kind::integer ? "an integer" : "a text"));
+    if (v.kind() == Value::Kind::integer) insert.bind(at, v.integer());
+    else insert.bind(at, v.text());
   }
   insert.exec();
 
-  Written w;
-  w.rowid = db_.getLastInsertRowid();
-  w.recorded = json::object();
-  for (const auto& c : s.columns) {
-    const auto given = row.find(c.name);
-    if (given != row.end()) w.recorded[c.name] = recorded_value(*given);
-    else if (c.rowid_alias) w.recorded[c.name] = w.rowid;
-    else w.recorded[c.name] = c.default_value;
+  Written out;
+  out.rowid = db_.getLastInsertRowid();
+  const auto given = [&](std::string_view column) -> const Value* {
+    for (const auto& f : row)
+      if (f.column == column) return &f.value;
+    return nullptr;
+  };
+  recorded += '{';
+  bool first = true;
+  for (const auto& c : w.schema->columns) {
+    if (!first) recorded += ',';
+    first = false;
+    append_json_string(recorded, c.name);
+    recorded += ':';
+    if (const Value* v = given(c.name)) {
+      if (v->kind() == Value::Kind::text && v->text().size() > long_text_bytes) {
+        recorded += R"({"sha256":")";  // a long text: its digest (see long_text_bytes)
+        recorded += sha256_hex(v->text());
+        recorded += "\"}";
+      } else {
+        append_json_value(recorded, *v);
+      }
+    } else if (c.rowid_alias) {
+      fmt::format_to(std::back_inserter(recorded), "{}", out.rowid);
+    } else {
+      recorded += c.default_value.dump();
+    }
   }
-  w.key = key_text(key_columns, w.recorded);
-  return w;
+  recorded += '}';
+
+  for (const auto& k : key_columns) {
+    if (!out.key.empty()) out.key += ',';
+    out.key += k;
+    out.key += '=';
+    const Value* v = given(k);
+    if (!v && w.schema->column(k) && w.schema->column(k)->rowid_alias) out.key += std::to_string(out.rowid);
+    else if (!v || v->is_null()) out.key += v ? "null" : "?";
+    else if (v->kind() == Value::Kind::integer) out.key += std::to_string(v->integer());
+    else out.key += v->text();
+  }
+  return out;
+}
+
+std::string canonical_audit_json(const AuditContent& c) {
+  const auto text_or_null = [](std::string& out, const std::string* s) {
+    if (s) append_json_string(out, *s);
+    else out += "null";
+  };
+  // Keys in sorted order, as nlohmann::json keeps them.
+  std::string out = R"({"action":)";
+  append_json_string(out, c.action);
+  out += R"(,"actor":)";
+  append_json_string(out, c.actor);
+  out += R"(,"after_json":)";
+  text_or_null(out, c.after_json);
+  out += R"(,"at":)";
+  append_json_string(out, c.at);
+  out += R"(,"before_json":)";
+  text_or_null(out, c.before_json);
+  out += R"(,"os_user":)";
+  append_json_string(out, c.os_user);
+  out += R"(,"reason":)";
+  text_or_null(out, c.reason);
+  out += R"(,"row_key":)";
+  append_json_string(out, c.row_key);
+  fmt::format_to(std::back_inserter(out), R"(,"seq":{},"table_name":)", c.seq);
+  append_json_string(out, c.table_name);
+  out += '}';
+  return out;
 }
 
 void Recorder::append_audit(const std::string& action, const std::string& table, const std::string& key,
@@ -144,11 +223,17 @@ void Recorder::append_audit(const std::string& action, const std::string& table,
     prev = last.getColumn(1).getString();
   }
   last.reset();  // no read cursor left open between inserts
-  const json record = {{"seq", seq},          {"at", now_},          {"os_user", actor_.os_user},
-                       {"actor", actor_.name}, {"action", action},    {"table_name", table},
-                       {"row_key", key},       {"before_json", nullptr}, {"after_json", after_json},
-                       {"reason", reason.empty() ? json() : json(reason)}};
-  const std::string hash = audit_hash(prev, record);
+  AuditContent content;
+  content.seq = seq;
+  content.at = now_;
+  content.os_user = actor_.os_user;
+  content.actor = actor_.name;
+  content.action = action;
+  content.table_name = table;
+  content.row_key = key;
+  content.after_json = &after_json;
+  content.reason = reason.empty() ? nullptr : &reason;
+  const std::string hash = sha256_hex(prev + "\n" + canonical_audit_json(content));
   SQLite::Statement& audit =
       statement("INSERT INTO audit_log (seq, at, os_user, actor, action, table_name, row_key, before_json, "
                 "after_json, reason, prev_hash, hash) VALUES (?, ?, ?, ?, ?, ?, ?, NULL, ?, ?, ?, ?)");
@@ -167,10 +252,11 @@ void Recorder::append_audit(const std::string& action, const std::string& table,
   audit.exec();
 }
 
-std::int64_t Recorder::insert(const std::string& table, const json& row, const std::vector<std::string>& key_columns,
+std::int64_t Recorder::insert(const std::string& table, const Row& row, const std::vector<std::string>& key_columns,
                               const std::string& reason) {
-  const Written w = write_row(table, row, key_columns);
-  append_audit("insert", table, w.key, w.recorded.dump(), reason);
+  std::string recorded;
+  const Written w = write_row(table, row, key_columns, recorded);
+  append_audit("insert", table, w.key, recorded, reason);
   return w.rowid;
 }
 
@@ -178,16 +264,32 @@ void Recorder::insert_together(const std::string& reason, const std::function<vo
   RowGroup group(*this);
   fill(group);
   if (group.first_table_.empty()) throw StorageError("an audited group of rows must hold at least one row.");
-  append_audit("insert rows", group.first_table_, group.first_key_, group.tables_.dump(), reason);
+  // {"table":[rows],...}: each table's rows in the order they were inserted.
+  std::string after = "{";
+  for (const auto& [table, rows] : group.tables_) {
+    if (after.size() > 1) after += ',';
+    append_json_string(after, table);
+    after += ":[";
+    after += rows;
+    after += ']';
+  }
+  after += '}';
+  append_audit("insert rows", group.first_table_, group.first_key_, after, reason);
 }
 
-std::int64_t RowGroup::insert(const std::string& table, const json& row, const std::vector<std::string>& key_columns) {
-  Recorder::Written w = rec_.write_row(table, row, key_columns);
+std::int64_t RowGroup::insert(const std::string& table, const Row& row, const std::vector<std::string>& key_columns) {
+  auto it = std::find_if(tables_.begin(), tables_.end(), [&](const auto& t) { return t.first == table; });
+  if (it == tables_.end()) {
+    tables_.emplace_back(table, std::string());
+    it = std::prev(tables_.end());
+  } else {
+    it->second += ',';
+  }
+  const Recorder::Written w = rec_.write_row(table, row, key_columns, it->second);
   if (first_table_.empty()) {
     first_table_ = table;
     first_key_ = w.key;
   }
-  tables_[table].push_back(std::move(w.recorded));
   return w.rowid;
 }
 

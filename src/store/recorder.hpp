@@ -11,6 +11,7 @@
 #include <string>
 #include <vector>
 
+#include "store/row.hpp"
 #include "store/table_schema.hpp"
 
 namespace plumb::store {
@@ -31,10 +32,9 @@ class Recorder {
 public:
   Recorder(SQLite::Database& db, Actor actor);
 
-  /// Inserts `row` (column -> string, integer or null) into `table` and appends the audit record.
-  /// `key_columns` name the primary key; a single integer key absent from `row` is taken from the
-  /// new rowid. Returns the rowid.
-  std::int64_t insert(const std::string& table, const nlohmann::json& row, const std::vector<std::string>& key_columns,
+  /// Inserts `row` into `table` and appends the audit record. `key_columns` name the primary key; a
+  /// single integer key absent from `row` is taken from the new rowid. Returns the rowid.
+  std::int64_t insert(const std::string& table, const Row& row, const std::vector<std::string>& key_columns,
                       const std::string& reason = "");
 
   /// Inserts rows that make one record together (a check run with its weights and readings) under one
@@ -47,18 +47,27 @@ public:
 
 private:
   friend class RowGroup;
+  /// An INSERT prepared for one table and one list of columns, with what each column must hold.
+  struct Writer {
+    std::string table;
+    std::vector<std::string> columns;
+    std::vector<Value::Kind> kinds;  ///< per column of `columns`: integer or text (NULL is always allowed)
+    const TableSchema* schema = nullptr;
+    std::unique_ptr<SQLite::Statement> insert;
+  };
   struct Written {
     std::int64_t rowid = 0;
-    nlohmann::json recorded;  ///< the row as the trail records it
     std::string key;
   };
-  /// Writes the row and returns it as the trail records it (every column, without reading it back).
-  Written write_row(const std::string& table, const nlohmann::json& row, const std::vector<std::string>& key_columns);
+  /// Writes the row and appends it to `recorded` as the trail records it: a JSON object of every column
+  /// (unmentioned columns with their literal defaults), built from the values given, not read back.
+  Written write_row(const std::string& table, const Row& row, const std::vector<std::string>& key_columns,
+                    std::string& recorded);
+  Writer& writer(const std::string& table, const Row& row);
   void append_audit(const std::string& action, const std::string& table, const std::string& key,
                     const std::string& after_json, const std::string& reason);
   const TableSchema& schema(const std::string& table);
-  /// A prepared statement for `sql`, reset for reuse: a batch import inserts millions of rows with a
-  /// handful of distinct statements, and preparing each one anew would cost more than the insert.
+  /// A prepared statement for `sql`, reset for reuse.
   SQLite::Statement& statement(const std::string& sql);
 
   SQLite::Database& db_;
@@ -66,20 +75,23 @@ private:
   std::string now_;  ///< one timestamp for the whole command
   std::map<std::string, std::unique_ptr<SQLite::Statement>> statements_;
   std::map<std::string, TableSchema> schemas_;
+  /// A batch import inserts millions of rows with a handful of distinct statements; preparing each one
+  /// anew would cost more than the insert.
+  std::vector<std::unique_ptr<Writer>> writers_;
 };
 
 /// The rows of one Recorder::insert_together call.
 class RowGroup {
 public:
   /// As Recorder::insert, without an audit record of its own: the group's record covers the row.
-  std::int64_t insert(const std::string& table, const nlohmann::json& row, const std::vector<std::string>& key_columns);
+  std::int64_t insert(const std::string& table, const Row& row, const std::vector<std::string>& key_columns);
 
 private:
   friend class Recorder;
   explicit RowGroup(Recorder& rec) : rec_(rec) {}
   Recorder& rec_;
   std::string first_table_, first_key_;
-  nlohmann::json tables_ = nlohmann::json::object();  ///< table -> array of rows as recorded
+  std::vector<std::pair<std::string, std::string>> tables_;  ///< table -> its rows as recorded, "{..},{..}"
 };
 
 /// SHA-256 of `text` as lowercase hex (OpenSSL libcrypto).
@@ -100,5 +112,17 @@ bool matches_recorded(const nlohmann::json& recorded, const nlohmann::json& stor
 
 /// The hash of an audit record: SHA-256 over the previous hash and the canonical JSON of the record.
 std::string audit_hash(const std::string& prev_hash, const nlohmann::json& record);
+
+/// The fields of an audit record that its hash covers.
+struct AuditContent {
+  std::int64_t seq = 0;
+  std::string_view at, os_user, actor, action, table_name, row_key;
+  const std::string* before_json = nullptr;  ///< null: none
+  const std::string* after_json = nullptr;   ///< null: none
+  const std::string* reason = nullptr;       ///< null: none
+};
+/// The canonical JSON of a record's content, byte for byte what nlohmann::json::dump() writes for the same
+/// object (keys sorted), so that audit_hash(prev, that object) == SHA-256 of prev + "\n" + this text.
+std::string canonical_audit_json(const AuditContent& c);
 
 }  // namespace plumb::store

@@ -10,8 +10,8 @@ namespace {
 
 using nlohmann::json;
 
-json text_or_null(const std::optional<ExactMass>& m) {
-  return m ? json(m->in_grams().to_string()) : json();
+Value text_or_null(const std::optional<ExactMass>& m) {
+  return m ? Value(m->in_grams().to_string()) : Value();
 }
 
 ExactMass grams(const SQLite::Column& c) { return ExactMass::grams(Decimal::parse(c.getString(), c.getName())); }
@@ -168,7 +168,7 @@ void add_weight(Recorder& rec, const WeightRecord& w) {
               {"nominal_text", w.nominal_text},
               {"nominal_g", w.nominal.in_grams().to_string()},
               {"weight_class", w.weight_class},
-              {"density_kg_m3", w.density_kg_m3 ? json(w.density_kg_m3->to_string()) : json()},
+              {"density_kg_m3", w.density_kg_m3 ? Value(w.density_kg_m3->to_string()) : Value()},
               {"created_at", rec.now()},
               {"created_by", rec.actor().name}},
              {"id"});
@@ -241,9 +241,9 @@ std::int64_t add_run(Recorder& rec, const RunRecord& run) {
                        {"operator", run.operator_name},
                        {"results_json", run.results.dump()},
                        {"verdict", std::string(to_string(run.verdict))},
-                       {"next_due", run.next_due ? json(to_string(*run.next_due)) : json()},
-                       {"supersedes", run.supersedes ? json(*run.supersedes) : json()},
-                       {"reason", run.reason.empty() ? json() : json(run.reason)},
+                       {"next_due", run.next_due ? Value(to_string(*run.next_due)) : Value()},
+                       {"supersedes", run.supersedes ? Value(*run.supersedes) : Value()},
+                       {"reason", run.reason.empty() ? Value() : Value(run.reason)},
                        {"recorded_at", rec.now()},
                        {"os_user", rec.actor().os_user}},
                       {"id"});
@@ -311,7 +311,7 @@ std::int64_t add_certificate(Recorder& rec, const CertificateRecord& c) {
                      {"issued_by", c.issued_by},
                      {"content_json", c.content.dump()},
                      {"content_sha256", c.content_sha256},
-                     {"supersedes", c.supersedes ? json(*c.supersedes) : json()}},
+                     {"supersedes", c.supersedes ? Value(*c.supersedes) : Value()}},
                     {"id"});
 }
 

@@ -7,7 +7,7 @@ namespace {
 
 using nlohmann::json;
 
-json text_or_null(const std::string& s) { return s.empty() ? json() : json(s); }
+Value text_or_null(const std::string& s) { return s.empty() ? Value() : Value(s); }
 
 std::string text(const SQLite::Column& c) { return c.isNull() ? std::string() : c.getString(); }
 
@@ -70,7 +70,7 @@ void add_certificate_event(Recorder& rec, const CertificateEvent& e) {
               {"event", e.event},
               {"by_name", e.by_name},
               {"meaning", text_or_null(e.meaning)},
-              {"replaced_by", e.replaced_by ? json(*e.replaced_by) : json()},
+              {"replaced_by", e.replaced_by ? Value(*e.replaced_by) : Value()},
               {"reason", text_or_null(e.reason)},
               {"recorded_at", rec.now()},
               {"os_user", rec.actor().os_user}},
