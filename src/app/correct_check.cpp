@@ -74,7 +74,7 @@ CorrectionOutcome correct_check(store::Database& db, const store::Actor& actor, 
 
   store::Recorder rec(db.sql(), actor);
   CheckLookups lookups(db);
-  const std::int64_t id = record_check_in(rec, lookups, check);
+  const std::int64_t id = record_check_in(rec, lookups, check).run_id;
   out.correction = *store::find_run(db.sql(), id);
   // Throwing here still writes nothing: the transaction is rolled back.
   if (same_record(out.original, out.correction))

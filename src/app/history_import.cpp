@@ -29,8 +29,7 @@ std::string as_column_message(std::string message) {
 class Importer {
 public:
   Importer(store::Database& db, store::Recorder& rec, std::string source)
-      : rec_(rec), lookups_(db), source_(std::move(source)),
-        verdict_of_(db.sql(), "SELECT verdict FROM check_runs WHERE id = ?") {}
+      : rec_(rec), lookups_(db), source_(std::move(source)) {}
 
   void record(HistoryRun& run) {
     CheckInput in;
@@ -42,9 +41,9 @@ public:
     in.readings_source = source_;
     const long long readings = static_cast<long long>(run.readings.size());
     in.parsed_readings = std::move(run.readings);
-    std::int64_t id = 0;
+    RecordedCheck recorded;
     try {
-      id = record_check_in(rec_, lookups_, in);
+      recorded = record_check_in(rec_, lookups_, in);
     } catch (const InputError& e) {
       std::string message = e.what();
       if (message.rfind(source_ + " line ", 0) == 0) throw;  // already names its line in the import file
@@ -52,10 +51,8 @@ public:
       throw InputError(fmt::format("{} line {} (run of {} on {}): {}", source_, run.first_line, in.instrument_id,
                                    run.date, as_column_message(message)));
     }
-    verdict_of_.reset();
-    verdict_of_.bind(1, id);
-    verdict_of_.executeStep();
-    const bool failed = verdict_of_.getColumn(0).getString() == "fail";
+    const std::int64_t id = recorded.run_id;
+    const bool failed = recorded.verdict == Verdict::fail;
 
     const Date on = parse_date(run.date, "date");
     auto [it, fresh] = report_.instruments.try_emplace(in.instrument_id);
@@ -81,7 +78,6 @@ private:
   store::Recorder& rec_;
   CheckLookups lookups_;
   std::string source_;
-  SQLite::Statement verdict_of_;
   ImportReport report_;
 };
 

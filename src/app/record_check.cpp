@@ -92,12 +92,12 @@ store::RunRecord record_check(store::Database& db, const store::Actor& actor, co
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   store::Recorder rec(db.sql(), actor);
   CheckLookups lookups(db);
-  const std::int64_t id = record_check_in(rec, lookups, in);
+  const std::int64_t id = record_check_in(rec, lookups, in).run_id;
   tx.commit();
   return *store::find_run(db.sql(), id);
 }
 
-std::int64_t record_check_in(store::Recorder& rec, CheckLookups& lookups, const CheckInput& in) {
+RecordedCheck record_check_in(store::Recorder& rec, CheckLookups& lookups, const CheckInput& in) {
   const auto procedures = known_procedures();
   if (std::find(procedures.begin(), procedures.end(), in.procedure) == procedures.end())
     throw InputError(fmt::format("--procedure \"{}\" is not known (known: {}).", in.procedure,
@@ -166,7 +166,7 @@ std::int64_t record_check_in(store::Recorder& rec, CheckLookups& lookups, const 
   int seq = 1;
   for (const auto& r : readings) run.readings.push_back({seq++, "", r.reading});
 
-  return store::add_run(rec, run);
+  return {store::add_run(rec, run), run.verdict};
 }
 
 }  // namespace plumb::app

@@ -61,8 +61,12 @@ private:
 
 /// Validates, computes and records one check in its own transaction; nothing is written on error.
 store::RunRecord record_check(store::Database& db, const store::Actor& actor, const CheckInput& in);
-/// The same inside a transaction the caller holds (batch import, correction); returns the new run id.
-std::int64_t record_check_in(store::Recorder& rec, CheckLookups& lookups, const CheckInput& in);
+struct RecordedCheck {
+  std::int64_t run_id = 0;
+  Verdict verdict = Verdict::pass;
+};
+/// The same inside a transaction the caller holds (batch import, correction).
+RecordedCheck record_check_in(store::Recorder& rec, CheckLookups& lookups, const CheckInput& in);
 
 /// "LAST" or a run number; InputError when there is no such run.
 std::int64_t resolve_run(store::Database& db, const std::string& selector);

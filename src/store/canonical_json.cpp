@@ -7,25 +7,23 @@
 namespace plumb::store {
 
 void append_json_string(std::string& out, std::string_view text) {
-  // The common case, printable ASCII, is copied with '"' and '\' escaped; anything else (control
+  // The common case, printable ASCII, is copied in runs with '"' and '\' escaped; anything else (control
   // characters, UTF-8) goes through nlohmann's own serializer so that both always agree.
-  bool plain = true;
-  for (const char c : text) {
-    const auto u = static_cast<unsigned char>(c);
-    if (u < 0x20 || u >= 0x7f) {
-      plain = false;
-      break;
+  for (const char c : text)
+    if (const auto u = static_cast<unsigned char>(c); u < 0x20 || u >= 0x7f) {
+      out += nlohmann::json(std::string(text)).dump();
+      return;
     }
-  }
-  if (!plain) {
-    out += nlohmann::json(std::string(text)).dump();
-    return;
-  }
+  out.reserve(out.size() + text.size() + 16);
   out += '"';
-  for (const char c : text) {
-    if (c == '"' || c == '\\') out += '\\';
-    out += c;
+  std::size_t from = 0;
+  for (std::size_t i = 0; i < text.size(); ++i) {
+    if (text[i] != '"' && text[i] != '\\') continue;
+    out.append(text.data() + from, i - from);
+    out += '\\';
+    from = i;  // the character itself is copied with the next run
   }
+  out.append(text.data() + from, text.size() - from);
   out += '"';
 }
 

@@ -36,7 +36,9 @@ Database::Database(const std::filesystem::path& path, Open mode) : path_(path) {
                                  path.string(), path.string()));
   if (mode == Open::create && path.has_parent_path()) std::filesystem::create_directories(path.parent_path());
   try {
-    const int flags = mode == Open::create ? (SQLite::OPEN_READWRITE | SQLite::OPEN_CREATE) : SQLite::OPEN_READWRITE;
+    // One connection per process, used by one thread: SQLite's per-call mutexes are not needed.
+    const int flags = (mode == Open::create ? (SQLite::OPEN_READWRITE | SQLite::OPEN_CREATE) : SQLite::OPEN_READWRITE) |
+                      SQLite::OPEN_NOMUTEX;
     db_ = std::make_unique<SQLite::Database>(path.string(), flags);
     // Concurrent writers wait rather than fail: "database is locked" must not reach the user.
     db_->setBusyTimeout(30000);
