@@ -88,18 +88,19 @@ const TableSchema& Recorder::schema(const std::string& table) {
   return it->second;
 }
 
-Recorder::Writer& Recorder::writer(const std::string& table, const Row& row) {
-  const auto same_columns = [&](const Writer& w) {
-    if (w.table != table || w.columns.size() != row.size()) return false;
+Recorder::Writer& Recorder::writer(const std::string& table, const Row& row, std::size_t rows) {
+  const auto same_shape = [&](const Writer& w) {
+    if (w.table != table || w.rows != rows || w.columns.size() != row.size()) return false;
     for (std::size_t i = 0; i < row.size(); ++i)
       if (w.columns[i] != row[i].column) return false;
     return true;
   };
   for (auto& w : writers_)
-    if (same_columns(*w)) return *w;
+    if (same_shape(*w)) return *w;
 
   auto w = std::make_unique<Writer>();
   w->table = table;
+  w->rows = rows;
   w->schema = &schema(table);
   std::string columns, marks;
   for (const auto& f : row) {
@@ -113,36 +114,34 @@ Recorder::Writer& Recorder::writer(const std::string& table, const Row& row) {
     columns += (columns.empty() ? "" : ", ") + std::string(f.column);
     marks += marks.empty() ? "?" : ", ?";
   }
-  w->insert = std::make_unique<SQLite::Statement>(db_, fmt::format("INSERT INTO {} ({}) VALUES ({})", table, columns, marks));
+  std::string values;
+  for (std::size_t i = 0; i < rows; ++i) values += fmt::format("{}({})", i ? ", " : "", marks);
+  w->insert = std::make_unique<SQLite::Statement>(db_, fmt::format("INSERT INTO {} ({}) VALUES {}", table, columns, values));
   writers_.push_back(std::move(w));
   return *writers_.back();
 }
 
-Recorder::Written Recorder::write_row(const std::string& table, const Row& row,
-                                      const std::vector<std::string>& key_columns, std::string& recorded) {
-  Writer& w = writer(table, row);
+void Recorder::bind_row(Writer& w, const Row& row, std::size_t first_parameter) {
   // The trail records the row as stored without reading it back: so each value must be stored exactly as
   // given (an integer in an INTEGER column, a text in a TEXT column; no type conversion by SQLite).
-  SQLite::Statement& insert = *w.insert;
-  insert.reset();
-  insert.clearBindings();
+  if (row.size() != w.columns.size()) throw StorageError(fmt::format("rows of {} differ in their columns.", w.table));
   for (std::size_t i = 0; i < row.size(); ++i) {
+    if (row[i].column != w.columns[i]) throw StorageError(fmt::format("rows of {} differ in their columns.", w.table));
     const Value& v = row[i].value;
-    const int at = static_cast<int>(i) + 1;
+    const int at = static_cast<int>(first_parameter + i);
     if (v.is_null()) {
-      insert.bind(at);
+      w.insert->bind(at);
       continue;
     }
     if (v.kind() != w.kinds[i])
-      throw StorageError(fmt::format("column {}.{} cannot store {} exactly (exact values only).", table, row[i].column,
-                                     v.kind() == Value::Kind::integer ? "an integer" : "a text"));
-    if (v.kind() == Value::Kind::integer) insert.bind(at, v.integer());
-    else insert.bind(at, v.text());
+      throw StorageError(fmt::format("column {}.{} cannot store {} exactly (exact values only).", w.table,
+                                     row[i].column, v.kind() == Value::Kind::integer ? "an integer" : "a text"));
+    if (v.kind() == Value::Kind::integer) w.insert->bind(at, v.integer());
+    else w.insert->bind(at, v.text());
   }
-  insert.exec();
+}
 
-  Written out;
-  out.rowid = db_.getLastInsertRowid();
+void Recorder::append_recorded(const Writer& w, const Row& row, std::int64_t rowid, std::string& recorded) {
   const auto given = [&](std::string_view column) -> const Value* {
     for (const auto& f : row)
       if (f.column == column) return &f.value;
@@ -164,24 +163,58 @@ Recorder::Written Recorder::write_row(const std::string& table, const Row& row,
         append_json_value(recorded, *v);
       }
     } else if (c.rowid_alias) {
-      fmt::format_to(std::back_inserter(recorded), "{}", out.rowid);
+      fmt::format_to(std::back_inserter(recorded), "{}", rowid);
     } else {
       recorded += c.default_value.dump();
     }
   }
   recorded += '}';
+}
 
+Recorder::Written Recorder::write_row(const std::string& table, const Row& row,
+                                      const std::vector<std::string>& key_columns, std::string& recorded) {
+  Writer& w = writer(table, row, 1);
+  w.insert->reset();
+  w.insert->clearBindings();
+  bind_row(w, row, 1);
+  w.insert->exec();
+
+  Written out;
+  out.rowid = db_.getLastInsertRowid();
+  append_recorded(w, row, out.rowid, recorded);
   for (const auto& k : key_columns) {
     if (!out.key.empty()) out.key += ',';
     out.key += k;
     out.key += '=';
-    const Value* v = given(k);
-    if (!v && w.schema->column(k) && w.schema->column(k)->rowid_alias) out.key += std::to_string(out.rowid);
-    else if (!v || v->is_null()) out.key += v ? "null" : "?";
-    else if (v->kind() == Value::Kind::integer) out.key += std::to_string(v->integer());
-    else out.key += v->text();
+    const auto f = std::find_if(row.begin(), row.end(), [&](const Field& x) { return x.column == k; });
+    const ColumnSchema* c = w.schema->column(k);
+    if (f == row.end() && c && c->rowid_alias) out.key += std::to_string(out.rowid);
+    else if (f == row.end()) out.key += '?';
+    else if (f->value.is_null()) out.key += "null";
+    else if (f->value.kind() == Value::Kind::integer) out.key += std::to_string(f->value.integer());
+    else out.key += f->value.text();
   }
   return out;
+}
+
+void Recorder::write_rows(const std::string& table, const std::vector<Row>& rows, std::string& recorded) {
+  constexpr std::size_t per_statement = 16;
+  for (std::size_t from = 0; from < rows.size(); from += per_statement) {
+    const std::size_t n = std::min(per_statement, rows.size() - from);
+    Writer& w = writer(table, rows[from], n);
+    for (const auto& c : w.schema->columns)
+      if (c.rowid_alias && std::none_of(rows[from].begin(), rows[from].end(),
+                                        [&](const Field& f) { return f.column == c.name; }))
+        throw StorageError(fmt::format("rows of {} written together must give their key {}.", table, c.name));
+    w.insert->reset();
+    w.insert->clearBindings();
+    for (std::size_t i = 0; i < n; ++i) bind_row(w, rows[from + i], 1 + i * w.columns.size());
+    w.insert->exec();
+    for (std::size_t i = 0; i < n; ++i) {
+      if (from + i > 0) recorded += ',';
+      append_recorded(w, rows[from + i], 0, recorded);
+    }
+  }
 }
 
 std::string canonical_audit_json(const AuditContent& c) {
@@ -277,20 +310,29 @@ void Recorder::insert_together(const std::string& reason, const std::function<vo
   append_audit("insert rows", group.first_table_, group.first_key_, after, reason);
 }
 
-std::int64_t RowGroup::insert(const std::string& table, const Row& row, const std::vector<std::string>& key_columns) {
+std::string& RowGroup::rows_of(const std::string& table) {
   auto it = std::find_if(tables_.begin(), tables_.end(), [&](const auto& t) { return t.first == table; });
   if (it == tables_.end()) {
     tables_.emplace_back(table, std::string());
-    it = std::prev(tables_.end());
-  } else {
-    it->second += ',';
+    return tables_.back().second;
   }
-  const Recorder::Written w = rec_.write_row(table, row, key_columns, it->second);
+  it->second += ',';
+  return it->second;
+}
+
+std::int64_t RowGroup::insert(const std::string& table, const Row& row, const std::vector<std::string>& key_columns) {
+  const Recorder::Written w = rec_.write_row(table, row, key_columns, rows_of(table));
   if (first_table_.empty()) {
     first_table_ = table;
     first_key_ = w.key;
   }
   return w.rowid;
+}
+
+void RowGroup::insert_rows(const std::string& table, const std::vector<Row>& rows) {
+  if (rows.empty()) return;
+  if (first_table_.empty()) throw StorageError("a group of rows starts with a single row, whose key names the group.");
+  rec_.write_rows(table, rows, rows_of(table));
 }
 
 }  // namespace plumb::store

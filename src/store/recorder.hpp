@@ -47,9 +47,10 @@ public:
 
 private:
   friend class RowGroup;
-  /// An INSERT prepared for one table and one list of columns, with what each column must hold.
+  /// An INSERT of `rows` rows prepared for one table and one list of columns, with what each column must hold.
   struct Writer {
     std::string table;
+    std::size_t rows = 1;
     std::vector<std::string> columns;
     std::vector<Value::Kind> kinds;  ///< per column of `columns`: integer or text (NULL is always allowed)
     const TableSchema* schema = nullptr;
@@ -63,7 +64,12 @@ private:
   /// (unmentioned columns with their literal defaults), built from the values given, not read back.
   Written write_row(const std::string& table, const Row& row, const std::vector<std::string>& key_columns,
                     std::string& recorded);
-  Writer& writer(const std::string& table, const Row& row);
+  /// The same for rows of one shape whose keys are all given (no rowid to take), several per INSERT;
+  /// `recorded` receives them comma-separated.
+  void write_rows(const std::string& table, const std::vector<Row>& rows, std::string& recorded);
+  Writer& writer(const std::string& table, const Row& row, std::size_t rows);
+  void bind_row(Writer& w, const Row& row, std::size_t first_parameter);
+  void append_recorded(const Writer& w, const Row& row, std::int64_t rowid, std::string& recorded);
   void append_audit(const std::string& action, const std::string& table, const std::string& key,
                     const std::string& after_json, const std::string& reason);
   const TableSchema& schema(const std::string& table);
@@ -85,6 +91,9 @@ class RowGroup {
 public:
   /// As Recorder::insert, without an audit record of its own: the group's record covers the row.
   std::int64_t insert(const std::string& table, const Row& row, const std::vector<std::string>& key_columns);
+  /// Several rows of one table with the same columns and every key column given (readings): written
+  /// several to a statement, which is what makes a batch import of millions of readings affordable.
+  void insert_rows(const std::string& table, const std::vector<Row>& rows);
 
 private:
   friend class Recorder;
@@ -92,6 +101,7 @@ private:
   Recorder& rec_;
   std::string first_table_, first_key_;
   std::vector<std::pair<std::string, std::string>> tables_;  ///< table -> its rows as recorded, "{..},{..}"
+  std::string& rows_of(const std::string& table);
 };
 
 /// SHA-256 of `text` as lowercase hex (OpenSSL libcrypto).

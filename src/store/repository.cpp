@@ -255,16 +255,17 @@ std::int64_t add_run(Recorder& rec, const RunRecord& run) {
                     {"weight_id", w.weight_id},
                     {"weight_calibration_id", w.weight_calibration_id}},
                    {"run_id", "position"});
+    std::vector<Row> readings;
+    readings.reserve(run.readings.size());
     for (const auto& r : run.readings)
-      group.insert("readings",
-                   {{"run_id", id},
-                    {"seq", r.seq},
-                    {"series", r.series},
-                    {"text", r.reading.text},
-                    {"unit", std::string(to_string(r.reading.unit))},
-                    {"units", r.reading.value.units()},
-                    {"scale", r.reading.value.scale()}},
-                   {"run_id", "seq"});
+      readings.push_back({{"run_id", id},
+                          {"seq", r.seq},
+                          {"series", r.series},
+                          {"text", r.reading.text},
+                          {"unit", to_string(r.reading.unit)},
+                          {"units", r.reading.value.units()},
+                          {"scale", r.reading.value.scale()}});
+    group.insert_rows("readings", readings);
   });
   return id;
 }

@@ -19,7 +19,7 @@
 namespace {
 
 constexpr int trials = 30;
-constexpr int runs = 1000;  // x 10 readings: more than the page cache holds, so the WAL fills mid-import
+constexpr int runs = 3000;  // x 10 readings: more than the page cache holds, so the WAL fills mid-import
 
 /// Starts plumb with output discarded; returns its process id.
 pid_t spawn_plumb(const std::vector<std::string>& args) {
