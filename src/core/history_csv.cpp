@@ -70,7 +70,8 @@ std::optional<HistoryRun> HistoryCsvParser::feed(std::string_view line) {
   if (line.find('\0') != std::string_view::npos)
     throw InputError(fmt::format("{} line {}: contains a NUL byte; this is not a text CSV file.", source_, line_));
   if (blank(line)) return std::nullopt;
-  const auto fields = split_csv_line(line);
+  split_csv_line(line, fields_);
+  const std::vector<std::string>& fields = fields_;
   if (!have_header_) {
     read_header(fields);
     return std::nullopt;
@@ -83,43 +84,60 @@ std::optional<HistoryRun> HistoryCsvParser::feed(std::string_view line) {
     if (v.empty()) throw InputError(fmt::format("{} line {} column {}: the value is empty.", source_, line_, name));
     return v;
   };
-  HistoryRun row;
-  row.first_line = row.last_line = line_;
-  row.instrument = field(col_instrument_, "instrument");
-  row.procedure = field(col_procedure_, "procedure");
-  row.date = field(col_date_, "date");
-  row.operator_name = field(col_operator_, "operator");
-  row.weight = field(col_weight_, "weight");
-  if (col_run_ >= 0) row.label = field(col_run_, "run");
+  const std::string& instrument = field(col_instrument_, "instrument");
+  const std::string& procedure = field(col_procedure_, "procedure");
+  const std::string& date = field(col_date_, "date");
+  const std::string& operator_name = field(col_operator_, "operator");
+  const std::string& weight = field(col_weight_, "weight");
+  static const std::string no_label;
+  const std::string& label = col_run_ >= 0 ? field(col_run_, "run") : no_label;
   CsvReading reading;
   reading.line = line_;
   reading.reading.text = field(col_reading_, "reading");
-  reading.reading.value = Decimal::parse(reading.reading.text, where("reading"));
-  reading.reading.unit = parse_mass_unit(field(col_unit_, "unit"), where("unit"));
+  // The message naming file, line and column is built only when a value is bad.
+  try {
+    reading.reading.value = Decimal::parse(reading.reading.text);
+  } catch (const InputError&) {
+    reading.reading.value = Decimal::parse(reading.reading.text, where("reading"));
+  }
+  const std::string& unit = field(col_unit_, "unit");
+  try {
+    reading.reading.unit = parse_mass_unit(unit);
+  } catch (const InputError&) {
+    reading.reading.unit = parse_mass_unit(unit, where("unit"));
+  }
   ++rows_;
 
-  const bool same_key = open_ && open_->instrument == row.instrument && open_->procedure == row.procedure &&
-                        open_->date == row.date && open_->operator_name == row.operator_name &&
-                        open_->weight == row.weight;
-  if (open_ && col_run_ >= 0 && open_->label == row.label) {
+  const bool same_key = open_ && open_->instrument == instrument && open_->procedure == procedure &&
+                        open_->date == date && open_->operator_name == operator_name && open_->weight == weight;
+  if (open_ && col_run_ >= 0 && open_->label == label) {
     if (!same_key)
       throw InputError(fmt::format("{} line {}: run \"{}\" started at line {} for {} {} on {} by {} with {}; every row "
                                    "of a run must name the same instrument, procedure, date, operator and weight.",
-                                   source_, line_, row.label, open_->first_line, open_->instrument, open_->procedure,
+                                   source_, line_, label, open_->first_line, open_->instrument, open_->procedure,
                                    open_->date, open_->operator_name, open_->weight));
   }
-  if (open_ && same_key && (col_run_ < 0 || open_->label == row.label)) {
+  if (open_ && same_key && (col_run_ < 0 || open_->label == label)) {
     open_->last_line = line_;
     open_->readings.push_back(std::move(reading));
     return std::nullopt;
   }
-  if (col_run_ >= 0 && finished_labels_.count(row.label))
+  if (col_run_ >= 0 && finished_labels_.count(label))
     throw InputError(fmt::format("{} line {} column run: value \"{}\" labels a run that ended earlier in the file; "
                                  "a run's rows must be consecutive.",
-                                 source_, line_, row.label));
+                                 source_, line_, label));
   std::optional<HistoryRun> done = std::move(open_);
   if (done && col_run_ >= 0) finished_labels_.insert(done->label);
+  HistoryRun row;
+  row.first_line = row.last_line = line_;
+  row.instrument = instrument;
+  row.procedure = procedure;
+  row.date = date;
+  row.operator_name = operator_name;
+  row.weight = weight;
+  row.label = label;
   row.weights = split_weights(row.weight);
+  row.readings.reserve(16);
   row.readings.push_back(std::move(reading));
   open_ = std::move(row);
   return done;

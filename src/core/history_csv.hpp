@@ -61,6 +61,7 @@ private:
   int col_instrument_ = -1, col_procedure_ = -1, col_date_ = -1, col_operator_ = -1, col_weight_ = -1,
       col_reading_ = -1, col_unit_ = -1, col_run_ = -1;
   std::optional<HistoryRun> open_;
+  std::vector<std::string> fields_;  ///< the current line's fields (reused from line to line)
   std::set<std::string> finished_labels_;
   long long rows_ = 0;
 };

@@ -17,8 +17,11 @@ std::string_view trim(std::string_view s) {
 
 }  // namespace
 
-std::vector<std::string> split_csv_line(std::string_view line) {
-  std::vector<std::string> fields(1);
+namespace {
+
+/// The general path: RFC 4180 quoting.
+void split_quoted(std::string_view line, std::vector<std::string>& fields) {
+  fields.assign(1, std::string());
   bool quoted = false;
   for (std::size_t i = 0; i < line.size(); ++i) {
     const char c = line[i];
@@ -40,6 +43,32 @@ std::vector<std::string> split_csv_line(std::string_view line) {
     }
   }
   for (auto& f : fields) f = std::string(trim(f));
+}
+
+}  // namespace
+
+void split_csv_line(std::string_view line, std::vector<std::string>& fields) {
+  if (line.find('"') != std::string_view::npos) {
+    split_quoted(line, fields);
+    return;
+  }
+  // No quotes (the usual export): fields are the text between commas.
+  std::size_t n = 0, from = 0;
+  while (true) {
+    const std::size_t comma = line.find(',', from);
+    const std::string_view f = trim(line.substr(from, comma == std::string_view::npos ? line.size() - from : comma - from));
+    if (n < fields.size()) fields[n].assign(f.data(), f.size());
+    else fields.emplace_back(f);
+    ++n;
+    if (comma == std::string_view::npos) break;
+    from = comma + 1;
+  }
+  fields.resize(n);
+}
+
+std::vector<std::string> split_csv_line(std::string_view line) {
+  std::vector<std::string> fields;
+  split_csv_line(line, fields);
   return fields;
 }
 

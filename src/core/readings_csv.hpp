@@ -18,7 +18,9 @@ struct CsvReading {
 /// Throws InputError naming the file, line, column and value for any bad field.
 std::vector<CsvReading> parse_readings_csv(std::string_view text, std::string_view source, MassUnit default_unit);
 
-/// Splits one CSV line into fields (RFC 4180 quoting, no embedded newlines).
+/// Splits one CSV line into fields (RFC 4180 quoting, no embedded newlines), each trimmed of spaces and tabs.
 std::vector<std::string> split_csv_line(std::string_view line);
+/// The same into `fields`, reusing its strings (a long import splits millions of lines).
+void split_csv_line(std::string_view line, std::vector<std::string>& fields);
 
 }  // namespace plumb

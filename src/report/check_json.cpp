@@ -4,39 +4,45 @@ namespace plumb::report {
 
 using nlohmann::json;
 
+// Built member by member: an initializer list of pairs copies every value once more, and a batch import
+// builds this for every run it records.
 nlohmann::json criteria_json(const std::vector<Criterion>& criteria) {
   json out = json::array();
-  for (const auto& c : criteria)
-    out.push_back({{"name", c.name},
-                   {"quantity", c.quantity},
-                   {"measured_g", c.measured.g},
-                   {"limit_g", c.limit.g},
-                   {"basis", c.basis},
-                   {"pass", c.pass}});
+  for (const auto& c : criteria) {
+    json j = json::object();
+    j["name"] = c.name;
+    j["quantity"] = c.quantity;
+    j["measured_g"] = c.measured.g;
+    j["limit_g"] = c.limit.g;
+    j["basis"] = c.basis;
+    j["pass"] = c.pass;
+    out.push_back(std::move(j));
+  }
   return out;
 }
 
 nlohmann::json to_json(const checks::RepeatabilityResult& r) {
-  json j = {{"n", r.n},
-            {"mean_g", r.mean.g},
-            {"sd_g", r.sd.g},
-            {"reference_g", r.reference.g},
-            {"bias_g", r.bias.g},
-            {"bias_pct", r.bias_pct},
-            {"readability_g", r.readability.g},
-            {"sd_over_d", r.sd_over_d},
-            {"sd_used_g", r.sd_used.g},
-            {"min_weight_g", r.min_weight.g},
-            {"digit_backed", r.digit_backed},
-            {"effective_resolution_g", r.effective_resolution.g},
-            {"readability_statement", r.readability_statement},
-            {"bias_limit_g", r.bias_limit ? json(r.bias_limit->g) : json()},
-            {"sd_limit_g", r.sd_limit ? json(r.sd_limit->g) : json()},
-            {"weight_suitable", r.weight_suitable},
-            {"verdict", std::string(to_string(r.verdict))},
-            {"reasons", r.reasons},
-            {"criteria", criteria_json(r.criteria)},
-            {"notes", r.notes}};
+  json j = json::object();
+  j["n"] = r.n;
+  j["mean_g"] = r.mean.g;
+  j["sd_g"] = r.sd.g;
+  j["reference_g"] = r.reference.g;
+  j["bias_g"] = r.bias.g;
+  j["bias_pct"] = r.bias_pct;
+  j["readability_g"] = r.readability.g;
+  j["sd_over_d"] = r.sd_over_d;
+  j["sd_used_g"] = r.sd_used.g;
+  j["min_weight_g"] = r.min_weight.g;
+  j["digit_backed"] = r.digit_backed;
+  j["effective_resolution_g"] = r.effective_resolution.g;
+  j["readability_statement"] = r.readability_statement;
+  j["bias_limit_g"] = r.bias_limit ? json(r.bias_limit->g) : json();
+  j["sd_limit_g"] = r.sd_limit ? json(r.sd_limit->g) : json();
+  j["weight_suitable"] = r.weight_suitable;
+  j["verdict"] = std::string(to_string(r.verdict));
+  j["reasons"] = r.reasons;
+  j["criteria"] = criteria_json(r.criteria);
+  j["notes"] = r.notes;
   return j;
 }
 
