@@ -29,7 +29,9 @@ std::string as_column_message(std::string message) {
 class Importer {
 public:
   Importer(store::Database& db, store::Recorder& rec, std::string source)
-      : rec_(rec), lookups_(db), source_(std::move(source)) {}
+      : rec_(rec), lookups_(db), source_(std::move(source)) {
+    lookups_.load_all_balances();
+  }
 
   void record(HistoryRun& run) {
     CheckInput in;

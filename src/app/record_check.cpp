@@ -31,6 +31,13 @@ void CheckLookups::require_lab() {
   lab_checked_ = true;
 }
 
+void CheckLookups::load_all_balances() {
+  for (auto& b : store::list_balances(db_.sql())) {
+    std::string id = b.id;
+    balances_.insert_or_assign(std::move(id), std::move(b));
+  }
+}
+
 const store::BalanceRecord& CheckLookups::balance(const std::string& id) {
   auto it = balances_.find(id);
   if (it == balances_.end()) {

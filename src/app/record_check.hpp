@@ -38,6 +38,8 @@ class CheckLookups {
 public:
   explicit CheckLookups(store::Database& db) : db_(db) {}
 
+  /// Reads every balance at once: a batch import touches many of them, and one query beats thousands.
+  void load_all_balances();
   void require_lab();
   /// The balance; InputError when it is not registered.
   const store::BalanceRecord& balance(const std::string& id);

@@ -114,6 +114,10 @@ Recorder::Writer& Recorder::writer(const std::string& table, const Row& row, std
     columns += (columns.empty() ? "" : ", ") + std::string(f.column);
     marks += marks.empty() ? "?" : ", ?";
   }
+  for (const auto& c : w->schema->columns) {
+    const auto at = std::find(w->columns.begin(), w->columns.end(), c.name);
+    w->given.push_back(at == w->columns.end() ? -1 : static_cast<int>(at - w->columns.begin()));
+  }
   std::string values;
   for (std::size_t i = 0; i < rows; ++i) values += fmt::format("{}({})", i ? ", " : "", marks);
   w->insert = std::make_unique<SQLite::Statement>(db_, fmt::format("INSERT INTO {} ({}) VALUES {}", table, columns, values));
@@ -142,19 +146,14 @@ void Recorder::bind_row(Writer& w, const Row& row, std::size_t first_parameter) 
 }
 
 void Recorder::append_recorded(const Writer& w, const Row& row, std::int64_t rowid, std::string& recorded) {
-  const auto given = [&](std::string_view column) -> const Value* {
-    for (const auto& f : row)
-      if (f.column == column) return &f.value;
-    return nullptr;
-  };
   recorded += '{';
-  bool first = true;
-  for (const auto& c : w.schema->columns) {
-    if (!first) recorded += ',';
-    first = false;
+  for (std::size_t i = 0; i < w.schema->columns.size(); ++i) {
+    const ColumnSchema& c = w.schema->columns[i];
+    if (i > 0) recorded += ',';
     append_json_string(recorded, c.name);
     recorded += ':';
-    if (const Value* v = given(c.name)) {
+    if (w.given[i] >= 0) {
+      const Value* v = &row[static_cast<std::size_t>(w.given[i])].value;
       if (v->kind() == Value::Kind::text && v->text().size() > long_text_bytes) {
         recorded += R"({"sha256":")";  // a long text: its digest (see long_text_bytes)
         recorded += sha256_hex(v->text());

@@ -53,6 +53,7 @@ private:
     std::size_t rows = 1;
     std::vector<std::string> columns;
     std::vector<Value::Kind> kinds;  ///< per column of `columns`: integer or text (NULL is always allowed)
+    std::vector<int> given;          ///< per schema column: its index in `columns`, or -1 when not given
     const TableSchema* schema = nullptr;
     std::unique_ptr<SQLite::Statement> insert;
   };
