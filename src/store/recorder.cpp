@@ -4,12 +4,14 @@
 #include <fmt/chrono.h>
 #include <fmt/format.h>
 #include <openssl/evp.h>
+#include <sqlite3.h>
 #include <pwd.h>
 #include <unistd.h>
 
 #include <chrono>
 #include <algorithm>
 #include <cstdlib>
+#include <tuple>
 
 #include "core/errors.hpp"
 #include "store/canonical_json.hpp"
@@ -79,142 +81,100 @@ SQLite::Statement& Recorder::statement(const std::string& sql) {
   return *s;
 }
 
+// ---- Computing ----
+
 const TableSchema& Recorder::schema(const std::string& table) {
   auto it = schemas_.find(table);
   if (it == schemas_.end()) {
+    if (batch_) throw StorageError(fmt::format("table {} was not named when the batch began.", table));
     it = schemas_.emplace(table, read_table_schema(db_, table)).first;
     if (it->second.columns.empty()) throw StorageError(fmt::format("table {} does not exist.", table));
   }
   return it->second;
 }
 
-Recorder::Writer& Recorder::writer(const std::string& table, const Row& row, std::size_t rows) {
-  const auto same_shape = [&](const Writer& w) {
-    if (w.table != table || w.rows != rows || w.columns.size() != row.size()) return false;
-    for (std::size_t i = 0; i < row.size(); ++i)
-      if (w.columns[i] != row[i].column) return false;
-    return true;
-  };
-  for (auto& w : writers_)
-    if (same_shape(*w)) return *w;
-
-  auto w = std::make_unique<Writer>();
-  w->table = table;
-  w->rows = rows;
-  w->schema = &schema(table);
-  std::string columns, marks;
-  for (const auto& f : row) {
-    const ColumnSchema* c = w->schema->column(f.column);
-    if (!c) throw StorageError(fmt::format("table {} has no column {}.", table, f.column));
-    if (c->type != "INTEGER" && c->type != "TEXT")
-      throw StorageError(fmt::format("column {}.{} has type {}; plumb stores integers and texts only.", table,
-                                     f.column, c->type));
-    w->columns.emplace_back(f.column);
-    w->kinds.push_back(c->type == "INTEGER" ? Value::Kind::integer : Value::Kind::text);
-    columns += (columns.empty() ? "" : ", ") + std::string(f.column);
-    marks += marks.empty() ? "?" : ", ?";
+std::int64_t Recorder::next_rowid(const std::string& table) {
+  auto it = next_rowid_.find(table);
+  if (it == next_rowid_.end()) {
+    if (batch_) throw StorageError(fmt::format("table {} was not named when the batch began.", table));
+    // What SQLite itself would choose for a table without AUTOINCREMENT: one more than the largest rowid.
+    SQLite::Statement& q = statement(fmt::format("SELECT coalesce(max(rowid), 0) + 1 FROM {}", table));
+    q.executeStep();
+    it = next_rowid_.emplace(table, q.getColumn(0).getInt64()).first;
+    q.reset();
   }
-  for (const auto& c : w->schema->columns) {
-    const auto at = std::find(w->columns.begin(), w->columns.end(), c.name);
-    w->given.push_back(at == w->columns.end() ? -1 : static_cast<int>(at - w->columns.begin()));
-  }
-  std::string values;
-  for (std::size_t i = 0; i < rows; ++i) values += fmt::format("{}({})", i ? ", " : "", marks);
-  w->insert = std::make_unique<SQLite::Statement>(db_, fmt::format("INSERT INTO {} ({}) VALUES {}", table, columns, values));
-  writers_.push_back(std::move(w));
-  return *writers_.back();
+  return it->second++;
 }
 
-void Recorder::bind_row(Writer& w, const Row& row, std::size_t first_parameter) {
-  // The trail records the row as stored without reading it back: so each value must be stored exactly as
-  // given (an integer in an INTEGER column, a text in a TEXT column; no type conversion by SQLite).
-  if (row.size() != w.columns.size()) throw StorageError(fmt::format("rows of {} differ in their columns.", w.table));
-  for (std::size_t i = 0; i < row.size(); ++i) {
-    if (row[i].column != w.columns[i]) throw StorageError(fmt::format("rows of {} differ in their columns.", w.table));
-    const Value& v = row[i].value;
-    const int at = static_cast<int>(first_parameter + i);
-    if (v.is_null()) {
-      w.insert->bind(at);
-      continue;
-    }
-    if (v.kind() != w.kinds[i])
-      throw StorageError(fmt::format("column {}.{} cannot store {} exactly (exact values only).", w.table,
-                                     row[i].column, v.kind() == Value::Kind::integer ? "an integer" : "a text"));
-    if (v.kind() == Value::Kind::integer) w.insert->bind(at, v.integer());
-    else w.insert->bind(at, v.text());
-  }
+std::pair<std::int64_t, std::string> Recorder::chain_tail() {
+  if (batch_) return {tail_seq_, tail_hash_};
+  // Outside a batch, read the tail every time (never cached): cheap with a prepared statement, always right.
+  SQLite::Statement& last = statement("SELECT seq, hash FROM audit_log ORDER BY seq DESC LIMIT 1");
+  std::pair<std::int64_t, std::string> tail{0, std::string(64, '0')};
+  if (last.executeStep()) tail = {last.getColumn(0).getInt64(), last.getColumn(1).getString()};
+  last.reset();  // no read cursor left open between inserts
+  return tail;
 }
 
-void Recorder::append_recorded(const Writer& w, const Row& row, std::int64_t rowid, std::string& recorded) {
+void Recorder::append_recorded(const TableSchema& schema, const Row& row, std::int64_t rowid, std::string& recorded) {
   recorded += '{';
-  for (std::size_t i = 0; i < w.schema->columns.size(); ++i) {
-    const ColumnSchema& c = w.schema->columns[i];
+  for (std::size_t i = 0; i < row.size(); ++i) {
     if (i > 0) recorded += ',';
-    append_json_string(recorded, c.name);
+    append_json_string(recorded, row[i].column);
     recorded += ':';
-    if (w.given[i] >= 0) {
-      const Value* v = &row[static_cast<std::size_t>(w.given[i])].value;
-      if (v->kind() == Value::Kind::text && v->text().size() > long_text_bytes) {
-        recorded += R"({"sha256":")";  // a long text: its digest (see long_text_bytes)
-        recorded += sha256_hex(v->text());
-        recorded += "\"}";
-      } else {
-        append_json_value(recorded, *v);
-      }
-    } else if (c.rowid_alias) {
-      fmt::format_to(std::back_inserter(recorded), "{}", rowid);
+    const Value& v = row[i].value;
+    if (v.kind() == Value::Kind::text && v.text().size() > long_text_bytes) {
+      recorded += R"({"sha256":")";  // a long text: its digest (see long_text_bytes)
+      recorded += sha256_hex(v.text());
+      recorded += "\"}";
     } else {
-      recorded += c.default_value.dump();
+      append_json_value(recorded, v);
     }
   }
+  if (row.size() < schema.columns.size())  // columns the insert leaves to SQLite: their defaults, or the rowid
+    for (const auto& c : schema.columns) {
+      if (std::any_of(row.begin(), row.end(), [&](const Field& f) { return f.column == c.name; })) continue;
+      recorded += ',';
+      append_json_string(recorded, c.name);
+      recorded += ':';
+      if (c.rowid_alias) fmt::format_to(std::back_inserter(recorded), "{}", rowid);
+      else recorded += c.default_value.dump();
+    }
   recorded += '}';
 }
 
-Recorder::Written Recorder::write_row(const std::string& table, const Row& row,
-                                      const std::vector<std::string>& key_columns, std::string& recorded) {
-  Writer& w = writer(table, row, 1);
-  w.insert->reset();
-  w.insert->clearBindings();
-  bind_row(w, row, 1);
-  w.insert->exec();
+std::string Recorder::audit_hash_of(const PreparedGroup& g) const {
+  AuditContent content;
+  content.seq = g.seq;
+  content.at = now_;
+  content.os_user = actor_.os_user;
+  content.actor = actor_.name;
+  content.action = g.action;
+  content.table_name = g.table;
+  content.row_key = g.key;
+  content.after_json = &g.after_json;
+  content.reason = g.reason.empty() ? nullptr : &g.reason;
+  return sha256_hex(g.prev_hash + "\n" + canonical_audit_json(content));
+}
 
-  Written out;
-  out.rowid = db_.getLastInsertRowid();
-  append_recorded(w, row, out.rowid, recorded);
+namespace {
+
+std::string key_text(const Row& row, const std::vector<std::string>& key_columns) {
+  std::string key;
   for (const auto& k : key_columns) {
-    if (!out.key.empty()) out.key += ',';
-    out.key += k;
-    out.key += '=';
+    if (!key.empty()) key += ',';
+    key += k;
+    key += '=';
     const auto f = std::find_if(row.begin(), row.end(), [&](const Field& x) { return x.column == k; });
-    const ColumnSchema* c = w.schema->column(k);
-    if (f == row.end() && c && c->rowid_alias) out.key += std::to_string(out.rowid);
-    else if (f == row.end()) out.key += '?';
-    else if (f->value.is_null()) out.key += "null";
-    else if (f->value.kind() == Value::Kind::integer) out.key += std::to_string(f->value.integer());
-    else out.key += f->value.text();
+    if (f == row.end()) key += '?';
+    else if (f->value.is_null()) key += "null";
+    else if (f->value.kind() == Value::Kind::integer) key += std::to_string(f->value.integer());
+    else key += f->value.text();
   }
-  return out;
+  return key;
 }
 
-void Recorder::write_rows(const std::string& table, const std::vector<Row>& rows, std::string& recorded) {
-  constexpr std::size_t per_statement = 16;
-  for (std::size_t from = 0; from < rows.size(); from += per_statement) {
-    const std::size_t n = std::min(per_statement, rows.size() - from);
-    Writer& w = writer(table, rows[from], n);
-    for (const auto& c : w.schema->columns)
-      if (c.rowid_alias && std::none_of(rows[from].begin(), rows[from].end(),
-                                        [&](const Field& f) { return f.column == c.name; }))
-        throw StorageError(fmt::format("rows of {} written together must give their key {}.", table, c.name));
-    w.insert->reset();
-    w.insert->clearBindings();
-    for (std::size_t i = 0; i < n; ++i) bind_row(w, rows[from + i], 1 + i * w.columns.size());
-    w.insert->exec();
-    for (std::size_t i = 0; i < n; ++i) {
-      if (from + i > 0) recorded += ',';
-      append_recorded(w, rows[from + i], 0, recorded);
-    }
-  }
-}
+}  // namespace
 
 std::string canonical_audit_json(const AuditContent& c) {
   const auto text_or_null = [](std::string& out, const std::string* s) {
@@ -244,94 +204,219 @@ std::string canonical_audit_json(const AuditContent& c) {
   return out;
 }
 
-void Recorder::append_audit(const std::string& action, const std::string& table, const std::string& key,
-                            const std::string& after_json, const std::string& reason) {
-  // Read the chain's tail every time (never cached): it is cheap with a prepared statement, and always right.
-  SQLite::Statement& last = statement("SELECT seq, hash FROM audit_log ORDER BY seq DESC LIMIT 1");
-  std::int64_t seq = 1;
-  std::string prev = std::string(64, '0');
-  if (last.executeStep()) {
-    seq = last.getColumn(0).getInt64() + 1;
-    prev = last.getColumn(1).getString();
+// ---- Writing ----
+
+Recorder::Writer& Recorder::writer(const std::string& table, const Row& row, std::size_t rows) {
+  const auto same_shape = [&](const Writer& w) {
+    if (w.table != table || w.rows != rows || w.columns.size() != row.size()) return false;
+    for (std::size_t i = 0; i < row.size(); ++i)
+      if (w.columns[i] != row[i].column) return false;
+    return true;
+  };
+  for (auto& w : writers_)
+    if (same_shape(*w)) return *w;
+
+  auto w = std::make_unique<Writer>();
+  w->table = table;
+  w->rows = rows;
+  const TableSchema& s = schemas_.count(table) ? schemas_.at(table) : schema(table);
+  std::string columns, marks;
+  for (const auto& f : row) {
+    const ColumnSchema* c = s.column(f.column);
+    if (!c) throw StorageError(fmt::format("table {} has no column {}.", table, f.column));
+    if (c->type != "INTEGER" && c->type != "TEXT")
+      throw StorageError(fmt::format("column {}.{} has type {}; plumb stores integers and texts only.", table,
+                                     f.column, c->type));
+    w->columns.emplace_back(f.column);
+    w->kinds.push_back(c->type == "INTEGER" ? Value::Kind::integer : Value::Kind::text);
+    columns += (columns.empty() ? "" : ", ") + std::string(f.column);
+    marks += marks.empty() ? "?" : ", ?";
   }
-  last.reset();  // no read cursor left open between inserts
-  AuditContent content;
-  content.seq = seq;
-  content.at = now_;
-  content.os_user = actor_.os_user;
-  content.actor = actor_.name;
-  content.action = action;
-  content.table_name = table;
-  content.row_key = key;
-  content.after_json = &after_json;
-  content.reason = reason.empty() ? nullptr : &reason;
-  const std::string hash = sha256_hex(prev + "\n" + canonical_audit_json(content));
+  std::string values;
+  for (std::size_t i = 0; i < rows; ++i) values += fmt::format("{}({})", i ? ", " : "", marks);
+  w->insert = std::make_unique<SQLite::Statement>(db_, fmt::format("INSERT INTO {} ({}) VALUES {}", table, columns, values));
+  writers_.push_back(std::move(w));
+  return *writers_.back();
+}
+
+void Recorder::bind_row(Writer& w, const Row& row, std::size_t first_parameter) {
+  // The trail records the row as given, not read back: so each value must be stored exactly as given (an
+  // integer in an INTEGER column, a text in a TEXT column; no type conversion by SQLite).
+  if (row.size() != w.columns.size()) throw StorageError(fmt::format("rows of {} differ in their columns.", w.table));
+  for (std::size_t i = 0; i < row.size(); ++i) {
+    if (row[i].column != w.columns[i]) throw StorageError(fmt::format("rows of {} differ in their columns.", w.table));
+    const Value& v = row[i].value;
+    const int at = static_cast<int>(first_parameter + i);
+    if (v.is_null()) {
+      w.insert->bind(at);
+      continue;
+    }
+    if (v.kind() != w.kinds[i])
+      throw StorageError(fmt::format("column {}.{} cannot store {} exactly (exact values only).", w.table,
+                                     row[i].column, v.kind() == Value::Kind::integer ? "an integer" : "a text"));
+    if (v.kind() == Value::Kind::integer) w.insert->bind(at, v.integer());
+    else w.insert->bind(at, v.text());
+  }
+}
+
+void Recorder::write_rows(const std::string& table, const std::vector<Row>& rows) {
+  constexpr std::size_t per_statement = 16;
+  for (std::size_t from = 0; from < rows.size(); from += per_statement) {
+    const std::size_t n = std::min(per_statement, rows.size() - from);
+    Writer& w = writer(table, rows[from], n);
+    w.insert->reset();
+    w.insert->clearBindings();
+    for (std::size_t i = 0; i < n; ++i) bind_row(w, rows[from + i], 1 + i * w.columns.size());
+    w.insert->exec();
+  }
+}
+
+void Recorder::write_audit(const PreparedGroup& g) {
   SQLite::Statement& audit =
       statement("INSERT INTO audit_log (seq, at, os_user, actor, action, table_name, row_key, before_json, "
                 "after_json, reason, prev_hash, hash) VALUES (?, ?, ?, ?, ?, ?, ?, NULL, ?, ?, ?, ?)");
-  audit.bind(1, seq);
+  audit.bind(1, g.seq);
   audit.bind(2, now_);
   audit.bind(3, actor_.os_user);
   audit.bind(4, actor_.name);
-  audit.bind(5, action);
-  audit.bind(6, table);
-  audit.bind(7, key);
-  audit.bind(8, after_json);
-  if (reason.empty()) audit.bind(9);
-  else audit.bind(9, reason);
-  audit.bind(10, prev);
-  audit.bind(11, hash);
+  audit.bind(5, g.action);
+  audit.bind(6, g.table);
+  audit.bind(7, g.key);
+  audit.bind(8, g.after_json);
+  if (g.reason.empty()) audit.bind(9);
+  else audit.bind(9, g.reason);
+  audit.bind(10, g.prev_hash);
+  audit.bind(11, g.hash);
   audit.exec();
 }
 
+// ---- The public operations ----
+
 std::int64_t Recorder::insert(const std::string& table, const Row& row, const std::vector<std::string>& key_columns,
                               const std::string& reason) {
-  std::string recorded;
-  const Written w = write_row(table, row, key_columns, recorded);
-  append_audit("insert", table, w.key, recorded, reason);
-  return w.rowid;
+  if (batch_) throw StorageError("a single insert cannot be made while a batch is open.");
+  write_rows(table, {row});
+  const std::int64_t rowid = db_.getLastInsertRowid();
+  PreparedGroup g;
+  g.action = "insert";
+  g.table = table;
+  g.reason = reason;
+  append_recorded(schema(table), row, rowid, g.after_json);
+  // The key as stored: an integer key the insert left to SQLite is the new rowid.
+  Row keyed = row;
+  for (const auto& c : schema(table).columns)
+    if (c.rowid_alias && std::none_of(row.begin(), row.end(), [&](const Field& f) { return f.column == c.name; }))
+      keyed.push_back({c.name, rowid});
+  g.key = key_text(keyed, key_columns);
+  auto [seq, prev] = chain_tail();
+  g.seq = seq + 1;
+  g.prev_hash = std::move(prev);
+  g.hash = audit_hash_of(g);
+  write_audit(g);
+  return rowid;
+}
+
+PreparedGroup Recorder::prepare_together(const std::string& reason, const std::function<void(RowGroup&)>& fill) {
+  if (!batch_) next_rowid_.clear();  // outside a batch, ids are read afresh for every group
+  RowGroup rows(*this);
+  fill(rows);
+  PreparedGroup g = std::move(rows.group_);
+  if (g.inserts.empty()) throw StorageError("an audited group of rows must hold at least one row.");
+  g.action = "insert rows";
+  g.reason = reason;
+  // {"table":[rows],...}: each table's rows in the order they were inserted.
+  g.after_json = "{";
+  for (const auto& [table, recorded] : rows.recorded_) {
+    if (g.after_json.size() > 1) g.after_json += ',';
+    append_json_string(g.after_json, table);
+    g.after_json += ":[";
+    g.after_json += recorded;
+    g.after_json += ']';
+  }
+  g.after_json += '}';
+  auto [seq, prev] = chain_tail();
+  g.seq = seq + 1;
+  g.prev_hash = std::move(prev);
+  g.hash = audit_hash_of(g);
+  if (batch_) {
+    tail_seq_ = g.seq;
+    tail_hash_ = g.hash;
+  }
+  return g;
+}
+
+void Recorder::write(const PreparedGroup& group) {
+  for (const auto& i : group.inserts) write_rows(i.table, i.rows);
+  write_audit(group);
 }
 
 void Recorder::insert_together(const std::string& reason, const std::function<void(RowGroup&)>& fill) {
-  RowGroup group(*this);
-  fill(group);
-  if (group.first_table_.empty()) throw StorageError("an audited group of rows must hold at least one row.");
-  // {"table":[rows],...}: each table's rows in the order they were inserted.
-  std::string after = "{";
-  for (const auto& [table, rows] : group.tables_) {
-    if (after.size() > 1) after += ',';
-    append_json_string(after, table);
-    after += ":[";
-    after += rows;
-    after += ']';
+  write(prepare_together(reason, fill));
+}
+
+void Recorder::begin_batch(const std::vector<std::string>& tables) {
+  if (db_.getHandle() && sqlite3_get_autocommit(db_.getHandle()))
+    throw StorageError("a batch must run inside a write transaction.");
+  for (const auto& t : tables) {
+    schema(t);
+    next_rowid_.erase(t);
+    next_rowid(t);   // seeds the counter ...
+    --next_rowid_[t];  // ... without using an id
   }
-  after += '}';
-  append_audit("insert rows", group.first_table_, group.first_key_, after, reason);
+  std::tie(tail_seq_, tail_hash_) = chain_tail();
+  batch_ = true;
+}
+
+void Recorder::end_batch() {
+  batch_ = false;
+  next_rowid_.clear();
 }
 
 std::string& RowGroup::rows_of(const std::string& table) {
-  auto it = std::find_if(tables_.begin(), tables_.end(), [&](const auto& t) { return t.first == table; });
-  if (it == tables_.end()) {
-    tables_.emplace_back(table, std::string());
-    return tables_.back().second;
+  auto it = std::find_if(recorded_.begin(), recorded_.end(), [&](const auto& t) { return t.first == table; });
+  if (it == recorded_.end()) {
+    recorded_.emplace_back(table, std::string());
+    return recorded_.back().second;
   }
   it->second += ',';
   return it->second;
 }
 
-std::int64_t RowGroup::insert(const std::string& table, const Row& row, const std::vector<std::string>& key_columns) {
-  const Recorder::Written w = rec_.write_row(table, row, key_columns, rows_of(table));
-  if (first_table_.empty()) {
-    first_table_ = table;
-    first_key_ = w.key;
+std::int64_t RowGroup::insert(const std::string& table, Row row, const std::vector<std::string>& key_columns) {
+  const TableSchema& s = rec_.schema(table);
+  std::int64_t rowid = 0;
+  for (const auto& c : s.columns)
+    if (c.rowid_alias) {
+      const auto given = std::find_if(row.begin(), row.end(), [&](const Field& f) { return f.column == c.name; });
+      if (given == row.end()) {
+        rowid = rec_.next_rowid(table);
+        row.insert(row.begin(), Field{c.name, rowid});
+      } else if (given->value.kind() == Value::Kind::integer) {
+        rowid = given->value.integer();
+      }
+    }
+  rec_.append_recorded(s, row, rowid, rows_of(table));
+  if (group_.inserts.empty()) {  // the first row names the group in the trail
+    group_.table = table;
+    group_.key = key_text(row, key_columns);
   }
-  return w.rowid;
+  group_.inserts.push_back({table, {std::move(row)}});
+  return rowid;
 }
 
-void RowGroup::insert_rows(const std::string& table, const std::vector<Row>& rows) {
+void RowGroup::insert_rows(const std::string& table, std::vector<Row> rows) {
   if (rows.empty()) return;
-  if (first_table_.empty()) throw StorageError("a group of rows starts with a single row, whose key names the group.");
-  rec_.write_rows(table, rows, rows_of(table));
+  if (group_.inserts.empty()) throw StorageError("a group of rows starts with a single row, whose key names the group.");
+  const TableSchema& s = rec_.schema(table);
+  for (const auto& c : s.columns)
+    if (c.rowid_alias && std::none_of(rows[0].begin(), rows[0].end(), [&](const Field& f) { return f.column == c.name; }))
+      throw StorageError(fmt::format("rows of {} written together must give their key {}.", table, c.name));
+  std::string& recorded = rows_of(table);
+  for (std::size_t i = 0; i < rows.size(); ++i) {
+    if (i > 0) recorded += ',';
+    rec_.append_recorded(s, rows[i], 0, recorded);
+  }
+  group_.inserts.push_back({table, std::move(rows)});
 }
 
 }  // namespace plumb::store

@@ -28,6 +28,18 @@ std::string utc_timestamp();
 
 class RowGroup;
 
+/// Rows and their audit record, computed but not yet written (Recorder::prepare_together). A batch import
+/// prepares them on one thread while the database thread writes the ones before.
+struct PreparedGroup {
+  struct Insert {
+    std::string table;
+    std::vector<Row> rows;  ///< of one shape, every key given
+  };
+  std::vector<Insert> inserts;  ///< in the order they were made
+  std::int64_t seq = 0;         ///< the audit record's place in the chain
+  std::string action, table, key, after_json, reason, prev_hash, hash;
+};
+
 class Recorder {
 public:
   Recorder(SQLite::Database& db, Actor actor);
@@ -41,6 +53,17 @@ public:
   /// audit record (action "insert rows"): the trail then reads one entry per thing a person recorded, and
   /// a batch import does not write a trail record for every reading. `fill` inserts the rows.
   void insert_together(const std::string& reason, const std::function<void(RowGroup&)>& fill);
+  /// insert_together in two steps: compute the rows (with their ids) and the audit record ...
+  PreparedGroup prepare_together(const std::string& reason, const std::function<void(RowGroup&)>& fill);
+  /// ... and write them. Groups are written in the order they were prepared.
+  void write(const PreparedGroup& group);
+
+  /// Batch mode, for a batch import inside one write transaction: the chain's tail and the next id of each
+  /// of `tables` are read once and then kept in memory (the transaction holds the write lock, so nobody
+  /// else can append), which lets prepare_together run on another thread without touching the database
+  /// while this one writes. Only prepare_together and write may be used until end_batch.
+  void begin_batch(const std::vector<std::string>& tables);
+  void end_batch();
 
   [[nodiscard]] const Actor& actor() const { return actor_; }
   [[nodiscard]] const std::string& now() const { return now_; }
@@ -53,27 +76,24 @@ private:
     std::size_t rows = 1;
     std::vector<std::string> columns;
     std::vector<Value::Kind> kinds;  ///< per column of `columns`: integer or text (NULL is always allowed)
-    std::vector<int> given;          ///< per schema column: its index in `columns`, or -1 when not given
-    const TableSchema* schema = nullptr;
     std::unique_ptr<SQLite::Statement> insert;
   };
-  struct Written {
-    std::int64_t rowid = 0;
-    std::string key;
-  };
-  /// Writes the row and appends it to `recorded` as the trail records it: a JSON object of every column
-  /// (unmentioned columns with their literal defaults), built from the values given, not read back.
-  Written write_row(const std::string& table, const Row& row, const std::vector<std::string>& key_columns,
-                    std::string& recorded);
-  /// The same for rows of one shape whose keys are all given (no rowid to take), several per INSERT;
-  /// `recorded` receives them comma-separated.
-  void write_rows(const std::string& table, const std::vector<Row>& rows, std::string& recorded);
+
+  // Computing (no database access in batch mode).
+  const TableSchema& schema(const std::string& table);
+  std::int64_t next_rowid(const std::string& table);
+  std::pair<std::int64_t, std::string> chain_tail();
+  /// Appends `row` as the trail records it: a JSON object of every column (unmentioned columns with their
+  /// literal defaults, the rowid of an integer key), built from the values given, not read back.
+  void append_recorded(const TableSchema& schema, const Row& row, std::int64_t rowid, std::string& recorded);
+  [[nodiscard]] std::string audit_hash_of(const PreparedGroup& g) const;
+
+  // Writing (the database thread).
   Writer& writer(const std::string& table, const Row& row, std::size_t rows);
   void bind_row(Writer& w, const Row& row, std::size_t first_parameter);
-  void append_recorded(const Writer& w, const Row& row, std::int64_t rowid, std::string& recorded);
-  void append_audit(const std::string& action, const std::string& table, const std::string& key,
-                    const std::string& after_json, const std::string& reason);
-  const TableSchema& schema(const std::string& table);
+  /// Inserts rows of one shape, several per statement.
+  void write_rows(const std::string& table, const std::vector<Row>& rows);
+  void write_audit(const PreparedGroup& g);
   /// A prepared statement for `sql`, reset for reuse.
   SQLite::Statement& statement(const std::string& sql);
 
@@ -85,24 +105,29 @@ private:
   /// A batch import inserts millions of rows with a handful of distinct statements; preparing each one
   /// anew would cost more than the insert.
   std::vector<std::unique_ptr<Writer>> writers_;
+  bool batch_ = false;
+  std::int64_t tail_seq_ = 0;  ///< batch mode: the chain's last record
+  std::string tail_hash_;
+  std::map<std::string, std::int64_t> next_rowid_;  ///< batch mode: per table; otherwise within one group
 };
 
 /// The rows of one Recorder::insert_together call.
 class RowGroup {
 public:
-  /// As Recorder::insert, without an audit record of its own: the group's record covers the row.
-  std::int64_t insert(const std::string& table, const Row& row, const std::vector<std::string>& key_columns);
+  /// As Recorder::insert, without an audit record of its own: the group's record covers the row. An integer
+  /// key that is not given is assigned here (the next rowid), so the id is known before anything is written.
+  std::int64_t insert(const std::string& table, Row row, const std::vector<std::string>& key_columns);
   /// Several rows of one table with the same columns and every key column given (readings): written
   /// several to a statement, which is what makes a batch import of millions of readings affordable.
-  void insert_rows(const std::string& table, const std::vector<Row>& rows);
+  void insert_rows(const std::string& table, std::vector<Row> rows);
 
 private:
   friend class Recorder;
   explicit RowGroup(Recorder& rec) : rec_(rec) {}
-  Recorder& rec_;
-  std::string first_table_, first_key_;
-  std::vector<std::pair<std::string, std::string>> tables_;  ///< table -> its rows as recorded, "{..},{..}"
   std::string& rows_of(const std::string& table);
+  Recorder& rec_;
+  PreparedGroup group_;
+  std::vector<std::pair<std::string, std::string>> recorded_;  ///< table -> its rows as recorded, "{..},{..}"
 };
 
 /// SHA-256 of `text` as lowercase hex (OpenSSL libcrypto).

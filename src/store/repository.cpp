@@ -230,17 +230,16 @@ void add_balance(Recorder& rec, const BalanceRecord& b) {
              {"instrument_id"});
 }
 
-std::int64_t add_run(Recorder& rec, const RunRecord& run) {
-  std::int64_t id = 0;
+PreparedGroup prepare_run(Recorder& rec, const RunRecord& run, std::int64_t& id) {
   // One audit record for the run with its weights and readings: what the operator recorded, as one entry.
-  rec.insert_together(run.reason, [&](RowGroup& group) {
+  return rec.prepare_together(run.reason, [&](RowGroup& group) {
     id = group.insert("check_runs",
                       {{"instrument_id", run.instrument_id},
                        {"procedure", run.procedure},
                        {"performed_on", to_string(run.performed_on)},
                        {"operator", run.operator_name},
                        {"results_json", run.results.dump()},
-                       {"verdict", std::string(to_string(run.verdict))},
+                       {"verdict", to_string(run.verdict)},
                        {"next_due", run.next_due ? Value(to_string(*run.next_due)) : Value()},
                        {"supersedes", run.supersedes ? Value(*run.supersedes) : Value()},
                        {"reason", run.reason.empty() ? Value() : Value(run.reason)},
@@ -265,8 +264,13 @@ std::int64_t add_run(Recorder& rec, const RunRecord& run) {
                           {"unit", to_string(r.reading.unit)},
                           {"units", r.reading.value.units()},
                           {"scale", r.reading.value.scale()}});
-    group.insert_rows("readings", readings);
+    group.insert_rows("readings", std::move(readings));
   });
+}
+
+std::int64_t add_run(Recorder& rec, const RunRecord& run) {
+  std::int64_t id = 0;
+  rec.write(prepare_run(rec, run, id));
   return id;
 }
 

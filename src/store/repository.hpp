@@ -35,6 +35,9 @@ void add_balance(Recorder& rec, const BalanceRecord& b);
 // Check runs
 /// Appends the run with its weights and readings; returns the new run id.
 std::int64_t add_run(Recorder& rec, const RunRecord& run);
+/// add_run's rows and audit record, computed but not written (a batch import writes them on another
+/// thread with Recorder::write); `id` receives the run id they will have.
+PreparedGroup prepare_run(Recorder& rec, const RunRecord& run, std::int64_t& id);
 std::optional<RunRecord> find_run(SQLite::Database& db, std::int64_t id);
 /// The id of the most recently recorded run, if any.
 std::optional<std::int64_t> last_run_id(SQLite::Database& db);
