@@ -6,11 +6,13 @@
 
 #include <array>
 #include <fstream>
+#include <future>
 
 #include "app/record_check.hpp"
 #include "core/errors.hpp"
 #include "core/history_csv.hpp"
 #include "store/file_digest.hpp"
+#include "store/repository.hpp"
 
 namespace plumb::app {
 namespace {
@@ -30,10 +32,11 @@ class Importer {
 public:
   Importer(store::Database& db, store::Recorder& rec, std::string source)
       : rec_(rec), lookups_(db), source_(std::move(source)) {
-    lookups_.load_all_balances();
+    lookups_.load_all();  // from here on, validating a run reads nothing from the database
   }
 
-  void record(HistoryRun& run) {
+  /// Validates and computes one run and prepares its rows and audit record (no database access).
+  store::PreparedGroup prepare(HistoryRun& run) {
     CheckInput in;
     in.instrument_id = std::move(run.instrument);
     in.procedure = std::move(run.procedure);
@@ -43,9 +46,9 @@ public:
     in.readings_source = source_;
     const long long readings = static_cast<long long>(run.readings.size());
     in.parsed_readings = std::move(run.readings);
-    RecordedCheck recorded;
+    store::RunRecord built;
     try {
-      recorded = record_check_in(rec_, lookups_, in);
+      built = build_check_run(lookups_, in);
     } catch (const InputError& e) {
       std::string message = e.what();
       if (message.rfind(source_ + " line ", 0) == 0) throw;  // already names its line in the import file
@@ -53,8 +56,9 @@ public:
       throw InputError(fmt::format("{} line {} (run of {} on {}): {}", source_, run.first_line, in.instrument_id,
                                    run.date, as_column_message(message)));
     }
-    const std::int64_t id = recorded.run_id;
-    const bool failed = recorded.verdict == Verdict::fail;
+    std::int64_t id = 0;
+    store::PreparedGroup prepared = store::prepare_run(rec_, built, id);
+    const bool failed = built.verdict == Verdict::fail;
 
     const Date on = parse_date(run.date, "date");
     auto [it, fresh] = report_.instruments.try_emplace(in.instrument_id);
@@ -72,6 +76,7 @@ public:
     report_.last_run_id = id;
     ++report_.runs;
     report_.readings += readings;
+    return prepared;
   }
 
   ImportReport& report() { return report_; }
@@ -109,14 +114,39 @@ ImportReport import_history(store::Database& db, const store::Actor& actor, cons
 
   std::ifstream in(file, std::ios::binary);
   if (!in) throw InputError(fmt::format("import file \"{}\" cannot be read.", file.string()));
+
+  // Two threads: this one writes the runs prepared so far while a second one reads, validates and prepares
+  // the next chunk (parsing, statistics, results, audit JSON and hashes). The second thread never touches
+  // the database: the registry was read by load_all and the Recorder's batch mode keeps the audit chain and
+  // the next ids in memory. Chunks are written in file order, so the trail is the same as one thread's.
+  rec.begin_batch({"check_runs", "run_weights", "readings"});
   std::string line;
   long long done = 0;
-  while (std::getline(in, line)) {
-    done += static_cast<long long>(line.size()) + 1;
-    if (auto run = parser.feed(line)) importer.record(*run);
-    if (progress && (parser.line() & 4095) == 0) progress(done, total);
+  bool at_end = false;
+  const auto prepare_chunk = [&] {
+    std::vector<store::PreparedGroup> chunk;
+    while (chunk.size() < 256 && !at_end) {
+      if (std::getline(in, line)) {
+        done += static_cast<long long>(line.size()) + 1;
+        if (auto run = parser.feed(line)) chunk.push_back(importer.prepare(*run));
+        if (progress && (parser.line() & 4095) == 0) progress(done, total);
+      } else {
+        at_end = true;
+        if (auto run = parser.finish()) chunk.push_back(importer.prepare(*run));
+      }
+    }
+    return chunk;
+  };
+  auto next = std::async(std::launch::async, prepare_chunk);
+  while (true) {
+    std::vector<store::PreparedGroup> chunk = next.get();  // rethrows a bad row's InputError here
+    const bool last = at_end;
+    if (!last) next = std::async(std::launch::async, prepare_chunk);
+    // If a write fails, `next`'s destructor waits for the chunk in preparation before the rollback.
+    for (const auto& group : chunk) rec.write(group);
+    if (last) break;
   }
-  if (auto run = parser.finish()) importer.record(*run);
+  rec.end_batch();
 
   ImportReport& report = importer.report();
   report.file_sha256 = sha;

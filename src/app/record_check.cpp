@@ -31,17 +31,28 @@ void CheckLookups::require_lab() {
   lab_checked_ = true;
 }
 
-void CheckLookups::load_all_balances() {
+void CheckLookups::load_all() {
+  require_lab();
   for (auto& b : store::list_balances(db_.sql())) {
     std::string id = b.id;
     balances_.insert_or_assign(std::move(id), std::move(b));
   }
+  const Date any_date{date::year{9999}, date::December, date::day{31}};
+  for (auto& w : store::list_weights(db_.sql())) {
+    std::string id = w.id;
+    auto calibrations = store::weight_calibrations_until(db_.sql(), id, any_date);
+    weights_.insert_or_assign(std::move(id), WeightHistory{std::move(w), std::move(calibrations)});
+  }
+  for (const char* kind : {"instrument", "weight"})
+    for (const auto& id : store::retired_ids(db_.sql(), kind))
+      retirements_[std::string(kind) + '/' + id] = store::retirement(db_.sql(), kind, id);
+  all_loaded_ = true;
 }
 
 const store::BalanceRecord& CheckLookups::balance(const std::string& id) {
   auto it = balances_.find(id);
   if (it == balances_.end()) {
-    auto b = store::find_balance(db_.sql(), id);
+    auto b = all_loaded_ ? std::nullopt : store::find_balance(db_.sql(), id);
     if (!b) throw InputError(fmt::format("balance \"{}\" is not registered.", id));
     it = balances_.emplace(id, std::move(*b)).first;
   }
@@ -51,10 +62,11 @@ const store::BalanceRecord& CheckLookups::balance(const std::string& id) {
 store::WeightRecord CheckLookups::traceable_weight(const std::string& id, Date on) {
   auto it = weights_.find(id);
   if (it == weights_.end()) {
-    auto w = store::find_weight(db_.sql(), id);
+    auto w = all_loaded_ ? std::nullopt : store::find_weight(db_.sql(), id);
     if (!w) throw InputError(fmt::format("--weight \"{}\" is not a known reference weight.", id));
-    WeightHistory h{std::move(*w), store::weight_calibrations_until(db_.sql(), id, Date{date::year{9999}, date::December, date::day{31}})};
-    it = weights_.emplace(id, std::move(h)).first;
+    auto calibrations =
+        store::weight_calibrations_until(db_.sql(), id, Date{date::year{9999}, date::December, date::day{31}});
+    it = weights_.emplace(id, WeightHistory{std::move(*w), std::move(calibrations)}).first;
   }
   const WeightHistory& h = it->second;
   // The certificate in force on the check date: the latest dated on or before it (by date, then entry order).
@@ -76,9 +88,12 @@ store::WeightRecord CheckLookups::traceable_weight(const std::string& id, Date o
 
 void CheckLookups::require_in_service(const std::string& item_kind, const std::string& id) {
   const std::string key = item_kind + '/' + id;
-  if (in_service_.count(key)) return;
-  app::require_in_service(db_, item_kind, id);  // throws when retired
-  in_service_[key] = true;
+  auto it = retirements_.find(key);
+  if (it == retirements_.end()) {
+    // Loaded: only retired items are listed, so a missing one is in service.
+    it = retirements_.emplace(key, all_loaded_ ? std::nullopt : store::retirement(db_.sql(), item_kind, id)).first;
+  }
+  app::require_in_service(item_kind, id, it->second);  // throws when retired
 }
 
 std::int64_t resolve_run(store::Database& db, const std::string& selector) {
@@ -105,6 +120,11 @@ store::RunRecord record_check(store::Database& db, const store::Actor& actor, co
 }
 
 RecordedCheck record_check_in(store::Recorder& rec, CheckLookups& lookups, const CheckInput& in) {
+  const store::RunRecord run = build_check_run(lookups, in);
+  return {store::add_run(rec, run), run.verdict};
+}
+
+store::RunRecord build_check_run(CheckLookups& lookups, const CheckInput& in) {
   const auto procedures = known_procedures();
   if (std::find(procedures.begin(), procedures.end(), in.procedure) == procedures.end())
     throw InputError(fmt::format("--procedure \"{}\" is not known (known: {}).", in.procedure,
@@ -173,7 +193,7 @@ RecordedCheck record_check_in(store::Recorder& rec, CheckLookups& lookups, const
   int seq = 1;
   for (const auto& r : readings) run.readings.push_back({seq++, "", r.reading});
 
-  return {store::add_run(rec, run), run.verdict};
+  return run;
 }
 
 }  // namespace plumb::app

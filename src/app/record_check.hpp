@@ -11,6 +11,7 @@
 #include "store/database.hpp"
 #include "store/recorder.hpp"
 #include "store/records.hpp"
+#include "store/status_events.hpp"
 
 namespace plumb::app {
 
@@ -38,8 +39,10 @@ class CheckLookups {
 public:
   explicit CheckLookups(store::Database& db) : db_(db) {}
 
-  /// Reads every balance at once: a batch import touches many of them, and one query beats thousands.
-  void load_all_balances();
+  /// Reads the whole registry a check can need (lab, balances, weights with their certificates,
+  /// retirements) at once and from then on never touches the database: a batch import validates its runs on
+  /// one thread while another writes, and one query per table beats thousands of look-ups.
+  void load_all();
   void require_lab();
   /// The balance; InputError when it is not registered.
   const store::BalanceRecord& balance(const std::string& id);
@@ -55,10 +58,11 @@ private:
     std::vector<store::WeightCalibration> calibrations;  ///< oldest first
   };
   store::Database& db_;
+  bool all_loaded_ = false;  ///< load_all was called: a miss is an unknown item, not a query
   bool lab_checked_ = false;
   std::map<std::string, store::BalanceRecord> balances_;
   std::map<std::string, WeightHistory> weights_;
-  std::map<std::string, bool> in_service_;  ///< key: kind + '/' + id
+  std::map<std::string, std::optional<store::ServiceEvent>> retirements_;  ///< key: kind + '/' + id
 };
 
 /// Validates, computes and records one check in its own transaction; nothing is written on error.
@@ -69,6 +73,8 @@ struct RecordedCheck {
 };
 /// The same inside a transaction the caller holds (batch import, correction).
 RecordedCheck record_check_in(store::Recorder& rec, CheckLookups& lookups, const CheckInput& in);
+/// Validates and computes the check without writing it: the run as it will be recorded (no id yet).
+store::RunRecord build_check_run(CheckLookups& lookups, const CheckInput& in);
 
 /// "LAST" or a run number; InputError when there is no such run.
 std::int64_t resolve_run(store::Database& db, const std::string& selector);

@@ -52,7 +52,11 @@ store::ServiceEvent change_service_status(store::Database& db, const store::Acto
 }
 
 void require_in_service(store::Database& db, const std::string& item_kind, const std::string& id) {
-  const auto retired = store::retirement(db.sql(), item_kind, id);
+  require_in_service(item_kind, id, store::retirement(db.sql(), item_kind, id));
+}
+
+void require_in_service(const std::string& item_kind, const std::string& id,
+                        const std::optional<store::ServiceEvent>& retired) {
   if (!retired) return;
   const std::string option = item_kind == "weight" ? "--weight" : "instrument";
   throw InputError(fmt::format("{} {} was retired on {} by {} ({}); reinstate it with `plumb {} reinstate {} "

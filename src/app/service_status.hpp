@@ -1,6 +1,7 @@
 #pragma once
 // Taking an instrument or a reference weight out of use (retire) and bringing it back (reinstate).
 // Both are append-only events with a reason; the item and its history stay in the database.
+#include <optional>
 #include <string>
 
 #include "store/database.hpp"
@@ -17,5 +18,8 @@ store::ServiceEvent change_service_status(store::Database& db, const store::Acto
 
 /// InputError when the item is retired: a retired instrument or weight takes no new checks.
 void require_in_service(store::Database& db, const std::string& item_kind, const std::string& id);
+/// The same from its retirement already read (none: in service).
+void require_in_service(const std::string& item_kind, const std::string& id,
+                        const std::optional<store::ServiceEvent>& retired);
 
 }  // namespace plumb::app
