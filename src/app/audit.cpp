@@ -7,6 +7,7 @@
 
 #include "app/certificates.hpp"
 #include "core/errors.hpp"
+#include "store/audit_trail.hpp"
 #include "store/repository.hpp"
 
 namespace plumb::app {
@@ -24,32 +25,13 @@ bool in(const json& row, const char* column, const std::set<std::int64_t>& ids) 
 
 bool is_id(const json& row, const char* column, std::int64_t id) { return in(row, column, {id}); }
 
-struct RecordedRow {
-  std::string table;
-  json row;
-};
-
-/// The rows an audit record describes: one for "insert", several (of one or more tables) for "insert rows".
-std::vector<RecordedRow> rows_of(const store::AuditRecord& r) {
-  if (!r.after_json) return {};
-  json after = json::parse(*r.after_json, nullptr, false);
-  if (!after.is_object()) return {};
-  if (r.action != "insert rows") return {{r.table_name, std::move(after)}};
-  std::vector<RecordedRow> out;
-  for (auto& [table, rows] : after.items())
-    if (rows.is_array())
-      for (auto& row : rows)
-        if (row.is_object()) out.push_back({table, std::move(row)});
-  return out;
-}
-
 std::vector<store::AuditRecord> of_instrument(const std::vector<store::AuditRecord>& all, const std::string& id) {
   std::set<std::int64_t> runs, certificates;
   std::vector<store::AuditRecord> out;
   // Parents are always recorded before their children, so one pass in trail order collects the ids.
   for (const auto& r : all) {
     bool related = false;
-    for (const auto& [table, row] : rows_of(r)) {
+    for (const auto& [table, row] : store::recorded_rows(r)) {
       if (!((table == "instruments" && is(row, "id", id)) || is(row, "instrument_id", id) ||
             (is(row, "item_kind", "instrument") && is(row, "item_id", id)) || in(row, "run_id", runs) ||
             in(row, "certificate_id", certificates)))
@@ -68,7 +50,7 @@ std::vector<store::AuditRecord> of_certificate(const std::vector<store::AuditRec
   std::vector<store::AuditRecord> out;
   for (const auto& r : all) {
     bool related = false;
-    for (const auto& [table, row] : rows_of(r))
+    for (const auto& [table, row] : store::recorded_rows(r))
       related = related || (table == "certificates"
                                 ? is_id(row, "id", c.id) || is_id(row, "supersedes", c.id)
                                 : (table == "check_runs" && is_id(row, "id", c.run_id)) ||

@@ -47,10 +47,9 @@ std::string audit_log_text(const std::string& scope, const std::vector<store::Au
     const json before = parsed_or_null(r.before_json);
     if (before.is_object()) out += fmt::format("        before: {}\n", columns_text(before));
     const json after = parsed_or_null(r.after_json);
-    if (r.action == "insert rows" && after.is_object()) {
-      for (const auto& [table, rows] : after.items())
-        for (const auto& row : rows)
-          if (row.is_object()) out += fmt::format("        {}: {}\n", table, columns_text(row));
+    if (r.action == "insert rows") {
+      for (const auto& [table, row] : store::recorded_rows(r))
+        out += fmt::format("        {}: {}\n", table, columns_text(row));
     } else if (after.is_object()) {
       out += fmt::format("        after: {}\n", columns_text(after));
     }
@@ -68,6 +67,19 @@ std::string audit_log_csv(const std::vector<store::AuditRecord>& records) {
   return out;
 }
 
+namespace {
+
+/// What the record says was inserted: the row, or for "insert rows" each table's rows as objects (the
+/// stored form lists the column names once per table).
+json after_of(const store::AuditRecord& r) {
+  if (r.action != "insert rows") return parsed_or_null(r.after_json);
+  json tables = json::object();
+  for (auto& [table, row] : store::recorded_rows(r)) tables[table].push_back(std::move(row));
+  return tables;
+}
+
+}  // namespace
+
 json audit_log_json(const std::string& scope, const std::vector<store::AuditRecord>& records) {
   json list = json::array();
   for (const auto& r : records)
@@ -80,7 +92,7 @@ json audit_log_json(const std::string& scope, const std::vector<store::AuditReco
                     {"row_key", r.row_key},
                     {"reason", r.reason ? json(*r.reason) : json()},
                     {"before", parsed_or_null(r.before_json)},
-                    {"after", parsed_or_null(r.after_json)},
+                    {"after", after_of(r)},
                     {"prev_hash", r.prev_hash},
                     {"hash", r.hash}});
   return {{"scope", scope}, {"records", list}};

@@ -121,6 +121,26 @@ json AuditRecord::hashed_content() const {
 
 std::string genesis_hash() { return std::string(64, '0'); }
 
+std::vector<RecordedRow> recorded_rows(const AuditRecord& record) {
+  if (!record.after_json) return {};
+  json after = json::parse(*record.after_json, nullptr, false);
+  if (!after.is_object()) return {};
+  if (record.action == "insert") return {{record.table_name, std::move(after)}};
+  if (record.action != "insert rows") return {};
+  std::vector<RecordedRow> out;
+  for (const auto& [table, block] : after.items()) {
+    if (!block.is_object() || !block.contains("columns") || !block.contains("rows")) continue;
+    const json& columns = block["columns"];
+    for (const auto& values : block["rows"]) {
+      if (!values.is_array() || values.size() != columns.size()) continue;
+      json row = json::object();
+      for (std::size_t i = 0; i < columns.size(); ++i) row[columns[i].get<std::string>()] = values[i];
+      out.push_back({table, std::move(row)});
+    }
+  }
+  return out;
+}
+
 std::vector<AuditRecord> audit_records(SQLite::Database& db) {
   SQLite::Statement q(db,
                       "SELECT seq, at, os_user, actor, action, table_name, row_key, before_json, after_json, reason, "
@@ -171,17 +191,8 @@ AuditVerification verify_audit_trail(SQLite::Database& db) {
                               fmt::format("{} {}, {}: the same row was already recorded by audit record {}.", table,
                                           key, where_recorded(r), it->second.record->seq)});
   };
-  for (const auto& r : records) {
-    if (!r.after_json) continue;
-    json after = json::parse(*r.after_json, nullptr, false);
-    if (r.action == "insert") {
-      expect(r, r.table_name, std::move(after));
-    } else if (r.action == "insert rows" && after.is_object()) {
-      for (auto& [table, rows] : after.items())
-        if (rows.is_array())
-          for (auto& row : rows) expect(r, table, std::move(row));
-    }
-  }
+  for (const auto& r : records)
+    for (auto& [table, row] : recorded_rows(r)) expect(r, table, std::move(row));
 
   // Every row of every table against the trail.
   struct Unaudited {

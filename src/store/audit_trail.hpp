@@ -29,6 +29,17 @@ struct AuditRecord {
   [[nodiscard]] nlohmann::json hashed_content() const;
 };
 
+/// A row as an audit record describes it.
+struct RecordedRow {
+  std::string table;
+  nlohmann::json row;  ///< column -> value (a long text as {"sha256": hex})
+};
+
+/// The rows an audit record describes: one for "insert" (after_json is the row); for "insert rows"
+/// (after_json is {"table": {"columns": [...], "rows": [[...], ...]}, ...}) every row of every table, in
+/// order. Empty when after_json is not what the action says (an altered record: the chain reports it).
+std::vector<RecordedRow> recorded_rows(const AuditRecord& record);
+
 /// The whole trail in sequence order.
 std::vector<AuditRecord> audit_records(SQLite::Database& db);
 

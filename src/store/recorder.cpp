@@ -324,14 +324,27 @@ PreparedGroup Recorder::prepare_together(const std::string& reason, const std::f
   if (g.inserts.empty()) throw StorageError("an audited group of rows must hold at least one row.");
   g.action = "insert rows";
   g.reason = reason;
-  // {"table":[rows],...}: each table's rows in the order they were inserted.
+  // {"table":{"columns":[...],"rows":[[...],...]},...}: each table's rows in the order they were inserted,
+  // the column names once per table (a run's readings would otherwise repeat them in every row).
   g.after_json = "{";
-  for (const auto& [table, recorded] : rows.recorded_) {
+  for (const auto& b : rows.blocks_) {
     if (g.after_json.size() > 1) g.after_json += ',';
-    append_json_string(g.after_json, table);
-    g.after_json += ":[";
-    g.after_json += recorded;
-    g.after_json += ']';
+    append_json_string(g.after_json, b.table);
+    g.after_json += R"(:{"columns":[)";
+    bool first = true;
+    for (const auto& c : b.given) {
+      if (!first) g.after_json += ',';
+      first = false;
+      append_json_string(g.after_json, c);
+    }
+    for (const ColumnSchema* c : b.left) {
+      if (!first) g.after_json += ',';
+      first = false;
+      append_json_string(g.after_json, c->name);
+    }
+    g.after_json += R"(],"rows":[)";
+    g.after_json += b.rows;
+    g.after_json += "]}";
   }
   g.after_json += '}';
   auto [seq, prev] = chain_tail();
@@ -372,14 +385,43 @@ void Recorder::end_batch() {
   next_rowid_.clear();
 }
 
-std::string& RowGroup::rows_of(const std::string& table) {
-  auto it = std::find_if(recorded_.begin(), recorded_.end(), [&](const auto& t) { return t.first == table; });
-  if (it == recorded_.end()) {
-    recorded_.emplace_back(table, std::string());
-    return recorded_.back().second;
+void RowGroup::record(const std::string& table, const Row& row, std::int64_t rowid) {
+  auto b = std::find_if(blocks_.begin(), blocks_.end(), [&](const Block& x) { return x.table == table; });
+  if (b == blocks_.end()) {
+    Block fresh;
+    fresh.table = table;
+    fresh.schema = &rec_.schema(table);
+    for (const auto& f : row) fresh.given.emplace_back(f.column);
+    for (const auto& c : fresh.schema->columns)
+      if (std::find(fresh.given.begin(), fresh.given.end(), c.name) == fresh.given.end()) fresh.left.push_back(&c);
+    blocks_.push_back(std::move(fresh));
+    b = std::prev(blocks_.end());
+  } else {
+    b->rows += ',';
   }
-  it->second += ',';
-  return it->second;
+  if (row.size() != b->given.size())
+    throw StorageError(fmt::format("rows of {} in one group must give the same columns.", table));
+  std::string& out = b->rows;
+  out += '[';
+  for (std::size_t i = 0; i < row.size(); ++i) {
+    if (row[i].column != b->given[i])
+      throw StorageError(fmt::format("rows of {} in one group must give the same columns.", table));
+    if (i > 0) out += ',';
+    const Value& v = row[i].value;
+    if (v.kind() == Value::Kind::text && v.text().size() > long_text_bytes) {
+      out += R"({"sha256":")";  // a long text: its digest (see long_text_bytes)
+      out += sha256_hex(v.text());
+      out += "\"}";
+    } else {
+      append_json_value(out, v);
+    }
+  }
+  for (const ColumnSchema* c : b->left) {
+    if (!out.empty() && out.back() != '[') out += ',';
+    if (c->rowid_alias) fmt::format_to(std::back_inserter(out), "{}", rowid);
+    else out += c->default_value.dump();
+  }
+  out += ']';
 }
 
 std::int64_t RowGroup::insert(const std::string& table, Row row, const std::vector<std::string>& key_columns) {
@@ -395,7 +437,7 @@ std::int64_t RowGroup::insert(const std::string& table, Row row, const std::vect
         rowid = given->value.integer();
       }
     }
-  rec_.append_recorded(s, row, rowid, rows_of(table));
+  record(table, row, rowid);
   if (group_.inserts.empty()) {  // the first row names the group in the trail
     group_.table = table;
     group_.key = key_text(row, key_columns);
@@ -411,11 +453,7 @@ void RowGroup::insert_rows(const std::string& table, std::vector<Row> rows) {
   for (const auto& c : s.columns)
     if (c.rowid_alias && std::none_of(rows[0].begin(), rows[0].end(), [&](const Field& f) { return f.column == c.name; }))
       throw StorageError(fmt::format("rows of {} written together must give their key {}.", table, c.name));
-  std::string& recorded = rows_of(table);
-  for (std::size_t i = 0; i < rows.size(); ++i) {
-    if (i > 0) recorded += ',';
-    rec_.append_recorded(s, rows[i], 0, recorded);
-  }
+  for (const auto& row : rows) record(table, row, 0);
   group_.inserts.push_back({table, std::move(rows)});
 }
 

@@ -124,10 +124,18 @@ public:
 private:
   friend class Recorder;
   explicit RowGroup(Recorder& rec) : rec_(rec) {}
-  std::string& rows_of(const std::string& table);
+  /// A table's rows as the trail records them: the column names once, then each row's values.
+  struct Block {
+    std::string table;
+    const TableSchema* schema = nullptr;
+    std::vector<std::string> given;  ///< the columns each row gives, in order
+    std::vector<const ColumnSchema*> left;  ///< schema columns the rows leave to SQLite (default or rowid)
+    std::string rows;  ///< "[..],[..]"
+  };
+  void record(const std::string& table, const Row& row, std::int64_t rowid);
   Recorder& rec_;
   PreparedGroup group_;
-  std::vector<std::pair<std::string, std::string>> recorded_;  ///< table -> its rows as recorded, "{..},{..}"
+  std::vector<Block> blocks_;
 };
 
 /// SHA-256 of `text` as lowercase hex (OpenSSL libcrypto).

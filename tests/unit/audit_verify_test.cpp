@@ -176,7 +176,7 @@ TEST_CASE("audit verify passes an untouched database and reports what it checked
     }
     REQUIRE(trail.getColumn(0).getString() == "insert rows");
     ++grouped;
-    for (const auto& [table, list] : after.items()) described += static_cast<std::int64_t>(list.size());
+    for (const auto& [table, block] : after.items()) described += static_cast<std::int64_t>(block["rows"].size());
   }
   CHECK(grouped == 3);  // two checks and the correction
   CHECK(v.rows == rows);
@@ -304,12 +304,11 @@ TEST_CASE("audit verify catches deleted, reordered, altered and forged audit rec
     CHECK(v.problems.front().seq == 12);
   }
   SECTION("a row and its audit record changed together, the hash left alone") {
-    // Reading 2 of run 1 is recorded inside run 1's grouped record (keys in canonical, sorted order).
+    // Reading 2 of run 1 is recorded inside run 1's grouped record as [run_id,seq,series,text,...].
     const auto v = tampered("readings", "DROP TRIGGER audit_log_no_update; "
                                         "UPDATE readings SET text = '100.0009' WHERE run_id = 1 AND seq = 2; "
                                         "UPDATE audit_log SET after_json = replace(after_json, "
-                                        "'\"seq\":2,\"series\":\"\",\"text\":\"100.0001\"', "
-                                        "'\"seq\":2,\"series\":\"\",\"text\":\"100.0009\"') "
+                                        "'[1,2,\"\",\"100.0001\"', '[1,2,\"\",\"100.0009\"') "
                                         "WHERE table_name = 'check_runs' AND row_key = 'id=1'");
     CHECK(v.problems.front().kind == Kind::altered_record);
     CHECK(v.problems.front().table == "check_runs");
