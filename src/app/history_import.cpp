@@ -5,8 +5,6 @@
 #include <fmt/format.h>
 
 #include <array>
-#include <chrono>
-#include <cstdlib>
 #include <fstream>
 #include <future>
 
@@ -104,14 +102,10 @@ void refuse_repeat(SQLite::Database& db, const std::string& source, const std::s
 
 ImportReport import_history(store::Database& db, const store::Actor& actor, const std::filesystem::path& file,
                             const std::string& source, const std::function<void(long long, long long)>& progress) {
-  auto s0 = std::chrono::steady_clock::now();
-  const auto lap = [&](const char* what) { if (std::getenv("PLUMB_T")) fmt::print(stderr, "{} at {:.3f}\n", what, std::chrono::duration<double>(std::chrono::steady_clock::now() - s0).count()); };
   const std::string sha = store::sha256_of_file(file, "import file");
-  lap("sha");
   std::error_code ec;
   const auto total = static_cast<long long>(std::filesystem::file_size(file, ec));
 
-  if (const char* c = std::getenv("PLUMB_CACHE")) db.sql().exec(std::string("PRAGMA cache_size = ") + c);
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   refuse_repeat(db.sql(), source, sha);
   store::Recorder rec(db.sql(), actor);
@@ -126,7 +120,6 @@ ImportReport import_history(store::Database& db, const store::Actor& actor, cons
   // the database: the registry was read by load_all and the Recorder's batch mode keeps the audit chain and
   // the next ids in memory. Chunks are written in file order, so the trail is the same as one thread's.
   rec.begin_batch({"check_runs", "run_weights", "readings"});
-  lap("begin");
   std::string line;
   long long done = 0;
   bool at_end = false;
@@ -154,24 +147,16 @@ ImportReport import_history(store::Database& db, const store::Actor& actor, cons
     });
   };
   auto next = launch();
-  double waited = 0, wrote = 0;
   while (true) {
-    auto t0 = std::chrono::steady_clock::now();
     std::vector<store::PreparedGroup> chunk = next.get();  // rethrows a bad row's InputError here
-    auto t1 = std::chrono::steady_clock::now();
     const bool last = at_end;
     if (!last) next = launch();
     // If a write fails, `next`'s destructor waits for the chunk in preparation before the rollback.
     for (const auto& group : chunk) rec.write(group);
     written = std::move(chunk);
-    auto t2 = std::chrono::steady_clock::now();
-    waited += std::chrono::duration<double>(t1 - t0).count();
-    wrote += std::chrono::duration<double>(t2 - t1).count();
     if (last) break;
   }
-  if (std::getenv("PLUMB_T")) fmt::print(stderr, "waited {:.3f} wrote {:.3f}\n", waited, wrote);
   rec.end_batch();
-  lap("loop");
 
   ImportReport& report = importer.report();
   report.file_sha256 = sha;
@@ -185,10 +170,7 @@ ImportReport import_history(store::Database& db, const store::Actor& actor, cons
                                 {"imported_at", rec.now()},
                                 {"imported_by", actor.name}},
                                {"id"}, "history import");
-  auto c0 = std::chrono::steady_clock::now();
   tx.commit();
-  if (std::getenv("PLUMB_T")) fmt::print(stderr, "commit {:.3f}\n", std::chrono::duration<double>(std::chrono::steady_clock::now() - c0).count());
-  lap("commit");
   if (progress) progress(total, total);
   return std::move(report);
 }

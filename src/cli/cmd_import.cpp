@@ -1,4 +1,3 @@
-#include <chrono>
 #include <fmt/ostream.h>
 
 #include <nlohmann/json.hpp>
@@ -76,8 +75,6 @@ std::vector<Command> import_commands() {
         const auto report = app::import_history(db, Env::actor(vm), file, file,
                                                 [&](long long done, long long total) { bar.update(done, total); });
         bar.finish();
-        auto p0 = std::chrono::steady_clock::now();
-        struct Lap { std::chrono::steady_clock::time_point p0; ~Lap() { if (std::getenv("PLUMB_T")) fmt::print(stderr, "print {:.3f}\n", std::chrono::duration<double>(std::chrono::steady_clock::now() - p0).count()); } } lap{p0};
         if (format == "json") env.out << report_json(report, file).dump(2) << "\n";
         else print_report(env.out, report, file);
         return 0;

@@ -254,16 +254,20 @@ PreparedGroup prepare_run(Recorder& rec, const RunRecord& run, std::int64_t& id)
                     {"weight_id", w.weight_id},
                     {"weight_calibration_id", w.weight_calibration_id}},
                    {"run_id", "position"});
-    std::vector<Row> readings;
-    readings.reserve(run.readings.size());
-    for (const auto& r : run.readings)
-      readings.push_back({{"run_id", id},
-                          {"seq", r.seq},
-                          {"series", r.series},
-                          {"text", r.reading.text},
-                          {"unit", to_string(r.reading.unit)},
-                          {"units", r.reading.value.units()},
-                          {"scale", r.reading.value.scale()}});
+    // Built field by field: a braced list would copy every text twice, for each of a million readings.
+    std::vector<Row> readings(run.readings.size());
+    for (std::size_t i = 0; i < run.readings.size(); ++i) {
+      const StoredReading& r = run.readings[i];
+      Row& row = readings[i];
+      row.reserve(7);
+      row.push_back({"run_id", id});
+      row.push_back({"seq", r.seq});
+      row.push_back({"series", r.series});
+      row.push_back({"text", r.reading.text});
+      row.push_back({"unit", to_string(r.reading.unit)});
+      row.push_back({"units", r.reading.value.units()});
+      row.push_back({"scale", r.reading.value.scale()});
+    }
     group.insert_rows("readings", std::move(readings));
   });
 }
