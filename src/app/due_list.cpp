@@ -87,12 +87,15 @@ std::vector<DueItem> due_items(store::Database& db, Date on, int within_days, bo
   std::vector<DueItem> items;
   // One set-based query gives every instrument's latest run, so a large lab is not one query per
   // instrument; only balances with calibration settings need their calibration looked up apart.
+  const auto all_settings = store::all_current_calibration_settings(db.sql());
   store::for_each_instrument_status(db.sql(), "", [&](const store::InstrumentStatus& s) {
     if (s.kind != "balance") {
       items.push_back(check_item(s.kind, s, summary_of(s.latest), std::nullopt, on, within_days));
       return;
     }
-    const auto settings = store::find_calibration_settings(db.sql(), s.id);
+    const auto found = all_settings.find(s.id);
+    const std::optional<store::CalibrationSettings> settings =
+        found == all_settings.end() ? std::nullopt : std::optional(found->second);
     if (!settings) {
       items.push_back(check_item("balance", s, summary_of(s.latest), std::nullopt, on, within_days));
       return;

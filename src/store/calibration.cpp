@@ -18,13 +18,13 @@ ExactMass grams(const SQLite::Column& c) { return ExactMass::grams(Decimal::pars
 
 }  // namespace
 
-std::optional<CalibrationSettings> find_calibration_settings(SQLite::Database& db, const std::string& instrument_id) {
-  SQLite::Statement q(db,
-                      "SELECT id, instrument_id, accuracy_class, verification_interval_g, tolerance, lab_limit_g, "
-                      "lab_percent, decision_rule, calibrate_every, effective_on, created_at, created_by "
-                      "FROM balance_calibration_settings WHERE instrument_id = ? ORDER BY id DESC LIMIT 1");
-  q.bind(1, instrument_id);
-  if (!q.executeStep()) return std::nullopt;
+namespace {
+
+constexpr const char* settings_select =
+    "SELECT id, instrument_id, accuracy_class, verification_interval_g, tolerance, lab_limit_g, lab_percent, "
+    "decision_rule, calibrate_every, effective_on, created_at, created_by FROM balance_calibration_settings";
+
+CalibrationSettings settings_from(SQLite::Statement& q) {
   CalibrationSettings s;
   s.id = q.getColumn(0).getInt64();
   s.instrument_id = q.getColumn(1).getString();
@@ -39,6 +39,27 @@ std::optional<CalibrationSettings> find_calibration_settings(SQLite::Database& d
   s.created_at = q.getColumn(10).getString();
   s.created_by = q.getColumn(11).getString();
   return s;
+}
+
+}  // namespace
+
+std::optional<CalibrationSettings> find_calibration_settings(SQLite::Database& db, const std::string& instrument_id) {
+  SQLite::Statement q(db, std::string(settings_select) + " WHERE instrument_id = ? ORDER BY id DESC LIMIT 1");
+  q.bind(1, instrument_id);
+  if (!q.executeStep()) return std::nullopt;
+  return settings_from(q);
+}
+
+std::map<std::string, CalibrationSettings> all_current_calibration_settings(SQLite::Database& db) {
+  SQLite::Statement q(db, std::string(settings_select) +
+                              " WHERE id IN (SELECT max(id) FROM balance_calibration_settings GROUP BY instrument_id)");
+  std::map<std::string, CalibrationSettings> out;
+  while (q.executeStep()) {
+    CalibrationSettings s = settings_from(q);
+    std::string id = s.instrument_id;
+    out.emplace(std::move(id), std::move(s));
+  }
+  return out;
 }
 
 std::int64_t add_calibration_settings(Recorder& rec, const CalibrationSettings& s) {

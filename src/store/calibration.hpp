@@ -4,6 +4,7 @@
 // and the weights and certificates that made them up, where each reading belongs).
 #include <SQLiteCpp/Database.h>
 
+#include <map>
 #include <optional>
 #include <string>
 #include <vector>
@@ -66,6 +67,8 @@ struct CalibrationRunDetails {
 
 /// The current settings of a balance (latest row), if any.
 std::optional<CalibrationSettings> find_calibration_settings(SQLite::Database& db, const std::string& instrument_id);
+/// The current settings of every balance that has any, by instrument id (one query, for lab-wide lists).
+std::map<std::string, CalibrationSettings> all_current_calibration_settings(SQLite::Database& db);
 /// Appends a settings row (superseding the previous one); returns its id.
 std::int64_t add_calibration_settings(Recorder& rec, const CalibrationSettings& s);
 
