@@ -392,8 +392,10 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
     ++seq;
   }
 
-  details.run_id = store::add_run(rec, run);
-  store::add_calibration_details(rec, details);
+  details.run_id = store::add_run(rec, run, [&](store::RowGroup& group, std::int64_t run_id) {
+    details.run_id = run_id;
+    store::add_calibration_details(group, details);
+  });
   return details.run_id;
 }
 

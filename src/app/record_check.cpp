@@ -21,6 +21,9 @@ namespace {
 /// Decimals a reading shows once expressed in grams: "100.0003" g -> 4; "100000.3" mg -> 4.
 int decimals_in_grams(const MassReading& r) { return r.value.scale() - exponent_to_gram(r.unit); }
 
+/// Later than any certificate date: asks for a weight's whole certificate history.
+constexpr Date end_of_history{date::year{9999}, date::December, date::day{31}};
+
 }  // namespace
 
 std::vector<std::string> known_procedures() { return {"repeatability", "calibration", "gravimetric"}; }
@@ -37,10 +40,9 @@ void CheckLookups::load_all() {
     std::string id = b.id;
     balances_.insert_or_assign(std::move(id), std::move(b));
   }
-  const Date any_date{date::year{9999}, date::December, date::day{31}};
   for (auto& w : store::list_weights(db_.sql())) {
     std::string id = w.id;
-    auto calibrations = store::weight_calibrations_until(db_.sql(), id, any_date);
+    auto calibrations = store::weight_calibrations_until(db_.sql(), id, end_of_history);
     weights_.insert_or_assign(std::move(id), WeightHistory{std::move(w), std::move(calibrations)});
   }
   for (const char* kind : {"instrument", "weight"})
@@ -64,8 +66,7 @@ store::WeightRecord CheckLookups::traceable_weight(const std::string& id, Date o
   if (it == weights_.end()) {
     auto w = all_loaded_ ? std::nullopt : store::find_weight(db_.sql(), id);
     if (!w) throw InputError(fmt::format("--weight \"{}\" is not a known reference weight.", id));
-    auto calibrations =
-        store::weight_calibrations_until(db_.sql(), id, Date{date::year{9999}, date::December, date::day{31}});
+    auto calibrations = store::weight_calibrations_until(db_.sql(), id, end_of_history);
     it = weights_.emplace(id, WeightHistory{std::move(*w), std::move(calibrations)}).first;
   }
   const WeightHistory& h = it->second;
@@ -140,8 +141,9 @@ store::RunRecord build_check_run(CheckLookups& lookups, const CheckInput& in) {
   if (in.weight_ids.size() != 1)
     throw InputError(fmt::format("--weight: a repeatability check uses exactly one reference weight ({} given).",
                                  in.weight_ids.size()));
-  const std::vector<CsvReading> readings =
-      in.parsed_readings ? *in.parsed_readings : parse_readings_csv(in.readings_csv, in.readings_source, in.default_unit);
+  std::vector<CsvReading> parsed;
+  if (!in.parsed_readings) parsed = parse_readings_csv(in.readings_csv, in.readings_source, in.default_unit);
+  const std::vector<CsvReading>& readings = in.parsed_readings ? *in.parsed_readings : parsed;
   lookups.require_lab();
   const store::BalanceRecord* balance = &lookups.balance(in.instrument_id);
   const store::WeightRecord weight = lookups.traceable_weight(in.weight_ids[0], on);

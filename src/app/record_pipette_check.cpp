@@ -284,17 +284,17 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
   for (const WeighingLine& w : lines)
     run.readings.push_back({seq++, store::pipette_series(w.volume_ul, w.channel), w.reading});
 
-  const std::int64_t id = store::add_run(rec, run);
   store::PipetteRunConditions c;
-  c.run_id = id;
   c.balance_id = bal.balance.id;
   c.balance_run_id = bal.latest.id;
   c.water_temperature_c = water;
   c.air_pressure_hpa = pressure;
   c.humidity_pct = humidity;
   c.evaporation = evaporation;
-  store::add_pipette_run_conditions(rec, c);
-  return id;
+  return store::add_run(rec, run, [&](store::RowGroup& group, std::int64_t run_id) {
+    c.run_id = run_id;
+    store::add_pipette_run_conditions(group, c);
+  });
 }
 
 }  // namespace plumb::app

@@ -80,8 +80,8 @@ std::int64_t add_calibration_settings(Recorder& rec, const CalibrationSettings& 
       {"id"}, "calibration settings");
 }
 
-void add_calibration_details(Recorder& rec, const CalibrationRunDetails& d) {
-  rec.insert("calibration_runs",
+void add_calibration_details(RowGroup& group, const CalibrationRunDetails& d) {
+  group.insert("calibration_runs",
              {{"run_id", d.run_id},
               {"settings_id", d.settings_id},
               {"model", d.model},
@@ -95,7 +95,7 @@ void add_calibration_details(Recorder& rec, const CalibrationRunDetails& d) {
               {"as_left_state", text_or_null(d.as_left_state)}},
              {"run_id"});
   for (const auto& l : d.loads) {
-    rec.insert("calibration_loads",
+    group.insert("calibration_loads",
                {{"run_id", d.run_id},
                 {"stage", l.stage},
                 {"part", l.part},
@@ -106,7 +106,7 @@ void add_calibration_details(Recorder& rec, const CalibrationRunDetails& d) {
                {"run_id", "stage", "part", "load_no"});
     int item = 1;
     for (const auto& w : l.weights)
-      rec.insert("calibration_load_weights",
+      group.insert("calibration_load_weights",
                  {{"run_id", d.run_id},
                   {"stage", l.stage},
                   {"part", l.part},
@@ -117,7 +117,7 @@ void add_calibration_details(Recorder& rec, const CalibrationRunDetails& d) {
                  {"run_id", "stage", "part", "load_no", "item"});
   }
   for (const auto& p : d.places)
-    rec.insert("calibration_readings",
+    group.insert("calibration_readings",
                {{"run_id", d.run_id},
                 {"seq", p.seq},
                 {"stage", p.stage},

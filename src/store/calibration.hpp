@@ -72,8 +72,8 @@ std::map<std::string, CalibrationSettings> all_current_calibration_settings(SQLi
 /// Appends a settings row (superseding the previous one); returns its id.
 std::int64_t add_calibration_settings(Recorder& rec, const CalibrationSettings& s);
 
-/// Appends the calibration rows of run `details.run_id` (the check run and its readings already written).
-void add_calibration_details(Recorder& rec, const CalibrationRunDetails& details);
+/// Adds the calibration rows of run `details.run_id` to the run's group (see store::add_run).
+void add_calibration_details(RowGroup& group, const CalibrationRunDetails& details);
 std::optional<CalibrationRunDetails> find_calibration_details(SQLite::Database& db, std::int64_t run_id);
 
 /// All certificates of a weight calibrated on or before `on`, oldest first (for the drift between them).

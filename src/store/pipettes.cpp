@@ -91,8 +91,8 @@ std::vector<PipetteRecord> list_pipettes(SQLite::Database& db) {
   return out;
 }
 
-void add_pipette_run_conditions(Recorder& rec, const PipetteRunConditions& c) {
-  rec.insert("pipette_run_conditions",
+void add_pipette_run_conditions(RowGroup& group, const PipetteRunConditions& c) {
+  group.insert("pipette_run_conditions",
              {{"run_id", c.run_id},
               {"balance_id", c.balance_id},
               {"balance_run_id", c.balance_run_id},

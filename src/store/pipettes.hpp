@@ -40,7 +40,7 @@ void add_pipette(Recorder& rec, const PipetteRecord& p);
 std::optional<PipetteRecord> find_pipette(SQLite::Database& db, const std::string& id);
 std::vector<PipetteRecord> list_pipettes(SQLite::Database& db);
 
-void add_pipette_run_conditions(Recorder& rec, const PipetteRunConditions& c);
+void add_pipette_run_conditions(RowGroup& group, const PipetteRunConditions& c);
 std::optional<PipetteRunConditions> find_pipette_run_conditions(SQLite::Database& db, std::int64_t run_id);
 
 /// The latest run (by date, then id) of an instrument performed on or before `on` that has not been

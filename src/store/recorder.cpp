@@ -38,7 +38,7 @@ std::string sha256_hex(std::string_view text) {
     throw StorageError("SHA-256 computation failed in OpenSSL.");
   static constexpr char hex_digits[] = "0123456789abcdef";
   std::string hex(2 * static_cast<std::size_t>(len), '0');
-  for (unsigned int i = 0; i < len; ++i) {
+  for (std::size_t i = 0; i < len; ++i) {
     hex[2 * i] = hex_digits[digest[i] >> 4];
     hex[2 * i + 1] = hex_digits[digest[i] & 0x0f];
   }

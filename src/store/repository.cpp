@@ -230,7 +230,7 @@ void add_balance(Recorder& rec, const BalanceRecord& b) {
              {"instrument_id"});
 }
 
-PreparedGroup prepare_run(Recorder& rec, const RunRecord& run, std::int64_t& id) {
+PreparedGroup prepare_run(Recorder& rec, const RunRecord& run, std::int64_t& id, const RunDetails& details) {
   // One audit record for the run with its weights and readings: what the operator recorded, as one entry.
   return rec.prepare_together(run.reason, [&](RowGroup& group) {
     id = group.insert("check_runs",
@@ -269,12 +269,13 @@ PreparedGroup prepare_run(Recorder& rec, const RunRecord& run, std::int64_t& id)
       row.push_back({"scale", r.reading.value.scale()});
     }
     group.insert_rows("readings", std::move(readings));
+    if (details) details(group, id);
   });
 }
 
-std::int64_t add_run(Recorder& rec, const RunRecord& run) {
+std::int64_t add_run(Recorder& rec, const RunRecord& run, const RunDetails& details) {
   std::int64_t id = 0;
-  rec.write(prepare_run(rec, run, id));
+  rec.write(prepare_run(rec, run, id, details));
   return id;
 }
 

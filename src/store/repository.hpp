@@ -3,6 +3,7 @@
 // Nothing here updates or deletes: a change is always a new row.
 #include <SQLiteCpp/Database.h>
 
+#include <functional>
 #include <optional>
 #include <string>
 #include <vector>
@@ -33,11 +34,14 @@ std::vector<BalanceRecord> list_balances(SQLite::Database& db);
 void add_balance(Recorder& rec, const BalanceRecord& b);
 
 // Check runs
-/// Appends the run with its weights and readings; returns the new run id.
-std::int64_t add_run(Recorder& rec, const RunRecord& run);
+/// Rows a procedure stores beside the run (calibration loads, pipette conditions), given the new run's id;
+/// they join the run's one audit record.
+using RunDetails = std::function<void(RowGroup& group, std::int64_t run_id)>;
+/// Appends the run with its weights, readings and `details` under one audit record; returns the new run id.
+std::int64_t add_run(Recorder& rec, const RunRecord& run, const RunDetails& details = {});
 /// add_run's rows and audit record, computed but not written (a batch import writes them on another
 /// thread with Recorder::write); `id` receives the run id they will have.
-PreparedGroup prepare_run(Recorder& rec, const RunRecord& run, std::int64_t& id);
+PreparedGroup prepare_run(Recorder& rec, const RunRecord& run, std::int64_t& id, const RunDetails& details = {});
 std::optional<RunRecord> find_run(SQLite::Database& db, std::int64_t id);
 /// The id of the most recently recorded run, if any.
 std::optional<std::int64_t> last_run_id(SQLite::Database& db);
