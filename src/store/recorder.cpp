@@ -442,7 +442,10 @@ std::int64_t RowGroup::insert(const std::string& table, Row row, const std::vect
     group_.table = table;
     group_.key = key_text(row, key_columns);
   }
-  group_.inserts.push_back({table, {std::move(row)}});
+  PreparedGroup::Insert one;  // built in place: a braced list would copy the row (and its long texts)
+  one.table = table;
+  one.rows.push_back(std::move(row));
+  group_.inserts.push_back(std::move(one));
   return rowid;
 }
 

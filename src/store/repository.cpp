@@ -233,19 +233,21 @@ void add_balance(Recorder& rec, const BalanceRecord& b) {
 PreparedGroup prepare_run(Recorder& rec, const RunRecord& run, std::int64_t& id, const RunDetails& details) {
   // One audit record for the run with its weights and readings: what the operator recorded, as one entry.
   return rec.prepare_together(run.reason, [&](RowGroup& group) {
-    id = group.insert("check_runs",
-                      {{"instrument_id", run.instrument_id},
-                       {"procedure", run.procedure},
-                       {"performed_on", to_string(run.performed_on)},
-                       {"operator", run.operator_name},
-                       {"results_json", run.results.dump()},
-                       {"verdict", to_string(run.verdict)},
-                       {"next_due", run.next_due ? Value(to_string(*run.next_due)) : Value()},
-                       {"supersedes", run.supersedes ? Value(*run.supersedes) : Value()},
-                       {"reason", run.reason.empty() ? Value() : Value(run.reason)},
-                       {"recorded_at", rec.now()},
-                       {"os_user", rec.actor().os_user}},
-                      {"id"});
+    // Built field by field: a braced list would copy the stored results (about 1 KB) once more.
+    Row run_row;
+    run_row.reserve(12);
+    run_row.push_back({"instrument_id", run.instrument_id});
+    run_row.push_back({"procedure", run.procedure});
+    run_row.push_back({"performed_on", to_string(run.performed_on)});
+    run_row.push_back({"operator", run.operator_name});
+    run_row.push_back({"results_json", run.results.dump()});
+    run_row.push_back({"verdict", to_string(run.verdict)});
+    run_row.push_back({"next_due", run.next_due ? Value(to_string(*run.next_due)) : Value()});
+    run_row.push_back({"supersedes", run.supersedes ? Value(*run.supersedes) : Value()});
+    run_row.push_back({"reason", run.reason.empty() ? Value() : Value(run.reason)});
+    run_row.push_back({"recorded_at", rec.now()});
+    run_row.push_back({"os_user", rec.actor().os_user});
+    id = group.insert("check_runs", std::move(run_row), {"id"});
     int position = 1;
     for (const auto& w : run.weights)
       group.insert("run_weights",
