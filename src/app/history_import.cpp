@@ -5,8 +5,11 @@
 #include <fmt/format.h>
 
 #include <array>
+#include <condition_variable>
+#include <exception>
 #include <fstream>
-#include <future>
+#include <mutex>
+#include <thread>
 
 #include "app/record_check.hpp"
 #include "core/errors.hpp"
@@ -88,6 +91,80 @@ private:
   ImportReport report_;
 };
 
+/// A second thread that prepares chunks of runs one chunk ahead of the thread that writes them. One long-lived
+/// thread (not one per chunk), so that its allocator caches stay warm; written chunks are handed back and freed
+/// there too, by the thread that allocated them.
+class ChunkQueue {
+public:
+  using Chunk = std::vector<store::PreparedGroup>;
+  /// `produce` fills the next chunk and sets `last` on the final one; it runs on the second thread only.
+  explicit ChunkQueue(std::function<Chunk(bool& last)> produce)
+      : produce_(std::move(produce)), worker_([this] { run(); }) {}
+  ChunkQueue(const ChunkQueue&) = delete;
+  ChunkQueue& operator=(const ChunkQueue&) = delete;
+  ~ChunkQueue() {
+    {
+      const std::lock_guard lock(mutex_);
+      stop_ = true;
+    }
+    changed_.notify_all();
+    worker_.join();  // after at most the chunk in preparation
+  }
+
+  /// The next chunk, in order; `last` is set on the final one. Rethrows what the producer threw.
+  Chunk next(bool& last) {
+    std::unique_lock lock(mutex_);
+    changed_.wait(lock, [&] { return ready_; });
+    if (error_) std::rethrow_exception(error_);
+    Chunk chunk = std::move(slot_);
+    last = last_;
+    ready_ = false;
+    changed_.notify_all();
+    return chunk;
+  }
+  /// A written chunk, to be freed on the second thread.
+  void recycle(Chunk&& chunk) {
+    const std::lock_guard lock(mutex_);
+    returned_ = std::move(chunk);
+  }
+
+private:
+  void run() {
+    for (bool last = false; !last;) {
+      Chunk spent;
+      {
+        const std::lock_guard lock(mutex_);
+        spent = std::move(returned_);
+      }
+      spent.clear();
+      Chunk chunk;
+      std::exception_ptr error;
+      try {
+        chunk = produce_(last);
+      } catch (...) {
+        error = std::current_exception();
+        last = true;
+      }
+      std::unique_lock lock(mutex_);
+      changed_.wait(lock, [&] { return !ready_ || stop_; });
+      if (stop_) return;
+      slot_ = std::move(chunk);
+      last_ = last;
+      error_ = error;
+      ready_ = true;
+      changed_.notify_all();
+    }
+  }
+
+  std::function<Chunk(bool& last)> produce_;
+  std::mutex mutex_;
+  std::condition_variable changed_;
+  Chunk slot_, returned_;
+  bool ready_ = false, last_ = false, stop_ = false;
+  std::exception_ptr error_;
+  std::thread worker_;  // last: starts once everything above exists
+};
+
 void refuse_repeat(SQLite::Database& db, const std::string& source, const std::string& sha) {
   SQLite::Statement q(db, "SELECT id, file_name, imported_at, imported_by FROM import_batches WHERE file_sha256 = ?");
   q.bind(1, sha);
@@ -122,39 +199,29 @@ ImportReport import_history(store::Database& db, const store::Actor& actor, cons
   rec.begin_batch({"check_runs", "run_weights", "readings"});
   std::string line;
   long long done = 0;
-  bool at_end = false;
-  const auto prepare_chunk = [&] {
-    std::vector<store::PreparedGroup> chunk;
-    while (chunk.size() < 256 && !at_end) {
+  const auto prepare_chunk = [&](bool& last) {
+    ChunkQueue::Chunk chunk;
+    while (chunk.size() < 256 && !last) {
       if (std::getline(in, line)) {
         done += static_cast<long long>(line.size()) + 1;
         if (auto run = parser.feed(line)) chunk.push_back(importer.prepare(*run));
         if (progress && (parser.line() & 4095) == 0) progress(done, total);
       } else {
-        at_end = true;
+        last = true;
         if (auto run = parser.finish()) chunk.push_back(importer.prepare(*run));
       }
     }
     return chunk;
   };
-  // A written chunk is freed by the thread that allocated it, at the start of its next chunk (freeing
-  // memory across threads costs more than preparing it).
-  std::vector<store::PreparedGroup> written;
-  const auto launch = [&] {
-    return std::async(std::launch::async, [&prepare_chunk, spent = std::move(written)]() mutable {
-      spent.clear();
-      return prepare_chunk();
-    });
-  };
-  auto next = launch();
-  while (true) {
-    std::vector<store::PreparedGroup> chunk = next.get();  // rethrows a bad row's InputError here
-    const bool last = at_end;
-    if (!last) next = launch();
-    // If a write fails, `next`'s destructor waits for the chunk in preparation before the rollback.
-    for (const auto& group : chunk) rec.write(group);
-    written = std::move(chunk);
-    if (last) break;
+  {
+    // If a write fails, the queue's destructor waits for the chunk in preparation before the rollback; a bad
+    // row's InputError comes back from next().
+    ChunkQueue queue(prepare_chunk);
+    for (bool last = false; !last;) {
+      ChunkQueue::Chunk chunk = queue.next(last);
+      for (const auto& group : chunk) rec.write(group);
+      queue.recycle(std::move(chunk));
+    }
   }
   rec.end_batch();
 
