@@ -116,20 +116,28 @@ std::pair<std::int64_t, std::string> Recorder::chain_tail() {
   return tail;
 }
 
+namespace {
+
+/// A value as the trail records it: a long text by its digest (see long_text_bytes), anything else as JSON.
+void append_recorded_value(std::string& out, const Value& v) {
+  if (v.kind() == Value::Kind::text && v.text().size() > long_text_bytes) {
+    out += R"({"sha256":")";
+    out += sha256_hex(v.text());
+    out += "\"}";
+  } else {
+    append_json_value(out, v);
+  }
+}
+
+}  // namespace
+
 void Recorder::append_recorded(const TableSchema& schema, const Row& row, std::int64_t rowid, std::string& recorded) {
   recorded += '{';
   for (std::size_t i = 0; i < row.size(); ++i) {
     if (i > 0) recorded += ',';
     append_json_string(recorded, row[i].column);
     recorded += ':';
-    const Value& v = row[i].value;
-    if (v.kind() == Value::Kind::text && v.text().size() > long_text_bytes) {
-      recorded += R"({"sha256":")";  // a long text: its digest (see long_text_bytes)
-      recorded += sha256_hex(v.text());
-      recorded += "\"}";
-    } else {
-      append_json_value(recorded, v);
-    }
+    append_recorded_value(recorded, row[i].value);
   }
   if (row.size() < schema.columns.size())  // columns the insert leaves to SQLite: their defaults, or the rowid
     for (const auto& c : schema.columns) {
@@ -159,6 +167,8 @@ std::string Recorder::audit_hash_of(const PreparedGroup& g) const {
 
 namespace {
 
+/// The key of a row about to be written: the same text store::key_text gives for the row as recorded, which
+/// is how `audit verify` pairs table rows with the trail.
 std::string key_text(const Row& row, const std::vector<std::string>& key_columns) {
   std::string key;
   for (const auto& k : key_columns) {
@@ -407,14 +417,7 @@ void RowGroup::record(const std::string& table, const Row& row, std::int64_t row
     if (row[i].column != b->given[i])
       throw StorageError(fmt::format("rows of {} in one group must give the same columns.", table));
     if (i > 0) out += ',';
-    const Value& v = row[i].value;
-    if (v.kind() == Value::Kind::text && v.text().size() > long_text_bytes) {
-      out += R"({"sha256":")";  // a long text: its digest (see long_text_bytes)
-      out += sha256_hex(v.text());
-      out += "\"}";
-    } else {
-      append_json_value(out, v);
-    }
+    append_recorded_value(out, row[i].value);
   }
   for (const ColumnSchema* c : b->left) {
     if (!out.empty() && out.back() != '[') out += ',';

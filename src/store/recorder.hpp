@@ -149,8 +149,6 @@ nlohmann::json row_json(SQLite::Statement& row);
 /// certificate content): the table holds the text, the digest proves it unchanged, and the trail does not
 /// double the size of the database.
 constexpr std::size_t long_text_bytes = 256;
-/// The value the trail records for a stored value: a long text as {"sha256": hex}, anything else as is.
-nlohmann::json recorded_value(const nlohmann::json& stored);
 /// Whether a stored value is what the trail recorded (a copy, or the SHA-256 of a long text).
 bool matches_recorded(const nlohmann::json& recorded, const nlohmann::json& stored);
 
