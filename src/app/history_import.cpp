@@ -20,7 +20,7 @@
 namespace plumb::app {
 namespace {
 
-// record_check_in names the options of `check record`; in an import the same values come from columns.
+// build_check_run names the options of `check record`; in an import the same values come from columns.
 std::string as_column_message(std::string message) {
   constexpr std::array<std::pair<std::string_view, std::string_view>, 4> renames{
       {{"--weight", "weight"}, {"--on", "date"}, {"--procedure", "procedure"}, {"--by", "operator"}}};
@@ -63,7 +63,7 @@ public:
     store::PreparedGroup prepared = store::prepare_run(rec_, built, id);
     const bool failed = built.verdict == Verdict::fail;
 
-    const Date on = parse_date(run.date, "date");
+    const Date on = built.performed_on;
     auto [it, fresh] = report_.instruments.try_emplace(in.instrument_id);
     ImportedInstrument& ins = it->second;
     if (fresh) ins.first_on = ins.last_on = on;

@@ -1,6 +1,6 @@
 #pragma once
 // Importing years of check history from one CSV file (format in core/history_csv.hpp). Every run is
-// validated and computed by record_check_in exactly like a typed `check record`, and the whole file is
+// validated and computed by build_check_run exactly like a typed `check record`, and the whole file is
 // written in one transaction: a bad row rejects the import with its line number and nothing is written.
 // A file is remembered by the SHA-256 of its bytes (table import_batches), so importing it again is refused.
 #include <filesystem>

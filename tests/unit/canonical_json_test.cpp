@@ -19,7 +19,7 @@ const std::vector<std::string> awkward_texts = {
     "plain text",
     "quote \" and backslash \\ and slash /",
     "tab\there, newline\nthere, return\r, form feed\f, backspace\b",
-    std::string("control \x01 and \x1f and DEL \x7f", 28),
+    "control \x01 and \x1f and DEL \x7f",
     "UTF-8: 20 \xc2\xb0""C, \xce\xbc""g, \xe2\x80\x94 dash, \xf0\x9f\x98\x80",
     R"({"check_runs":[{"id":1,"results_json":{"sha256":"ab"}}]})",
 };
