@@ -151,6 +151,17 @@ void Recorder::append_recorded(const TableSchema& schema, const Row& row, std::i
   recorded += '}';
 }
 
+void Recorder::chain(PreparedGroup& g) {
+  auto [seq, prev] = chain_tail();
+  g.seq = seq + 1;
+  g.prev_hash = std::move(prev);
+  g.hash = audit_hash_of(g);
+  if (batch_) {  // the next record follows this one, written or not yet
+    tail_seq_ = g.seq;
+    tail_hash_ = g.hash;
+  }
+}
+
 std::string Recorder::audit_hash_of(const PreparedGroup& g) const {
   AuditContent content;
   content.seq = g.seq;
@@ -318,10 +329,7 @@ std::int64_t Recorder::insert(const std::string& table, const Row& row, const st
     if (c.rowid_alias && std::none_of(row.begin(), row.end(), [&](const Field& f) { return f.column == c.name; }))
       keyed.push_back({c.name, rowid});
   g.key = key_text(keyed, key_columns);
-  auto [seq, prev] = chain_tail();
-  g.seq = seq + 1;
-  g.prev_hash = std::move(prev);
-  g.hash = audit_hash_of(g);
+  chain(g);
   write_audit(g);
   return rowid;
 }
@@ -357,14 +365,7 @@ PreparedGroup Recorder::prepare_together(const std::string& reason, const std::f
     g.after_json += "]}";
   }
   g.after_json += '}';
-  auto [seq, prev] = chain_tail();
-  g.seq = seq + 1;
-  g.prev_hash = std::move(prev);
-  g.hash = audit_hash_of(g);
-  if (batch_) {
-    tail_seq_ = g.seq;
-    tail_hash_ = g.hash;
-  }
+  chain(g);
   return g;
 }
 

@@ -87,6 +87,8 @@ private:
   /// literal defaults, the rowid of an integer key), built from the values given, not read back.
   void append_recorded(const TableSchema& schema, const Row& row, std::int64_t rowid, std::string& recorded);
   [[nodiscard]] std::string audit_hash_of(const PreparedGroup& g) const;
+  /// Places the record after the chain's tail: its seq, previous hash and hash.
+  void chain(PreparedGroup& g);
 
   // Writing (the database thread).
   Writer& writer(const std::string& table, const Row& row, std::size_t rows);
