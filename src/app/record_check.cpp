@@ -184,9 +184,7 @@ store::RunRecord build_check_run(CheckLookups& lookups, const CheckInput& in) {
   run.procedure = in.procedure;
   run.performed_on = on;
   run.operator_name = in.operator_name;
-  run.results = report::to_json(result);
-  run.results["policy"] = balance->policy.key();
-  run.results["policy_name"] = balance->policy.name();
+  run.results_text = report::repeatability_results_text(result, balance->policy.key(), balance->policy.name());
   run.verdict = result.verdict;
   run.supersedes = in.supersedes;
   run.reason = in.reason;

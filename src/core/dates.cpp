@@ -32,7 +32,23 @@ Date parse_date(std::string_view text, std::string_view field) {
   return ymd;
 }
 
-std::string to_string(Date d) { return date::format("%F", date::sys_days{d}); }
+std::string to_string(Date d) {
+  // Written by hand for the years plumb accepts: the library's %F goes through an iostream and a locale,
+  // which a batch import pays for several times per run. Other years keep the library's form.
+  const int y = static_cast<int>(d.year());
+  if (!d.ok() || y < 0 || y > 9999) return date::format("%F", date::sys_days{d});
+  const unsigned m = static_cast<unsigned>(d.month()), day = static_cast<unsigned>(d.day());
+  std::string out = "0000-00-00";
+  out[0] = static_cast<char>('0' + y / 1000);
+  out[1] = static_cast<char>('0' + y / 100 % 10);
+  out[2] = static_cast<char>('0' + y / 10 % 10);
+  out[3] = static_cast<char>('0' + y % 10);
+  out[5] = static_cast<char>('0' + m / 10);
+  out[6] = static_cast<char>('0' + m % 10);
+  out[8] = static_cast<char>('0' + day / 10);
+  out[9] = static_cast<char>('0' + day % 10);
+  return out;
+}
 
 int days_between(Date a, Date b) {
   return static_cast<int>((date::sys_days{b} - date::sys_days{a}).count());

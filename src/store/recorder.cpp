@@ -275,8 +275,9 @@ void Recorder::bind_row(Writer& w, const Row& row, std::size_t first_parameter) 
     if (v.kind() != w.kinds[i])
       throw StorageError(fmt::format("column {}.{} cannot store {} exactly (exact values only).", w.table,
                                      row[i].column, v.kind() == Value::Kind::integer ? "an integer" : "a text"));
+    // Texts are bound without a copy: `row` outlives the statement's execution in write_rows.
     if (v.kind() == Value::Kind::integer) w.insert->bind(at, v.integer());
-    else w.insert->bind(at, v.text());
+    else w.insert->bindNoCopy(at, v.text());
   }
 }
 
@@ -285,8 +286,7 @@ void Recorder::write_rows(const std::string& table, const std::vector<Row>& rows
   for (std::size_t from = 0; from < rows.size(); from += per_statement) {
     const std::size_t n = std::min(per_statement, rows.size() - from);
     Writer& w = writer(table, rows[from], n);
-    w.insert->reset();
-    w.insert->clearBindings();
+    w.insert->reset();  // no clearBindings: every parameter is bound again below
     for (std::size_t i = 0; i < n; ++i) bind_row(w, rows[from + i], 1 + i * w.columns.size());
     w.insert->exec();
   }

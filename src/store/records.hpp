@@ -66,6 +66,9 @@ struct RunRecord {
   Date performed_on;
   std::string operator_name;
   nlohmann::json results;
+  /// Writing only: the results already as JSON text (a procedure that writes its results straight to text,
+  /// see report::repeatability_results_text); when empty, results.dump() is stored.
+  std::string results_text;
   Verdict verdict = Verdict::pass;
   std::optional<Date> next_due;
   std::optional<std::int64_t> supersedes;

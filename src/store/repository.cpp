@@ -240,7 +240,7 @@ PreparedGroup prepare_run(Recorder& rec, const RunRecord& run, std::int64_t& id,
     run_row.push_back({"procedure", run.procedure});
     run_row.push_back({"performed_on", to_string(run.performed_on)});
     run_row.push_back({"operator", run.operator_name});
-    run_row.push_back({"results_json", run.results.dump()});
+    run_row.push_back({"results_json", run.results_text.empty() ? run.results.dump() : run.results_text});
     run_row.push_back({"verdict", to_string(run.verdict)});
     run_row.push_back({"next_due", run.next_due ? Value(to_string(*run.next_due)) : Value()});
     run_row.push_back({"supersedes", run.supersedes ? Value(*run.supersedes) : Value()});

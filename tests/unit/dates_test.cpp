@@ -27,3 +27,14 @@ TEST_CASE("intervals add calendar time the way a lab schedules it", "[dates]") {
     CHECK_THROWS_AS(Interval::parse(bad, "--every"), InputError);
   }
 }
+
+TEST_CASE("dates are written as the date library's %F writes them, every day of the accepted years", "[dates]") {
+  // to_string writes the digits by hand (fast path); the library's own formatter is the reference.
+  const date::sys_days first{date::year{1900} / 1 / 1}, last{date::year{2999} / 12 / 31};
+  long long differing = 0;
+  for (date::sys_days d = first; d <= last; d += date::days{1})
+    if (to_string(Date{d}) != date::format("%F", d)) ++differing;
+  CHECK(differing == 0);
+  CHECK(to_string(Date{date::year{1900} / 1 / 1}) == "1900-01-01");
+  CHECK(to_string(Date{date::year{812} / 7 / 9}) == "0812-07-09");
+}
