@@ -219,7 +219,7 @@ ImportReport import_history(store::Database& db, const store::Actor& actor, cons
     ChunkQueue queue(prepare_chunk);
     for (bool last = false; !last;) {
       ChunkQueue::Chunk chunk = queue.next(last);
-      for (const auto& group : chunk) rec.write(group);
+      rec.write(chunk);
       queue.recycle(std::move(chunk));
     }
   }

@@ -60,15 +60,17 @@ JsonText& JsonText::value(double number) {
     out_ += "null";
     return *this;
   }
-  const std::size_t from = out_.size();
-  fmt::format_to(std::back_inserter(out_), "{}", number);  // shortest round-trip form
-  if (out_.find_first_of(".e", from) == std::string::npos) out_ += ".0";  // still a float when read back
+  char digits[40];
+  // The shortest form that reads back as the same double.
+  const std::string_view text(digits, static_cast<std::size_t>(fmt::format_to(digits, "{}", number) - digits));
+  out_ += text;
+  if (text.find_first_of(".e") == std::string_view::npos) out_ += ".0";  // still a float when read back
   return *this;
 }
 
 JsonText& JsonText::value(long long integer) {
   separate();
-  fmt::format_to(std::back_inserter(out_), "{}", integer);
+  store::append_json_integer(out_, integer);
   return *this;
 }
 

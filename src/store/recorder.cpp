@@ -11,6 +11,7 @@
 #include <chrono>
 #include <algorithm>
 #include <cstdlib>
+#include <memory>
 #include <tuple>
 
 #include "core/errors.hpp"
@@ -32,9 +33,14 @@ std::string utc_timestamp() {
 }
 
 std::string sha256_hex(std::string_view text) {
+  // The digest fetched once and one context per thread: OpenSSL 3 looks EVP_sha256() up again on every
+  // EVP_Digest call, which costs more than hashing a short audit record with the CPU's SHA instructions.
+  static EVP_MD* const sha256 = EVP_MD_fetch(nullptr, "SHA256", nullptr);
+  thread_local const std::unique_ptr<EVP_MD_CTX, decltype(&EVP_MD_CTX_free)> ctx(EVP_MD_CTX_new(), &EVP_MD_CTX_free);
   unsigned char digest[EVP_MAX_MD_SIZE];
   unsigned int len = 0;
-  if (EVP_Digest(text.data(), text.size(), digest, &len, EVP_sha256(), nullptr) != 1)
+  if (!sha256 || !ctx || EVP_DigestInit_ex2(ctx.get(), sha256, nullptr) != 1 ||
+      EVP_DigestUpdate(ctx.get(), text.data(), text.size()) != 1 || EVP_DigestFinal_ex(ctx.get(), digest, &len) != 1)
     throw StorageError("SHA-256 computation failed in OpenSSL.");
   static constexpr char hex_digits[] = "0123456789abcdef";
   std::string hex(2 * static_cast<std::size_t>(len), '0');
@@ -145,7 +151,7 @@ void Recorder::append_recorded(const TableSchema& schema, const Row& row, std::i
       recorded += ',';
       append_json_string(recorded, c.name);
       recorded += ':';
-      if (c.rowid_alias) fmt::format_to(std::back_inserter(recorded), "{}", rowid);
+      if (c.rowid_alias) append_json_integer(recorded, rowid);
       else recorded += c.default_value.dump();
     }
   recorded += '}';
@@ -173,7 +179,12 @@ std::string Recorder::audit_hash_of(const PreparedGroup& g) const {
   content.row_key = g.key;
   content.after_json = &g.after_json;
   content.reason = g.reason.empty() ? nullptr : &g.reason;
-  return sha256_hex(g.prev_hash + "\n" + canonical_audit_json(content));
+  std::string hashed;
+  hashed.reserve(g.prev_hash.size() + g.after_json.size() + g.after_json.size() / 4 + 256);
+  hashed += g.prev_hash;
+  hashed += '\n';
+  append_canonical_audit_json(hashed, content);
+  return sha256_hex(hashed);
 }
 
 namespace {
@@ -198,12 +209,18 @@ std::string key_text(const Row& row, const std::vector<std::string>& key_columns
 }  // namespace
 
 std::string canonical_audit_json(const AuditContent& c) {
-  const auto text_or_null = [](std::string& out, const std::string* s) {
-    if (s) append_json_string(out, *s);
-    else out += "null";
+  std::string out;
+  append_canonical_audit_json(out, c);
+  return out;
+}
+
+void append_canonical_audit_json(std::string& out, const AuditContent& c) {
+  const auto text_or_null = [](std::string& to, const std::string* s) {
+    if (s) append_json_string(to, *s);
+    else to += "null";
   };
   // Keys in sorted order, as nlohmann::json keeps them.
-  std::string out = R"({"action":)";
+  out += R"({"action":)";
   append_json_string(out, c.action);
   out += R"(,"actor":)";
   append_json_string(out, c.actor);
@@ -219,10 +236,11 @@ std::string canonical_audit_json(const AuditContent& c) {
   text_or_null(out, c.reason);
   out += R"(,"row_key":)";
   append_json_string(out, c.row_key);
-  fmt::format_to(std::back_inserter(out), R"(,"seq":{},"table_name":)", c.seq);
+  out += R"(,"seq":)";
+  append_json_integer(out, c.seq);
+  out += R"(,"table_name":)";
   append_json_string(out, c.table_name);
   out += '}';
-  return out;
 }
 
 // ---- Writing ----
@@ -281,34 +299,70 @@ void Recorder::bind_row(Writer& w, const Row& row, std::size_t first_parameter) 
   }
 }
 
-void Recorder::write_rows(const std::string& table, const std::vector<Row>& rows) {
-  constexpr std::size_t per_statement = 16;
-  for (std::size_t from = 0; from < rows.size(); from += per_statement) {
-    const std::size_t n = std::min(per_statement, rows.size() - from);
-    Writer& w = writer(table, rows[from], n);
+namespace {
+
+bool same_columns(const Row& a, const Row& b) {
+  if (a.size() != b.size()) return false;
+  for (std::size_t i = 0; i < a.size(); ++i)
+    if (a[i].column != b[i].column) return false;
+  return true;
+}
+
+/// Rows per INSERT statement, and parameters per statement (SQLite's historical limit, below any build's).
+constexpr std::size_t rows_per_statement = 64;
+constexpr std::size_t max_parameters = 999;
+
+}  // namespace
+
+void Recorder::write_rows(const std::string& table, std::span<const Row* const> rows) {
+  // Consecutive rows with the same columns go into one multi-row INSERT: a batch import writes millions of
+  // readings, and each statement's execution costs about as much as the rows it carries.
+  for (std::size_t from = 0; from < rows.size();) {
+    const Row& head = *rows[from];
+    const std::size_t most = std::min(rows_per_statement, std::max<std::size_t>(1, max_parameters / std::max<std::size_t>(1, head.size())));
+    std::size_t n = 1;
+    while (n < most && from + n < rows.size() && same_columns(*rows[from + n], head)) ++n;
+    Writer& w = writer(table, head, n);
     w.insert->reset();  // no clearBindings: every parameter is bound again below
-    for (std::size_t i = 0; i < n; ++i) bind_row(w, rows[from + i], 1 + i * w.columns.size());
+    for (std::size_t i = 0; i < n; ++i) bind_row(w, *rows[from + i], 1 + i * w.columns.size());
     w.insert->exec();
+    from += n;
   }
 }
 
-void Recorder::write_audit(const PreparedGroup& g) {
-  SQLite::Statement& audit =
-      statement("INSERT INTO audit_log (seq, at, os_user, actor, action, table_name, row_key, before_json, "
-                "after_json, reason, prev_hash, hash) VALUES (?, ?, ?, ?, ?, ?, ?, NULL, ?, ?, ?, ?)");
-  audit.bind(1, g.seq);
-  audit.bind(2, now_);
-  audit.bind(3, actor_.os_user);
-  audit.bind(4, actor_.name);
-  audit.bind(5, g.action);
-  audit.bind(6, g.table);
-  audit.bind(7, g.key);
-  audit.bind(8, g.after_json);
-  if (g.reason.empty()) audit.bind(9);
-  else audit.bind(9, g.reason);
-  audit.bind(10, g.prev_hash);
-  audit.bind(11, g.hash);
-  audit.exec();
+void Recorder::write_audits(std::span<const PreparedGroup> groups) {
+  constexpr int fields = 11;  // before_json is NULL: records are only ever inserts
+  for (std::size_t from = 0; from < groups.size();) {
+    const std::size_t n = std::min(rows_per_statement, groups.size() - from);
+    auto& insert = audit_inserts_[n];
+    if (!insert) {
+      std::string values;
+      for (std::size_t i = 0; i < n; ++i) values += i ? ", (?, ?, ?, ?, ?, ?, ?, NULL, ?, ?, ?, ?)" : "(?, ?, ?, ?, ?, ?, ?, NULL, ?, ?, ?, ?)";
+      insert = std::make_unique<SQLite::Statement>(
+          db_, "INSERT INTO audit_log (seq, at, os_user, actor, action, table_name, row_key, before_json, "
+               "after_json, reason, prev_hash, hash) VALUES " + values);
+    }
+    insert->reset();  // every parameter is bound again below
+    for (std::size_t i = 0; i < n; ++i) {
+      // Bound without copies: the groups outlive the execution below.
+      const PreparedGroup& g = groups[from + i];
+      const int at = static_cast<int>(i) * fields;
+      insert->bind(at + 1, g.seq);
+      insert->bindNoCopy(at + 2, now_);
+      insert->bindNoCopy(at + 3, actor_.os_user);
+      insert->bindNoCopy(at + 4, actor_.name);
+      insert->bindNoCopy(at + 5, g.action);
+      insert->bindNoCopy(at + 6, g.table);
+      insert->bindNoCopy(at + 7, g.key);
+      insert->bindNoCopy(at + 8, g.after_json);
+      if (g.reason.empty()) insert->bind(at + 9);
+      else insert->bindNoCopy(at + 9, g.reason);
+      insert->bindNoCopy(at + 10, g.prev_hash);
+      insert->bindNoCopy(at + 11, g.hash);
+    }
+    insert->exec();
+    from += n;
+  }
 }
 
 // ---- The public operations ----
@@ -316,7 +370,8 @@ void Recorder::write_audit(const PreparedGroup& g) {
 std::int64_t Recorder::insert(const std::string& table, const Row& row, const std::vector<std::string>& key_columns,
                               const std::string& reason) {
   if (batch_) throw StorageError("a single insert cannot be made while a batch is open.");
-  write_rows(table, {row});
+  const Row* const one = &row;
+  write_rows(table, std::span(&one, 1));
   const std::int64_t rowid = db_.getLastInsertRowid();
   PreparedGroup g;
   g.action = "insert";
@@ -330,7 +385,7 @@ std::int64_t Recorder::insert(const std::string& table, const Row& row, const st
       keyed.push_back({c.name, rowid});
   g.key = key_text(keyed, key_columns);
   chain(g);
-  write_audit(g);
+  write_audits(std::span(&g, 1));
   return rowid;
 }
 
@@ -369,9 +424,30 @@ PreparedGroup Recorder::prepare_together(const std::string& reason, const std::f
   return g;
 }
 
-void Recorder::write(const PreparedGroup& group) {
-  for (const auto& i : group.inserts) write_rows(i.table, i.rows);
-  write_audit(group);
+void Recorder::write(const PreparedGroup& group) { write(std::span(&group, 1)); }
+
+void Recorder::write(std::span<const PreparedGroup> groups) {
+  if (groups.empty()) return;
+  // Each table's rows of all the groups together, in the tables' order within a group (so that the rows a
+  // row refers to, such as a reading's run, are there before it), then the audit records in chain order.
+  const auto& tables = groups.front().inserts;
+  const bool same_tables = std::all_of(groups.begin(), groups.end(), [&](const PreparedGroup& g) {
+    return g.inserts.size() == tables.size() &&
+           std::equal(g.inserts.begin(), g.inserts.end(), tables.begin(),
+                      [](const PreparedGroup::Insert& a, const PreparedGroup::Insert& b) { return a.table == b.table; });
+  });
+  if (!same_tables && groups.size() > 1) {
+    for (const auto& g : groups) write(std::span(&g, 1));
+    return;
+  }
+  std::vector<const Row*> rows;
+  for (std::size_t k = 0; k < tables.size(); ++k) {
+    rows.clear();
+    for (const auto& g : groups)
+      for (const auto& row : g.inserts[k].rows) rows.push_back(&row);
+    write_rows(tables[k].table, rows);
+  }
+  write_audits(groups);
 }
 
 void Recorder::insert_together(const std::string& reason, const std::function<void(RowGroup&)>& fill) {
@@ -422,7 +498,7 @@ void RowGroup::record(const std::string& table, const Row& row, std::int64_t row
   }
   for (const ColumnSchema* c : b->left) {
     if (!out.empty() && out.back() != '[') out += ',';
-    if (c->rowid_alias) fmt::format_to(std::back_inserter(out), "{}", rowid);
+    if (c->rowid_alias) append_json_integer(out, rowid);
     else out += c->default_value.dump();
   }
   out += ']';
@@ -446,10 +522,14 @@ std::int64_t RowGroup::insert(const std::string& table, Row row, const std::vect
     group_.table = table;
     group_.key = key_text(row, key_columns);
   }
-  PreparedGroup::Insert one;  // built in place: a braced list would copy the row (and its long texts)
-  one.table = table;
-  one.rows.push_back(std::move(row));
-  group_.inserts.push_back(std::move(one));
+  // Consecutive rows of one table stay together (a run's weights), so that groups of the same kind have the
+  // same tables in the same order and can be written together.
+  if (group_.inserts.empty() || group_.inserts.back().table != table) {
+    PreparedGroup::Insert one;  // built in place: a braced list would copy the row (and its long texts)
+    one.table = table;
+    group_.inserts.push_back(std::move(one));
+  }
+  group_.inserts.back().rows.push_back(std::move(row));
   return rowid;
 }
 

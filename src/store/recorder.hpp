@@ -7,6 +7,7 @@
 #include <functional>
 #include <map>
 #include <memory>
+#include <span>
 #include <nlohmann/json.hpp>
 #include <string>
 #include <vector>
@@ -33,7 +34,7 @@ class RowGroup;
 struct PreparedGroup {
   struct Insert {
     std::string table;
-    std::vector<Row> rows;  ///< of one shape, every key given
+    std::vector<Row> rows;  ///< every key given
   };
   std::vector<Insert> inserts;  ///< in the order they were made
   std::int64_t seq = 0;         ///< the audit record's place in the chain
@@ -57,6 +58,9 @@ public:
   PreparedGroup prepare_together(const std::string& reason, const std::function<void(RowGroup&)>& fill);
   /// ... and write them. Groups are written in the order they were prepared.
   void write(const PreparedGroup& group);
+  /// Several prepared groups at once, in order: each table's rows of all of them with multi-row INSERTs, then
+  /// their audit records (a batch import writes a chunk of runs this way).
+  void write(std::span<const PreparedGroup> groups);
 
   /// Batch mode, for a batch import inside one write transaction: the chain's tail and the next id of each
   /// of `tables` are read once and then kept in memory (the transaction holds the write lock, so nobody
@@ -93,9 +97,10 @@ private:
   // Writing (the database thread).
   Writer& writer(const std::string& table, const Row& row, std::size_t rows);
   void bind_row(Writer& w, const Row& row, std::size_t first_parameter);
-  /// Inserts rows of one shape, several per statement.
-  void write_rows(const std::string& table, const std::vector<Row>& rows);
-  void write_audit(const PreparedGroup& g);
+  /// Inserts rows, consecutive rows with the same columns several to a statement.
+  void write_rows(const std::string& table, std::span<const Row* const> rows);
+  /// Appends the groups' audit records, several to a statement.
+  void write_audits(std::span<const PreparedGroup> groups);
   /// A prepared statement for `sql`, reset for reuse.
   SQLite::Statement& statement(const std::string& sql);
 
@@ -107,6 +112,7 @@ private:
   /// A batch import inserts millions of rows with a handful of distinct statements; preparing each one
   /// anew would cost more than the insert.
   std::vector<std::unique_ptr<Writer>> writers_;
+  std::map<std::size_t, std::unique_ptr<SQLite::Statement>> audit_inserts_;  ///< by the number of records
   bool batch_ = false;
   std::int64_t tail_seq_ = 0;  ///< batch mode: the chain's last record
   std::string tail_hash_;
@@ -168,5 +174,7 @@ struct AuditContent {
 /// The canonical JSON of a record's content, byte for byte what nlohmann::json::dump() writes for the same
 /// object (keys sorted), so that audit_hash(prev, that object) == SHA-256 of prev + "\n" + this text.
 std::string canonical_audit_json(const AuditContent& c);
+/// The same, appended to `out`.
+void append_canonical_audit_json(std::string& out, const AuditContent& c);
 
 }  // namespace plumb::store

@@ -4,6 +4,7 @@
 #include <catch2/catch.hpp>
 
 #include <nlohmann/json.hpp>
+#include <thread>
 
 #include "store/audit_trail.hpp"
 #include "store/canonical_json.hpp"
@@ -71,4 +72,45 @@ TEST_CASE("the Recorder's canonical audit text is the dump of the record audit v
     INFO("record " << i);
     CHECK(store::canonical_audit_json(c) == r.hashed_content().dump());
   }
+}
+
+TEST_CASE("SHA-256 of the FIPS 180-2 test messages, repeatedly and from two threads", "[canonical_json]") {
+  // Digests from FIPS 180-2, appendix B (one-block and two-block messages) and of the empty message.
+  const auto check_all = [] {
+    bool all = true;
+    for (int i = 0; i < 100; ++i)
+      all = all && store::sha256_hex("abc") == "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad" &&
+            store::sha256_hex("abcdbcdecdefdefgefghfghighijhijkijkljklmklmnlmnomnopnopq") ==
+                "248d6a61d20638b8e5c026930c3e6039a33ce45964ff2167f6ecedd419db06c1" &&
+            store::sha256_hex("") == "e3b0c44298fc1c149afbf4c8996fb92427ae41e4649b934ca495991b7852b855";
+    return all;
+  };
+  bool other_thread = false;
+  std::thread t([&] { other_thread = check_all(); });
+  const bool this_thread = check_all();
+  t.join();
+  CHECK(this_thread);
+  CHECK(other_thread);
+}
+
+TEST_CASE("every special byte at every place of a word-sized scan equals nlohmann::json::dump()", "[audit][json]") {
+  // The escaping scans eight bytes at a time; a special byte in any lane, or two in one word, must be found.
+  std::vector<std::string> specials;
+  for (int b = 0; b < 0x20; ++b) specials.emplace_back(1, static_cast<char>(b));
+  for (const char* s : {"\"", "\\", "\x7f", "\xc3\xa9", "\xe2\x82\xac", "\"\\", "\\\""}) specials.emplace_back(s);
+  long long compared = 0, equal = 0;
+  for (const auto& special : specials)
+    for (std::size_t at = 0; at <= 24; ++at)
+      for (const std::size_t length : {std::size_t{24}, std::size_t{31}}) {
+        std::string text(length, 'a');
+        for (std::size_t k = 0; k < length; ++k) text[k] = static_cast<char>('A' + k % 26);
+        text.insert(std::min(at, text.size()), special);
+        if (at % 5 == 0) text += special;  // a second one further on
+        std::string out;
+        store::append_json_string(out, text);
+        ++compared;
+        if (out == json(text).dump()) ++equal;
+      }
+  CHECK(compared == 39 * 25 * 2);
+  CHECK(equal == compared);
 }
