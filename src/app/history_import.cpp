@@ -60,10 +60,10 @@ public:
                                    run.date, as_column_message(message)));
     }
     std::int64_t id = 0;
-    store::PreparedGroup prepared = store::prepare_run(rec_, built, id);
     const bool failed = built.verdict == Verdict::fail;
-
     const Date on = built.performed_on;
+    store::PreparedGroup prepared = store::prepare_run(rec_, std::move(built), id);
+
     auto [it, fresh] = report_.instruments.try_emplace(in.instrument_id);
     ImportedInstrument& ins = it->second;
     if (fresh) ins.first_on = ins.last_on = on;
@@ -201,6 +201,7 @@ ImportReport import_history(store::Database& db, const store::Actor& actor, cons
   long long done = 0;
   const auto prepare_chunk = [&](bool& last) {
     ChunkQueue::Chunk chunk;
+    chunk.reserve(256);
     while (chunk.size() < 256 && !last) {
       if (std::getline(in, line)) {
         done += static_cast<long long>(line.size()) + 1;

@@ -3,8 +3,6 @@
 #include <fmt/format.h>
 
 #include <array>
-#include <cstdint>
-#include <cstring>
 
 #include <nlohmann/json.hpp>
 
@@ -21,46 +19,30 @@ constexpr std::array<unsigned char, 256> escape_class = [] {
   return c;
 }();
 
-/// The first byte at or after `i` that is not copied as is (escape_class not 0), or text.size(). Eight bytes
-/// at a time while none of them is special (bit tricks on a 64-bit word), then byte by byte: audit records
-/// escape a kilobyte of JSON per check run, nearly all of it plain.
-std::size_t next_special(std::string_view text, std::size_t i) {
-  constexpr std::uint64_t ones = 0x0101010101010101ULL, highs = 0x8080808080808080ULL;
-  const auto has_zero_byte = [](std::uint64_t v) { return (v - ones) & ~v & highs; };
-  for (; i + 8 <= text.size(); i += 8) {
-    std::uint64_t x = 0;
-    std::memcpy(&x, text.data() + i, 8);
-    const std::uint64_t special = (x & highs) |                  // >= 0x80: UTF-8
-                                  ((x - 0x20 * ones) & ~x & highs) |  // < 0x20: control characters
-                                  has_zero_byte(x ^ (0x7f * ones)) | has_zero_byte(x ^ (0x22 * ones)) |
-                                  has_zero_byte(x ^ (0x5c * ones));
-    if (special != 0) break;
-  }
-  while (i < text.size() && escape_class[static_cast<unsigned char>(text[i])] == 0) ++i;
-  return i;
-}
-
 }  // namespace
 
 void append_json_string(std::string& out, std::string_view text) {
-  // The common case, printable ASCII, is copied in runs with '"' and '\\' escaped; anything else (control
-  // characters, UTF-8) goes through nlohmann's own serializer so that both always agree.
+  // The common case, printable ASCII, is written with '"' and '\\' escaped in one branch-free pass over a
+  // buffer of the largest size it can need (a backslash is written before every character and kept only
+  // where it belongs); anything else (control characters, UTF-8) goes through nlohmann's own serializer so
+  // that both always agree. Audit records escape a kilobyte of JSON per check run, a quote every few bytes.
   const std::size_t start = out.size();
-  out.reserve(start + text.size() + text.size() / 4 + 2);
-  out += '"';
-  std::size_t from = 0;
-  for (std::size_t i = next_special(text, 0); i < text.size(); i = next_special(text, i + 1)) {
-    if (escape_class[static_cast<unsigned char>(text[i])] == 2) {
+  out.resize(start + 2 * text.size() + 2);
+  char* p = out.data() + start;
+  *p++ = '"';
+  for (const char c : text) {
+    const unsigned char kind = escape_class[static_cast<unsigned char>(c)];
+    if (kind == 2) {
       out.resize(start);
       out += nlohmann::json(std::string(text)).dump();
       return;
     }
-    out.append(text.data() + from, i - from);
-    out += '\\';
-    from = i;  // the character itself is copied with the next run
+    *p = '\\';
+    p += kind;
+    *p++ = c;
   }
-  out.append(text.data() + from, text.size() - from);
-  out += '"';
+  *p++ = '"';
+  out.resize(static_cast<std::size_t>(p - out.data()));
 }
 
 void append_json_integer(std::string& out, std::int64_t value) {

@@ -180,7 +180,7 @@ std::string Recorder::audit_hash_of(const PreparedGroup& g) const {
   content.after_json = &g.after_json;
   content.reason = g.reason.empty() ? nullptr : &g.reason;
   std::string hashed;
-  hashed.reserve(g.prev_hash.size() + g.after_json.size() + g.after_json.size() / 4 + 256);
+  hashed.reserve(g.prev_hash.size() + 2 * g.after_json.size() + 512);  // escaping may double a text
   hashed += g.prev_hash;
   hashed += '\n';
   append_canonical_audit_json(hashed, content);
@@ -399,6 +399,9 @@ PreparedGroup Recorder::prepare_together(const std::string& reason, const std::f
   g.reason = reason;
   // {"table":{"columns":[...],"rows":[[...],...]},...}: each table's rows in the order they were inserted,
   // the column names once per table (a run's readings would otherwise repeat them in every row).
+  std::size_t size = 2;  // one allocation for the whole record, not one per doubling
+  for (const auto& b : rows.blocks_) size += b.rows.size() + 32 * (b.given.size() + b.left.size()) + 32;
+  g.after_json.reserve(size);
   g.after_json = "{";
   for (const auto& b : rows.blocks_) {
     if (g.after_json.size() > 1) g.after_json += ',';
@@ -481,6 +484,7 @@ void RowGroup::record(const std::string& table, const Row& row, std::int64_t row
     for (const auto& f : row) fresh.given.emplace_back(f.column);
     for (const auto& c : fresh.schema->columns)
       if (std::find(fresh.given.begin(), fresh.given.end(), c.name) == fresh.given.end()) fresh.left.push_back(&c);
+    fresh.rows.reserve(256);
     blocks_.push_back(std::move(fresh));
     b = std::prev(blocks_.end());
   } else {

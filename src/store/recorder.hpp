@@ -131,7 +131,7 @@ public:
 
 private:
   friend class Recorder;
-  explicit RowGroup(Recorder& rec) : rec_(rec) {}
+  explicit RowGroup(Recorder& rec) : rec_(rec) { blocks_.reserve(4); }
   /// A table's rows as the trail records them: the column names once, then each row's values.
   struct Block {
     std::string table;

@@ -230,17 +230,17 @@ void add_balance(Recorder& rec, const BalanceRecord& b) {
              {"instrument_id"});
 }
 
-PreparedGroup prepare_run(Recorder& rec, const RunRecord& run, std::int64_t& id, const RunDetails& details) {
+PreparedGroup prepare_run(Recorder& rec, RunRecord&& run, std::int64_t& id, const RunDetails& details) {
   // One audit record for the run with its weights and readings: what the operator recorded, as one entry.
   return rec.prepare_together(run.reason, [&](RowGroup& group) {
     // Built field by field: a braced list would copy the stored results (about 1 KB) once more.
     Row run_row;
     run_row.reserve(12);
-    run_row.push_back({"instrument_id", run.instrument_id});
-    run_row.push_back({"procedure", run.procedure});
+    run_row.push_back({"instrument_id", std::move(run.instrument_id)});
+    run_row.push_back({"procedure", std::move(run.procedure)});
     run_row.push_back({"performed_on", to_string(run.performed_on)});
-    run_row.push_back({"operator", run.operator_name});
-    run_row.push_back({"results_json", run.results_text.empty() ? run.results.dump() : run.results_text});
+    run_row.push_back({"operator", std::move(run.operator_name)});
+    run_row.push_back({"results_json", run.results_text.empty() ? run.results.dump() : std::move(run.results_text)});
     run_row.push_back({"verdict", to_string(run.verdict)});
     run_row.push_back({"next_due", run.next_due ? Value(to_string(*run.next_due)) : Value()});
     run_row.push_back({"supersedes", run.supersedes ? Value(*run.supersedes) : Value()});
@@ -259,13 +259,13 @@ PreparedGroup prepare_run(Recorder& rec, const RunRecord& run, std::int64_t& id,
     // Built field by field: a braced list would copy every text twice, for each of a million readings.
     std::vector<Row> readings(run.readings.size());
     for (std::size_t i = 0; i < run.readings.size(); ++i) {
-      const StoredReading& r = run.readings[i];
+      StoredReading& r = run.readings[i];
       Row& row = readings[i];
       row.reserve(7);
       row.push_back({"run_id", id});
       row.push_back({"seq", r.seq});
-      row.push_back({"series", r.series});
-      row.push_back({"text", r.reading.text});
+      row.push_back({"series", std::move(r.series)});
+      row.push_back({"text", std::move(r.reading.text)});
       row.push_back({"unit", to_string(r.reading.unit)});
       row.push_back({"units", r.reading.value.units()});
       row.push_back({"scale", r.reading.value.scale()});
@@ -277,7 +277,7 @@ PreparedGroup prepare_run(Recorder& rec, const RunRecord& run, std::int64_t& id,
 
 std::int64_t add_run(Recorder& rec, const RunRecord& run, const RunDetails& details) {
   std::int64_t id = 0;
-  rec.write(prepare_run(rec, run, id, details));
+  rec.write(prepare_run(rec, RunRecord(run), id, details));
   return id;
 }
 

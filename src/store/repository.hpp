@@ -40,8 +40,8 @@ using RunDetails = std::function<void(RowGroup& group, std::int64_t run_id)>;
 /// Appends the run with its weights, readings and `details` under one audit record; returns the new run id.
 std::int64_t add_run(Recorder& rec, const RunRecord& run, const RunDetails& details = {});
 /// add_run's rows and audit record, computed but not written (a batch import writes them on another
-/// thread with Recorder::write); `id` receives the run id they will have.
-PreparedGroup prepare_run(Recorder& rec, const RunRecord& run, std::int64_t& id, const RunDetails& details = {});
+/// thread with Recorder::write); `id` receives the run id they will have. `run`'s texts are moved into the rows.
+PreparedGroup prepare_run(Recorder& rec, RunRecord&& run, std::int64_t& id, const RunDetails& details = {});
 std::optional<RunRecord> find_run(SQLite::Database& db, std::int64_t id);
 /// The id of the most recently recorded run, if any.
 std::optional<std::int64_t> last_run_id(SQLite::Database& db);
