@@ -179,12 +179,10 @@ void refuse_repeat(SQLite::Database& db, const std::string& source, const std::s
 
 ImportReport import_history(store::Database& db, const store::Actor& actor, const std::filesystem::path& file,
                             const std::string& source, const std::function<void(long long, long long)>& progress) {
-  const std::string sha = store::sha256_of_file(file, "import file");
   std::error_code ec;
   const auto total = static_cast<long long>(std::filesystem::file_size(file, ec));
 
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
-  refuse_repeat(db.sql(), source, sha);
   store::Recorder rec(db.sql(), actor);
   Importer importer(db, rec, source);
   HistoryCsvParser parser(source);
@@ -214,10 +212,15 @@ ImportReport import_history(store::Database& db, const store::Actor& actor, cons
     }
     return chunk;
   };
+  std::string sha;
   {
     // If a write fails, the queue's destructor waits for the chunk in preparation before the rollback; a bad
     // row's InputError comes back from next().
     ChunkQueue queue(prepare_chunk);
+    // The file's digest, which refuses a repeated import, is taken here while the first chunk is prepared;
+    // nothing is written before the check, and a repeat is reported before any error in the file's rows.
+    sha = store::sha256_of_file(file, "import file");
+    refuse_repeat(db.sql(), source, sha);
     for (bool last = false; !last;) {
       ChunkQueue::Chunk chunk = queue.next(last);
       rec.write(chunk);
