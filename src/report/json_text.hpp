@@ -34,9 +34,9 @@ public:
 private:
   void separate();
   std::string& out_;
-  std::vector<char> open_;   ///< '{' or '[' per open level
-  bool first_ = true;        ///< no member yet in the innermost level
-  bool after_key_ = false;   ///< a key was written; its value comes next
+  std::vector<char> open_;  ///< '{' or '[' per open level
+  bool first_ = true;       ///< no member yet in the innermost level
+  bool after_key_ = false;  ///< a key was written; its value comes next
 };
 
 }  // namespace plumb::report

@@ -8,8 +8,8 @@
 #include <pwd.h>
 #include <unistd.h>
 
-#include <chrono>
 #include <algorithm>
+#include <chrono>
 #include <cstdlib>
 #include <memory>
 #include <tuple>
@@ -319,7 +319,8 @@ void Recorder::write_rows(const std::string& table, std::span<const Row* const> 
   // readings, and each statement's execution costs about as much as the rows it carries.
   for (std::size_t from = 0; from < rows.size();) {
     const Row& head = *rows[from];
-    const std::size_t most = std::min(rows_per_statement, std::max<std::size_t>(1, max_parameters / std::max<std::size_t>(1, head.size())));
+    const std::size_t most =
+        std::clamp<std::size_t>(max_parameters / std::max<std::size_t>(1, head.size()), 1, rows_per_statement);
     std::size_t n = 1;
     while (n < most && from + n < rows.size() && same_columns(*rows[from + n], head)) ++n;
     Writer& w = writer(table, head, n);
@@ -337,7 +338,10 @@ void Recorder::write_audits(std::span<const PreparedGroup> groups) {
     auto& insert = audit_inserts_[n];
     if (!insert) {
       std::string values;
-      for (std::size_t i = 0; i < n; ++i) values += i ? ", (?, ?, ?, ?, ?, ?, ?, NULL, ?, ?, ?, ?)" : "(?, ?, ?, ?, ?, ?, ?, NULL, ?, ?, ?, ?)";
+      for (std::size_t i = 0; i < n; ++i) {
+        if (i > 0) values += ", ";
+        values += "(?, ?, ?, ?, ?, ?, ?, NULL, ?, ?, ?, ?)";
+      }
       insert = std::make_unique<SQLite::Statement>(
           db_, "INSERT INTO audit_log (seq, at, os_user, actor, action, table_name, row_key, before_json, "
                "after_json, reason, prev_hash, hash) VALUES " + values);

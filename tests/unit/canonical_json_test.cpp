@@ -21,7 +21,8 @@ const std::vector<std::string> awkward_texts = {
     "quote \" and backslash \\ and slash /",
     "tab\there, newline\nthere, return\r, form feed\f, backspace\b",
     "control \x01 and \x1f and DEL \x7f",
-    "UTF-8: 20 \xc2\xb0""C, \xce\xbc""g, \xe2\x80\x94 dash, \xf0\x9f\x98\x80",
+    // Split literals end the hex escapes before the letters that follow them.
+    "UTF-8: 20 \xc2\xb0""C, \xce\xbc""g, \xe2\x80\x94 dash, \xf0\x9f\x98\x80",  // NOLINT(bugprone-suspicious-missing-comma)
     R"({"check_runs":[{"id":1,"results_json":{"sha256":"ab"}}]})",
 };
 
@@ -96,6 +97,7 @@ TEST_CASE("SHA-256 of the FIPS 180-2 test messages, repeatedly and from two thre
 TEST_CASE("every special byte at every place of a word-sized scan equals nlohmann::json::dump()", "[audit][json]") {
   // The escaping scans eight bytes at a time; a special byte in any lane, or two in one word, must be found.
   std::vector<std::string> specials;
+  specials.reserve(39);
   for (int b = 0; b < 0x20; ++b) specials.emplace_back(1, static_cast<char>(b));
   for (const char* s : {"\"", "\\", "\x7f", "\xc3\xa9", "\xe2\x82\xac", "\"\\", "\\\""}) specials.emplace_back(s);
   long long compared = 0, equal = 0;
@@ -111,6 +113,6 @@ TEST_CASE("every special byte at every place of a word-sized scan equals nlohman
         ++compared;
         if (out == json(text).dump()) ++equal;
       }
-  CHECK(compared == 39 * 25 * 2);
+  CHECK(compared == 39LL * 25 * 2);
   CHECK(equal == compared);
 }
