@@ -332,3 +332,123 @@ TEST_CASE("audit verify catches deleted, reordered, altered and forged audit rec
   }
   CHECK(store::verify_audit_trail(sql).ok());
 }
+
+namespace {
+
+/// Appends one audit record the way plumb wrote every row before a run's rows were grouped: action "insert",
+/// the whole row read back as a JSON object (long texts copied in full), chained with
+/// SHA-256(previous hash + "\n" + the record's JSON with sorted keys) as the schema comment describes.
+void append_per_row_record(SQLite::Database& sql, const std::string& table, const std::string& where,
+                           const std::string& key) {
+  SQLite::Statement row(sql, "SELECT * FROM " + table + " WHERE " + where);
+  REQUIRE(row.executeStep());
+  nlohmann::json after = nlohmann::json::object();
+  for (int i = 0; i < row.getColumnCount(); ++i) {
+    const SQLite::Column c = row.getColumn(i);
+    if (c.isNull()) after[c.getName()] = nullptr;
+    else if (c.isInteger()) after[c.getName()] = c.getInt64();
+    else after[c.getName()] = c.getString();
+  }
+  SQLite::Statement tail(sql, "SELECT seq, hash FROM audit_log ORDER BY seq DESC LIMIT 1");
+  REQUIRE(tail.executeStep());
+  const std::int64_t seq = tail.getColumn(0).getInt64() + 1;
+  const std::string prev = tail.getColumn(1).getString();
+  tail.reset();
+  nlohmann::json record = {{"seq", seq},           {"at", "2026-06-01T09:00:00Z"}, {"os_user", "tech"},
+                           {"actor", "A. Tech"},   {"action", "insert"},           {"table_name", table},
+                           {"row_key", key},       {"before_json", nullptr},       {"after_json", after.dump()},
+                           {"reason", nullptr}};
+  const std::string hash = store::sha256_hex(prev + "\n" + record.dump());
+  SQLite::Statement insert(sql, "INSERT INTO audit_log (seq, at, os_user, actor, action, table_name, row_key, "
+                                "before_json, after_json, reason, prev_hash, hash) "
+                                "VALUES (?, ?, ?, ?, 'insert', ?, ?, NULL, ?, NULL, ?, ?)");
+  insert.bind(1, seq);
+  insert.bind(2, "2026-06-01T09:00:00Z");
+  insert.bind(3, "tech");
+  insert.bind(4, "A. Tech");
+  insert.bind(5, table);
+  insert.bind(6, key);
+  insert.bind(7, after.dump());
+  insert.bind(8, prev);
+  insert.bind(9, hash);
+  insert.exec();
+}
+
+}  // namespace
+
+TEST_CASE("a trail written one record per row, as before runs were grouped, still verifies and still catches tampering",
+          "[audit][tamper]") {
+  // A database written by an earlier plumb: the run, its weight link and each reading carry an audit record of
+  // their own, with the stored results (about 1 KB) copied in full rather than by digest. Grouped records
+  // follow in the same trail.
+  test::ScratchDir dir;
+  store::Database db(dir.file("lab.db"), store::Database::Open::create);
+  build_lab(db);
+  SQLite::Database& sql = db.sql();
+  const std::int64_t run = count(sql, "SELECT max(id) FROM check_runs") + 1;
+  const std::string results = R"({"n":10,"mean_g":100.00023,"verdict":"pass","readability_statement":")" +
+                              std::string(300, 'x') + R"("})";
+  REQUIRE(results.size() > store::long_text_bytes);
+  exec(sql, "BEGIN");
+  SQLite::Statement run_row(sql, "INSERT INTO check_runs (id, instrument_id, procedure, performed_on, operator, "
+                                 "results_json, verdict, next_due, recorded_at, os_user) VALUES (?, 'BAL-A', "
+                                 "'repeatability', '2026-05-31', 'A. Tech', ?, 'pass', '2026-06-07', "
+                                 "'2026-06-01T09:00:00Z', 'tech')");
+  run_row.bind(1, run);
+  run_row.bind(2, results);
+  run_row.exec();
+  append_per_row_record(sql, "check_runs", "id = " + std::to_string(run), "id=" + std::to_string(run));
+  exec(sql, "INSERT INTO run_weights (run_id, position, weight_id, weight_calibration_id) VALUES (" +
+                std::to_string(run) + ", 1, 'W100', 1)");
+  append_per_row_record(sql, "run_weights", "run_id = " + std::to_string(run) + " AND position = 1",
+                        "run_id=" + std::to_string(run) + ",position=1");
+  for (int seq = 1; seq <= 10; ++seq) {
+    exec(sql, "INSERT INTO readings (run_id, seq, text, unit, units, scale) VALUES (" + std::to_string(run) + ", " +
+                  std::to_string(seq) + ", '100.000" + std::to_string(seq % 10) + "', 'g', " +
+                  std::to_string(1000000 + seq % 10) + ", 4)");
+    append_per_row_record(sql, "readings", "run_id = " + std::to_string(run) + " AND seq = " + std::to_string(seq),
+                          "run_id=" + std::to_string(run) + ",seq=" + std::to_string(seq));
+  }
+  exec(sql, "COMMIT");
+  // And a grouped record after them, as the current plumb writes.
+  app::CheckInput c;
+  c.instrument_id = "BAL-A";
+  c.procedure = "repeatability";
+  c.weight_ids = {"W100"};
+  c.readings_csv = good_readings;
+  c.readings_source = "r.csv";
+  c.on = "2026-11-30";
+  c.operator_name = "A. Technician";
+  app::record_check(db, {"A. Technician", "tech"}, c);
+
+  const auto v = store::verify_audit_trail(sql);
+  INFO((v.problems.empty() ? "" : v.problems.front().message));
+  CHECK(v.ok());
+  std::int64_t rows = 0;
+  for (const auto& t : audited_tables(sql)) rows += count(sql, "SELECT count(*) FROM " + t);
+  CHECK(v.rows == rows);
+
+  exec(sql, "PRAGMA foreign_keys = OFF");
+  const auto tampered = [&](const std::string& table, const std::string& update) {
+    exec(sql, "SAVEPOINT tamper");
+    drop_triggers(sql, table);
+    exec(sql, update);
+    const auto result = store::verify_audit_trail(sql);
+    exec(sql, "ROLLBACK TO tamper; RELEASE tamper");
+    REQUIRE_FALSE(result.ok());
+    return result.problems.front();
+  };
+  const auto reading = tampered("readings", "UPDATE readings SET text = '100.0009' WHERE run_id = " +
+                                                std::to_string(run) + " AND seq = 3");
+  CHECK(reading.kind == Kind::field_mismatch);
+  CHECK(reading.table == "readings");
+  CHECK(reading.key == "run_id=" + std::to_string(run) + ",seq=3");
+  CHECK(reading.field == "text");
+  // The long results text was recorded in full: one changed character is caught against the copy.
+  const auto stored = tampered("check_runs", "UPDATE check_runs SET results_json = replace(results_json, "
+                                             "'100.00023', '100.00024') WHERE id = " + std::to_string(run));
+  CHECK(stored.kind == Kind::field_mismatch);
+  CHECK(stored.key == "id=" + std::to_string(run));
+  CHECK(stored.field == "results_json");
+  CHECK(store::verify_audit_trail(sql).ok());
+}
