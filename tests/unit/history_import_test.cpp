@@ -8,6 +8,7 @@
 #include "app/history_import.hpp"
 #include "app/registry.hpp"
 #include "core/errors.hpp"
+#include "store/audit_trail.hpp"
 #include "store/repository.hpp"
 #include "support/run_plumb.hpp"
 
@@ -90,4 +91,88 @@ TEST_CASE("imported runs are traced to the certificate valid on their date", "[i
   SQLite::Statement count(db.sql(), "SELECT count(*) FROM check_runs");
   REQUIRE(count.executeStep());
   CHECK(count.getColumn(0).getInt() == 2);
+}
+
+TEST_CASE("a long import goes through both threads in file order, all or nothing", "[import][threads]") {
+  // 2,000 runs are eight chunks of 256: the preparing thread runs ahead of the writing one and hands chunks
+  // over, which a ThreadSanitizer build (.ci/run) watches. What must hold whatever the timing: every run and
+  // reading is stored as in the file, in file order, the trail verifies, and a bad row near the end leaves
+  // nothing behind.
+  test::ScratchDir dir;
+  store::Database db(dir.file("lab.db"), store::Database::Open::create);
+  app::init_lab(db, quality, "History Lab");
+  app::WeightInput w;
+  w.id = "W1";
+  w.nominal = "100g";
+  w.weight_class = "E2";
+  w.uncertainty = "0.05mg";
+  w.certificate = "C-1";
+  w.calibrated = "2024-01-10";
+  w.due = "2025-01-10";
+  app::add_weight(db, quality, w);
+  for (int k = 0; k < 10; ++k) {
+    app::BalanceInput b;
+    b.id = "BAL-" + std::to_string(k);
+    b.capacity = "220g";
+    b.readability = "0.1mg";
+    b.every = "7d";
+    b.smallest_net = "200mg";
+    b.since = "2024-01-15";
+    app::add_balance(db, quality, b);
+  }
+  // Run k: balance k % 10, day k / 10 after 2024-02-01, three readings whose last digit follows k.
+  const auto file_of = [](int runs, int bad_run) {
+    std::string csv = "instrument,procedure,date,operator,weight,reading,unit\n";
+    for (int k = 0; k < runs; ++k) {
+      const std::string date = to_string(add_days(parse_date("2024-02-01"), k / 10));
+      for (int r = 0; r < 3; ++r) {
+        const std::string reading = k == bad_run && r == 2 ? "100.00001" : "100.000" + std::to_string((k + r) % 10);
+        csv += "BAL-" + std::to_string(k % 10) + ",repeatability," + date + ",A. Technician,W1," + reading + ",g\n";
+      }
+    }
+    return csv;
+  };
+  dir.write("long.csv", file_of(2000, -1));
+  const auto report = app::import_history(db, quality, dir.file("long.csv"), "long.csv");
+  REQUIRE(report.runs == 2000);
+  CHECK(report.readings == 6000);
+  const auto count = [&](const std::string& sql) { return db.sql().execAndGet(sql).getInt64(); };
+  CHECK(count("SELECT count(*) FROM check_runs") == 2000);
+  CHECK(count("SELECT count(*) FROM readings") == 6000);
+  // Run ids follow the file: run k is id first + k, on balance k % 10, with the readings of the file.
+  long long misplaced = 0;
+  SQLite::Statement q(db.sql(), "SELECT r.id, r.instrument_id, r.performed_on, d.seq, d.text FROM check_runs r "
+                                "JOIN readings d ON d.run_id = r.id ORDER BY r.id, d.seq");
+  while (q.executeStep()) {
+    const int k = static_cast<int>(q.getColumn(0).getInt64() - report.first_run_id);
+    const int r = q.getColumn(3).getInt() - 1;
+    if (q.getColumn(1).getString() != "BAL-" + std::to_string(k % 10) ||
+        q.getColumn(2).getString() != to_string(add_days(parse_date("2024-02-01"), k / 10)) ||
+        q.getColumn(4).getString() != "100.000" + std::to_string((k + r) % 10))
+      ++misplaced;
+  }
+  CHECK(misplaced == 0);
+  // One audit record per run, in the same order as the runs.
+  CHECK(count("SELECT count(*) FROM audit_log WHERE action = 'insert rows'") == 2000);
+  CHECK(count("SELECT count(*) FROM (SELECT seq, row_key, lag(row_key) OVER (ORDER BY seq) AS before FROM audit_log "
+              "WHERE action = 'insert rows') WHERE before IS NOT NULL AND "
+              "CAST(substr(row_key, 4) AS INTEGER) <> CAST(substr(before, 4) AS INTEGER) + 1") == 0);
+  CHECK(store::verify_audit_trail(db.sql()).ok());
+
+  // A reading finer than the readability, the third of run 1,900 (line 2 + 3 x 1,900 + 2 = 5,704): refused
+  // with its line, nothing written.
+  const auto trail = count("SELECT count(*) FROM audit_log");
+  dir.write("bad.csv", file_of(2000, 1900));
+  try {
+    app::import_history(db, quality, dir.file("bad.csv"), "bad.csv");
+    FAIL("the import should have been refused");
+  } catch (const InputError& e) {
+    CHECK_THAT(e.what(), Catch::Contains("bad.csv line 5704"));
+  }
+  CHECK(count("SELECT count(*) FROM check_runs") == 2000);
+  CHECK(count("SELECT count(*) FROM audit_log") == trail);
+  // The same good file again is refused before anything is written.
+  CHECK_THROWS_WITH(app::import_history(db, quality, dir.file("long.csv"), "long.csv"),
+                    Catch::Contains("already imported"));
+  CHECK(count("SELECT count(*) FROM audit_log") == trail);
 }
