@@ -11,6 +11,7 @@
 #include "app/calibration_settings.hpp"
 #include "app/registry.hpp"
 #include "app/service_status.hpp"
+#include "app/weight_in_force.hpp"
 #include "checks/calibration.hpp"
 #include "core/errors.hpp"
 #include "report/calibration_json.hpp"
@@ -60,23 +61,24 @@ public:
   const UsedWeight& weight(const std::string& id, int line) {
     if (auto it = weights_.find(id); it != weights_.end()) return it->second;
     const std::string where = fmt::format("{} line {} column load", in_.readings_source, line);
-    if (!store::find_weight(db_.sql(), id))
-      throw InputError(fmt::format("{}: weight \"{}\" is not a known reference weight.", where, id));
-    auto w = store::find_weight_on(db_.sql(), id, on_);
-    if (!w)
+    auto w = store::find_weight(db_.sql(), id);
+    if (!w) throw InputError(fmt::format("{}: weight \"{}\" is not a known reference weight.", where, id));
+    const auto history = store::weight_calibrations_until(db_.sql(), id, on_);
+    const store::WeightCalibration* in_force = certificate_in_force(history, on_);
+    if (!in_force)
       throw InputError(fmt::format("{}: weight {} has no calibration certificate dated on or before the run date {}.",
                                    where, id, to_string(on_)));
     // A reference weight whose own calibration is overdue may not be used (common practice).
-    if (days_between(w->current.due_on, on_) > 0)
+    if (overdue_on(*in_force, on_))
       throw InputError(fmt::format("{}: weight {} was due for calibration on {} (certificate {}), before the run date "
                                    "{}; an overdue weight cannot give a traceable calibration.",
-                                   where, id, to_string(w->current.due_on), w->current.certificate_no, to_string(on_)));
+                                   where, id, to_string(in_force->due_on), in_force->certificate_no, to_string(on_)));
     require_in_service(db_, "weight", id);
+    w->current = *in_force;
     UsedWeight u{*w, std::nullopt, std::nullopt};
     // Drift D (EURAMET cg-18 7.1.2.4): estimated from the change between the weight's last two certificates.
-    const auto history = store::weight_calibrations_until(db_.sql(), id, on_);
     for (std::size_t i = 1; i < history.size(); ++i)
-      if (history[i].id == w->current.id) u.previous = history[i - 1];
+      if (history[i].id == in_force->id) u.previous = history[i - 1];
     if (u.previous) u.drift = abs_mass(w->current.correction - u.previous->correction);
     order_.push_back(id);
     return weights_.emplace(id, std::move(u)).first->second;

@@ -8,6 +8,7 @@
 
 #include "app/registry.hpp"
 #include "app/service_status.hpp"
+#include "app/weight_in_force.hpp"
 #include "checks/repeatability.hpp"
 #include "core/errors.hpp"
 #include "core/readings_csv.hpp"
@@ -70,15 +71,12 @@ store::WeightRecord CheckLookups::traceable_weight(const std::string& id, Date o
     it = weights_.emplace(id, WeightHistory{std::move(*w), std::move(calibrations)}).first;
   }
   const WeightHistory& h = it->second;
-  // The certificate in force on the check date: the latest dated on or before it (by date, then entry order).
-  const store::WeightCalibration* in_force = nullptr;
-  for (const auto& c : h.calibrations)
-    if (c.calibrated_on <= on) in_force = &c;
+  const store::WeightCalibration* in_force = certificate_in_force(h.calibrations, on);
   if (!in_force)
     throw InputError(fmt::format("--weight {} has no calibration certificate dated on or before the check date {}.",
                                  id, to_string(on)));
   // A reference weight whose own calibration is overdue may not be used to verify an instrument.
-  if (days_between(in_force->due_on, on) > 0)
+  if (overdue_on(*in_force, on))
     throw InputError(fmt::format("--weight {} was due for calibration on {} (certificate {}), before the check date "
                                  "{}; an overdue weight cannot give a traceable check.",
                                  id, to_string(in_force->due_on), in_force->certificate_no, to_string(on)));

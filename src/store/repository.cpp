@@ -125,19 +125,6 @@ std::optional<WeightRecord> find_weight(SQLite::Database& db, const std::string&
   return weight_from(q);
 }
 
-std::optional<WeightRecord> find_weight_on(SQLite::Database& db, const std::string& id, Date on) {
-  SQLite::Statement q(
-      db,
-      "SELECT w.id, w.nominal_text, w.nominal_g, w.weight_class, w.density_kg_m3, c.id, c.certificate_no, "
-      "c.correction_g, c.uncertainty_g, c.coverage_k, c.calibrated_on, c.due_on FROM weights w "
-      "JOIN weight_calibrations c ON c.id = (SELECT id FROM weight_calibrations WHERE weight_id = w.id "
-      "AND calibrated_on <= ?1 ORDER BY calibrated_on DESC, id DESC LIMIT 1) WHERE w.id = ?2");
-  q.bind(1, to_string(on));
-  q.bind(2, id);
-  if (!q.executeStep()) return std::nullopt;
-  return weight_from(q);
-}
-
 std::optional<WeightCalibration> find_weight_calibration(SQLite::Database& db, std::int64_t id) {
   SQLite::Statement q(db,
                       "SELECT id, certificate_no, correction_g, uncertainty_g, coverage_k, calibrated_on, due_on "

@@ -19,8 +19,6 @@ void add_lab(Recorder& rec, const std::string& name);
 
 // Reference weights
 std::optional<WeightRecord> find_weight(SQLite::Database& db, const std::string& id);
-/// The weight with the certificate that was current on `on` (the latest calibrated on or before it).
-std::optional<WeightRecord> find_weight_on(SQLite::Database& db, const std::string& id, Date on);
 std::optional<WeightCalibration> find_weight_calibration(SQLite::Database& db, std::int64_t id);
 std::vector<WeightRecord> list_weights(SQLite::Database& db);
 void add_weight(Recorder& rec, const WeightRecord& w);
