@@ -17,18 +17,10 @@ void JsonText::separate() {
   first_ = false;
 }
 
-JsonText& JsonText::object() {
+JsonText& JsonText::open(char bracket) {
   separate();
-  out_ += '{';
-  open_.push_back('{');
-  first_ = true;
-  return *this;
-}
-
-JsonText& JsonText::array() {
-  separate();
-  out_ += '[';
-  open_.push_back('[');
+  out_ += bracket;
+  open_.push_back(bracket);
   first_ = true;
   return *this;
 }

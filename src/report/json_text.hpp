@@ -15,8 +15,8 @@ public:
   explicit JsonText(std::string& out) : out_(out) {}
 
   /// Opens an object ("{") or an array ("[") as the next value; close with end().
-  JsonText& object();
-  JsonText& array();
+  JsonText& object() { return open('{'); }
+  JsonText& array() { return open('['); }
   JsonText& end();
   /// The next member's key (objects only; keys in sorted order).
   JsonText& key(std::string_view k);
@@ -32,6 +32,7 @@ public:
   JsonText& strings(const std::vector<std::string>& texts);
 
 private:
+  JsonText& open(char bracket);
   void separate();
   std::string& out_;
   std::vector<char> open_;  ///< '{' or '[' per open level

@@ -25,6 +25,32 @@ std::string rows(const std::string& date) {
   return csv;
 }
 
+/// A lab with reference weight W1 (100 g, E2, one certificate from 2024-01-10 to 2025-01-10); returns it.
+store::WeightRecord lab_with_weight(store::Database& db, const std::string& certificate) {
+  app::init_lab(db, quality, "History Lab");
+  app::WeightInput w;
+  w.id = "W1";
+  w.nominal = "100g";
+  w.weight_class = "E2";
+  w.uncertainty = "0.05mg";
+  w.certificate = certificate;
+  w.calibrated = "2024-01-10";
+  w.due = "2025-01-10";
+  return app::add_weight(db, quality, w);
+}
+
+/// A 220 g / 0.1 mg balance for USP <41> checks with a smallest net weight of 200 mg.
+void add_usp41_balance(store::Database& db, const std::string& id, const std::string& every, const std::string& since) {
+  app::BalanceInput b;
+  b.id = id;
+  b.capacity = "220g";
+  b.readability = "0.1mg";
+  b.every = every;
+  b.smallest_net = "200mg";
+  b.since = since;
+  app::add_balance(db, quality, b);
+}
+
 std::int64_t certificate_of_run(store::Database& db, std::int64_t run) {
   SQLite::Statement q(db.sql(), "SELECT weight_calibration_id FROM run_weights WHERE run_id = ?");
   q.bind(1, run);
@@ -37,16 +63,7 @@ std::int64_t certificate_of_run(store::Database& db, std::int64_t run) {
 TEST_CASE("imported runs are traced to the certificate valid on their date", "[import]") {
   test::ScratchDir dir;
   store::Database db(dir.file("lab.db"), store::Database::Open::create);
-  app::init_lab(db, quality, "History Lab");
-  app::WeightInput w;
-  w.id = "W1";
-  w.nominal = "100g";
-  w.weight_class = "E2";
-  w.uncertainty = "0.05mg";
-  w.certificate = "OLD-1";
-  w.calibrated = "2024-01-10";
-  w.due = "2025-01-10";
-  const auto first = app::add_weight(db, quality, w);
+  const auto first = lab_with_weight(db, "OLD-1");
   {
     // The weight's recalibration: a second certificate, now the current one.
     SQLite::Transaction tx(db.sql());
@@ -58,14 +75,7 @@ TEST_CASE("imported runs are traced to the certificate valid on their date", "[i
     store::add_weight_calibration(rec, "W1", c);
     tx.commit();
   }
-  app::BalanceInput b;
-  b.id = "BAL-H";
-  b.capacity = "220g";
-  b.readability = "0.1mg";
-  b.every = "6mo";
-  b.smallest_net = "200mg";
-  b.since = "2023-12-01";
-  app::add_balance(db, quality, b);
+  add_usp41_balance(db, "BAL-H", "6mo", "2023-12-01");
   const std::int64_t old_id = first.current.id;
   const std::int64_t new_id = store::find_weight(db.sql(), "W1")->current.id;
   REQUIRE(old_id != new_id);
@@ -100,26 +110,8 @@ TEST_CASE("a long import goes through both threads in file order, all or nothing
   // nothing behind.
   test::ScratchDir dir;
   store::Database db(dir.file("lab.db"), store::Database::Open::create);
-  app::init_lab(db, quality, "History Lab");
-  app::WeightInput w;
-  w.id = "W1";
-  w.nominal = "100g";
-  w.weight_class = "E2";
-  w.uncertainty = "0.05mg";
-  w.certificate = "C-1";
-  w.calibrated = "2024-01-10";
-  w.due = "2025-01-10";
-  app::add_weight(db, quality, w);
-  for (int k = 0; k < 10; ++k) {
-    app::BalanceInput b;
-    b.id = "BAL-" + std::to_string(k);
-    b.capacity = "220g";
-    b.readability = "0.1mg";
-    b.every = "7d";
-    b.smallest_net = "200mg";
-    b.since = "2024-01-15";
-    app::add_balance(db, quality, b);
-  }
+  lab_with_weight(db, "C-1");
+  for (int k = 0; k < 10; ++k) add_usp41_balance(db, "BAL-" + std::to_string(k), "7d", "2024-01-15");
   // Run k: balance k % 10, day k / 10 after 2024-02-01, three readings whose last digit follows k.
   const auto file_of = [](int runs, int bad_run) {
     std::string csv = "instrument,procedure,date,operator,weight,reading,unit\n";
