@@ -4,6 +4,7 @@
 #include <SQLiteCpp/Transaction.h>
 
 #include <catch2/catch.hpp>
+#include <fmt/format.h>
 
 #include "app/history_import.hpp"
 #include "app/registry.hpp"
@@ -119,7 +120,7 @@ TEST_CASE("a long import goes through both threads in file order, all or nothing
       const std::string date = to_string(add_days(parse_date("2024-02-01"), k / 10));
       for (int r = 0; r < 3; ++r) {
         const std::string reading = k == bad_run && r == 2 ? "100.00001" : "100.000" + std::to_string((k + r) % 10);
-        csv += "BAL-" + std::to_string(k % 10) + ",repeatability," + date + ",A. Technician,W1," + reading + ",g\n";
+        csv += fmt::format("BAL-{},repeatability,{},A. Technician,W1,{},g\n", k % 10, date, reading);
       }
     }
     return csv;
