@@ -16,6 +16,7 @@
 #include "app/service_status.hpp"
 #include "store/audit_trail.hpp"
 #include "support/run_plumb.hpp"
+#include "support/registry_inputs.hpp"
 
 using namespace plumb;
 using Kind = store::AuditProblem::Kind;
@@ -30,29 +31,16 @@ const std::string good_readings =
 void build_lab(store::Database& db) {
   const store::Actor tech{"A. Technician", "tech"}, manager{"Q. Manager", "qm"};
   app::init_lab(db, manager, "Example Analytical Lab");
-  app::WeightInput w;
-  w.id = "W100";
-  w.nominal = "100g";
-  w.weight_class = "E2";
+  app::WeightInput w = test::e2_weight("W100", "100g", "RC-2291", "2026-03-02", "2027-03-02");
   w.correction = "0.03mg";
-  w.uncertainty = "0.05mg";
-  w.certificate = "RC-2291";
-  w.calibrated = "2026-03-02";
-  w.due = "2027-03-02";
   app::add_weight(db, manager, w);
   w.id = "W200";
   w.nominal = "200g";
   w.certificate = "RC-2292";
   app::add_weight(db, manager, w);
   for (const char* id : {"BAL-A", "BAL-B"}) {
-    app::BalanceInput b;
-    b.id = id;
-    b.capacity = "220g";
-    b.readability = "0.1mg";
-    b.every = "7d";
+    app::BalanceInput b = test::usp41_balance(id, "7d", "2026-01-05");
     b.location = "Room 2";
-    b.smallest_net = "200mg";
-    b.since = "2026-01-05";
     app::add_balance(db, manager, b);
   }
   for (const char* on : {"2026-11-16", "2026-11-23"}) {

@@ -12,6 +12,7 @@
 #include "store/audit_trail.hpp"
 #include "store/repository.hpp"
 #include "support/run_plumb.hpp"
+#include "support/registry_inputs.hpp"
 
 using namespace plumb;
 
@@ -29,27 +30,11 @@ std::string rows(const std::string& date) {
 /// A lab with reference weight W1 (100 g, E2, one certificate from 2024-01-10 to 2025-01-10); returns it.
 store::WeightRecord lab_with_weight(store::Database& db, const std::string& certificate) {
   app::init_lab(db, quality, "History Lab");
-  app::WeightInput w;
-  w.id = "W1";
-  w.nominal = "100g";
-  w.weight_class = "E2";
-  w.uncertainty = "0.05mg";
-  w.certificate = certificate;
-  w.calibrated = "2024-01-10";
-  w.due = "2025-01-10";
-  return app::add_weight(db, quality, w);
+  return app::add_weight(db, quality, test::e2_weight("W1", "100g", certificate, "2024-01-10", "2025-01-10"));
 }
 
-/// A 220 g / 0.1 mg balance for USP <41> checks with a smallest net weight of 200 mg.
 void add_usp41_balance(store::Database& db, const std::string& id, const std::string& every, const std::string& since) {
-  app::BalanceInput b;
-  b.id = id;
-  b.capacity = "220g";
-  b.readability = "0.1mg";
-  b.every = every;
-  b.smallest_net = "200mg";
-  b.since = since;
-  app::add_balance(db, quality, b);
+  app::add_balance(db, quality, test::usp41_balance(id, every, since));
 }
 
 std::int64_t certificate_of_run(store::Database& db, std::int64_t run) {

@@ -9,6 +9,7 @@
 #include "store/audit_trail.hpp"
 #include "store/repository.hpp"
 #include "support/run_plumb.hpp"
+#include "support/registry_inputs.hpp"
 
 using namespace plumb;
 
@@ -36,23 +37,9 @@ TEST_CASE("groups written together land as prepared, whether their tables match 
   store::Database db(dir.file("lab.db"), store::Database::Open::create);
   const store::Actor quality{"Q. Manager", "tester"};
   app::init_lab(db, quality, "Batch Lab");
-  app::WeightInput w;
-  w.id = "W1";
-  w.nominal = "100g";
-  w.weight_class = "E2";
-  w.uncertainty = "0.05mg";
-  w.certificate = "C-1";
-  w.calibrated = "2026-01-10";
-  w.due = "2027-01-10";
-  const std::int64_t calibration = app::add_weight(db, quality, w).current.id;
-  app::BalanceInput b;
-  b.id = "BAL-1";
-  b.capacity = "220g";
-  b.readability = "0.1mg";
-  b.every = "7d";
-  b.smallest_net = "200mg";
-  b.since = "2026-01-15";
-  app::add_balance(db, quality, b);
+  const std::int64_t calibration =
+      app::add_weight(db, quality, test::e2_weight("W1", "100g", "C-1", "2026-01-10", "2027-01-10")).current.id;
+  app::add_balance(db, quality, test::usp41_balance("BAL-1", "7d", "2026-01-15"));
 
   std::vector<std::int64_t> ids;
   {
