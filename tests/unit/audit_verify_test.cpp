@@ -186,11 +186,11 @@ TEST_CASE("audit verify catches one changed field of any row of any table and na
   int caught = 0, attempts = 0;
   while (caught < 120 && attempts < 2000) {
     ++attempts;
-    const std::string table = tables[rng() % tables.size()];
+    const std::string& table = tables[rng() % tables.size()];
     const auto rows = count(sql, "SELECT count(*) FROM " + table);
     if (rows == 0) continue;
     const auto cols = columns_of(sql, table);
-    const Column col = cols[rng() % cols.size()];
+    const Column& col = cols[rng() % cols.size()];
     SQLite::Statement pick(sql, "SELECT rowid, * FROM " + table + " ORDER BY rowid LIMIT 1 OFFSET ?");
     pick.bind(1, static_cast<std::int64_t>(rng() % static_cast<std::uint64_t>(rows)));
     REQUIRE(pick.executeStep());
