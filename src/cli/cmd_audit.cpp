@@ -1,8 +1,8 @@
 #include <fmt/ostream.h>
 
-#include "app/audit.hpp"
+#include "app/records/audit.hpp"
 #include "cli/command_groups.hpp"
-#include "report/audit_log_render.hpp"
+#include "report/records/audit_log.hpp"
 
 namespace plumb::cli {
 

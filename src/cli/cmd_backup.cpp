@@ -1,6 +1,6 @@
 #include <fmt/ostream.h>
 
-#include "app/backup.hpp"
+#include "app/records/backup.hpp"
 #include "cli/command_groups.hpp"
 
 namespace plumb::cli {

@@ -1,6 +1,6 @@
 #include <fmt/ostream.h>
 
-#include "app/calibration_settings.hpp"
+#include "app/calibration/settings.hpp"
 #include "cli/command_groups.hpp"
 
 namespace plumb::cli {

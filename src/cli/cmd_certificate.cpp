@@ -1,12 +1,12 @@
 #include <fmt/ostream.h>
 
-#include "app/certificate_pdf.hpp"
-#include "app/certificate_review.hpp"
-#include "app/certificates.hpp"
+#include "app/certificates/pdf.hpp"
+#include "app/certificates/review.hpp"
+#include "app/certificates/issue.hpp"
 #include "cli/command_groups.hpp"
 #include "core/errors.hpp"
-#include "report/certificate_status_text.hpp"
-#include "report/certificate_text.hpp"
+#include "report/certificates/status_text.hpp"
+#include "report/certificates/text.hpp"
 
 namespace plumb::cli {
 namespace {

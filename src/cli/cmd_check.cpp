@@ -4,15 +4,15 @@
 #include <iostream>
 #include <sstream>
 
-#include "app/record_calibration.hpp"
-#include "app/correct_check.hpp"
-#include "app/record_check.hpp"
-#include "app/record_pipette_check.hpp"
+#include "app/calibration/record.hpp"
+#include "app/runs/correct.hpp"
+#include "app/weekly_check/record.hpp"
+#include "app/pipette/record.hpp"
 #include "cli/command_groups.hpp"
 #include "core/errors.hpp"
-#include "report/check_json.hpp"
-#include "report/check_text.hpp"
-#include "report/pipette_check_text.hpp"
+#include "report/runs/json.hpp"
+#include "report/runs/text.hpp"
+#include "report/pipette/text.hpp"
 #include "store/repository.hpp"
 
 namespace plumb::cli {

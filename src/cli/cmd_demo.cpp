@@ -5,15 +5,15 @@
 
 #include <nlohmann/json.hpp>
 
-#include "app/certificate_pdf.hpp"
-#include "app/certificates.hpp"
-#include "app/history_report.hpp"
-#include "app/demo_lab.hpp"
-#include "app/due_list.hpp"
+#include "app/certificates/pdf.hpp"
+#include "app/certificates/issue.hpp"
+#include "app/history/html_report.hpp"
+#include "app/demo/demo_lab.hpp"
+#include "app/status/due.hpp"
 #include "cli/command_groups.hpp"
 #include "cli/progress.hpp"
-#include "report/certificate_text.hpp"
-#include "report/demo_logo.hpp"
+#include "report/certificates/text.hpp"
+#include "report/document/demo_logo.hpp"
 #include "store/embedded.hpp"
 
 namespace plumb::cli {

@@ -2,7 +2,7 @@
 
 #include <nlohmann/json.hpp>
 
-#include "app/due_list.hpp"
+#include "app/status/due.hpp"
 #include "cli/command_groups.hpp"
 #include "core/errors.hpp"
 

@@ -1,9 +1,9 @@
 // The trend commands: history, control-chart, drift, interval-review. Read-only on the database.
 #include <fmt/ostream.h>
 
-#include "app/trends.hpp"
+#include "app/history/trends.hpp"
 #include "cli/command_groups.hpp"
-#include "report/trend_text.hpp"
+#include "report/history/trend_text.hpp"
 
 namespace plumb::cli {
 namespace {

@@ -2,7 +2,7 @@
 
 #include <nlohmann/json.hpp>
 
-#include "app/history_import.hpp"
+#include "app/runs/import.hpp"
 #include "cli/command_groups.hpp"
 #include "cli/progress.hpp"
 #include "core/history_csv.hpp"

@@ -2,7 +2,7 @@
 
 #include <nlohmann/json.hpp>
 
-#include "app/pipette_registry.hpp"
+#include "app/pipette/registry.hpp"
 #include "cli/command_groups.hpp"
 #include "store/pipettes.hpp"
 #include "store/repository.hpp"

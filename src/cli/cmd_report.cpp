@@ -1,7 +1,7 @@
 // `plumb report --html FILE`: the self-contained HTML history report. Read-only on the database.
 #include <fmt/ostream.h>
 
-#include "app/history_report.hpp"
+#include "app/history/html_report.hpp"
 #include "cli/command_groups.hpp"
 
 namespace plumb::cli {

@@ -1,6 +1,6 @@
 #include <fmt/ostream.h>
 
-#include "app/service_status.hpp"
+#include "app/registry/service_status.hpp"
 #include "cli/command_groups.hpp"
 #include "core/errors.hpp"
 

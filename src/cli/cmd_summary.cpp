@@ -2,7 +2,7 @@
 
 #include <nlohmann/json.hpp>
 
-#include "app/lab_summary.hpp"
+#include "app/status/summary.hpp"
 #include "cli/command_groups.hpp"
 
 namespace plumb::cli {

@@ -3,7 +3,7 @@
 // balance judged by USP <41>. Tests change the fields they care about. Header-only so it needs no build change.
 #include <string>
 
-#include "app/registry.hpp"
+#include "app/registry/registry.hpp"
 
 namespace plumb::test {
 

@@ -8,12 +8,12 @@
 #include <random>
 #include <set>
 
-#include "app/certificate_review.hpp"
-#include "app/certificates.hpp"
-#include "app/correct_check.hpp"
-#include "app/record_check.hpp"
-#include "app/registry.hpp"
-#include "app/service_status.hpp"
+#include "app/certificates/review.hpp"
+#include "app/certificates/issue.hpp"
+#include "app/runs/correct.hpp"
+#include "app/weekly_check/record.hpp"
+#include "app/registry/registry.hpp"
+#include "app/registry/service_status.hpp"
 #include "store/audit_trail.hpp"
 #include "support/run_plumb.hpp"
 #include "support/registry_inputs.hpp"

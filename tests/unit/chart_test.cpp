@@ -3,7 +3,7 @@
 //
 // How the SVG is made testable: cairo writes text as glyph outlines and every shape as an anonymous
 // <path>, so the renderer notes each element as it draws it and the SVG carries that record in
-// <title>, <desc> and <metadata> (report/chart_record.hpp). These tests read that record, and cross-check
+// <title>, <desc> and <metadata> (report/chart/draw_record.hpp). These tests read that record, and cross-check
 // it against cairo's own geometry where that can be counted (each point is one fill in the series
 // colour; each error bar one stroke in that colour at 85 % opacity). The text itself is checked in the
 // PDF, where pango writes real, extractable text.
@@ -15,9 +15,9 @@
 #include <fstream>
 
 #include "core/errors.hpp"
-#include "report/axis_ticks.hpp"
-#include "report/chart.hpp"
-#include "report/history_charts.hpp"
+#include "report/chart/axis_ticks.hpp"
+#include "report/chart/chart.hpp"
+#include "report/history/charts.hpp"
 #include "support/history.hpp"
 #include "support/xml_scan.hpp"
 

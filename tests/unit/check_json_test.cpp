@@ -11,8 +11,8 @@
 #include <regex>
 
 #include "checks/repeatability.hpp"
-#include "report/check_json.hpp"
-#include "report/json_text.hpp"
+#include "report/runs/json.hpp"
+#include "report/format/json_text.hpp"
 
 using namespace plumb;
 using nlohmann::json;

@@ -6,8 +6,8 @@
 #include <catch2/catch.hpp>
 #include <fmt/format.h>
 
-#include "app/history_import.hpp"
-#include "app/registry.hpp"
+#include "app/runs/import.hpp"
+#include "app/registry/registry.hpp"
 #include "core/errors.hpp"
 #include "store/audit_trail.hpp"
 #include "store/repository.hpp"

@@ -5,7 +5,7 @@
 
 #include <catch2/catch.hpp>
 
-#include "app/registry.hpp"
+#include "app/registry/registry.hpp"
 #include "store/audit_trail.hpp"
 #include "store/repository.hpp"
 #include "support/run_plumb.hpp"

@@ -2,7 +2,7 @@
 // certificate dated on or before the date (the later entry on a tie), overdue once its due date has passed.
 #include <catch2/catch.hpp>
 
-#include "app/weight_in_force.hpp"
+#include "app/registry/weight_in_force.hpp"
 
 using namespace plumb;
 

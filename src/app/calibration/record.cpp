@@ -1,0 +1,431 @@
+#include "app/calibration/record.hpp"
+
+#include <SQLiteCpp/Transaction.h>
+#include <fmt/format.h>
+
+#include <cmath>
+#include <map>
+#include <set>
+
+#include "app/calibration/run_file.hpp"
+#include "app/calibration/settings.hpp"
+#include "app/registry/registry.hpp"
+#include "app/registry/service_status.hpp"
+#include "app/registry/weight_in_force.hpp"
+#include "checks/calibration.hpp"
+#include "core/errors.hpp"
+#include "report/calibration/json.hpp"
+#include "store/calibration.hpp"
+#include "store/repository.hpp"
+
+namespace plumb::app {
+namespace {
+
+using nlohmann::json;
+
+/// A load as the file names it: one weight combination within one stage and part.
+struct FileLoad {
+  std::string stage, part, combination;  ///< combination canonical: "W100+W50"
+  int first_line = 0;
+  std::vector<std::string> weight_ids;
+  ExactMass nominal, conventional;
+  std::vector<const CalibrationRow*> rows;
+};
+
+struct UsedWeight {
+  store::WeightRecord record;
+  std::optional<store::WeightCalibration> previous;  ///< the certificate before the current one, for drift
+  std::optional<ExactMass> drift;
+};
+
+ExactMass abs_mass(ExactMass m) { return m < ExactMass{} ? ExactMass{} - m : m; }
+
+/// Decimals a reading shows once expressed in grams: "100.0003" g -> 4; "100000.3" mg -> 4.
+int decimals_in_grams(const MassReading& r) { return r.value.scale() - exponent_to_gram(r.unit); }
+
+/// An environment option: a plain decimal inside [lo, hi].
+std::optional<double> environment_value(const std::optional<std::string>& text, const char* option, double lo,
+                                        double hi, const char* unit, const char* what) {
+  if (!text) return std::nullopt;
+  const double v = Decimal::parse(*text, option).to_double();
+  if (v < lo || v > hi)
+    throw InputError(fmt::format("{} {} {} is outside {} ({} to {} {}).", option, *text, unit, what, lo, hi, unit));
+  return v;
+}
+
+class RunBuilder {
+public:
+  RunBuilder(store::Database& db, const CalibrationRunInput& in, Date on, const store::BalanceRecord& b)
+      : db_(db), in_(in), on_(on), balance_(b) {}
+
+  const UsedWeight& weight(const std::string& id, int line) {
+    if (auto it = weights_.find(id); it != weights_.end()) return it->second;
+    const std::string where = fmt::format("{} line {} column load", in_.readings_source, line);
+    auto w = store::find_weight(db_.sql(), id);
+    if (!w) throw InputError(fmt::format("{}: weight \"{}\" is not a known reference weight.", where, id));
+    const auto history = store::weight_calibrations_until(db_.sql(), id, on_);
+    const store::WeightCalibration* in_force = certificate_in_force(history, on_);
+    if (!in_force)
+      throw InputError(fmt::format("{}: weight {} has no calibration certificate dated on or before the run date {}.",
+                                   where, id, to_string(on_)));
+    // A reference weight whose own calibration is overdue may not be used (common practice).
+    if (overdue_on(*in_force, on_))
+      throw InputError(fmt::format("{}: weight {} was due for calibration on {} (certificate {}), before the run date "
+                                   "{}; an overdue weight cannot give a traceable calibration.",
+                                   where, id, to_string(in_force->due_on), in_force->certificate_no, to_string(on_)));
+    require_in_service(db_, "weight", id);
+    w->current = *in_force;
+    UsedWeight u{*w, std::nullopt, std::nullopt};
+    // Drift D (EURAMET cg-18 7.1.2.4): estimated from the change between the weight's last two certificates.
+    for (std::size_t i = 1; i < history.size(); ++i)
+      if (history[i].id == in_force->id) u.previous = history[i - 1];
+    if (u.previous) u.drift = abs_mass(w->current.correction - u.previous->correction);
+    order_.push_back(id);
+    return weights_.emplace(id, std::move(u)).first->second;
+  }
+
+  FileLoad& load_of(const CalibrationRow& r) {
+    const std::string where = fmt::format("{} line {} column load", in_.readings_source, r.line);
+    const auto ids = checks::parse_combination(r.load, where);
+    std::set<std::string> seen;
+    std::string canonical;
+    for (const auto& id : ids) {
+      if (!seen.insert(id).second)
+        throw InputError(fmt::format("{}: weight {} is named twice in \"{}\"; each weight can be on the pan once.",
+                                     where, id, r.load));
+      canonical += (canonical.empty() ? "" : "+") + id;
+    }
+    for (auto& l : loads_)
+      if (l.stage == r.stage && l.part == r.part && l.combination == canonical) return l;
+    FileLoad l{r.stage, r.part, canonical, r.line, ids, {}, {}, {}};
+    for (const auto& id : ids) {
+      const auto& w = weight(id, r.line);
+      l.nominal = l.nominal + w.record.nominal;
+      l.conventional = l.conventional + w.record.conventional_mass();
+    }
+    if (l.nominal > balance_.capacity)
+      throw InputError(fmt::format("{}: the load {} = {} is above the capacity {} of {}.", where, canonical,
+                                   l.nominal.to_string(), balance_.capacity.to_string(), balance_.id));
+    loads_.push_back(std::move(l));
+    return loads_.back();
+  }
+
+  std::vector<FileLoad>& loads() { return loads_; }
+  const std::vector<std::string>& weight_order() const { return order_; }
+  const UsedWeight& used(const std::string& id) const { return weights_.at(id); }
+
+private:
+  store::Database& db_;
+  const CalibrationRunInput& in_;
+  Date on_;
+  const store::BalanceRecord& balance_;
+  std::map<std::string, UsedWeight> weights_;
+  std::vector<std::string> order_;
+  std::vector<FileLoad> loads_;
+};
+
+std::vector<FileLoad*> loads_of(std::vector<FileLoad>& loads, const std::string& stage, const std::string& part) {
+  std::vector<FileLoad*> out;
+  for (auto& l : loads)
+    if (l.stage == stage && l.part == part) out.push_back(&l);
+  return out;
+}
+
+/// Builds one stage's set, checking what the file alone can show (with its lines) before the pure layer runs.
+checks::CalibrationSet build_set(std::vector<FileLoad>& loads, const std::string& stage, const std::string& source,
+                                 stats::Model model) {
+  checks::CalibrationSet set;
+  for (auto* l : loads_of(loads, stage, "repeatability")) {
+    if (l->rows.size() < checks::min_repeatability_readings)
+      throw InputError(fmt::format("{} line {}: the {} repeatability series at {} has {} reading(s); at least {} are "
+                                   "needed (10 recommended).",
+                                   source, l->first_line, stage, l->combination, l->rows.size(),
+                                   checks::min_repeatability_readings));
+    checks::RepeatabilitySeries s{l->conventional, {}};
+    for (const auto* r : l->rows) s.readings_g.push_back(r->reading.mass().in_grams());
+    set.repeatability.push_back(std::move(s));
+  }
+  const auto ecc = loads_of(loads, stage, "eccentricity");
+  if (ecc.size() > 1)
+    throw InputError(fmt::format("{} line {} column load: the {} eccentricity test uses one load, but {} was read "
+                                 "before (line {}).",
+                                 source, ecc[1]->first_line, stage, ecc[0]->combination, ecc[0]->first_line));
+  if (!ecc.empty()) {
+    checks::EccentricityInput e;
+    e.load = ecc[0]->conventional;
+    std::map<std::string, int> seen;
+    for (const auto* r : ecc[0]->rows) {
+      if (auto [it, fresh] = seen.emplace(r->position, r->line); !fresh)
+        throw InputError(fmt::format("{} line {} column position: \"{}\" is read twice in the {} eccentricity test "
+                                     "(first on line {}).",
+                                     source, r->line, r->position, stage, it->second));
+      const Decimal g = r->reading.mass().in_grams();
+      if (r->position == "centre") e.centre_g = g;
+      else e.positions.push_back({r->position, g});
+    }
+    if (!e.centre_g)
+      throw InputError(fmt::format("{} line {} column position: the {} eccentricity test has no reading at the "
+                                   "centre; the deviations are taken from it.",
+                                   source, ecc[0]->first_line, stage));
+    if (e.positions.size() < checks::min_eccentricity_positions)
+      throw InputError(fmt::format("{} line {} column position: the {} eccentricity test has {} off-centre "
+                                   "position(s); at least {} are needed.",
+                                   source, ecc[0]->first_line, stage, e.positions.size(),
+                                   checks::min_eccentricity_positions));
+    set.eccentricity = std::move(e);
+  }
+  const auto ind = loads_of(loads, stage, "indication");
+  if (ind.size() < checks::min_loads)
+    throw InputError(fmt::format("{}: the {} error of indication has {} load(s); at least {} are needed (5 to 11).",
+                                 source, stage, ind.size(), checks::min_loads));
+  std::set<std::string> distinct;
+  for (const auto* l : ind) distinct.insert(l->conventional.in_grams().to_string());
+  const std::size_t needed = model == stats::Model::quadratic ? 3 : model == stats::Model::line ? 2 : 1;
+  if (distinct.size() < needed)
+    throw InputError(fmt::format("--model {}: the {} error of indication has {} distinct load(s); this model needs at "
+                                 "least {}.",
+                                 report::model_key(model), stage, distinct.size(), needed));
+  for (const auto* l : ind) {
+    checks::LoadPoint p{l->combination, {}, {}};
+    for (const auto* r : l->rows) (r->direction == "down" ? p.down_g : p.up_g).push_back(r->reading.mass().in_grams());
+    if (p.up_g.empty())
+      throw InputError(fmt::format("{} line {} column direction: the {} load {} has no reading going up.", source,
+                                   l->first_line, stage, l->combination));
+    set.loads.push_back(std::move(p));
+  }
+  return set;
+}
+
+json weight_trace(const std::string& id, const UsedWeight& u) {
+  const auto& w = u.record;
+  return {{"id", id},
+          {"nominal", w.nominal_text},
+          {"class", w.weight_class},
+          {"certificate", w.current.certificate_no},
+          {"weight_calibration_id", w.current.id},
+          {"calibrated_on", to_string(w.current.calibrated_on)},
+          {"due_on", to_string(w.current.due_on)},
+          {"conventional_mass_g", w.conventional_mass().in_grams().to_string()},
+          {"correction_g", w.current.correction.in_grams().to_string()},
+          {"uncertainty_g", w.current.uncertainty.in_grams().to_string()},
+          {"k", w.current.k.to_string()},
+          {"density_kg_m3", w.density_kg_m3 ? w.density_kg_m3->to_string() : "8000"},
+          {"density_assumed", !w.density_kg_m3.has_value()},
+          {"drift_g", u.drift ? json(u.drift->in_grams().to_string()) : json()},
+          {"drift_basis", u.previous ? fmt::format("change since certificate {} of {}", u.previous->certificate_no,
+                                                   to_string(u.previous->calibrated_on))
+                                     : "no earlier certificate: drift not estimated"}};
+}
+
+}  // namespace
+
+store::RunRecord record_calibration(store::Database& db, const store::Actor& actor, const CalibrationRunInput& in) {
+  SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
+  store::Recorder rec(db.sql(), actor);
+  const std::int64_t id = record_calibration_in(db, rec, in);
+  tx.commit();
+  return *store::find_run(db.sql(), id);
+}
+
+std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, const CalibrationRunInput& in) {
+  const Date on = parse_date(in.on, "--on");
+  if (days_between(today_utc(), on) > 1) throw InputError(fmt::format("--on {} is in the future.", in.on));
+  if (in.operator_name.empty()) throw InputError("--by must name the operator who performed the calibration.");
+  const stats::Model model = report::parse_model(in.model, "--model");
+  density::AirFormula formula = density::AirFormula::cipm2007;
+  if (in.air_formula == "oiml-r111") formula = density::AirFormula::oiml_r111;
+  else if (in.air_formula != "cipm2007")
+    throw InputError(fmt::format("--air-formula \"{}\" is not cipm2007 or oiml-r111.", in.air_formula));
+
+  // Environment: all three conditions (the air density follows from them) or none (not measured).
+  const auto t = environment_value(in.temperature_c, "--temperature", density::min_t_c, density::max_t_c, "degC",
+                                   "the range plumb accepts for a weighing room");
+  const auto p = environment_value(in.pressure_hpa, "--pressure", density::min_pressure_hpa, density::max_pressure_hpa,
+                                   "hPa", "the plausible range of air pressure");
+  const auto h = environment_value(in.humidity_pct, "--humidity", 0.0, 100.0, "%", "relative humidity");
+  const int given = (t ? 1 : 0) + (p ? 1 : 0) + (h ? 1 : 0);
+  if (given != 0 && given != 3)
+    throw InputError(fmt::format("--temperature, --pressure and --humidity go together (the air density needs all "
+                                 "three); {} is missing.",
+                                 !t ? "--temperature" : !p ? "--pressure" : "--humidity"));
+  std::optional<density::Environment> environment;
+  if (given == 3) {
+    environment = density::Environment{*t, *p, *h};
+    density::validate(*environment);
+  }
+
+  const auto rows = parse_calibration_csv(in.readings_csv, in.readings_source, in.default_unit);
+  require_lab(db);
+  const auto balance = store::find_balance(db.sql(), in.instrument_id);
+  if (!balance) throw InputError(fmt::format("balance \"{}\" is not registered.", in.instrument_id));
+  require_in_service(db, "instrument", balance->id);
+  const auto settings = store::find_calibration_settings(db.sql(), balance->id);
+  if (!settings)
+    throw InputError(fmt::format("balance {} has no calibration settings; set them first with `plumb balance "
+                                 "set-calibration {} --class ... --decision-rule ... --calibrate-every ...`.",
+                                 balance->id, balance->id));
+
+  const int allowed = balance->readability.in_grams().significant_scale();
+  RunBuilder builder(db, in, on, *balance);
+  bool as_found_seen = false;
+  for (const auto& r : rows) {
+    if (decimals_in_grams(r.reading) > allowed)
+      throw InputError(fmt::format("{} line {} column reading: \"{}\" {} shows more decimals than the readability {} "
+                                   "of {} allows.",
+                                   in.readings_source, r.line, r.reading.text, to_string(r.reading.unit),
+                                   balance->readability.to_string(), balance->id));
+    if (r.reading.mass() > balance->capacity)
+      throw InputError(fmt::format("{} line {} column reading: \"{}\" {} exceeds the capacity {} of {}.",
+                                   in.readings_source, r.line, r.reading.text, to_string(r.reading.unit),
+                                   balance->capacity.to_string(), balance->id));
+    if (r.stage == "as-found") as_found_seen = true;
+    else if (!as_found_seen)
+      throw InputError(fmt::format("{} line {} column stage: as-left readings come before any as-found reading; "
+                                   "record the balance as found first.",
+                                   in.readings_source, r.line));
+    builder.load_of(r).rows.push_back(&r);
+  }
+  bool adjusted = false;
+  for (const auto& r : rows) adjusted = adjusted || r.stage == "as-left";
+
+  checks::CalibrationInput ci;
+  ci.balance = {balance->id, balance->capacity, balance->readability, settings->verification_interval, std::nullopt};
+  if (settings->accuracy_class) ci.balance.accuracy_class = r76::parse_accuracy_class(*settings->accuracy_class);
+  for (const auto& id : builder.weight_order()) {
+    const auto& u = builder.used(id);
+    checks::CalibrationWeight w;
+    w.id = id;
+    w.nominal = u.record.nominal;
+    w.conventional_mass = u.record.conventional_mass();
+    w.expanded_uncertainty = u.record.current.uncertainty;
+    w.coverage_factor = u.record.current.k.to_double();
+    w.weight_class = weights::parse_weight_class(u.record.weight_class);
+    if (u.record.density_kg_m3) w.density_kg_m3 = u.record.density_kg_m3->to_double();
+    w.drift = u.drift;
+    w.certificate = u.record.current.certificate_no;
+    ci.weights.push_back(std::move(w));
+  }
+  ci.environment = environment;
+  ci.air_formula = formula;
+  ci.model = model;
+  ci.tolerance = tolerance_of(*settings);
+  ci.rule = rule_of(*settings);
+  ci.as_found = build_set(builder.loads(), "as-found", in.readings_source, model);
+  if (adjusted) ci.as_left = build_set(builder.loads(), "as-left", in.readings_source, model);
+  const checks::CalibrationResult result = checks::evaluate_calibration(ci);
+
+  const auto& final_set = result.as_left ? *result.as_left : result.as_found;
+  store::RunRecord run;
+  run.instrument_id = balance->id;
+  run.procedure = "calibration";
+  run.performed_on = on;
+  run.operator_name = in.operator_name;
+  run.verdict = checks::clear_pass(final_set.overall) ? Verdict::pass : Verdict::fail;
+  if (run.verdict == Verdict::pass) run.next_due = add_interval(on, settings->calibrate_every);
+  run.results = report::to_json(result);
+  run.results["policy_name"] = result.tolerance_name;
+  run.results["readability_g"] = balance->readability.in_grams().to_string();
+  run.results["capacity_g"] = balance->capacity.in_grams().to_string();
+  run.results["model"] = std::string(report::model_key(model));
+  run.results["final_stage"] = adjusted ? "as-left" : "as-found";
+  run.results["final_state"] = std::string(checks::to_string(final_set.overall));
+  run.results["adjusted"] = adjusted;
+  run.results["settings"] = {{"id", settings->id},
+                             {"description", describe(*settings)},
+                             {"accuracy_class", settings->accuracy_class ? json(*settings->accuracy_class) : json()},
+                             {"e_g", settings->verification_interval
+                                         ? json(settings->verification_interval->in_grams().to_string())
+                                         : json()},
+                             {"tolerance", settings->tolerance},
+                             {"decision_rule", settings->decision_rule},
+                             {"calibrate_every", settings->calibrate_every.to_string()}};
+  run.results["environment"] = {
+      {"measured", environment.has_value()},
+      {"temperature_c", in.temperature_c ? json(*in.temperature_c) : json()},
+      {"pressure_hpa", in.pressure_hpa ? json(*in.pressure_hpa) : json()},
+      {"humidity_pct", in.humidity_pct ? json(*in.humidity_pct) : json()},
+      {"air_method", environment ? std::string(density::to_string(formula)) : std::string("assumed")},
+      {"air_density_kg_m3", result.air ? result.air->rho : 1.2},
+      {"u_air_density_kg_m3", result.air ? result.air->u : 0.12 / std::sqrt(3.0)},
+      {"statement", environment ? fmt::format("air density {:.4f} kg/m3 (u = {:.1g} kg/m3) from t, p and h by {}; u "
+                                              "covers the equation only (the thermometer, barometer and hygrometer "
+                                              "uncertainties are not entered)",
+                                              result.air->rho, result.air->u, density::to_string(formula))
+                                : std::string("air density not measured: 1.2 kg/m3 +/- 10 % (rectangular) "
+                                              "assumed, no buoyancy correction applied")}};
+  json trace = json::array();
+  for (const auto& id : builder.weight_order()) {
+    trace.push_back(weight_trace(id, builder.used(id)));
+    run.weights.push_back({id, builder.used(id).record.current.id});
+  }
+  run.results["weights_used"] = trace;
+
+  store::CalibrationRunDetails details;
+  details.settings_id = settings->id;
+  details.model = std::string(report::model_key(model));
+  details.temperature_c = in.temperature_c;
+  details.pressure_hpa = in.pressure_hpa;
+  details.humidity_pct = in.humidity_pct;
+  details.air_density_kg_m3 = fmt::format("{:.5f}", result.air ? result.air->rho : 1.2);
+  details.u_air_density = fmt::format("{:.5f}", result.air ? result.air->u : 0.12 / std::sqrt(3.0));
+  details.air_method = environment ? (formula == density::AirFormula::cipm2007 ? "cipm2007" : "oiml-r111") : "assumed";
+  details.as_found_state = std::string(checks::key(result.as_found.overall));
+  if (result.as_left) details.as_left_state = std::string(checks::key(result.as_left->overall));
+  std::map<std::pair<std::string, std::string>, int> numbers;
+  std::map<const FileLoad*, int> load_no;
+  for (const auto& l : builder.loads()) {
+    const int n = ++numbers[{l.stage, l.part}];
+    load_no[&l] = n;
+    store::CalibrationLoad cl{l.stage, l.part, n, l.combination, l.nominal, l.conventional, {}};
+    for (const auto& id : l.weight_ids) cl.weights.push_back({id, builder.used(id).record.current.id});
+    details.loads.push_back(std::move(cl));
+  }
+  int seq = 1;
+  for (const auto& r : rows) {
+    const FileLoad* owner = nullptr;
+    for (const auto& l : builder.loads())
+      for (const auto* lr : l.rows)
+        if (lr == &r) owner = &l;
+    run.readings.push_back(
+        {seq, fmt::format("{}/{}/{}/{}/{}", r.stage, r.part, owner->combination, r.position, r.direction), r.reading});
+    details.places.push_back({seq, r.stage, r.part, load_no[owner],
+                              r.position.empty() ? std::nullopt : std::optional<std::string>(r.position),
+                              r.direction.empty() ? std::nullopt : std::optional<std::string>(r.direction)});
+    ++seq;
+  }
+
+  details.run_id = store::add_run(rec, run, [&](store::RowGroup& group, std::int64_t run_id) {
+    details.run_id = run_id;
+    store::add_calibration_details(group, details);
+  });
+  return details.run_id;
+}
+
+json calibration_error_at(const store::RunRecord& run, const std::string& load, bool extrapolate) {
+  if (run.procedure != "calibration")
+    throw InputError(fmt::format("--at: run {} is a {} check, not a calibration; only a calibration has a fitted "
+                                 "model.",
+                                 run.id, run.procedure));
+  const json& results = run.results;
+  const bool left = results.contains("as_left") && !results["as_left"].is_null();
+  const json& set = left ? results["as_left"] : results["as_found"];
+  const ExactMass at = ExactMass::parse(load, "--at");
+  checks::LinearityResult lin;
+  lin.fit = report::fit_from_json(set["fit"]);
+  const double at_g = at.approx().g;
+  if (!lin.fit.interpolates(at_g) && !extrapolate)
+    throw InputError(fmt::format("--at {} is outside the calibrated range {:.6g} g to {:.6g} g; the error there would "
+                                 "be an extrapolation (add --extrapolate to see it marked as such).",
+                                 load, lin.fit.x_min, lin.fit.x_max));
+  const auto e = checks::error_at(lin, at_g, extrapolate ? checks::Extrapolation::mark : checks::Extrapolation::refuse);
+  return {{"load", at.to_string()},
+          {"load_g", e.load_g},
+          {"stage", left ? "as-left" : "as-found"},
+          {"model", set["fit"].value("model", "")},
+          {"indication_g", e.indication_g},
+          {"error_g", e.error_g},
+          {"se_g", e.se_g},
+          {"extrapolated", e.extrapolated}};
+}
+
+}  // namespace plumb::app

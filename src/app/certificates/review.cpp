@@ -1,0 +1,96 @@
+#include "app/certificates/review.hpp"
+
+#include <SQLiteCpp/Transaction.h>
+#include <fmt/format.h>
+
+#include <cctype>
+
+#include "app/certificates/issue.hpp"
+#include "core/errors.hpp"
+#include "store/repository.hpp"
+#include "store/status_events.hpp"
+
+namespace plumb::app {
+namespace {
+
+using nlohmann::json;
+
+std::string normalized(const std::string& name) {
+  std::string out;
+  bool space = false;
+  for (unsigned char c : name) {
+    if (std::isspace(c)) {
+      space = !out.empty();
+      continue;
+    }
+    if (space) out += ' ';
+    space = false;
+    out += static_cast<char>(std::tolower(c));
+  }
+  return out;
+}
+
+}  // namespace
+
+bool same_person(const std::string& a, const std::string& b) { return normalized(a) == normalized(b); }
+
+json certificate_status(store::Database& db, const store::CertificateRecord& c) {
+  json status = {{"state", "draft"}, {"approval", nullptr}, {"superseded", nullptr}, {"replaces", nullptr}};
+  for (const auto& e : store::certificate_events(db.sql(), c.id)) {
+    if (e.event == "approved")
+      status["approval"] = {{"by", e.by_name}, {"at", e.recorded_at}, {"meaning", e.meaning}, {"os_user", e.os_user}};
+    if (e.event == "superseded") {
+      const auto by = e.replaced_by ? store::find_certificate_by_id(db.sql(), *e.replaced_by) : std::nullopt;
+      status["superseded"] = {{"by_certificate", by ? json(by->number) : json()},
+                              {"at", e.recorded_at},
+                              {"recorded_by", e.by_name},
+                              {"reason", e.reason}};
+    }
+  }
+  if (c.supersedes)
+    if (auto old = store::find_certificate_by_id(db.sql(), *c.supersedes)) status["replaces"] = old->number;
+  if (!status["superseded"].is_null()) status["state"] = "superseded";
+  else if (!status["approval"].is_null()) status["state"] = "approved";
+  return status;
+}
+
+json certificate_document(store::Database& db, const store::CertificateRecord& c) {
+  json doc = c.content;
+  doc["content_sha256"] = c.content_sha256;
+  doc["status"] = certificate_status(db, c);
+  return doc;
+}
+
+store::CertificateRecord approve_certificate(store::Database& db, const store::Actor& actor,
+                                             const std::string& selector, const std::string& meaning) {
+  if (normalized(meaning).empty())
+    throw InputError("--meaning must state what the signature means, e.g. \"reviewed and approved\".");
+  if (normalized(actor.name).empty()) throw InputError("--by must name the person approving the certificate.");
+  SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
+  const store::CertificateRecord cert = find_certificate(db, selector);
+  const store::RunRecord run = *store::find_run(db.sql(), cert.run_id);
+  if (same_person(actor.name, run.operator_name))
+    throw InputError(fmt::format("--by \"{}\" performed check run {} of certificate {}; a certificate must be "
+                                 "approved by someone other than its operator.",
+                                 actor.name, run.id, cert.number));
+  if (auto done = store::certificate_event(db.sql(), cert.id, "approved"))
+    throw InputError(fmt::format("certificate {} was already approved by {} on {}; an approved certificate cannot "
+                                 "change.",
+                                 cert.number, done->by_name, done->recorded_at));
+  if (auto gone = store::certificate_event(db.sql(), cert.id, "superseded")) {
+    const auto by = gone->replaced_by ? store::find_certificate_by_id(db.sql(), *gone->replaced_by) : std::nullopt;
+    throw InputError(fmt::format("certificate {} was superseded by {} ({}); review that one instead.", cert.number,
+                                 by ? by->number : "another certificate", gone->reason));
+  }
+  store::Recorder rec(db.sql(), actor);
+  store::CertificateEvent e;
+  e.certificate_id = cert.id;
+  e.event = "approved";
+  e.by_name = actor.name;
+  e.meaning = meaning;
+  store::add_certificate_event(rec, e);
+  tx.commit();
+  return cert;
+}
+
+}  // namespace plumb::app

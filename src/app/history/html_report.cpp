@@ -1,0 +1,124 @@
+#include "app/history/html_report.hpp"
+
+#include <fmt/format.h>
+
+#include <SQLiteCpp/Statement.h>
+
+#include <algorithm>
+#include <fstream>
+
+#include "app/status/due.hpp"
+#include "app/registry/registry.hpp"
+#include "app/history/trends.hpp"
+#include "core/errors.hpp"
+#include "report/history/charts.hpp"
+#include "store/repository.hpp"
+
+namespace plumb::app {
+namespace {
+
+std::vector<std::string> instrument_ids(store::Database& db) {
+  std::vector<std::string> ids;
+  SQLite::Statement q(db.sql(), "SELECT id FROM instruments ORDER BY id");
+  while (q.executeStep()) ids.push_back(q.getColumn(0).getString());
+  return ids;
+}
+
+void require_html_path(const std::filesystem::path& p) {
+  std::string ext = p.extension().string();
+  std::transform(ext.begin(), ext.end(), ext.begin(), [](unsigned char c) { return static_cast<char>(std::tolower(c)); });
+  if (ext != ".html" && ext != ".htm") throw InputError(fmt::format("--html \"{}\" must end in .html.", p.string()));
+  const auto folder = p.parent_path();
+  if (!folder.empty() && !std::filesystem::is_directory(folder))
+    throw InputError(fmt::format("--html \"{}\": the folder \"{}\" does not exist.", p.string(), folder.string()));
+}
+
+std::string svg_of(const report::ChartSpec& spec) { return report::render_chart(spec, report::ChartFormat::svg); }
+
+// The trend findings and charts of one quantity; a statistic that cannot be computed says why instead.
+void add_trends(store::Database& db, const InstrumentInfo& inst, const HistoryQuantity& q, report::InstrumentSection& s) {
+  const report::SeriesView series = series_view(db, inst, q, {});
+  if (series.points.size() < 2) {
+    s.findings.push_back(fmt::format("{}: {} result(s), too few for a control chart or a drift line.",
+                                     series.quantity.label, series.points.size()));
+    return;
+  }
+  try {
+    report::ControlChartView cc{series, stats::individuals_chart(series.points, {std::nullopt, q.unit})};
+    s.findings.push_back(cc.chart.in_control()
+                             ? fmt::format("{}: in control, no Western Electric rule is broken.", series.quantity.label)
+                             : fmt::format("{}: {} Western Electric signal(s); the latest: {}", series.quantity.label,
+                                           cc.chart.flags.size(), cc.chart.flags.back().explanation));
+    s.svg_charts.push_back(svg_of(control_chart_spec(cc)));
+  } catch (const InputError& e) {
+    s.findings.push_back(fmt::format("{}: no control chart ({})", series.quantity.label, e.what()));
+  }
+  stats::DriftOptions o;
+  o.tolerance = series.quantity.tolerance;
+  o.unit = q.unit;
+  o.quantity = series.quantity.label;
+  report::DriftView dv{series, stats::analyse_drift(series.points, o)};
+  if (dv.drift.fit) {
+    s.findings.push_back(dv.drift.explanation.back());
+    s.svg_charts.push_back(svg_of(drift_chart_spec(dv)));
+  } else {
+    s.findings.push_back(dv.drift.message);
+  }
+}
+
+}  // namespace
+
+report::HtmlReport history_report(store::Database& db, const HistoryReportRequest& r) {
+  report::HtmlReport out;
+  out.lab_name = require_lab(db).name;
+  out.on = r.on;
+  std::vector<std::string> ids;
+  if (r.instrument) {
+    ids.push_back(find_instrument(db, *r.instrument).id);
+    out.scope = "instrument " + *r.instrument;
+  } else {
+    ids = instrument_ids(db);
+    out.scope = "the whole laboratory";
+  }
+  for (const auto& d : due_items(db, r.on, 14, true))
+    if (!r.instrument || d.id == *r.instrument || d.kind == "weight")
+      out.due.push_back({d.kind, d.id, d.location, d.status, d.due_on, d.days_left, d.detail});
+
+  for (const auto& id : ids) {
+    const InstrumentInfo inst = find_instrument(db, id);
+    report::InstrumentSection s;
+    s.id = inst.id;
+    s.title = inst.title;
+    s.location = inst.location;
+    s.status = "no check yet";
+    for (const auto& d : out.due)
+      if (d.id == id && d.kind != "weight") s.status = d.status;
+    s.history = history_view(db, inst, {});
+    const auto keys = quantity_keys(inst.kind);
+    // The watched quantities (bias and repeatability of a balance, e_s % and CV of a pipette); the others follow
+    // from them (the minimum weight from the SD) or repeat them in another unit.
+    for (const auto& q : history_quantities())
+      if (q.instrument_kind == inst.kind && q.watched) add_trends(db, inst, q, s);
+    if (!keys.empty() && !s.history.rows.empty()) {
+      const auto review = interval_review(db, {id, keys.front(), {}, std::nullopt});
+      s.findings.push_back(fmt::format("Check interval: {} the current {} ({} days recommended). {}",
+                                       stats::to_string(review.recommended.action), inst.every.to_string(),
+                                       review.recommended.recommended_days, review.combination));
+    }
+    out.instruments.push_back(std::move(s));
+  }
+  out.caution = report::history_chart_caution;
+  return out;
+}
+
+report::HtmlReport write_history_report(store::Database& db, const HistoryReportRequest& r) {
+  require_html_path(r.output);
+  report::HtmlReport rep = history_report(db, r);
+  const std::string html = report::html_report(rep);
+  std::ofstream f(r.output, std::ios::binary);
+  if (!f || !f.write(html.data(), static_cast<std::streamsize>(html.size())))
+    throw StorageError(fmt::format("cannot write the report file \"{}\".", r.output.string()));
+  return rep;
+}
+
+}  // namespace plumb::app

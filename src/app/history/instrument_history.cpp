@@ -1,0 +1,134 @@
+#include "app/history/instrument_history.hpp"
+
+#include <fmt/format.h>
+
+#include <SQLiteCpp/Statement.h>
+
+#include <cctype>
+#include <map>
+
+#include "core/errors.hpp"
+#include "store/repository.hpp"
+
+namespace plumb::app {
+namespace {
+
+bool in_period(Date d, const Period& p) { return (!p.from || d >= *p.from) && (!p.to || d <= *p.to); }
+
+std::optional<store::WeightCalibration> first_weight(store::Database& db, const store::RunRecord& run) {
+  if (run.weights.empty()) return std::nullopt;
+  return store::find_weight_calibration(db.sql(), run.weights.front().weight_calibration_id);
+}
+
+/// run id -> the id of the run that supersedes it.
+std::map<std::int64_t, std::int64_t> superseded_by(const std::vector<store::RunRecord>& runs) {
+  std::map<std::int64_t, std::int64_t> m;
+  for (const auto& r : runs)
+    if (r.supersedes) m[*r.supersedes] = r.id;
+  return m;
+}
+
+report::QuantityView quantity_view(store::Database& db, const InstrumentInfo& inst, const HistoryQuantity& q,
+                                   const std::vector<store::RunRecord>& runs) {
+  report::QuantityView v{q.key, q.label, q.unit, q.uncertainty_basis, {}, ""};
+  // The latest current run of the quantity's procedure decides the label and the limits that apply now.
+  const auto replaced = superseded_by(runs);
+  for (auto it = runs.rbegin(); it != runs.rend(); ++it) {
+    if (it->procedure != q.procedure || replaced.count(it->id)) continue;
+    const RunContext c{*it, first_weight(db, *it)};
+    v.label = q.axis_label(c);
+    const auto t = q.tolerance(c, inst);
+    v.tolerance = t.limits;
+    v.tolerance_basis = t.basis;
+    return v;
+  }
+  v.tolerance_basis = "no check has been recorded";
+  return v;
+}
+
+}  // namespace
+
+Period parse_period(const std::optional<std::string>& from, const std::optional<std::string>& to) {
+  Period p;
+  if (from) p.from = parse_date(*from, "--from");
+  if (to) p.to = parse_date(*to, "--to");
+  if (p.from && p.to && *p.from > *p.to)
+    throw InputError(fmt::format("--from {} is after --to {}.", *from, *to));
+  return p;
+}
+
+InstrumentInfo find_instrument(store::Database& db, const std::string& id) {
+  if (!store::instrument_exists(db.sql(), id)) throw InputError(fmt::format("instrument \"{}\" is not registered.", id));
+  InstrumentInfo info;
+  info.id = id;
+  if (auto b = store::find_balance(db.sql(), id)) {
+    info.kind = "balance";
+    info.location = b->location;
+    info.every = b->every;
+    info.title = fmt::format("Balance {} ({}, d = {})", id, b->capacity.to_string(), b->readability.to_string());
+    info.balance = std::move(b);
+    return info;
+  }
+  SQLite::Statement q(db.sql(), "SELECT kind, location, check_every FROM instruments WHERE id = ?");
+  q.bind(1, id);
+  q.executeStep();
+  info.kind = q.getColumn(0).getString();
+  info.location = q.getColumn(1).getString();
+  info.every = Interval::parse(q.getColumn(2).getString(), "check_every");
+  info.title = fmt::format("{}{} {}", static_cast<char>(std::toupper(info.kind[0])), info.kind.substr(1), id);
+  return info;
+}
+
+report::HistoryView history_view(store::Database& db, const InstrumentInfo& inst, const Period& period) {
+  const auto runs = store::runs_of(db.sql(), inst.id);
+  const auto replaced = superseded_by(runs);
+  report::HistoryView view{inst.id, inst.title, period.from, period.to, {}, {}};
+  std::vector<const HistoryQuantity*> quantities;
+  for (const auto& q : history_quantities())
+    if (q.instrument_kind == inst.kind) {
+      quantities.push_back(&q);
+      view.columns.push_back(quantity_view(db, inst, q, runs));
+    }
+  for (const auto& run : runs) {
+    if (!in_period(run.performed_on, period)) continue;
+    report::HistoryRow row;
+    row.run_id = run.id;
+    row.date = run.performed_on;
+    row.procedure = run.procedure;
+    row.operator_name = run.operator_name;
+    row.verdict = std::string(to_string(run.verdict));
+    row.next_due = run.next_due;
+    row.supersedes = run.supersedes;
+    if (auto it = replaced.find(run.id); it != replaced.end()) row.superseded_by = it->second;
+    row.results = run.results;
+    const RunContext c{run, first_weight(db, run)};
+    for (const auto* q : quantities) {
+      const auto v = q->procedure == run.procedure ? q->read(c) : std::nullopt;
+      row.values.push_back(v ? std::optional(v->value) : std::nullopt);
+      row.uncertainties.push_back(v ? std::optional(v->expanded_uncertainty) : std::nullopt);
+    }
+    view.rows.push_back(std::move(row));
+  }
+  return view;
+}
+
+report::SeriesView series_view(store::Database& db, const InstrumentInfo& inst, const HistoryQuantity& q,
+                               const Period& period) {
+  const auto runs = store::runs_of(db.sql(), inst.id);
+  const auto replaced = superseded_by(runs);
+  report::SeriesView view{inst.id, inst.title, quantity_view(db, inst, q, runs), {}, {}, 0};
+  for (const auto& run : runs) {
+    if (run.procedure != q.procedure || !in_period(run.performed_on, period)) continue;
+    if (replaced.count(run.id)) {
+      ++view.superseded_left_out;
+      continue;
+    }
+    const auto v = q.read(RunContext{run, first_weight(db, run)});
+    if (!v) continue;
+    view.points.push_back({run.performed_on, v->value, v->expanded_uncertainty});
+    view.run_ids.push_back(run.id);
+  }
+  return view;
+}
+
+}  // namespace plumb::app

@@ -1,0 +1,31 @@
+#pragma once
+// Reading an instrument's history from the database for the trend commands, the HTML report and the
+// certificates: every run (superseded ones marked) as a table, and one quantity as a series of results.
+// Read-only: nothing here writes.
+#include <optional>
+#include <string>
+
+#include "app/history/quantities.hpp"
+#include "report/history/views.hpp"
+#include "store/database.hpp"
+
+namespace plumb::app {
+
+struct Period {
+  std::optional<Date> from, to;  ///< inclusive; absent = open
+};
+
+/// Parses --from / --to (either may be absent); InputError when a date is malformed or from > to.
+Period parse_period(const std::optional<std::string>& from, const std::optional<std::string>& to);
+
+/// The instrument, or InputError "instrument "X" is not registered."
+InstrumentInfo find_instrument(store::Database& db, const std::string& id);
+
+/// Every run in the period, oldest first, with every quantity of the instrument's kind as a column.
+report::HistoryView history_view(store::Database& db, const InstrumentInfo& instrument, const Period& period);
+
+/// The current (not superseded) results of one quantity in the period, with the tolerance that applies now.
+report::SeriesView series_view(store::Database& db, const InstrumentInfo& instrument, const HistoryQuantity& quantity,
+                               const Period& period);
+
+}  // namespace plumb::app

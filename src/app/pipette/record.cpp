@@ -1,0 +1,300 @@
+#include "app/pipette/record.hpp"
+
+#include <SQLiteCpp/Transaction.h>
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <charconv>
+#include <map>
+
+#include "app/pipette/registry.hpp"
+#include "app/registry/registry.hpp"
+#include "app/registry/service_status.hpp"
+#include "checks/pipette.hpp"
+#include "core/errors.hpp"
+#include "core/readings_csv.hpp"
+#include "metrology/gravimetric.hpp"
+#include "report/pipette/json.hpp"
+#include "store/pipettes.hpp"
+#include "store/repository.hpp"
+
+namespace plumb::app {
+namespace {
+
+using nlohmann::json;
+
+std::string ul(Decimal v) { return v.rescaled(v.significant_scale()).to_string() + " uL"; }
+
+/// One weighing line of the CSV.
+struct WeighingLine {
+  int line = 0;
+  Decimal volume_ul;
+  int channel = 1;
+  MassReading reading;
+};
+
+std::string_view trim(std::string_view s) {
+  while (!s.empty() && (s.front() == ' ' || s.front() == '\t')) s.remove_prefix(1);
+  while (!s.empty() && (s.back() == ' ' || s.back() == '\t' || s.back() == '\r')) s.remove_suffix(1);
+  return s;
+}
+
+std::vector<WeighingLine> parse_weighings_csv(std::string_view text, const std::string& source, MassUnit default_unit) {
+  std::vector<WeighingLine> out;
+  int volume_col = -1, channel_col = -1, reading_col = -1, unit_col = -1;
+  std::size_t columns = 0;
+  bool header = false;
+  std::size_t pos = text.substr(0, 3) == "\xEF\xBB\xBF" ? 3 : 0;
+  int line_no = 0;
+  while (pos < text.size()) {
+    std::size_t end = text.find('\n', pos);
+    if (end == std::string_view::npos) end = text.size();
+    const std::string_view raw = text.substr(pos, end - pos);
+    pos = end + 1;
+    ++line_no;
+    if (trim(raw).empty()) continue;
+    if (raw.find('\0') != std::string_view::npos)
+      throw InputError(fmt::format("{} line {}: contains a NUL byte; this is not a text CSV file.", source, line_no));
+    const auto fields = split_csv_line(raw);
+    if (!header) {
+      for (std::size_t i = 0; i < fields.size(); ++i) {
+        std::string name = fields[i];
+        std::transform(name.begin(), name.end(), name.begin(), [](unsigned char c) { return std::tolower(c); });
+        const int col = static_cast<int>(i);
+        if (name == "volume") volume_col = col;
+        if (name == "channel") channel_col = col;
+        if (name == "reading") reading_col = col;
+        if (name == "unit") unit_col = col;
+      }
+      if (volume_col < 0 || reading_col < 0)
+        throw InputError(fmt::format("{} line {}: the header needs a \"volume\" and a \"reading\" column (and "
+                                     "optionally \"channel\" and \"unit\").",
+                                     source, line_no));
+      columns = fields.size();
+      header = true;
+      continue;
+    }
+    if (fields.size() != columns)
+      throw InputError(fmt::format("{} line {}: {} field(s) where the header has {}.", source, line_no, fields.size(),
+                                   columns));
+    WeighingLine w;
+    w.line = line_no;
+    const auto field = [&](int col) { return fields[static_cast<std::size_t>(col)]; };
+    w.volume_ul = parse_volume_ul(field(volume_col), fmt::format("{} line {} column volume: value", source, line_no));
+    if (channel_col >= 0 && !field(channel_col).empty()) {
+      const std::string c = field(channel_col);
+      const auto [p, ec] = std::from_chars(c.data(), c.data() + c.size(), w.channel);
+      if (ec != std::errc() || p != c.data() + c.size() || w.channel < 1)
+        throw InputError(fmt::format("{} line {} column channel: value \"{}\" is not a channel number (1, 2, ...).",
+                                     source, line_no, c));
+    }
+    w.reading.text = field(reading_col);
+    w.reading.value = Decimal::parse(w.reading.text, fmt::format("{} line {} column reading: value", source, line_no));
+    w.reading.unit = default_unit;
+    if (unit_col >= 0 && !field(unit_col).empty())
+      w.reading.unit = parse_mass_unit(field(unit_col), fmt::format("{} line {} column unit: value", source, line_no));
+    out.push_back(std::move(w));
+  }
+  if (!header) throw InputError(fmt::format("{}: is empty; expected a header row with \"volume\" and \"reading\".", source));
+  if (out.empty()) throw InputError(fmt::format("{}: has a header but no weighings.", source));
+  return out;
+}
+
+Decimal parse_condition(const std::string& text, std::string_view field, double lo, double hi, std::string_view unit,
+                        std::string_view why) {
+  const Decimal v = Decimal::parse(text, field);
+  const double x = v.to_double();
+  if (x < lo || x > hi)
+    throw InputError(fmt::format("{} {} {} is outside {} ({} {} to {} {}).", field, text, unit, why, lo, unit, hi, unit));
+  return v;
+}
+
+/// The balance as it stood on the run date: usable, in date, and with its latest repeatability.
+struct BalanceOnDate {
+  store::BalanceRecord balance;
+  store::RunRecord latest;        ///< latest check on or before the run date
+  std::optional<Mass> repeatability;
+  std::optional<std::int64_t> repeatability_run;
+};
+
+BalanceOnDate balance_on(store::Database& db, const std::string& id, Date on) {
+  const auto b = store::find_balance(db.sql(), id);
+  if (!b) throw InputError(fmt::format("--balance \"{}\" is not a registered balance.", id));
+  const auto latest = store::latest_run_on_or_before(db.sql(), id, on);
+  if (!latest)
+    throw InputError(fmt::format("--balance {} has no check recorded on or before {}; a pipette check needs a "
+                                 "balance that is in service and in date.",
+                                 id, to_string(on)));
+  if (latest->verdict == Verdict::fail)
+    throw InputError(fmt::format("--balance {} is out of service on {}: its check run {} on {} failed.", id,
+                                 to_string(on), latest->id, to_string(latest->performed_on)));
+  if (!latest->next_due || *latest->next_due < on)
+    throw InputError(fmt::format("--balance {} is out of date on {}: its check was due on {} (last check run {} on "
+                                 "{}).",
+                                 id, to_string(on), latest->next_due ? to_string(*latest->next_due) : "-", latest->id,
+                                 to_string(latest->performed_on)));
+  BalanceOnDate out{*b, *latest, std::nullopt, std::nullopt};
+  // The repeatability of ISO 8655-6 Table 1: the SD of the latest check that measured one.
+  auto runs = store::runs_of(db.sql(), id);
+  for (auto it = runs.rbegin(); it != runs.rend(); ++it) {
+    if (it->performed_on > on) continue;
+    if (it->results.contains("sd_g") && it->results["sd_g"].is_number()) {
+      out.repeatability = Mass{it->results["sd_g"].get<double>()};
+      out.repeatability_run = it->id;
+      break;
+    }
+  }
+  return out;
+}
+
+/// Decimals a reading shows once expressed in grams: "0.09971" g -> 5; "99.71" mg -> 5.
+int decimals_in_grams(const MassReading& r) { return r.value.scale() - exponent_to_gram(r.unit); }
+
+}  // namespace
+
+store::RunRecord record_pipette_check(store::Database& db, const store::Actor& actor, const PipetteCheckInput& in) {
+  SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
+  store::Recorder rec(db.sql(), actor);
+  const std::int64_t id = record_pipette_check_in(db, rec, in);
+  tx.commit();
+  return *store::find_run(db.sql(), id);
+}
+
+std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, const PipetteCheckInput& in) {
+  const Date on = parse_date(in.on, "--on");
+  if (days_between(today_utc(), on) > 1) throw InputError(fmt::format("--on {} is in the future.", in.on));
+  if (in.operator_name.empty()) throw InputError("--by must name the operator who performed the check.");
+
+  // Conditions, named by the options they came from.
+  const Decimal water = parse_condition(in.water_temperature, "--water-temp", gravimetric::min_water_temperature_c,
+                                        gravimetric::max_water_temperature_c, "degC",
+                                        "the range of the gravimetric method (ISO 8655-6)");
+  const Decimal pressure = parse_condition(in.pressure, "--pressure", gravimetric::min_pressure_hpa,
+                                           gravimetric::max_pressure_hpa, "hPa", "a plausible laboratory air pressure");
+  const Decimal humidity = parse_condition(in.humidity, "--humidity", 0, 100, "%RH", "a relative humidity");
+  std::optional<ExactMass> evaporation;
+  if (in.evaporation) {
+    const std::string& e = *in.evaporation;
+    if (e.empty() || !std::isalpha(static_cast<unsigned char>(e.back())))
+      throw InputError(fmt::format("--evaporation \"{}\" needs a unit of mass, e.g. 0.01mg.", e));
+    evaporation = ExactMass::parse(e, "--evaporation");
+    if (*evaporation < ExactMass{})
+      throw InputError(fmt::format("--evaporation \"{}\" is negative; give the mass lost per weighing.", e));
+  }
+  const auto lines = parse_weighings_csv(in.readings_csv, in.readings_source, in.default_unit);
+
+  require_lab(db);
+  const auto pipette = store::find_pipette(db.sql(), in.pipette_id);
+  if (!pipette) throw InputError(fmt::format("pipette \"{}\" is not registered.", in.pipette_id));
+  require_in_service(db, "instrument", pipette->id());
+  require_in_service(db, "instrument", in.balance_id);
+  const checks::PipetteDefinition& def = pipette->definition;
+  const BalanceOnDate bal = balance_on(db, in.balance_id, on);
+
+  // Every line checked with its line number before anything is computed.
+  const Decimal lower = def.kind == checks::PipetteKind::variable ? *def.lower_limit_ul : def.nominal_ul;
+  const int allowed = bal.balance.readability.in_grams().significant_scale();
+  for (const WeighingLine& w : lines) {
+    const std::string where = fmt::format("{} line {}", in.readings_source, w.line);
+    if (w.volume_ul < lower || w.volume_ul > def.nominal_ul)
+      throw InputError(fmt::format("{} column volume: {} is outside the range of pipette {} ({}).", where,
+                                   ul(w.volume_ul), def.id,
+                                   def.kind == checks::PipetteKind::fixed
+                                       ? fmt::format("fixed at {}", ul(def.nominal_ul))
+                                       : fmt::format("{} to {}", ul(lower), ul(def.nominal_ul))));
+    if (w.channel > def.channels)
+      throw InputError(fmt::format("{} column channel: channel {} does not exist on pipette {}, which has {} "
+                                   "channel(s).",
+                                   where, w.channel, def.id, def.channels));
+    if (decimals_in_grams(w.reading) > allowed)
+      throw InputError(fmt::format("{}: weighing \"{}\" {} shows more decimals than the readability {} of balance {} "
+                                   "allows.",
+                                   where, w.reading.text, to_string(w.reading.unit), bal.balance.readability.to_string(),
+                                   bal.balance.id));
+    if (w.reading.mass() <= ExactMass{})
+      throw InputError(fmt::format("{}: weighing \"{}\" {} is not a positive mass.", where, w.reading.text,
+                                   to_string(w.reading.unit)));
+    if (w.reading.mass() > bal.balance.capacity)
+      throw InputError(fmt::format("{}: weighing \"{}\" {} exceeds the capacity {} of balance {}.", where,
+                                   w.reading.text, to_string(w.reading.unit), bal.balance.capacity.to_string(),
+                                   bal.balance.id));
+  }
+
+  // Group by test volume and channel, in the order they first appear.
+  checks::PipetteRunInput input;
+  input.pipette = def;
+  input.balance.id = bal.balance.id;
+  input.balance.readability = bal.balance.readability;
+  input.balance.repeatability = bal.repeatability;
+  input.balance.in_service = true;
+  input.balance.due = bal.latest.next_due;
+  input.run_date = on;
+  input.environment = {water.to_double(), pressure.to_double(), humidity.to_double()};
+  input.evaporation_per_weighing = evaporation;
+  for (const WeighingLine& w : lines) {
+    auto tv = std::find_if(input.volumes.begin(), input.volumes.end(),
+                           [&](const auto& v) { return v.volume_ul == w.volume_ul; });
+    if (tv == input.volumes.end()) tv = input.volumes.insert(input.volumes.end(), {w.volume_ul, {}});
+    auto ch = std::find_if(tv->channels.begin(), tv->channels.end(),
+                           [&](const auto& c) { return c.channel == w.channel; });
+    if (ch == tv->channels.end()) ch = tv->channels.insert(tv->channels.end(), {w.channel, {}});
+    ch->weighings.push_back(w.reading);
+  }
+  for (const auto& tv : input.volumes)
+    for (const auto& ch : tv.channels)
+      if (ch.weighings.size() < checks::min_replicates)
+        throw InputError(fmt::format("{}: test volume {}, channel {} has {} weighing(s); the gravimetric check needs "
+                                     "at least {} replicates ({} recommended).",
+                                     in.readings_source, ul(tv.volume_ul), ch.channel, ch.weighings.size(),
+                                     checks::min_replicates, checks::recommended_replicates));
+  const checks::PipetteRunResult result = checks::evaluate_pipette_run(input);
+
+  store::RunRecord run;
+  run.instrument_id = def.id;
+  run.procedure = gravimetric_procedure;
+  run.performed_on = on;
+  run.operator_name = in.operator_name;
+  run.results = report::to_json(result);
+  run.results["policy"] = def.limits.key();
+  run.results["policy_name"] = def.limits.name();
+  run.results["pipette"] = {
+      {"id", def.id},
+      {"kind", std::string(checks::to_string(def.kind))},
+      {"nominal_ul", def.nominal_ul.to_double()},
+      {"lower_limit_ul", def.lower_limit_ul ? json(def.lower_limit_ul->to_double()) : json()},
+      {"channels", def.channels},
+      {"limits", limits_summary(def.limits)},
+      {"check_every", pipette->every.to_string()}};
+  run.results["balance"] = {
+      {"id", bal.balance.id},
+      {"readability_g", bal.balance.readability.approx().g},
+      {"repeatability_g", bal.repeatability ? json(bal.repeatability->g) : json()},
+      {"repeatability_run", bal.repeatability_run ? json(*bal.repeatability_run) : json()},
+      {"latest_check_run", bal.latest.id},
+      {"latest_check_on", to_string(bal.latest.performed_on)},
+      {"due_on", bal.latest.next_due ? json(to_string(*bal.latest.next_due)) : json()}};
+  run.results["environment"] = {{"water_temperature_c", water.to_double()},
+                                {"air_pressure_hpa", pressure.to_double()},
+                                {"humidity_pct", humidity.to_double()},
+                                {"evaporation_g", evaporation ? json(evaporation->approx().g) : json()}};
+  run.verdict = result.verdict;
+  if (result.verdict == Verdict::pass) run.next_due = add_interval(on, pipette->every);
+  int seq = 1;
+  // Stored in the order of the file, each with the series of its test volume and channel.
+  for (const WeighingLine& w : lines)
+    run.readings.push_back({seq++, store::pipette_series(w.volume_ul, w.channel), w.reading});
+
+  store::PipetteRunConditions c;
+  c.balance_id = bal.balance.id;
+  c.balance_run_id = bal.latest.id;
+  c.water_temperature_c = water;
+  c.air_pressure_hpa = pressure;
+  c.humidity_pct = humidity;
+  c.evaporation = evaporation;
+  return store::add_run(rec, run, [&](store::RowGroup& group, std::int64_t run_id) {
+    c.run_id = run_id;
+    store::add_pipette_run_conditions(group, c);
+  });
+}
+
+}  // namespace plumb::app

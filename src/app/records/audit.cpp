@@ -1,0 +1,87 @@
+#include "app/records/audit.hpp"
+
+#include <fmt/format.h>
+
+#include <nlohmann/json.hpp>
+#include <set>
+
+#include "app/certificates/issue.hpp"
+#include "core/errors.hpp"
+#include "store/audit_trail.hpp"
+#include "store/repository.hpp"
+
+namespace plumb::app {
+namespace {
+
+using nlohmann::json;
+
+bool is(const json& row, const char* column, const std::string& value) {
+  return row.contains(column) && row[column].is_string() && row[column].get<std::string>() == value;
+}
+
+bool in(const json& row, const char* column, const std::set<std::int64_t>& ids) {
+  return row.contains(column) && row[column].is_number_integer() && ids.count(row[column].get<std::int64_t>()) > 0;
+}
+
+bool is_id(const json& row, const char* column, std::int64_t id) { return in(row, column, {id}); }
+
+std::vector<store::AuditRecord> of_instrument(const std::vector<store::AuditRecord>& all, const std::string& id) {
+  std::set<std::int64_t> runs, certificates;
+  std::vector<store::AuditRecord> out;
+  // Parents are always recorded before their children, so one pass in trail order collects the ids.
+  for (const auto& r : all) {
+    bool related = false;
+    for (const auto& [table, row] : store::recorded_rows(r)) {
+      if (!((table == "instruments" && is(row, "id", id)) || is(row, "instrument_id", id) ||
+            (is(row, "item_kind", "instrument") && is(row, "item_id", id)) || in(row, "run_id", runs) ||
+            in(row, "certificate_id", certificates)))
+        continue;
+      related = true;
+      if (table == "check_runs" && row.contains("id")) runs.insert(row["id"].get<std::int64_t>());
+      if (table == "certificates" && row.contains("id")) certificates.insert(row["id"].get<std::int64_t>());
+    }
+    if (related) out.push_back(r);
+  }
+  return out;
+}
+
+std::vector<store::AuditRecord> of_certificate(const std::vector<store::AuditRecord>& all,
+                                               const store::CertificateRecord& c) {
+  std::vector<store::AuditRecord> out;
+  for (const auto& r : all) {
+    bool related = false;
+    for (const auto& [table, row] : store::recorded_rows(r))
+      related = related || (table == "certificates"
+                                ? is_id(row, "id", c.id) || is_id(row, "supersedes", c.id)
+                                : (table == "check_runs" && is_id(row, "id", c.run_id)) ||
+                                      is_id(row, "run_id", c.run_id) || is_id(row, "certificate_id", c.id));
+    if (related) out.push_back(r);
+  }
+  return out;
+}
+
+}  // namespace
+
+AuditLog audit_log(store::Database& db, const AuditLogFilter& filter) {
+  if (filter.instrument && filter.certificate)
+    throw InputError("--instrument and --certificate cannot be combined; give one of them (or neither for the whole lab).");
+  AuditLog log;
+  if (filter.instrument) {
+    if (!store::instrument_exists(db.sql(), *filter.instrument))
+      throw InputError(fmt::format("--instrument \"{}\" is not registered.", *filter.instrument));
+    log.scope = "instrument " + *filter.instrument;
+    log.records = of_instrument(store::audit_records(db.sql()), *filter.instrument);
+  } else if (filter.certificate) {
+    const auto cert = find_certificate(db, *filter.certificate);
+    log.scope = "certificate " + cert.number;
+    log.records = of_certificate(store::audit_records(db.sql()), cert);
+  } else {
+    log.scope = "the whole lab";
+    log.records = store::audit_records(db.sql());
+  }
+  return log;
+}
+
+store::AuditVerification verify_audit(store::Database& db) { return store::verify_audit_trail(db.sql()); }
+
+}  // namespace plumb::app

@@ -1,0 +1,146 @@
+#include "app/records/backup.hpp"
+
+#include <SQLiteCpp/Backup.h>
+#include <SQLiteCpp/Database.h>
+#include <fmt/format.h>
+#include <sqlite3.h>
+
+#include <algorithm>
+
+#include "core/errors.hpp"
+#include "store/embedded.hpp"
+#include "store/recorder.hpp"
+
+namespace plumb::app {
+namespace {
+
+/// Copies all pages of `from` into `to` in steps, so that other connections are not locked out for the
+/// whole copy; when another connection writes to the source meanwhile, SQLite restarts the copy itself.
+void copy_pages(SQLite::Database& from, SQLite::Database& to) {
+  SQLite::Backup backup(to, "main", from, "main");
+  for (;;) {
+    const int rc = backup.executeStep(512);
+    if (rc == SQLITE_DONE) return;
+    if (rc == SQLITE_BUSY || rc == SQLITE_LOCKED) sqlite3_sleep(25);
+  }
+}
+
+int newest_schema() {
+  int newest = 0;
+  for (const auto& m : embedded::migrations()) newest = std::max(newest, std::stoi(std::string(m.name.substr(0, 3))));
+  return newest;
+}
+
+std::string stamp_for_file_name() {
+  std::string s = store::utc_timestamp();  // 2026-11-30T10:00:00Z
+  std::erase(s, '-');
+  std::erase(s, ':');
+  return s;
+}
+
+}  // namespace
+
+CopyCheck check_copy(const std::filesystem::path& path) {
+  CopyCheck c;
+  try {
+    SQLite::Database db(path.string(), SQLite::OPEN_READONLY);
+    c.integrity = db.execAndGet("PRAGMA integrity_check").getString();
+    c.schema_version = db.execAndGet("PRAGMA user_version").getInt();
+    if (c.integrity != "ok") {
+      c.failure = fmt::format("\"{}\" fails SQLite's integrity check: {}", path.string(), c.integrity);
+      return c;
+    }
+    if (!db.tableExists("audit_log") || c.schema_version < 1) {
+      c.failure = fmt::format("\"{}\" is not a plumb database (it has no audit trail).", path.string());
+      return c;
+    }
+    if (c.schema_version > newest_schema()) {
+      c.failure = fmt::format("\"{}\" has schema version {}, newer than this plumb understands ({}).", path.string(),
+                              c.schema_version, newest_schema());
+      return c;
+    }
+    c.audit = store::verify_audit_trail(db);
+    if (!c.audit.ok()) {
+      c.failure = fmt::format("\"{}\" fails audit verification: {}", path.string(), c.audit.problems.front().message);
+      return c;
+    }
+  } catch (const SQLite::Exception& e) {
+    c.failure = fmt::format("\"{}\" cannot be read as a plumb database: {}.", path.string(), e.what());
+    return c;
+  }
+  c.ok = true;
+  return c;
+}
+
+BackupOutcome backup_database(store::Database& db, const std::filesystem::path& file, bool force) {
+  if (file.empty()) throw InputError("backup FILE must name the file to write.");
+  if (std::filesystem::exists(file) && !force)
+    throw InputError(fmt::format("backup file \"{}\" already exists; choose another name or add --force to replace it.",
+                                 file.string()));
+  if (std::filesystem::exists(file) && std::filesystem::equivalent(file, db.path()))
+    throw InputError(fmt::format("backup file \"{}\" is the database itself.", file.string()));
+  const std::filesystem::path partial = file.string() + ".partial";
+  std::filesystem::remove(partial);
+  BackupOutcome out{file, {}};
+  try {
+    SQLite::Database copy(partial.string(), SQLite::OPEN_READWRITE | SQLite::OPEN_CREATE);
+    copy_pages(db.sql(), copy);
+    // One self-contained file: no write-ahead log beside the copy.
+    copy.exec("PRAGMA journal_mode = DELETE");
+  } catch (const SQLite::Exception& e) {
+    std::filesystem::remove(partial);
+    throw StorageError(fmt::format("backup to \"{}\" failed: {}", file.string(), e.what()));
+  }
+  out.check = check_copy(partial);
+  if (!out.check.ok) {
+    std::filesystem::remove(partial);
+    return out;
+  }
+  std::filesystem::rename(partial, file);
+  return out;
+}
+
+RestoreOutcome restore_database(const std::filesystem::path& db_path, const std::filesystem::path& file, bool force) {
+  if (!std::filesystem::exists(file))
+    throw InputError(fmt::format("restore FILE \"{}\" does not exist.", file.string()));
+  const bool exists = std::filesystem::exists(db_path);
+  if (exists && std::filesystem::equivalent(file, db_path))
+    throw InputError(fmt::format("restore FILE \"{}\" is the database itself.", file.string()));
+  if (exists && !force)
+    throw InputError(fmt::format("database \"{}\" exists and restore would replace it; add --force (its present content "
+                                 "is saved beside it first).",
+                                 db_path.string()));
+  RestoreOutcome out;
+  out.source = check_copy(file);
+  if (!out.source.ok) return out;
+  try {
+    if (exists) {
+      out.replaced_existing = true;
+      SQLite::Database current(db_path.string(), SQLite::OPEN_READWRITE);
+      current.setBusyTimeout(30000);
+      out.previous_records = current.execAndGet("SELECT count(*) FROM audit_log").getInt64();
+      out.previous_saved = db_path.string() + ".before-restore-" + stamp_for_file_name();
+      {
+        SQLite::Database saved(out.previous_saved.string(), SQLite::OPEN_READWRITE | SQLite::OPEN_CREATE);
+        copy_pages(current, saved);
+        saved.exec("PRAGMA journal_mode = DELETE");
+      }
+      SQLite::Database source(file.string(), SQLite::OPEN_READONLY);
+      copy_pages(source, current);
+    } else {
+      if (db_path.has_parent_path()) std::filesystem::create_directories(db_path.parent_path());
+      SQLite::Database source(file.string(), SQLite::OPEN_READONLY);
+      SQLite::Database target(db_path.string(), SQLite::OPEN_READWRITE | SQLite::OPEN_CREATE);
+      copy_pages(source, target);
+    }
+  } catch (const SQLite::Exception& e) {
+    throw StorageError(fmt::format("restore of \"{}\" from \"{}\" failed: {}", db_path.string(), file.string(), e.what()));
+  }
+  // Opening through plumb applies any newer migrations to an older backup; then the result is proved again.
+  store::Database restored(db_path, store::Database::Open::existing);
+  out.after = store::verify_audit_trail(restored.sql());
+  out.restored = true;
+  return out;
+}
+
+}  // namespace plumb::app

@@ -1,0 +1,129 @@
+#include "app/status/due.hpp"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+
+#include "store/calibration.hpp"
+#include "store/lab_status.hpp"
+#include "store/repository.hpp"
+#include "store/status_events.hpp"
+
+namespace plumb::app {
+namespace {
+
+std::string timing_status(int days_left, int within_days) {
+  if (days_left < 0) return "overdue";
+  if (days_left <= within_days) return "due";
+  return "in date";
+}
+
+/// What the due list needs of a run, whichever query found it.
+struct RunSummary {
+  std::int64_t id = 0;
+  Date performed_on;
+  Verdict verdict = Verdict::pass;
+  std::optional<Date> next_due;
+};
+
+std::optional<RunSummary> summary_of(const std::optional<store::LatestResult>& r) {
+  if (!r) return std::nullopt;
+  return RunSummary{r->run_id, r->performed_on, r->verdict, r->next_due};
+}
+
+std::optional<RunSummary> summary_of(const std::optional<store::RunRecord>& r) {
+  if (!r) return std::nullopt;
+  return RunSummary{r->id, r->performed_on, r->verdict, r->next_due};
+}
+
+/// The weekly-check line of an instrument from its latest check (and, for a calibrated balance, its
+/// latest calibration: a passing calibration counts as a passing check of its day, a failed one takes
+/// the balance out of service; see app/calibration/record.hpp).
+DueItem check_item(const std::string& kind, const store::InstrumentStatus& s, const std::optional<RunSummary>& last,
+                   const std::optional<RunSummary>& cal, Date on, int within_days) {
+  DueItem item{kind, s.id, s.location, "", std::nullopt, std::nullopt, ""};
+  const bool cal_failed = cal && cal->verdict == Verdict::fail;
+  const bool cal_counts = cal && cal->verdict == Verdict::pass && (!last || cal->performed_on >= last->performed_on);
+  if (cal_failed) {
+    item.status = "out of service";
+    item.detail = fmt::format("failed calibration run {} on {}", cal->id, to_string(cal->performed_on));
+  } else if (last && last->verdict == Verdict::fail && !cal_counts) {
+    item.status = "out of service";
+    item.detail = fmt::format("failed check run {} on {}", last->id, to_string(last->performed_on));
+  } else {
+    if (cal_counts) {
+      item.due_on = add_interval(cal->performed_on, Interval::parse(s.check_every));
+      item.detail = fmt::format("last passed calibration {} (run {})", to_string(cal->performed_on), cal->id);
+    } else {
+      item.due_on = last && last->next_due ? *last->next_due : s.created_on;
+      item.detail = last ? fmt::format("last passed {} (run {})", to_string(last->performed_on), last->id)
+                         : "no check recorded yet";
+    }
+    item.days_left = days_between(on, *item.due_on);
+    item.status = timing_status(*item.days_left, within_days);
+  }
+  return item;
+}
+
+DueItem calibration_item(const store::InstrumentStatus& s, const std::optional<store::CalibrationSettings>& settings,
+                         const std::optional<RunSummary>& cal, Date on, int within_days) {
+  DueItem c{"calibration", s.id, s.location, "", std::nullopt, std::nullopt, ""};
+  if (cal && cal->verdict == Verdict::fail) {
+    c.status = "out of service";
+    c.detail = fmt::format("failed calibration run {} on {}", cal->id, to_string(cal->performed_on));
+    return c;
+  }
+  c.due_on = cal && cal->next_due ? *cal->next_due : settings->effective_on;
+  c.days_left = days_between(on, *c.due_on);
+  c.status = timing_status(*c.days_left, within_days);
+  c.detail = cal ? fmt::format("last calibrated {} (run {})", to_string(cal->performed_on), cal->id)
+                 : "not calibrated yet";
+  return c;
+}
+
+}  // namespace
+
+std::vector<DueItem> due_items(store::Database& db, Date on, int within_days, bool everything) {
+  std::vector<DueItem> items;
+  // One set-based query gives every instrument's latest run, so a large lab is not one query per
+  // instrument; only balances with calibration settings need their calibration looked up apart.
+  const auto all_settings = store::all_current_calibration_settings(db.sql());
+  store::for_each_instrument_status(db.sql(), "", [&](const store::InstrumentStatus& s) {
+    if (s.kind != "balance") {
+      items.push_back(check_item(s.kind, s, summary_of(s.latest), std::nullopt, on, within_days));
+      return;
+    }
+    const auto found = all_settings.find(s.id);
+    const std::optional<store::CalibrationSettings> settings =
+        found == all_settings.end() ? std::nullopt : std::optional(found->second);
+    if (!settings) {
+      items.push_back(check_item("balance", s, summary_of(s.latest), std::nullopt, on, within_days));
+      return;
+    }
+    const auto last = summary_of(store::latest_run_by_procedure(db.sql(), s.id, "calibration", false));
+    const auto cal = summary_of(store::latest_run_by_procedure(db.sql(), s.id, "calibration", true));
+    items.push_back(check_item("balance", s, last, cal, on, within_days));
+    items.push_back(calibration_item(s, settings, cal, on, within_days));
+  });
+  for (const auto& w : store::list_weights(db.sql())) {
+    DueItem item{"weight", w.id, "", "", w.current.due_on, days_between(on, w.current.due_on),
+                 fmt::format("certificate {} ({} class {})", w.current.certificate_no, w.nominal_text, w.weight_class)};
+    item.status = timing_status(*item.days_left, within_days);
+    items.push_back(std::move(item));
+  }
+  // Retired instruments and weights are kept in history but are not due for anything.
+  const auto retired_instruments = store::retired_ids(db.sql(), "instrument");
+  const auto retired_weights = store::retired_ids(db.sql(), "weight");
+  std::erase_if(items, [&](const DueItem& i) {
+    return i.kind == "weight" ? retired_weights.count(i.id) > 0 : retired_instruments.count(i.id) > 0;
+  });
+  if (!everything) std::erase_if(items, [](const DueItem& i) { return i.status == "in date"; });
+  std::stable_sort(items.begin(), items.end(), [](const DueItem& a, const DueItem& b) {
+    const bool a_out = a.status == "out of service", b_out = b.status == "out of service";
+    if (a_out != b_out) return a_out;
+    return a.days_left.value_or(0) < b.days_left.value_or(0);
+  });
+  return items;
+}
+
+}  // namespace plumb::app

@@ -1,0 +1,256 @@
+// Sections of the balance calibration certificate (kind "balance_calibration", content from
+// app/calibration/certificate_content.cpp): calibration and environment, air density, traceability of every weight,
+// per stage (as found / as left) the error of indication table and the fitted model, a chart of E against the
+// load, the uncertainty budget of the final stage, and the decision rule with what its states mean.
+#include <fmt/format.h>
+#include <fmt/ranges.h>
+
+#include <algorithm>
+#include <cctype>
+#include <cmath>
+
+#include "core/decimal.hpp"
+#include "core/units.hpp"
+#include "report/certificates/document.hpp"
+
+namespace plumb::report {
+namespace {
+
+using nlohmann::json;
+
+double num(const json& j, const char* key) { return j.contains(key) && j[key].is_number() ? j[key].get<double>() : 0; }
+
+std::string exact_grams(const json& j, const char* key) {
+  if (!j.contains(key) || !j[key].is_string()) return "-";
+  return ExactMass::grams(Decimal::parse(j[key].get<std::string>())).to_string();
+}
+
+// E, U and tolerances in mg with d's decimals plus two guard digits, as the text certificate prints them.
+struct MgFormat {
+  int decimals = 3;
+  [[nodiscard]] std::string signed_mg(double g) const { return fmt::format("{:+.{}f}", g * 1e3, decimals); }
+  [[nodiscard]] std::string mg(double g) const { return fmt::format("{:.{}f}", g * 1e3, decimals); }
+};
+
+MgFormat mg_format(const json& cal) {
+  const json& d = cal.value("readability_g", json());
+  const int dg = d.is_string() ? Decimal::parse(d.get<std::string>()).significant_scale() : 4;
+  return {std::max(1, dg - 3 + 2)};
+}
+
+void calibration_block(const json& c, Document& doc) {
+  const json& cal = c["calibration"];
+  const json& run = c.value("check", json::object());
+  doc.blocks.push_back(Heading{"Calibration"});
+  doc.blocks.push_back(KeyValues{{{"Run", cell(run, "run_id")},
+                                  {"Performed", fmt::format("{} by {}", cell(run, "date"), cell(run, "operator"))},
+                                  {"Procedure", cell(cal, "procedure")},
+                                  {"Settings", cell(cal.value("settings", json::object()), "description")},
+                                  {"Tolerance", cell(cal, "tolerance")},
+                                  {"Fitted model", cell(cal, "model")}}});
+}
+
+void environment_block(const json& cal, Document& doc) {
+  const json& env = cal.value("environment", json::object());
+  const json& air = cal.value("air", json());
+  doc.blocks.push_back(Heading{"Environment and air density"});
+  KeyValues kv;
+  if (env.value("measured", false))
+    kv.rows.emplace_back("Conditions", fmt::format("temperature {} degC, pressure {} hPa, relative humidity {} %",
+                                                   cell(env, "temperature_c"), cell(env, "pressure_hpa"),
+                                                   cell(env, "humidity_pct")));
+  if (air.is_object() && air.contains("rho_kg_m3"))
+    kv.rows.emplace_back("Air density", fmt::format("{:.5f} kg/m3, u = {:.5f} kg/m3 ({})", num(air, "rho_kg_m3"),
+                                                    num(air, "u_kg_m3"), cell(air, "formula")));
+  else
+    kv.rows.emplace_back("Air density", "not computed (no conditions measured)");
+  kv.rows.emplace_back("Statement", cell(env, "statement"));
+  doc.blocks.push_back(std::move(kv));
+}
+
+void weights_block(const json& weights, Document& doc) {
+  doc.blocks.push_back(Heading{"Reference weights (traceability)"});
+  Table t{{"Weight", "Nominal", "Class", "Conventional mass", "Density kg/m3", "U (k)", "Certificate", "Calibrated",
+           "Due"},
+          {0.7, 0.7, 0.5, 1.3, 0.9, 1.2, 1.0, 0.9, 0.9},
+          {false, true, false, true, true, true, false, false, false},
+          {}};
+  for (const auto& w : weights)
+    t.rows.push_back({cell(w, "id"), cell(w, "nominal"), cell(w, "class"), exact_grams(w, "conventional_mass_g"),
+                      cell(w, "density_kg_m3") + (w.value("density_assumed", false) ? " (assumed)" : ""),
+                      fmt::format("{} ({})", exact_grams(w, "uncertainty_g"), cell(w, "k")), cell(w, "certificate"),
+                      cell(w, "calibrated_on"), cell(w, "due_on")});
+  doc.blocks.push_back(std::move(t));
+  std::vector<std::string> drift;
+  for (const auto& w : weights)
+    drift.push_back(fmt::format("{}: {}", cell(w, "id"),
+                                w.contains("drift_g") && w["drift_g"].is_string() ? exact_grams(w, "drift_g") : "0 g"));
+  if (!weights.empty() && weights[0].contains("drift_basis"))
+    doc.blocks.push_back(Paragraph{fmt::format("Drift allowance since the weights' calibration ({}): {}.",
+                                               cell(weights[0], "drift_basis"), fmt::join(drift, "; ")),
+                                   true});
+}
+
+Table error_table(const json& stage, const MgFormat& f) {
+  Table t{{"#", "Load", "m_ref / g", "I / g", "E / mg", "U / mg", "k", "MPE / mg", "Conformity"},
+          {0.3, 1.2, 1.2, 1.2, 0.8, 0.8, 0.5, 0.8, 1.3},
+          {true, false, true, true, true, true, true, true, false},
+          {}};
+  for (const auto& l : stage.value("error_of_indication", json::array()))
+    t.rows.push_back({cell(l, "index"), cell(l, "load"), fmt::format("{:.7f}", num(l, "reference_g")),
+                      fmt::format("{:.7f}", num(l, "indication_g")), f.signed_mg(num(l, "error_g")),
+                      f.mg(num(l, "U_g")), fmt::format("{:.2f}", num(l, "k")), "\u00b1" + f.mg(num(l, "tolerance_g")),
+                      cell(l, "conformity")});
+  return t;
+}
+
+// E(m) = I(m) - m from the fitted indication model: the slope less one (calibration_text.cpp prints the same).
+double model_error(const json& fit, double m) {
+  const auto coef = fit.value("coef", std::vector<double>{});
+  const std::string model = fit.value("model", "line");
+  if (model == "through-origin") return coef.empty() ? 0 : (coef[0] - 1) * m;
+  if (coef.size() < 2) return 0;
+  double e = coef[0] + (coef[1] - 1) * m;
+  if (model == "quadratic" && coef.size() > 2) e += coef[2] * m * m;
+  return e;
+}
+
+KeyValues model_block(const json& fit, const MgFormat& f) {
+  KeyValues kv;
+  kv.rows.emplace_back("Model", fmt::format("{}: {}", cell(fit, "model"), cell(fit, "equation")));
+  kv.rows.emplace_back("As error", cell(fit, "error_equation"));
+  const auto coef = fit.value("coef", std::vector<double>{});
+  const auto se = fit.value("coef_se", std::vector<double>{});
+  std::string coefs;
+  for (std::size_t i = 0; i < coef.size(); ++i)
+    coefs += fmt::format("{}b{} = {:+.10g} (SE {:.3g})", i ? "; " : "", fit.value("model", "") == "through-origin" ? 1 : i,
+                         coef[i], i < se.size() ? se[i] : 0.0);
+  kv.rows.emplace_back("Coefficients", coefs);
+  kv.rows.emplace_back("Statistics",
+                       fmt::format("R\u00b2 = {:.12f} ({}), RMSE = {} mg, residual SD = {} mg, n = {}, dof = {}",
+                                   num(fit, "r_squared"), cell(fit, "r_squared_kind"), f.mg(num(fit, "rmse_g")),
+                                   f.mg(num(fit, "residual_sd_g")), cell(fit, "n"), cell(fit, "dof")));
+  kv.rows.emplace_back("Range", fmt::format("{:.6g} g to {:.6g} g; the model is not used outside it",
+                                            num(fit, "x_min_g"), num(fit, "x_max_g")));
+  return kv;
+}
+
+// E against the load with U as error bars, the MPE at the tested loads (joined) and the fitted model's error.
+ChartSpec error_chart(const json& c, const json& stage) {
+  ChartSpec s;
+  const json& rows = stage.value("error_of_indication", json::array());
+  std::string stage_name = stage.value("title", "final stage");
+  if (!stage_name.empty()) stage_name[0] = static_cast<char>(std::tolower(static_cast<unsigned char>(stage_name[0])));
+  s.title = fmt::format("Balance {}: error of indication against load, {}", c["instrument"].value("id", ""), stage_name);
+  s.subtitle = fmt::format("Calibration run {} on {}, {} load(s); E = I - m_ref", cell(c["check"], "run_id"),
+                           cell(c["check"], "date"), rows.size());
+  s.x = {"Load m_ref", "g", AxisScale::number};
+  s.y = {"Error of indication E", "mg", AxisScale::number};
+  ChartSeries series{"E at each load", {}};
+  ChartCurve upper{"\u00b1MPE at each tested load", ChartCurve::Style::limit, {}};
+  ChartCurve lower = upper;
+  for (const auto& l : rows) {
+    const double m = num(l, "reference_g");
+    series.points.push_back({m, num(l, "error_g") * 1e3, num(l, "U_g") * 1e3, false});
+    upper.points.emplace_back(m, num(l, "tolerance_g") * 1e3);
+    lower.points.emplace_back(m, -num(l, "tolerance_g") * 1e3);
+  }
+  s.series.push_back(std::move(series));
+  const json& fit = stage.value("fit", json::object());
+  ChartCurve model{"fitted model as error: " + cell(fit, "model"), ChartCurve::Style::model, {}};
+  const double x0 = num(fit, "x_min_g"), x1 = num(fit, "x_max_g");
+  constexpr int steps = 40;
+  for (int i = 0; i <= steps; ++i) {
+    const double m = x0 + (x1 - x0) * i / steps;
+    model.points.emplace_back(m, model_error(fit, m) * 1e3);
+  }
+  s.curves = {std::move(upper), std::move(lower), std::move(model)};
+  s.notes = {"Error bars: expanded uncertainty U of E at each load (EURAMET cg-18 budget, k from Welch-Satterthwaite).",
+             "The MPE is known at the tested loads only: each is marked there; the dotted line joining them is a guide, "
+             "not a limit between loads."};
+  s.width = 720;
+  s.height = 400;
+  return s;
+}
+
+void budget_block(const json& stage, const MgFormat& f, Document& doc) {
+  const json& rows = stage.value("error_of_indication", json::array());
+  if (rows.empty()) return;
+  const auto largest = std::max_element(rows.begin(), rows.end(), [](const json& a, const json& b) {
+    return num(a, "reference_g") < num(b, "reference_g");
+  });
+  doc.blocks.push_back(Heading{fmt::format("Uncertainty budget, {} (final stage)", stage.value("title", ""))});
+  doc.blocks.push_back(Paragraph{fmt::format("The budget of E at the largest load, {} ({:.6g} g); contributions "
+                                             "u_i |c_i| in mg (GUM, EURAMET cg-18).",
+                                             cell(*largest, "load"), num(*largest, "reference_g"))});
+  Table t{{"Source", "Value / mg", "Distribution", "Divisor", "c_i", "u_i |c_i| / mg", "dof", "Share"},
+          {1.6, 0.9, 1.0, 0.7, 0.5, 1.0, 0.6, 0.6},
+          {false, true, false, true, true, true, true, true},
+          {}};
+  const auto dof = [](const json& v) { return v.is_number() ? fmt::format("{:.1f}", v.get<double>()) : "inf"; };
+  const MgFormat fine{f.decimals + 1};
+  for (const auto& b : largest->value("budget", json::array()))
+    t.rows.push_back({cell(b, "source"), fine.mg(num(b, "value")), cell(b, "distribution"),
+                      fmt::format("{:.4f}", num(b, "divisor")), fmt::format("{:.1f}", num(b, "sensitivity")),
+                      MgFormat{f.decimals + 2}.mg(num(b, "contribution_g")), dof(b.value("dof", json())),
+                      fmt::format("{:.1f} %", num(b, "share") * 100)});
+  doc.blocks.push_back(std::move(t));
+  Table per_load{{"#", "Load", "u_c / mg", "nu_eff", "k", "U = k u_c / mg"},
+                 {0.3, 1.4, 1.0, 0.8, 0.6, 1.1},
+                 {true, false, true, true, true, true},
+                 {}};
+  for (const auto& l : rows)
+    per_load.rows.push_back({cell(l, "index"), cell(l, "load"), MgFormat{f.decimals + 1}.mg(num(l, "u_c_g")),
+                             dof(l.value("nu_eff", json())), fmt::format("{:.2f}", num(l, "k")), f.mg(num(l, "U_g"))});
+  doc.blocks.push_back(Paragraph{"Combined and expanded uncertainty at every load of the final stage:", true});
+  doc.blocks.push_back(std::move(per_load));
+}
+
+void decision_block(const json& cal, Document& doc) {
+  const json& rule = cal.value("decision_rule", json::object());
+  doc.blocks.push_back(Heading{"Decision rule"});
+  doc.blocks.push_back(Paragraph{cell(rule, "statement")});  // the statement names the rule itself
+  for (const auto& m : rule.value("state_meanings", json::array()))
+    doc.blocks.push_back(Paragraph{"- " + m.get<std::string>(), true});
+}
+
+}  // namespace
+
+void balance_calibration_sections(const json& c, Document& doc) {
+  if (!c.contains("calibration") || !c["calibration"].is_object()) return;
+  const json& cal = c["calibration"];
+  const MgFormat f = mg_format(cal);
+  calibration_block(c, doc);
+  environment_block(cal, doc);
+  weights_block(c.value("weights", json::array()), doc);
+
+  const json& stages = cal.value("stages", json::array());
+  const std::string final_key = cal.value("final_stage", "");
+  const json* final_stage = nullptr;
+  for (const auto& st : stages) {
+    doc.blocks.push_back(Heading{fmt::format("{}: {}", st.value("title", ""), cell(st, "state"))});
+    doc.blocks.push_back(Paragraph{"Error of indication E = I - m_ref; U = k u_c; MPE from the tolerance (" +
+                                       cell(cal, "tolerance") + ").",
+                                   true});
+    doc.blocks.push_back(error_table(st, f));
+    doc.blocks.push_back(model_block(st.value("fit", json::object()), f));
+    for (const auto& n : st.value("notes", json::array())) doc.blocks.push_back(Paragraph{"Note: " + n.get<std::string>(), true});
+    if (st.value("stage", "") == final_key) final_stage = &st;
+  }
+  if (!final_stage && !stages.empty()) final_stage = &stages.back();
+  if (final_stage && final_stage->value("error_of_indication", json::array()).size() >= 2) {
+    doc.blocks.push_back(Heading{"Error of indication against load"});
+    doc.blocks.push_back(ChartBlock{error_chart(c, *final_stage)});
+  }
+  if (final_stage) budget_block(*final_stage, f, doc);
+  decision_block(cal, doc);
+  if (cal.value("adjusted", false) && stages.size() > 1)
+    doc.blocks.push_back(Paragraph{fmt::format("The balance was adjusted: as found {}, as left {}.",
+                                               cell(stages[0], "state"), cell(stages[1], "state"))});
+  else if (!stages.empty())
+    doc.blocks.push_back(Paragraph{fmt::format("No adjustment was made: as found {}.", cell(stages[0], "state"))});
+  for (const auto& n : cal.value("notes", json::array())) doc.blocks.push_back(Paragraph{"Note: " + n.get<std::string>(), true});
+  history_chart_section(c, doc);
+}
+
+}  // namespace plumb::report

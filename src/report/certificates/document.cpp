@@ -1,0 +1,139 @@
+#include "report/certificates/document.hpp"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+
+#include "report/history/charts.hpp"
+
+namespace plumb::report {
+namespace {
+
+using nlohmann::json;
+
+std::string upper(std::string s) {
+  std::transform(s.begin(), s.end(), s.begin(), [](unsigned char c) { return static_cast<char>(std::toupper(c)); });
+  return s;
+}
+
+KeyValues instrument_block(const json& inst) {
+  KeyValues kv;
+  const std::pair<const char*, const char*> fields[] = {
+      {"id", "Instrument"}, {"kind", "Kind"}, {"location", "Location"}, {"capacity_g", "Capacity (g)"},
+      {"readability_g", "Readability d (g)"}, {"smallest_net_g", "Smallest net weight (g)"},
+      {"check_every", "Check interval"}, {"volume_kind", "Volume"}, {"nominal_ul", "Nominal volume (uL)"},
+      {"lower_limit_ul", "Lowest selectable volume (uL)"}, {"channels", "Channels"}, {"limits_policy", "Limits policy"},
+      {"limits", "Limits"}, {"limits_source", "Limits source"}};
+  for (const auto& [key, label] : fields)
+    if (inst.contains(key) && !inst[key].is_null()) kv.rows.emplace_back(label, cell(inst, key));
+  // Fields other kinds add (model, serial, volume ...) follow, so nothing stored is left off the page.
+  for (const auto& [k, v] : inst.items()) {
+    const bool known = std::any_of(std::begin(fields), std::end(fields), [&](const auto& f) { return k == f.first; });
+    if (!known && !v.is_null() && !v.is_structured()) kv.rows.emplace_back(k, cell(inst, k.c_str()));
+  }
+  return kv;
+}
+
+// Any kind without its own sections: the stored check results, scalar fields only.
+void generic_sections(const json& c, Document& doc) {
+  if (!c.contains("check") || !c["check"].is_object()) return;
+  doc.blocks.push_back(Heading{"Results"});
+  KeyValues kv;
+  for (const auto& [k, v] : c["check"].items())
+    if (!v.is_null() && !v.is_structured()) kv.rows.emplace_back(k, cell(c["check"], k.c_str()));
+  doc.blocks.push_back(std::move(kv));
+}
+
+}  // namespace
+
+std::string cell(const json& j, const char* key, int significant) {
+  if (!j.is_object() || !j.contains(key) || j[key].is_null()) return "-";
+  const json& v = j[key];
+  if (v.is_string()) return v.get<std::string>();
+  if (v.is_boolean()) return v.get<bool>() ? "yes" : "no";
+  if (v.is_number_integer()) return std::to_string(v.get<long long>());
+  if (v.is_number()) return fmt::format("{:.{}g}", v.get<double>(), significant);
+  return v.dump();
+}
+
+const std::map<std::string, CertificateSections>& certificate_sections() {
+  static const std::map<std::string, CertificateSections> kinds = {
+      {"balance_check", balance_check_sections},
+      {"balance_calibration", balance_calibration_sections},
+      {"pipette_check", pipette_check_sections},
+  };
+  return kinds;
+}
+
+Document certificate_document(const json& c, const std::string& content_sha256) {
+  Document doc;
+  const json& lab = c.value("lab", json::object());
+  auto& h = doc.header;
+  h.lab_name = lab.value("name", "");
+  for (const auto& l : lab.value("address_lines", json::array())) h.address_lines.push_back(l.get<std::string>());
+  h.accreditation = lab.value("accreditation", "");
+  h.logo_png = lab.value("logo_png", "");
+  h.title = c.value("title", "Certificate");
+  h.number = c.value("number", "");
+  if (c.contains("status") && c["status"].is_string()) h.status = c["status"].get<std::string>();
+  h.issued = fmt::format("Issued {} by {}", cell(c, "issued_at"), cell(c, "issued_by"));
+
+  doc.blocks.push_back(Heading{"Instrument"});
+  doc.blocks.push_back(instrument_block(c.value("instrument", json::object())));
+
+  const auto kinds = certificate_sections();
+  if (auto it = kinds.find(c.value("kind", "")); it != kinds.end())
+    it->second(c, doc);
+  else
+    generic_sections(c, doc);
+
+  doc.blocks.push_back(Heading{"Statement of conformity"});
+  const std::string verdict = c.value("verdict", "");
+  const bool pass = verdict == "pass";
+  doc.blocks.push_back(VerdictBox{
+      "VERDICT: " + upper(verdict.empty() ? "none" : verdict),
+      pass ? fmt::format("Next {} due: {}", c.value("kind", "") == "balance_calibration" ? "calibration" : "check",
+                         cell(c, "next_due"))
+           : "The instrument is OUT OF SERVICE until a passing check.",
+      pass});
+  if (c.contains("decision_rule")) doc.blocks.push_back(Paragraph{"Decision rule: " + cell(c, "decision_rule")});
+  if (c.contains("uncertainty_statement"))
+    doc.blocks.push_back(Paragraph{"Uncertainty: " + cell(c, "uncertainty_statement")});
+
+  doc.blocks.push_back(Heading{"Signatures"});
+  Signatures s;
+  for (const auto& p : c.value("signatories", json::array())) s.people.push_back({cell(p, "role"), p.value("name", "")});
+  doc.blocks.push_back(std::move(s));
+  if (c.contains("caution") && !cell(c, "caution").empty() && cell(c, "caution") != "-")
+    doc.blocks.push_back(Paragraph{"Caution: " + cell(c, "caution"), false, true});
+  doc.footer = "Content SHA-256 " + content_sha256 +
+               ". This PDF is a rendering of the stored certificate; the stored record is authoritative.";
+  return doc;
+}
+
+void history_chart_section(const json& c, Document& doc) {
+  if (!c.contains("history") || !c["history"].is_object()) return;
+  const json& h = c["history"];
+  std::vector<stats::Observation> points;
+  for (const auto& p : h.value("points", json::array()))
+    points.push_back({parse_date(p.at("date").get<std::string>()), p.at("value").get<double>(),
+                      p.value("u", 0.0)});
+  if (points.size() < 2) return;  // one point tells no history
+  stats::ToleranceLimits tol;
+  if (h.contains("lower") && h["lower"].is_number()) tol.lower = h["lower"].get<double>();
+  if (h.contains("upper") && h["upper"].is_number()) tol.upper = h["upper"].get<double>();
+  const std::string instrument = c.value("instrument", json::object()).value("id", "");
+  ChartSpec spec = history_chart_spec(points, {}, tol,
+                                      {fmt::format("{} {}", c.value("instrument", json::object()).value("kind", ""),
+                                                   instrument),
+                                       h.value("label", ""), h.value("unit", "")});
+  spec.title = fmt::format("Recent history of {}: {}", instrument, h.value("label", ""));
+  spec.notes = {"Error bars: " + h.value("uncertainty_basis", "") + ".",
+                "Tolerance: " + h.value("tolerance_basis", "") + "."};
+  spec.width = 720;
+  spec.height = 380;
+  doc.blocks.push_back(Heading{"Recent history"});
+  doc.blocks.push_back(ChartBlock{std::move(spec)});
+}
+
+}  // namespace plumb::report

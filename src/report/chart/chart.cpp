@@ -1,0 +1,731 @@
+#include "report/chart/chart.hpp"
+
+#include <cairo-pdf.h>
+#include <cairo-svg.h>
+#include <cairo.h>
+#include <fmt/format.h>
+#include <pango/pangocairo.h>
+
+#include <algorithm>
+#include <cmath>
+#include <fstream>
+#include <functional>
+#include <memory>
+#include <numbers>
+#include <stdexcept>
+
+#include "core/errors.hpp"
+#include "report/chart/axis_ticks.hpp"
+#include "report/chart/draw_record.hpp"
+#include "report/chart/pango_text.hpp"
+
+namespace plumb::report {
+namespace {
+
+struct Rgb {
+  double r, g, b;
+};
+// Okabe & Ito's colour-blind-safe palette (Okabe and Ito, "Color Universal Design", 2008) for data;
+// neutral greys for the frame and grid so the data stand out.
+constexpr Rgb ink{0.10, 0.10, 0.10};
+constexpr Rgb muted{0.35, 0.35, 0.35};
+constexpr Rgb grid_grey{0.87, 0.87, 0.87};
+constexpr Rgb series_colours[] = {{0.000, 0.447, 0.698}, {0.902, 0.624, 0.000}, {0.337, 0.706, 0.914},
+                                  {0.000, 0.000, 0.000}};
+constexpr Rgb tolerance_colour{0.835, 0.369, 0.000};  // vermillion
+constexpr Rgb tolerance_fill{0.94, 0.98, 0.94};        // the allowed region, faintly green
+constexpr Rgb control_colour{0.000, 0.620, 0.451};    // bluish green
+constexpr Rgb trend_colour{0.800, 0.475, 0.655};      // reddish purple
+constexpr Rgb band_fill{0.96, 0.90, 0.94};
+
+constexpr double margin = 16;
+constexpr double legend_width = 210;
+constexpr double point_radius = 3.6;
+constexpr double flag_radius = 7.5;
+
+void set_colour(cairo_t* cr, Rgb c, double alpha = 1.0) { cairo_set_source_rgba(cr, c.r, c.g, c.b, alpha); }
+
+std::string num(double v) { return fmt::format("{:.6g}", v); }
+std::string px(double v) { return fmt::format("{:.2f}", v); }
+
+using Text = TextLayout;
+
+void require_finite(double v, std::string_view field) {
+  if (!std::isfinite(v)) throw InputError(fmt::format("chart {} is {}; it must be a finite number.", field, v));
+}
+
+void validate(const ChartSpec& s) {
+  if (s.title.empty()) throw InputError("chart title is empty; name the instrument, the quantity and the period.");
+  if (s.x.label.empty()) throw InputError("chart x axis label is empty; name the quantity on the x axis.");
+  if (s.y.label.empty()) throw InputError("chart y axis label is empty; name the quantity and its unit.");
+  if (!(s.width >= 320 && s.height >= 240))
+    throw InputError(fmt::format("chart size {} x {} is too small; use at least 320 x 240 points.", s.width,
+                                 s.height));
+  for (const auto& series : s.series)
+    for (std::size_t i = 0; i < series.points.size(); ++i) {
+      const auto& p = series.points[i];
+      const std::string where = fmt::format("point {} of series \"{}\"", i + 1, series.name);
+      require_finite(p.x, where + " x");
+      require_finite(p.y, where + " y");
+      if (p.error && !(std::isfinite(*p.error) && *p.error >= 0))
+        throw InputError(fmt::format("chart {} has error bar {}; it must be a finite number >= 0.", where, *p.error));
+    }
+  if (s.tolerance && s.tolerance->lower && s.tolerance->upper && *s.tolerance->lower >= *s.tolerance->upper)
+    throw InputError(fmt::format("chart tolerance lower limit {} is not below the upper limit {}.",
+                                 *s.tolerance->lower, *s.tolerance->upper));
+}
+
+struct Range {
+  double lo = INFINITY, hi = -INFINITY;
+  void add(double v) {
+    lo = std::min(lo, v);
+    hi = std::max(hi, v);
+  }
+  [[nodiscard]] bool empty() const { return lo > hi; }
+};
+
+// The y values the data need (points with error bars, zero, control lines, the fitted trend over the observed
+// span, model curves) and those the limits add (tolerance, limit curves, the extrapolated trend and its band).
+struct YRanges {
+  Range data, limits;
+};
+
+YRanges y_ranges(const ChartSpec& s) {
+  YRanges r;
+  for (const auto& series : s.series)
+    for (const auto& p : series.points) {
+      r.data.add(p.y - p.error.value_or(0));
+      r.data.add(p.y + p.error.value_or(0));
+    }
+  if (s.zero_line) r.data.add(0);
+  if (s.control) r.data.add(s.control->lower), r.data.add(s.control->upper);
+  if (s.trend) {
+    const auto& t = *s.trend;
+    r.data.add(t.y0), r.data.add(t.y1);
+    for (const auto& b : t.prediction_band) {
+      Range& into = b.x <= t.x1 ? r.data : r.limits;
+      into.add(b.lower), into.add(b.upper);
+    }
+    if (t.y_extrapolated) r.limits.add(*t.y_extrapolated);
+  }
+  for (const auto& c : s.curves)
+    for (const auto& [x, y] : c.points) (c.style == ChartCurve::Style::model ? r.data : r.limits).add(y);
+  if (s.tolerance) {
+    if (s.tolerance->lower) r.limits.add(*s.tolerance->lower);
+    if (s.tolerance->upper) r.limits.add(*s.tolerance->upper);
+  }
+  return r;
+}
+
+// Two significant digits: "400", "37", "2.5"; a ratio, not a measurement.
+std::string ratio_text(double r) {
+  const double p = std::pow(10.0, std::floor(std::log10(r)) - 1);
+  return fmt::format("{:.6g}", std::round(r / p) * p);
+}
+
+std::string signed_text(double v, const std::string& unit) {
+  return fmt::format("{:+.4g}{}", v, unit.empty() ? "" : " " + unit);
+}
+
+class Renderer {
+public:
+  Renderer(cairo_t* cr, const ChartSpec& s, DrawRecord& rec) : cr_(cr), s_(s), rec_(rec) {}
+
+  void draw() {
+    set_colour(cr_, {1, 1, 1});
+    cairo_paint(cr_);
+    double y = margin;
+    y = heading(y);
+    layout(y);
+    plot_background();
+    grid();
+    data_layers();
+    axes_text();
+    legend();
+    notes();
+  }
+
+private:
+  // ---- layout -------------------------------------------------------------------------------------
+  double heading(double y) {
+    Text title(cr_, s_.title, 15, true, false, s_.width - 2 * margin);
+    set_colour(cr_, ink);
+    title.draw(margin, y);
+    rec_.add("text", {{"role", "title"}}, s_.title);
+    y += title.height() + 2;
+    if (!s_.subtitle.empty()) {
+      Text sub(cr_, s_.subtitle, 10.5, false, false, s_.width - 2 * margin);
+      set_colour(cr_, muted);
+      sub.draw(margin, y);
+      rec_.add("text", {{"role", "subtitle"}}, s_.subtitle);
+      y += sub.height();
+    }
+    if (scale_.zoomed) {
+      // Said where the reader looks first, in the limit colour: the axis is not the full tolerance band.
+      Text zoom(cr_, scale_.statement, 10.5, true, false, s_.width - 2 * margin);
+      set_colour(cr_, tolerance_colour);
+      zoom.draw(margin, y);
+      rec_.add("scale", {{"zoomed", "true"}, {"ratio", ratio_text(scale_.ratio)}});
+      rec_.add("text", {{"role", "zoom-statement"}}, scale_.statement);
+      y += zoom.height();
+    }
+    return y + 14;
+  }
+
+  void layout(double top) {
+    Range xr;
+    for (const auto& series : s_.series)
+      for (const auto& p : series.points) xr.add(p.x);
+    if (s_.trend) {
+      const auto& t = *s_.trend;
+      xr.add(t.x0), xr.add(t.x1);
+      if (t.x_extrapolated) xr.add(*t.x_extrapolated);
+      for (const auto& b : t.prediction_band) xr.add(b.x);
+    }
+    for (const auto& c : s_.curves)
+      for (const auto& pt : c.points) xr.add(pt.first);
+    // Honest scaling: every point with its error bar, the zero line, control lines and the fitted trend are
+    // always in view; the limits and the extrapolated trend too, unless the chart is zoomed to the data
+    // (scale_decision), when the limits left out are marked at the edge of the plot.
+    const YRanges ranges = y_ranges(s_);
+    Range yr = ranges.data;
+    if (!scale_.zoomed && !ranges.limits.empty()) yr.add(ranges.limits.lo), yr.add(ranges.limits.hi);
+    if (xr.empty()) xr.add(0), xr.add(1);
+    if (yr.empty()) yr.add(0), yr.add(1);
+    // A little air so that no point sits on the frame.
+    const double ypad = 0.04 * (yr.hi - yr.lo), xpad = 0.03 * (xr.hi - xr.lo);
+    yt_ = number_ticks(yr.lo - ypad, yr.hi + ypad, 6);
+
+    double widest_y = 0;
+    for (const auto& t : yt_.ticks) widest_y = std::max(widest_y, Text(cr_, t.label, 9).width());
+    const double y_label_h = Text(cr_, s_.y.text(), 10.5).height();
+    left_ = margin + y_label_h + 8 + widest_y + 6;
+    right_ = s_.width - margin - legend_width - 18;
+    top_ = top;
+    // Notes may take at most a third of the height, so the plot never shrinks away; the rest are
+    // counted in a last line that says where to read them.
+    notes_h_ = 0;
+    shown_notes_.clear();
+    const double wrap = s_.width - 2 * margin;
+    for (std::size_t i = 0; i < s_.notes.size(); ++i) {
+      const double h = Text(cr_, s_.notes[i], 8, false, false, wrap).height();
+      if (notes_h_ + 2 * h > s_.height / 3 && i + 1 < s_.notes.size()) {
+        shown_notes_.push_back(fmt::format("({} further note(s) are in the text report.)", s_.notes.size() - i));
+        notes_h_ += Text(cr_, shown_notes_.back(), 8, false, false, wrap).height();
+        break;
+      }
+      shown_notes_.push_back(s_.notes[i]);
+      notes_h_ += h;
+    }
+    const double tick_h = Text(cr_, "0123456789", 9).height();
+    const double x_label_h = Text(cr_, s_.x.text(), 10.5).height();
+    bottom_ = s_.height - margin - notes_h_ - (notes_h_ > 0 ? 8 : 0) - x_label_h - 6 - tick_h - 6;
+
+    const double plot_w = right_ - left_;
+    if (s_.x.scale == AxisScale::date) {
+      const double label_w = Text(cr_, "2024-12-31", 9).width();
+      const int max_ticks = std::max(2, static_cast<int>(plot_w / (label_w + 18)));
+      xt_ = date_ticks(xr.lo - xpad, xr.hi + xpad, max_ticks);
+    } else {
+      const int target = std::max(2, std::min(8, static_cast<int>(plot_w / 70)));
+      xt_ = number_ticks(xr.lo - xpad, xr.hi + xpad, target);
+    }
+    rec_.add("plot", {{"left", px(left_)}, {"right", px(right_)}, {"top", px(top_)}, {"bottom", px(bottom_)},
+                      {"x-min", num(xt_.min)}, {"x-max", num(xt_.max)}, {"y-min", num(yt_.min)},
+                      {"y-max", num(yt_.max)}});
+  }
+
+  [[nodiscard]] double X(double x) const { return left_ + (x - xt_.min) / (xt_.max - xt_.min) * (right_ - left_); }
+  [[nodiscard]] double Y(double y) const { return bottom_ - (y - yt_.min) / (yt_.max - yt_.min) * (bottom_ - top_); }
+
+  void clip_to_plot() {
+    cairo_save(cr_);
+    cairo_rectangle(cr_, left_, top_, right_ - left_, bottom_ - top_);
+    cairo_clip(cr_);
+  }
+
+  // ---- plot area ----------------------------------------------------------------------------------
+  void plot_background() {
+    if (!s_.tolerance || (!s_.tolerance->lower && !s_.tolerance->upper)) return;
+    // Clamped to the plot: a zoomed chart may lie wholly inside the band.
+    const double hi = std::clamp(s_.tolerance->upper ? Y(*s_.tolerance->upper) : top_, top_, bottom_);
+    const double lo = std::clamp(s_.tolerance->lower ? Y(*s_.tolerance->lower) : bottom_, top_, bottom_);
+    set_colour(cr_, tolerance_fill);
+    cairo_rectangle(cr_, left_, hi, right_ - left_, lo - hi);
+    cairo_fill(cr_);
+  }
+
+  void grid() {
+    cairo_set_line_width(cr_, 0.6);
+    set_colour(cr_, grid_grey);
+    for (const auto& t : yt_.ticks) {
+      cairo_move_to(cr_, left_, Y(t.value));
+      cairo_line_to(cr_, right_, Y(t.value));
+    }
+    for (const auto& t : xt_.ticks) {
+      cairo_move_to(cr_, X(t.value), top_);
+      cairo_line_to(cr_, X(t.value), bottom_);
+    }
+    cairo_stroke(cr_);
+    set_colour(cr_, muted);
+    cairo_set_line_width(cr_, 0.8);
+    cairo_rectangle(cr_, left_, top_, right_ - left_, bottom_ - top_);
+    cairo_stroke(cr_);
+  }
+
+  void hline(double y, Rgb c, double width, bool dashed) {
+    set_colour(cr_, c);
+    cairo_set_line_width(cr_, width);
+    const double dash[] = {5, 3};
+    cairo_set_dash(cr_, dash, dashed ? 2 : 0, 0);
+    cairo_move_to(cr_, left_, Y(y));
+    cairo_line_to(cr_, right_, Y(y));
+    cairo_stroke(cr_);
+    cairo_set_dash(cr_, nullptr, 0, 0);
+  }
+
+  void data_layers() {
+    clip_to_plot();
+    if (s_.zero_line) {
+      hline(0, ink, 0.9, false);
+      rec_.add("zero-line", {{"py", px(Y(0))}});
+    }
+    if (s_.trend && s_.trend->prediction_band.size() >= 2) {
+      const auto& b = s_.trend->prediction_band;
+      cairo_move_to(cr_, X(b.front().x), Y(b.front().upper));
+      for (const auto& p : b) cairo_line_to(cr_, X(p.x), Y(p.upper));
+      for (auto it = b.rbegin(); it != b.rend(); ++it) cairo_line_to(cr_, X(it->x), Y(it->lower));
+      cairo_close_path(cr_);
+      set_colour(cr_, band_fill);
+      cairo_fill(cr_);
+      rec_.add("prediction-band", {{"points", std::to_string(b.size())}});
+    }
+    if (s_.tolerance) {
+      for (const auto& [side, v] : {std::pair{"lower", s_.tolerance->lower}, std::pair{"upper", s_.tolerance->upper}}) {
+        if (!v) continue;
+        if (in_view(*v)) {
+          hline(*v, tolerance_colour, 1.6, false);
+          rec_.add("tolerance-limit", {{"side", side}, {"value", num(*v)}, {"py", px(Y(*v))}});
+        } else {
+          off_scale(*v > yt_.max, fmt::format("{} limit {}, off scale", side, signed_text(*v, s_.y.unit)), *v);
+        }
+      }
+    }
+    for (const auto& c : s_.curves) curve(c);
+    if (s_.control) {
+      hline(s_.control->centre, control_colour, 1.1, false);
+      hline(s_.control->upper, control_colour, 1.1, true);
+      hline(s_.control->lower, control_colour, 1.1, true);
+      rec_.add("control-lines", {{"centre", num(s_.control->centre)},
+                                 {"lower", num(s_.control->lower)},
+                                 {"upper", num(s_.control->upper)}});
+    }
+    if (s_.trend) trend();
+    std::size_t k = 0;
+    for (const auto& series : s_.series) {
+      const Rgb c = series_colours[k++ % std::size(series_colours)];
+      for (const auto& p : series.points) error_bar(p, c);
+      for (const auto& p : series.points) point(series.name, p, c);
+    }
+    cairo_restore(cr_);
+  }
+
+  [[nodiscard]] bool in_view(double y) const { return y >= yt_.min && y <= yt_.max; }
+
+  // A limit beyond the zoomed axis: a dashed edge, an arrowhead pointing out of the plot and a label saying
+  // which limit and where it is, so the reader knows the band goes on past the frame.
+  void off_scale(bool top, const std::string& label, double value) {
+    const double edge = top ? top_ + 1.5 : bottom_ - 1.5;
+    set_colour(cr_, tolerance_colour);
+    cairo_set_line_width(cr_, 2.2);
+    const double dash[] = {6, 4};
+    cairo_set_dash(cr_, dash, 2, 0);
+    cairo_move_to(cr_, left_, edge);
+    cairo_line_to(cr_, right_, edge);
+    cairo_stroke(cr_);
+    cairo_set_dash(cr_, nullptr, 0, 0);
+    double& x = top ? top_marker_x_ : bottom_marker_x_;
+    if (x == 0) x = left_ + 8;
+    const double dir = top ? -1 : 1;  // the arrow points away from the data, towards the limit
+    const double tip = edge + dir * 0.5, base = edge - dir * 9;
+    cairo_move_to(cr_, x, tip);
+    cairo_line_to(cr_, x - 5, base);
+    cairo_line_to(cr_, x + 5, base);
+    cairo_close_path(cr_);
+    cairo_fill(cr_);
+    Text t(cr_, label, 9, true);
+    const double ty = top ? edge + 3 : edge - 3 - t.height();
+    set_colour(cr_, {1, 1, 1}, 0.85);
+    cairo_rectangle(cr_, x + 8, ty, t.width() + 6, t.height());
+    cairo_fill(cr_);
+    set_colour(cr_, tolerance_colour);
+    t.draw(x + 11, ty);
+    rec_.add("off-scale-limit", {{"edge", top ? "top" : "bottom"}, {"value", num(value)}, {"py", px(edge)}});
+    rec_.add("text", {{"role", "off-scale-label"}}, label);
+    x += t.width() + 30;
+  }
+
+  void curve(const ChartCurve& c) {
+    if (c.points.size() < 2) return;
+    const bool limit = c.style == ChartCurve::Style::limit;
+    set_colour(cr_, limit ? tolerance_colour : trend_colour);
+    // A limit known at some points only: a bold bar at each point, joined by a thin dotted guide, so that no
+    // slope between two points is read as a limit nobody stated.
+    cairo_set_line_width(cr_, limit ? 0.9 : 2.0);
+    const double dots[] = {1.5, 2.5};
+    if (limit) cairo_set_dash(cr_, dots, 2, 0);
+    cairo_move_to(cr_, X(c.points.front().first), Y(c.points.front().second));
+    for (const auto& [x, y] : c.points) cairo_line_to(cr_, X(x), Y(y));
+    cairo_stroke(cr_);
+    cairo_set_dash(cr_, nullptr, 0, 0);
+    if (limit) {
+      cairo_set_line_width(cr_, 2.4);
+      for (const auto& [x, y] : c.points) {
+        cairo_move_to(cr_, X(x) - 9, Y(y));
+        cairo_line_to(cr_, X(x) + 9, Y(y));
+      }
+      cairo_stroke(cr_);
+    }
+    rec_.add("curve", {{"name", c.name}, {"style", limit ? "limit" : "model"}, {"points", std::to_string(c.points.size())}});
+    if (!limit) return;
+    double hi = -INFINITY, lo = INFINITY;
+    for (const auto& pt : c.points) hi = std::max(hi, pt.second), lo = std::min(lo, pt.second);
+    if (hi > yt_.max) off_scale(true, fmt::format("{} up to {}, off scale", c.name, signed_text(hi, s_.y.unit)), hi);
+    if (lo < yt_.min) off_scale(false, fmt::format("{} down to {}, off scale", c.name, signed_text(lo, s_.y.unit)), lo);
+  }
+
+  void trend() {
+    const auto& t = *s_.trend;
+    set_colour(cr_, trend_colour);
+    cairo_set_line_width(cr_, 2.0);
+    cairo_move_to(cr_, X(t.x0), Y(t.y0));
+    cairo_line_to(cr_, X(t.x1), Y(t.y1));
+    cairo_stroke(cr_);
+    rec_.add("trend", {{"x0", num(t.x0)}, {"y0", num(t.y0)}, {"x1", num(t.x1)}, {"y1", num(t.y1)}});
+    if (!(t.x_extrapolated && t.y_extrapolated)) return;
+    const double dash[] = {7, 4};
+    cairo_set_dash(cr_, dash, 2, 0);
+    cairo_move_to(cr_, X(t.x1), Y(t.y1));
+    cairo_line_to(cr_, X(*t.x_extrapolated), Y(*t.y_extrapolated));
+    cairo_stroke(cr_);
+    cairo_set_dash(cr_, nullptr, 0, 0);
+    rec_.add("extrapolated", {{"x0", num(t.x1)}, {"y0", num(t.y1)}, {"x1", num(*t.x_extrapolated)},
+                              {"y1", num(*t.y_extrapolated)}, {"dashed", "true"}});
+    // The word sits above the middle of the dashed part (below it when there is no room above),
+    // kept inside the plot so it is never clipped.
+    Text word(cr_, "extrapolated", 9, false, true);
+    const double mx = (X(t.x1) + X(*t.x_extrapolated)) / 2, my = (Y(t.y1) + Y(*t.y_extrapolated)) / 2;
+    double tx = std::clamp(mx - word.width() / 2, left_ + 3, right_ - word.width() - 3);
+    double ty = my - word.height() - 6;
+    if (ty < top_ + 2) ty = my + 6;
+    set_colour(cr_, trend_colour);
+    word.draw(tx, ty);
+    rec_.add("text", {{"role", "extrapolated-label"}}, "extrapolated");
+  }
+
+  void error_bar(const ChartPoint& p, Rgb c) {
+    if (!p.error || *p.error <= 0) return;
+    const double x = X(p.x), y0 = Y(p.y - *p.error), y1 = Y(p.y + *p.error);
+    set_colour(cr_, c, 0.85);
+    cairo_set_line_width(cr_, 1.0);
+    cairo_move_to(cr_, x, y0);
+    cairo_line_to(cr_, x, y1);
+    for (double yy : {y0, y1}) {
+      cairo_move_to(cr_, x - 3, yy);
+      cairo_line_to(cr_, x + 3, yy);
+    }
+    cairo_stroke(cr_);
+    rec_.add("error-bar", {{"x", num(p.x)}, {"y", num(p.y)}, {"u", num(*p.error)}, {"px", px(x)},
+                           {"py-low", px(y0)}, {"py-high", px(y1)}});
+  }
+
+  void point(const std::string& series, const ChartPoint& p, Rgb c) {
+    const double x = X(p.x), y = Y(p.y);
+    // A white halo, then the dot: two plain fills, so that each point is exactly one path in the
+    // point's colour in the SVG (the chart test counts them).
+    cairo_new_sub_path(cr_);
+    cairo_arc(cr_, x, y, point_radius + 0.8, 0, 2 * std::numbers::pi);
+    set_colour(cr_, {1, 1, 1});
+    cairo_fill(cr_);
+    cairo_new_sub_path(cr_);
+    cairo_arc(cr_, x, y, point_radius, 0, 2 * std::numbers::pi);
+    set_colour(cr_, c);
+    cairo_fill(cr_);
+    if (p.flagged) {
+      cairo_new_sub_path(cr_);
+      cairo_arc(cr_, x, y, flag_radius, 0, 2 * std::numbers::pi);
+      set_colour(cr_, tolerance_colour);
+      cairo_set_line_width(cr_, 1.8);
+      cairo_stroke(cr_);
+    }
+    rec_.add("point", {{"series", series}, {"x", num(p.x)}, {"y", num(p.y)}, {"px", px(x)}, {"py", px(y)},
+                       {"flagged", p.flagged ? "true" : "false"}});
+  }
+
+  // ---- text around the plot -----------------------------------------------------------------------
+  void axes_text() {
+    set_colour(cr_, ink);
+    for (const auto& t : yt_.ticks) {
+      Text l(cr_, t.label, 9);
+      l.draw(left_ - 6 - l.width(), Y(t.value) - l.height() / 2);
+      rec_.add("text", {{"role", "y-tick"}, {"value", num(t.value)}}, t.label);
+    }
+    double tick_bottom = bottom_;
+    for (const auto& t : xt_.ticks) {
+      Text l(cr_, t.label, 9);
+      const double cx = std::clamp(X(t.value) - l.width() / 2, 2.0, s_.width - l.width() - 2);
+      l.draw(cx, bottom_ + 6);
+      tick_bottom = std::max(tick_bottom, bottom_ + 6 + l.height());
+      rec_.add("text", {{"role", "x-tick"}, {"value", num(t.value)}}, t.label);
+    }
+    Text xl(cr_, s_.x.text(), 10.5);
+    xl.draw((left_ + right_) / 2 - xl.width() / 2, tick_bottom + 6);
+    rec_.add("text", {{"role", "x-axis-label"}}, s_.x.text());
+
+    Text yl(cr_, s_.y.text(), 10.5);
+    cairo_save(cr_);
+    cairo_translate(cr_, margin, (top_ + bottom_) / 2 + yl.width() / 2);
+    cairo_rotate(cr_, -std::numbers::pi / 2);
+    yl.draw(0, 0);
+    cairo_restore(cr_);
+    rec_.add("text", {{"role", "y-axis-label"}}, s_.y.text());
+  }
+
+  double legend_entry(double y, const std::function<void(double, double)>& symbol, const std::string& text) {
+    const double x = right_ + 18;
+    Text t(cr_, text, 9, false, false, legend_width - 30);
+    symbol(x + 10, y + std::min(t.height(), 12.0) / 2);
+    set_colour(cr_, ink);
+    t.draw(x + 26, y);
+    rec_.add("text", {{"role", "legend"}}, text);
+    return y + t.height() + 5;
+  }
+
+  std::function<void(double, double)> line_symbol(Rgb c, double width, bool dashed) {
+    return [this, c, width, dashed](double x, double y) {
+      set_colour(cr_, c);
+      cairo_set_line_width(cr_, width);
+      const double dash[] = {4, 2.5};
+      cairo_set_dash(cr_, dash, dashed ? 2 : 0, 0);
+      cairo_move_to(cr_, x - 10, y);
+      cairo_line_to(cr_, x + 10, y);
+      cairo_stroke(cr_);
+      cairo_set_dash(cr_, nullptr, 0, 0);
+    };
+  }
+
+  [[nodiscard]] std::string with_unit(double v) const {
+    return s_.y.unit.empty() ? fmt::format("{:.4g}", v) : fmt::format("{:.4g} {}", v, s_.y.unit);
+  }
+
+  void legend() {
+    double y = top_;
+    std::size_t k = 0;
+    bool any_error = false, any_flag = false;
+    for (const auto& series : s_.series) {
+      const Rgb c = series_colours[k++ % std::size(series_colours)];
+      y = legend_entry(y, [this, c](double x, double yy) {
+        cairo_new_sub_path(cr_);
+        cairo_arc(cr_, x, yy, point_radius, 0, 2 * std::numbers::pi);
+        set_colour(cr_, c);
+        cairo_fill(cr_);
+      }, series.name);
+      for (const auto& p : series.points) {
+        any_error = any_error || (p.error && *p.error > 0);
+        any_flag = any_flag || p.flagged;
+      }
+    }
+    if (any_error)
+      y = legend_entry(y, [this](double x, double yy) {
+        set_colour(cr_, muted);
+        cairo_set_line_width(cr_, 1.0);
+        cairo_move_to(cr_, x, yy - 6), cairo_line_to(cr_, x, yy + 6);
+        cairo_move_to(cr_, x - 3, yy - 6), cairo_line_to(cr_, x + 3, yy - 6);
+        cairo_move_to(cr_, x - 3, yy + 6), cairo_line_to(cr_, x + 3, yy + 6);
+        cairo_stroke(cr_);
+      }, "error bar: expanded uncertainty U");
+    if (any_flag)
+      y = legend_entry(y, [this](double x, double yy) {
+        cairo_new_sub_path(cr_);
+        cairo_arc(cr_, x, yy, flag_radius - 1.5, 0, 2 * std::numbers::pi);
+        set_colour(cr_, tolerance_colour);
+        cairo_set_line_width(cr_, 1.8);
+        cairo_stroke(cr_);
+      }, "flagged point (see the notes)");
+    if (s_.tolerance) {
+      std::string t = s_.tolerance->label;
+      if (s_.tolerance->lower && s_.tolerance->upper)
+        t += fmt::format("s {} and {}", with_unit(*s_.tolerance->lower), with_unit(*s_.tolerance->upper));
+      else if (s_.tolerance->upper)
+        t += " (upper) " + with_unit(*s_.tolerance->upper);
+      else if (s_.tolerance->lower)
+        t += " (lower) " + with_unit(*s_.tolerance->lower);
+      const bool off = (s_.tolerance->lower && !in_view(*s_.tolerance->lower)) ||
+                       (s_.tolerance->upper && !in_view(*s_.tolerance->upper));
+      y = legend_entry(y, line_symbol(tolerance_colour, 1.6, false), off ? t + " (off scale, marked at the edge)" : t);
+    }
+    std::vector<std::string> named;  // an upper and a lower limit curve share one legend entry
+    for (const auto& c : s_.curves) {
+      if (std::find(named.begin(), named.end(), c.name) != named.end()) continue;
+      named.push_back(c.name);
+      const bool limit = c.style == ChartCurve::Style::limit;
+      y = legend_entry(y, line_symbol(limit ? tolerance_colour : trend_colour, limit ? 1.6 : 2.0, false), c.name);
+    }
+    if (s_.control) {
+      y = legend_entry(y, line_symbol(control_colour, 1.1, false), "centre line " + with_unit(s_.control->centre));
+      y = legend_entry(y, line_symbol(control_colour, 1.1, true),
+                       fmt::format("control limits (3 sigma) {} and {}", with_unit(s_.control->lower),
+                                   with_unit(s_.control->upper)));
+    }
+    if (s_.zero_line) y = legend_entry(y, line_symbol(ink, 0.9, false), "zero");
+    if (s_.trend) {
+      y = legend_entry(y, line_symbol(trend_colour, 2.0, false), "trend (least squares)");
+      if (s_.trend->x_extrapolated) y = legend_entry(y, line_symbol(trend_colour, 2.0, true), "trend, extrapolated");
+      if (s_.trend->prediction_band.size() >= 2)
+        y = legend_entry(y, [this](double x, double yy) {
+          set_colour(cr_, band_fill);
+          cairo_rectangle(cr_, x - 10, yy - 5, 20, 10);
+          cairo_fill(cr_);
+        }, s_.trend->band_label);
+      if (!s_.trend->label.empty()) {
+        Text t(cr_, s_.trend->label, 9, false, false, legend_width - 8);
+        set_colour(cr_, ink);
+        t.draw(right_ + 18, y + 6);
+        rec_.add("text", {{"role", "trend-label"}}, s_.trend->label);
+      }
+    }
+  }
+
+  void notes() {
+    double y = s_.height - margin - notes_h_;
+    set_colour(cr_, muted);
+    for (const auto& n : shown_notes_) {
+      Text t(cr_, n, 8, false, false, s_.width - 2 * margin);
+      t.draw(margin, y);
+      rec_.add("text", {{"role", "note"}}, n);
+      y += t.height();
+    }
+  }
+
+  cairo_t* cr_;
+  const ChartSpec& s_;
+  DrawRecord& rec_;
+  ScaleDecision scale_ = scale_decision(s_);
+  double top_marker_x_ = 0, bottom_marker_x_ = 0;
+  AxisTicks xt_, yt_;
+  double left_ = 0, right_ = 0, top_ = 0, bottom_ = 0, notes_h_ = 0;
+  std::vector<std::string> shown_notes_;
+};
+
+cairo_status_t append_to_string(void* closure, const unsigned char* data, unsigned int length) {
+  static_cast<std::string*>(closure)->append(reinterpret_cast<const char*>(data), length);
+  return CAIRO_STATUS_SUCCESS;
+}
+
+void draw_on(cairo_surface_t* surface, const ChartSpec& spec, DrawRecord& rec, double scale) {
+  cairo_t* cr = cairo_create(surface);
+  cairo_scale(cr, scale, scale);
+  Renderer(cr, spec, rec).draw();
+  const cairo_status_t st = cairo_status(cr);
+  cairo_destroy(cr);
+  if (st != CAIRO_STATUS_SUCCESS)
+    throw std::runtime_error(fmt::format("chart drawing failed: {}", cairo_status_to_string(st)));
+}
+
+std::string description(const ChartSpec& s) {
+  std::size_t points = 0;
+  for (const auto& series : s.series) points += series.points.size();
+  return fmt::format("{}{}x axis: {}; y axis: {}; {} point(s).", s.subtitle, s.subtitle.empty() ? "" : ". ",
+                     s.x.text(), s.y.text(), points);
+}
+
+}  // namespace
+
+ScaleDecision scale_decision(const ChartSpec& s) {
+  const YRanges r = y_ranges(s);
+  if (s.full_scale || r.data.empty() || r.limits.empty()) return {};
+  // The band is measured from zero, so that a one-sided limit (s <= 5 mg) counts as the distance to it.
+  Range band = r.limits;
+  band.add(0);
+  const double data_span = r.data.hi - r.data.lo, band_width = band.hi - band.lo;
+  if (!(data_span > 0) || band_width <= zoom_threshold * data_span) return {};
+  ScaleDecision d{true, band_width / data_span, ""};
+  const std::string unit = s.y.unit.empty() ? "" : " " + s.y.unit;
+  std::string band_text;
+  const auto& t = s.tolerance;
+  if (t && t->lower && t->upper && std::abs(*t->lower + *t->upper) <= 1e-9 * band_width)
+    band_text = fmt::format("the tolerance band \u00b1{:.4g}{} is", *t->upper, unit);
+  else if (t && t->lower && t->upper)
+    band_text = fmt::format("the tolerance band {:.4g} to {:.4g}{} is", *t->lower, *t->upper, unit);
+  else
+    band_text = fmt::format("the limits (up to {:.4g}{} from zero) are", std::max(std::abs(band.lo), band.hi), unit);
+  d.statement = fmt::format("Scale zoomed to the data: {} {} times wider than the span of the results with their "
+                            "error bars; limits off scale are marked at the edge.",
+                            band_text, ratio_text(d.ratio));
+  return d;
+}
+
+void draw_chart(cairo_t* cr, const ChartSpec& spec) {
+  validate(spec);
+  DrawRecord unused;
+  cairo_save(cr);
+  // The renderer paints its white background over everything in reach; keep it to the chart's own box.
+  cairo_rectangle(cr, 0, 0, spec.width, spec.height);
+  cairo_clip(cr);
+  Renderer(cr, spec, unused).draw();
+  cairo_restore(cr);
+}
+
+std::string render_chart(const ChartSpec& spec, ChartFormat format) {
+  validate(spec);
+  std::string out;
+  DrawRecord rec;
+  switch (format) {
+    case ChartFormat::svg: {
+      cairo_surface_t* surface = cairo_svg_surface_create_for_stream(append_to_string, &out, spec.width, spec.height);
+      draw_on(surface, spec, rec, 1.0);
+      cairo_surface_finish(surface);
+      cairo_surface_destroy(surface);
+      return annotate_svg(std::move(out), spec.title, description(spec), rec);
+    }
+    case ChartFormat::pdf: {
+      cairo_surface_t* surface = cairo_pdf_surface_create_for_stream(append_to_string, &out, spec.width, spec.height);
+      cairo_pdf_surface_set_metadata(surface, CAIRO_PDF_METADATA_TITLE, spec.title.c_str());
+      cairo_pdf_surface_set_metadata(surface, CAIRO_PDF_METADATA_CREATOR, "plumb");
+      draw_on(surface, spec, rec, 1.0);
+      cairo_surface_finish(surface);
+      cairo_surface_destroy(surface);
+      return out;
+    }
+    case ChartFormat::png: {
+      // Two pixels per point: sharp on screens and in print at the chart's natural size.
+      constexpr double scale = 2.0;
+      cairo_surface_t* surface =
+          cairo_image_surface_create(CAIRO_FORMAT_ARGB32, static_cast<int>(std::ceil(spec.width * scale)),
+                                     static_cast<int>(std::ceil(spec.height * scale)));
+      draw_on(surface, spec, rec, scale);
+      cairo_surface_write_to_png_stream(surface, append_to_string, &out);
+      cairo_surface_destroy(surface);
+      return out;
+    }
+  }
+  return out;
+}
+
+ChartFormat chart_format_for(const std::filesystem::path& path) {
+  std::string ext = path.extension().string();
+  std::transform(ext.begin(), ext.end(), ext.begin(), [](unsigned char c) { return static_cast<char>(std::tolower(c)); });
+  if (ext == ".svg") return ChartFormat::svg;
+  if (ext == ".png") return ChartFormat::png;
+  if (ext == ".pdf") return ChartFormat::pdf;
+  throw InputError(fmt::format("chart file \"{}\" must end in .svg, .png or .pdf.", path.string()));
+}
+
+void write_chart(const ChartSpec& spec, const std::filesystem::path& path) {
+  const std::string bytes = render_chart(spec, chart_format_for(path));
+  std::ofstream f(path, std::ios::binary);
+  if (!f || !f.write(bytes.data(), static_cast<std::streamsize>(bytes.size())))
+    throw StorageError(fmt::format("cannot write the chart file \"{}\".", path.string()));
+}
+
+}  // namespace plumb::report

@@ -1,0 +1,116 @@
+#pragma once
+// A chart of an instrument's history, described by a plain ChartSpec (no database, no statistics):
+// the caller fills it from a history query, a control chart or a drift analysis, and render_chart
+// draws it with cairo and pango to SVG, PNG or PDF.
+//
+// What the spec asks for follows the chart rules of doc/charts.md: a descriptive title naming instrument,
+// quantity and period; axis labels with units; grid lines with 1-2-5 tick steps; honest scaling (every
+// point with its error bar, the tolerance band and the zero line are always in view); visible points;
+// error bars for the expanded uncertainty; a legend; a trend line with its label; its extrapolated part
+// dashed and labelled "extrapolated"; control lines; flagged points marked.
+#include <cairo.h>
+
+#include <filesystem>
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace plumb::report {
+
+enum class AxisScale { number, date };
+
+struct AxisSpec {
+  std::string label;  ///< "Bias at 100 g"
+  std::string unit;   ///< "mg"; shown as "label (unit)"; empty for dates
+  AxisScale scale = AxisScale::number;
+  [[nodiscard]] std::string text() const { return unit.empty() ? label : label + " (" + unit + ")"; }
+};
+
+/// x is a number, or for a date axis the days since 1970-01-01 (report::date_axis_value).
+struct ChartPoint {
+  double x = 0.0;
+  double y = 0.0;
+  std::optional<double> error;  ///< half-length of the error bar: the expanded uncertainty U
+  bool flagged = false;         ///< e.g. a Western Electric signal: drawn with a ring
+};
+
+struct ChartSeries {
+  std::string name;
+  std::vector<ChartPoint> points;
+};
+
+struct ToleranceBand {
+  std::optional<double> lower, upper;
+  std::string label = "tolerance limit";
+};
+
+struct PredictionBandPoint {
+  double x, lower, upper;
+};
+
+/// The fitted line from (x0, y0) to (x1, y1), solid; optionally continued, dashed and labelled
+/// "extrapolated", to (x_extrapolated, y_extrapolated).
+struct TrendLine {
+  double x0 = 0, y0 = 0, x1 = 0, y1 = 0;
+  std::optional<double> x_extrapolated, y_extrapolated;
+  std::string label;  ///< equation, R^2, RMSE: shown beside the legend
+  std::vector<PredictionBandPoint> prediction_band;  ///< shaded when given
+  std::string band_label = "95 % prediction interval";
+};
+
+struct ControlLines {
+  double centre = 0, lower = 0, upper = 0;
+};
+
+/// A named polyline in data coordinates: a fitted model across the loads, or a limit that changes along x
+/// (an MPE that steps up with the load). Limits are drawn like the tolerance band; models like the trend.
+struct ChartCurve {
+  enum class Style { model, limit };
+  std::string name;  ///< legend text
+  Style style = Style::model;
+  std::vector<std::pair<double, double>> points;
+};
+
+/// The tolerance band may be at most this many times the span of the data (with error bars and zero)
+/// before the chart zooms to the data; above it, a full-scale chart would draw the results as a flat line.
+constexpr double zoom_threshold = 20.0;
+
+struct ChartSpec {
+  std::string title;     ///< instrument, quantity
+  std::string subtitle;  ///< period, e.g. "2024-01-01 to 2024-12-16, 50 checks"
+  AxisSpec x, y;
+  std::vector<ChartSeries> series;
+  std::optional<ToleranceBand> tolerance;
+  bool zero_line = true;
+  std::optional<TrendLine> trend;
+  std::optional<ControlLines> control;
+  std::vector<ChartCurve> curves;
+  bool full_scale = false;  ///< never zoom: the tolerance band in view however flat it makes the data
+  std::vector<std::string> notes;  ///< small print under the chart (caution, method)
+  double width = 840, height = 520;  ///< in points (1/72 in); PNG is drawn at 2 pixels per point
+};
+
+/// How the y axis was chosen: the zoom is decided from the spec alone, so callers and tests can ask.
+struct ScaleDecision {
+  bool zoomed = false;
+  double ratio = 1.0;     ///< tolerance band width / span of the data, when zoomed
+  std::string statement;  ///< "scale zoomed to the data; the tolerance band ±100 mg is 400 times wider ..."
+};
+ScaleDecision scale_decision(const ChartSpec& spec);
+
+enum class ChartFormat { svg, png, pdf };
+
+/// The file's bytes. Throws InputError for an empty title, a missing axis label, a non-finite value
+/// or a size below 320 x 240.
+std::string render_chart(const ChartSpec& spec, ChartFormat format);
+
+/// Draws the chart on an existing cairo context, its top-left corner at the current origin, in the spec's
+/// size: for charts embedded in documents (PDF certificates). Throws InputError like render_chart.
+void draw_chart(cairo_t* cr, const ChartSpec& spec);
+
+/// Format from the extension (.svg, .png, .pdf); throws InputError naming the path otherwise.
+ChartFormat chart_format_for(const std::filesystem::path& path);
+/// Renders and writes; throws StorageError when the file cannot be written.
+void write_chart(const ChartSpec& spec, const std::filesystem::path& path);
+
+}  // namespace plumb::report

@@ -1,0 +1,101 @@
+#include "report/records/audit_log.hpp"
+
+#include <fmt/format.h>
+
+namespace plumb::report {
+namespace {
+
+using nlohmann::json;
+
+json parsed_or_null(const std::optional<std::string>& text) {
+  if (!text) return json();
+  json j = json::parse(*text, nullptr, false);
+  return j.is_discarded() ? json(*text) : j;
+}
+
+std::string csv_field(const std::string& s) {
+  if (s.find_first_of(",\"\r\n") == std::string::npos) return s;
+  std::string q = "\"";
+  for (char c : s) q += c == '"' ? std::string("\"\"") : std::string(1, c);
+  return q + "\"";
+}
+
+/// "column=value, ..." with long values (stored results, certificate content) shortened for reading.
+std::string columns_text(const json& row) {
+  std::string out;
+  for (const auto& [name, value] : row.items()) {
+    if (value.is_object() && value.contains("sha256")) {  // a long text, recorded by its digest
+      out += fmt::format("{}{}=(SHA-256 {}...)", out.empty() ? "" : ", ", name,
+                         value["sha256"].get<std::string>().substr(0, 16));
+      continue;
+    }
+    std::string v = value.is_string() ? value.get<std::string>() : value.dump();
+    if (v.size() > 60) v = v.substr(0, 40) + fmt::format("... ({} characters; complete in --format json)", v.size());
+    out += fmt::format("{}{}={}", out.empty() ? "" : ", ", name, v);
+  }
+  return out;
+}
+
+}  // namespace
+
+std::string audit_log_text(const std::string& scope, const std::vector<store::AuditRecord>& records) {
+  std::string out = fmt::format("Audit trail of {}: {} record(s), times in UTC\n", scope, records.size());
+  for (const auto& r : records) {
+    out += fmt::format("\n#{:<6} {}  {} (OS account {})\n", r.seq, r.at, r.actor, r.os_user);
+    out += fmt::format("        {} {} {}\n", r.action, r.table_name, r.row_key);
+    if (r.reason) out += fmt::format("        why: {}\n", *r.reason);
+    const json before = parsed_or_null(r.before_json);
+    if (before.is_object()) out += fmt::format("        before: {}\n", columns_text(before));
+    const json after = parsed_or_null(r.after_json);
+    if (r.action == "insert rows") {
+      for (const auto& [table, row] : store::recorded_rows(r))
+        out += fmt::format("        {}: {}\n", table, columns_text(row));
+    } else if (after.is_object()) {
+      out += fmt::format("        after: {}\n", columns_text(after));
+    }
+  }
+  return out;
+}
+
+std::string audit_log_csv(const std::vector<store::AuditRecord>& records) {
+  std::string out = "seq,at_utc,actor,os_user,action,table,row_key,reason,before_json,after_json,prev_hash,hash\n";
+  for (const auto& r : records)
+    out += fmt::format("{},{},{},{},{},{},{},{},{},{},{},{}\n", r.seq, r.at, csv_field(r.actor), csv_field(r.os_user),
+                       r.action, r.table_name, csv_field(r.row_key), csv_field(r.reason.value_or("")),
+                       csv_field(r.before_json.value_or("")), csv_field(r.after_json.value_or("")), r.prev_hash,
+                       r.hash);
+  return out;
+}
+
+namespace {
+
+/// What the record says was inserted: the row, or for "insert rows" each table's rows as objects (the
+/// stored form lists the column names once per table).
+json after_of(const store::AuditRecord& r) {
+  if (r.action != "insert rows") return parsed_or_null(r.after_json);
+  json tables = json::object();
+  for (auto& [table, row] : store::recorded_rows(r)) tables[table].push_back(std::move(row));
+  return tables;
+}
+
+}  // namespace
+
+json audit_log_json(const std::string& scope, const std::vector<store::AuditRecord>& records) {
+  json list = json::array();
+  for (const auto& r : records)
+    list.push_back({{"seq", r.seq},
+                    {"at", r.at},
+                    {"actor", r.actor},
+                    {"os_user", r.os_user},
+                    {"action", r.action},
+                    {"table", r.table_name},
+                    {"row_key", r.row_key},
+                    {"reason", r.reason ? json(*r.reason) : json()},
+                    {"before", parsed_or_null(r.before_json)},
+                    {"after", after_of(r)},
+                    {"prev_hash", r.prev_hash},
+                    {"hash", r.hash}});
+  return {{"scope", scope}, {"records", list}};
+}
+
+}  // namespace plumb::report
