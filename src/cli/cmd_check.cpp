@@ -1,18 +1,21 @@
 #include <fmt/ostream.h>
+#include <fmt/ranges.h>
 
+#include <algorithm>
 #include <fstream>
 #include <iostream>
 #include <sstream>
 
 #include "app/calibration/record.hpp"
 #include "app/runs/correct.hpp"
+#include "app/runs/resolve.hpp"
 #include "app/weekly_check/record.hpp"
+#include "checks/procedure.hpp"
 #include "app/pipette/record.hpp"
 #include "cli/command_groups.hpp"
 #include "core/errors.hpp"
 #include "report/runs/json.hpp"
 #include "report/runs/text.hpp"
-#include "report/pipette/text.hpp"
 #include "store/repository.hpp"
 
 namespace plumb::cli {
@@ -37,7 +40,6 @@ void print_run(const store::RunRecord& run, const std::string& format, Env& env,
   auto j = report::run_json(run);
   if (!error_at.is_null()) j["error_at"] = error_at;
   if (format == "json") env.out << j.dump(2) << "\n";
-  else if (run.procedure == app::gravimetric_procedure) env.out << report::pipette_run_text(j);
   else env.out << report::run_text(j);
 }
 
@@ -47,9 +49,52 @@ int print_and_gate(const store::RunRecord& run, const po::variables_map& vm, con
   return vm["gate"].as<bool>() && run.verdict == Verdict::fail ? 1 : 0;
 }
 
+/// Each procedure takes its own options (the registry lists them); one meant for another procedure is refused
+/// rather than ignored.
+void refuse_other_procedures_options(const po::variables_map& vm, checks::Procedure procedure) {
+  const auto& mine = checks::spec(procedure).options;
+  for (const std::string_view option : checks::procedure_options()) {
+    const std::string name(option);
+    if (!vm.count(name) || vm[name].defaulted()) continue;
+    if (std::find(mine.begin(), mine.end(), option) != mine.end()) continue;
+    std::vector<std::string_view> takers;
+    for (const auto p : checks::all_procedures) {
+      const auto& theirs = checks::spec(p).options;
+      if (std::find(theirs.begin(), theirs.end(), option) != theirs.end()) takers.push_back(checks::to_string(p));
+    }
+    throw InputError(fmt::format("--{} does not apply to --procedure {} (it is an option of: {}).", name,
+                                 checks::to_string(procedure), fmt::join(takers, ", ")));
+  }
+}
+
+/// "repeatability or calibration (balances), gravimetric (pipettes)", from the registry.
+std::string procedures_by_instrument() {
+  std::string out;
+  for (const auto kind : {checks::InstrumentKind::balance, checks::InstrumentKind::pipette}) {
+    std::vector<std::string_view> keys;
+    for (const auto p : checks::all_procedures)
+      if (checks::spec(p).instrument == kind) keys.push_back(checks::to_string(p));
+    if (keys.empty()) continue;
+    out += fmt::format("{}{} ({}s)", out.empty() ? "" : ", ", fmt::join(keys, " or "), checks::to_string(kind));
+  }
+  return out;
+}
+
+int record_weekly_check(const po::variables_map& vm, Env& env, const std::string& format) {
+  app::CheckInput in;
+  in.instrument_id = vm["instrument"].as<std::string>();
+  if (vm.count("weight")) in.weight_ids = vm["weight"].as<std::vector<std::string>>();
+  in.default_unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
+  in.readings_csv = read_input(vm["readings"].as<std::string>(), in.readings_source);
+  in.on = vm["on"].as<std::string>();
+  if (!vm.count("by")) throw InputError("--by must name the operator who performed the check.");
+  in.operator_name = vm["by"].as<std::string>();
+  auto db = env.open();
+  const auto run = app::record_check(db, Env::actor(vm), in);
+  return print_and_gate(run, vm, format, env);
+}
+
 int record_calibration(const po::variables_map& vm, Env& env, const std::string& format) {
-  if (vm.count("weight"))
-    throw InputError("--weight is not used by a calibration: the run file names the weights of each load.");
   app::CalibrationRunInput in;
   in.instrument_id = vm["instrument"].as<std::string>();
   in.default_unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
@@ -73,8 +118,6 @@ std::string required(const po::variables_map& vm, const char* name, const char* 
 }
 
 int record_pipette(const po::variables_map& vm, Env& env, const std::string& format) {
-  if (vm.count("weight"))
-    throw InputError("--weight is not used by a gravimetric check; give the balance with --balance.");
   app::PipetteCheckInput in;
   in.pipette_id = vm["instrument"].as<std::string>();
   in.balance_id = required(vm, "balance", "the balance the water was weighed on");
@@ -105,7 +148,7 @@ std::vector<Command> check_commands() {
       [](po::options_description& d, po::positional_options_description& p) {
         d.add_options()("instrument", po::value<std::string>()->required(), "instrument id (positional)")(
             "procedure", po::value<std::string>()->default_value("repeatability"),
-            "check procedure: repeatability or calibration (balances), gravimetric (pipettes)")(
+            ("check procedure: " + procedures_by_instrument()).c_str())(
             "weight", po::value<std::vector<std::string>>(), "reference weight id (repeatability)")(
             "readings", po::value<std::string>()->required(),
             "CSV with a header and a `reading` column (optional `unit`); calibration: columns stage,part,load,"
@@ -129,29 +172,14 @@ std::vector<Command> check_commands() {
       },
       [](const po::variables_map& vm, Env& env) {
         const auto format = format_of(vm, {"text", "json"});
-        const std::string procedure = vm["procedure"].as<std::string>();
-        if (procedure == "calibration") {
-          for (const char* o : {"balance", "water-temp", "evaporation"})
-            if (vm.count(o)) throw InputError(fmt::format("--{} belongs to a gravimetric (pipette) check, not to "
-                                                          "--procedure calibration.", o));
-          return record_calibration(vm, env, format);
+        const checks::Procedure procedure = checks::parse_procedure(vm["procedure"].as<std::string>());
+        refuse_other_procedures_options(vm, procedure);
+        switch (procedure) {
+          case checks::Procedure::repeatability: return record_weekly_check(vm, env, format);
+          case checks::Procedure::calibration: return record_calibration(vm, env, format);
+          case checks::Procedure::gravimetric: return record_pipette(vm, env, format);
         }
-        if (procedure == app::gravimetric_procedure) return record_pipette(vm, env, format);
-        for (const char* o : {"temperature", "pressure", "humidity", "balance", "water-temp", "evaporation"})
-          if (vm.count(o))
-            throw InputError(fmt::format("--{} does not apply to --procedure {}.", o, procedure));
-        app::CheckInput in;
-        in.instrument_id = vm["instrument"].as<std::string>();
-        in.procedure = procedure;
-        if (vm.count("weight")) in.weight_ids = vm["weight"].as<std::vector<std::string>>();
-        in.default_unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
-        in.readings_csv = read_input(vm["readings"].as<std::string>(), in.readings_source);
-        in.on = vm["on"].as<std::string>();
-        if (!vm.count("by")) throw InputError("--by must name the operator who performed the check.");
-        in.operator_name = vm["by"].as<std::string>();
-        auto db = env.open();
-        const auto run = app::record_check(db, Env::actor(vm), in);
-        return print_and_gate(run, vm, format, env);
+        return 3;
       }};
   Command show{"check", "show", "show one check run with its results", "plumb check show LAST --format json",
                [](po::options_description& d, po::positional_options_description& p) {

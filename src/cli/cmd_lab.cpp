@@ -1,6 +1,6 @@
 #include <fmt/ostream.h>
 
-#include "app/registry/registry.hpp"
+#include "app/registry/lab.hpp"
 #include "cli/command_groups.hpp"
 
 namespace plumb::cli {

@@ -25,7 +25,7 @@ nlohmann::json row_json(const app::SummaryRow& r) {
   nlohmann::json latest;
   if (i.latest)
     latest = {{"run_id", i.latest->run_id},
-              {"procedure", i.latest->procedure},
+              {"procedure", std::string(checks::to_string(i.latest->procedure))},
               {"date", to_string(i.latest->performed_on)},
               {"operator", i.latest->operator_name},
               {"verdict", std::string(to_string(i.latest->verdict))},
@@ -72,7 +72,7 @@ std::vector<Command> summary_commands() {
           } else if (format == "csv") {
             fmt::print(env.out, "{},{},{},{},{},{},{},{},{},{},{},{}\n", csv_field(i.id), i.kind, csv_field(i.location),
                        r.status, opt_date(r.next_due), opt_int(r.days_left), l ? std::to_string(l->run_id) : "",
-                       l ? to_string(l->performed_on) : "", l ? l->procedure : "",
+                       l ? to_string(l->performed_on) : "", l ? std::string(checks::to_string(l->procedure)) : "",
                        l ? std::string(to_string(l->verdict)) : "", l ? opt_number(l->bias_g) : "",
                        l ? opt_number(l->sd_g) : "");
           } else {

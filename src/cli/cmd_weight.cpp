@@ -2,7 +2,7 @@
 
 #include <nlohmann/json.hpp>
 
-#include "app/registry/registry.hpp"
+#include "app/registry/weights.hpp"
 #include "cli/command_groups.hpp"
 #include "store/repository.hpp"
 

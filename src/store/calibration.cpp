@@ -193,13 +193,13 @@ std::vector<WeightCalibration> weight_calibrations_until(SQLite::Database& db, c
 }
 
 std::optional<RunRecord> latest_run_by_procedure(SQLite::Database& db, const std::string& instrument_id,
-                                                 const std::string& procedure, bool include) {
+                                                 checks::Procedure procedure, bool include) {
   SQLite::Statement q(db, std::string("SELECT id FROM check_runs WHERE instrument_id = ? AND procedure ") +
                               (include ? "=" : "<>") +
                               " ? AND id NOT IN (SELECT supersedes FROM check_runs WHERE supersedes IS NOT NULL) "
                               "ORDER BY performed_on DESC, id DESC LIMIT 1");
   q.bind(1, instrument_id);
-  q.bind(2, procedure);
+  q.bind(2, std::string(checks::to_string(procedure)));
   if (!q.executeStep()) return std::nullopt;
   return find_run(db, q.getColumn(0).getInt64());
 }

@@ -81,6 +81,6 @@ std::vector<WeightCalibration> weight_calibrations_until(SQLite::Database& db, c
 
 /// The latest non-superseded run of an instrument with (include = true) or without (false) `procedure`.
 std::optional<RunRecord> latest_run_by_procedure(SQLite::Database& db, const std::string& instrument_id,
-                                                 const std::string& procedure, bool include);
+                                                 checks::Procedure procedure, bool include);
 
 }  // namespace plumb::store

@@ -2,6 +2,8 @@
 
 #include <SQLiteCpp/Statement.h>
 
+#include "store/columns.hpp"
+
 namespace plumb::store {
 namespace {
 
@@ -45,7 +47,7 @@ void for_each_instrument_status(SQLite::Database& db, const std::string& kind,
     if (!q.getColumn(5).isNull()) {
       LatestResult r;
       r.run_id = q.getColumn(5).getInt64();
-      r.procedure = q.getColumn(6).getString();
+      r.procedure = stored_procedure(q.getColumn(6));
       r.performed_on = date_column(q.getColumn(7));
       r.operator_name = q.getColumn(8).getString();
       r.verdict = q.getColumn(9).getString() == "pass" ? Verdict::pass : Verdict::fail;

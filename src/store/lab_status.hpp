@@ -8,6 +8,7 @@
 #include <optional>
 #include <string>
 
+#include "checks/procedure.hpp"
 #include "checks/verdict.hpp"
 #include "core/dates.hpp"
 
@@ -15,7 +16,7 @@ namespace plumb::store {
 
 struct LatestResult {
   std::int64_t run_id = 0;
-  std::string procedure;
+  checks::Procedure procedure = checks::Procedure::repeatability;
   Date performed_on;
   std::string operator_name;
   Verdict verdict = Verdict::pass;

@@ -5,6 +5,7 @@
 #include <string>
 #include <vector>
 
+#include "checks/procedure.hpp"
 #include "checks/verdict.hpp"
 #include "core/dates.hpp"
 #include "core/units.hpp"
@@ -62,7 +63,7 @@ struct RunWeight {
 struct RunRecord {
   std::int64_t id = 0;
   std::string instrument_id;
-  std::string procedure;
+  checks::Procedure procedure = checks::Procedure::repeatability;
   Date performed_on;
   std::string operator_name;
   nlohmann::json results;

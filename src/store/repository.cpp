@@ -4,6 +4,7 @@
 #include <fmt/format.h>
 
 #include "core/errors.hpp"
+#include "store/columns.hpp"
 
 namespace plumb::store {
 namespace {
@@ -74,7 +75,7 @@ RunRecord run_from(SQLite::Statement& q) {
   RunRecord r;
   r.id = q.getColumn(0).getInt64();
   r.instrument_id = q.getColumn(1).getString();
-  r.procedure = q.getColumn(2).getString();
+  r.procedure = stored_procedure(q.getColumn(2));
   r.performed_on = date_of(q.getColumn(3));
   r.operator_name = q.getColumn(4).getString();
   r.results = json::parse(q.getColumn(5).getString());
@@ -224,7 +225,7 @@ PreparedGroup prepare_run(Recorder& rec, RunRecord&& run, std::int64_t& id, cons
     Row run_row;
     run_row.reserve(12);
     run_row.push_back({"instrument_id", std::move(run.instrument_id)});
-    run_row.push_back({"procedure", std::move(run.procedure)});
+    run_row.push_back({"procedure", std::string(checks::to_string(run.procedure))});
     run_row.push_back({"performed_on", to_string(run.performed_on)});
     run_row.push_back({"operator", std::move(run.operator_name)});
     run_row.push_back({"results_json", run.results_text.empty() ? run.results.dump() : std::move(run.results_text)});

@@ -3,7 +3,8 @@
 // balance judged by USP <41>. Tests change the fields they care about. Header-only so it needs no build change.
 #include <string>
 
-#include "app/registry/registry.hpp"
+#include "app/registry/weights.hpp"
+#include "app/registry/balances.hpp"
 
 namespace plumb::test {
 

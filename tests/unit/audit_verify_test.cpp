@@ -12,7 +12,9 @@
 #include "app/certificates/issue.hpp"
 #include "app/runs/correct.hpp"
 #include "app/weekly_check/record.hpp"
-#include "app/registry/registry.hpp"
+#include "app/registry/weights.hpp"
+#include "app/registry/balances.hpp"
+#include "app/registry/lab.hpp"
 #include "app/registry/service_status.hpp"
 #include "store/audit_trail.hpp"
 #include "support/run_plumb.hpp"
@@ -46,7 +48,6 @@ void build_lab(store::Database& db) {
   for (const char* on : {"2026-11-16", "2026-11-23"}) {
     app::CheckInput c;
     c.instrument_id = "BAL-A";
-    c.procedure = "repeatability";
     c.weight_ids = {"W100"};
     c.readings_csv = good_readings;
     c.readings_source = "r.csv";
@@ -401,7 +402,6 @@ TEST_CASE("a trail written one record per row, as before runs were grouped, stil
   // And a grouped record after them, as the current plumb writes.
   app::CheckInput c;
   c.instrument_id = "BAL-A";
-  c.procedure = "repeatability";
   c.weight_ids = {"W100"};
   c.readings_csv = good_readings;
   c.readings_source = "r.csv";

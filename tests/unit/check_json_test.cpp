@@ -12,6 +12,7 @@
 
 #include "checks/repeatability.hpp"
 #include "report/runs/json.hpp"
+#include "report/weekly_check/json.hpp"
 #include "report/format/json_text.hpp"
 
 using namespace plumb;

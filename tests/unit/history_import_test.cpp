@@ -7,7 +7,9 @@
 #include <fmt/format.h>
 
 #include "app/runs/import.hpp"
-#include "app/registry/registry.hpp"
+#include "app/registry/weights.hpp"
+#include "app/registry/balances.hpp"
+#include "app/registry/lab.hpp"
 #include "core/errors.hpp"
 #include "store/audit_trail.hpp"
 #include "store/repository.hpp"

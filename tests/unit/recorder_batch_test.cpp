@@ -5,7 +5,9 @@
 
 #include <catch2/catch.hpp>
 
-#include "app/registry/registry.hpp"
+#include "app/registry/weights.hpp"
+#include "app/registry/balances.hpp"
+#include "app/registry/lab.hpp"
 #include "store/audit_trail.hpp"
 #include "store/repository.hpp"
 #include "support/run_plumb.hpp"
@@ -18,7 +20,7 @@ namespace {
 store::RunRecord run_of(const std::string& on, bool with_weight, std::int64_t calibration_id) {
   store::RunRecord run;
   run.instrument_id = "BAL-1";
-  run.procedure = "repeatability";
+  run.procedure = plumb::checks::Procedure::repeatability;
   run.performed_on = parse_date(on);
   run.operator_name = "A. Technician";
   run.results_text = R"({"n":2})";

@@ -68,7 +68,6 @@ void add_calibration_content(const store::RunRecord& run, json& content) {
   const std::string k_text = k_max - k_min < 0.005 ? fmt::format("{:.2f}", k_min)
                                                    : fmt::format("{:.2f} to {:.2f} (given per load)", k_min, k_max);
   const std::string rule_key = r.value("decision_rule_key", "simple");
-  content["title"] = "Balance calibration certificate";
   content["weights"] = r["weights_used"];
   content["decision_rule"] = r["decision_rule"];
   content["uncertainty_statement"] = fmt::format(

@@ -9,7 +9,7 @@
 
 #include "app/calibration/run_file.hpp"
 #include "app/calibration/settings.hpp"
-#include "app/registry/registry.hpp"
+#include "app/registry/lab.hpp"
 #include "app/registry/service_status.hpp"
 #include "app/registry/weight_in_force.hpp"
 #include "checks/calibration.hpp"
@@ -317,7 +317,7 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
   const auto& final_set = result.as_left ? *result.as_left : result.as_found;
   store::RunRecord run;
   run.instrument_id = balance->id;
-  run.procedure = "calibration";
+  run.procedure = checks::Procedure::calibration;
   run.performed_on = on;
   run.operator_name = in.operator_name;
   run.verdict = checks::clear_pass(final_set.overall) ? Verdict::pass : Verdict::fail;
@@ -402,10 +402,10 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
 }
 
 json calibration_error_at(const store::RunRecord& run, const std::string& load, bool extrapolate) {
-  if (run.procedure != "calibration")
+  if (run.procedure != checks::Procedure::calibration)
     throw InputError(fmt::format("--at: run {} is a {} check, not a calibration; only a calibration has a fitted "
                                  "model.",
-                                 run.id, run.procedure));
+                                 run.id, checks::to_string(run.procedure)));
   const json& results = run.results;
   const bool left = results.contains("as_left") && !results["as_left"].is_null();
   const json& set = left ? results["as_left"] : results["as_found"];

@@ -7,8 +7,9 @@
 #include "app/certificates/history_section.hpp"
 #include "app/calibration/certificate_content.hpp"
 #include "app/pipette/certificate_content.hpp"
-#include "app/weekly_check/record.hpp"
-#include "app/registry/registry.hpp"
+#include "app/registry/lab.hpp"
+#include "app/runs/resolve.hpp"
+#include "checks/procedure.hpp"
 #include "core/errors.hpp"
 #include "report/runs/json.hpp"
 #include "report/document/layout.hpp"
@@ -19,11 +20,13 @@ namespace {
 
 using nlohmann::json;
 
-std::string prefix_for(const std::string& procedure) {
-  if (procedure == "repeatability") return "BC";
-  if (procedure == "calibration") return "CC";
-  if (procedure == "pipette" || procedure == "gravimetric") return "PC";
-  return "XC";
+/// What a procedure adds to the content every certificate has.
+void add_procedure_content(store::Database& db, const store::RunRecord& run, json& content) {
+  switch (run.procedure) {
+    case checks::Procedure::repeatability: return;  // the run's results and its weights say it all
+    case checks::Procedure::calibration: return add_calibration_content(run, content);
+    case checks::Procedure::gravimetric: return add_pipette_certificate_parts(db, run, content);
+  }
 }
 
 }  // namespace
@@ -89,12 +92,10 @@ store::CertificateRecord issue_certificate_in(store::Database& db, store::Record
 
   const auto year = static_cast<int>(today_utc().year());
   store::CertificateRecord cert;
-  cert.number = store::next_certificate_number(db.sql(), prefix_for(run.procedure), year);
+  const checks::ProcedureSpec& procedure = checks::spec(run.procedure);
+  cert.number = store::next_certificate_number(db.sql(), std::string(procedure.certificate_prefix), year);
   cert.run_id = run.id;
-  cert.kind = run.procedure == "repeatability" ? "balance_check"
-              : run.procedure == "calibration" ? "balance_calibration"
-                                               : run.procedure;
-  if (run.procedure == "gravimetric") cert.kind = pipette_certificate_kind;
+  cert.kind = procedure.certificate_kind;
   cert.issued_by = rec.actor().name;
   cert.issued_at = rec.now();
   json signatories = layout.value("signatories", json::array());
@@ -102,7 +103,7 @@ store::CertificateRecord issue_certificate_in(store::Database& db, store::Record
     if (s.value("name", "") == "{operator}") s["name"] = run.operator_name;
   cert.content = {{"number", cert.number},
                   {"kind", cert.kind},
-                  {"title", cert.kind == "balance_check" ? "Balance check certificate" : "Certificate"},
+                  {"title", procedure.certificate_title},
                   {"issued_at", cert.issued_at},
                   {"issued_by", cert.issued_by},
                   {"lab",
@@ -120,8 +121,7 @@ store::CertificateRecord issue_certificate_in(store::Database& db, store::Record
                   {"caution", layout.value("caution", "")}};
   // The recent history travels inside the certificate, so its PDF chart is part of the hashed record.
   if (auto history = certificate_history(db, run); !history.is_null()) cert.content["history"] = history;
-  if (run.procedure == "calibration") add_calibration_content(run, cert.content);
-  if (run.procedure == "gravimetric") add_pipette_certificate_parts(db, run, cert.content);
+  add_procedure_content(db, run, cert.content);
   // A replacement names the certificate it replaces and why, inside its own (unchangeable) content.
   if (replaces) {
     cert.supersedes = replaces->id;

@@ -12,7 +12,9 @@
 #include "app/pipette/registry.hpp"
 #include "app/pipette/record.hpp"
 #include "app/weekly_check/record.hpp"
-#include "app/registry/registry.hpp"
+#include "app/registry/weights.hpp"
+#include "app/registry/balances.hpp"
+#include "app/registry/lab.hpp"
 #include "checks/pipette.hpp"
 #include "core/errors.hpp"
 #include "metrology/gravimetric.hpp"
@@ -178,7 +180,6 @@ DemoSummary build_demo(const std::filesystem::path& path, const std::function<vo
       }
       CheckInput in;
       in.instrument_id = balance.id;
-      in.procedure = "repeatability";
       in.weight_ids = {weight.id};
       in.readings_csv = csv;
       in.readings_source = fmt::format("demo {} week {}", balance.id, week + 1);

@@ -8,7 +8,7 @@
 #include <fstream>
 
 #include "app/status/due.hpp"
-#include "app/registry/registry.hpp"
+#include "app/registry/lab.hpp"
 #include "app/history/trends.hpp"
 #include "core/errors.hpp"
 #include "report/history/charts.hpp"

@@ -180,7 +180,7 @@ HistoryQuantity make(const MeasureInfo& mi, const Point& p) {
   HistoryQuantity q;
   q.key = mi.key;
   q.instrument_kind = "pipette";
-  q.procedure = "gravimetric";
+  q.procedure = checks::Procedure::gravimetric;
   q.label = mi.label;
   q.unit = mi.unit;
   q.uncertainty_basis = mi.uncertainty_basis;

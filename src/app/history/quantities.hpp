@@ -43,7 +43,7 @@ struct QuantityTolerance {
 struct HistoryQuantity {
   std::string key;              ///< what --quantity names: "bias", "sd", "min-weight"
   std::string instrument_kind;  ///< "balance"
-  std::string procedure;        ///< the runs it is read from: "repeatability"
+  checks::Procedure procedure = checks::Procedure::repeatability;  ///< the runs it is read from
   std::string label;            ///< "Bias at the check load"
   std::string unit;             ///< the unit of values, U and limits: "mg"
   std::string uncertainty_basis;  ///< how U was found, stated under every chart and table

@@ -19,7 +19,6 @@ constexpr const char* pipette_caution =
 }  // namespace
 
 void add_pipette_certificate_parts(store::Database& db, const store::RunRecord& run, json& content) {
-  content["title"] = "Pipette check certificate";
   if (const auto p = store::find_pipette(db.sql(), run.instrument_id)) {
     const auto& d = p->definition;
     content["instrument"] = {{"id", d.id},
@@ -47,7 +46,7 @@ void add_pipette_certificate_parts(store::Database& db, const store::RunRecord& 
     }
     if (const auto br = store::find_run(db.sql(), cond->balance_run_id)) {
       balance_used["check_run"] = br->id;
-      balance_used["check_procedure"] = br->procedure;
+      balance_used["check_procedure"] = std::string(checks::to_string(br->procedure));
       balance_used["checked_on"] = to_string(br->performed_on);
       balance_used["check_verdict"] = std::string(to_string(br->verdict));
       balance_used["due_on"] = br->next_due ? json(to_string(*br->next_due)) : json();

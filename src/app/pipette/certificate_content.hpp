@@ -10,7 +10,6 @@
 
 namespace plumb::app {
 
-inline constexpr const char* pipette_certificate_kind = "pipette_check";
 
 /// Completes `content` (assembled by issue_certificate) for a gravimetric run.
 void add_pipette_certificate_parts(store::Database& db, const store::RunRecord& run, nlohmann::json& content);

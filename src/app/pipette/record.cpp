@@ -8,7 +8,7 @@
 #include <map>
 
 #include "app/pipette/registry.hpp"
-#include "app/registry/registry.hpp"
+#include "app/registry/lab.hpp"
 #include "app/registry/service_status.hpp"
 #include "checks/pipette.hpp"
 #include "core/errors.hpp"
@@ -251,7 +251,7 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
 
   store::RunRecord run;
   run.instrument_id = def.id;
-  run.procedure = gravimetric_procedure;
+  run.procedure = checks::Procedure::gravimetric;
   run.performed_on = on;
   run.operator_name = in.operator_name;
   run.results = report::to_json(result);

@@ -35,9 +35,6 @@ struct PipetteCheckInput {
   std::string operator_name;
 };
 
-/// The procedure name of gravimetric pipette runs in check_runs.
-inline constexpr const char* gravimetric_procedure = "gravimetric";
-
 /// Validates, computes and records one pipette check in its own transaction; nothing is written on error.
 store::RunRecord record_pipette_check(store::Database& db, const store::Actor& actor, const PipetteCheckInput& in);
 /// The same inside a transaction the caller holds; returns the new run id.

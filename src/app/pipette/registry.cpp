@@ -6,7 +6,8 @@
 #include <cctype>
 #include <charconv>
 
-#include "app/registry/registry.hpp"
+#include "app/registry/ids.hpp"
+#include "app/registry/lab.hpp"
 #include "core/errors.hpp"
 #include "core/units.hpp"
 #include "store/repository.hpp"

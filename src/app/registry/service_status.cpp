@@ -3,7 +3,7 @@
 #include <SQLiteCpp/Transaction.h>
 #include <fmt/format.h>
 
-#include "app/registry/registry.hpp"
+#include "app/registry/lab.hpp"
 #include "core/errors.hpp"
 #include "store/repository.hpp"
 

@@ -5,7 +5,9 @@
 #include <fmt/ranges.h>
 
 #include "app/certificates/issue.hpp"
+#include "app/runs/resolve.hpp"
 #include "app/weekly_check/record.hpp"
+#include "checks/procedure.hpp"
 #include "core/errors.hpp"
 #include "report/document/layout.hpp"
 #include "store/repository.hpp"
@@ -38,6 +40,17 @@ bool same_record(const store::RunRecord& a, const store::RunRecord& b) {
   return true;
 }
 
+/// Which procedures can be corrected is the registry's to say (checks/procedure.hpp).
+void require_correctable(const store::RunRecord& run) {
+  if (checks::spec(run.procedure).correctable) return;
+  std::vector<std::string_view> correctable;
+  for (const auto p : checks::all_procedures)
+    if (checks::spec(p).correctable) correctable.push_back(checks::to_string(p));
+  throw InputError(fmt::format("run {} is a {} run, which `check correct` cannot correct yet (it corrects runs of: "
+                               "{}).",
+                               run.id, checks::to_string(run.procedure), fmt::join(correctable, ", ")));
+}
+
 }  // namespace
 
 CorrectionOutcome correct_check(store::Database& db, const store::Actor& actor, const CorrectionInput& in) {
@@ -55,14 +68,10 @@ CorrectionOutcome correct_check(store::Database& db, const store::Actor& actor, 
   if (auto newer = superseding_run(db, out.original.id))
     throw InputError(fmt::format("run {} was already corrected by run {}; correct run {} instead.", out.original.id,
                                  newer->id, newer->id));
-  const auto procedures = known_procedures();
-  if (std::find(procedures.begin(), procedures.end(), out.original.procedure) == procedures.end())
-    throw InputError(fmt::format("run {} is a {} run; `check correct` handles: {}.", out.original.id,
-                                 out.original.procedure, fmt::join(procedures, ", ")));
+  require_correctable(out.original);
 
   CheckInput check;
   check.instrument_id = out.original.instrument_id;
-  check.procedure = out.original.procedure;
   check.weight_ids = in.weight_ids ? *in.weight_ids : weight_ids_of(out.original);
   check.readings_csv = in.readings_csv ? *in.readings_csv : readings_as_csv(out.original);
   check.readings_source = in.readings_csv ? in.readings_source : fmt::format("readings of run {}", out.original.id);

@@ -12,6 +12,7 @@
 #include <thread>
 
 #include "app/weekly_check/record.hpp"
+#include "checks/procedure.hpp"
 #include "core/errors.hpp"
 #include "core/history_csv.hpp"
 #include "store/file_digest.hpp"
@@ -31,6 +32,20 @@ std::string as_column_message(std::string message) {
   return message;
 }
 
+/// A history file holds one reading per row: the shape of a weekly check. Other procedures have run files of
+/// their own (calibration loads, pipette volumes) and are recorded with `check record`.
+void require_importable(const std::string& key) {
+  const checks::Procedure p = checks::parse_procedure(key, "procedure");
+  switch (p) {
+    case checks::Procedure::repeatability: return;
+    case checks::Procedure::calibration:
+    case checks::Procedure::gravimetric:
+      throw InputError(fmt::format("procedure \"{}\" cannot be imported from a history file of one reading per row; "
+                                   "record it with `plumb check record ... --procedure {}` and its run file.",
+                                   key, key));
+  }
+}
+
 class Importer {
 public:
   Importer(store::Database& db, store::Recorder& rec, std::string source)
@@ -42,7 +57,6 @@ public:
   store::PreparedGroup prepare(HistoryRun& run) {
     CheckInput in;
     in.instrument_id = std::move(run.instrument);
-    in.procedure = std::move(run.procedure);
     in.weight_ids = std::move(run.weights);
     in.on = run.date;
     in.operator_name = std::move(run.operator_name);
@@ -51,6 +65,7 @@ public:
     in.parsed_readings = std::move(run.readings);
     store::RunRecord built;
     try {
+      require_importable(run.procedure);
       built = build_check_run(lookups_, in);
     } catch (const InputError& e) {
       std::string message = e.what();

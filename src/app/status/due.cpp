@@ -100,8 +100,8 @@ std::vector<DueItem> due_items(store::Database& db, Date on, int within_days, bo
       items.push_back(check_item("balance", s, summary_of(s.latest), std::nullopt, on, within_days));
       return;
     }
-    const auto last = summary_of(store::latest_run_by_procedure(db.sql(), s.id, "calibration", false));
-    const auto cal = summary_of(store::latest_run_by_procedure(db.sql(), s.id, "calibration", true));
+    const auto last = summary_of(store::latest_run_by_procedure(db.sql(), s.id, checks::Procedure::calibration, false));
+    const auto cal = summary_of(store::latest_run_by_procedure(db.sql(), s.id, checks::Procedure::calibration, true));
     items.push_back(check_item("balance", s, last, cal, on, within_days));
     items.push_back(calibration_item(s, settings, cal, on, within_days));
   });

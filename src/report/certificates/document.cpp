@@ -4,6 +4,7 @@
 
 #include <algorithm>
 
+#include "checks/procedure.hpp"
 #include "report/history/charts.hpp"
 
 namespace plumb::report {
@@ -56,13 +57,14 @@ std::string cell(const json& j, const char* key, int significant) {
   return v.dump();
 }
 
-const std::map<std::string, CertificateSections>& certificate_sections() {
-  static const std::map<std::string, CertificateSections> kinds = {
-      {"balance_check", balance_check_sections},
-      {"balance_calibration", balance_calibration_sections},
-      {"pipette_check", pipette_check_sections},
-  };
-  return kinds;
+void kind_sections(const json& c, Document& doc) {
+  const auto procedure = checks::procedure_of_certificate_kind(c.value("kind", ""));
+  if (!procedure) return generic_sections(c, doc);
+  switch (*procedure) {
+    case checks::Procedure::repeatability: return balance_check_sections(c, doc);
+    case checks::Procedure::calibration: return balance_calibration_sections(c, doc);
+    case checks::Procedure::gravimetric: return pipette_check_sections(c, doc);
+  }
 }
 
 Document certificate_document(const json& c, const std::string& content_sha256) {
@@ -81,11 +83,7 @@ Document certificate_document(const json& c, const std::string& content_sha256) 
   doc.blocks.push_back(Heading{"Instrument"});
   doc.blocks.push_back(instrument_block(c.value("instrument", json::object())));
 
-  const auto kinds = certificate_sections();
-  if (auto it = kinds.find(c.value("kind", "")); it != kinds.end())
-    it->second(c, doc);
-  else
-    generic_sections(c, doc);
+  kind_sections(c, doc);
 
   doc.blocks.push_back(Heading{"Statement of conformity"});
   const std::string verdict = c.value("verdict", "");

@@ -3,22 +3,15 @@
 // certificate has (lab header, number and status, instrument, verdict, decision rule, signatures,
 // caution, content hash) are built here; the sections in between come from the certificate's kind.
 //
-// To add a kind (balance calibration, pipette ...): write `void NAME_sections(const json&, Document&)`
-// in its own certificate_<kind>.cpp and add one line to certificate_sections() in certificate_document.cpp.
-// A kind without sections still renders: its check results are listed as key-value pairs.
-#include <functional>
-#include <map>
+// Each procedure's sections live in report/<procedure domain>/certificate_sections.cpp and are chosen by a
+// switch over the procedure registry (checks/procedure.hpp) in certificates/document.cpp. A certificate of a
+// kind the registry does not know still renders: its check results are listed as key-value pairs.
 #include <nlohmann/json.hpp>
 #include <string>
 
 #include "report/document/document.hpp"
 
 namespace plumb::report {
-
-using CertificateSections = std::function<void(const nlohmann::json& certificate, Document& doc)>;
-
-/// Kind -> the sections between the instrument and the verdict.
-const std::map<std::string, CertificateSections>& certificate_sections();
 
 Document certificate_document(const nlohmann::json& certificate, const std::string& content_sha256);
 

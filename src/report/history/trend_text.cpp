@@ -88,7 +88,7 @@ std::string history_text(const HistoryView& v) {
   head += fmt::format("  {:<7}  {:<10}  {}", "verdict", "next due", "note");
   line(out, head);
   for (const auto& r : v.rows) {
-    std::string l = fmt::format("{:>5}  {:<10}  {:<13}  {:<18}", r.run_id, to_string(r.date), r.procedure,
+    std::string l = fmt::format("{:>5}  {:<10}  {:<13}  {:<18}", r.run_id, to_string(r.date), checks::to_string(r.procedure),
                                 r.operator_name.substr(0, 18));
     for (std::size_t i = 0; i < v.columns.size(); ++i)
       l += fmt::format("  {:>16}  {:>8}", num(r.values[i]), num(r.uncertainties[i]));
@@ -113,7 +113,7 @@ std::string history_csv(const HistoryView& v) {
   for (const auto& r : v.rows) {
     std::string name = r.operator_name;
     for (auto p = name.find('"'); p != std::string::npos; p = name.find('"', p + 2)) name.insert(p, "\"");
-    out += fmt::format("{},{},{},\"{}\",{},{},{},{}", r.run_id, to_string(r.date), r.procedure, name, r.verdict,
+    out += fmt::format("{},{},{},\"{}\",{},{},{},{}", r.run_id, to_string(r.date), checks::to_string(r.procedure), name, r.verdict,
                        r.next_due ? to_string(*r.next_due) : "", r.supersedes ? std::to_string(*r.supersedes) : "",
                        r.superseded_by ? std::to_string(*r.superseded_by) : "");
     for (std::size_t i = 0; i < v.columns.size(); ++i)
@@ -135,7 +135,7 @@ json history_json(const HistoryView& v) {
     }
     runs.push_back({{"run_id", r.run_id},
                     {"date", to_string(r.date)},
-                    {"procedure", r.procedure},
+                    {"procedure", std::string(checks::to_string(r.procedure))},
                     {"operator", r.operator_name},
                     {"verdict", r.verdict},
                     {"next_due", date_json(r.next_due)},

@@ -8,6 +8,7 @@
 #include <string>
 #include <vector>
 
+#include "checks/procedure.hpp"
 #include "core/dates.hpp"
 #include "stats/control_chart.hpp"
 #include "stats/drift.hpp"
@@ -29,7 +30,7 @@ struct QuantityView {
 struct HistoryRow {
   std::int64_t run_id = 0;
   Date date;
-  std::string procedure;
+  checks::Procedure procedure = checks::Procedure::repeatability;
   std::string operator_name;
   std::string verdict;
   std::optional<Date> next_due;

@@ -1,5 +1,5 @@
 #pragma once
-// Plain-text summary of one check run (`plumb check show`).
+// Plain-text summary of one check run of any procedure (`plumb check show`), chosen by the procedure.
 #include <nlohmann/json.hpp>
 #include <string>
 

@@ -1,10 +1,13 @@
-#include "app/registry/registry.hpp"
+#include "app/registry/weights.hpp"
 
 #include <SQLiteCpp/Transaction.h>
 #include <fmt/format.h>
 
 #include <array>
+#include <cmath>
 
+#include "app/registry/ids.hpp"
+#include "app/registry/lab.hpp"
 #include "core/errors.hpp"
 #include "store/repository.hpp"
 
@@ -20,33 +23,6 @@ ExactMass positive_mass(const std::string& text, std::string_view field) {
 }
 
 }  // namespace
-
-void validate_id(const std::string& id, std::string_view field) {
-  const bool ok = !id.empty() && id.size() <= 64 && id != "LAST" &&
-                  std::all_of(id.begin(), id.end(), [](unsigned char c) {
-                    return std::isalnum(c) || c == '-' || c == '_' || c == '.';
-                  });
-  if (!ok)
-    throw InputError(fmt::format("{} \"{}\" is not a valid id (1-64 letters, digits, '-', '_' or '.').", field, id));
-}
-
-store::LabRecord require_lab(store::Database& db) {
-  auto lab = store::find_lab(db.sql());
-  if (!lab)
-    throw InputError(fmt::format("database \"{}\" has no lab yet; run `plumb --db {} init --lab NAME` first.",
-                                 db.path().string(), db.path().string()));
-  return *lab;
-}
-
-void init_lab(store::Database& db, const store::Actor& actor, const std::string& name) {
-  if (name.empty() || name.size() > 200) throw InputError("--lab must name the laboratory (1-200 characters).");
-  SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
-  if (auto lab = store::find_lab(db.sql()))
-    throw InputError(fmt::format("database \"{}\" is already set up for lab \"{}\".", db.path().string(), lab->name));
-  store::Recorder rec(db.sql(), actor);
-  store::add_lab(rec, name);
-  tx.commit();
-}
 
 store::WeightRecord add_weight(store::Database& db, const store::Actor& actor, const WeightInput& in) {
   validate_id(in.id, "weight id");
@@ -90,41 +66,6 @@ store::WeightRecord add_weight(store::Database& db, const store::Actor& actor, c
   store::add_weight(rec, w);
   tx.commit();
   return *store::find_weight(db.sql(), w.id);
-}
-
-store::BalanceRecord add_balance(store::Database& db, const store::Actor& actor, const BalanceInput& in) {
-  validate_id(in.id, "balance id");
-  store::BalanceRecord b;
-  b.id = in.id;
-  b.location = in.location;
-  b.capacity = positive_mass(in.capacity, "--capacity");
-  b.readability = positive_mass(in.readability, "--readability");
-  if (b.readability >= b.capacity)
-    throw InputError(fmt::format("--readability {} must be smaller than --capacity {}.", in.readability, in.capacity));
-  b.every = Interval::parse(in.every, "--every");
-  b.created_on = in.since ? parse_date(*in.since, "--since") : today_utc();
-  if (in.smallest_net) {
-    b.smallest_net = positive_mass(*in.smallest_net, "--smallest-net");
-    if (*b.smallest_net > b.capacity)
-      throw InputError(fmt::format("--smallest-net {} exceeds --capacity {}.", *in.smallest_net, in.capacity));
-  }
-  if (in.max_bias || in.max_sd) {
-    b.policy.kind = TolerancePolicy::Kind::lab;
-    if (in.max_bias) b.policy.max_bias = positive_mass(*in.max_bias, "--max-bias");
-    if (in.max_sd) b.policy.max_sd = positive_mass(*in.max_sd, "--max-sd");
-  } else if (!b.smallest_net) {
-    throw InputError("--smallest-net is required for the default USP <41> policy (or give the lab's own "
-                     "--max-bias / --max-sd).");
-  }
-
-  SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
-  require_lab(db);
-  if (store::instrument_exists(db.sql(), b.id))
-    throw InputError(fmt::format("instrument id \"{}\" already exists.", b.id));
-  store::Recorder rec(db.sql(), actor);
-  store::add_balance(rec, b);
-  tx.commit();
-  return b;
 }
 
 }  // namespace plumb::app
