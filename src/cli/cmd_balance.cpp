@@ -1,9 +1,8 @@
 #include <fmt/ostream.h>
 
-#include <nlohmann/json.hpp>
-
 #include "app/registry/balances.hpp"
 #include "cli/command_groups.hpp"
+#include "report/registry/lists.hpp"
 #include "store/repository.hpp"
 
 namespace plumb::cli {
@@ -44,30 +43,14 @@ std::vector<Command> balance_commands() {
                 return 0;
               }};
   Command list{"balance", "list", "list balances", "plumb balance list",
-               [](po::options_description& d, po::positional_options_description&) { add_format_option(d); },
+               [](po::options_description& d, po::positional_options_description&) { add_format_option(d, "text|json|csv"); },
                [](const po::variables_map& vm, Env& env) {
-                 const auto format = format_of(vm, {"text", "json"});
+                 const auto format = format_of(vm, {"text", "json", "csv"});
                  auto db = env.open();
                  const auto balances = store::list_balances(db.sql());
-                 if (format == "json") {
-                   nlohmann::json j = nlohmann::json::array();
-                   for (const auto& b : balances)
-                     j.push_back({{"id", b.id},
-                                  {"location", b.location},
-                                  {"capacity_g", b.capacity.approx().g},
-                                  {"readability_g", b.readability.approx().g},
-                                  {"smallest_net_g", b.smallest_net ? nlohmann::json(b.smallest_net->approx().g)
-                                                                    : nlohmann::json()},
-                                  {"every", b.every.to_string()},
-                                  {"policy", b.policy.key()}});
-                   env.out << j.dump(2) << "\n";
-                   return 0;
-                 }
-                 fmt::print(env.out, "{:<10}{:<12}{:<12}{:<8}{:<12}{}\n", "id", "capacity", "d", "every", "policy",
-                            "location");
-                 for (const auto& b : balances)
-                   fmt::print(env.out, "{:<10}{:<12}{:<12}{:<8}{:<12}{}\n", b.id, b.capacity.to_string(),
-                              b.readability.to_string(), b.every.to_string(), b.policy.key(), b.location);
+                 if (format == "json") env.out << report::balances_json(balances).dump(2) << "\n";
+                 else if (format == "csv") env.out << report::balances_csv(balances);
+                 else env.out << report::balances_text(balances);
                  return 0;
                }};
   return {add, list};

@@ -1,10 +1,9 @@
 #include <fmt/ostream.h>
 
-#include <nlohmann/json.hpp>
-
 #include "app/status/due.hpp"
 #include "cli/command_groups.hpp"
 #include "core/errors.hpp"
+#include "report/status/due_list.hpp"
 
 namespace plumb::cli {
 
@@ -24,35 +23,9 @@ std::vector<Command> due_commands() {
                 const int days = days_between(on, add_interval(on, within));
                 auto db = env.open();
                 const auto items = app::due_items(db, on, days, vm["all"].as<bool>());
-                if (format == "json") {
-                  nlohmann::json list = nlohmann::json::array();
-                  for (const auto& i : items)
-                    list.push_back({{"kind", i.kind},
-                                    {"id", i.id},
-                                    {"location", i.location},
-                                    {"status", i.status},
-                                    {"due_on", i.due_on ? nlohmann::json(to_string(*i.due_on)) : nlohmann::json()},
-                                    {"days_left", i.days_left ? nlohmann::json(*i.days_left) : nlohmann::json()},
-                                    {"detail", i.detail}});
-                  env.out << nlohmann::json{{"on", to_string(on)}, {"within_days", days}, {"items", list}}.dump(2)
-                          << "\n";
-                  return 0;
-                }
-                if (format == "csv") {
-                  env.out << "kind,id,status,due_on,days_left,location,detail\n";
-                  for (const auto& i : items)
-                    fmt::print(env.out, "{},{},{},{},{},\"{}\",\"{}\"\n", i.kind, i.id, i.status,
-                               i.due_on ? to_string(*i.due_on) : "", i.days_left ? std::to_string(*i.days_left) : "",
-                               i.location, i.detail);
-                  return 0;
-                }
-                fmt::print(env.out, "Due on or before {} ({} days from {}):\n", to_string(add_days(on, days)), days,
-                           to_string(on));
-                if (items.empty()) fmt::print(env.out, "  nothing is due.\n");
-                for (const auto& i : items)
-                  fmt::print(env.out, "  {:<12}{:<10}{:<16}{:<12}{:>10}  {}\n", i.kind, i.id, i.status,
-                             i.due_on ? to_string(*i.due_on) : "-",
-                             i.days_left ? fmt::format("{} d", *i.days_left) : "", i.detail);
+                if (format == "json") env.out << report::due_json(items, on, days).dump(2) << "\n";
+                else if (format == "csv") env.out << report::due_csv(items);
+                else env.out << report::due_text(items, on, days);
                 return 0;
               }};
   return {due};

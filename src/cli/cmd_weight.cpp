@@ -1,30 +1,11 @@
 #include <fmt/ostream.h>
 
-#include <nlohmann/json.hpp>
-
 #include "app/registry/weights.hpp"
 #include "cli/command_groups.hpp"
+#include "report/registry/lists.hpp"
 #include "store/repository.hpp"
 
 namespace plumb::cli {
-namespace {
-
-nlohmann::json weight_json(const store::WeightRecord& w) {
-  return {{"id", w.id},
-          {"nominal", w.nominal_text},
-          {"nominal_g", w.nominal.approx().g},
-          {"class", w.weight_class},
-          {"conventional_mass_g", w.conventional_mass().approx().g},
-          {"correction_mg", w.current.correction.approx().mg()},
-          {"uncertainty_mg", w.current.uncertainty.approx().mg()},
-          {"k", w.current.k.to_double()},
-          {"certificate", w.current.certificate_no},
-          {"calibrated_on", to_string(w.current.calibrated_on)},
-          {"due_on", to_string(w.current.due_on)}};
-}
-
-}  // namespace
-
 std::vector<Command> weight_commands() {
   Command add{"weight", "add", "register a reference weight with its calibration certificate",
               "plumb weight add W100 --nominal 100g --class E2 --correction 0.03mg --uncertainty 0.05mg --k 2 "
@@ -64,23 +45,14 @@ std::vector<Command> weight_commands() {
                 return 0;
               }};
   Command list{"weight", "list", "list reference weights with their current certificates", "plumb weight list --format json",
-               [](po::options_description& d, po::positional_options_description&) { add_format_option(d); },
+               [](po::options_description& d, po::positional_options_description&) { add_format_option(d, "text|json|csv"); },
                [](const po::variables_map& vm, Env& env) {
-                 const auto format = format_of(vm, {"text", "json"});
+                 const auto format = format_of(vm, {"text", "json", "csv"});
                  auto db = env.open();
                  const auto weights = store::list_weights(db.sql());
-                 if (format == "json") {
-                   nlohmann::json j = nlohmann::json::array();
-                   for (const auto& w : weights) j.push_back(weight_json(w));
-                   env.out << j.dump(2) << "\n";
-                   return 0;
-                 }
-                 fmt::print(env.out, "{:<10}{:<10}{:<6}{:<22}{:<14}{:<12}\n", "id", "nominal", "class",
-                            "conventional mass (g)", "certificate", "due");
-                 for (const auto& w : weights)
-                   fmt::print(env.out, "{:<10}{:<10}{:<6}{:<22}{:<14}{:<12}\n", w.id, w.nominal_text, w.weight_class,
-                              w.conventional_mass().in_grams().to_string(), w.current.certificate_no,
-                              to_string(w.current.due_on));
+                 if (format == "json") env.out << report::weights_json(weights).dump(2) << "\n";
+                 else if (format == "csv") env.out << report::weights_csv(weights);
+                 else env.out << report::weights_text(weights);
                  return 0;
                }};
   return {add, list};

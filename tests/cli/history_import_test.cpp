@@ -113,7 +113,7 @@ TEST_CASE("lab summary shows each instrument's latest result and agrees with the
   r = run_plumb({"--db", db, "summary", "--on", "2026-06-01", "--format", "csv"}, dir.path());
   REQUIRE(r.status == 0);
   CHECK_THAT(r.out, Catch::StartsWith("id,kind,location,status,next_due,days_left,last_run"));
-  CHECK_THAT(r.out, Catch::Contains("BAL-A,balance,Room 2,overdue,2026-04-13,-49,1,2026-04-06,repeatability,pass"));
+  CHECK_THAT(r.out, Catch::Contains("BAL-A,balance,\"Room 2\",overdue,2026-04-13,-49,1,2026-04-06,repeatability,pass"));
 
   r = run_plumb({"--db", db, "due", "--on", "2026-06-01", "--format", "csv"}, dir.path());
   REQUIRE(r.status == 0);

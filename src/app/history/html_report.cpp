@@ -82,7 +82,7 @@ report::HtmlReport history_report(store::Database& db, const HistoryReportReques
   }
   for (const auto& d : due_items(db, r.on, 14, true))
     if (!r.instrument || d.id == *r.instrument || d.kind == "weight")
-      out.due.push_back({d.kind, d.id, d.location, d.status, d.due_on, d.days_left, d.detail});
+      out.due.push_back(d);
 
   for (const auto& id : ids) {
     const InstrumentInfo inst = find_instrument(db, id);

@@ -39,9 +39,9 @@ std::optional<RunSummary> summary_of(const std::optional<store::RunRecord>& r) {
 /// The weekly-check line of an instrument from its latest check (and, for a calibrated balance, its
 /// latest calibration: a passing calibration counts as a passing check of its day, a failed one takes
 /// the balance out of service; see app/calibration/record.hpp).
-DueItem check_item(const std::string& kind, const store::InstrumentStatus& s, const std::optional<RunSummary>& last,
+report::DueItem check_item(const std::string& kind, const store::InstrumentStatus& s, const std::optional<RunSummary>& last,
                    const std::optional<RunSummary>& cal, Date on, int within_days) {
-  DueItem item{kind, s.id, s.location, "", std::nullopt, std::nullopt, ""};
+  report::DueItem item{kind, s.id, s.location, "", std::nullopt, std::nullopt, ""};
   const bool cal_failed = cal && cal->verdict == Verdict::fail;
   const bool cal_counts = cal && cal->verdict == Verdict::pass && (!last || cal->performed_on >= last->performed_on);
   if (cal_failed) {
@@ -65,9 +65,9 @@ DueItem check_item(const std::string& kind, const store::InstrumentStatus& s, co
   return item;
 }
 
-DueItem calibration_item(const store::InstrumentStatus& s, const std::optional<store::CalibrationSettings>& settings,
+report::DueItem calibration_item(const store::InstrumentStatus& s, const std::optional<store::CalibrationSettings>& settings,
                          const std::optional<RunSummary>& cal, Date on, int within_days) {
-  DueItem c{"calibration", s.id, s.location, "", std::nullopt, std::nullopt, ""};
+  report::DueItem c{"calibration", s.id, s.location, "", std::nullopt, std::nullopt, ""};
   if (cal && cal->verdict == Verdict::fail) {
     c.status = "out of service";
     c.detail = fmt::format("failed calibration run {} on {}", cal->id, to_string(cal->performed_on));
@@ -83,8 +83,8 @@ DueItem calibration_item(const store::InstrumentStatus& s, const std::optional<s
 
 }  // namespace
 
-std::vector<DueItem> due_items(store::Database& db, Date on, int within_days, bool everything) {
-  std::vector<DueItem> items;
+std::vector<report::DueItem> due_items(store::Database& db, Date on, int within_days, bool everything) {
+  std::vector<report::DueItem> items;
   // One set-based query gives every instrument's latest run, so a large lab is not one query per
   // instrument; only balances with calibration settings need their calibration looked up apart.
   const auto all_settings = store::all_current_calibration_settings(db.sql());
@@ -106,7 +106,7 @@ std::vector<DueItem> due_items(store::Database& db, Date on, int within_days, bo
     items.push_back(calibration_item(s, settings, cal, on, within_days));
   });
   for (const auto& w : store::list_weights(db.sql())) {
-    DueItem item{"weight", w.id, "", "", w.current.due_on, days_between(on, w.current.due_on),
+    report::DueItem item{"weight", w.id, "", "", w.current.due_on, days_between(on, w.current.due_on),
                  fmt::format("certificate {} ({} class {})", w.current.certificate_no, w.nominal_text, w.weight_class)};
     item.status = timing_status(*item.days_left, within_days);
     items.push_back(std::move(item));
@@ -114,11 +114,11 @@ std::vector<DueItem> due_items(store::Database& db, Date on, int within_days, bo
   // Retired instruments and weights are kept in history but are not due for anything.
   const auto retired_instruments = store::retired_ids(db.sql(), "instrument");
   const auto retired_weights = store::retired_ids(db.sql(), "weight");
-  std::erase_if(items, [&](const DueItem& i) {
+  std::erase_if(items, [&](const report::DueItem& i) {
     return i.kind == "weight" ? retired_weights.count(i.id) > 0 : retired_instruments.count(i.id) > 0;
   });
-  if (!everything) std::erase_if(items, [](const DueItem& i) { return i.status == "in date"; });
-  std::stable_sort(items.begin(), items.end(), [](const DueItem& a, const DueItem& b) {
+  if (!everything) std::erase_if(items, [](const report::DueItem& i) { return i.status == "in date"; });
+  std::stable_sort(items.begin(), items.end(), [](const report::DueItem& a, const report::DueItem& b) {
     const bool a_out = a.status == "out of service", b_out = b.status == "out of service";
     if (a_out != b_out) return a_out;
     return a.days_left.value_or(0) < b.days_left.value_or(0);

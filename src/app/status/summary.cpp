@@ -2,8 +2,8 @@
 
 namespace plumb::app {
 
-void lab_summary(store::Database& db, Date on, const std::function<void(const SummaryRow&)>& visit) {
-  SummaryRow row;
+void lab_summary(store::Database& db, Date on, const std::function<void(const report::SummaryRow&)>& visit) {
+  report::SummaryRow row;
   store::for_each_instrument_status(db.sql(), "", [&](const store::InstrumentStatus& s) {
     row.instrument = s;
     row.next_due.reset();

@@ -8,18 +8,12 @@
 
 #include "core/dates.hpp"
 #include "store/database.hpp"
-#include "store/lab_status.hpp"
+#include "report/status/views.hpp"
 
 namespace plumb::app {
 
-struct SummaryRow {
-  store::InstrumentStatus instrument;
-  std::string status;              ///< "out of service", "overdue", "in date" (as of the reference date)
-  std::optional<Date> next_due;    ///< absent when out of service
-  std::optional<int> days_left;    ///< negative when overdue
-};
 
 /// Visits every instrument in id order as of `on`.
-void lab_summary(store::Database& db, Date on, const std::function<void(const SummaryRow&)>& visit);
+void lab_summary(store::Database& db, Date on, const std::function<void(const report::SummaryRow&)>& visit);
 
 }  // namespace plumb::app

@@ -32,7 +32,7 @@ std::string status_class(const std::string& status) {
   return status == "in date" || status == "due" ? "status-ok" : "status-bad";
 }
 
-void due_table(std::string& out, const std::vector<DueRow>& due) {
+void due_table(std::string& out, const std::vector<DueItem>& due) {
   out += "<table><tr><th>Kind</th><th>Id</th><th>Location</th><th>Status</th><th>Due on</th><th>Days left</th>"
          "<th>Detail</th></tr>\n";
   for (const auto& d : due)

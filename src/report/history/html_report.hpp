@@ -7,15 +7,10 @@
 
 #include "core/dates.hpp"
 #include "report/history/views.hpp"
+#include "report/status/views.hpp"
 
 namespace plumb::report {
 
-struct DueRow {
-  std::string kind, id, location, status;
-  std::optional<Date> due_on;
-  std::optional<int> days_left;
-  std::string detail;
-};
 
 struct InstrumentSection {
   std::string id, title, location, status;
@@ -28,7 +23,7 @@ struct HtmlReport {
   std::string lab_name;
   Date on;
   std::string scope;  ///< "the whole laboratory" or "balance AB-01"
-  std::vector<DueRow> due;
+  std::vector<DueItem> due;
   std::vector<InstrumentSection> instruments;
   std::string caution;
 };

@@ -3,7 +3,9 @@
 #include <fmt/format.h>
 
 #include <algorithm>
+#include <sstream>
 
+#include "report/format/csv.hpp"
 #include "report/format/text.hpp"
 
 namespace plumb::report {
@@ -107,21 +109,26 @@ std::string history_text(const HistoryView& v) {
 }
 
 std::string history_csv(const HistoryView& v) {
-  std::string out = "run_id,date,procedure,operator,verdict,next_due,supersedes,superseded_by";
-  for (const auto& c : v.columns) out += "," + value_key(c.key, c.unit) + "," + value_key(c.key, c.unit, "u");
-  out += "\n";
+  std::ostringstream out;
+  CsvWriter csv(out);
+  for (const auto* name : {"run_id", "date", "procedure", "operator", "verdict", "next_due", "supersedes",
+                           "superseded_by"})
+    csv.value(name);
+  for (const auto& c : v.columns) csv.value(value_key(c.key, c.unit)).value(value_key(c.key, c.unit, "u"));
+  csv.end_row();
+  const auto optional_id = [&](const std::optional<std::int64_t>& id) { id ? csv.integer(*id) : csv.empty(); };
   for (const auto& r : v.rows) {
-    std::string name = r.operator_name;
-    for (auto p = name.find('"'); p != std::string::npos; p = name.find('"', p + 2)) name.insert(p, "\"");
-    out += fmt::format("{},{},{},\"{}\",{},{},{},{}", r.run_id, to_string(r.date), checks::to_string(r.procedure), name, r.verdict,
-                       r.next_due ? to_string(*r.next_due) : "", r.supersedes ? std::to_string(*r.supersedes) : "",
-                       r.superseded_by ? std::to_string(*r.superseded_by) : "");
-    for (std::size_t i = 0; i < v.columns.size(); ++i)
-      out += fmt::format(",{},{}", r.values[i] ? fmt::format("{:.10g}", *r.values[i]) : "",
-                         r.uncertainties[i] ? fmt::format("{:.6g}", *r.uncertainties[i]) : "");
-    out += "\n";
+    csv.integer(r.run_id).value(to_string(r.date)).value(checks::to_string(r.procedure)).text(r.operator_name);
+    csv.value(r.verdict).value(r.next_due ? to_string(*r.next_due) : "");
+    optional_id(r.supersedes);
+    optional_id(r.superseded_by);
+    for (std::size_t i = 0; i < v.columns.size(); ++i) {
+      csv.value(r.values[i] ? fmt::format("{:.10g}", *r.values[i]) : "");
+      csv.value(r.uncertainties[i] ? fmt::format("{:.6g}", *r.uncertainties[i]) : "");
+    }
+    csv.end_row();
   }
-  return out;
+  return out.str();
 }
 
 json history_json(const HistoryView& v) {

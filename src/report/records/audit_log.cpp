@@ -2,6 +2,10 @@
 
 #include <fmt/format.h>
 
+#include <sstream>
+
+#include "report/format/csv.hpp"
+
 namespace plumb::report {
 namespace {
 
@@ -11,13 +15,6 @@ json parsed_or_null(const std::optional<std::string>& text) {
   if (!text) return json();
   json j = json::parse(*text, nullptr, false);
   return j.is_discarded() ? json(*text) : j;
-}
-
-std::string csv_field(const std::string& s) {
-  if (s.find_first_of(",\"\r\n") == std::string::npos) return s;
-  std::string q = "\"";
-  for (char c : s) q += c == '"' ? std::string("\"\"") : std::string(1, c);
-  return q + "\"";
 }
 
 /// "column=value, ..." with long values (stored results, certificate content) shortened for reading.
@@ -58,13 +55,17 @@ std::string audit_log_text(const std::string& scope, const std::vector<store::Au
 }
 
 std::string audit_log_csv(const std::vector<store::AuditRecord>& records) {
-  std::string out = "seq,at_utc,actor,os_user,action,table,row_key,reason,before_json,after_json,prev_hash,hash\n";
-  for (const auto& r : records)
-    out += fmt::format("{},{},{},{},{},{},{},{},{},{},{},{}\n", r.seq, r.at, csv_field(r.actor), csv_field(r.os_user),
-                       r.action, r.table_name, csv_field(r.row_key), csv_field(r.reason.value_or("")),
-                       csv_field(r.before_json.value_or("")), csv_field(r.after_json.value_or("")), r.prev_hash,
-                       r.hash);
-  return out;
+  std::ostringstream out;
+  CsvWriter csv(out);
+  csv.header({"seq", "at_utc", "actor", "os_user", "action", "table", "row_key", "reason", "before_json", "after_json",
+              "prev_hash", "hash"});
+  for (const auto& r : records) {
+    csv.integer(r.seq).value(r.at).text(r.actor).text(r.os_user).value(r.action).value(r.table_name);
+    csv.value(r.row_key).text(r.reason.value_or("")).text(r.before_json.value_or("")).text(r.after_json.value_or(""));
+    csv.value(r.prev_hash).value(r.hash);
+    csv.end_row();
+  }
+  return out.str();
 }
 
 namespace {

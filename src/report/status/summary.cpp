@@ -1,0 +1,93 @@
+#include "report/status/summary.hpp"
+
+#include <fmt/ostream.h>
+
+#include <nlohmann/json.hpp>
+
+#include "report/format/csv.hpp"
+
+namespace plumb::report {
+namespace {
+
+std::string opt_date(const std::optional<Date>& d) { return d ? to_string(*d) : ""; }
+std::string opt_number(const std::optional<double>& v) { return v ? fmt::format("{:.6g}", *v) : ""; }
+std::string opt_int(const std::optional<int>& v) { return v ? std::to_string(*v) : ""; }
+
+nlohmann::json row_json(const SummaryRow& r) {
+  const auto& i = r.instrument;
+  const auto opt = [](const auto& v) { return v ? nlohmann::json(*v) : nlohmann::json(); };
+  nlohmann::json latest;
+  if (i.latest)
+    latest = {{"run_id", i.latest->run_id},
+              {"procedure", std::string(checks::to_string(i.latest->procedure))},
+              {"date", to_string(i.latest->performed_on)},
+              {"operator", i.latest->operator_name},
+              {"verdict", std::string(to_string(i.latest->verdict))},
+              {"bias_g", opt(i.latest->bias_g)},
+              {"sd_g", opt(i.latest->sd_g)}};
+  return {{"id", i.id},
+          {"kind", i.kind},
+          {"location", i.location},
+          {"check_every", i.check_every},
+          {"status", r.status},
+          {"next_due", r.next_due ? nlohmann::json(to_string(*r.next_due)) : nlohmann::json()},
+          {"days_left", opt(r.days_left)},
+          {"latest", latest}};
+}
+
+constexpr const char* text_row = "{:<16}{:<9}{:<16}{:<12}{:>6}  {:<11}{:<8}{:>13}{:>13}\n";
+
+}  // namespace
+
+SummaryWriter::SummaryWriter(std::ostream& out, SummaryFormat format, Date on) : out_(out), format_(format) {
+  switch (format_) {
+    case SummaryFormat::json: fmt::print(out_, "{{\n  \"on\": \"{}\",\n  \"instruments\": [", to_string(on)); break;
+    case SummaryFormat::csv:
+      CsvWriter(out_).header({"id", "kind", "location", "status", "next_due", "days_left", "last_run", "last_date",
+                              "procedure", "verdict", "bias_g", "sd_g"});
+      break;
+    case SummaryFormat::text:
+      fmt::print(out_, "Lab summary on {}:\n", to_string(on));
+      fmt::print(out_, text_row, "instrument", "kind", "status", "next due", "days", "last check", "verdict",
+                 "bias (g)", "s (g)");
+      break;
+  }
+}
+
+void SummaryWriter::row(const SummaryRow& r) {
+  const auto& i = r.instrument;
+  const auto& l = i.latest;
+  switch (format_) {
+    case SummaryFormat::json: out_ << (count_ ? ",\n    " : "\n    ") << row_json(r).dump(); break;
+    case SummaryFormat::csv: {
+      CsvWriter csv(out_);
+      csv.value(i.id).value(i.kind).text(i.location).value(r.status).value(opt_date(r.next_due));
+      csv.value(opt_int(r.days_left));
+      if (l) {
+        csv.integer(l->run_id).value(to_string(l->performed_on)).value(checks::to_string(l->procedure));
+        csv.value(to_string(l->verdict)).value(opt_number(l->bias_g)).value(opt_number(l->sd_g));
+      } else {
+        csv.empty().empty().empty().empty().empty().empty();
+      }
+      csv.end_row();
+      break;
+    }
+    case SummaryFormat::text:
+      fmt::print(out_, text_row, i.id, i.kind, r.status, r.next_due ? to_string(*r.next_due) : "-",
+                 opt_int(r.days_left), l ? to_string(l->performed_on) : "never",
+                 l ? std::string(to_string(l->verdict)) : "-", l ? opt_number(l->bias_g) : "",
+                 l ? opt_number(l->sd_g) : "");
+      break;
+  }
+  ++count_;
+}
+
+void SummaryWriter::finish() {
+  switch (format_) {
+    case SummaryFormat::json: out_ << (count_ ? "\n  ]\n}\n" : "]\n}\n"); break;
+    case SummaryFormat::csv: break;
+    case SummaryFormat::text: fmt::print(out_, "{} instrument(s).\n", count_); break;
+  }
+}
+
+}  // namespace plumb::report
