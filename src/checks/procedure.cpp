@@ -16,6 +16,12 @@ constexpr std::array<std::string_view, 5> calibration_options{"temperature", "pr
                                                               "model"};
 constexpr std::array<std::string_view, 5> gravimetric_options{"balance", "water-temp", "pressure", "humidity",
                                                               "evaporation"};
+constexpr std::array<std::string_view, 8> repeatability_results{"n",           "mean_g",  "reference_g", "bias_g",
+                                                                 "sd_g",        "min_weight_g", "criteria", "reasons"};
+constexpr std::array<std::string_view, 7> calibration_results{"as_found",    "as_left",  "final_stage", "final_state",
+                                                              "environment", "settings", "weights_used"};
+constexpr std::array<std::string_view, 6> gravimetric_results{"volumes", "z",      "environment",
+                                                              "balance", "pipette", "reasons"};
 constexpr std::array<std::string_view, 9> every_option{"weight",     "temperature", "pressure",
                                                        "humidity",   "air-formula", "model",
                                                        "balance",    "water-temp",  "evaporation"};
@@ -32,7 +38,8 @@ ProcedureSpec make_spec(Procedure p) {
               "balance_check",
               "Balance check certificate",
               true,
-              repeatability_options};
+              repeatability_options,
+              repeatability_results};
     case Procedure::calibration:
       return {p,
               "calibration",
@@ -43,7 +50,8 @@ ProcedureSpec make_spec(Procedure p) {
               "balance_calibration",
               "Balance calibration certificate",
               false,
-              calibration_options};
+              calibration_options,
+              calibration_results};
     case Procedure::gravimetric:
       return {p,
               "gravimetric",
@@ -54,7 +62,8 @@ ProcedureSpec make_spec(Procedure p) {
               "pipette_check",
               "Pipette check certificate",
               false,
-              gravimetric_options};
+              gravimetric_options,
+              gravimetric_results};
   }
   throw std::logic_error("unknown procedure");  // not reached: the switch names every Procedure
 }

@@ -29,6 +29,9 @@ struct ProcedureSpec {
   /// The `check record` options this procedure takes beyond those every procedure takes (instrument,
   /// procedure, readings, unit, on, by, format, gate). Any other procedure-specific option is refused.
   std::span<const std::string_view> options;
+  /// Members the stored results of every run always hold (the JSON shape scripts may rely on, beside the
+  /// run's own members: run_id, instrument, procedure, date, operator, verdict, next_due, readings ...).
+  std::span<const std::string_view> result_keys;
 };
 
 /// A procedure goes into JSON as its key, written on purpose (std::string(to_string(p))): an implicit

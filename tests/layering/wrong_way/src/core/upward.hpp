@@ -1,0 +1,3 @@
+#pragma once
+// A deliberate wrong-way include: the layer check must refuse this tree.
+#include "app/registry/lab.hpp"
