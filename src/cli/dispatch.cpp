@@ -7,11 +7,10 @@
 
 #include "cli/command.hpp"
 #include "core/errors.hpp"
+#include "plumb/version.hpp"
 
 namespace plumb::cli {
 namespace {
-
-constexpr const char* version = "0.1.0";
 
 void print_usage(std::ostream& out) {
   out << "plumb: calibration and verification records for laboratory balances and pipettes\n\n"
@@ -81,7 +80,7 @@ int run(int argc, const char* const* argv, std::ostream& out, std::ostream& err)
         return 0;
       }
       if (args[i] == "--version") {
-        out << "plumb " << version << "\n";
+        out << "plumb " << plumb::version << "\n";
         return 0;
       }
       if (args[i] == "--db" && i + 1 < args.size()) {
