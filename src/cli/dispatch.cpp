@@ -5,6 +5,7 @@
 
 #include <iostream>
 
+#include "cli/bash_completion.hpp"
 #include "cli/command.hpp"
 #include "cli/help_text.hpp"
 #include "cli/manual_page.hpp"
@@ -80,9 +81,13 @@ int run(int argc, const char* const* argv, std::ostream& out, std::ostream& err)
         out << "plumb " << plumb::version << "\n";
         return 0;
       }
-      // Hidden (DEVELOPERS.md): the build writes the manual page from the command table with it.
+      // Hidden (DEVELOPERS.md): the build writes the manual page and the completion from the command table.
       if (args[i] == "--print-man") {
         write_manual_page(out);
+        return 0;
+      }
+      if (args[i] == "--print-bash-completion") {
+        write_bash_completion(out);
         return 0;
       }
       if (args[i] == "--db" && i + 1 < args.size()) {

@@ -79,12 +79,16 @@ std::vector<std::string> positional_names(const po::positional_options_descripti
 
 bool takes_path(const po::option_description& o) {
   if (o.semantic()->max_tokens() == 0) return false;
-  std::string text = o.description();
+  const std::string& description = o.description();
+  std::string text = description;
   std::transform(text.begin(), text.end(), text.begin(),
                  [](unsigned char ch) { return static_cast<char>(std::tolower(ch)); });
-  // The descriptions say what the value is; a path is always called a file, a CSV, a folder or a layout.
-  for (const char* word : {"file", "csv", "folder", "directory", "layout"})
+  // The descriptions say what the value is: a path is called a file, a folder or a layout, or a CSV or JSON
+  // (in capitals; "text|csv|json" names formats, not files).
+  for (const char* word : {"file", "folder", "directory", "layout"})
     if (text.find(word) != std::string::npos) return true;
+  for (const char* word : {"CSV", "JSON"})
+    if (description.find(word) != std::string::npos) return true;
   return false;
 }
 
