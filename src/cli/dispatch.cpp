@@ -5,33 +5,30 @@
 
 #include <iostream>
 
+#include "cli/bash_completion.hpp"
 #include "cli/command.hpp"
+#include "cli/help_text.hpp"
+#include "cli/manual_page.hpp"
 #include "core/errors.hpp"
+#include "plumb/version.hpp"
 
 namespace plumb::cli {
 namespace {
 
-constexpr const char* version = "0.1.0";
-
 void print_usage(std::ostream& out) {
-  out << "plumb: calibration and verification records for laboratory balances and pipettes\n\n"
-         "usage: plumb [--db PATH] NOUN [VERB] [options]\n\n"
-         "global options:\n"
-         "  --db PATH     database file (default: $PLUMB_DB, else $XDG_DATA_HOME/plumb/plumb.db)\n"
-         "  --help        this help; `plumb NOUN VERB --help` explains one command\n"
-         "  --version     print the version\n\ncommands:\n";
-  for (const auto& c : commands()) {
-    const std::string name = c.verb.empty() ? c.noun : c.noun + " " + c.verb;
-    out << fmt::format("  {:<22}{}\n", name, c.summary);
-  }
-  out << "\nexit status: 0 ok, 1 a check failed where --gate was asked or a verification failed, 2 bad input "
-         "(nothing written), "
-         "3 storage or internal error\n";
+  out << "plumb: " << help::tagline << "\n\nusage: " << help::usage << "\n\nglobal options:\n";
+  for (const auto& g : help::global_options())
+    out << fmt::format("  {:<14}{}\n", g.parameter.empty() ? g.name : g.name + " " + g.parameter, g.description);
+  out << "\ncommands:\n";
+  for (const auto& c : commands()) out << fmt::format("  {:<22}{}\n", help::command_name(c), c.summary);
+  std::vector<std::string> statuses;
+  for (const auto& s : help::exit_statuses()) statuses.push_back(fmt::format("{} {}", s.code, s.meaning));
+  out << fmt::format("\nexit status: {}\n", fmt::join(statuses, ", "));
 }
 
 void print_command_help(const Command& c, const po::options_description& d, std::ostream& out) {
-  const std::string name = c.verb.empty() ? c.noun : c.noun + " " + c.verb;
-  out << fmt::format("plumb {}: {}\n\n{}\nexample:\n  {}\n", name, c.summary, fmt::streamed(d), c.example);
+  out << fmt::format("plumb {}: {}\n\n{}\nexample:\n  {}\n", help::command_name(c), c.summary, fmt::streamed(d),
+                     c.example);
 }
 
 std::string describe(const po::error& e) {
@@ -81,7 +78,16 @@ int run(int argc, const char* const* argv, std::ostream& out, std::ostream& err)
         return 0;
       }
       if (args[i] == "--version") {
-        out << "plumb " << version << "\n";
+        out << "plumb " << plumb::version << "\n";
+        return 0;
+      }
+      // Hidden (DEVELOPERS.md): the build writes the manual page and the completion from the command table.
+      if (args[i] == "--print-man") {
+        write_manual_page(out);
+        return 0;
+      }
+      if (args[i] == "--print-bash-completion") {
+        write_bash_completion(out);
         return 0;
       }
       if (args[i] == "--db" && i + 1 < args.size()) {
@@ -123,8 +129,7 @@ int run(int argc, const char* const* argv, std::ostream& out, std::ostream& err)
     }
     po::options_description desc("options");
     po::positional_options_description positional;
-    desc.add_options()("help", "explain this command");
-    chosen->options(desc, positional);
+    help::command_options(*chosen, desc, positional);
     const std::vector<std::string> rest(args.begin() + static_cast<std::ptrdiff_t>(i), args.end());
     po::variables_map vm;
     po::store(po::command_line_parser(rest).options(desc).positional(positional).run(), vm);

@@ -6,13 +6,10 @@
 #include <cmath>
 
 #include "core/errors.hpp"
+#include "stats/value_text.hpp"
 
 namespace plumb::stats {
 namespace {
-
-std::string value_text(double v, const std::string& unit) {
-  return unit.empty() ? fmt::format("{:.4g}", v) : fmt::format("{:.4g} {}", v, unit);
-}
 
 std::string checks_text(std::span<const Observation> h, const std::vector<std::size_t>& idx) {
   std::string out;

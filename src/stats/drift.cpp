@@ -1,4 +1,5 @@
 #include "stats/drift.hpp"
+#include "stats/value_text.hpp"
 
 #include <boost/math/distributions/students_t.hpp>
 #include <fmt/format.h>
@@ -10,10 +11,6 @@
 
 namespace plumb::stats {
 namespace {
-
-std::string value_text(double v, const std::string& unit) {
-  return unit.empty() ? fmt::format("{:.4g}", v) : fmt::format("{:.4g} {}", v, unit);
-}
 
 // First whole day in [0, last_day] on which `value(day)` is at or beyond the limit. Whole days because
 // checks are dated by day; a daily scan over at most a few thousand days costs nothing and, unlike a

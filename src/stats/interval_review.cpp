@@ -1,4 +1,5 @@
 #include "stats/interval_review.hpp"
+#include "stats/value_text.hpp"
 
 #include <fmt/format.h>
 
@@ -76,10 +77,6 @@ void shorten(IntervalRecommendation& r, const IntervalSteps& s, const std::strin
 }
 
 bool outside(double v, const ToleranceLimits& t) { return (t.lower && v < *t.lower) || (t.upper && v > *t.upper); }
-
-std::string value_text(double v, const std::string& unit) {
-  return unit.empty() ? fmt::format("{:.4g}", v) : fmt::format("{:.4g} {}", v, unit);
-}
 
 }  // namespace
 

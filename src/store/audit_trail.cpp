@@ -15,9 +15,9 @@ namespace {
 
 using nlohmann::json;
 
-json text_or_null(const std::optional<std::string>& s) { return s ? json(*s) : json(); }
+json json_text_or_null(const std::optional<std::string>& s) { return s ? json(*s) : json(); }
 
-std::optional<std::string> optional_text(const SQLite::Column& c) {
+std::optional<std::string> optional_column_text(const SQLite::Column& c) {
   if (c.isNull()) return std::nullopt;
   return c.getString();
 }
@@ -114,9 +114,9 @@ json AuditRecord::hashed_content() const {
           {"action", action},
           {"table_name", table_name},
           {"row_key", row_key},
-          {"before_json", text_or_null(before_json)},
-          {"after_json", text_or_null(after_json)},
-          {"reason", text_or_null(reason)}};
+          {"before_json", json_text_or_null(before_json)},
+          {"after_json", json_text_or_null(after_json)},
+          {"reason", json_text_or_null(reason)}};
 }
 
 std::string genesis_hash() { return std::string(64, '0'); }
@@ -155,9 +155,9 @@ std::vector<AuditRecord> audit_records(SQLite::Database& db) {
     r.action = q.getColumn(4).getString();
     r.table_name = q.getColumn(5).getString();
     r.row_key = q.getColumn(6).getString();
-    r.before_json = optional_text(q.getColumn(7));
-    r.after_json = optional_text(q.getColumn(8));
-    r.reason = optional_text(q.getColumn(9));
+    r.before_json = optional_column_text(q.getColumn(7));
+    r.after_json = optional_column_text(q.getColumn(8));
+    r.reason = optional_column_text(q.getColumn(9));
     r.prev_hash = q.getColumn(10).getString();
     r.hash = q.getColumn(11).getString();
     out.push_back(std::move(r));
