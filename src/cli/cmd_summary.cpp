@@ -18,9 +18,9 @@ std::vector<Command> summary_commands() {
         auto db = env.open();
         // Rows are printed as they come from the database: memory stays flat however large the lab.
         report::SummaryWriter writer(env.out,
-                                     format == "json"  ? report::SummaryFormat::json
-                                     : format == "csv" ? report::SummaryFormat::csv
-                                                       : report::SummaryFormat::text,
+                                     format == "json"  ? report::SummaryFormat::as_json
+                                     : format == "csv" ? report::SummaryFormat::as_csv
+                                                       : report::SummaryFormat::as_text,
                                      on);
         app::lab_summary(db, on, [&](const report::SummaryRow& r) { writer.row(r); });
         writer.finish();

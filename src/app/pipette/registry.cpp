@@ -6,7 +6,7 @@
 #include <cctype>
 #include <charconv>
 
-#include "app/registry/ids.hpp"
+#include "app/registry/fields.hpp"
 #include "app/registry/lab.hpp"
 #include "core/errors.hpp"
 #include "core/units.hpp"

@@ -3,22 +3,12 @@
 #include <SQLiteCpp/Transaction.h>
 #include <fmt/format.h>
 
-#include "app/registry/ids.hpp"
+#include "app/registry/fields.hpp"
 #include "app/registry/lab.hpp"
 #include "core/errors.hpp"
 #include "store/repository.hpp"
 
 namespace plumb::app {
-namespace {
-
-ExactMass positive_mass(const std::string& text, std::string_view field) {
-  const ExactMass m = ExactMass::parse(text, field);
-  if (m <= ExactMass{}) throw InputError(fmt::format("{} \"{}\" must be greater than zero.", field, text));
-  return m;
-}
-
-}  // namespace
-
 store::BalanceRecord add_balance(store::Database& db, const store::Actor& actor, const BalanceInput& in) {
   validate_id(in.id, "balance id");
   store::BalanceRecord b;

@@ -6,7 +6,7 @@
 #include <array>
 #include <cmath>
 
-#include "app/registry/ids.hpp"
+#include "app/registry/fields.hpp"
 #include "app/registry/lab.hpp"
 #include "core/errors.hpp"
 #include "store/repository.hpp"
@@ -16,11 +16,6 @@ namespace {
 
 constexpr std::array weight_classes{"E1", "E2", "F1", "F2", "M1", "M1-2", "M2", "M2-3", "M3"};
 
-ExactMass positive_mass(const std::string& text, std::string_view field) {
-  const ExactMass m = ExactMass::parse(text, field);
-  if (m <= ExactMass{}) throw InputError(fmt::format("{} \"{}\" must be greater than zero.", field, text));
-  return m;
-}
 
 }  // namespace
 

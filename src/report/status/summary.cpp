@@ -41,12 +41,12 @@ constexpr const char* text_row = "{:<16}{:<9}{:<16}{:<12}{:>6}  {:<11}{:<8}{:>13
 
 SummaryWriter::SummaryWriter(std::ostream& out, SummaryFormat format, Date on) : out_(out), format_(format) {
   switch (format_) {
-    case SummaryFormat::json: fmt::print(out_, "{{\n  \"on\": \"{}\",\n  \"instruments\": [", to_string(on)); break;
-    case SummaryFormat::csv:
+    case SummaryFormat::as_json: fmt::print(out_, "{{\n  \"on\": \"{}\",\n  \"instruments\": [", to_string(on)); break;
+    case SummaryFormat::as_csv:
       CsvWriter(out_).header({"id", "kind", "location", "status", "next_due", "days_left", "last_run", "last_date",
                               "procedure", "verdict", "bias_g", "sd_g"});
       break;
-    case SummaryFormat::text:
+    case SummaryFormat::as_text:
       fmt::print(out_, "Lab summary on {}:\n", to_string(on));
       fmt::print(out_, text_row, "instrument", "kind", "status", "next due", "days", "last check", "verdict",
                  "bias (g)", "s (g)");
@@ -58,8 +58,8 @@ void SummaryWriter::row(const SummaryRow& r) {
   const auto& i = r.instrument;
   const auto& l = i.latest;
   switch (format_) {
-    case SummaryFormat::json: out_ << (count_ ? ",\n    " : "\n    ") << row_json(r).dump(); break;
-    case SummaryFormat::csv: {
+    case SummaryFormat::as_json: out_ << (count_ ? ",\n    " : "\n    ") << row_json(r).dump(); break;
+    case SummaryFormat::as_csv: {
       CsvWriter csv(out_);
       csv.value(i.id).value(i.kind).text(i.location).value(r.status).value(opt_date(r.next_due));
       csv.value(opt_int(r.days_left));
@@ -72,7 +72,7 @@ void SummaryWriter::row(const SummaryRow& r) {
       csv.end_row();
       break;
     }
-    case SummaryFormat::text:
+    case SummaryFormat::as_text:
       fmt::print(out_, text_row, i.id, i.kind, r.status, r.next_due ? to_string(*r.next_due) : "-",
                  opt_int(r.days_left), l ? to_string(l->performed_on) : "never",
                  l ? std::string(to_string(l->verdict)) : "-", l ? opt_number(l->bias_g) : "",
@@ -84,9 +84,9 @@ void SummaryWriter::row(const SummaryRow& r) {
 
 void SummaryWriter::finish() {
   switch (format_) {
-    case SummaryFormat::json: out_ << (count_ ? "\n  ]\n}\n" : "]\n}\n"); break;
-    case SummaryFormat::csv: break;
-    case SummaryFormat::text: fmt::print(out_, "{} instrument(s).\n", count_); break;
+    case SummaryFormat::as_json: out_ << (count_ ? "\n  ]\n}\n" : "]\n}\n"); break;
+    case SummaryFormat::as_csv: break;
+    case SummaryFormat::as_text: fmt::print(out_, "{} instrument(s).\n", count_); break;
   }
 }
 

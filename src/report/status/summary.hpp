@@ -9,7 +9,7 @@
 
 namespace plumb::report {
 
-enum class SummaryFormat { text, csv, json };
+enum class SummaryFormat { as_text, as_csv, as_json };
 
 class SummaryWriter {
 public:

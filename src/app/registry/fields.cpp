@@ -1,4 +1,4 @@
-#include "app/registry/ids.hpp"
+#include "app/registry/fields.hpp"
 
 #include <fmt/format.h>
 
@@ -16,6 +16,12 @@ void validate_id(const std::string& id, std::string_view field) {
                   });
   if (!ok)
     throw InputError(fmt::format("{} \"{}\" is not a valid id (1-64 letters, digits, '-', '_' or '.').", field, id));
+}
+
+ExactMass positive_mass(const std::string& text, std::string_view field) {
+  const ExactMass m = ExactMass::parse(text, field);
+  if (m <= ExactMass{}) throw InputError(fmt::format("{} \"{}\" must be greater than zero.", field, text));
+  return m;
 }
 
 }  // namespace plumb::app
