@@ -49,7 +49,7 @@ std::vector<RepeatabilitySummary> summarize_series(const std::vector<Repeatabili
 std::size_t nearest_series(const std::vector<RepeatabilitySummary>& reps, double load_g) {
   std::size_t best = 0;
   for (std::size_t i = 1; i < reps.size(); ++i) {
-    const double a = std::abs(reps[i].load.approx().g - load_g), b = std::abs(reps[best].load.approx().g - load_g);
+    const double a = std::abs(reps[i].load.approx().g() - load_g), b = std::abs(reps[best].load.approx().g() - load_g);
     if (a < b || (a == b && reps[i].load > reps[best].load)) best = i;
   }
   return best;
@@ -60,8 +60,8 @@ double weight_expanded_sum(const std::vector<CalibrationWeight>& weights, const 
   for (const auto& id : load.weight_ids)
     for (const auto& w : weights)
       if (w.id == id)
-        sum += w.expanded_uncertainty ? w.expanded_uncertainty->approx().g
-                                      : weights::mpe_or_throw(*w.weight_class, w.nominal, w.id).approx().g;
+        sum += w.expanded_uncertainty ? w.expanded_uncertainty->approx().g()
+                                      : weights::mpe_or_throw(*w.weight_class, w.nominal, w.id).approx().g();
   return sum;
 }
 
@@ -95,7 +95,7 @@ CalibrationSetResult evaluate_set(const CalibrationInput& in, const CalibrationS
   r.linearity = evaluate_linearity(lin);
   for (const auto& n : r.linearity.notes) r.notes.push_back(fmt::format("{}: {}", set_name, n));
 
-  const double dg = d.approx().g;
+  const double dg = d.approx().g();
   for (const auto& L : r.linearity.loads) {
     LoadCalibration lc;
     lc.load = L;
@@ -170,17 +170,17 @@ std::pair<double, std::string> tolerance_for(const CalibrationTolerance& t, cons
         throw InputError("accuracy class: the OIML R 76 tolerance policy needs the balance's accuracy class.");
       const ExactMass e = b.verification_interval.value_or(b.readability);
       const ExactMass mpe = r76::mpe(*b.accuracy_class, e, load.nominal, t.verification);
-      return {mpe.approx().g, fmt::format("OIML R 76 class {}, e = {}, {}: MPE {}", r76::to_string(*b.accuracy_class),
-                                          e.to_string(), r76::to_string(t.verification), mpe.to_string())};
+      return {mpe.approx().g(), fmt::format("OIML R 76 class {}, e = {}, {}: MPE {}", r76::to_string(*b.accuracy_class),
+                                            e.to_string(), r76::to_string(t.verification), mpe.to_string())};
     }
     case CalibrationTolerance::Kind::usp41: {
-      const double lim = usp41::accuracy_limit({load.reference_g}).g;
+      const double lim = usp41::accuracy_limit(Mass::grams(load.reference_g)).g();
       return {lim, fmt::format("USP <41>: 0.10 % of {} = {:.3g} g", load.nominal.to_string(), lim)};
     }
     case CalibrationTolerance::Kind::lab: {
       if (!t.lab_limit && !t.lab_percent)
         throw InputError("lab limits: neither an absolute limit nor a percentage of the load is given.");
-      const double abs_lim = t.lab_limit ? t.lab_limit->approx().g : 0.0;
+      const double abs_lim = t.lab_limit ? t.lab_limit->approx().g() : 0.0;
       const double pct_lim = t.lab_percent ? *t.lab_percent / 100.0 * std::abs(load.reference_g) : 0.0;
       if (abs_lim < 0.0 || pct_lim < 0.0) throw InputError("lab limits: a limit is negative.");
       const double lim = std::max(abs_lim, pct_lim);
@@ -209,7 +209,7 @@ CalibrationResult evaluate_calibration(const CalibrationInput& in) {
   r.as_found = evaluate_set(in, in.as_found, "as found", nullptr, air);
   if (in.as_left) r.as_left = evaluate_set(in, *in.as_left, "as left", &r.as_found, air);
   if (in.tolerance.kind == CalibrationTolerance::Kind::usp41) {
-    const double cap = in.balance.capacity.approx().g;
+    const double cap = in.balance.capacity.approx().g();
     for (const auto& L : r.as_found.loads)
       if (L.load.reference_g < usp41::test_load_min_fraction * cap) {
         r.notes.push_back("USP <41> states its accuracy test for loads of 5 % to 100 % of capacity; smaller loads "

@@ -21,7 +21,7 @@ Decimal abs(Decimal d) { return d < Decimal(0, 0) ? -d : d; }
 }  // namespace
 
 double EccentricityResult::half_width_at(double load_g) const {
-  return max_abs_deviation_g.to_double() / (2.0 * load.approx().g) * load_g;
+  return max_abs_deviation_g.to_double() / (2.0 * load.approx().g()) * load_g;
 }
 
 double EccentricityResult::uncertainty_at(double load_g) const { return half_width_at(load_g) / std::sqrt(3.0); }
@@ -59,7 +59,7 @@ EccentricityResult evaluate_eccentricity(const EccentricityInput& in) {
       r.max_position = p.name;
     }
   }
-  r.relative_max = r.max_abs_deviation_g.to_double() / in.load.approx().g;
+  r.relative_max = r.max_abs_deviation_g.to_double() / in.load.approx().g();
   return r;
 }
 

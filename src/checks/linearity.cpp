@@ -41,9 +41,9 @@ double CalibrationWeight::standard_uncertainty_g() const {
   if (expanded_uncertainty) {
     if (!(coverage_factor > 0.0))
       throw InputError(fmt::format("weight {}: coverage factor {} is not positive.", id, coverage_factor));
-    return expanded_uncertainty->approx().g / coverage_factor;
+    return expanded_uncertainty->approx().g() / coverage_factor;
   }
-  if (weight_class) return weights::mpe_or_throw(*weight_class, nominal, id).approx().g / std::sqrt(3.0);
+  if (weight_class) return weights::mpe_or_throw(*weight_class, nominal, id).approx().g() / std::sqrt(3.0);
   throw InputError(fmt::format("weight {}: neither a certificate uncertainty nor an OIML R 111 class is given.", id));
 }
 
@@ -98,10 +98,10 @@ LinearityResult evaluate_linearity(const LinearityInput& in) {
       L.nominal = L.nominal + w.nominal;
       L.conventional = L.conventional + w.reference_mass();
       L.u_weights_g += w.standard_uncertainty_g();
-      if (w.drift) L.u_drift_g += std::abs(w.drift->approx().g) / std::sqrt(3.0);
+      if (w.drift) L.u_drift_g += std::abs(w.drift->approx().g()) / std::sqrt(3.0);
       L.class_only = L.class_only || w.class_only();
-      const auto b = buoyancy::correction(
-          {w.reference_mass().approx().g, w.density_kg_m3, w.u_density_kg_m3, rho_a, u_rho_a});
+      const auto b =
+          buoyancy::correction({w.reference_mass().approx().g(), w.density_kg_m3, w.u_density_kg_m3, rho_a, u_rho_a});
       corr += b.correction;
       // Correlated through the one air density: summed linearly (conservative).
       u_b += apply ? b.u : std::hypot(b.u, std::abs(b.correction) / std::sqrt(3.0));
@@ -114,7 +114,7 @@ LinearityResult evaluate_linearity(const LinearityInput& in) {
     check_readings(lp.down_g, d_scale, i + 1, "down", in.readability);
     L.buoyancy_correction_g = apply ? corr : 0.0;
     L.u_buoyancy_g = u_b;
-    L.reference_g = L.conventional.approx().g + L.buoyancy_correction_g;
+    L.reference_g = L.conventional.approx().g() + L.buoyancy_correction_g;
     L.up_g = lp.up_g;
     L.down_g = lp.down_g;
     L.indication_g = mean_of(lp.up_g);

@@ -69,13 +69,13 @@ ChannelResult evaluate_channel(const PipetteRunInput& in, const gravimetric::ZFa
   const stats::ExactSummary s = stats::summarize_exact(net_mg);
   const double zf = z.z_ul_per_mg;
   r.n = s.n;
-  r.mean_mass = {s.mean() / 1e3};
-  r.sd_mass = {s.sd() / 1e3};
-  for (const Decimal& m : net_mg) r.volumes.push_back({m.to_double() * zf});
-  r.mean = {zf * s.mean()};
-  r.systematic_error = {r.mean.ul - selected.to_double()};
-  r.systematic_error_pct = 100.0 * r.systematic_error.ul / selected.to_double();
-  r.random_error = {zf * s.sd()};
+  r.mean_mass = Mass::milligrams(s.mean());
+  r.sd_mass = Mass::milligrams(s.sd());
+  for (const Decimal& m : net_mg) r.volumes.push_back(Volume::microlitres(m.to_double() * zf));
+  r.mean = Volume::microlitres(zf * s.mean());
+  r.systematic_error = Volume::microlitres(r.mean.ul() - selected.to_double());
+  r.systematic_error_pct = 100.0 * r.systematic_error.ul() / selected.to_double();
+  r.random_error = Volume::microlitres(zf * s.sd());
   r.cv_pct = 100.0 * s.sd() / s.mean();  // Z cancels
   r.limits = pipette_limits::limits_at(in.pipette.limits, in.pipette.nominal_ul, selected, in.pipette.channels);
 
@@ -94,12 +94,12 @@ ChannelResult evaluate_channel(const PipetteRunInput& in, const gravimetric::ZFa
       fail(fmt::format("{}: random error CV {:.3f} % exceeds the limit {} % ({})", where, r.cv_pct,
                        in.pipette.limits.random->to_string(), policy));
   } else {
-    if (beyond(std::abs(r.systematic_error.ul), r.limits.systematic.ul))
+    if (beyond(std::abs(r.systematic_error.ul()), r.limits.systematic.ul()))
       fail(fmt::format("{}: systematic error {:+.{}f} uL exceeds the limit +/-{:.{}f} uL ({})", where,
-                       r.systematic_error.ul, dp, r.limits.systematic.ul, dp, policy));
-    if (beyond(r.random_error.ul, r.limits.random.ul))
-      fail(fmt::format("{}: random error s = {:.{}f} uL exceeds the limit {:.{}f} uL ({})", where, r.random_error.ul,
-                       dp, r.limits.random.ul, dp, policy));
+                       r.systematic_error.ul(), dp, r.limits.systematic.ul(), dp, policy));
+    if (beyond(r.random_error.ul(), r.limits.random.ul()))
+      fail(fmt::format("{}: random error s = {:.{}f} uL exceeds the limit {:.{}f} uL ({})", where, r.random_error.ul(),
+                       dp, r.limits.random.ul(), dp, policy));
   }
   return r;
 }

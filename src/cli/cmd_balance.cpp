@@ -54,10 +54,10 @@ std::vector<Command> balance_commands() {
                    for (const auto& b : balances)
                      j.push_back({{"id", b.id},
                                   {"location", b.location},
-                                  {"capacity_g", b.capacity.approx().g},
-                                  {"readability_g", b.readability.approx().g},
-                                  {"smallest_net_g", b.smallest_net ? nlohmann::json(b.smallest_net->approx().g)
-                                                                    : nlohmann::json()},
+                                  {"capacity_g", b.capacity.approx().g()},
+                                  {"readability_g", b.readability.approx().g()},
+                                  {"smallest_net_g",
+                                   b.smallest_net ? nlohmann::json(b.smallest_net->approx().g()) : nlohmann::json()},
                                   {"every", b.every.to_string()},
                                   {"policy", b.policy.key()}});
                    env.out << j.dump(2) << "\n";

@@ -12,9 +12,9 @@ namespace {
 nlohmann::json weight_json(const store::WeightRecord& w) {
   return {{"id", w.id},
           {"nominal", w.nominal_text},
-          {"nominal_g", w.nominal.approx().g},
+          {"nominal_g", w.nominal.approx().g()},
           {"class", w.weight_class},
-          {"conventional_mass_g", w.conventional_mass().approx().g},
+          {"conventional_mass_g", w.conventional_mass().approx().g()},
           {"correction_mg", w.current.correction.approx().mg()},
           {"uncertainty_mg", w.current.uncertainty.approx().mg()},
           {"k", w.current.k.to_double()},

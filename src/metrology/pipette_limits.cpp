@@ -104,10 +104,10 @@ AppliedLimits limits_at(const LimitsPolicy& policy, Decimal nominal_ul, Decimal 
       const Iso8655Row row = *iso8655_2_row(nominal_ul);
       a.doubled = channels > 1;
       const double k = a.doubled ? 2.0 : 1.0;
-      a.systematic = {k * row.systematic_ul.to_double()};
-      a.random = {k * row.random_ul.to_double()};
-      a.systematic_pct = 100.0 * a.systematic.ul / v;
-      a.random_pct = 100.0 * a.random.ul / v;
+      a.systematic = Volume::microlitres(k * row.systematic_ul.to_double());
+      a.random = Volume::microlitres(k * row.random_ul.to_double());
+      a.systematic_pct = 100.0 * a.systematic.ul() / v;
+      a.random_pct = 100.0 * a.random.ul() / v;
       const bool at_nominal = selected_ul == nominal_ul;
       a.basis = fmt::format("ISO 8655-2:2002 Table 1 (transcribed from memory), nominal {} uL: systematic {} uL, "
                             "random {} uL{}{}.",
@@ -117,10 +117,10 @@ AppliedLimits limits_at(const LimitsPolicy& policy, Decimal nominal_ul, Decimal 
       break;
     }
     case LimitsPolicy::Kind::lab_ul:
-      a.systematic = {policy.systematic->to_double()};
-      a.random = {policy.random->to_double()};
-      a.systematic_pct = 100.0 * a.systematic.ul / v;
-      a.random_pct = 100.0 * a.random.ul / v;
+      a.systematic = Volume::microlitres(policy.systematic->to_double());
+      a.random = Volume::microlitres(policy.random->to_double());
+      a.systematic_pct = 100.0 * a.systematic.ul() / v;
+      a.random_pct = 100.0 * a.random.ul() / v;
       a.basis = fmt::format("Lab limits: systematic {} uL, random {} uL at every volume.",
                             policy.systematic->to_string(), policy.random->to_string());
       break;
@@ -128,8 +128,8 @@ AppliedLimits limits_at(const LimitsPolicy& policy, Decimal nominal_ul, Decimal 
       a.compare_in_pct = true;
       a.systematic_pct = policy.systematic->to_double();
       a.random_pct = policy.random->to_double();
-      a.systematic = {a.systematic_pct * v / 100.0};
-      a.random = {a.random_pct * v / 100.0};
+      a.systematic = Volume::microlitres(a.systematic_pct * v / 100.0);
+      a.random = Volume::microlitres(a.random_pct * v / 100.0);
       a.basis = fmt::format("Lab limits: systematic {} % of the selected volume, random {} % (CV).",
                             policy.systematic->to_string(), policy.random->to_string());
       break;

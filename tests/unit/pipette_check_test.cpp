@@ -50,7 +50,7 @@ ck::PipetteRunInput fixed_100ul_run() {
   in.pipette.channels = 1;
   in.balance.id = "B-7";
   in.balance.readability = plumb::ExactMass::parse("0.01 mg", "readability");
-  in.balance.repeatability = plumb::Mass{0.000012};  // 0.012 mg
+  in.balance.repeatability = plumb::Mass::grams(0.000012);  // 0.012 mg
   in.environment = {20.0, 1013.0, 50.0};
   in.volumes = {{dec("100"), {{1, grams(ten)}}}};
   return in;
@@ -102,15 +102,15 @@ TEST_CASE("Worked example by hand: fixed 100 uL pipette, ten weighings at 20 deg
   CHECK(c.mean_mass.mg() == Approx(99.731).margin(1e-9));
   CHECK(c.sd_mass.mg() == Approx(0.1045041).margin(0.00000005));
   REQUIRE(c.volumes.size() == 10);
-  CHECK(c.volumes[0].ul == Approx(99.99426).margin(0.000005));
-  CHECK(c.volumes[4].ul == Approx(100.20486).margin(0.000005));
-  CHECK(c.mean.ul == Approx(100.01532).margin(0.000005));
-  CHECK(c.systematic_error.ul == Approx(0.01532).margin(0.000005));
+  CHECK(c.volumes[0].ul() == Approx(99.99426).margin(0.000005));
+  CHECK(c.volumes[4].ul() == Approx(100.20486).margin(0.000005));
+  CHECK(c.mean.ul() == Approx(100.01532).margin(0.000005));
+  CHECK(c.systematic_error.ul() == Approx(0.01532).margin(0.000005));
   CHECK(c.systematic_error_pct == Approx(0.01532).margin(0.000005));
-  CHECK(c.random_error.ul == Approx(0.1048020).margin(0.0000005));
+  CHECK(c.random_error.ul() == Approx(0.1048020).margin(0.0000005));
   CHECK(c.cv_pct == Approx(0.10479).margin(0.000005));
-  CHECK(c.limits.systematic.ul == Approx(0.8));
-  CHECK(c.limits.random.ul == Approx(0.3));
+  CHECK(c.limits.systematic.ul() == Approx(0.8));
+  CHECK(c.limits.random.ul() == Approx(0.3));
   CHECK(c.verdict == Verdict::pass);
   CHECK(c.reasons.empty());
   CHECK(r.volumes[0].balance.suitable);
@@ -148,7 +148,7 @@ TEST_CASE("Evaporation loss is added to every weighing exactly", "[pipette]") {
   const auto& c = r.volumes.at(0).channels.at(0);
   CHECK(c.mean_mass.mg() == Approx(99.751).margin(1e-9));
   CHECK(c.sd_mass.mg() == Approx(0.1045041).margin(0.00000005));
-  CHECK(c.mean.ul == Approx(100.03538).margin(0.000005));
+  CHECK(c.mean.ul() == Approx(100.03538).margin(0.000005));
   REQUIRE(r.evaporation_per_weighing);
 }
 
@@ -182,11 +182,11 @@ TEST_CASE("Multichannel: limits doubled, results per channel, every channel requ
   const auto& c2 = r.volumes[0].channels[1];
   CHECK(c1.channel == 1);
   CHECK(c2.channel == 2);
-  CHECK(c2.mean.ul == Approx(100.91789).margin(0.000005));
-  CHECK(c2.systematic_error.ul == Approx(0.91789).margin(0.000005));
-  CHECK(c2.random_error.ul == Approx(0.1048020).margin(0.0000005));  // a shift leaves the SD as in the example
+  CHECK(c2.mean.ul() == Approx(100.91789).margin(0.000005));
+  CHECK(c2.systematic_error.ul() == Approx(0.91789).margin(0.000005));
+  CHECK(c2.random_error.ul() == Approx(0.1048020).margin(0.0000005));  // a shift leaves the SD as in the example
   CHECK(c2.limits.doubled);
-  CHECK(c2.limits.systematic.ul == Approx(1.6));
+  CHECK(c2.limits.systematic.ul() == Approx(1.6));
   CHECK(c2.verdict == Verdict::pass);
   CHECK(r.verdict == Verdict::pass);
 
@@ -223,10 +223,10 @@ TEST_CASE("Variable pipette: absolute limits at nominal across the range; missin
   REQUIRE(r.volumes.size() == 2);
   CHECK(r.volumes[0].selected_ul == dec("100"));  // largest first
   const auto& c50 = r.volumes[1].channels.at(0);
-  CHECK(c50.mean.ul == Approx(49.94198).margin(0.000005));
-  CHECK(c50.systematic_error.ul == Approx(-0.05802).margin(0.000005));
-  CHECK(c50.random_error.ul == 0.0);
-  CHECK(c50.limits.systematic.ul == Approx(0.8));
+  CHECK(c50.mean.ul() == Approx(49.94198).margin(0.000005));
+  CHECK(c50.systematic_error.ul() == Approx(-0.05802).margin(0.000005));
+  CHECK(c50.random_error.ul() == 0.0);
+  CHECK(c50.limits.systematic.ul() == Approx(0.8));
   CHECK(c50.limits.systematic_pct == Approx(1.6));
   CHECK(c50.verdict == Verdict::pass);
   CHECK_FALSE(r.complete);

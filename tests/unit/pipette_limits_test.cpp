@@ -78,8 +78,8 @@ TEST_CASE("ISO 8655-2 limits at nominal, across a variable range, and doubled fo
   const pl::LimitsPolicy iso;
   SECTION("single-channel at nominal 100 uL: 0.8 uL and 0.3 uL (Table 1)") {
     const auto a = pl::limits_at(iso, dec("100"), dec("100"), 1);
-    CHECK(a.systematic.ul == Approx(0.8));
-    CHECK(a.random.ul == Approx(0.3));
+    CHECK(a.systematic.ul() == Approx(0.8));
+    CHECK(a.random.ul() == Approx(0.3));
     CHECK(a.systematic_pct == Approx(0.8));
     CHECK(a.random_pct == Approx(0.3));
     CHECK_FALSE(a.doubled);
@@ -87,16 +87,16 @@ TEST_CASE("ISO 8655-2 limits at nominal, across a variable range, and doubled fo
   }
   SECTION("variable 100 uL at 10 uL: the absolute limits stay, so 8 % and 3 %") {
     const auto a = pl::limits_at(iso, dec("100"), dec("10"), 1);
-    CHECK(a.systematic.ul == Approx(0.8));
-    CHECK(a.random.ul == Approx(0.3));
+    CHECK(a.systematic.ul() == Approx(0.8));
+    CHECK(a.random.ul() == Approx(0.3));
     CHECK(a.systematic_pct == Approx(8.0));
     CHECK(a.random_pct == Approx(3.0));
     CHECK_THAT(a.basis, Contains("applied at this volume"));
   }
   SECTION("8-channel 200 uL: 2 x 1.6 = 3.2 uL and 2 x 0.6 = 1.2 uL") {
     const auto a = pl::limits_at(iso, dec("200"), dec("200"), 8);
-    CHECK(a.systematic.ul == Approx(3.2));
-    CHECK(a.random.ul == Approx(1.2));
+    CHECK(a.systematic.ul() == Approx(3.2));
+    CHECK(a.random.ul() == Approx(1.2));
     CHECK(a.doubled);
     CHECK_THAT(a.basis, Contains("doubled"));
   }
@@ -115,8 +115,8 @@ TEST_CASE("A nominal volume not in ISO 8655-2 Table 1 is refused: the lab enters
 TEST_CASE("Lab limits in uL and in % are applied as given, never doubled", "[limits]") {
   SECTION("uL") {
     const auto a = pl::limits_at(lab(pl::LimitsPolicy::Kind::lab_ul, "2.4", "0.9"), dec("300"), dec("30"), 12);
-    CHECK(a.systematic.ul == Approx(2.4));
-    CHECK(a.random.ul == Approx(0.9));
+    CHECK(a.systematic.ul() == Approx(2.4));
+    CHECK(a.random.ul() == Approx(0.9));
     CHECK(a.systematic_pct == Approx(8.0));  // 2.4 / 30
     CHECK_FALSE(a.doubled);
     CHECK_FALSE(a.compare_in_pct);
@@ -126,7 +126,7 @@ TEST_CASE("Lab limits in uL and in % are applied as given, never doubled", "[lim
     CHECK(a.compare_in_pct);
     CHECK(a.systematic_pct == Approx(1.5));
     CHECK(a.random_pct == Approx(0.5));
-    CHECK(a.systematic.ul == Approx(0.45));  // 1.5 % of 30 uL
+    CHECK(a.systematic.ul() == Approx(0.45));  // 1.5 % of 30 uL
     CHECK_FALSE(a.doubled);
   }
   SECTION("missing or non-positive lab limits are refused") {
@@ -175,7 +175,7 @@ TEST_CASE("Balance suitability for a test volume, with the reason when not", "[b
   pb::BalanceForPipette b;
   b.id = "B-7";
   b.readability = plumb::ExactMass::parse("0.01 mg", "readability");
-  b.repeatability = plumb::Mass{0.000015};  // 0.015 mg
+  b.repeatability = plumb::Mass::grams(0.000015);  // 0.015 mg
   SECTION("0.01 mg balance with s = 0.015 mg suits 100 uL (needs d <= 0.01 mg, s <= 0.02 mg)") {
     const auto s = pb::assess(b, dec("100"));
     CHECK(s.suitable);
@@ -190,9 +190,9 @@ TEST_CASE("Balance suitability for a test volume, with the reason when not", "[b
     CHECK_THAT(s.reasons[1], Contains("repeatability") && Contains("0.002 mg"));
   }
   SECTION("repeatability equal to the limit passes, above it fails") {
-    b.repeatability = plumb::Mass{0.00002};
+    b.repeatability = plumb::Mass::grams(0.00002);
     CHECK(pb::assess(b, dec("100")).suitable);
-    b.repeatability = plumb::Mass{0.000021};
+    b.repeatability = plumb::Mass::grams(0.000021);
     CHECK_FALSE(pb::assess(b, dec("100")).suitable);
   }
   SECTION("no repeatability on record: not suitable") {
@@ -202,7 +202,7 @@ TEST_CASE("Balance suitability for a test volume, with the reason when not", "[b
     CHECK_THAT(s.reasons.at(0), Contains("no repeatability on record"));
   }
   SECTION("a standard uncertainty above the table's fails") {
-    b.standard_uncertainty = plumb::Mass{0.00003};
+    b.standard_uncertainty = plumb::Mass::grams(0.00003);
     const auto s = pb::assess(b, dec("100"));
     CHECK_FALSE(s.suitable);
     CHECK_THAT(s.reasons.at(0), Contains("standard uncertainty"));

@@ -14,7 +14,7 @@ namespace {
 RepeatabilityInput example(const std::vector<const char*>& readings) {
   RepeatabilityInput in;
   in.balance = {ExactMass::parse("220g", "cap"), ExactMass::parse("0.1mg", "d"), ExactMass::parse("200mg", "m")};
-  in.weight = {"W100", ExactMass::parse("100.00003g", "w"), Mass{0.05e-3}, 2.0};
+  in.weight = {"W100", ExactMass::parse("100.00003g", "w"), Mass::grams(0.05e-3), 2.0};
   for (const char* r : readings) in.readings_g.push_back(Decimal::parse(r));
   return in;
 }
@@ -23,9 +23,9 @@ RepeatabilityInput example(const std::vector<const char*>& readings) {
 
 TEST_CASE("USP <41> chapter example: s = 0.00015 g gives m_min = 0.3 g", "[usp41]") {
   // Source: USP <41> worked example as quoted in shared/reference-data/README.md (from memory).
-  CHECK(usp41::minimum_weight(Mass{0.00015}, Mass{0.0001}).g == Approx(0.3));
+  CHECK(usp41::minimum_weight(Mass::grams(0.00015), Mass::grams(0.0001)).g() == Approx(0.3));
   // The 0.41 d floor: s = 0.01 mg < 0.41 d = 0.041 mg, so m_min = 2000 x 0.041 mg = 82 mg = 820 d.
-  CHECK(usp41::minimum_weight(Mass{0.00001}, Mass{0.0001}).g == Approx(0.082));
+  CHECK(usp41::minimum_weight(Mass::grams(0.00001), Mass::grams(0.0001)).g() == Approx(0.082));
 }
 
 TEST_CASE("weekly check worked by hand: a passing balance", "[repeatability][usp41]") {
@@ -37,13 +37,13 @@ TEST_CASE("weekly check worked by hand: a passing balance", "[repeatability][usp
   const auto r = evaluate_repeatability(example({"100.0003", "100.0001", "100.0002", "100.0004", "100.0002",
                                                  "100.0003", "100.0001", "100.0002", "100.0003", "100.0002"}));
   CHECK(r.n == 10);
-  CHECK(r.mean.g == Approx(100.00023).epsilon(1e-15));
-  CHECK(r.sd.g == Approx(0.0000948683298).epsilon(1e-9));
+  CHECK(r.mean.g() == Approx(100.00023).epsilon(1e-15));
+  CHECK(r.sd.g() == Approx(0.0000948683298).epsilon(1e-9));
   CHECK(r.sd_over_d == Approx(0.948683298).epsilon(1e-9));
-  CHECK(r.bias.g == Approx(0.0002).epsilon(1e-12));
+  CHECK(r.bias.g() == Approx(0.0002).epsilon(1e-12));
   CHECK(r.bias_pct == Approx(0.00019999994).epsilon(1e-7));
-  CHECK(r.min_weight.g == Approx(0.189736660).epsilon(1e-8));
-  CHECK(r.bias_limit->g == Approx(0.10000003));
+  CHECK(r.min_weight.g() == Approx(0.189736660).epsilon(1e-8));
+  CHECK(r.bias_limit->g() == Approx(0.10000003));
   CHECK(r.digit_backed);
   CHECK(r.verdict == Verdict::pass);
   CHECK(r.reasons.empty());
@@ -55,10 +55,10 @@ TEST_CASE("weekly check worked by hand: repeatability too poor for the smallest 
   // the 1-2-5 step at or above s is 0.5 mg). m_min = 2000 x 0.21081851 mg = 421.637 mg > 200 mg: fail.
   const auto r = evaluate_repeatability(example({"100.0000", "100.0004", "100.0000", "100.0004", "100.0000",
                                                  "100.0004", "100.0000", "100.0004", "100.0000", "100.0004"}));
-  CHECK(r.sd.g == Approx(0.00021081851).epsilon(1e-8));
-  CHECK(r.min_weight.g == Approx(0.421637).epsilon(1e-5));
+  CHECK(r.sd.g() == Approx(0.00021081851).epsilon(1e-8));
+  CHECK(r.min_weight.g() == Approx(0.421637).epsilon(1e-5));
   CHECK_FALSE(r.digit_backed);
-  CHECK(r.effective_resolution.g == Approx(0.0005));
+  CHECK(r.effective_resolution.g() == Approx(0.0005));
   CHECK(r.verdict == Verdict::fail);
   REQUIRE(r.reasons.size() == 1);
   CHECK_THAT(r.reasons[0], Catch::Contains("minimum weight") && Catch::Contains("200 mg"));
@@ -86,8 +86,8 @@ TEST_CASE("readings finer than the readability and too few readings are refused"
 }
 
 TEST_CASE("resolution supported by a repeatability SD follows the 1-2-5 series", "[repeatability]") {
-  CHECK(resolution_supported_by(Mass{0.00013}).g == Approx(0.0002));
-  CHECK(resolution_supported_by(Mass{0.0002}).g == Approx(0.0002));
-  CHECK(resolution_supported_by(Mass{0.0031}).g == Approx(0.005));
-  CHECK(resolution_supported_by(Mass{0.007}).g == Approx(0.01));
+  CHECK(resolution_supported_by(Mass::grams(0.00013)).g() == Approx(0.0002));
+  CHECK(resolution_supported_by(Mass::grams(0.0002)).g() == Approx(0.0002));
+  CHECK(resolution_supported_by(Mass::grams(0.0031)).g() == Approx(0.005));
+  CHECK(resolution_supported_by(Mass::grams(0.007)).g() == Approx(0.01));
 }

@@ -412,7 +412,7 @@ json calibration_error_at(const store::RunRecord& run, const std::string& load, 
   const ExactMass at = ExactMass::parse(load, "--at");
   checks::LinearityResult lin;
   lin.fit = report::fit_from_json(set["fit"]);
-  const double at_g = at.approx().g;
+  const double at_g = at.approx().g();
   if (!lin.fit.interpolates(at_g) && !extrapolate)
     throw InputError(fmt::format("--at {} is outside the calibrated range {:.6g} g to {:.6g} g; the error there would "
                                  "be an extrapolation (add --extrapolate to see it marked as such).",

@@ -139,7 +139,7 @@ BalanceOnDate balance_on(store::Database& db, const std::string& id, Date on) {
   for (auto it = runs.rbegin(); it != runs.rend(); ++it) {
     if (it->performed_on > on) continue;
     if (it->results.contains("sd_g") && it->results["sd_g"].is_number()) {
-      out.repeatability = Mass{it->results["sd_g"].get<double>()};
+      out.repeatability = Mass::grams(it->results["sd_g"].get<double>());
       out.repeatability_run = it->id;
       break;
     }
@@ -265,18 +265,17 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
       {"channels", def.channels},
       {"limits", limits_summary(def.limits)},
       {"check_every", pipette->every.to_string()}};
-  run.results["balance"] = {
-      {"id", bal.balance.id},
-      {"readability_g", bal.balance.readability.approx().g},
-      {"repeatability_g", bal.repeatability ? json(bal.repeatability->g) : json()},
-      {"repeatability_run", bal.repeatability_run ? json(*bal.repeatability_run) : json()},
-      {"latest_check_run", bal.latest.id},
-      {"latest_check_on", to_string(bal.latest.performed_on)},
-      {"due_on", bal.latest.next_due ? json(to_string(*bal.latest.next_due)) : json()}};
+  run.results["balance"] = {{"id", bal.balance.id},
+                            {"readability_g", bal.balance.readability.approx().g()},
+                            {"repeatability_g", bal.repeatability ? json(bal.repeatability->g()) : json()},
+                            {"repeatability_run", bal.repeatability_run ? json(*bal.repeatability_run) : json()},
+                            {"latest_check_run", bal.latest.id},
+                            {"latest_check_on", to_string(bal.latest.performed_on)},
+                            {"due_on", bal.latest.next_due ? json(to_string(*bal.latest.next_due)) : json()}};
   run.results["environment"] = {{"water_temperature_c", water.to_double()},
                                 {"air_pressure_hpa", pressure.to_double()},
                                 {"humidity_pct", humidity.to_double()},
-                                {"evaporation_g", evaporation ? json(evaporation->approx().g) : json()}};
+                                {"evaporation_g", evaporation ? json(evaporation->approx().g()) : json()}};
   run.verdict = result.verdict;
   if (result.verdict == Verdict::pass) run.next_due = add_interval(on, pipette->every);
   int seq = 1;
