@@ -21,18 +21,19 @@ Mass resolution_supported_by(Mass s) {
 }
 
 RepeatabilityResult evaluate_repeatability(const RepeatabilityInput& in) {
-  if (in.readings_g.size() < min_readings)
+  if (in.readings.size() < min_readings)
     throw InputError(fmt::format("readings: {} reading(s) given; a repeatability check needs at least {}.",
-                                 in.readings_g.size(), min_readings));
+                                 in.readings.size(), min_readings));
   const Decimal d_exact = in.balance.readability.in_grams();
   const int d_scale = d_exact.significant_scale();
-  for (std::size_t i = 0; i < in.readings_g.size(); ++i) {
-    if (in.readings_g[i].significant_scale() > d_scale)
+  const std::vector<Decimal> readings_g = in_grams(in.readings);
+  for (std::size_t i = 0; i < readings_g.size(); ++i) {
+    if (readings_g[i].significant_scale() > d_scale)
       throw InputError(fmt::format("reading {} ({} g) has more decimals than the readability {} allows.", i + 1,
-                                   in.readings_g[i].to_string(), in.balance.readability.to_string()));
+                                   readings_g[i].to_string(), in.balance.readability.to_string()));
   }
 
-  const stats::ExactSummary sum = stats::summarize_exact(in.readings_g);
+  const stats::ExactSummary sum = stats::summarize_exact(readings_g);
   RepeatabilityResult r;
   r.n = sum.n;
   r.mean = Mass::grams(sum.mean());

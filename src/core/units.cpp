@@ -96,6 +96,13 @@ ExactVolume ExactVolume::parse(std::string_view text, std::string_view field, Vo
   return from(value, u);
 }
 
+std::vector<Decimal> in_grams(std::span<const ExactMass> masses) {
+  std::vector<Decimal> out;
+  out.reserve(masses.size());
+  for (const ExactMass& m : masses) out.push_back(m.in_grams());
+  return out;
+}
+
 std::string ExactMass::to_string() const {
   const auto tidy = [](Decimal d) { return d.rescaled(d.significant_scale()).to_string(); };
   const double a = std::abs(g_.to_double());

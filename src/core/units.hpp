@@ -2,9 +2,12 @@
 // Units and exact quantities. A mass given as text with a unit ("0.1mg", "220 g") becomes an exact
 // Decimal in grams; computed results are held in the strong types Mass and Volume so that a mass
 // can never be added to a volume or printed without its unit.
+#include <cmath>
 #include <compare>
+#include <span>
 #include <string>
 #include <string_view>
+#include <vector>
 
 #include "core/decimal.hpp"
 
@@ -54,9 +57,9 @@ class Mass {
   double g_ = 0.0;
 };
 
-/// |m|, a mass again.
-[[nodiscard]] constexpr Mass abs(Mass m) {
-  return m < Mass() ? -m : m;
+/// |m|, a mass again (std::abs of the grams, so -0 becomes +0 as it would for a double).
+[[nodiscard]] inline Mass abs(Mass m) {
+  return Mass::grams(std::abs(m.g()));
 }
 
 /// A computed volume, made like Mass only through a named constructor and read with ul() or ml().
@@ -85,8 +88,8 @@ class Volume {
 };
 
 /// |v|, a volume again.
-[[nodiscard]] constexpr Volume abs(Volume v) {
-  return v < Volume() ? -v : v;
+[[nodiscard]] inline Volume abs(Volume v) {
+  return Volume::microlitres(std::abs(v.ul()));
 }
 
 /// An exact mass: a Decimal number of grams. Conversion from any mass unit is exact.
@@ -105,6 +108,7 @@ public:
 
   friend ExactMass operator+(ExactMass a, ExactMass b) { return ExactMass(a.g_ + b.g_); }
   friend ExactMass operator-(ExactMass a, ExactMass b) { return ExactMass(a.g_ - b.g_); }
+  friend ExactMass operator-(ExactMass a) { return ExactMass(-a.g_); }
   friend std::strong_ordering operator<=>(ExactMass a, ExactMass b) { return a.g_ <=> b.g_; }
   friend bool operator==(ExactMass a, ExactMass b) { return a.g_ == b.g_; }
 
@@ -112,6 +116,13 @@ private:
   explicit ExactMass(Decimal g) : g_(g) {}
   Decimal g_;
 };
+
+/// |m|, exact.
+inline ExactMass abs(ExactMass m) {
+  return m < ExactMass() ? -m : m;
+}
+/// The exact values in grams, for the statistics layer (which works on plain decimals).
+std::vector<Decimal> in_grams(std::span<const ExactMass> masses);
 
 /// An exact volume: a Decimal number of microlitres, as typed ("100uL", "0.1 mL", "100"). Like ExactMass it
 /// is made only from a Decimal with its unit (never from a bare double), and conversion is exact.

@@ -50,7 +50,7 @@ TEST_CASE("stored repeatability results text equals nlohmann's object and dump, 
     const int scatter = scatter_of(rng), n = count_of(rng), policy = policy_of(rng);
     for (int i = 0; i < n; ++i) {
       const int units = 1000000 + 200 + scatter * spread(rng) + k % 7;  // in 0.1 mg, about 100.02 g
-      in.readings_g.push_back(Decimal::parse(fmt::format("{}.{:04}", units / 10000, units % 10000)));
+      in.readings.push_back(ExactMass::grams(Decimal::parse(fmt::format("{}.{:04}", units / 10000, units % 10000))));
     }
     if (policy > 0) {
       in.policy.kind = TolerancePolicy::Kind::lab;

@@ -9,14 +9,18 @@ using namespace plumb;
 using namespace plumb::checks;
 
 namespace {
+ExactMass grams(const char* text) {
+  return ExactMass::parse(text, "reading");
+}
+
 EccentricityInput run() {
   EccentricityInput in;
   in.load = ExactMass::parse("100 g", "load");
-  in.centre_g = Decimal::parse("100.0002");
-  in.positions = {{"front-left", Decimal::parse("100.0004")},
-                  {"back-left", Decimal::parse("99.9999")},
-                  {"back-right", Decimal::parse("100.0001")},
-                  {"front-right", Decimal::parse("100.0005")}};
+  in.centre = grams("100.0002");
+  in.positions = {{"front-left", grams("100.0004")},
+                  {"back-left", grams("99.9999")},
+                  {"back-right", grams("100.0001")},
+                  {"front-right", grams("100.0005")}};
   return in;
 }
 }  // namespace
@@ -27,19 +31,19 @@ TEST_CASE("eccentricity: exact deviations and the cg-18 contribution, by hand", 
   // 0.0003 / 200 x 200 / sqrt 3 = 1.7320508e-4 g; at L = 50 g a quarter of that, 4.330127e-5 g.
   const auto r = evaluate_eccentricity(run());
   REQUIRE(r.deviations.size() == 4);
-  CHECK(r.deviations[0].deviation_g == Decimal::parse("0.0002"));
-  CHECK(r.deviations[1].deviation_g == Decimal::parse("-0.0003"));
-  CHECK(r.max_abs_deviation_g == Decimal::parse("0.0003"));
+  CHECK(r.deviations[0].deviation == grams("0.0002"));
+  CHECK(r.deviations[1].deviation == grams("-0.0003"));
+  CHECK(r.max_abs_deviation == grams("0.0003"));
   CHECK(r.max_position == "back-left");
   CHECK(r.relative_max == Approx(3e-6));
-  CHECK(r.uncertainty_at(200.0) == Approx(1.7320508e-4).epsilon(1e-7));
-  CHECK(r.uncertainty_at(50.0) == Approx(4.330127e-5).epsilon(1e-6));
-  CHECK(r.half_width_at(100.0) == Approx(0.00015));
+  CHECK(r.uncertainty_at(Mass::grams(200.0)).g() == Approx(1.7320508e-4).epsilon(1e-7));
+  CHECK(r.uncertainty_at(Mass::grams(50.0)).g() == Approx(4.330127e-5).epsilon(1e-6));
+  CHECK(r.half_width_at(Mass::grams(100.0)).g() == Approx(0.00015));
 }
 
 TEST_CASE("eccentricity: bad runs are refused, naming the field", "[unit][eccentricity]") {
   auto in = run();
-  in.centre_g.reset();
+  in.centre.reset();
   CHECK_THROWS_WITH(evaluate_eccentricity(in), Catch::Contains("centre"));
   in = run();
   in.positions.pop_back();
@@ -54,6 +58,6 @@ TEST_CASE("eccentricity: bad runs are refused, naming the field", "[unit][eccent
   in.load = ExactMass::parse("0 g", "load");
   CHECK_THROWS_AS(evaluate_eccentricity(in), InputError);
   in = run();
-  in.positions.push_back({"middle-back", Decimal::parse("100.0002")});
+  in.positions.push_back({"middle-back", grams("100.0002")});
   CHECK(evaluate_eccentricity(in).deviations.size() == 5);
 }
