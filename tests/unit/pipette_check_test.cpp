@@ -21,6 +21,9 @@ namespace pl = plumb::pipette_limits;
 namespace {
 
 Decimal dec(const char* s) { return Decimal::parse(s); }
+plumb::ExactVolume ul(const char* s) {
+  return plumb::ExactVolume::microlitres(Decimal::parse(s));
+}
 
 std::vector<MassReading> grams(const std::vector<std::string>& texts) {
   std::vector<MassReading> out;
@@ -46,13 +49,13 @@ ck::PipetteRunInput fixed_100ul_run() {
   ck::PipetteRunInput in;
   in.pipette.id = "P-100";
   in.pipette.kind = ck::PipetteKind::fixed;
-  in.pipette.nominal_ul = dec("100");
+  in.pipette.nominal = ul("100");
   in.pipette.channels = 1;
   in.balance.id = "B-7";
   in.balance.readability = plumb::ExactMass::parse("0.01 mg", "readability");
   in.balance.repeatability = plumb::Mass::grams(0.000012);  // 0.012 mg
   in.environment = {20.0, 1013.0, 50.0};
-  in.volumes = {{dec("100"), {{1, grams(ten)}}}};
+  in.volumes = {{ul("100"), {{1, grams(ten)}}}};
   return in;
 }
 
@@ -154,19 +157,19 @@ TEST_CASE("Evaporation loss is added to every weighing exactly", "[pipette]") {
 
 TEST_CASE("Default ISO 8655-6 test volumes", "[pipette]") {
   ck::PipetteDefinition p;
-  p.nominal_ul = dec("100");
-  CHECK(ck::default_test_volumes(p) == std::vector<Decimal>{dec("100")});
+  p.nominal = ul("100");
+  CHECK(ck::default_test_volumes(p) == std::vector<plumb::ExactVolume>{ul("100")});
   p.kind = ck::PipetteKind::variable;
-  p.lower_limit_ul = dec("10");
-  CHECK(ck::default_test_volumes(p) == std::vector<Decimal>{dec("100"), dec("50"), dec("10")});
-  p.lower_limit_ul = dec("2");  // 10 % = 10 uL is above the lower limit
-  CHECK(ck::default_test_volumes(p) == std::vector<Decimal>{dec("100"), dec("50"), dec("10")});
-  p.nominal_ul = dec("1000");
-  p.lower_limit_ul = dec("200");  // lower limit 200 uL is above 10 % = 100 uL
-  CHECK(ck::default_test_volumes(p) == std::vector<Decimal>{dec("1000"), dec("500"), dec("200")});
-  p.nominal_ul = dec("2.5");
-  p.lower_limit_ul = dec("0.1");
-  CHECK(ck::default_test_volumes(p) == std::vector<Decimal>{dec("2.5"), dec("1.25"), dec("0.25")});
+  p.lower_limit = ul("10");
+  CHECK(ck::default_test_volumes(p) == std::vector<plumb::ExactVolume>{ul("100"), ul("50"), ul("10")});
+  p.lower_limit = ul("2");  // 10 % = 10 uL is above the lower limit
+  CHECK(ck::default_test_volumes(p) == std::vector<plumb::ExactVolume>{ul("100"), ul("50"), ul("10")});
+  p.nominal = ul("1000");
+  p.lower_limit = ul("200");  // lower limit 200 uL is above 10 % = 100 uL
+  CHECK(ck::default_test_volumes(p) == std::vector<plumb::ExactVolume>{ul("1000"), ul("500"), ul("200")});
+  p.nominal = ul("2.5");
+  p.lower_limit = ul("0.1");
+  CHECK(ck::default_test_volumes(p) == std::vector<plumb::ExactVolume>{ul("2.5"), ul("1.25"), ul("0.25")});
 }
 
 TEST_CASE("Multichannel: limits doubled, results per channel, every channel required", "[pipette]") {
@@ -175,7 +178,7 @@ TEST_CASE("Multichannel: limits doubled, results per channel, every channel requ
   // e_s = +0.918 uL: beyond the single-channel 0.8 uL but within the doubled 1.6 uL, so it passes.
   auto in = fixed_100ul_run();
   in.pipette.channels = 2;
-  in.volumes = {{dec("100"), {{2, grams(shifted(ten, 90))}, {1, grams(ten)}}}};
+  in.volumes = {{ul("100"), {{2, grams(shifted(ten, 90))}, {1, grams(ten)}}}};
   const auto r = ck::evaluate_pipette_run(in);
   REQUIRE(r.volumes.at(0).channels.size() == 2);
   const auto& c1 = r.volumes[0].channels[0];
@@ -192,13 +195,13 @@ TEST_CASE("Multichannel: limits doubled, results per channel, every channel requ
 
   SECTION("the same shift on a single-channel pipette fails") {
     in.pipette.channels = 1;
-    in.volumes = {{dec("100"), {{1, grams(shifted(ten, 90))}}}};
+    in.volumes = {{ul("100"), {{1, grams(shifted(ten, 90))}}}};
     const auto r1 = ck::evaluate_pipette_run(in);
     CHECK(r1.verdict == Verdict::fail);
     CHECK_THAT(r1.reasons.at(0), Contains("systematic error +0.918 uL") && Contains("+/-0.800 uL"));
   }
   SECTION("a channel left out makes the run incomplete and it cannot pass") {
-    in.volumes = {{dec("100"), {{1, grams(ten)}}}};
+    in.volumes = {{ul("100"), {{1, grams(ten)}}}};
     const auto r2 = ck::evaluate_pipette_run(in);
     CHECK_FALSE(r2.complete);
     CHECK(r2.verdict == Verdict::fail);
@@ -216,12 +219,12 @@ TEST_CASE("Variable pipette: absolute limits at nominal across the range; missin
   // 10 uL needs a 0.001 mg balance (ISO 8655-6 Table 1), so a 0.01 mg balance is refused for the 10 uL volume.
   auto in = fixed_100ul_run();
   in.pipette.kind = ck::PipetteKind::variable;
-  in.pipette.lower_limit_ul = dec("10");
+  in.pipette.lower_limit = ul("10");
   std::vector<std::string> fifty(10, "0.04980");
-  in.volumes = {{dec("50"), {{1, grams(fifty)}}}, {dec("100"), {{1, grams(ten)}}}};
+  in.volumes = {{ul("50"), {{1, grams(fifty)}}}, {ul("100"), {{1, grams(ten)}}}};
   const auto r = ck::evaluate_pipette_run(in);
   REQUIRE(r.volumes.size() == 2);
-  CHECK(r.volumes[0].selected_ul == dec("100"));  // largest first
+  CHECK(r.volumes[0].selected == ul("100"));  // largest first
   const auto& c50 = r.volumes[1].channels.at(0);
   CHECK(c50.mean.ul() == Approx(49.94198).margin(0.000005));
   CHECK(c50.systematic_error.ul() == Approx(-0.05802).margin(0.000005));
@@ -234,7 +237,7 @@ TEST_CASE("Variable pipette: absolute limits at nominal across the range; missin
   REQUIRE(r.reasons.size() == 1);
   CHECK_THAT(r.reasons[0], Contains("test volume 10 uL was not tested"));
 
-  in.volumes.push_back({dec("10"), {{1, grams(std::vector<std::string>(10, "0.00998"))}}});
+  in.volumes.push_back({ul("10"), {{1, grams(std::vector<std::string>(10, "0.00998"))}}});
   CHECK_THROWS_WITH(ck::evaluate_pipette_run(in),
                     Contains("not suitable") && Contains("0.001 mg") && Contains("10 uL"));
 }
@@ -246,16 +249,16 @@ TEST_CASE("Bad input is refused with one clear sentence", "[pipette][bad-input]"
     CHECK_THROWS_WITH(ck::evaluate_pipette_run(in), Contains("water temperature 31 degC"));
   }
   SECTION("test volume outside a fixed pipette's volume") {
-    in.volumes[0].volume_ul = dec("50");
+    in.volumes[0].volume = ul("50");
     CHECK_THROWS_WITH(ck::evaluate_pipette_run(in),
                       Contains("test volume 50 uL is outside the range of pipette P-100 (fixed at 100 uL)"));
   }
   SECTION("test volume outside a variable pipette's range") {
     in.pipette.kind = ck::PipetteKind::variable;
-    in.pipette.lower_limit_ul = dec("10");
-    in.volumes[0].volume_ul = dec("150");
+    in.pipette.lower_limit = ul("10");
+    in.volumes[0].volume = ul("150");
     CHECK_THROWS_WITH(ck::evaluate_pipette_run(in), Contains("150 uL is outside") && Contains("10 uL to 100 uL"));
-    in.volumes[0].volume_ul = dec("5");
+    in.volumes[0].volume = ul("5");
     CHECK_THROWS_WITH(ck::evaluate_pipette_run(in), Contains("5 uL is outside"));
   }
   SECTION("fewer than 4 replicates") {
@@ -312,15 +315,15 @@ TEST_CASE("Bad input is refused with one clear sentence", "[pipette][bad-input]"
   SECTION("inconsistent pipette definitions") {
     in.pipette.kind = ck::PipetteKind::variable;
     CHECK_THROWS_WITH(ck::evaluate_pipette_run(in), Contains("needs the lower limit"));
-    in.pipette.lower_limit_ul = dec("100");
+    in.pipette.lower_limit = ul("100");
     CHECK_THROWS_WITH(ck::evaluate_pipette_run(in), Contains("below the nominal volume"));
     in.pipette.kind = ck::PipetteKind::fixed;
-    in.pipette.lower_limit_ul.reset();
+    in.pipette.lower_limit.reset();
     in.pipette.channels = 0;
     CHECK_THROWS_WITH(ck::evaluate_pipette_run(in), Contains("channel count 0"));
     in.pipette.channels = 1;
-    in.pipette.nominal_ul = dec("300");
-    in.volumes[0].volume_ul = dec("300");
+    in.pipette.nominal = ul("300");
+    in.volumes[0].volume = ul("300");
     CHECK_THROWS_WITH(ck::evaluate_pipette_run(in), Contains("300 uL is not a row of ISO 8655-2"));
   }
   SECTION("no test volumes") {

@@ -87,16 +87,16 @@ std::string pipette_weighings(const json& p, const store::PipetteRecord& rec, in
   const double d_mg = readability.approx().mg();
   const int decimals = readability.in_grams().significant_scale();
   std::string csv = "volume,channel,reading\n";
-  for (const Decimal& v : checks::default_test_volumes(rec.definition)) {
+  for (const ExactVolume& v : checks::default_test_volumes(rec.definition)) {
     for (int ch = 1; ch <= rec.definition.channels; ++ch) {
       double bias_pct = p["bias_pct"].get<double>();
       if (p.contains("fault") && p["fault"]["check"].get<int>() == check && p["fault"]["channel"].get<int>() == ch)
         bias_pct = p["fault"]["bias_pct"].get<double>();
-      const double selected = v.to_double();
+      const double selected = v.approx().ul();
       for (int i = 0; i < 10; ++i) {
         const double volume = selected * (1.0 + bias_pct / 100.0) + selected * p["cv_pct"].get<double>() / 100.0 * noise.next();
         const double mg = std::round(volume / z_ul_per_mg / d_mg) * d_mg;
-        csv += fmt::format("{},{},{:.{}f}\n", v.to_string(), ch, mg / 1e3, decimals);
+        csv += fmt::format("{},{},{:.{}f}\n", v.ul_text(), ch, mg / 1e3, decimals);
       }
     }
   }

@@ -39,8 +39,8 @@ nlohmann::json to_json(const checks::PipetteRunResult& r) {
     json channels = json::array();
     for (const auto& c : tv.channels) channels.push_back(channel_json(c));
     const auto& req = tv.balance.requirement;
-    volumes.push_back({{"selected_ul", tv.selected_ul.to_double()},
-                       {"selected", tv.selected_ul.rescaled(tv.selected_ul.significant_scale()).to_string()},
+    volumes.push_back({{"selected_ul", tv.selected.approx().ul()},
+                       {"selected", tv.selected.ul_text()},
                        {"balance_requirement",
                         {{"readability_g", req.readability_mg.to_double() / 1e3},
                          {"repeatability_g", req.repeatability_mg.to_double() / 1e3},
