@@ -2,9 +2,12 @@
 
 #include "checks/decision_rule.hpp"
 #include "core/errors.hpp"
+#include "support/margin.hpp"
 
 using namespace plumb::checks;
 using plumb::Mass;
+using plumb::test::mass_near;
+using plumb::test::ug;
 
 namespace {
 // The errors, uncertainties and limits of these cases are masses in mg (a balance's error of indication).
@@ -27,8 +30,8 @@ TEST_CASE("guard band w = U: each of the four states, built by hand", "[unit][de
   const auto gb = DecisionRule::guard_band_u;
   const auto pass = decide(mg(0.5), mg(0.3), lim, gb);
   CHECK(pass.state == Conformity::pass);
-  CHECK(pass.acceptance_upper->mg() == Approx(0.7));
-  CHECK(pass.acceptance_lower->mg() == Approx(-0.7));
+  CHECK_THAT(*pass.acceptance_upper, mass_near(mg(0.7), ug(1e-6)));  // 1.0 mg - 0.3 mg
+  CHECK_THAT(*pass.acceptance_lower, mass_near(mg(-0.7), ug(1e-6)));
   CHECK(decide(mg(0.7), mg(0.25), lim, gb).state == Conformity::pass);            // 0.7 + 0.25 = 0.95 <= 1.0
   CHECK(decide(mg(0.8), mg(0.3), lim, gb).state == Conformity::pass_not_proven);  // 0.8 + 0.3 = 1.1 > 1.0
   CHECK(decide(mg(-0.9), mg(0.3), lim, gb).state == Conformity::pass_not_proven);
