@@ -31,37 +31,38 @@ std::vector<RepeatabilitySummary> summarize_series(const std::vector<Repeatabili
   std::vector<RepeatabilitySummary> out;
   for (std::size_t i = 0; i < series.size(); ++i) {
     const auto& s = series[i];
-    if (s.readings_g.size() < min_repeatability_readings)
+    if (s.readings.size() < min_repeatability_readings)
       throw InputError(fmt::format("{} repeatability series {} (load {}): {} reading(s); at least {} are needed.",
-                                   set_name, i + 1, s.load.to_string(), s.readings_g.size(),
-                                   min_repeatability_readings));
-    for (std::size_t j = 0; j < s.readings_g.size(); ++j)
-      if (s.readings_g[j].significant_scale() > d_scale)
-        throw InputError(fmt::format("{} repeatability series {} reading {} ({} g) has more decimals than the "
-                                     "readability {} allows.",
-                                     set_name, i + 1, j + 1, s.readings_g[j].to_string(), d.to_string()));
-    const auto sum = stats::summarize_exact(s.readings_g);
-    out.push_back({s.load, sum.n, sum.mean(), sum.sd()});
+                                   set_name, i + 1, s.load.to_string(), s.readings.size(), min_repeatability_readings));
+    const std::vector<Decimal> readings_g = in_grams(s.readings);
+    for (std::size_t j = 0; j < readings_g.size(); ++j)
+      if (readings_g[j].significant_scale() > d_scale)
+        throw InputError(
+            fmt::format("{} repeatability series {} reading {} ({} g) has more decimals than the "
+                        "readability {} allows.",
+                        set_name, i + 1, j + 1, readings_g[j].to_string(), d.to_string()));
+    const auto sum = stats::summarize_exact(readings_g);
+    out.push_back({s.load, sum.n, Mass::grams(sum.mean()), Mass::grams(sum.sd())});
   }
   return out;
 }
 
-std::size_t nearest_series(const std::vector<RepeatabilitySummary>& reps, double load_g) {
+std::size_t nearest_series(const std::vector<RepeatabilitySummary>& reps, Mass load) {
   std::size_t best = 0;
   for (std::size_t i = 1; i < reps.size(); ++i) {
-    const double a = std::abs(reps[i].load.approx().g - load_g), b = std::abs(reps[best].load.approx().g - load_g);
+    const Mass a = abs(reps[i].load.approx() - load), b = abs(reps[best].load.approx() - load);
     if (a < b || (a == b && reps[i].load > reps[best].load)) best = i;
   }
   return best;
 }
 
-double weight_expanded_sum(const std::vector<CalibrationWeight>& weights, const LoadResult& load) {
-  double sum = 0.0;
+Mass weight_expanded_sum(const std::vector<CalibrationWeight>& weights, const LoadResult& load) {
+  Mass sum;
   for (const auto& id : load.weight_ids)
     for (const auto& w : weights)
       if (w.id == id)
-        sum += w.expanded_uncertainty ? w.expanded_uncertainty->approx().g
-                                      : weights::mpe_or_throw(*w.weight_class, w.nominal, w.id).approx().g;
+        sum += w.expanded_uncertainty ? w.expanded_uncertainty->approx()
+                                      : weights::mpe_or_throw(*w.weight_class, w.nominal, w.id).approx();
   return sum;
 }
 
@@ -95,53 +96,54 @@ CalibrationSetResult evaluate_set(const CalibrationInput& in, const CalibrationS
   r.linearity = evaluate_linearity(lin);
   for (const auto& n : r.linearity.notes) r.notes.push_back(fmt::format("{}: {}", set_name, n));
 
-  const double dg = d.approx().g;
+  // The budget is built in grams: stats works on plain numbers, so each mass is read in g here.
+  const double dg = d.approx().g();
   for (const auto& L : r.linearity.loads) {
     LoadCalibration lc;
     lc.load = L;
-    const std::size_t si = nearest_series(r.repeatability, L.reference_g);
+    const std::size_t si = nearest_series(r.repeatability, L.reference);
     lc.repeatability_series = si + 1;
     const auto& rep = r.repeatability[si];
-    const double n_at_load = static_cast<double>(L.up_g.size());
+    const double n_at_load = static_cast<double>(L.up.size());
 
     std::vector<stats::Contribution> c;
     c.push_back(stats::Contribution::rounding("rounding at zero", dg));
     c.push_back(stats::Contribution::rounding("rounding at load", dg));
-    auto repc = stats::Contribution::type_a("repeatability", rep.sd_g / std::sqrt(n_at_load),
-                                            static_cast<double>(rep.n - 1));
-    repc.note = fmt::format("s = {:.3g} g from {} readings at {}, divided by sqrt({})", rep.sd_g, rep.n,
-                            rep.load.to_string(), L.up_g.size());
+    auto repc =
+        stats::Contribution::type_a("repeatability", rep.sd.g() / std::sqrt(n_at_load), static_cast<double>(rep.n - 1));
+    repc.note = fmt::format("s = {:.3g} g from {} readings at {}, divided by sqrt({})", rep.sd.g(), rep.n,
+                            rep.load.to_string(), L.up.size());
     c.push_back(repc);
     if (r.eccentricity) {
-      auto ecc = stats::Contribution::rectangular("eccentricity", r.eccentricity->half_width_at(L.reference_g));
+      auto ecc = stats::Contribution::rectangular("eccentricity", r.eccentricity->half_width_at(L.reference).g());
       ecc.note = fmt::format("|dI|max = {} g at {} with L_ecc = {}; |dI|max / (2 L_ecc) x L",
-                             r.eccentricity->max_abs_deviation_g.to_string(), r.eccentricity->max_position,
+                             r.eccentricity->max_abs_deviation.in_grams().to_string(), r.eccentricity->max_position,
                              r.eccentricity->load.to_string());
       c.push_back(ecc);
     }
-    auto wc = stats::Contribution::standard("reference weights", L.u_weights_g, -1.0);
+    auto wc = stats::Contribution::standard("reference weights", L.u_weights.g(), -1.0);
     wc.note = L.class_only ? "certificate U/k, or class MPE/sqrt 3 where only the class is known; summed"
                            : "certificate U/k of each weight, summed";
     c.push_back(wc);
-    auto bc = stats::Contribution::standard("air buoyancy", L.u_buoyancy_g, -1.0);
+    auto bc = stats::Contribution::standard("air buoyancy", L.u_buoyancy.g(), -1.0);
     bc.note = air ? "from the measured air density" : "air density not measured: 1.2 kg/m3 +/- 10 %";
     c.push_back(bc);
-    c.push_back(stats::Contribution::rectangular("weight drift", L.u_drift_g * std::sqrt(3.0), -1.0));
+    c.push_back(stats::Contribution::rectangular("weight drift", L.u_drift.g() * std::sqrt(3.0), -1.0));
     lc.budget = stats::combine(fmt::format("error of indication at {}", L.nominal.to_string()), "g", std::move(c),
                                in.budget_options);
 
     auto [tol, basis] = tolerance_for(in.tolerance, in.balance, L);
-    lc.tolerance_g = tol;
+    lc.tolerance = tol;
     lc.tolerance_basis = std::move(basis);
-    lc.decision = decide(L.error_g, lc.budget.expanded, Limits::symmetric(tol), in.rule);
-    lc.weight_uncertainty_g = weight_expanded_sum(in.weights, L);
-    lc.weight_suitable = lc.weight_uncertainty_g <= tol / 3.0;
+    lc.decision = decide(L.error, Mass::grams(lc.budget.expanded), Limits::symmetric(tol), in.rule);
+    lc.weight_uncertainty = weight_expanded_sum(in.weights, L);
+    lc.weight_suitable = lc.weight_uncertainty <= tol / 3.0;
     if (!lc.weight_suitable) {
       r.weights_suitable = false;
       r.notes.push_back(fmt::format(
           "{}: load {} ({}): the weights' uncertainty {:.3g} g exceeds a third of the tolerance ({:.3g} g); "
           "they are not suitable to check it.",
-          set_name, L.index, L.combination, lc.weight_uncertainty_g, tol / 3.0));
+          set_name, L.index, L.combination, lc.weight_uncertainty.g(), (tol / 3.0).g()));
     }
     r.overall = worst(r.overall, lc.decision.state);
     r.loads.push_back(std::move(lc));
@@ -162,32 +164,32 @@ std::string CalibrationTolerance::name() const {
   return "?";
 }
 
-std::pair<double, std::string> tolerance_for(const CalibrationTolerance& t, const CalibratedBalance& b,
-                                             const LoadResult& load) {
+std::pair<Mass, std::string> tolerance_for(const CalibrationTolerance& t, const CalibratedBalance& b,
+                                           const LoadResult& load) {
   switch (t.kind) {
     case CalibrationTolerance::Kind::oiml_r76: {
       if (!b.accuracy_class)
         throw InputError("accuracy class: the OIML R 76 tolerance policy needs the balance's accuracy class.");
       const ExactMass e = b.verification_interval.value_or(b.readability);
       const ExactMass mpe = r76::mpe(*b.accuracy_class, e, load.nominal, t.verification);
-      return {mpe.approx().g, fmt::format("OIML R 76 class {}, e = {}, {}: MPE {}", r76::to_string(*b.accuracy_class),
-                                          e.to_string(), r76::to_string(t.verification), mpe.to_string())};
+      return {mpe.approx(), fmt::format("OIML R 76 class {}, e = {}, {}: MPE {}", r76::to_string(*b.accuracy_class),
+                                        e.to_string(), r76::to_string(t.verification), mpe.to_string())};
     }
     case CalibrationTolerance::Kind::usp41: {
-      const double lim = usp41::accuracy_limit({load.reference_g}).g;
-      return {lim, fmt::format("USP <41>: 0.10 % of {} = {:.3g} g", load.nominal.to_string(), lim)};
+      const Mass lim = usp41::accuracy_limit(load.reference);
+      return {lim, fmt::format("USP <41>: 0.10 % of {} = {:.3g} g", load.nominal.to_string(), lim.g())};
     }
     case CalibrationTolerance::Kind::lab: {
       if (!t.lab_limit && !t.lab_percent)
         throw InputError("lab limits: neither an absolute limit nor a percentage of the load is given.");
-      const double abs_lim = t.lab_limit ? t.lab_limit->approx().g : 0.0;
-      const double pct_lim = t.lab_percent ? *t.lab_percent / 100.0 * std::abs(load.reference_g) : 0.0;
-      if (abs_lim < 0.0 || pct_lim < 0.0) throw InputError("lab limits: a limit is negative.");
-      const double lim = std::max(abs_lim, pct_lim);
-      return {lim, fmt::format("lab limit: +/- {:.6g} g", lim)};
+      const Mass abs_lim = t.lab_limit ? t.lab_limit->approx() : Mass();
+      const Mass pct_lim = t.lab_percent ? *t.lab_percent / 100.0 * abs(load.reference) : Mass();
+      if (abs_lim < Mass() || pct_lim < Mass()) throw InputError("lab limits: a limit is negative.");
+      const Mass lim = std::max(abs_lim, pct_lim);
+      return {lim, fmt::format("lab limit: +/- {:.6g} g", lim.g())};
     }
   }
-  return {0.0, ""};
+  return {Mass(), ""};
 }
 
 CalibrationResult evaluate_calibration(const CalibrationInput& in) {
@@ -209,9 +211,9 @@ CalibrationResult evaluate_calibration(const CalibrationInput& in) {
   r.as_found = evaluate_set(in, in.as_found, "as found", nullptr, air);
   if (in.as_left) r.as_left = evaluate_set(in, *in.as_left, "as left", &r.as_found, air);
   if (in.tolerance.kind == CalibrationTolerance::Kind::usp41) {
-    const double cap = in.balance.capacity.approx().g;
+    const double cap = in.balance.capacity.approx().g();
     for (const auto& L : r.as_found.loads)
-      if (L.load.reference_g < usp41::test_load_min_fraction * cap) {
+      if (L.load.reference.g() < usp41::test_load_min_fraction * cap) {
         r.notes.push_back("USP <41> states its accuracy test for loads of 5 % to 100 % of capacity; smaller loads "
                           "are judged against 0.10 % all the same.");
         break;

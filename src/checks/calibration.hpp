@@ -48,8 +48,8 @@ struct CalibrationTolerance {
 };
 
 struct RepeatabilitySeries {
-  ExactMass load;                ///< test load (nominal or conventional mass)
-  std::vector<Decimal> readings_g;
+  ExactMass load;                   ///< test load (nominal or conventional mass)
+  std::vector<ExactMass> readings;  ///< exact, as displayed
 };
 inline constexpr std::size_t min_repeatability_readings = 5;
 
@@ -77,18 +77,18 @@ struct CalibrationInput {
 struct RepeatabilitySummary {
   ExactMass load;
   long long n = 0;
-  double mean_g = 0.0;
-  double sd_g = 0.0;
+  Mass mean;
+  Mass sd;
 };
 
 struct LoadCalibration {
   LoadResult load;                  ///< reference, indication, E, hysteresis, residual
-  stats::BudgetResult budget;       ///< of E, in grams
-  double tolerance_g = 0.0;         ///< +/- limit on E
+  stats::BudgetResult budget;       ///< of E, in grams (stats works on plain numbers; its unit is "g")
+  Mass tolerance;                   ///< +/- limit on E
   std::string tolerance_basis;      ///< e.g. "OIML R 76 class II, e = 0.01 g, in service: 1 e x 2"
   Decision decision;
-  double weight_uncertainty_g = 0.0;  ///< sum of certificate U (or class MPE) of the weights used
-  bool weight_suitable = true;        ///< weight_uncertainty_g <= tolerance_g / 3
+  Mass weight_uncertainty;               ///< sum of certificate U (or class MPE) of the weights used
+  bool weight_suitable = true;           ///< weight_uncertainty <= tolerance / 3
   std::size_t repeatability_series = 0;  ///< 1-based index of the series whose s was used
 };
 
@@ -117,9 +117,9 @@ struct CalibrationResult {
 /// or any error evaluate_linearity() / evaluate_eccentricity() raise.
 CalibrationResult evaluate_calibration(const CalibrationInput& in);
 
-/// The tolerance (+/- limit, grams) for a load, with a sentence saying where it comes from.
-std::pair<double, std::string> tolerance_for(const CalibrationTolerance& t, const CalibratedBalance& b,
-                                             const LoadResult& load);
+/// The tolerance (+/- limit) for a load, with a sentence saying where it comes from.
+std::pair<Mass, std::string> tolerance_for(const CalibrationTolerance& t, const CalibratedBalance& b,
+                                           const LoadResult& load);
 
 /// Orders conformity states from best to worst (pass < pass, not proven < fail, not proven < fail).
 Conformity worst(Conformity a, Conformity b);

@@ -56,20 +56,21 @@ std::string_view key(Conformity c) {
   return "?";
 }
 
-Decision decide(double value, double U, const Limits& limits, DecisionRule rule) {
-  if (!std::isfinite(value)) throw InputError("value: the result to judge is not a finite number.");
-  if (!std::isfinite(U) || U < 0.0)
-    throw InputError(fmt::format("expanded uncertainty: {} is not a non-negative number.", U));
+Decision decide(Mass value, Mass U, const Limits& limits, DecisionRule rule) {
+  if (!std::isfinite(value.g())) throw InputError("value: the result to judge is not a finite number.");
+  if (!std::isfinite(U.g()) || U < Mass())
+    throw InputError(fmt::format("expanded uncertainty: {} is not a non-negative number.", U.g()));
   if (!limits.lower && !limits.upper) throw InputError("tolerance: neither a lower nor an upper limit is given.");
   if (limits.lower && limits.upper && *limits.lower > *limits.upper)
-    throw InputError(fmt::format("tolerance: lower limit {} is above upper limit {}.", *limits.lower, *limits.upper));
+    throw InputError(
+        fmt::format("tolerance: lower limit {} is above upper limit {}.", limits.lower->g(), limits.upper->g()));
 
   Decision d;
   d.rule = rule;
   d.value = value;
   d.expanded_uncertainty = U;
-  d.guard_band = rule == DecisionRule::guard_band_u ? U : 0.0;
-  const double w = d.guard_band;
+  d.guard_band = rule == DecisionRule::guard_band_u ? U : Mass();
+  const Mass w = d.guard_band;
   if (limits.lower) d.acceptance_lower = *limits.lower + w;
   if (limits.upper) d.acceptance_upper = *limits.upper - w;
   d.acceptance_zone_empty = d.acceptance_lower && d.acceptance_upper && *d.acceptance_lower > *d.acceptance_upper;

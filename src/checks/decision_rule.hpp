@@ -11,6 +11,8 @@
 #include <string>
 #include <string_view>
 
+#include "core/units.hpp"
+
 namespace plumb::checks {
 
 enum class DecisionRule { simple_acceptance, guard_band_u };
@@ -27,27 +29,27 @@ std::string_view key(Conformity c);        ///< "pass", "pass-not-proven", "fail
 /// True only for a clear pass.
 inline bool clear_pass(Conformity c) { return c == Conformity::pass; }
 
-/// Tolerance limits on the measured quantity (e.g. the error of indication); either side may be open.
+/// Tolerance limits on the measured mass (the error of indication of a balance); either side may be open.
 struct Limits {
-  std::optional<double> lower;
-  std::optional<double> upper;
-  static Limits symmetric(double tolerance) { return {-tolerance, tolerance}; }
+  std::optional<Mass> lower;
+  std::optional<Mass> upper;
+  static Limits symmetric(Mass tolerance) { return {-tolerance, tolerance}; }
 };
 
 struct Decision {
   DecisionRule rule = DecisionRule::simple_acceptance;
   Conformity state = Conformity::pass;
-  double value = 0.0;
-  double expanded_uncertainty = 0.0;
-  double guard_band = 0.0;                 ///< w: 0 or U
-  std::optional<double> acceptance_lower;  ///< lower + w
-  std::optional<double> acceptance_upper;  ///< upper - w
-  bool acceptance_zone_empty = false;      ///< 2U >= the tolerance width: no result can clearly pass
-  std::string explanation;                 ///< one plain sentence for the certificate
+  Mass value;
+  Mass expanded_uncertainty;
+  Mass guard_band;                       ///< w: 0 or U
+  std::optional<Mass> acceptance_lower;  ///< lower + w
+  std::optional<Mass> acceptance_upper;  ///< upper - w
+  bool acceptance_zone_empty = false;    ///< 2U >= the tolerance width: no result can clearly pass
+  std::string explanation;               ///< one plain sentence for the certificate
 };
 
 /// Decides conformity of `value` with expanded uncertainty `U` against `limits`. Throws InputError when
 /// U is negative or not finite, both limits are missing, or lower > upper.
-Decision decide(double value, double U, const Limits& limits, DecisionRule rule);
+Decision decide(Mass value, Mass U, const Limits& limits, DecisionRule rule);
 
 }  // namespace plumb::checks

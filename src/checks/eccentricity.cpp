@@ -17,19 +17,20 @@ std::string lower(std::string_view s) {
   for (char ch : s) out.push_back(static_cast<char>(std::tolower(static_cast<unsigned char>(ch))));
   return out;
 }
-Decimal abs(Decimal d) { return d < Decimal(0, 0) ? -d : d; }
 }  // namespace
 
-double EccentricityResult::half_width_at(double load_g) const {
-  return max_abs_deviation_g.to_double() / (2.0 * load.approx().g) * load_g;
+Mass EccentricityResult::half_width_at(Mass load_at) const {
+  return Mass::grams(max_abs_deviation.approx().g() / (2.0 * load.approx().g()) * load_at.g());
 }
 
-double EccentricityResult::uncertainty_at(double load_g) const { return half_width_at(load_g) / std::sqrt(3.0); }
+Mass EccentricityResult::uncertainty_at(Mass load_at) const {
+  return half_width_at(load_at) / std::sqrt(3.0);
+}
 
 EccentricityResult evaluate_eccentricity(const EccentricityInput& in) {
   if (in.load.in_grams().units() <= 0)
     throw InputError(fmt::format("eccentricity load: {} is not positive.", in.load.to_string()));
-  if (!in.centre_g)
+  if (!in.centre)
     throw InputError("eccentricity centre: the run has no centre reading; the deviations are taken from it.");
   if (in.positions.size() < min_eccentricity_positions)
     throw InputError(fmt::format("eccentricity positions: {} off-centre position(s) given; at least {} are needed.",
@@ -49,17 +50,17 @@ EccentricityResult evaluate_eccentricity(const EccentricityInput& in) {
 
   EccentricityResult r;
   r.load = in.load;
-  r.centre_g = *in.centre_g;
-  r.max_abs_deviation_g = Decimal(0, 0);
+  r.centre = *in.centre;
+  r.max_abs_deviation = ExactMass();
   for (const auto& p : in.positions) {
-    const Decimal dev = p.reading_g - r.centre_g;
-    r.deviations.push_back({p.name, p.reading_g, dev});
-    if (r.max_position.empty() || abs(dev) > r.max_abs_deviation_g) {
-      r.max_abs_deviation_g = abs(dev);
+    const ExactMass dev = p.reading - r.centre;
+    r.deviations.push_back({p.name, p.reading, dev});
+    if (r.max_position.empty() || abs(dev) > r.max_abs_deviation) {
+      r.max_abs_deviation = abs(dev);
       r.max_position = p.name;
     }
   }
-  r.relative_max = r.max_abs_deviation_g.to_double() / in.load.approx().g;
+  r.relative_max = r.max_abs_deviation.approx() / in.load.approx();
   return r;
 }
 

@@ -15,12 +15,12 @@ namespace plumb::checks {
 
 struct EccentricityPosition {
   std::string name;   ///< e.g. "front-left", "back", "2"
-  Decimal reading_g;  ///< exact, as displayed, in grams
+  ExactMass reading;  ///< exact, as displayed
 };
 
 struct EccentricityInput {
   ExactMass load;                        ///< L_ecc, the test load (conventional mass or nominal)
-  std::optional<Decimal> centre_g;       ///< the reading at the centre
+  std::optional<ExactMass> centre;       ///< the reading at the centre
   std::vector<EccentricityPosition> positions;  ///< >= 4 off-centre positions, distinct names
 };
 
@@ -28,23 +28,23 @@ inline constexpr std::size_t min_eccentricity_positions = 4;
 
 struct EccentricityDeviation {
   std::string name;
-  Decimal reading_g;
-  Decimal deviation_g;  ///< reading - centre, exact
+  ExactMass reading;
+  ExactMass deviation;  ///< reading - centre, exact
 };
 
 struct EccentricityResult {
   ExactMass load;
-  Decimal centre_g;
+  ExactMass centre;
   std::vector<EccentricityDeviation> deviations;  ///< in input order
-  Decimal max_abs_deviation_g;                    ///< |Delta_I_ecc|max, exact
+  ExactMass max_abs_deviation;                    ///< |Delta_I_ecc|max, exact
   std::string max_position;                       ///< first position where it occurs
   /// |Delta_I_ecc|max / L_ecc: the relative eccentricity error, scaled to other loads.
   double relative_max = 0.0;
 
-  /// Half-width of the rectangular distribution at load L (grams): |Delta|max / (2 L_ecc) * L.
-  [[nodiscard]] double half_width_at(double load_g) const;
-  /// EURAMET cg-18 standard uncertainty at load L (grams): half_width_at(L) / sqrt(3).
-  [[nodiscard]] double uncertainty_at(double load_g) const;
+  /// Half-width of the rectangular distribution at load L: |Delta|max / (2 L_ecc) * L.
+  [[nodiscard]] Mass half_width_at(Mass load_at) const;
+  /// EURAMET cg-18 standard uncertainty at load L: half_width_at(L) / sqrt(3).
+  [[nodiscard]] Mass uncertainty_at(Mass load_at) const;
 };
 
 /// Throws InputError when the centre reading is missing, there are fewer than 4 positions, a position

@@ -20,30 +20,30 @@ std::string trim(std::string_view s) {
   return std::string(s);
 }
 
-double mean_of(const std::vector<Decimal>& v) {
+Mass mean_of(const std::vector<ExactMass>& v) {
   // Exact sum, one rounding.
-  Decimal s(0, 0);
-  for (const auto& d : v) s = s + d;
-  return s.to_double() / static_cast<double>(v.size());
+  ExactMass s;
+  for (const auto& m : v) s = s + m;
+  return Mass::grams(s.in_grams().to_double() / static_cast<double>(v.size()));
 }
 
-void check_readings(const std::vector<Decimal>& v, int d_scale, std::size_t load, const char* direction,
+void check_readings(const std::vector<ExactMass>& v, int d_scale, std::size_t load, const char* direction,
                     const ExactMass& d) {
   for (std::size_t i = 0; i < v.size(); ++i)
-    if (v[i].significant_scale() > d_scale)
+    if (v[i].in_grams().significant_scale() > d_scale)
       throw InputError(fmt::format("load {} {} reading {} ({} g) has more decimals than the readability {} allows.",
-                                   load, direction, i + 1, v[i].to_string(), d.to_string()));
+                                   load, direction, i + 1, v[i].in_grams().to_string(), d.to_string()));
 }
 
 }  // namespace
 
-double CalibrationWeight::standard_uncertainty_g() const {
+Mass CalibrationWeight::standard_uncertainty() const {
   if (expanded_uncertainty) {
     if (!(coverage_factor > 0.0))
       throw InputError(fmt::format("weight {}: coverage factor {} is not positive.", id, coverage_factor));
-    return expanded_uncertainty->approx().g / coverage_factor;
+    return expanded_uncertainty->approx() / coverage_factor;
   }
-  if (weight_class) return weights::mpe_or_throw(*weight_class, nominal, id).approx().g / std::sqrt(3.0);
+  if (weight_class) return weights::mpe_or_throw(*weight_class, nominal, id).approx() / std::sqrt(3.0);
   throw InputError(fmt::format("weight {}: neither a certificate uncertainty nor an OIML R 111 class is given.", id));
 }
 
@@ -72,7 +72,7 @@ LinearityResult evaluate_linearity(const LinearityInput& in) {
   for (const auto& w : in.weights) {
     if (w.id.empty()) throw InputError("weight id: a reference weight has no id.");
     if (!by_id.emplace(w.id, &w).second) throw InputError(fmt::format("weight {}: the id is listed twice.", w.id));
-    (void)w.standard_uncertainty_g();  // validates certificate or class now, naming the weight
+    (void)w.standard_uncertainty();  // validates certificate or class now, naming the weight
   }
   const int d_scale = in.readability.in_grams().significant_scale();
   const bool air_measured = in.air.has_value();
@@ -97,11 +97,11 @@ LinearityResult evaluate_linearity(const LinearityInput& in) {
       const CalibrationWeight& w = *it->second;
       L.nominal = L.nominal + w.nominal;
       L.conventional = L.conventional + w.reference_mass();
-      L.u_weights_g += w.standard_uncertainty_g();
-      if (w.drift) L.u_drift_g += std::abs(w.drift->approx().g) / std::sqrt(3.0);
+      L.u_weights += w.standard_uncertainty();
+      if (w.drift) L.u_drift += abs(w.drift->approx()) / std::sqrt(3.0);
       L.class_only = L.class_only || w.class_only();
-      const auto b = buoyancy::correction(
-          {w.reference_mass().approx().g, w.density_kg_m3, w.u_density_kg_m3, rho_a, u_rho_a});
+      const auto b =
+          buoyancy::correction({w.reference_mass().approx().g(), w.density_kg_m3, w.u_density_kg_m3, rho_a, u_rho_a});
       corr += b.correction;
       // Correlated through the one air density: summed linearly (conservative).
       u_b += apply ? b.u : std::hypot(b.u, std::abs(b.correction) / std::sqrt(3.0));
@@ -109,30 +109,30 @@ LinearityResult evaluate_linearity(const LinearityInput& in) {
     if (L.nominal > in.capacity)
       throw InputError(fmt::format("{}: the load {} is above the capacity {}.", field, L.nominal.to_string(),
                                    in.capacity.to_string()));
-    if (lp.up_g.empty()) throw InputError(fmt::format("{}: no reading going up.", field));
-    check_readings(lp.up_g, d_scale, i + 1, "up", in.readability);
-    check_readings(lp.down_g, d_scale, i + 1, "down", in.readability);
-    L.buoyancy_correction_g = apply ? corr : 0.0;
-    L.u_buoyancy_g = u_b;
-    L.reference_g = L.conventional.approx().g + L.buoyancy_correction_g;
-    L.up_g = lp.up_g;
-    L.down_g = lp.down_g;
-    L.indication_g = mean_of(lp.up_g);
-    if (lp.up_g.size() == 1 && L.buoyancy_correction_g == 0.0) {
-      L.error_exact_g = lp.up_g.front() - L.conventional.in_grams();
-      L.error_g = L.error_exact_g->to_double();
+    if (lp.up.empty()) throw InputError(fmt::format("{}: no reading going up.", field));
+    check_readings(lp.up, d_scale, i + 1, "up", in.readability);
+    check_readings(lp.down, d_scale, i + 1, "down", in.readability);
+    L.buoyancy_correction = Mass::grams(apply ? corr : 0.0);
+    L.u_buoyancy = Mass::grams(u_b);
+    L.reference = L.conventional.approx() + L.buoyancy_correction;
+    L.up = lp.up;
+    L.down = lp.down;
+    L.indication = mean_of(lp.up);
+    if (lp.up.size() == 1 && L.buoyancy_correction == Mass()) {
+      L.error_exact = lp.up.front() - L.conventional;
+      L.error = L.error_exact->approx();
     } else {
-      L.error_g = L.indication_g - L.reference_g;
+      L.error = L.indication - L.reference;
     }
-    if (!lp.down_g.empty()) {
-      L.indication_down_g = mean_of(lp.down_g);
-      L.hysteresis_g = *L.indication_down_g - L.indication_g;
+    if (!lp.down.empty()) {
+      L.indication_down = mean_of(lp.down);
+      L.hysteresis = *L.indication_down - L.indication;
     }
     r.loads.push_back(std::move(L));
   }
 
   std::set<double> distinct;
-  for (const auto& L : r.loads) distinct.insert(L.reference_g);
+  for (const auto& L : r.loads) distinct.insert(L.reference.g());
   if (in.model == stats::Model::quadratic && distinct.size() < 3)
     throw InputError(fmt::format("model: a quadratic needs at least 3 distinct loads; {} given.", distinct.size()));
   if (in.model == stats::Model::line && distinct.size() < 2)
@@ -142,11 +142,11 @@ LinearityResult evaluate_linearity(const LinearityInput& in) {
 
   std::vector<double> x, y;
   for (const auto& L : r.loads) {
-    x.push_back(L.reference_g);
-    y.push_back(L.indication_g);
+    x.push_back(L.reference.g());
+    y.push_back(L.indication.g());
   }
   r.fit = stats::fit(in.model, x, y);
-  for (std::size_t i = 0; i < r.loads.size(); ++i) r.loads[i].residual_g = r.fit.residuals[i];
+  for (std::size_t i = 0; i < r.loads.size(); ++i) r.loads[i].residual = Mass::grams(r.fit.residuals[i]);
   r.equation = r.fit.equation(8, "m", "I");
   // E = I - m: the same coefficients with 1 subtracted from the slope.
   stats::Fit e = r.fit;
@@ -155,12 +155,11 @@ LinearityResult evaluate_linearity(const LinearityInput& in) {
   r.error_equation = e.equation(6, "m", "E");
 
   for (const auto& L : r.loads) {
-    if (std::abs(L.error_g) > r.max_abs_error_g || r.max_error_load == 0) {
-      r.max_abs_error_g = std::abs(L.error_g);
+    if (abs(L.error) > r.max_abs_error || r.max_error_load == 0) {
+      r.max_abs_error = abs(L.error);
       r.max_error_load = L.index;
     }
-    if (L.hysteresis_g)
-      r.max_abs_hysteresis_g = std::max(r.max_abs_hysteresis_g.value_or(0.0), std::abs(*L.hysteresis_g));
+    if (L.hysteresis) r.max_abs_hysteresis = std::max(r.max_abs_hysteresis.value_or(Mass()), abs(*L.hysteresis));
   }
   if (!air_measured)
     r.notes.push_back("The air density was not measured: no buoyancy correction is applied, and its uncertainty "
@@ -168,19 +167,20 @@ LinearityResult evaluate_linearity(const LinearityInput& in) {
   return r;
 }
 
-InterpolatedError error_at(const LinearityResult& r, double load_g, Extrapolation policy) {
+InterpolatedError error_at(const LinearityResult& r, Mass load, Extrapolation policy) {
+  const double load_g = load.g();  // the fit is in grams
   if (!std::isfinite(load_g) || load_g < 0.0)
     throw InputError(fmt::format("load: {} g is not a non-negative number.", load_g));
   InterpolatedError out;
-  out.load_g = load_g;
+  out.load = load;
   out.extrapolated = !r.fit.interpolates(load_g);
   if (out.extrapolated && policy == Extrapolation::refuse)
     throw InputError(fmt::format("load: {} g is outside the calibrated range {} g to {} g; the error there would be "
                                  "an extrapolation.",
                                  load_g, r.fit.x_min, r.fit.x_max));
-  out.indication_g = r.fit.predict(load_g);
-  out.error_g = out.indication_g - load_g;
-  out.se_g = r.fit.se_mean(load_g);
+  out.indication = Mass::grams(r.fit.predict(load_g));
+  out.error = out.indication - load;
+  out.se = Mass::grams(r.fit.se_mean(load_g));
   return out;
 }
 

@@ -32,7 +32,7 @@ struct CalibrationWeight {
 
   [[nodiscard]] ExactMass reference_mass() const { return conventional_mass.value_or(nominal); }
   /// u(m_c): U / k from the certificate, else the class MPE / sqrt 3. Throws InputError if neither is known.
-  [[nodiscard]] double standard_uncertainty_g() const;
+  [[nodiscard]] Mass standard_uncertainty() const;
   /// True when only the class is known (no certificate uncertainty).
   [[nodiscard]] bool class_only() const { return !expanded_uncertainty.has_value(); }
 };
@@ -41,9 +41,9 @@ struct CalibrationWeight {
 std::vector<std::string> parse_combination(std::string_view text, std::string_view field = "load");
 
 struct LoadPoint {
-  std::string combination;     ///< "W100+W50"
-  std::vector<Decimal> up_g;   ///< readings going up (>= 1), exact, grams
-  std::vector<Decimal> down_g; ///< readings coming down (optional: hysteresis)
+  std::string combination;      ///< "W100+W50"
+  std::vector<ExactMass> up;    ///< readings going up (>= 1), exact, as displayed
+  std::vector<ExactMass> down;  ///< readings coming down (optional: hysteresis)
 };
 
 /// The air during the test, when known (kg/m3).
@@ -71,29 +71,29 @@ struct LoadResult {
   std::vector<std::string> weight_ids;
   ExactMass nominal;                  ///< sum of nominal values
   ExactMass conventional;             ///< sum of conventional masses, exact
-  double buoyancy_correction_g = 0.0; ///< delta_m_B added to m_ref (0 when not applied)
-  double u_buoyancy_g = 0.0;          ///< standard uncertainty of delta_m_B (summed over the weights)
-  double reference_g = 0.0;           ///< m_ref = conventional + correction
-  std::vector<Decimal> up_g, down_g;
-  double indication_g = 0.0;          ///< mean of the up readings
-  double error_g = 0.0;               ///< E = I - m_ref
-  std::optional<Decimal> error_exact_g;  ///< E exactly, when one up reading and no buoyancy correction
-  std::optional<double> indication_down_g;
-  std::optional<double> hysteresis_g;    ///< mean down - mean up
-  double u_weights_g = 0.0;           ///< sum of u(m_c) of the weights (fully correlated, cg-18 7.1.2.1)
-  double u_drift_g = 0.0;             ///< sum of D / sqrt 3
+  Mass buoyancy_correction;           ///< delta_m_B added to m_ref (0 when not applied)
+  Mass u_buoyancy;                    ///< standard uncertainty of delta_m_B (summed over the weights)
+  Mass reference;                     ///< m_ref = conventional + correction
+  std::vector<ExactMass> up, down;
+  Mass indication;                       ///< mean of the up readings
+  Mass error;                            ///< E = I - m_ref
+  std::optional<ExactMass> error_exact;  ///< E exactly, when one up reading and no buoyancy correction
+  std::optional<Mass> indication_down;
+  std::optional<Mass> hysteresis;     ///< mean down - mean up
+  Mass u_weights;                     ///< sum of u(m_c) of the weights (fully correlated, cg-18 7.1.2.1)
+  Mass u_drift;                       ///< sum of D / sqrt 3
   bool class_only = false;            ///< some weight is known only by its class
-  double residual_g = 0.0;            ///< of the fitted model
+  Mass residual;                      ///< of the fitted model
 };
 
 struct LinearityResult {
   std::vector<LoadResult> loads;
-  stats::Fit fit;                     ///< reading against reference (grams)
+  stats::Fit fit;                     ///< reading against reference, both in grams (stats works on plain numbers)
   std::string equation;               ///< e.g. "I = 1.0000012 m - 0.0001"
   std::string error_equation;         ///< the same model as E = I - m
-  double max_abs_error_g = 0.0;
+  Mass max_abs_error;
   std::size_t max_error_load = 0;     ///< 1-based index
-  std::optional<double> max_abs_hysteresis_g;
+  std::optional<Mass> max_abs_hysteresis;
   std::vector<std::string> notes;
 };
 
@@ -104,14 +104,14 @@ LinearityResult evaluate_linearity(const LinearityInput& in);
 
 enum class Extrapolation { refuse, mark };
 struct InterpolatedError {
-  double load_g = 0.0;
-  double indication_g = 0.0;  ///< fitted reading at the load
-  double error_g = 0.0;       ///< fitted reading - load
-  double se_g = 0.0;          ///< standard error of the fitted mean at the load
+  Mass load;
+  Mass indication;  ///< fitted reading at the load
+  Mass error;       ///< fitted reading - load
+  Mass se;          ///< standard error of the fitted mean at the load
   bool extrapolated = false;
 };
-/// The fitted error at `load_g`. Outside [smallest, largest] calibrated load: InputError (refuse) or
+/// The fitted error at `load`. Outside [smallest, largest] calibrated load: InputError (refuse) or
 /// a result marked extrapolated (mark).
-InterpolatedError error_at(const LinearityResult& r, double load_g, Extrapolation policy = Extrapolation::refuse);
+InterpolatedError error_at(const LinearityResult& r, Mass load, Extrapolation policy = Extrapolation::refuse);
 
 }  // namespace plumb::checks

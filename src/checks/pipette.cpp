@@ -13,16 +13,19 @@ namespace plumb::checks {
 namespace {
 
 const Decimal zero{0, 0};
+const ExactVolume no_volume;
 
 /// Shortest exact text: 10 % of 100 uL is "10", not "10.0".
 Decimal trimmed(Decimal v) { return v.rescaled(v.significant_scale()); }
-std::string ul(Decimal v) { return trimmed(v).to_string() + " uL"; }
+std::string ul(ExactVolume v) {
+  return v.to_string();
+}
 /// Balance readabilities are stated in mg in ISO 8655-6, so messages state them in mg too.
 std::string in_mg(const ExactMass& m) { return trimmed(m.in_grams().shifted(3)).to_string() + " mg"; }
 
 /// Decimals for printing a volume error next to a selected volume: 5 at 1 uL, 3 at 100 uL, 1 at 10 mL.
-int volume_decimals(Decimal selected) {
-  const double v = selected.to_double();
+int volume_decimals(ExactVolume selected) {
+  const double v = selected.approx().ul();
   const int d = 5 - static_cast<int>(std::floor(std::log10(v)));
   return std::clamp(d, 1, 6);
 }
@@ -31,10 +34,13 @@ int volume_decimals(Decimal selected) {
 // binary floating point, so "equal" allows a relative 1e-9 for a limit printed as a short decimal.
 bool beyond(double magnitude, double limit) { return magnitude > limit * (1.0 + 1e-9); }
 
-Decimal half_of(Decimal v) { return {v.units() * 5, v.scale() + 1}; }
+ExactVolume half_of(ExactVolume v) {
+  const Decimal ul = v.in_microlitres();
+  return ExactVolume::microlitres({ul.units() * 5, ul.scale() + 1});
+}
 
 void check_channel_input(const PipetteRunInput& in, const TestVolumeWeighings& tv, const ChannelWeighings& ch) {
-  const std::string where = fmt::format("test volume {}, channel {}", ul(tv.volume_ul), ch.channel);
+  const std::string where = fmt::format("test volume {}, channel {}", ul(tv.volume), ch.channel);
   if (ch.weighings.size() < min_replicates)
     throw InputError(fmt::format("{}: {} weighing(s) given; the gravimetric check needs at least {} replicates "
                                  "({} recommended).",
@@ -54,10 +60,10 @@ void check_channel_input(const PipetteRunInput& in, const TestVolumeWeighings& t
   }
 }
 
-ChannelResult evaluate_channel(const PipetteRunInput& in, const gravimetric::ZFactor& z, Decimal selected,
+ChannelResult evaluate_channel(const PipetteRunInput& in, const gravimetric::ZFactor& z, ExactVolume selected,
                                const ChannelWeighings& ch) {
   ChannelResult r;
-  r.selected_ul = selected;
+  r.selected = selected;
   r.channel = ch.channel;
   std::vector<Decimal> net_mg;
   net_mg.reserve(ch.weighings.size());
@@ -69,15 +75,15 @@ ChannelResult evaluate_channel(const PipetteRunInput& in, const gravimetric::ZFa
   const stats::ExactSummary s = stats::summarize_exact(net_mg);
   const double zf = z.z_ul_per_mg;
   r.n = s.n;
-  r.mean_mass = {s.mean() / 1e3};
-  r.sd_mass = {s.sd() / 1e3};
-  for (const Decimal& m : net_mg) r.volumes.push_back({m.to_double() * zf});
-  r.mean = {zf * s.mean()};
-  r.systematic_error = {r.mean.ul - selected.to_double()};
-  r.systematic_error_pct = 100.0 * r.systematic_error.ul / selected.to_double();
-  r.random_error = {zf * s.sd()};
+  r.mean_mass = Mass::milligrams(s.mean());
+  r.sd_mass = Mass::milligrams(s.sd());
+  for (const Decimal& m : net_mg) r.volumes.push_back(Volume::microlitres(m.to_double() * zf));
+  r.mean = Volume::microlitres(zf * s.mean());
+  r.systematic_error = r.mean - selected.approx();
+  r.systematic_error_pct = 100.0 * r.systematic_error.ul() / selected.approx().ul();
+  r.random_error = Volume::microlitres(zf * s.sd());
   r.cv_pct = 100.0 * s.sd() / s.mean();  // Z cancels
-  r.limits = pipette_limits::limits_at(in.pipette.limits, in.pipette.nominal_ul, selected, in.pipette.channels);
+  r.limits = pipette_limits::limits_at(in.pipette.limits, in.pipette.nominal, selected, in.pipette.channels);
 
   const int dp = volume_decimals(selected);
   const std::string where = fmt::format("{}, channel {}", ul(selected), ch.channel);
@@ -94,12 +100,12 @@ ChannelResult evaluate_channel(const PipetteRunInput& in, const gravimetric::ZFa
       fail(fmt::format("{}: random error CV {:.3f} % exceeds the limit {} % ({})", where, r.cv_pct,
                        in.pipette.limits.random->to_string(), policy));
   } else {
-    if (beyond(std::abs(r.systematic_error.ul), r.limits.systematic.ul))
+    if (beyond(abs(r.systematic_error).ul(), r.limits.systematic.ul()))
       fail(fmt::format("{}: systematic error {:+.{}f} uL exceeds the limit +/-{:.{}f} uL ({})", where,
-                       r.systematic_error.ul, dp, r.limits.systematic.ul, dp, policy));
-    if (beyond(r.random_error.ul, r.limits.random.ul))
-      fail(fmt::format("{}: random error s = {:.{}f} uL exceeds the limit {:.{}f} uL ({})", where, r.random_error.ul,
-                       dp, r.limits.random.ul, dp, policy));
+                       r.systematic_error.ul(), dp, r.limits.systematic.ul(), dp, policy));
+    if (beyond(r.random_error.ul(), r.limits.random.ul()))
+      fail(fmt::format("{}: random error s = {:.{}f} uL exceeds the limit {:.{}f} uL ({})", where, r.random_error.ul(),
+                       dp, r.limits.random.ul(), dp, policy));
   }
   return r;
 }
@@ -110,31 +116,32 @@ std::string_view to_string(PipetteKind k) { return k == PipetteKind::fixed ? "fi
 
 void validate(const PipetteDefinition& p) {
   const std::string who = p.id.empty() ? std::string("pipette") : fmt::format("pipette {}", p.id);
-  if (p.nominal_ul <= zero)
-    throw InputError(fmt::format("{}: nominal volume {} must be positive.", who, ul(p.nominal_ul)));
+  if (p.nominal <= no_volume)
+    throw InputError(fmt::format("{}: nominal volume {} must be positive.", who, ul(p.nominal)));
   if (p.channels < 1 || p.channels > max_channels)
     throw InputError(fmt::format("{}: channel count {} is outside 1 to {}.", who, p.channels, max_channels));
   if (p.kind == PipetteKind::variable) {
-    if (!p.lower_limit_ul)
+    if (!p.lower_limit)
       throw InputError(fmt::format("{}: a variable-volume pipette needs the lower limit of its range.", who));
-    if (*p.lower_limit_ul <= zero || *p.lower_limit_ul >= p.nominal_ul)
+    if (*p.lower_limit <= no_volume || *p.lower_limit >= p.nominal)
       throw InputError(fmt::format("{}: lower limit {} must be positive and below the nominal volume {}.", who,
-                                   ul(*p.lower_limit_ul), ul(p.nominal_ul)));
-  } else if (p.lower_limit_ul && *p.lower_limit_ul != p.nominal_ul) {
-    throw InputError(fmt::format("{}: a fixed-volume pipette has no range, but a lower limit {} was given for "
-                                 "nominal volume {}.",
-                                 who, ul(*p.lower_limit_ul), ul(p.nominal_ul)));
+                                   ul(*p.lower_limit), ul(p.nominal)));
+  } else if (p.lower_limit && *p.lower_limit != p.nominal) {
+    throw InputError(
+        fmt::format("{}: a fixed-volume pipette has no range, but a lower limit {} was given for "
+                    "nominal volume {}.",
+                    who, ul(*p.lower_limit), ul(p.nominal)));
   }
-  pipette_limits::validate_policy(p.limits, p.nominal_ul);
+  pipette_limits::validate_policy(p.limits, p.nominal);
 }
 
-std::vector<Decimal> default_test_volumes(const PipetteDefinition& p) {
-  std::vector<Decimal> v{trimmed(p.nominal_ul)};
+std::vector<ExactVolume> default_test_volumes(const PipetteDefinition& p) {
+  std::vector<ExactVolume> v{p.nominal.trimmed()};
   if (p.kind == PipetteKind::fixed) return v;
-  const Decimal lower = p.lower_limit_ul.value_or(zero);
-  const Decimal half = trimmed(std::max(half_of(p.nominal_ul), lower));
-  const Decimal tenth = trimmed(std::max(p.nominal_ul.shifted(-1), lower));
-  for (Decimal x : {half, tenth})
+  const ExactVolume lower = p.lower_limit.value_or(no_volume);
+  const ExactVolume half = std::max(half_of(p.nominal), lower).trimmed();
+  const ExactVolume tenth = std::max(ExactVolume::microlitres(p.nominal.in_microlitres().shifted(-1)), lower).trimmed();
+  for (ExactVolume x : {half, tenth})
     if (x != v.back()) v.push_back(x);
   return v;
 }
@@ -155,33 +162,32 @@ PipetteRunResult evaluate_pipette_run(const PipetteRunInput& in) {
   out.evaporation_per_weighing = in.evaporation_per_weighing;
   if (in.volumes.empty()) throw InputError("the run has no test volumes; give weighings for at least one volume.");
 
-  const Decimal lower = p.kind == PipetteKind::variable ? *p.lower_limit_ul : p.nominal_ul;
-  std::set<Decimal, std::less<>> seen_volumes;
+  const ExactVolume lower = p.kind == PipetteKind::variable ? *p.lower_limit : p.nominal;
+  std::set<ExactVolume, std::less<>> seen_volumes;
   for (const TestVolumeWeighings& tv : in.volumes) {
-    if (tv.volume_ul < lower || tv.volume_ul > p.nominal_ul)
-      throw InputError(fmt::format(
-          "test volume {} is outside the range of pipette {} ({}).", ul(tv.volume_ul), p.id,
-          p.kind == PipetteKind::fixed ? fmt::format("fixed at {}", ul(p.nominal_ul))
-                                       : fmt::format("{} to {}", ul(lower), ul(p.nominal_ul))));
-    if (!seen_volumes.insert(tv.volume_ul).second)
-      throw InputError(fmt::format("test volume {} is given twice in the run.", ul(tv.volume_ul)));
+    if (tv.volume < lower || tv.volume > p.nominal)
+      throw InputError(fmt::format("test volume {} is outside the range of pipette {} ({}).", ul(tv.volume), p.id,
+                                   p.kind == PipetteKind::fixed ? fmt::format("fixed at {}", ul(p.nominal))
+                                                                : fmt::format("{} to {}", ul(lower), ul(p.nominal))));
+    if (!seen_volumes.insert(tv.volume).second)
+      throw InputError(fmt::format("test volume {} is given twice in the run.", ul(tv.volume)));
     // An unsuitable balance is the first thing to say: its readings would fail the decimals check anyway.
-    const pipette_balance::Suitability suit = pipette_balance::assess(in.balance, tv.volume_ul);
+    const pipette_balance::Suitability suit = pipette_balance::assess(in.balance, tv.volume);
     if (!suit.suitable) {
       std::string why;
       for (const auto& r : suit.reasons) why += (why.empty() ? "" : "; ") + r;
       throw InputError(fmt::format("the balance is not suitable for this run: {}.", why));
     }
-    if (tv.channels.empty())
-      throw InputError(fmt::format("test volume {} has no weighings.", ul(tv.volume_ul)));
+    if (tv.channels.empty()) throw InputError(fmt::format("test volume {} has no weighings.", ul(tv.volume)));
     std::set<int> seen_channels;
     for (const ChannelWeighings& ch : tv.channels) {
       if (ch.channel < 1 || ch.channel > p.channels)
-        throw InputError(fmt::format("test volume {}: channel {} does not exist on pipette {}, which has {} "
-                                     "channel(s).",
-                                     ul(tv.volume_ul), ch.channel, p.id, p.channels));
+        throw InputError(
+            fmt::format("test volume {}: channel {} does not exist on pipette {}, which has {} "
+                        "channel(s).",
+                        ul(tv.volume), ch.channel, p.id, p.channels));
       if (!seen_channels.insert(ch.channel).second)
-        throw InputError(fmt::format("test volume {}: channel {} is given twice.", ul(tv.volume_ul), ch.channel));
+        throw InputError(fmt::format("test volume {}: channel {} is given twice.", ul(tv.volume), ch.channel));
       check_channel_input(in, tv, ch);
     }
   }
@@ -189,20 +195,20 @@ PipetteRunResult evaluate_pipette_run(const PipetteRunInput& in) {
   // Evaluate, largest volume first and channels ascending, so results read the same whatever the input order.
   std::vector<const TestVolumeWeighings*> order;
   for (const auto& tv : in.volumes) order.push_back(&tv);
-  std::sort(order.begin(), order.end(), [](auto* a, auto* b) { return a->volume_ul > b->volume_ul; });
+  std::sort(order.begin(), order.end(), [](auto* a, auto* b) { return a->volume > b->volume; });
   std::set<std::string> balance_notes;
   bool few = false;
   for (const TestVolumeWeighings* tv : order) {
     TestVolumeResult tr;
-    tr.selected_ul = tv->volume_ul;
-    tr.balance = pipette_balance::assess(in.balance, tv->volume_ul);
+    tr.selected = tv->volume;
+    tr.balance = pipette_balance::assess(in.balance, tv->volume);
     balance_notes.insert(tr.balance.notes.begin(), tr.balance.notes.end());
     std::vector<const ChannelWeighings*> chans;
     for (const auto& ch : tv->channels) chans.push_back(&ch);
     std::sort(chans.begin(), chans.end(), [](auto* a, auto* b) { return a->channel < b->channel; });
     for (const ChannelWeighings* ch : chans) {
       if (ch->weighings.size() < recommended_replicates) few = true;
-      ChannelResult cr = evaluate_channel(in, out.z, tv->volume_ul, *ch);
+      ChannelResult cr = evaluate_channel(in, out.z, tv->volume, *ch);
       if (cr.verdict == Verdict::fail) {
         tr.verdict = Verdict::fail;
         out.verdict = Verdict::fail;
@@ -223,11 +229,11 @@ PipetteRunResult evaluate_pipette_run(const PipetteRunInput& in) {
       out.complete = false;
       out.verdict = Verdict::fail;
       out.reasons.push_back(fmt::format("incomplete: channel(s) {} not tested at {} (ISO 8655-6 tests every channel)",
-                                        missing, ul(tv->volume_ul)));
+                                        missing, ul(tv->volume)));
     }
     out.volumes.push_back(std::move(tr));
   }
-  for (const Decimal& v : default_test_volumes(p)) {
+  for (const ExactVolume& v : default_test_volumes(p)) {
     if (!seen_volumes.count(v)) {
       out.complete = false;
       out.verdict = Verdict::fail;

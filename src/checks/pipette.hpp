@@ -35,8 +35,8 @@ std::string_view to_string(PipetteKind k);
 struct PipetteDefinition {
   std::string id;
   PipetteKind kind = PipetteKind::fixed;
-  Decimal nominal_ul;                     ///< the fixed volume, or the largest selectable volume
-  std::optional<Decimal> lower_limit_ul;  ///< variable: the smallest selectable volume (range = [lower, nominal])
+  ExactVolume nominal;                     ///< the fixed volume, or the largest selectable volume
+  std::optional<ExactVolume> lower_limit;  ///< variable: the smallest selectable volume (range = [lower, nominal])
   int channels = 1;
   pipette_limits::LimitsPolicy limits;
 };
@@ -50,7 +50,7 @@ inline constexpr int max_channels = 384;
 void validate(const PipetteDefinition& pipette);
 
 /// The ISO 8655-6 test volumes, largest first: {nominal} or {nominal, 50 %, max(10 %, lower limit)}.
-std::vector<Decimal> default_test_volumes(const PipetteDefinition& pipette);
+std::vector<ExactVolume> default_test_volumes(const PipetteDefinition& pipette);
 
 /// The weighings of one channel at one test volume, exactly as the balance displayed them.
 struct ChannelWeighings {
@@ -59,7 +59,7 @@ struct ChannelWeighings {
 };
 
 struct TestVolumeWeighings {
-  Decimal volume_ul;  ///< the selected volume
+  ExactVolume volume;  ///< the selected volume
   std::vector<ChannelWeighings> channels;
 };
 
@@ -76,7 +76,7 @@ inline constexpr std::size_t min_replicates = 4;
 inline constexpr std::size_t recommended_replicates = 10;
 
 struct ChannelResult {
-  Decimal selected_ul;
+  ExactVolume selected;
   int channel = 1;
   long long n = 0;
   Mass mean_mass;                ///< mean of (m_i + evaporation), exact then rounded once
@@ -93,7 +93,7 @@ struct ChannelResult {
 };
 
 struct TestVolumeResult {
-  Decimal selected_ul;
+  ExactVolume selected;
   pipette_balance::Suitability balance;  ///< always suitable here: an unsuitable balance refuses the run
   std::vector<ChannelResult> channels;   ///< ascending by channel
   Verdict verdict = Verdict::pass;       ///< fail if any channel fails

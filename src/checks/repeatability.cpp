@@ -11,41 +11,42 @@
 namespace plumb::checks {
 
 Mass resolution_supported_by(Mass s) {
-  if (s.g <= 0) return s;
-  const double decade = std::pow(10.0, std::floor(std::log10(s.g)));
+  if (s.g() <= 0) return s;
+  const double decade = std::pow(10.0, std::floor(std::log10(s.g())));
   for (double step : {1.0, 2.0, 5.0, 10.0}) {
     // A tiny tolerance keeps an s that is exactly a step (0.2 mg) on that step.
-    if (step * decade >= s.g * (1 - 1e-12)) return {step * decade};
+    if (step * decade >= s.g() * (1 - 1e-12)) return Mass::grams(step * decade);
   }
-  return {10 * decade};
+  return Mass::grams(10 * decade);
 }
 
 RepeatabilityResult evaluate_repeatability(const RepeatabilityInput& in) {
-  if (in.readings_g.size() < min_readings)
+  if (in.readings.size() < min_readings)
     throw InputError(fmt::format("readings: {} reading(s) given; a repeatability check needs at least {}.",
-                                 in.readings_g.size(), min_readings));
+                                 in.readings.size(), min_readings));
   const Decimal d_exact = in.balance.readability.in_grams();
   const int d_scale = d_exact.significant_scale();
-  for (std::size_t i = 0; i < in.readings_g.size(); ++i) {
-    if (in.readings_g[i].significant_scale() > d_scale)
+  const std::vector<Decimal> readings_g = in_grams(in.readings);
+  for (std::size_t i = 0; i < readings_g.size(); ++i) {
+    if (readings_g[i].significant_scale() > d_scale)
       throw InputError(fmt::format("reading {} ({} g) has more decimals than the readability {} allows.", i + 1,
-                                   in.readings_g[i].to_string(), in.balance.readability.to_string()));
+                                   readings_g[i].to_string(), in.balance.readability.to_string()));
   }
 
-  const stats::ExactSummary sum = stats::summarize_exact(in.readings_g);
+  const stats::ExactSummary sum = stats::summarize_exact(readings_g);
   RepeatabilityResult r;
   r.n = sum.n;
-  r.mean = {sum.mean()};
-  r.sd = {sum.sd()};
+  r.mean = Mass::grams(sum.mean());
+  r.sd = Mass::grams(sum.sd());
   r.reference = in.weight.conventional_mass.approx();
-  r.bias = {sum.mean_minus(in.weight.conventional_mass.in_grams())};
-  r.bias_pct = 100.0 * r.bias.g / r.reference.g;
+  r.bias = Mass::grams(sum.mean_minus(in.weight.conventional_mass.in_grams()));
+  r.bias_pct = 100.0 * r.bias.g() / r.reference.g();
   r.readability = in.balance.readability.approx();
   r.sd_over_d = r.sd / r.readability;
   r.sd_used = usp41::effective_sd(r.sd, r.readability);
   r.min_weight = usp41::minimum_weight(r.sd, r.readability);
 
-  r.digit_backed = r.sd.g <= r.readability.g;
+  r.digit_backed = r.sd <= r.readability;
   r.effective_resolution = r.digit_backed ? r.readability : resolution_supported_by(r.sd);
   r.readability_statement =
       r.digit_backed
@@ -93,16 +94,16 @@ RepeatabilityResult evaluate_repeatability(const RepeatabilityInput& in) {
                        in.policy.max_sd->to_string()));
   }
   if (r.bias_limit) {
-    const Mass abs_bias{std::abs(r.bias.g)};
+    const Mass abs_bias = abs(r.bias);
     r.criteria.push_back({"accuracy", "|bias|", abs_bias, *r.bias_limit,
                           in.policy.kind == TolerancePolicy::Kind::usp41 ? "0.10 % of the reference value (USP <41>)"
                                                                          : "lab limit",
                           abs_bias <= *r.bias_limit});
-    if (std::abs(r.bias.g) > r.bias_limit->g)
-      fail(fmt::format("accuracy: |bias| = {} exceeds the limit {} ({})", format_mass({std::abs(r.bias.g)}),
+    if (abs_bias > *r.bias_limit)
+      fail(fmt::format("accuracy: |bias| = {} exceeds the limit {} ({})", format_mass(abs_bias),
                        format_mass(*r.bias_limit), in.policy.name()));
     // The weight must be good enough to show conformity: U <= limit / 3 (USP <41>; common practice).
-    if (weight_u.g > r.bias_limit->g / 3.0) {
+    if (weight_u > *r.bias_limit / 3.0) {
       r.weight_suitable = false;
       fail(fmt::format("reference weight {} is unsuitable for this check: its uncertainty U = {} exceeds a third "
                        "of the accuracy limit ({})",

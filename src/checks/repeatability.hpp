@@ -28,7 +28,7 @@ struct ReferenceWeightUse {
 struct RepeatabilityInput {
   BalanceUnderTest balance;
   ReferenceWeightUse weight;
-  std::vector<Decimal> readings_g;  ///< exact readings converted to grams
+  std::vector<ExactMass> readings;  ///< exact, as displayed
   TolerancePolicy policy;
 };
 

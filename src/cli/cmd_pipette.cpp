@@ -11,8 +11,8 @@ namespace plumb::cli {
 namespace {
 
 std::string range_text(const checks::PipetteDefinition& d) {
-  if (d.kind == checks::PipetteKind::fixed) return fmt::format("fixed {} uL", d.nominal_ul.to_string());
-  return fmt::format("{}-{} uL", d.lower_limit_ul->to_string(), d.nominal_ul.to_string());
+  if (d.kind == checks::PipetteKind::fixed) return fmt::format("fixed {} uL", d.nominal.in_microlitres().to_string());
+  return fmt::format("{}-{} uL", d.lower_limit->in_microlitres().to_string(), d.nominal.in_microlitres().to_string());
 }
 
 }  // namespace
@@ -52,7 +52,7 @@ std::vector<Command> pipette_commands() {
                 const auto p = app::add_pipette(db, Env::actor(vm), in);
                 const auto volumes = checks::default_test_volumes(p.definition);
                 std::string tested;
-                for (const auto& v : volumes) tested += (tested.empty() ? "" : ", ") + v.to_string() + " uL";
+                for (const auto& v : volumes) tested += (tested.empty() ? "" : ", ") + v.to_string();
                 fmt::print(env.out,
                            "Pipette {} registered: {}, {} channel(s), checked every {} under {}; test volumes {}.\n",
                            p.id(), range_text(p.definition), p.definition.channels, p.every.to_string(),
@@ -72,9 +72,9 @@ std::vector<Command> pipette_commands() {
                      j.push_back({{"id", d.id},
                                   {"location", p.location},
                                   {"kind", std::string(checks::to_string(d.kind))},
-                                  {"nominal_ul", d.nominal_ul.to_double()},
-                                  {"lower_limit_ul", d.lower_limit_ul ? nlohmann::json(d.lower_limit_ul->to_double())
-                                                                      : nlohmann::json()},
+                                  {"nominal_ul", d.nominal.approx().ul()},
+                                  {"lower_limit_ul",
+                                   d.lower_limit ? nlohmann::json(d.lower_limit->approx().ul()) : nlohmann::json()},
                                   {"channels", d.channels},
                                   {"every", p.every.to_string()},
                                   {"policy", d.limits.key()},

@@ -4,6 +4,7 @@
 
 #include <cctype>
 #include <cmath>
+#include <utility>
 
 #include "core/errors.hpp"
 
@@ -47,14 +48,23 @@ int exponent_to_gram(MassUnit u) {
 
 int exponent_to_microlitre(VolumeUnit u) { return u == VolumeUnit::ul ? 0 : 3; }
 
-ExactMass ExactMass::parse(std::string_view text, std::string_view field, MassUnit default_unit) {
+namespace {
+
+/// "100 uL" -> ("100", "uL"): the leading number and the unit after it, spaces between them dropped.
+std::pair<std::string_view, std::string_view> split_number(std::string_view text) {
   std::size_t end = 0;
   while (end < text.size() && (std::isdigit(static_cast<unsigned char>(text[end])) || text[end] == '.' ||
                                text[end] == '-' || text[end] == '+'))
     ++end;
-  std::string_view number = text.substr(0, end);
   std::string_view unit = text.substr(end);
   while (!unit.empty() && unit.front() == ' ') unit.remove_prefix(1);
+  return {text.substr(0, end), unit};
+}
+
+}  // namespace
+
+ExactMass ExactMass::parse(std::string_view text, std::string_view field, MassUnit default_unit) {
+  const auto [number, unit] = split_number(text);
   if (number.empty())
     throw InputError(fmt::format("{} \"{}\" is not a mass (expected a number and a unit, e.g. 100g).", field, text));
   const Decimal value = Decimal::parse(number, field);
@@ -69,6 +79,30 @@ ExactMass ExactMass::parse(std::string_view text, std::string_view field, MassUn
   return from(value, u);
 }
 
+ExactVolume ExactVolume::parse(std::string_view text, std::string_view field, VolumeUnit default_unit) {
+  const auto [number, unit] = split_number(text);
+  if (number.empty())
+    throw InputError(
+        fmt::format("{} \"{}\" is not a volume (expected a number and uL or mL, e.g. 100uL).", field, text));
+  const Decimal value = Decimal::parse(number, field);
+  VolumeUnit u = default_unit;
+  if (!unit.empty()) {
+    try {
+      u = parse_volume_unit(unit, field);
+    } catch (const InputError&) {
+      throw InputError(fmt::format("{} \"{}\" does not end in a unit of volume (use uL or mL).", field, text));
+    }
+  }
+  return from(value, u);
+}
+
+std::vector<Decimal> in_grams(std::span<const ExactMass> masses) {
+  std::vector<Decimal> out;
+  out.reserve(masses.size());
+  for (const ExactMass& m : masses) out.push_back(m.in_grams());
+  return out;
+}
+
 std::string ExactMass::to_string() const {
   const auto tidy = [](Decimal d) { return d.rescaled(d.significant_scale()).to_string(); };
   const double a = std::abs(g_.to_double());
@@ -78,11 +112,11 @@ std::string ExactMass::to_string() const {
 }
 
 std::string format_mass(Mass m, int significant) {
-  const double a = std::abs(m.g);
+  const double a = std::abs(m.g());
   if (a == 0.0) return "0 g";
-  if (a >= 1.0) return fmt::format("{:.{}g} g", m.g, significant);
-  if (a >= 1e-5) return fmt::format("{:.{}g} mg", m.g * 1e3, significant);
-  return fmt::format("{:.{}g} ug", m.g * 1e6, significant);
+  if (a >= 1.0) return fmt::format("{:.{}g} g", m.g(), significant);
+  if (a >= 1e-5) return fmt::format("{:.{}g} mg", m.mg(), significant);
+  return fmt::format("{:.{}g} ug", m.ug(), significant);
 }
 
 }  // namespace plumb

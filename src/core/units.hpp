@@ -2,9 +2,12 @@
 // Units and exact quantities. A mass given as text with a unit ("0.1mg", "220 g") becomes an exact
 // Decimal in grams; computed results are held in the strong types Mass and Volume so that a mass
 // can never be added to a volume or printed without its unit.
+#include <cmath>
 #include <compare>
+#include <span>
 #include <string>
 #include <string_view>
+#include <vector>
 
 #include "core/decimal.hpp"
 
@@ -22,32 +25,72 @@ std::string_view to_string(VolumeUnit u);
 int exponent_to_gram(MassUnit u);
 int exponent_to_microlitre(VolumeUnit u);
 
-/// A computed mass in grams (binary floating point: for results, never for readings).
-struct Mass {
-  double g = 0.0;
-  [[nodiscard]] double mg() const { return g * 1e3; }
-  friend Mass operator+(Mass a, Mass b) { return {a.g + b.g}; }
-  friend Mass operator-(Mass a, Mass b) { return {a.g - b.g}; }
-  friend Mass operator-(Mass a) { return {-a.g}; }
-  friend Mass operator*(double k, Mass a) { return {k * a.g}; }
-  friend Mass operator*(Mass a, double k) { return {k * a.g}; }
-  friend Mass operator/(Mass a, double k) { return {a.g / k}; }
-  friend double operator/(Mass a, Mass b) { return a.g / b.g; }
+/// A computed mass (binary floating point: for results, never for readings). Made only through a named
+/// constructor, so a bare number can never become a mass without saying its unit:
+/// Mass::milligrams(0.1), never Mass{0.1}. Read in any unit with g(), mg(), ug().
+class Mass {
+ public:
+  constexpr Mass() = default;  ///< zero
+  [[nodiscard]] static constexpr Mass grams(double g) { return Mass(g); }
+  [[nodiscard]] static constexpr Mass milligrams(double mg) { return Mass(mg / 1e3); }
+  [[nodiscard]] static constexpr Mass micrograms(double ug) { return Mass(ug / 1e6); }
+  [[nodiscard]] static constexpr Mass kilograms(double kg) { return Mass(kg * 1e3); }
+
+  [[nodiscard]] constexpr double g() const { return g_; }
+  [[nodiscard]] constexpr double mg() const { return g_ * 1e3; }
+  [[nodiscard]] constexpr double ug() const { return g_ * 1e6; }
+
+  friend constexpr Mass operator+(Mass a, Mass b) { return Mass(a.g_ + b.g_); }
+  friend constexpr Mass operator-(Mass a, Mass b) { return Mass(a.g_ - b.g_); }
+  friend constexpr Mass operator-(Mass a) { return Mass(-a.g_); }
+  friend constexpr Mass operator*(double k, Mass a) { return Mass(k * a.g_); }
+  friend constexpr Mass operator*(Mass a, double k) { return Mass(k * a.g_); }
+  friend constexpr Mass operator/(Mass a, double k) { return Mass(a.g_ / k); }
+  friend constexpr double operator/(Mass a, Mass b) { return a.g_ / b.g_; }
+  constexpr Mass& operator+=(Mass b) { return *this = *this + b; }
+  constexpr Mass& operator-=(Mass b) { return *this = *this - b; }
   // NOLINTNEXTLINE(modernize-use-nullptr): clang-tidy 14 misreads the literal 0 of a defaulted <=>.
-  friend auto operator<=>(Mass a, Mass b) = default;
+  friend constexpr auto operator<=>(Mass a, Mass b) = default;
+
+ private:
+  explicit constexpr Mass(double g) : g_(g) {}
+  double g_ = 0.0;
 };
 
-/// A computed volume in microlitres.
-struct Volume {
-  double ul = 0.0;
-  friend Volume operator+(Volume a, Volume b) { return {a.ul + b.ul}; }
-  friend Volume operator-(Volume a, Volume b) { return {a.ul - b.ul}; }
-  friend Volume operator*(double k, Volume a) { return {k * a.ul}; }
-  friend Volume operator/(Volume a, double k) { return {a.ul / k}; }
-  friend double operator/(Volume a, Volume b) { return a.ul / b.ul; }
+/// |m|, a mass again (std::abs of the grams, so -0 becomes +0 as it would for a double).
+[[nodiscard]] inline Mass abs(Mass m) {
+  return Mass::grams(std::abs(m.g()));
+}
+
+/// A computed volume, made like Mass only through a named constructor and read with ul() or ml().
+class Volume {
+ public:
+  constexpr Volume() = default;  ///< zero
+  [[nodiscard]] static constexpr Volume microlitres(double ul) { return Volume(ul); }
+  [[nodiscard]] static constexpr Volume millilitres(double ml) { return Volume(ml * 1e3); }
+
+  [[nodiscard]] constexpr double ul() const { return ul_; }
+  [[nodiscard]] constexpr double ml() const { return ul_ / 1e3; }
+
+  friend constexpr Volume operator+(Volume a, Volume b) { return Volume(a.ul_ + b.ul_); }
+  friend constexpr Volume operator-(Volume a, Volume b) { return Volume(a.ul_ - b.ul_); }
+  friend constexpr Volume operator-(Volume a) { return Volume(-a.ul_); }
+  friend constexpr Volume operator*(double k, Volume a) { return Volume(k * a.ul_); }
+  friend constexpr Volume operator*(Volume a, double k) { return Volume(k * a.ul_); }
+  friend constexpr Volume operator/(Volume a, double k) { return Volume(a.ul_ / k); }
+  friend constexpr double operator/(Volume a, Volume b) { return a.ul_ / b.ul_; }
   // NOLINTNEXTLINE(modernize-use-nullptr): clang-tidy 14 misreads the literal 0 of a defaulted <=>.
-  friend auto operator<=>(Volume a, Volume b) = default;
+  friend constexpr auto operator<=>(Volume a, Volume b) = default;
+
+ private:
+  explicit constexpr Volume(double ul) : ul_(ul) {}
+  double ul_ = 0.0;
 };
+
+/// |v|, a volume again.
+[[nodiscard]] inline Volume abs(Volume v) {
+  return Volume::microlitres(std::abs(v.ul()));
+}
 
 /// An exact mass: a Decimal number of grams. Conversion from any mass unit is exact.
 class ExactMass {
@@ -59,18 +102,58 @@ public:
   static ExactMass parse(std::string_view text, std::string_view field, MassUnit default_unit = MassUnit::g);
 
   [[nodiscard]] Decimal in_grams() const { return g_; }
-  [[nodiscard]] Mass approx() const { return {g_.to_double()}; }
+  [[nodiscard]] Mass approx() const { return Mass::grams(g_.to_double()); }
   /// Shortest exact text in a readable unit, e.g. "0.1 mg", "220 g", "0.03 mg".
   [[nodiscard]] std::string to_string() const;
 
   friend ExactMass operator+(ExactMass a, ExactMass b) { return ExactMass(a.g_ + b.g_); }
   friend ExactMass operator-(ExactMass a, ExactMass b) { return ExactMass(a.g_ - b.g_); }
+  friend ExactMass operator-(ExactMass a) { return ExactMass(-a.g_); }
   friend std::strong_ordering operator<=>(ExactMass a, ExactMass b) { return a.g_ <=> b.g_; }
   friend bool operator==(ExactMass a, ExactMass b) { return a.g_ == b.g_; }
 
 private:
   explicit ExactMass(Decimal g) : g_(g) {}
   Decimal g_;
+};
+
+/// |m|, exact.
+inline ExactMass abs(ExactMass m) {
+  return m < ExactMass() ? -m : m;
+}
+/// The exact values in grams, for the statistics layer (which works on plain decimals).
+std::vector<Decimal> in_grams(std::span<const ExactMass> masses);
+
+/// An exact volume: a Decimal number of microlitres, as typed ("100uL", "0.1 mL", "100"). Like ExactMass it
+/// is made only from a Decimal with its unit (never from a bare double), and conversion is exact.
+class ExactVolume {
+ public:
+  ExactVolume() = default;
+  static ExactVolume from(Decimal value, VolumeUnit unit) {
+    return ExactVolume(value.shifted(exponent_to_microlitre(unit)));
+  }
+  static ExactVolume microlitres(Decimal ul) { return ExactVolume(ul); }
+  static ExactVolume millilitres(Decimal ml) { return from(ml, VolumeUnit::ml); }
+  /// Parses "100uL", "100 uL", "0.1mL". A bare number takes `default_unit`. Throws InputError naming `field`.
+  static ExactVolume parse(std::string_view text, std::string_view field, VolumeUnit default_unit = VolumeUnit::ul);
+
+  [[nodiscard]] Decimal in_microlitres() const { return ul_; }
+  [[nodiscard]] Volume approx() const { return Volume::microlitres(ul_.to_double()); }
+  /// The same volume with trailing zeros dropped: 100.0 uL becomes 100 uL (equal, shorter to print).
+  [[nodiscard]] ExactVolume trimmed() const { return ExactVolume(ul_.rescaled(ul_.significant_scale())); }
+  /// Shortest exact number of microlitres, without the unit: "100", "0.5".
+  [[nodiscard]] std::string ul_text() const { return trimmed().ul_.to_string(); }
+  /// ul_text() and the unit: "100 uL".
+  [[nodiscard]] std::string to_string() const { return ul_text() + " uL"; }
+
+  friend ExactVolume operator+(ExactVolume a, ExactVolume b) { return ExactVolume(a.ul_ + b.ul_); }
+  friend ExactVolume operator-(ExactVolume a, ExactVolume b) { return ExactVolume(a.ul_ - b.ul_); }
+  friend std::strong_ordering operator<=>(ExactVolume a, ExactVolume b) { return a.ul_ <=> b.ul_; }
+  friend bool operator==(ExactVolume a, ExactVolume b) { return a.ul_ == b.ul_; }
+
+ private:
+  explicit ExactVolume(Decimal ul) : ul_(ul) {}
+  Decimal ul_;
 };
 
 /// A reading kept exactly as displayed: the text, its unit, and its exact value.

@@ -22,7 +22,9 @@ constexpr std::array<std::array<const char*, 5>, 5> table_text{{
 
 std::string mg(Decimal v) { return v.rescaled(v.significant_scale()).to_string() + " mg"; }
 std::string mg(const ExactMass& m) { return mg(m.in_grams().shifted(3)); }
-std::string ul(Decimal v) { return v.rescaled(v.significant_scale()).to_string() + " uL"; }
+std::string ul(ExactVolume v) {
+  return v.to_string();
+}
 
 // s and u are computed values in binary floating point (a Mass in grams); one equal to the limit as
 // printed (0.02 mg held as 0.00002 g) must count as within it, so the comparison allows a relative 1e-9.
@@ -34,30 +36,29 @@ const std::vector<Requirement>& iso8655_6_table() {
   static const std::vector<Requirement> table = [] {
     std::vector<Requirement> rows;
     for (const auto& t : table_text)
-      rows.push_back({Decimal::parse(t[0]), Decimal::parse(t[1]), Decimal::parse(t[2]), Decimal::parse(t[3]),
-                      Decimal::parse(t[4])});
+      rows.push_back({ExactVolume::microlitres(Decimal::parse(t[0])), ExactVolume::microlitres(Decimal::parse(t[1])),
+                      Decimal::parse(t[2]), Decimal::parse(t[3]), Decimal::parse(t[4])});
     return rows;
   }();
   return table;
 }
 
-Requirement requirement_for(Decimal test_volume_ul) {
+Requirement requirement_for(ExactVolume test_volume) {
   const auto& table = iso8655_6_table();
-  if (test_volume_ul >= table.front().volume_from_ul && test_volume_ul <= table.front().volume_to_ul)
-    return table.front();
+  if (test_volume >= table.front().volume_from && test_volume <= table.front().volume_to) return table.front();
   for (const auto& row : table)
-    if (test_volume_ul > row.volume_from_ul && test_volume_ul <= row.volume_to_ul) return row;
-  throw InputError(fmt::format("test volume {} is outside the balance requirements of ISO 8655-6 Table 1 "
-                               "({} to {}).",
-                               ul(test_volume_ul), ul(table.front().volume_from_ul), ul(table.back().volume_to_ul)));
+    if (test_volume > row.volume_from && test_volume <= row.volume_to) return row;
+  throw InputError(
+      fmt::format("test volume {} is outside the balance requirements of ISO 8655-6 Table 1 "
+                  "({} to {}).",
+                  ul(test_volume), ul(table.front().volume_from), ul(table.back().volume_to)));
 }
 
-Suitability assess(const BalanceForPipette& balance, Decimal test_volume_ul) {
+Suitability assess(const BalanceForPipette& balance, ExactVolume test_volume) {
   Suitability s;
-  s.requirement = requirement_for(test_volume_ul);
+  s.requirement = requirement_for(test_volume);
   const Requirement& req = s.requirement;
-  const std::string where =
-      fmt::format("for a test volume of {} (ISO 8655-6 Table 1, from memory)", ul(test_volume_ul));
+  const std::string where = fmt::format("for a test volume of {} (ISO 8655-6 Table 1, from memory)", ul(test_volume));
   const ExactMass d_needed = ExactMass::from(req.readability_mg, MassUnit::mg);
   if (balance.readability > d_needed) {
     s.suitable = false;

@@ -18,9 +18,10 @@
 
 namespace plumb::pipette_balance {
 
+// The mass columns stay decimals in mg, as the table states them (the results JSON is derived from them).
 struct Requirement {
-  Decimal volume_from_ul;  ///< exclusive, except for the first row
-  Decimal volume_to_ul;    ///< inclusive
+  ExactVolume volume_from;  ///< exclusive, except for the first row
+  ExactVolume volume_to;    ///< inclusive
   Decimal readability_mg;
   Decimal repeatability_mg;
   Decimal standard_uncertainty_mg;
@@ -29,8 +30,8 @@ struct Requirement {
 /// The table, ascending by volume. Source: ISO 8655-6:2002 Table 1, transcribed from memory.
 const std::vector<Requirement>& iso8655_6_table();
 
-/// The row that applies to `test_volume_ul`; throws InputError outside 1 uL to 200 mL.
-Requirement requirement_for(Decimal test_volume_ul);
+/// The row that applies to `test_volume`; throws InputError outside 1 uL to 200 mL.
+Requirement requirement_for(ExactVolume test_volume);
 
 /// The balance used for a pipette run, as a CLI or store would describe it.
 struct BalanceForPipette {
@@ -49,8 +50,8 @@ struct Suitability {
   std::vector<std::string> notes;    ///< what was not checked
 };
 
-/// Whether `balance` meets ISO 8655-6 Table 1 for `test_volume_ul` (readability, repeatability, uncertainty).
-Suitability assess(const BalanceForPipette& balance, Decimal test_volume_ul);
+/// Whether `balance` meets ISO 8655-6 Table 1 for `test_volume` (readability, repeatability, uncertainty).
+Suitability assess(const BalanceForPipette& balance, ExactVolume test_volume);
 
 /// Throws InputError when the balance is out of service or its due date is before `run_date`.
 void require_usable(const BalanceForPipette& balance, Date run_date);

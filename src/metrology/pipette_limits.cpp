@@ -32,7 +32,7 @@ std::string listed_nominals() {
   std::string out;
   for (const auto& row : iso8655_2_table()) {
     if (!out.empty()) out += ", ";
-    out += row.nominal_ul.to_string();
+    out += row.nominal.in_microlitres().to_string();
   }
   return out + " uL";
 }
@@ -43,16 +43,17 @@ const std::vector<Iso8655Row>& iso8655_2_table() {
   static const std::vector<Iso8655Row> table = [] {
     std::vector<Iso8655Row> rows;
     for (const auto& t : table_text)
-      rows.push_back({Decimal::parse(t[0]), Decimal::parse(t[1]), Decimal::parse(t[2]), Decimal::parse(t[3]),
-                      Decimal::parse(t[4])});
+      rows.push_back({ExactVolume::microlitres(Decimal::parse(t[0])), Decimal::parse(t[1]),
+                      ExactVolume::microlitres(Decimal::parse(t[2])), Decimal::parse(t[3]),
+                      ExactVolume::microlitres(Decimal::parse(t[4]))});
     return rows;
   }();
   return table;
 }
 
-std::optional<Iso8655Row> iso8655_2_row(Decimal nominal_ul) {
+std::optional<Iso8655Row> iso8655_2_row(ExactVolume nominal) {
   for (const auto& row : iso8655_2_table())
-    if (row.nominal_ul == nominal_ul) return row;
+    if (row.nominal == nominal) return row;
   return std::nullopt;
 }
 
@@ -74,13 +75,13 @@ std::string LimitsPolicy::key() const {
   return "";
 }
 
-void validate_policy(const LimitsPolicy& policy, Decimal nominal_ul) {
+void validate_policy(const LimitsPolicy& policy, ExactVolume nominal) {
   if (policy.kind == LimitsPolicy::Kind::iso8655_2) {
-    if (!iso8655_2_row(nominal_ul))
-      throw InputError(fmt::format(
-          "limits: nominal volume {} uL is not a row of ISO 8655-2:2002 Table 1 ({}); enter the lab's own "
-          "limits in uL or % (for example from the manufacturer's specification).",
-          nominal_ul.to_string(), listed_nominals()));
+    if (!iso8655_2_row(nominal))
+      throw InputError(
+          fmt::format("limits: nominal volume {} uL is not a row of ISO 8655-2:2002 Table 1 ({}); enter the lab's own "
+                      "limits in uL or % (for example from the manufacturer's specification).",
+                      nominal.in_microlitres().to_string(), listed_nominals()));
     return;
   }
   const char* unit = policy.kind == LimitsPolicy::Kind::lab_ul ? "uL" : "%";
@@ -94,33 +95,35 @@ void validate_policy(const LimitsPolicy& policy, Decimal nominal_ul) {
                                  unit, policy.random ? policy.random->to_string() : "missing"));
 }
 
-AppliedLimits limits_at(const LimitsPolicy& policy, Decimal nominal_ul, Decimal selected_ul, int channels) {
-  validate_policy(policy, nominal_ul);
-  const double v = selected_ul.to_double();
+AppliedLimits limits_at(const LimitsPolicy& policy, ExactVolume nominal, ExactVolume selected, int channels) {
+  validate_policy(policy, nominal);
+  const double v = selected.in_microlitres().to_double();
   AppliedLimits a;
   a.kind = policy.kind;
   switch (policy.kind) {
     case LimitsPolicy::Kind::iso8655_2: {
-      const Iso8655Row row = *iso8655_2_row(nominal_ul);
+      const Iso8655Row row = *iso8655_2_row(nominal);
       a.doubled = channels > 1;
       const double k = a.doubled ? 2.0 : 1.0;
-      a.systematic = {k * row.systematic_ul.to_double()};
-      a.random = {k * row.random_ul.to_double()};
-      a.systematic_pct = 100.0 * a.systematic.ul / v;
-      a.random_pct = 100.0 * a.random.ul / v;
-      const bool at_nominal = selected_ul == nominal_ul;
-      a.basis = fmt::format("ISO 8655-2:2002 Table 1 (transcribed from memory), nominal {} uL: systematic {} uL, "
-                            "random {} uL{}{}.",
-                            nominal_ul.to_string(), row.systematic_ul.to_string(), row.random_ul.to_string(),
-                            at_nominal ? "" : ", the absolute limits at the nominal volume applied at this volume",
-                            a.doubled ? ", doubled for a multichannel pipette" : "");
+      a.systematic = k * row.systematic.approx();
+      a.random = k * row.random.approx();
+      a.systematic_pct = 100.0 * a.systematic.ul() / v;
+      a.random_pct = 100.0 * a.random.ul() / v;
+      const bool at_nominal = selected == nominal;
+      a.basis = fmt::format(
+          "ISO 8655-2:2002 Table 1 (transcribed from memory), nominal {} uL: systematic {} uL, "
+          "random {} uL{}{}.",
+          nominal.in_microlitres().to_string(), row.systematic.in_microlitres().to_string(),
+          row.random.in_microlitres().to_string(),
+          at_nominal ? "" : ", the absolute limits at the nominal volume applied at this volume",
+          a.doubled ? ", doubled for a multichannel pipette" : "");
       break;
     }
     case LimitsPolicy::Kind::lab_ul:
-      a.systematic = {policy.systematic->to_double()};
-      a.random = {policy.random->to_double()};
-      a.systematic_pct = 100.0 * a.systematic.ul / v;
-      a.random_pct = 100.0 * a.random.ul / v;
+      a.systematic = Volume::microlitres(policy.systematic->to_double());
+      a.random = Volume::microlitres(policy.random->to_double());
+      a.systematic_pct = 100.0 * a.systematic.ul() / v;
+      a.random_pct = 100.0 * a.random.ul() / v;
       a.basis = fmt::format("Lab limits: systematic {} uL, random {} uL at every volume.",
                             policy.systematic->to_string(), policy.random->to_string());
       break;
@@ -128,8 +131,8 @@ AppliedLimits limits_at(const LimitsPolicy& policy, Decimal nominal_ul, Decimal 
       a.compare_in_pct = true;
       a.systematic_pct = policy.systematic->to_double();
       a.random_pct = policy.random->to_double();
-      a.systematic = {a.systematic_pct * v / 100.0};
-      a.random = {a.random_pct * v / 100.0};
+      a.systematic = Volume::microlitres(a.systematic_pct * v / 100.0);
+      a.random = Volume::microlitres(a.random_pct * v / 100.0);
       a.basis = fmt::format("Lab limits: systematic {} % of the selected volume, random {} % (CV).",
                             policy.systematic->to_string(), policy.random->to_string());
       break;

@@ -29,22 +29,23 @@ namespace plumb::pipette_limits {
 
 /// One row of ISO 8655-2:2002 Table 1 (single-channel pipettes, at the nominal volume).
 struct Iso8655Row {
-  Decimal nominal_ul;
+  ExactVolume nominal;
   Decimal systematic_pct;
-  Decimal systematic_ul;
+  ExactVolume systematic;
   Decimal random_pct;
-  Decimal random_ul;
+  ExactVolume random;
 };
 
 /// The table, ascending by nominal volume. Source: ISO 8655-2:2002 Table 1, transcribed from memory.
 const std::vector<Iso8655Row>& iso8655_2_table();
 /// The row for exactly this nominal volume, if there is one.
-std::optional<Iso8655Row> iso8655_2_row(Decimal nominal_ul);
+std::optional<Iso8655Row> iso8655_2_row(ExactVolume nominal);
 
 /// Which limits a pipette is judged by.
 struct LimitsPolicy {
   enum class Kind { iso8655_2, lab_ul, lab_pct };
   Kind kind = Kind::iso8655_2;
+  // A number in uL or in %, as `kind` says: the unit is the policy's, so these stay plain decimals.
   std::optional<Decimal> systematic;  ///< lab: limit on |systematic error|, in uL or % of the selected volume
   std::optional<Decimal> random;      ///< lab: limit on the random error, SD in uL or CV in %
 
@@ -67,9 +68,9 @@ struct AppliedLimits {
 
 /// Throws InputError when the policy cannot be applied to a pipette of this nominal volume: an ISO 8655-2
 /// policy for a nominal volume not in the table, or lab limits missing, zero or negative.
-void validate_policy(const LimitsPolicy& policy, Decimal nominal_ul);
+void validate_policy(const LimitsPolicy& policy, ExactVolume nominal);
 
-/// The limits at `selected_ul` for a pipette of `nominal_ul` with `channels` channels. Validates the policy.
-AppliedLimits limits_at(const LimitsPolicy& policy, Decimal nominal_ul, Decimal selected_ul, int channels);
+/// The limits at `selected` for a pipette of volume `nominal` with `channels` channels. Validates the policy.
+AppliedLimits limits_at(const LimitsPolicy& policy, ExactVolume nominal, ExactVolume selected, int channels);
 
 }  // namespace plumb::pipette_limits

@@ -12,10 +12,14 @@ inline constexpr double accuracy_limit_fraction = 0.001; ///< 0.10 % of the test
 inline constexpr double test_load_min_fraction = 0.05;  ///< the test weight is 5 % to 100 % of capacity
 
 /// The standard deviation USP <41> uses: max(s, 0.41 d).
-inline Mass effective_sd(Mass s, Mass d) { return s.g < sd_floor_in_d * d.g ? sd_floor_in_d * d : s; }
+inline Mass effective_sd(Mass s, Mass d) {
+  return s < sd_floor_in_d * d ? sd_floor_in_d * d : s;
+}
 /// Minimum weight m_min = 2000 * max(s, 0.41 d).
 inline Mass minimum_weight(Mass s, Mass d) { return repeatability_factor * effective_sd(s, d); }
 /// The accuracy limit: 0.10 % of the reference value of the test load.
-inline Mass accuracy_limit(Mass reference) { return accuracy_limit_fraction * Mass{reference.g < 0 ? -reference.g : reference.g}; }
+inline Mass accuracy_limit(Mass reference) {
+  return accuracy_limit_fraction * abs(reference);
+}
 
 }  // namespace plumb::usp41

@@ -19,6 +19,12 @@ std::optional<Decimal> decimal_or_none(const SQLite::Column& c) {
   return Decimal::parse(c.getString(), c.getName());
 }
 
+/// A volume column holds exact decimal text in microlitres.
+std::optional<ExactVolume> volume_or_none(const SQLite::Column& c) {
+  if (c.isNull()) return std::nullopt;
+  return ExactVolume::microlitres(Decimal::parse(c.getString(), c.getName()));
+}
+
 pipette_limits::LimitsPolicy::Kind policy_kind(const std::string& key) {
   if (key == "lab-ul") return pipette_limits::LimitsPolicy::Kind::lab_ul;
   if (key == "lab-pct") return pipette_limits::LimitsPolicy::Kind::lab_pct;
@@ -38,8 +44,8 @@ PipetteRecord pipette_from(SQLite::Statement& q) {
   p.every = Interval::parse(q.getColumn(2).getString());
   p.created_on = parse_date(q.getColumn(3).getString());
   d.kind = q.getColumn(4).getString() == "variable" ? checks::PipetteKind::variable : checks::PipetteKind::fixed;
-  d.nominal_ul = Decimal::parse(q.getColumn(5).getString());
-  d.lower_limit_ul = decimal_or_none(q.getColumn(6));
+  d.nominal = ExactVolume::microlitres(Decimal::parse(q.getColumn(5).getString()));
+  d.lower_limit = volume_or_none(q.getColumn(6));
   d.channels = q.getColumn(7).getInt();
   d.limits.kind = policy_kind(q.getColumn(8).getString());
   d.limits.systematic = decimal_or_none(q.getColumn(9));
@@ -49,8 +55,8 @@ PipetteRecord pipette_from(SQLite::Statement& q) {
 
 }  // namespace
 
-std::string pipette_series(Decimal volume_ul, int channel) {
-  return fmt::format("{} uL channel {}", trimmed(volume_ul).to_string(), channel);
+std::string pipette_series(ExactVolume volume, int channel) {
+  return fmt::format("{} uL channel {}", volume.ul_text(), channel);
 }
 
 void add_pipette(Recorder& rec, const PipetteRecord& p) {
@@ -68,8 +74,9 @@ void add_pipette(Recorder& rec, const PipetteRecord& p) {
   rec.insert("pipettes",
              {{"instrument_id", d.id},
               {"volume_kind", std::string(checks::to_string(d.kind))},
-              {"nominal_ul", trimmed(d.nominal_ul).to_string()},
-              {"lower_limit_ul", d.kind == checks::PipetteKind::variable ? text_or_null(d.lower_limit_ul) : Value()},
+              {"nominal_ul", d.nominal.ul_text()},
+              {"lower_limit_ul",
+               d.kind == checks::PipetteKind::variable && d.lower_limit ? Value(d.lower_limit->ul_text()) : Value()},
               {"channels", d.channels},
               {"limits_policy", d.limits.key()},
               {"max_systematic", lab ? text_or_null(d.limits.systematic) : Value()},

@@ -48,6 +48,6 @@ std::optional<PipetteRunConditions> find_pipette_run_conditions(SQLite::Database
 std::optional<RunRecord> latest_run_on_or_before(SQLite::Database& db, const std::string& instrument_id, Date on);
 
 /// The readings series name of one test volume and channel, e.g. "100 uL channel 1".
-std::string pipette_series(Decimal volume_ul, int channel);
+std::string pipette_series(ExactVolume volume, int channel);
 
 }  // namespace plumb::store

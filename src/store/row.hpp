@@ -1,6 +1,9 @@
 #pragma once
 // A row to insert: column -> exact value (an integer, a text or NULL). plumb stores no floating point, so
 // these three are all a column can hold; a value is stored and recorded in the trail exactly as given.
+// A double (or an optional one) does not compile into a Value: an exact value is written as decimal TEXT
+// (Decimal::to_string, ExactMass::in_grams().to_string()), never through binary floating point.
+#include <concepts>
 #include <cstdint>
 #include <optional>
 #include <string>
@@ -21,7 +24,9 @@ public:
   Value(std::string v) : kind_(Kind::text), text_(std::move(v)) {}     // NOLINT(google-explicit-constructor)
   Value(const char* v) : kind_(Kind::text), text_(v) {}                // NOLINT(google-explicit-constructor)
   Value(std::string_view v) : kind_(Kind::text), text_(v) {}           // NOLINT(google-explicit-constructor)
-  template <class T>
+  template <std::floating_point F>
+  Value(F) = delete;  // exact values are decimal TEXT; see the file comment
+  template <class T, std::enable_if_t<std::is_constructible_v<Value, const T&>, int> = 0>
   Value(const std::optional<T>& v) : Value(v ? Value(*v) : Value()) {}  // NOLINT(google-explicit-constructor)
 
   [[nodiscard]] Kind kind() const { return kind_; }

@@ -5,10 +5,13 @@
 
 #include <nlohmann/json.hpp>
 
+#include "support/margin.hpp"
 #include "support/run_plumb.hpp"
 
 using nlohmann::json;
+using plumb::test::grams_near;
 using plumb::test::run_plumb;
+using plumb::test::ug;
 
 namespace {
 
@@ -96,7 +99,8 @@ TEST_CASE("calibration: record, show with budget and fit, error at a load, certi
   //     u = 0.1 / sqrt 3 = 0.0577350 (square 3.333333e-3)
   //   reference weight W100: U / k = 0.05 / 2 = 0.025 (square 6.25e-4); buoyancy 0; drift 0 (one certificate)
   //   u_c^2 = 1.666667e-3 + 2.777778e-3 + 3.333333e-3 + 6.25e-4 = 8.402778e-3, u_c = 0.0916667 mg
-  //   nu_eff = 9 x (8.402778e-3 / 2.777778e-3)^2 = 9 x 3.025^2 = 82.36 (Welch-Satterthwaite)
+  //     (exactly: 1/600 + 1/360 + 1/300 + 1/1600 = 121/14400 mg^2, u_c = 11/120 mg)
+  //   nu_eff = 9 x (8.402778e-3 / 2.777778e-3)^2 = 9 x 3.025^2 = 82.355625 (Welch-Satterthwaite)
   //   k: GUM Table G.2 at 95.45 % gives 2.05 for nu = 50 and 2.03 for nu = 100, so 2.03 < k < 2.05
   //   U = k u_c: between 2.03 x 0.0916667 = 0.18608 and 2.05 x 0.0916667 = 0.18792 mg
   const json& w100 = loads[2];
@@ -105,26 +109,26 @@ TEST_CASE("calibration: record, show with budget and fit, error at a load, certi
   for (const auto& l : lines)
     if (l["source"] == "eccentricity") ecc_line = l;
   REQUIRE(ecc_line.is_object());
-  CHECK(ecc_line["value"].get<double>() == Approx(0.0001).epsilon(1e-9));  // half-width, g
+  CHECK_THAT(ecc_line["value"].get<double>(), grams_near(0.0001, ug(1e-7)));  // half-width
   CHECK(ecc_line["divisor"].get<double>() == Approx(1.7320508).epsilon(1e-7));
-  CHECK(ecc_line["contribution_g"].get<double>() == Approx(0.0000577350).epsilon(1e-6));
-  CHECK(w100["u_c_g"].get<double>() == Approx(0.0000916667).epsilon(1e-6));
-  CHECK(w100["nu_eff"].get<double>() == Approx(82.36).epsilon(1e-3));
+  CHECK_THAT(ecc_line["contribution_g"].get<double>(), grams_near(0.0000577350269, ug(0.00005)));  // 0.1 mg / sqrt 3
+  CHECK_THAT(w100["u_c_g"].get<double>(), grams_near(0.000091666666667, ug(1e-6)));                // 11/120 mg
+  CHECK(w100["nu_eff"].get<double>() == Approx(82.355625).margin(1e-6).epsilon(0));
   CHECK(w100["k"].get<double>() > 2.03);
   CHECK(w100["k"].get<double>() < 2.05);
   CHECK(w100["U_g"].get<double>() > 0.00018608);
   CHECK(w100["U_g"].get<double>() < 0.00018792);
   // OIML R 76-1 Table 6 (from memory, cross-checked in tests/reference): class I, e = 1 mg, 100 g = 100 000 e lies
   // in 50 000 e < m <= 200 000 e: 1 e on initial verification, 2 e = 2 mg in service. At 20 g (20 000 e): 1 mg.
-  CHECK(w100["tolerance_g"].get<double>() == Approx(0.002));
-  CHECK(loads[0]["tolerance_g"].get<double>() == Approx(0.001));
+  CHECK_THAT(w100["tolerance_g"].get<double>(), grams_near(0.002, ug(0.001)));
+  CHECK_THAT(loads[0]["tolerance_g"].get<double>(), grams_near(0.001, ug(0.001)));
   CHECK(w100["state"] == "pass");
 
   // Straight line of I on m, by hand through E = I - m (same residuals; slope of I = 1 + slope of E), mg and g:
   //   x = 20, 50, 100, 150, 200: mean 104, Sxx = 84^2 + 54^2 + 4^2 + 46^2 + 96^2 = 21320
   //   E = 0.1, 0.2, 0.4, 0.6, 0.8: mean 0.42; SxE = 26.88 + 11.88 + 0.08 + 8.28 + 36.48 = 83.6
   //   slope of E = 83.6 / 21320 = 0.00392120 mg/g = 3.92120e-6 -> b1 = 1.00000392120
-  //   intercept = 0.42 - 0.00392120 x 104 = 0.0121951 mg -> b0 = 1.21951e-5 g
+  //   intercept = 0.42 - 0.00392120 x 104 = 0.0121951 mg (exactly 1/82 mg) -> b0 = 1.21951e-5 g
   //   residuals: 0.1 - (0.0121951 + 0.0784240) = +0.0093809, -0.0082552, -0.0043152, -0.0003752, +0.0035647 mg
   //   SSE = 8.80006e-5 + 6.81477e-5 + 1.86209e-5 + 1.4080e-7 + 1.27073e-5 = 1.876172e-4 mg^2
   //   RMSE = sqrt(SSE / 5) = 6.12564e-3 mg; residual SD = sqrt(SSE / 3) = 7.90817e-3 mg
@@ -132,17 +136,19 @@ TEST_CASE("calibration: record, show with budget and fit, error at a load, certi
   const json& fit = j["as_found"]["fit"];
   CHECK(fit["model"] == "line");
   CHECK(fit["coef"][1].get<double>() == Approx(1.0000039212).epsilon(1e-12));
-  CHECK(fit["coef"][0].get<double>() == Approx(1.21951e-5).epsilon(1e-4));
+  // Masses to 1e-5 ug (1e-11 g): far below d, above the rounding of a fit of readings near 200 g.
+  CHECK_THAT(fit["coef"][0].get<double>(), grams_near(1.2195121951e-5, ug(1e-5)));
   CHECK(fit["coef_se"][1].get<double>() == Approx(5.41604e-8).epsilon(1e-4));
-  CHECK(fit["rmse_g"].get<double>() == Approx(6.12564e-6).epsilon(1e-4));
-  CHECK(fit["residual_sd_g"].get<double>() == Approx(7.90817e-6).epsilon(1e-4));
-  CHECK(fit["residuals_g"][0].get<double>() == Approx(9.3809e-6).epsilon(1e-3));
+  CHECK_THAT(fit["rmse_g"].get<double>(), grams_near(6.125638918e-6, ug(1e-5)));
+  CHECK_THAT(fit["residual_sd_g"].get<double>(), grams_near(7.908165839e-6, ug(1e-5)));
+  CHECK_THAT(fit["residuals_g"][0].get<double>(), grams_near(9.380863039e-6, ug(1e-5)));
 
-  // Interpolated error at 120 g: 0.0121951 + 0.0039212 x 120 = 0.482739 mg.
+  // Interpolated error at 120 g: 0.0121951 + 0.0039212 x 120 = 0.482739 mg (1/82 + 120 x 83.6/21320 =
+  // 0.48273921 mg).
   r = run_plumb({"--db", db, "check", "show", "LAST", "--at", "120g", "--format", "json"}, dir.path());
   REQUIRE(r.status == 0);
   const json at = json::parse(r.out)["error_at"];
-  CHECK(at["error_g"].get<double>() == Approx(0.000482739).epsilon(1e-5));
+  CHECK_THAT(at["error_g"].get<double>(), grams_near(0.00048273921201, ug(1e-5)));
   CHECK(at["extrapolated"] == false);
   // 210 g lies outside the calibrated 20-200 g: refused, or shown marked as extrapolated.
   r = run_plumb({"--db", db, "check", "show", "LAST", "--at", "210g"}, dir.path());

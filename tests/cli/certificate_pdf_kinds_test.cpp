@@ -10,10 +10,15 @@
 #include <nlohmann/json.hpp>
 #include <sstream>
 
+#include "support/margin.hpp"
 #include "support/run_plumb.hpp"
 
 using nlohmann::json;
+using plumb::test::microlitres_near;
+using plumb::test::percent_near;
+using plumb::test::pp;
 using plumb::test::run_plumb;
+using plumb::test::ul;
 
 namespace {
 
@@ -192,24 +197,25 @@ TEST_CASE("pipette history quantities: e_s and CV with U, worked by hand", "[cli
   // s_r = 0.1048020 uL, CV = 0.10479 %.
   //   U(e_s) = 2 s_r / sqrt(n) = 2 x 0.1048020 / 3.1622777 = 0.0662830 uL; in % of 100 uL: 0.0662830 %
   //   U(CV) = 2 CV / sqrt(2 (n - 1)) = 2 x 0.10479 / sqrt(18) = 0.20958 / 4.2426407 = 0.049398 %
-  CHECK(v["systematic_error_ul"].get<double>() == Approx(0.01532).margin(0.000005));
-  CHECK(v["systematic_error_u_ul"].get<double>() == Approx(0.0662830).margin(0.0000005));
-  CHECK(v["relative_systematic_error_pct"].get<double>() == Approx(0.01532).margin(0.000005));
-  CHECK(v["relative_systematic_error_u_pct"].get<double>() == Approx(0.0662830).margin(0.0000005));
-  CHECK(v["cv_pct"].get<double>() == Approx(0.10479).margin(0.000005));
-  CHECK(v["cv_u_pct"].get<double>() == Approx(0.049398).margin(0.000002));
+  // Margins: half a unit in the last digit worked by hand.
+  CHECK_THAT(v["systematic_error_ul"].get<double>(), microlitres_near(0.01532, ul(0.000005)));
+  CHECK_THAT(v["systematic_error_u_ul"].get<double>(), microlitres_near(0.0662830, ul(0.0000005)));
+  CHECK_THAT(v["relative_systematic_error_pct"].get<double>(), percent_near(0.01532, pp(0.000005)));
+  CHECK_THAT(v["relative_systematic_error_u_pct"].get<double>(), percent_near(0.0662830, pp(0.0000005)));
+  CHECK_THAT(v["cv_pct"].get<double>(), percent_near(0.10479, pp(0.000005)));
+  CHECK_THAT(v["cv_u_pct"].get<double>(), percent_near(0.049398, pp(0.000002)));
   // Tolerances from the stored limits: 0.8 uL = 0.8 % of 100 uL for e_s, CV <= 0.3 % (s_r 0.3 uL).
   bool saw_cv = false;
   for (const auto& c : j["columns"]) {
     if (c["key"] == "systematic-error") {
-      CHECK(c["tolerance"]["lower_ul"].get<double>() == Approx(-0.8));
-      CHECK(c["tolerance"]["upper_ul"].get<double>() == Approx(0.8));
+      CHECK_THAT(c["tolerance"]["lower_ul"].get<double>(), microlitres_near(-0.8, ul(1e-9)));
+      CHECK_THAT(c["tolerance"]["upper_ul"].get<double>(), microlitres_near(0.8, ul(1e-9)));
       CHECK_THAT(c["label"].get<std::string>(), Catch::Contains("100 uL"));
     }
     if (c["key"] == "cv") {
       saw_cv = true;
       CHECK(c["tolerance"]["lower_pct"].is_null());
-      CHECK(c["tolerance"]["upper_pct"].get<double>() == Approx(0.3));
+      CHECK_THAT(c["tolerance"]["upper_pct"].get<double>(), percent_near(0.3, pp(1e-9)));
     }
   }
   CHECK(saw_cv);

@@ -4,10 +4,13 @@
 #include <nlohmann/json.hpp>
 
 #include "support/audit_chain.hpp"
+#include "support/margin.hpp"
 #include "support/run_plumb.hpp"
 
 using nlohmann::json;
+using plumb::test::grams_near;
 using plumb::test::run_plumb;
+using plumb::test::ug;
 
 namespace {
 
@@ -19,7 +22,7 @@ std::string row(const std::string& date, const std::string& reading) {
 }
 
 // Two passing runs of BAL-A (the readings of the weekly check, s = 0.0000949 g), then a failing one:
-// readings alternating 100.0001 / 100.0023 g have s = 0.0011 * sqrt(10/9) = 0.00116 g, above the USP <41>
+// readings alternating 100.0001 / 100.0023 g have s = 0.0011 * sqrt(10/9) = 0.0011595018 g, above the USP <41>
 // limit for its 200 mg smallest net weight (2 s / m <= 0.10 % gives s <= 0.0001 g).
 std::string history() {
   std::string csv = "instrument,procedure,date,operator,weight,reading,unit\n";
@@ -54,17 +57,18 @@ TEST_CASE("history import records validated runs once and reports them", "[cli][
   CHECK(rep["failures"][0]["run_id"] == 3);
   CHECK(rep["failures"][0]["line"] == 22);
 
-  // The imported run is computed exactly as a typed one: values worked by hand in repeatability_test.cpp.
+  // The imported run is computed exactly as a typed one: values worked by hand in repeatability_test.cpp
+  // (s = sqrt(0.9) x 0.1 mg = 0.0948683298 mg, bias 0.2 mg).
   r = run_plumb({"--db", db, "check", "show", "1", "--format", "json"}, dir.path());
   REQUIRE(r.status == 0);
   const json run = json::parse(r.out);
   CHECK(run["operator"] == "A. Technician");
-  CHECK(run["sd_g"].get<double>() == Approx(0.0000948683).epsilon(1e-6));
-  CHECK(run["bias_g"].get<double>() == Approx(0.0002).epsilon(1e-9));
+  CHECK_THAT(run["sd_g"].get<double>(), grams_near(0.0000948683298, ug(0.00005)));
+  CHECK_THAT(run["bias_g"].get<double>(), grams_near(0.0002, ug(1e-7)));
   CHECK(run["next_due"] == "2026-04-13");
   r = run_plumb({"--db", db, "check", "show", "3", "--format", "json"}, dir.path());
   CHECK(json::parse(r.out)["verdict"] == "fail");
-  CHECK(json::parse(r.out)["sd_g"].get<double>() == Approx(0.0011595).epsilon(1e-4));
+  CHECK_THAT(json::parse(r.out)["sd_g"].get<double>(), grams_near(0.0011595018087, ug(0.0001)));
 
   // The same file again is refused, and nothing changes.
   const std::string before = plumb::test::dump_database(db);
@@ -100,7 +104,7 @@ TEST_CASE("lab summary shows each instrument's latest result and agrees with the
   CHECK(a["id"] == "BAL-A");
   CHECK(a["latest"]["run_id"] == 1);
   CHECK(a["latest"]["verdict"] == "pass");
-  CHECK(a["latest"]["sd_g"].get<double>() == Approx(0.0000948683).epsilon(1e-6));
+  CHECK_THAT(a["latest"]["sd_g"].get<double>(), grams_near(0.0000948683298, ug(0.00005)));
   CHECK(a["next_due"] == "2026-04-13");  // passed 2026-04-06, every 7 days
   CHECK(a["days_left"] == -49);
   CHECK(a["status"] == "overdue");

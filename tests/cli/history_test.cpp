@@ -2,18 +2,19 @@
 // built binary, on a history built by hand so that every expected value is worked out below.
 //
 // The hand-built history (balance BAL-L, d = 0.1 mg, lab limit |bias| <= 0.5 mg; weight W100 with
-// conventional mass 100.00003 g, U = 0.05 mg, k = 2): five weekly checks from 2026-03-02 (the date W100 was calibrated), check i
-// (i = 0..4) has five readings a_i and five a_i + 0.0001 g with a_i = 100.0000 + 0.0001 i g. So
+// conventional mass 100.00003 g, U = 0.05 mg, k = 2): five weekly checks from 2026-03-02 (the date W100 was
+// calibrated), check i (i = 0..4) has five readings a_i and five a_i + 0.0001 g with a_i = 100.0000 + 0.0001 i g. So
 //   mean_i = a_i + 0.00005 g, bias_i = mean_i - 100.00003 = 0.02 + 0.1 i mg (0.02, 0.12, 0.22, 0.32, 0.42),
 //   s = 0.05 mg * sqrt(10/9) = 0.0527046 mg for every check.
 // U of the bias (k = 2): u^2 = s^2/n + (U_w/k)^2 + d^2/12 = 0.000277778 + 0.000625 + 0.000833333
-//   = 0.00173611 mg^2, u = 0.0416667 mg, U = 0.0833333 mg.
-// U of the SD: 2 s / sqrt(2 (n - 1)) = 2 * 0.0527046 / sqrt(18) = 0.0248452 mg.
+//   = 0.00173611 mg^2 (exactly 1/576), u = 0.0416667 mg, U = 0.0833333 mg (1/12).
+// U of the SD: 2 s / sqrt(2 (n - 1)) = 2 * 0.0527046 / sqrt(18) = 0.0248452 mg (0.02484519975).
 // Drift: bias = 0.02 + (0.1/7) d mg exactly (d in days since 2026-03-02), R^2 = 1. The lab limit 0.5 mg is
 //   reached at d = (0.5 - 0.02) * 70 = 33.6, i.e. on day 34 = 2026-04-05: after the last check (day 28),
 //   so extrapolation, and before the horizon (day 56).
 // Control chart with --baseline 3: centre 0.12 mg, moving ranges 0.1, sigma = 0.1 / 1.128 = 0.0886525 mg,
 //   UCL = 0.12 + 0.265957 = 0.385957 mg: check 5 (0.42 mg, 2026-03-30) lies beyond it (rule 1).
+// Masses below are compared within 1e-6 ug (1e-9 mg), far below d = 0.1 mg and above the rounding of doubles.
 #include <catch2/catch.hpp>
 
 #include <fmt/format.h>
@@ -25,11 +26,14 @@
 #include <set>
 #include <sstream>
 
+#include "support/margin.hpp"
 #include "support/run_plumb.hpp"
 #include "support/xml_scan.hpp"
 
 using nlohmann::json;
+using plumb::test::milligrams_near;
 using plumb::test::run_plumb;
+using plumb::test::ug;
 using plumb::test::xml_elements;
 
 namespace {
@@ -90,12 +94,12 @@ TEST_CASE("history lists every run with bias, SD and their U worked by hand", "[
   REQUIRE(j["runs"].size() == 5);
   for (int i = 0; i < 5; ++i) {
     const auto& v = j["runs"][i]["values"];
-    CHECK(v["bias_mg"].get<double>() == Approx(0.02 + 0.1 * i).margin(1e-9));
-    CHECK(v["bias_u_mg"].get<double>() == Approx(0.0833333).epsilon(1e-5));
-    CHECK(v["sd_mg"].get<double>() == Approx(0.0527046).epsilon(1e-5));
-    CHECK(v["sd_u_mg"].get<double>() == Approx(0.0248452).epsilon(1e-5));
+    CHECK_THAT(v["bias_mg"].get<double>(), milligrams_near(0.02 + 0.1 * i, ug(1e-6)));
+    CHECK_THAT(v["bias_u_mg"].get<double>(), milligrams_near(1.0 / 12.0, ug(1e-6)));
+    CHECK_THAT(v["sd_mg"].get<double>(), milligrams_near(0.052704627669, ug(1e-6)));
+    CHECK_THAT(v["sd_u_mg"].get<double>(), milligrams_near(0.02484519975, ug(1e-6)));
   }
-  CHECK(j["columns"][0]["tolerance"]["upper_mg"].get<double>() == Approx(0.5));
+  CHECK_THAT(j["columns"][0]["tolerance"]["upper_mg"].get<double>(), milligrams_near(0.5, ug(1e-6)));
 
   r = run_plumb({"--db", db, "history", "BAL-L", "--format", "csv", "--from", "2026-03-09", "--to", "2026-03-16"},
                 dir.path());
@@ -117,8 +121,8 @@ TEST_CASE("drift of the hand-built history: line, R^2 = 1 and an extrapolated da
   REQUIRE(r.status == 0);
   const json j = json::parse(r.out);
   CHECK(j["slope_per_day_mg"].get<double>() == Approx(0.1 / 7).epsilon(1e-9));
-  CHECK(j["r_squared"].get<double>() == Approx(1.0).margin(1e-9));
-  CHECK(j["intercept_mg"].get<double>() == Approx(0.02).margin(1e-9));
+  CHECK(j["r_squared"].get<double>() == Approx(1.0).margin(1e-9).epsilon(0));
+  CHECK_THAT(j["intercept_mg"].get<double>(), milligrams_near(0.02, ug(1e-6)));
   CHECK(j["status"] == "reaches_limit");
   CHECK(j["reached"]["date"] == "2026-04-05");
   CHECK(j["reached"]["extent"] == "extrapolation");
@@ -158,9 +162,9 @@ TEST_CASE("control chart with a chosen baseline flags the check beyond 3 sigma",
                      dir.path());
   REQUIRE(r.status == 0);
   const json j = json::parse(r.out);
-  CHECK(j["centre_mg"].get<double>() == Approx(0.12).margin(1e-9));
-  CHECK(j["sigma_mg"].get<double>() == Approx(0.0886525).epsilon(1e-5));
-  CHECK(j["ucl_mg"].get<double>() == Approx(0.385957).epsilon(1e-5));
+  CHECK_THAT(j["centre_mg"].get<double>(), milligrams_near(0.12, ug(1e-6)));
+  CHECK_THAT(j["sigma_mg"].get<double>(), milligrams_near(0.088652482270, ug(1e-6)));  // 0.1 / 1.128
+  CHECK_THAT(j["ucl_mg"].get<double>(), milligrams_near(0.385957446809, ug(1e-6)));
   bool rule1 = false;
   for (const auto& f : j["flags"])
     if (f["rule"] == 1 && f["run_ids"].size() == 1 && f["dates"][0] == "2026-03-30") rule1 = true;

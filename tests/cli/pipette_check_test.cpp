@@ -4,10 +4,17 @@
 
 #include <nlohmann/json.hpp>
 
+#include "support/margin.hpp"
 #include "support/run_plumb.hpp"
 
 using nlohmann::json;
+using plumb::test::grams_near;
+using plumb::test::microlitres_near;
+using plumb::test::percent_near;
+using plumb::test::pp;
 using plumb::test::run_plumb;
+using plumb::test::ug;
+using plumb::test::ul;
 
 namespace {
 
@@ -99,9 +106,9 @@ TEST_CASE("pipette check: register, record, show, certify, due", "[cli][pipette]
   //   s_r = 0.1045041 * Z = 0.1048020 uL; CV = 0.1048020 / 100.01532 = 0.10479 %; limits 0.8 uL and 0.3 uL: pass.
   CHECK(j["procedure"] == "gravimetric");
   CHECK(j["instrument"] == "P-07");
-  CHECK(j["z"]["water_density_kg_m3"].get<double>() == Approx(998.20675).margin(0.000005));
-  CHECK(j["z"]["air_density_kg_m3"].get<double>() == Approx(1.1989971).margin(0.0000005));
-  CHECK(j["z"]["z_ul_per_mg"].get<double>() == Approx(1.0028509).margin(0.00000005));
+  CHECK(j["z"]["water_density_kg_m3"].get<double>() == Approx(998.20675).margin(0.000005).epsilon(0));
+  CHECK(j["z"]["air_density_kg_m3"].get<double>() == Approx(1.1989971).margin(0.0000005).epsilon(0));
+  CHECK(j["z"]["z_ul_per_mg"].get<double>() == Approx(1.0028509).margin(0.00000005).epsilon(0));
   CHECK(j["environment"]["water_temperature_c"] == 20.0);
   CHECK(j["environment"]["air_pressure_hpa"] == 1013.0);
   CHECK(j["environment"]["humidity_pct"] == 50.0);
@@ -109,7 +116,7 @@ TEST_CASE("pipette check: register, record, show, certify, due", "[cli][pipette]
   CHECK(j["balance"]["id"] == "SM-02");
   CHECK(j["balance"]["latest_check_run"] == 1);
   // The balance's repeatability, worked above: 0.0091894 mg.
-  CHECK(j["balance"]["repeatability_g"].get<double>() * 1e3 == Approx(0.0091894).margin(0.00000005));
+  CHECK_THAT(j["balance"]["repeatability_g"].get<double>(), grams_near(0.0000091894, ug(0.00005)));
   REQUIRE(j["volumes"].size() == 1);
   const json& v = j["volumes"][0];
   CHECK(v["selected_ul"] == 100.0);
@@ -117,13 +124,14 @@ TEST_CASE("pipette check: register, record, show, certify, due", "[cli][pipette]
   const json& c = v["channels"][0];
   CHECK(c["channel"] == 1);
   CHECK(c["n"] == 10);
-  CHECK(c["mean_ul"].get<double>() == Approx(100.01532).margin(0.000005));
-  CHECK(c["systematic_error_ul"].get<double>() == Approx(0.01532).margin(0.000005));
-  CHECK(c["systematic_error_pct"].get<double>() == Approx(0.01532).margin(0.000005));
-  CHECK(c["random_error_ul"].get<double>() == Approx(0.1048020).margin(0.0000005));
-  CHECK(c["cv_pct"].get<double>() == Approx(0.10479).margin(0.000005));
-  CHECK(c["limits"]["systematic_ul"].get<double>() == Approx(0.8));
-  CHECK(c["limits"]["random_ul"].get<double>() == Approx(0.3));
+  // Margins: half a unit in the last digit worked by hand; the limits are exact table values.
+  CHECK_THAT(c["mean_ul"].get<double>(), microlitres_near(100.01532, ul(0.000005)));
+  CHECK_THAT(c["systematic_error_ul"].get<double>(), microlitres_near(0.01532, ul(0.000005)));
+  CHECK_THAT(c["systematic_error_pct"].get<double>(), percent_near(0.01532, pp(0.000005)));
+  CHECK_THAT(c["random_error_ul"].get<double>(), microlitres_near(0.1048020, ul(0.0000005)));
+  CHECK_THAT(c["cv_pct"].get<double>(), percent_near(0.10479, pp(0.000005)));
+  CHECK_THAT(c["limits"]["systematic_ul"].get<double>(), microlitres_near(0.8, ul(1e-9)));
+  CHECK_THAT(c["limits"]["random_ul"].get<double>(), microlitres_near(0.3, ul(1e-9)));
   CHECK(c["verdict"] == "pass");
   CHECK(c["reasons"].empty());
   CHECK(j["verdict"] == "pass");
@@ -191,9 +199,10 @@ TEST_CASE("pipette check: evaporation, an incomplete multichannel run fails and 
   INFO(r.err);
   REQUIRE(r.status == 0);
   json j = json::parse(r.out);
-  CHECK(j["environment"]["evaporation_g"].get<double>() == Approx(0.00001));
-  CHECK(j["volumes"][0]["channels"][0]["mean_ul"].get<double>() == Approx(100.02535).margin(0.000005));
-  CHECK(j["volumes"][0]["channels"][0]["random_error_ul"].get<double>() == Approx(0.1048020).margin(0.0000005));
+  CHECK_THAT(j["environment"]["evaporation_g"].get<double>(), grams_near(0.00001, ug(1e-6)));
+  CHECK_THAT(j["volumes"][0]["channels"][0]["mean_ul"].get<double>(), microlitres_near(100.02535, ul(0.000005)));
+  CHECK_THAT(j["volumes"][0]["channels"][0]["random_error_ul"].get<double>(),
+             microlitres_near(0.1048020, ul(0.0000005)));
 
   // An 8-channel 20-200 uL pipette tested at 100 uL on two channels only: evaluated, but it cannot pass.
   REQUIRE(run_plumb({"--db", db, "pipette", "add", "M-8", "--nominal", "200uL", "--range", "20uL-200uL",
@@ -210,8 +219,8 @@ TEST_CASE("pipette check: evaporation, an incomplete multichannel run fails and 
   CHECK(j["verdict"] == "fail");
   CHECK(j["complete"] == false);
   // ISO 8655-2 at nominal 200 uL (1.6 uL, 0.6 uL), doubled for a multichannel pipette: 3.2 uL and 1.2 uL.
-  CHECK(j["volumes"][0]["channels"][1]["limits"]["systematic_ul"].get<double>() == Approx(3.2));
-  CHECK(j["volumes"][0]["channels"][1]["limits"]["random_ul"].get<double>() == Approx(1.2));
+  CHECK_THAT(j["volumes"][0]["channels"][1]["limits"]["systematic_ul"].get<double>(), microlitres_near(3.2, ul(1e-9)));
+  CHECK_THAT(j["volumes"][0]["channels"][1]["limits"]["random_ul"].get<double>(), microlitres_near(1.2, ul(1e-9)));
   CHECK(j["volumes"][0]["channels"][1]["limits"]["doubled"] == true);
   CHECK(j["next_due"].is_null());
   std::string reasons = j["reasons"].dump();

@@ -3,10 +3,17 @@
 
 #include <nlohmann/json.hpp>
 
+#include "support/margin.hpp"
 #include "support/run_plumb.hpp"
 
 using nlohmann::json;
+using plumb::test::grams_near;
+using plumb::test::mg;
+using plumb::test::percent_near;
+using plumb::test::pp;
 using plumb::test::run_plumb;
+using plumb::test::ug;
+using plumb::test::within_fraction_of_d;
 
 namespace {
 
@@ -29,20 +36,22 @@ TEST_CASE("weekly check: record, show, certify, due", "[cli]") {
   r = run_plumb({"--db", db, "check", "show", "LAST", "--format", "json"}, dir.path());
   REQUIRE(r.status == 0);
   const json j = json::parse(r.out);
-  // Values worked by hand in tests/unit/repeatability_test.cpp for the same readings.
+  // Values worked by hand in tests/unit/repeatability_test.cpp for the same readings: mean 100.00023 g,
+  // s = sqrt(0.9) x 0.1 mg = 0.0948683298 mg, bias 0.2 mg = 0.00019999994 % of 100.00003 g, m_min = 2000 s.
+  // Means and biases within d/100 or tighter (d = 0.1 mg); s and m_min to the digits worked by hand.
   CHECK(j["run_id"] == 1);
   CHECK(j["instrument"] == "BAL-A");
   CHECK(j["procedure"] == "repeatability");
   CHECK(j["date"] == "2026-11-30");
   CHECK(j["n"] == 10);
-  CHECK(j["mean_g"].get<double>() == Approx(100.00023));
-  CHECK(j["sd_g"].get<double>() == Approx(0.0000948683).epsilon(1e-6));
-  CHECK(j["reference_g"].get<double>() == Approx(100.00003));
-  CHECK(j["bias_g"].get<double>() == Approx(0.0002).epsilon(1e-9));
-  CHECK(j["bias_pct"].get<double>() == Approx(0.0002).epsilon(1e-6));
-  CHECK(j["readability_g"].get<double>() == Approx(0.0001));
-  CHECK(j["sd_over_d"].get<double>() == Approx(0.948683).epsilon(1e-6));
-  CHECK(j["min_weight_g"].get<double>() == Approx(0.189737).epsilon(1e-5));
+  CHECK_THAT(j["mean_g"].get<double>(), within_fraction_of_d(100.00023, mg(0.1), 100));
+  CHECK_THAT(j["sd_g"].get<double>(), grams_near(0.0000948683298, ug(0.00005)));
+  CHECK_THAT(j["reference_g"].get<double>(), grams_near(100.00003, ug(0.001)));
+  CHECK_THAT(j["bias_g"].get<double>(), grams_near(0.0002, ug(1e-7)));
+  CHECK_THAT(j["bias_pct"].get<double>(), percent_near(0.00019999994, pp(1e-13)));
+  CHECK_THAT(j["readability_g"].get<double>(), grams_near(0.0001, ug(1e-6)));
+  CHECK(j["sd_over_d"].get<double>() == Approx(0.948683298).margin(1e-9).epsilon(0));
+  CHECK_THAT(j["min_weight_g"].get<double>(), grams_near(0.1897366596, ug(0.001)));
   CHECK(j["verdict"] == "pass");
   CHECK(j["reasons"].empty());
   CHECK(j["next_due"] == "2026-12-07");

@@ -19,11 +19,16 @@
 #include "report/chart/chart.hpp"
 #include "report/history/charts.hpp"
 #include "support/history.hpp"
+#include "support/margin.hpp"
 #include "support/xml_scan.hpp"
 
 using namespace plumb::report;
 using plumb::parse_date;
 using plumb::test::count_of;
+using plumb::test::microlitres_near;
+using plumb::test::milligrams_near;
+using plumb::test::ug;
+using plumb::test::ul;
 using plumb::test::xml_elements;
 
 namespace {
@@ -164,7 +169,7 @@ TEST_CASE("chart zooms to the data when the tolerance band is over 20 times wide
   s.series[0].points[1].y = 0.3, s.series[0].points[1].error = 0.1;
   s.tolerance = ToleranceBand{-100.0, 100.0, "tolerance limit"};
   REQUIRE(scale_decision(s).zoomed);
-  CHECK(scale_decision(s).ratio == Approx(500.0));
+  CHECK(scale_decision(s).ratio == Approx(500.0).epsilon(1e-12));
 
   SECTION("zoomed: the axis fits the data, both limits are off-scale markers, the subtitle states the zoom") {
     const std::string svg = render_chart(s, ChartFormat::svg);
@@ -175,9 +180,9 @@ TEST_CASE("chart zooms to the data when the tolerance band is over 20 times wide
     const auto markers = xml_elements(svg, "off-scale-limit");
     REQUIRE(markers.size() == 2);
     CHECK(markers[0].attr("edge") == "bottom");
-    CHECK(std::stod(markers[0].attr("value")) == Approx(-100.0));
+    CHECK_THAT(std::stod(markers[0].attr("value")), milligrams_near(-100.0, ug(0.001)));
     CHECK(markers[1].attr("edge") == "top");
-    CHECK(std::stod(markers[1].attr("value")) == Approx(100.0));
+    CHECK_THAT(std::stod(markers[1].attr("value")), milligrams_near(100.0, ug(0.001)));
     CHECK(xml_elements(svg, "tolerance-limit").empty());
     const auto labels = texts_with_role(svg, "off-scale-label");
     REQUIRE(labels.size() == 2);
@@ -252,16 +257,17 @@ TEST_CASE("chart bad input is one clear sentence", "[report][chart][errors]") {
 }
 
 TEST_CASE("axis ticks in 1-2-5 steps and calendar steps, worked by hand", "[report][chart][ticks]") {
-  CHECK(nice_step(0.13) == Approx(0.2));
-  CHECK(nice_step(0.7) == Approx(1.0));
-  CHECK(nice_step(3.0) == Approx(5.0));
-  CHECK(nice_step(0.05) == Approx(0.05));
-  CHECK(nice_step(120) == Approx(200));
+  // Steps and tick values are unit-free numbers of the axis: to 1e-12 relative.
+  CHECK(nice_step(0.13) == Approx(0.2).epsilon(1e-12));
+  CHECK(nice_step(0.7) == Approx(1.0).epsilon(1e-12));
+  CHECK(nice_step(3.0) == Approx(5.0).epsilon(1e-12));
+  CHECK(nice_step(0.05) == Approx(0.05).epsilon(1e-12));
+  CHECK(nice_step(120) == Approx(200).epsilon(1e-12));
   // -0.53 .. 0.61 in about 6 steps: raw 1.14 / 6 = 0.19 -> 0.2; -0.53 / 0.2 = -2.65 -> -3 -> -0.6;
   // 0.61 / 0.2 = 3.05 -> 4 -> 0.8. Labels -0.6, -0.4, -0.2, 0.0, 0.2, 0.4, 0.6, 0.8.
   const auto t = number_ticks(-0.53, 0.61, 6);
-  CHECK(t.min == Approx(-0.6));
-  CHECK(t.max == Approx(0.8));
+  CHECK(t.min == Approx(-0.6).epsilon(1e-12));
+  CHECK(t.max == Approx(0.8).epsilon(1e-12));
   REQUIRE(t.ticks.size() == 8);
   CHECK(t.ticks[0].label == "-0.6");
   CHECK(t.ticks[3].label == "0.0");
@@ -305,7 +311,7 @@ TEST_CASE("control chart spec rings the flagged points and lists the explanation
   const auto c = individuals_chart(h, {Baseline{0, 4}, "mg"});
   const auto s = control_chart_spec(h, c, {}, {"Pipette P-12 (100 uL)", "Systematic error at 100 uL", "uL"});
   REQUIRE(s.control);
-  CHECK(s.control->upper == Approx(3.0).epsilon(1e-12));
+  CHECK_THAT(s.control->upper, microlitres_near(3.0, ul(1e-12)));
   CHECK(s.series[0].points[4].flagged);
   CHECK_FALSE(s.series[0].points[5].flagged);
   const std::string svg = render_chart(s, ChartFormat::svg);

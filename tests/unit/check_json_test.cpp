@@ -46,11 +46,11 @@ TEST_CASE("stored repeatability results text equals nlohmann's object and dump, 
     checks::RepeatabilityInput in;
     in.balance = {ExactMass::parse("220g", "cap"), ExactMass::parse("0.1mg", "d"),
                   k % 3 == 0 ? std::nullopt : std::optional(ExactMass::parse("200mg", "m"))};
-    in.weight = {"W100", ExactMass::parse("100.00003g", "w"), Mass{0.05e-3}, 2.0};
+    in.weight = {"W100", ExactMass::parse("100.00003g", "w"), Mass::grams(0.05e-3), 2.0};
     const int scatter = scatter_of(rng), n = count_of(rng), policy = policy_of(rng);
     for (int i = 0; i < n; ++i) {
       const int units = 1000000 + 200 + scatter * spread(rng) + k % 7;  // in 0.1 mg, about 100.02 g
-      in.readings_g.push_back(Decimal::parse(fmt::format("{}.{:04}", units / 10000, units % 10000)));
+      in.readings.push_back(ExactMass::grams(Decimal::parse(fmt::format("{}.{:04}", units / 10000, units % 10000))));
     }
     if (policy > 0) {
       in.policy.kind = TolerancePolicy::Kind::lab;

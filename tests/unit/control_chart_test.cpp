@@ -65,7 +65,7 @@ TEST_CASE("default baseline is the first 20 points; later points do not move the
   const auto c = individuals_chart(h);
   CHECK(c.limits.baseline_first == 0);
   CHECK(c.limits.baseline_count == 20);
-  CHECK(c.limits.centre == Approx(0.0).margin(1e-12));
+  CHECK(c.limits.centre == Approx(0.0).margin(1e-12).epsilon(0));
   CHECK(c.limits.sigma == Approx(1.0).epsilon(1e-12));
   CHECK(c.notes.empty());
   const auto r1 = flags_of(c, WesternElectricRule::one_beyond_3_sigma);
@@ -79,7 +79,7 @@ TEST_CASE("a user-chosen baseline range sets the limits", "[stats][control]") {
   // +0.564, -0.564, +0.564, -0.564 -> centre 0, sigma 1.
   const auto h = concat(weekly({100, 100, 100.5}), {0.564, -0.564, 0.564, -0.564, 0.5});
   const auto c = individuals_chart(h, {Baseline{3, 4}, "mg"});
-  CHECK(c.limits.centre == Approx(0.0).margin(1e-12));
+  CHECK(c.limits.centre == Approx(0.0).margin(1e-12).epsilon(0));
   CHECK(c.limits.sigma == Approx(1.0).epsilon(1e-12));
   CHECK_THAT(c.method, Catch::Contains("checks 4 to 7"));
   // The start-up points are 100 sigma away: rule 1 flags each of them.

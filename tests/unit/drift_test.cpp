@@ -17,9 +17,12 @@
 #include "core/errors.hpp"
 #include "stats/drift.hpp"
 #include "support/history.hpp"
+#include "support/margin.hpp"
 
 using namespace plumb::stats;
 using plumb::parse_date;
+using plumb::test::milligrams_near;
+using plumb::test::ug;
 
 namespace {
 
@@ -40,16 +43,17 @@ TEST_CASE("drift line, R^2, RMSE and prediction interval match the hand-worked e
   const auto r = analyse_drift(worked(), upper(2.0));
   REQUIRE(r.fit);
   CHECK(r.fit->coef[1] == Approx(0.011).epsilon(1e-12));
-  CHECK(r.fit->coef[0] == Approx(1.02).epsilon(1e-12));
+  CHECK_THAT(r.fit->coef[0], milligrams_near(1.02, ug(1e-9)));  // intercept, mg
   CHECK(r.fit->r_squared == Approx(0.703488).epsilon(1e-5));
-  CHECK(r.fit->rmse == Approx(0.100995).epsilon(1e-5));
+  CHECK_THAT(r.fit->rmse, milligrams_near(0.10099504938, ug(1e-5)));  // sqrt(0.051 / 5) = 0.10099504938 mg
   CHECK(r.t_quantile == Approx(3.1824).epsilon(1e-4));
   CHECK(r.span_days == 40);
   // At d = 40: 1.46 +/- 0.414938 * sqrt(1.2 + 0.4) = 1.46 +/- 0.524860.
   const auto b = r.band(40);
-  CHECK(b.fitted == Approx(1.46).epsilon(1e-12));
-  CHECK(b.upper == Approx(1.984860).epsilon(1e-5));
-  CHECK(b.lower == Approx(0.935140).epsilon(1e-5));
+  // The bounds carry the 5 digits of the tabled t: within 0.01 ug (1e-5 mg) of the hand values.
+  CHECK_THAT(b.fitted, milligrams_near(1.46, ug(1e-9)));
+  CHECK_THAT(b.upper, milligrams_near(1.984860, ug(0.01)));
+  CHECK_THAT(b.lower, milligrams_near(0.935140, ug(0.01)));
   CHECK(r.equation() == "y = 0.011 d + 1.02");
   // Slope test: se(b1) = s / sqrt(Sxx) = 0.0041231, t = 2.668; with 3 dof the table gives t = 2.353 at
   // p = 0.10 and 3.182 at p = 0.05, so 0.05 < p < 0.10: not significant.
@@ -143,7 +147,7 @@ TEST_CASE("a clear trend is significant", "[stats][drift]") {
   // s = 0.0051640, se(b1) = 0.00016330, t = 61.2 > 12.92 (t table, p = 0.001, 3 dof) -> p < 0.001.
   const auto r = analyse_drift(plumb::test::weekly({1.00, 1.10, 1.21, 1.30, 1.40}, 0, "2024-01-01", 10));
   CHECK(r.status == DriftStatus::no_tolerance);
-  CHECK(r.fit->coef[0] == Approx(1.002).epsilon(1e-12));
+  CHECK_THAT(r.fit->coef[0], milligrams_near(1.002, ug(1e-9)));
   CHECK(r.slope_p_value < 0.001);
   CHECK(r.slope_significant);
 }

@@ -8,6 +8,7 @@
 
 #include "checks/pipette.hpp"
 #include "core/errors.hpp"
+#include "support/margin.hpp"
 
 using Catch::Matchers::Contains;
 using plumb::Decimal;
@@ -15,12 +16,23 @@ using plumb::InputError;
 using plumb::MassReading;
 using plumb::MassUnit;
 using plumb::Verdict;
+using plumb::Volume;
+using plumb::test::mass_near;
+using plumb::test::mg;
+using plumb::test::percent_near;
+using plumb::test::pp;
+using plumb::test::ug;
+using plumb::test::ul;
+using plumb::test::volume_near;
 namespace ck = plumb::checks;
 namespace pl = plumb::pipette_limits;
 
 namespace {
 
 Decimal dec(const char* s) { return Decimal::parse(s); }
+plumb::ExactVolume exact_ul(const char* s) {
+  return plumb::ExactVolume::microlitres(Decimal::parse(s));
+}
 
 std::vector<MassReading> grams(const std::vector<std::string>& texts) {
   std::vector<MassReading> out;
@@ -46,13 +58,13 @@ ck::PipetteRunInput fixed_100ul_run() {
   ck::PipetteRunInput in;
   in.pipette.id = "P-100";
   in.pipette.kind = ck::PipetteKind::fixed;
-  in.pipette.nominal_ul = dec("100");
+  in.pipette.nominal = exact_ul("100");
   in.pipette.channels = 1;
   in.balance.id = "B-7";
   in.balance.readability = plumb::ExactMass::parse("0.01 mg", "readability");
-  in.balance.repeatability = plumb::Mass{0.000012};  // 0.012 mg
+  in.balance.repeatability = plumb::Mass::grams(0.000012);  // 0.012 mg
   in.environment = {20.0, 1013.0, 50.0};
-  in.volumes = {{dec("100"), {{1, grams(ten)}}}};
+  in.volumes = {{exact_ul("100"), {{1, grams(ten)}}}};
   return in;
 }
 
@@ -90,27 +102,29 @@ TEST_CASE("Worked example by hand: fixed 100 uL pipette, ten weighings at 20 deg
   //    |+0.01532| <= 0.8 and 0.1048 <= 0.3: PASS.
   //    Balance (ISO 8655-6 Table 1, 10 uL < V <= 100 uL): d <= 0.01 mg (0.01), s <= 0.02 mg (0.012): suitable.
   const ck::PipetteRunResult r = ck::evaluate_pipette_run(fixed_100ul_run());
+  // Every margin below is half a unit in the last digit worked by hand (the mean mass, exact, to 1e-6 ug); the
+  // limits are exact table values (1e-9 uL).
 
-  CHECK(r.z.water_density_kg_m3 == Approx(998.20675).margin(0.000005));
-  CHECK(r.z.air_density_kg_m3 == Approx(1.1989971).margin(0.0000005));
-  CHECK(r.z.z_ul_per_mg == Approx(1.0028509).margin(0.00000005));
+  CHECK(r.z.water_density_kg_m3 == Approx(998.20675).margin(0.000005).epsilon(0));
+  CHECK(r.z.air_density_kg_m3 == Approx(1.1989971).margin(0.0000005).epsilon(0));
+  CHECK(r.z.z_ul_per_mg == Approx(1.0028509).margin(0.00000005).epsilon(0));
 
   REQUIRE(r.volumes.size() == 1);
   REQUIRE(r.volumes[0].channels.size() == 1);
   const ck::ChannelResult& c = r.volumes[0].channels[0];
   CHECK(c.n == 10);
-  CHECK(c.mean_mass.mg() == Approx(99.731).margin(1e-9));
-  CHECK(c.sd_mass.mg() == Approx(0.1045041).margin(0.00000005));
+  CHECK_THAT(c.mean_mass, mass_near(mg(99.731), ug(1e-6)));
+  CHECK_THAT(c.sd_mass, mass_near(mg(0.1045041), ug(5e-5)));
   REQUIRE(c.volumes.size() == 10);
-  CHECK(c.volumes[0].ul == Approx(99.99426).margin(0.000005));
-  CHECK(c.volumes[4].ul == Approx(100.20486).margin(0.000005));
-  CHECK(c.mean.ul == Approx(100.01532).margin(0.000005));
-  CHECK(c.systematic_error.ul == Approx(0.01532).margin(0.000005));
-  CHECK(c.systematic_error_pct == Approx(0.01532).margin(0.000005));
-  CHECK(c.random_error.ul == Approx(0.1048020).margin(0.0000005));
-  CHECK(c.cv_pct == Approx(0.10479).margin(0.000005));
-  CHECK(c.limits.systematic.ul == Approx(0.8));
-  CHECK(c.limits.random.ul == Approx(0.3));
+  CHECK_THAT(c.volumes[0], volume_near(Volume::microlitres(99.99426), ul(0.000005)));
+  CHECK_THAT(c.volumes[4], volume_near(Volume::microlitres(100.20486), ul(0.000005)));
+  CHECK_THAT(c.mean, volume_near(Volume::microlitres(100.01532), ul(0.000005)));
+  CHECK_THAT(c.systematic_error, volume_near(Volume::microlitres(0.01532), ul(0.000005)));
+  CHECK_THAT(c.systematic_error_pct, percent_near(0.01532, pp(0.000005)));
+  CHECK_THAT(c.random_error, volume_near(Volume::microlitres(0.1048020), ul(0.0000005)));
+  CHECK_THAT(c.cv_pct, percent_near(0.10479, pp(0.000005)));
+  CHECK_THAT(c.limits.systematic, volume_near(Volume::microlitres(0.8), ul(1e-9)));
+  CHECK_THAT(c.limits.random, volume_near(Volume::microlitres(0.3), ul(1e-9)));
   CHECK(c.verdict == Verdict::pass);
   CHECK(c.reasons.empty());
   CHECK(r.volumes[0].balance.suitable);
@@ -146,27 +160,31 @@ TEST_CASE("Evaporation loss is added to every weighing exactly", "[pipette]") {
   in.evaporation_per_weighing = plumb::ExactMass::parse("0.02 mg", "evaporation");
   const auto r = ck::evaluate_pipette_run(in);
   const auto& c = r.volumes.at(0).channels.at(0);
-  CHECK(c.mean_mass.mg() == Approx(99.751).margin(1e-9));
-  CHECK(c.sd_mass.mg() == Approx(0.1045041).margin(0.00000005));
-  CHECK(c.mean.ul == Approx(100.03538).margin(0.000005));
+  CHECK_THAT(c.mean_mass, mass_near(mg(99.751), ug(1e-6)));
+  CHECK_THAT(c.sd_mass, mass_near(mg(0.1045041), ug(5e-5)));
+  CHECK_THAT(c.mean, volume_near(Volume::microlitres(100.03538), ul(0.000005)));
   REQUIRE(r.evaporation_per_weighing);
 }
 
 TEST_CASE("Default ISO 8655-6 test volumes", "[pipette]") {
   ck::PipetteDefinition p;
-  p.nominal_ul = dec("100");
-  CHECK(ck::default_test_volumes(p) == std::vector<Decimal>{dec("100")});
+  p.nominal = exact_ul("100");
+  CHECK(ck::default_test_volumes(p) == std::vector<plumb::ExactVolume>{exact_ul("100")});
   p.kind = ck::PipetteKind::variable;
-  p.lower_limit_ul = dec("10");
-  CHECK(ck::default_test_volumes(p) == std::vector<Decimal>{dec("100"), dec("50"), dec("10")});
-  p.lower_limit_ul = dec("2");  // 10 % = 10 uL is above the lower limit
-  CHECK(ck::default_test_volumes(p) == std::vector<Decimal>{dec("100"), dec("50"), dec("10")});
-  p.nominal_ul = dec("1000");
-  p.lower_limit_ul = dec("200");  // lower limit 200 uL is above 10 % = 100 uL
-  CHECK(ck::default_test_volumes(p) == std::vector<Decimal>{dec("1000"), dec("500"), dec("200")});
-  p.nominal_ul = dec("2.5");
-  p.lower_limit_ul = dec("0.1");
-  CHECK(ck::default_test_volumes(p) == std::vector<Decimal>{dec("2.5"), dec("1.25"), dec("0.25")});
+  p.lower_limit = exact_ul("10");
+  CHECK(ck::default_test_volumes(p) ==
+        std::vector<plumb::ExactVolume>{exact_ul("100"), exact_ul("50"), exact_ul("10")});
+  p.lower_limit = exact_ul("2");  // 10 % = 10 uL is above the lower limit
+  CHECK(ck::default_test_volumes(p) ==
+        std::vector<plumb::ExactVolume>{exact_ul("100"), exact_ul("50"), exact_ul("10")});
+  p.nominal = exact_ul("1000");
+  p.lower_limit = exact_ul("200");  // lower limit 200 uL is above 10 % = 100 uL
+  CHECK(ck::default_test_volumes(p) ==
+        std::vector<plumb::ExactVolume>{exact_ul("1000"), exact_ul("500"), exact_ul("200")});
+  p.nominal = exact_ul("2.5");
+  p.lower_limit = exact_ul("0.1");
+  CHECK(ck::default_test_volumes(p) ==
+        std::vector<plumb::ExactVolume>{exact_ul("2.5"), exact_ul("1.25"), exact_ul("0.25")});
 }
 
 TEST_CASE("Multichannel: limits doubled, results per channel, every channel required", "[pipette]") {
@@ -175,30 +193,31 @@ TEST_CASE("Multichannel: limits doubled, results per channel, every channel requ
   // e_s = +0.918 uL: beyond the single-channel 0.8 uL but within the doubled 1.6 uL, so it passes.
   auto in = fixed_100ul_run();
   in.pipette.channels = 2;
-  in.volumes = {{dec("100"), {{2, grams(shifted(ten, 90))}, {1, grams(ten)}}}};
+  in.volumes = {{exact_ul("100"), {{2, grams(shifted(ten, 90))}, {1, grams(ten)}}}};
   const auto r = ck::evaluate_pipette_run(in);
   REQUIRE(r.volumes.at(0).channels.size() == 2);
   const auto& c1 = r.volumes[0].channels[0];
   const auto& c2 = r.volumes[0].channels[1];
   CHECK(c1.channel == 1);
   CHECK(c2.channel == 2);
-  CHECK(c2.mean.ul == Approx(100.91789).margin(0.000005));
-  CHECK(c2.systematic_error.ul == Approx(0.91789).margin(0.000005));
-  CHECK(c2.random_error.ul == Approx(0.1048020).margin(0.0000005));  // a shift leaves the SD as in the example
+  CHECK_THAT(c2.mean, volume_near(Volume::microlitres(100.91789), ul(0.000005)));
+  CHECK_THAT(c2.systematic_error, volume_near(Volume::microlitres(0.91789), ul(0.000005)));
+  CHECK_THAT(c2.random_error,
+             volume_near(Volume::microlitres(0.1048020), ul(0.0000005)));  // a shift leaves the SD as in the example
   CHECK(c2.limits.doubled);
-  CHECK(c2.limits.systematic.ul == Approx(1.6));
+  CHECK_THAT(c2.limits.systematic, volume_near(Volume::microlitres(1.6), ul(1e-9)));
   CHECK(c2.verdict == Verdict::pass);
   CHECK(r.verdict == Verdict::pass);
 
   SECTION("the same shift on a single-channel pipette fails") {
     in.pipette.channels = 1;
-    in.volumes = {{dec("100"), {{1, grams(shifted(ten, 90))}}}};
+    in.volumes = {{exact_ul("100"), {{1, grams(shifted(ten, 90))}}}};
     const auto r1 = ck::evaluate_pipette_run(in);
     CHECK(r1.verdict == Verdict::fail);
     CHECK_THAT(r1.reasons.at(0), Contains("systematic error +0.918 uL") && Contains("+/-0.800 uL"));
   }
   SECTION("a channel left out makes the run incomplete and it cannot pass") {
-    in.volumes = {{dec("100"), {{1, grams(ten)}}}};
+    in.volumes = {{exact_ul("100"), {{1, grams(ten)}}}};
     const auto r2 = ck::evaluate_pipette_run(in);
     CHECK_FALSE(r2.complete);
     CHECK(r2.verdict == Verdict::fail);
@@ -216,25 +235,25 @@ TEST_CASE("Variable pipette: absolute limits at nominal across the range; missin
   // 10 uL needs a 0.001 mg balance (ISO 8655-6 Table 1), so a 0.01 mg balance is refused for the 10 uL volume.
   auto in = fixed_100ul_run();
   in.pipette.kind = ck::PipetteKind::variable;
-  in.pipette.lower_limit_ul = dec("10");
+  in.pipette.lower_limit = exact_ul("10");
   std::vector<std::string> fifty(10, "0.04980");
-  in.volumes = {{dec("50"), {{1, grams(fifty)}}}, {dec("100"), {{1, grams(ten)}}}};
+  in.volumes = {{exact_ul("50"), {{1, grams(fifty)}}}, {exact_ul("100"), {{1, grams(ten)}}}};
   const auto r = ck::evaluate_pipette_run(in);
   REQUIRE(r.volumes.size() == 2);
-  CHECK(r.volumes[0].selected_ul == dec("100"));  // largest first
+  CHECK(r.volumes[0].selected == exact_ul("100"));  // largest first
   const auto& c50 = r.volumes[1].channels.at(0);
-  CHECK(c50.mean.ul == Approx(49.94198).margin(0.000005));
-  CHECK(c50.systematic_error.ul == Approx(-0.05802).margin(0.000005));
-  CHECK(c50.random_error.ul == 0.0);
-  CHECK(c50.limits.systematic.ul == Approx(0.8));
-  CHECK(c50.limits.systematic_pct == Approx(1.6));
+  CHECK_THAT(c50.mean, volume_near(Volume::microlitres(49.94198), ul(0.000005)));
+  CHECK_THAT(c50.systematic_error, volume_near(Volume::microlitres(-0.05802), ul(0.000005)));
+  CHECK(c50.random_error.ul() == 0.0);
+  CHECK_THAT(c50.limits.systematic, volume_near(Volume::microlitres(0.8), ul(1e-9)));
+  CHECK_THAT(c50.limits.systematic_pct, percent_near(1.6, pp(1e-9)));
   CHECK(c50.verdict == Verdict::pass);
   CHECK_FALSE(r.complete);
   CHECK(r.verdict == Verdict::fail);
   REQUIRE(r.reasons.size() == 1);
   CHECK_THAT(r.reasons[0], Contains("test volume 10 uL was not tested"));
 
-  in.volumes.push_back({dec("10"), {{1, grams(std::vector<std::string>(10, "0.00998"))}}});
+  in.volumes.push_back({exact_ul("10"), {{1, grams(std::vector<std::string>(10, "0.00998"))}}});
   CHECK_THROWS_WITH(ck::evaluate_pipette_run(in),
                     Contains("not suitable") && Contains("0.001 mg") && Contains("10 uL"));
 }
@@ -246,16 +265,16 @@ TEST_CASE("Bad input is refused with one clear sentence", "[pipette][bad-input]"
     CHECK_THROWS_WITH(ck::evaluate_pipette_run(in), Contains("water temperature 31 degC"));
   }
   SECTION("test volume outside a fixed pipette's volume") {
-    in.volumes[0].volume_ul = dec("50");
+    in.volumes[0].volume = exact_ul("50");
     CHECK_THROWS_WITH(ck::evaluate_pipette_run(in),
                       Contains("test volume 50 uL is outside the range of pipette P-100 (fixed at 100 uL)"));
   }
   SECTION("test volume outside a variable pipette's range") {
     in.pipette.kind = ck::PipetteKind::variable;
-    in.pipette.lower_limit_ul = dec("10");
-    in.volumes[0].volume_ul = dec("150");
+    in.pipette.lower_limit = exact_ul("10");
+    in.volumes[0].volume = exact_ul("150");
     CHECK_THROWS_WITH(ck::evaluate_pipette_run(in), Contains("150 uL is outside") && Contains("10 uL to 100 uL"));
-    in.volumes[0].volume_ul = dec("5");
+    in.volumes[0].volume = exact_ul("5");
     CHECK_THROWS_WITH(ck::evaluate_pipette_run(in), Contains("5 uL is outside"));
   }
   SECTION("fewer than 4 replicates") {
@@ -312,15 +331,15 @@ TEST_CASE("Bad input is refused with one clear sentence", "[pipette][bad-input]"
   SECTION("inconsistent pipette definitions") {
     in.pipette.kind = ck::PipetteKind::variable;
     CHECK_THROWS_WITH(ck::evaluate_pipette_run(in), Contains("needs the lower limit"));
-    in.pipette.lower_limit_ul = dec("100");
+    in.pipette.lower_limit = exact_ul("100");
     CHECK_THROWS_WITH(ck::evaluate_pipette_run(in), Contains("below the nominal volume"));
     in.pipette.kind = ck::PipetteKind::fixed;
-    in.pipette.lower_limit_ul.reset();
+    in.pipette.lower_limit.reset();
     in.pipette.channels = 0;
     CHECK_THROWS_WITH(ck::evaluate_pipette_run(in), Contains("channel count 0"));
     in.pipette.channels = 1;
-    in.pipette.nominal_ul = dec("300");
-    in.volumes[0].volume_ul = dec("300");
+    in.pipette.nominal = exact_ul("300");
+    in.volumes[0].volume = exact_ul("300");
     CHECK_THROWS_WITH(ck::evaluate_pipette_run(in), Contains("300 uL is not a row of ISO 8655-2"));
   }
   SECTION("no test volumes") {

@@ -9,11 +9,11 @@ TEST_CASE("quadratic fit recovers an exact parabola", "[regression]") {
   // Worked by hand: y = 2 + 0.5 x - 0.25 x^2 at x = 0..4 gives 2, 2.25, 2, 1.25, 0 (no noise, SSE = 0).
   const std::vector<double> x{0, 1, 2, 3, 4}, y{2, 2.25, 2, 1.25, 0};
   const auto f = plumb::stats::fit(Model::quadratic, x, y);
-  CHECK(f.coef[0] == Approx(2.0).margin(1e-12));
-  CHECK(f.coef[1] == Approx(0.5).margin(1e-12));
-  CHECK(f.coef[2] == Approx(-0.25).margin(1e-12));
-  CHECK(f.r_squared == Approx(1.0));
-  CHECK(f.predict(2.5) == Approx(2 + 1.25 - 1.5625));
+  CHECK(f.coef[0] == Approx(2.0).margin(1e-12).epsilon(0));
+  CHECK(f.coef[1] == Approx(0.5).margin(1e-12).epsilon(0));
+  CHECK(f.coef[2] == Approx(-0.25).margin(1e-12).epsilon(0));
+  CHECK(f.r_squared == Approx(1.0).margin(1e-12).epsilon(0));
+  CHECK(f.predict(2.5) == Approx(2 + 1.25 - 1.5625).margin(1e-12).epsilon(0));
 }
 
 TEST_CASE("line fit statistics worked by hand", "[regression]") {
@@ -22,10 +22,10 @@ TEST_CASE("line fit statistics worked by hand", "[regression]") {
   // s = sqrt(1.8/2) = 0.948683; se(b1) = s/sqrt(5) = 0.424264; RMSE = sqrt(1.8/4) = 0.670820.
   const std::vector<double> x{1, 2, 3, 4}, y{1, 3, 2, 4};
   const auto f = plumb::stats::fit(Model::line, x, y);
-  CHECK(f.coef[1] == Approx(0.8));
-  CHECK(f.coef[0] == Approx(0.5));
-  CHECK(f.sse == Approx(1.8));
-  CHECK(f.r_squared == Approx(0.64));
+  CHECK(f.coef[1] == Approx(0.8).epsilon(1e-12));
+  CHECK(f.coef[0] == Approx(0.5).epsilon(1e-12));
+  CHECK(f.sse == Approx(1.8).epsilon(1e-12));
+  CHECK(f.r_squared == Approx(0.64).epsilon(1e-12));
   CHECK(f.residual_sd == Approx(0.948683).epsilon(1e-6));
   CHECK(f.coef_se[1] == Approx(0.424264).epsilon(1e-6));
   CHECK(f.rmse == Approx(0.670820).epsilon(1e-6));

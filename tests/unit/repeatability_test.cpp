@@ -5,17 +5,26 @@
 #include "checks/repeatability.hpp"
 #include "core/errors.hpp"
 #include "metrology/usp41.hpp"
+#include "support/margin.hpp"
 
 using namespace plumb;
 using namespace plumb::checks;
+using plumb::test::mass_near;
+using plumb::test::mg;
+using plumb::test::percent_near;
+using plumb::test::pp;
+using plumb::test::ug;
+
+// Margins: 0.001 ug (1e-9 g) or tighter for every mass, where d = 0.1 mg = 100 ug; a reading mistaken by one
+// digit moves a mean by 10 ug. The hand values below carry enough digits for the margin they are held to.
 
 namespace {
 
 RepeatabilityInput example(const std::vector<const char*>& readings) {
   RepeatabilityInput in;
   in.balance = {ExactMass::parse("220g", "cap"), ExactMass::parse("0.1mg", "d"), ExactMass::parse("200mg", "m")};
-  in.weight = {"W100", ExactMass::parse("100.00003g", "w"), Mass{0.05e-3}, 2.0};
-  for (const char* r : readings) in.readings_g.push_back(Decimal::parse(r));
+  in.weight = {"W100", ExactMass::parse("100.00003g", "w"), Mass::grams(0.05e-3), 2.0};
+  for (const char* r : readings) in.readings.push_back(ExactMass::parse(r, "reading"));
   return in;
 }
 
@@ -23,27 +32,28 @@ RepeatabilityInput example(const std::vector<const char*>& readings) {
 
 TEST_CASE("USP <41> chapter example: s = 0.00015 g gives m_min = 0.3 g", "[usp41]") {
   // Source: USP <41> worked example as quoted in shared/reference-data/README.md (from memory).
-  CHECK(usp41::minimum_weight(Mass{0.00015}, Mass{0.0001}).g == Approx(0.3));
+  CHECK_THAT(usp41::minimum_weight(Mass::grams(0.00015), Mass::grams(0.0001)), mass_near(Mass::grams(0.3), ug(0.001)));
   // The 0.41 d floor: s = 0.01 mg < 0.41 d = 0.041 mg, so m_min = 2000 x 0.041 mg = 82 mg = 820 d.
-  CHECK(usp41::minimum_weight(Mass{0.00001}, Mass{0.0001}).g == Approx(0.082));
+  CHECK_THAT(usp41::minimum_weight(Mass::grams(0.00001), Mass::grams(0.0001)), mass_near(mg(82), ug(0.001)));
 }
 
 TEST_CASE("weekly check worked by hand: a passing balance", "[repeatability][usp41]") {
   // Readings above 100 g in units of 0.1 mg: 3,1,2,4,2,3,1,2,3,2 -> sum 23, mean 100.00023 g.
   // Deviations from 2.3: .7,-1.3,-.3,1.7,-.3,.7,-1.3,-.3,.7,-.3; squares sum to 8.10 -> s^2 = 8.1/9 = 0.9
-  // (0.1 mg)^2 -> s = sqrt(0.9) x 0.1 mg = 0.0948683 mg. s/d = 0.948683.
-  // m_min = 2000 x 0.0948683 mg = 189.737 mg <= 200 mg: repeatability passes.
+  // (0.1 mg)^2 -> s = sqrt(0.9) x 0.1 mg = 0.0948683 mg (0.0948683298051). s/d = 0.948683.
+  // m_min = 2000 x 0.0948683 mg = 189.737 mg (189.73665961) <= 200 mg: repeatability passes.
   // bias = 100.00023 - 100.00003 = 0.2 mg = 0.00019999994 % of 100.00003 g; limit 0.10 % = 100.00003 mg.
   const auto r = evaluate_repeatability(example({"100.0003", "100.0001", "100.0002", "100.0004", "100.0002",
                                                  "100.0003", "100.0001", "100.0002", "100.0003", "100.0002"}));
   CHECK(r.n == 10);
-  CHECK(r.mean.g == Approx(100.00023).epsilon(1e-15));
-  CHECK(r.sd.g == Approx(0.0000948683298).epsilon(1e-9));
+  CHECK_THAT(r.mean, mass_near(Mass::grams(100.00023), ug(1e-7)));
+  CHECK_THAT(r.sd, mass_near(Mass::grams(0.0000948683298), ug(5e-8)));
   CHECK(r.sd_over_d == Approx(0.948683298).epsilon(1e-9));
-  CHECK(r.bias.g == Approx(0.0002).epsilon(1e-12));
-  CHECK(r.bias_pct == Approx(0.00019999994).epsilon(1e-7));
-  CHECK(r.min_weight.g == Approx(0.189736660).epsilon(1e-8));
-  CHECK(r.bias_limit->g == Approx(0.10000003));
+  CHECK_THAT(r.bias, mass_near(mg(0.2), ug(1e-10)));  // exact, then rounded once
+  CHECK_THAT(r.bias_pct, percent_near(0.00019999994, pp(1e-14)));
+  CHECK_THAT(r.min_weight, mass_near(Mass::grams(0.18973665961), ug(1e-6)));
+  // 0.10 % of the reference value 100.00003 g (not of the nominal 100 g, 0.03 ug less).
+  CHECK_THAT(*r.bias_limit, mass_near(Mass::grams(0.10000003), ug(1e-6)));
   CHECK(r.digit_backed);
   CHECK(r.verdict == Verdict::pass);
   CHECK(r.reasons.empty());
@@ -51,14 +61,15 @@ TEST_CASE("weekly check worked by hand: a passing balance", "[repeatability][usp
 
 TEST_CASE("weekly check worked by hand: repeatability too poor for the smallest net weight", "[repeatability]") {
   // 100.0000 and 100.0004 alternating five times: mean 100.0002, every deviation 0.2 mg,
-  // SS = 10 x 0.04 mg^2 = 0.4 mg^2, s^2 = 0.4/9, s = 0.21081851 mg > d = 0.1 mg (the last digit is not backed;
-  // the 1-2-5 step at or above s is 0.5 mg). m_min = 2000 x 0.21081851 mg = 421.637 mg > 200 mg: fail.
+  // SS = 10 x 0.04 mg^2 = 0.4 mg^2, s^2 = 0.4/9, s = 0.21081851 mg (0.210818510678) > d = 0.1 mg (the last digit
+  // is not backed; the 1-2-5 step at or above s is 0.5 mg). m_min = 2000 x 0.21081851 mg = 421.637 mg
+  // (421.6370213558) > 200 mg: fail.
   const auto r = evaluate_repeatability(example({"100.0000", "100.0004", "100.0000", "100.0004", "100.0000",
                                                  "100.0004", "100.0000", "100.0004", "100.0000", "100.0004"}));
-  CHECK(r.sd.g == Approx(0.00021081851).epsilon(1e-8));
-  CHECK(r.min_weight.g == Approx(0.421637).epsilon(1e-5));
+  CHECK_THAT(r.sd, mass_near(Mass::grams(0.000210818510678), ug(1e-6)));
+  CHECK_THAT(r.min_weight, mass_near(Mass::grams(0.4216370213558), ug(1e-6)));
   CHECK_FALSE(r.digit_backed);
-  CHECK(r.effective_resolution.g == Approx(0.0005));
+  CHECK_THAT(r.effective_resolution, mass_near(mg(0.5), ug(1e-6)));
   CHECK(r.verdict == Verdict::fail);
   REQUIRE(r.reasons.size() == 1);
   CHECK_THAT(r.reasons[0], Catch::Contains("minimum weight") && Catch::Contains("200 mg"));
@@ -86,8 +97,9 @@ TEST_CASE("readings finer than the readability and too few readings are refused"
 }
 
 TEST_CASE("resolution supported by a repeatability SD follows the 1-2-5 series", "[repeatability]") {
-  CHECK(resolution_supported_by(Mass{0.00013}).g == Approx(0.0002));
-  CHECK(resolution_supported_by(Mass{0.0002}).g == Approx(0.0002));
-  CHECK(resolution_supported_by(Mass{0.0031}).g == Approx(0.005));
-  CHECK(resolution_supported_by(Mass{0.007}).g == Approx(0.01));
+  // 0.13 mg -> 0.2 mg; 0.2 mg stays 0.2 mg; 3.1 mg -> 5 mg; 7 mg -> 10 mg (by hand, 1-2-5 series).
+  CHECK_THAT(resolution_supported_by(mg(0.13)), mass_near(mg(0.2), ug(1e-6)));
+  CHECK_THAT(resolution_supported_by(mg(0.2)), mass_near(mg(0.2), ug(1e-6)));
+  CHECK_THAT(resolution_supported_by(mg(3.1)), mass_near(mg(5), ug(1e-6)));
+  CHECK_THAT(resolution_supported_by(mg(7)), mass_near(mg(10), ug(1e-6)));
 }

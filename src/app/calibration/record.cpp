@@ -142,7 +142,7 @@ checks::CalibrationSet build_set(std::vector<FileLoad>& loads, const std::string
                                    source, l->first_line, stage, l->combination, l->rows.size(),
                                    checks::min_repeatability_readings));
     checks::RepeatabilitySeries s{l->conventional, {}};
-    for (const auto* r : l->rows) s.readings_g.push_back(r->reading.mass().in_grams());
+    for (const auto* r : l->rows) s.readings.push_back(r->reading.mass());
     set.repeatability.push_back(std::move(s));
   }
   const auto ecc = loads_of(loads, stage, "eccentricity");
@@ -159,11 +159,13 @@ checks::CalibrationSet build_set(std::vector<FileLoad>& loads, const std::string
         throw InputError(fmt::format("{} line {} column position: \"{}\" is read twice in the {} eccentricity test "
                                      "(first on line {}).",
                                      source, r->line, r->position, stage, it->second));
-      const Decimal g = r->reading.mass().in_grams();
-      if (r->position == "centre") e.centre_g = g;
-      else e.positions.push_back({r->position, g});
+      const ExactMass m = r->reading.mass();
+      if (r->position == "centre")
+        e.centre = m;
+      else
+        e.positions.push_back({r->position, m});
     }
-    if (!e.centre_g)
+    if (!e.centre)
       throw InputError(fmt::format("{} line {} column position: the {} eccentricity test has no reading at the "
                                    "centre; the deviations are taken from it.",
                                    source, ecc[0]->first_line, stage));
@@ -187,8 +189,8 @@ checks::CalibrationSet build_set(std::vector<FileLoad>& loads, const std::string
                                  report::model_key(model), stage, distinct.size(), needed));
   for (const auto* l : ind) {
     checks::LoadPoint p{l->combination, {}, {}};
-    for (const auto* r : l->rows) (r->direction == "down" ? p.down_g : p.up_g).push_back(r->reading.mass().in_grams());
-    if (p.up_g.empty())
+    for (const auto* r : l->rows) (r->direction == "down" ? p.down : p.up).push_back(r->reading.mass());
+    if (p.up.empty())
       throw InputError(fmt::format("{} line {} column direction: the {} load {} has no reading going up.", source,
                                    l->first_line, stage, l->combination));
     set.loads.push_back(std::move(p));
@@ -412,19 +414,20 @@ json calibration_error_at(const store::RunRecord& run, const std::string& load, 
   const ExactMass at = ExactMass::parse(load, "--at");
   checks::LinearityResult lin;
   lin.fit = report::fit_from_json(set["fit"]);
-  const double at_g = at.approx().g;
+  const double at_g = at.approx().g();
   if (!lin.fit.interpolates(at_g) && !extrapolate)
     throw InputError(fmt::format("--at {} is outside the calibrated range {:.6g} g to {:.6g} g; the error there would "
                                  "be an extrapolation (add --extrapolate to see it marked as such).",
                                  load, lin.fit.x_min, lin.fit.x_max));
-  const auto e = checks::error_at(lin, at_g, extrapolate ? checks::Extrapolation::mark : checks::Extrapolation::refuse);
+  const auto e =
+      checks::error_at(lin, at.approx(), extrapolate ? checks::Extrapolation::mark : checks::Extrapolation::refuse);
   return {{"load", at.to_string()},
-          {"load_g", e.load_g},
+          {"load_g", e.load.g()},
           {"stage", left ? "as-left" : "as-found"},
           {"model", set["fit"].value("model", "")},
-          {"indication_g", e.indication_g},
-          {"error_g", e.error_g},
-          {"se_g", e.se_g},
+          {"indication_g", e.indication.g()},
+          {"error_g", e.error.g()},
+          {"se_g", e.se.g()},
           {"extrapolated", e.extrapolated}};
 }
 

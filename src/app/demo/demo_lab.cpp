@@ -87,16 +87,16 @@ std::string pipette_weighings(const json& p, const store::PipetteRecord& rec, in
   const double d_mg = readability.approx().mg();
   const int decimals = readability.in_grams().significant_scale();
   std::string csv = "volume,channel,reading\n";
-  for (const Decimal& v : checks::default_test_volumes(rec.definition)) {
+  for (const ExactVolume& v : checks::default_test_volumes(rec.definition)) {
     for (int ch = 1; ch <= rec.definition.channels; ++ch) {
       double bias_pct = p["bias_pct"].get<double>();
       if (p.contains("fault") && p["fault"]["check"].get<int>() == check && p["fault"]["channel"].get<int>() == ch)
         bias_pct = p["fault"]["bias_pct"].get<double>();
-      const double selected = v.to_double();
+      const double selected = v.approx().ul();
       for (int i = 0; i < 10; ++i) {
         const double volume = selected * (1.0 + bias_pct / 100.0) + selected * p["cv_pct"].get<double>() / 100.0 * noise.next();
         const double mg = std::round(volume / z_ul_per_mg / d_mg) * d_mg;
-        csv += fmt::format("{},{},{:.{}f}\n", v.to_string(), ch, mg / 1e3, decimals);
+        csv += fmt::format("{},{},{:.{}f}\n", v.ul_text(), ch, mg / 1e3, decimals);
       }
     }
   }
@@ -167,14 +167,14 @@ DemoSummary build_demo(const std::filesystem::path& path, const std::function<vo
     for (const auto& b : scenario["balances"]) {
       const auto balance = *store::find_balance(db.sql(), b["id"].get<std::string>());
       const auto weight = *store::find_weight(db.sql(), b["weight"].get<std::string>());
-      const double d_g = balance.readability.approx().g;
+      const double d_g = balance.readability.approx().g();
       const int decimals = balance.readability.in_grams().significant_scale();
       const double bias_mg = b["bias_mg"].get<double>() + b["drift_mg_per_year"].get<double>() * week / 52.0;
       const bool late = b.contains("late_from_week") && week >= b["late_from_week"].get<int>();
       const double sd_mg = late ? b["late_sd_mg"].get<double>() : b["sd_mg"].get<double>();
       std::string csv = "reading\n";
       for (int i = 0; i < 10; ++i) {
-        const double value = weight.conventional_mass().approx().g + (bias_mg + sd_mg * noise.next()) * 1e-3;
+        const double value = weight.conventional_mass().approx().g() + (bias_mg + sd_mg * noise.next()) * 1e-3;
         // Round to the displayed scale interval, as the balance's display does.
         csv += fmt::format("{:.{}f}\n", std::round(value / d_g) * d_g, decimals);
       }

@@ -36,7 +36,7 @@ std::optional<QuantityValue> read_bias(const RunContext& c) {
   if (sd && n && *n >= 1) variance += *sd * *sd / *n;
   if (c.weight) {
     const double k = c.weight->k.to_double();
-    if (k > 0) variance += std::pow(c.weight->uncertainty.approx().g / k, 2);
+    if (k > 0) variance += std::pow(c.weight->uncertainty.approx().g() / k, 2);
   }
   if (d) variance += std::pow(*d / (2.0 * std::sqrt(3.0)), 2);
   return QuantityValue{*bias * mg_per_g, coverage_k * std::sqrt(variance) * mg_per_g};
@@ -82,12 +82,12 @@ QuantityTolerance sd_tolerance(const RunContext&, const InstrumentInfo& inst) {
   const auto& b = *inst.balance;
   if (b.policy.kind == TolerancePolicy::Kind::lab) {
     if (!b.policy.max_sd) return {{}, "the lab policy of this balance sets no repeatability limit"};
-    return {{std::nullopt, b.policy.max_sd->approx().g * mg_per_g},
+    return {{std::nullopt, b.policy.max_sd->approx().g() * mg_per_g},
             fmt::format("s <= {}, the lab's limit", b.policy.max_sd->to_string())};
   }
   if (!b.smallest_net) return {{}, "no smallest net weight is declared, so USP <41> sets no limit on s"};
   // USP <41>: 2 s / m <= 0.10 %  <=>  s <= m / 2000 for the smallest net weight m.
-  const double limit = b.smallest_net->approx().g / 2000.0 * mg_per_g;
+  const double limit = b.smallest_net->approx().g() / 2000.0 * mg_per_g;
   return {{std::nullopt, limit},
           fmt::format("s <= {:.6g} mg = smallest net weight {} / 2000 (USP <41>: 2 s / m <= 0.10 %)", limit,
                       b.smallest_net->to_string())};
@@ -95,7 +95,7 @@ QuantityTolerance sd_tolerance(const RunContext&, const InstrumentInfo& inst) {
 
 QuantityTolerance min_weight_tolerance(const RunContext&, const InstrumentInfo& inst) {
   if (!inst.balance || !inst.balance->smallest_net) return {{}, "no smallest net weight is declared"};
-  return {{std::nullopt, inst.balance->smallest_net->approx().g * mg_per_g},
+  return {{std::nullopt, inst.balance->smallest_net->approx().g() * mg_per_g},
           fmt::format("minimum weight <= the declared smallest net weight {} (USP <41>)",
                       inst.balance->smallest_net->to_string())};
 }

@@ -23,12 +23,14 @@ namespace {
 
 using nlohmann::json;
 
-std::string ul(Decimal v) { return v.rescaled(v.significant_scale()).to_string() + " uL"; }
+std::string ul(ExactVolume v) {
+  return v.to_string();
+}
 
 /// One weighing line of the CSV.
 struct WeighingLine {
   int line = 0;
-  Decimal volume_ul;
+  ExactVolume volume;
   int channel = 1;
   MassReading reading;
 };
@@ -80,7 +82,7 @@ std::vector<WeighingLine> parse_weighings_csv(std::string_view text, const std::
     WeighingLine w;
     w.line = line_no;
     const auto field = [&](int col) { return fields[static_cast<std::size_t>(col)]; };
-    w.volume_ul = parse_volume_ul(field(volume_col), fmt::format("{} line {} column volume: value", source, line_no));
+    w.volume = parse_volume(field(volume_col), fmt::format("{} line {} column volume: value", source, line_no));
     if (channel_col >= 0 && !field(channel_col).empty()) {
       const std::string c = field(channel_col);
       const auto [p, ec] = std::from_chars(c.data(), c.data() + c.size(), w.channel);
@@ -139,7 +141,7 @@ BalanceOnDate balance_on(store::Database& db, const std::string& id, Date on) {
   for (auto it = runs.rbegin(); it != runs.rend(); ++it) {
     if (it->performed_on > on) continue;
     if (it->results.contains("sd_g") && it->results["sd_g"].is_number()) {
-      out.repeatability = Mass{it->results["sd_g"].get<double>()};
+      out.repeatability = Mass::grams(it->results["sd_g"].get<double>());
       out.repeatability_run = it->id;
       break;
     }
@@ -192,16 +194,15 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
   const BalanceOnDate bal = balance_on(db, in.balance_id, on);
 
   // Every line checked with its line number before anything is computed.
-  const Decimal lower = def.kind == checks::PipetteKind::variable ? *def.lower_limit_ul : def.nominal_ul;
+  const ExactVolume lower = def.kind == checks::PipetteKind::variable ? *def.lower_limit : def.nominal;
   const int allowed = bal.balance.readability.in_grams().significant_scale();
   for (const WeighingLine& w : lines) {
     const std::string where = fmt::format("{} line {}", in.readings_source, w.line);
-    if (w.volume_ul < lower || w.volume_ul > def.nominal_ul)
-      throw InputError(fmt::format("{} column volume: {} is outside the range of pipette {} ({}).", where,
-                                   ul(w.volume_ul), def.id,
-                                   def.kind == checks::PipetteKind::fixed
-                                       ? fmt::format("fixed at {}", ul(def.nominal_ul))
-                                       : fmt::format("{} to {}", ul(lower), ul(def.nominal_ul))));
+    if (w.volume < lower || w.volume > def.nominal)
+      throw InputError(
+          fmt::format("{} column volume: {} is outside the range of pipette {} ({}).", where, ul(w.volume), def.id,
+                      def.kind == checks::PipetteKind::fixed ? fmt::format("fixed at {}", ul(def.nominal))
+                                                             : fmt::format("{} to {}", ul(lower), ul(def.nominal))));
     if (w.channel > def.channels)
       throw InputError(fmt::format("{} column channel: channel {} does not exist on pipette {}, which has {} "
                                    "channel(s).",
@@ -232,9 +233,9 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
   input.environment = {water.to_double(), pressure.to_double(), humidity.to_double()};
   input.evaporation_per_weighing = evaporation;
   for (const WeighingLine& w : lines) {
-    auto tv = std::find_if(input.volumes.begin(), input.volumes.end(),
-                           [&](const auto& v) { return v.volume_ul == w.volume_ul; });
-    if (tv == input.volumes.end()) tv = input.volumes.insert(input.volumes.end(), {w.volume_ul, {}});
+    auto tv =
+        std::find_if(input.volumes.begin(), input.volumes.end(), [&](const auto& v) { return v.volume == w.volume; });
+    if (tv == input.volumes.end()) tv = input.volumes.insert(input.volumes.end(), {w.volume, {}});
     auto ch = std::find_if(tv->channels.begin(), tv->channels.end(),
                            [&](const auto& c) { return c.channel == w.channel; });
     if (ch == tv->channels.end()) ch = tv->channels.insert(tv->channels.end(), {w.channel, {}});
@@ -243,10 +244,11 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
   for (const auto& tv : input.volumes)
     for (const auto& ch : tv.channels)
       if (ch.weighings.size() < checks::min_replicates)
-        throw InputError(fmt::format("{}: test volume {}, channel {} has {} weighing(s); the gravimetric check needs "
-                                     "at least {} replicates ({} recommended).",
-                                     in.readings_source, ul(tv.volume_ul), ch.channel, ch.weighings.size(),
-                                     checks::min_replicates, checks::recommended_replicates));
+        throw InputError(
+            fmt::format("{}: test volume {}, channel {} has {} weighing(s); the gravimetric check needs "
+                        "at least {} replicates ({} recommended).",
+                        in.readings_source, ul(tv.volume), ch.channel, ch.weighings.size(), checks::min_replicates,
+                        checks::recommended_replicates));
   const checks::PipetteRunResult result = checks::evaluate_pipette_run(input);
 
   store::RunRecord run;
@@ -257,32 +259,30 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
   run.results = report::to_json(result);
   run.results["policy"] = def.limits.key();
   run.results["policy_name"] = def.limits.name();
-  run.results["pipette"] = {
-      {"id", def.id},
-      {"kind", std::string(checks::to_string(def.kind))},
-      {"nominal_ul", def.nominal_ul.to_double()},
-      {"lower_limit_ul", def.lower_limit_ul ? json(def.lower_limit_ul->to_double()) : json()},
-      {"channels", def.channels},
-      {"limits", limits_summary(def.limits)},
-      {"check_every", pipette->every.to_string()}};
-  run.results["balance"] = {
-      {"id", bal.balance.id},
-      {"readability_g", bal.balance.readability.approx().g},
-      {"repeatability_g", bal.repeatability ? json(bal.repeatability->g) : json()},
-      {"repeatability_run", bal.repeatability_run ? json(*bal.repeatability_run) : json()},
-      {"latest_check_run", bal.latest.id},
-      {"latest_check_on", to_string(bal.latest.performed_on)},
-      {"due_on", bal.latest.next_due ? json(to_string(*bal.latest.next_due)) : json()}};
+  run.results["pipette"] = {{"id", def.id},
+                            {"kind", std::string(checks::to_string(def.kind))},
+                            {"nominal_ul", def.nominal.approx().ul()},
+                            {"lower_limit_ul", def.lower_limit ? json(def.lower_limit->approx().ul()) : json()},
+                            {"channels", def.channels},
+                            {"limits", limits_summary(def.limits)},
+                            {"check_every", pipette->every.to_string()}};
+  run.results["balance"] = {{"id", bal.balance.id},
+                            {"readability_g", bal.balance.readability.approx().g()},
+                            {"repeatability_g", bal.repeatability ? json(bal.repeatability->g()) : json()},
+                            {"repeatability_run", bal.repeatability_run ? json(*bal.repeatability_run) : json()},
+                            {"latest_check_run", bal.latest.id},
+                            {"latest_check_on", to_string(bal.latest.performed_on)},
+                            {"due_on", bal.latest.next_due ? json(to_string(*bal.latest.next_due)) : json()}};
   run.results["environment"] = {{"water_temperature_c", water.to_double()},
                                 {"air_pressure_hpa", pressure.to_double()},
                                 {"humidity_pct", humidity.to_double()},
-                                {"evaporation_g", evaporation ? json(evaporation->approx().g) : json()}};
+                                {"evaporation_g", evaporation ? json(evaporation->approx().g()) : json()}};
   run.verdict = result.verdict;
   if (result.verdict == Verdict::pass) run.next_due = add_interval(on, pipette->every);
   int seq = 1;
   // Stored in the order of the file, each with the series of its test volume and channel.
   for (const WeighingLine& w : lines)
-    run.readings.push_back({seq++, store::pipette_series(w.volume_ul, w.channel), w.reading});
+    run.readings.push_back({seq++, store::pipette_series(w.volume, w.channel), w.reading});
 
   store::PipetteRunConditions c;
   c.balance_id = bal.balance.id;

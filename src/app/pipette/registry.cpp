@@ -58,25 +58,11 @@ int parse_channels(const std::string& text) {
 
 }  // namespace
 
-Decimal parse_volume_ul(std::string_view text, std::string_view field) {
-  const auto [number, unit] = split_number(text);
-  if (number.empty())
-    throw InputError(fmt::format("{} \"{}\" is not a volume (expected a number and uL or mL, e.g. 100uL).", field,
-                                 text));
-  const Decimal value = Decimal::parse(number, field);
-  VolumeUnit u = VolumeUnit::ul;
-  if (!unit.empty()) {
-    try {
-      u = parse_volume_unit(unit, field);
-    } catch (const InputError&) {
-      throw InputError(fmt::format("{} \"{}\" does not end in a unit of volume (use uL or mL).", field, text));
-    }
-  }
-  if (value <= Decimal{0, 0}) throw InputError(fmt::format("{} \"{}\" must be greater than zero.", field, text));
-  return trimmed(value.shifted(exponent_to_microlitre(u)));
+ExactVolume parse_volume(std::string_view text, std::string_view field) {
+  const ExactVolume v = ExactVolume::parse(text, field, VolumeUnit::ul);
+  if (v <= ExactVolume()) throw InputError(fmt::format("{} \"{}\" must be greater than zero.", field, text));
+  return v.trimmed();
 }
-
-std::string trimmed_text(Decimal v) { return trimmed(v).to_string(); }
 
 std::string limits_summary(const LimitsPolicy& p) {
   switch (p.kind) {
@@ -94,7 +80,7 @@ store::PipetteRecord add_pipette(store::Database& db, const store::Actor& actor,
   store::PipetteRecord p;
   checks::PipetteDefinition& d = p.definition;
   d.id = in.id;
-  d.nominal_ul = parse_volume_ul(in.nominal, "--nominal");
+  d.nominal = parse_volume(in.nominal, "--nominal");
   if (in.range == "fixed") {
     d.kind = checks::PipetteKind::fixed;
   } else {
@@ -107,12 +93,13 @@ store::PipetteRecord add_pipette(store::Database& db, const store::Actor& actor,
     const auto upper_unit = split_number(upper).second;
     if (split_number(lower).second.empty() && !upper_unit.empty()) lower += std::string(upper_unit);
     d.kind = checks::PipetteKind::variable;
-    d.lower_limit_ul = parse_volume_ul(lower, "--range");
-    const Decimal top = parse_volume_ul(upper, "--range");
-    if (top != d.nominal_ul)
-      throw InputError(fmt::format("--range \"{}\" ends at {} uL, but the nominal volume (--nominal) is {} uL; a "
-                                   "variable pipette's range ends at its nominal volume.",
-                                   in.range, top.to_string(), d.nominal_ul.to_string()));
+    d.lower_limit = parse_volume(lower, "--range");
+    const ExactVolume top = parse_volume(upper, "--range");
+    if (top != d.nominal)
+      throw InputError(
+          fmt::format("--range \"{}\" ends at {} uL, but the nominal volume (--nominal) is {} uL; a "
+                      "variable pipette's range ends at its nominal volume.",
+                      in.range, top.in_microlitres().to_string(), d.nominal.in_microlitres().to_string()));
   }
   d.channels = parse_channels(in.channels);
   if (in.max_systematic.has_value() != in.max_random.has_value())
@@ -128,13 +115,15 @@ store::PipetteRecord add_pipette(store::Database& db, const store::Actor& actor,
     d.limits.kind = sys_kind;
     d.limits.systematic = sys;
     d.limits.random = ran;
-  } else if (!pipette_limits::iso8655_2_row(d.nominal_ul)) {
+  } else if (!pipette_limits::iso8655_2_row(d.nominal)) {
     std::string rows;
-    for (const auto& r : pipette_limits::iso8655_2_table()) rows += (rows.empty() ? "" : ", ") + r.nominal_ul.to_string();
-    throw InputError(fmt::format("--nominal {} uL is not a row of the ISO 8655-2:2002 table ({} uL); give the lab's "
-                                 "own limits with --max-systematic and --max-random (e.g. from the manufacturer's "
-                                 "specification).",
-                                 d.nominal_ul.to_string(), rows));
+    for (const auto& r : pipette_limits::iso8655_2_table())
+      rows += (rows.empty() ? "" : ", ") + r.nominal.in_microlitres().to_string();
+    throw InputError(
+        fmt::format("--nominal {} uL is not a row of the ISO 8655-2:2002 table ({} uL); give the lab's "
+                    "own limits with --max-systematic and --max-random (e.g. from the manufacturer's "
+                    "specification).",
+                    d.nominal.in_microlitres().to_string(), rows));
   }
   checks::validate(d);
   p.every = Interval::parse(in.every, "--every");

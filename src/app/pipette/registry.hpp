@@ -6,6 +6,7 @@
 #include <string_view>
 
 #include "core/decimal.hpp"
+#include "core/units.hpp"
 #include "store/database.hpp"
 #include "store/pipettes.hpp"
 #include "store/recorder.hpp"
@@ -26,12 +27,9 @@ struct PipetteInput {
 
 store::PipetteRecord add_pipette(store::Database& db, const store::Actor& actor, const PipetteInput& in);
 
-/// A volume as typed: "100uL", "100 uL", "0.1mL", "100" (bare numbers are microlitres). Exact, in uL, with
+/// A volume as typed: "100uL", "100 uL", "0.1mL", "100" (bare numbers are microlitres). Exact, with
 /// trailing zeros dropped. Throws InputError naming `field` when it is not a positive volume.
-Decimal parse_volume_ul(std::string_view text, std::string_view field);
-
-/// Exact decimal text with trailing zeros dropped ("100", "0.5").
-std::string trimmed_text(Decimal v);
+ExactVolume parse_volume(std::string_view text, std::string_view field);
 
 /// One line describing a pipette's limits, e.g. "ISO 8655-2:2002" or "lab: systematic 1 %, random 0.5 % (CV)".
 std::string limits_summary(const pipette_limits::LimitsPolicy& p);

@@ -64,7 +64,7 @@ store::RunRecord build_check_run(CheckLookups& lookups, const CheckInput& in) {
       throw InputError(fmt::format("{} line {}: reading \"{}\" {} exceeds the capacity {} of {}.", in.readings_source,
                                    r.line, r.reading.text, to_string(r.reading.unit), balance->capacity.to_string(),
                                    balance->id));
-    input.readings_g.push_back(m.in_grams());
+    input.readings.push_back(m);
   }
   if (readings.size() < checks::min_readings)
     throw InputError(fmt::format("{}: {} reading(s); a repeatability check needs at least {}.", in.readings_source,

@@ -13,10 +13,15 @@ using nlohmann::json;
 
 json finite_or_null(double v) { return std::isfinite(v) ? json(v) : json(); }
 
-json decimals(const std::vector<Decimal>& v) {
+/// Exact readings as decimal text in grams, with the decimals displayed.
+json grams_text(const std::vector<ExactMass>& v) {
   json out = json::array();
-  for (const auto& d : v) out.push_back(d.to_string());
+  for (const auto& m : v) out.push_back(m.in_grams().to_string());
   return out;
+}
+
+json grams(const std::optional<Mass>& m) {
+  return m ? json(m->g()) : json();
 }
 
 json load_json(const checks::LoadCalibration& lc) {
@@ -27,35 +32,35 @@ json load_json(const checks::LoadCalibration& lc) {
           {"weight_ids", L.weight_ids},
           {"nominal_g", L.nominal.in_grams().to_string()},
           {"conventional_g", L.conventional.in_grams().to_string()},
-          {"buoyancy_correction_g", L.buoyancy_correction_g},
-          {"u_buoyancy_g", L.u_buoyancy_g},
-          {"reference_g", L.reference_g},
-          {"up_g", decimals(L.up_g)},
-          {"down_g", decimals(L.down_g)},
-          {"indication_g", L.indication_g},
-          {"error_g", L.error_g},
-          {"error_exact_g", L.error_exact_g ? json(L.error_exact_g->to_string()) : json()},
-          {"indication_down_g", L.indication_down_g ? json(*L.indication_down_g) : json()},
-          {"hysteresis_g", L.hysteresis_g ? json(*L.hysteresis_g) : json()},
-          {"residual_g", L.residual_g},
-          {"u_weights_g", L.u_weights_g},
-          {"u_drift_g", L.u_drift_g},
+          {"buoyancy_correction_g", L.buoyancy_correction.g()},
+          {"u_buoyancy_g", L.u_buoyancy.g()},
+          {"reference_g", L.reference.g()},
+          {"up_g", grams_text(L.up)},
+          {"down_g", grams_text(L.down)},
+          {"indication_g", L.indication.g()},
+          {"error_g", L.error.g()},
+          {"error_exact_g", L.error_exact ? json(L.error_exact->in_grams().to_string()) : json()},
+          {"indication_down_g", grams(L.indication_down)},
+          {"hysteresis_g", grams(L.hysteresis)},
+          {"residual_g", L.residual.g()},
+          {"u_weights_g", L.u_weights.g()},
+          {"u_drift_g", L.u_drift.g()},
           {"class_only", L.class_only},
           {"budget", to_json(lc.budget)},
           {"u_c_g", lc.budget.combined},
           {"nu_eff", finite_or_null(lc.budget.nu_eff)},
           {"k", lc.budget.k},
           {"U_g", lc.budget.expanded},
-          {"tolerance_g", lc.tolerance_g},
+          {"tolerance_g", lc.tolerance.g()},
           {"tolerance_basis", lc.tolerance_basis},
           {"state", std::string(checks::to_string(d.state))},
           {"state_key", std::string(checks::key(d.state))},
-          {"guard_band_g", d.guard_band},
-          {"acceptance_lower_g", d.acceptance_lower ? json(*d.acceptance_lower) : json()},
-          {"acceptance_upper_g", d.acceptance_upper ? json(*d.acceptance_upper) : json()},
+          {"guard_band_g", d.guard_band.g()},
+          {"acceptance_lower_g", grams(d.acceptance_lower)},
+          {"acceptance_upper_g", grams(d.acceptance_upper)},
           {"acceptance_zone_empty", d.acceptance_zone_empty},
           {"explanation", d.explanation},
-          {"weight_uncertainty_g", lc.weight_uncertainty_g},
+          {"weight_uncertainty_g", lc.weight_uncertainty.g()},
           {"weight_suitable", lc.weight_suitable},
           {"repeatability_series", lc.repeatability_series}};
 }
@@ -63,18 +68,19 @@ json load_json(const checks::LoadCalibration& lc) {
 json set_json(const checks::CalibrationSetResult& s) {
   json reps = json::array();
   for (const auto& r : s.repeatability)
-    reps.push_back({{"load_g", r.load.in_grams().to_string()}, {"n", r.n}, {"mean_g", r.mean_g}, {"sd_g", r.sd_g}});
+    reps.push_back({{"load_g", r.load.in_grams().to_string()}, {"n", r.n}, {"mean_g", r.mean.g()}, {"sd_g", r.sd.g()}});
   json ecc;
   if (s.eccentricity) {
     const auto& e = *s.eccentricity;
     json devs = json::array();
     for (const auto& d : e.deviations)
-      devs.push_back({{"position", d.name}, {"reading_g", d.reading_g.to_string()},
-                      {"deviation_g", d.deviation_g.to_string()}});
+      devs.push_back({{"position", d.name},
+                      {"reading_g", d.reading.in_grams().to_string()},
+                      {"deviation_g", d.deviation.in_grams().to_string()}});
     ecc = {{"load_g", e.load.in_grams().to_string()},
-           {"centre_g", e.centre_g.to_string()},
+           {"centre_g", e.centre.in_grams().to_string()},
            {"deviations", devs},
-           {"max_abs_deviation_g", e.max_abs_deviation_g.to_string()},
+           {"max_abs_deviation_g", e.max_abs_deviation.in_grams().to_string()},
            {"max_position", e.max_position},
            {"relative_max", e.relative_max}};
   }
@@ -88,9 +94,9 @@ json set_json(const checks::CalibrationSetResult& s) {
           {"eccentricity", ecc},
           {"loads", loads},
           {"fit", fit},
-          {"max_abs_error_g", lin.max_abs_error_g},
+          {"max_abs_error_g", lin.max_abs_error.g()},
           {"max_error_load", lin.max_error_load},
-          {"max_abs_hysteresis_g", lin.max_abs_hysteresis_g ? json(*lin.max_abs_hysteresis_g) : json()},
+          {"max_abs_hysteresis_g", grams(lin.max_abs_hysteresis)},
           {"overall", std::string(checks::to_string(s.overall))},
           {"overall_key", std::string(checks::key(s.overall))},
           {"weights_suitable", s.weights_suitable},

@@ -10,7 +10,7 @@ namespace plumb::report {
 
 std::string mass_text(const nlohmann::json& grams, int significant) {
   if (!grams.is_number()) return "-";
-  return format_mass(Mass{grams.get<double>()}, significant);
+  return format_mass(Mass::grams(grams.get<double>()), significant);
 }
 
 std::vector<std::string> wrap(const std::string& text, std::size_t width, const std::string& first,

@@ -24,9 +24,9 @@ json weights_json(const std::vector<store::WeightRecord>& weights) {
   for (const auto& w : weights)
     j.push_back({{"id", w.id},
                  {"nominal", w.nominal_text},
-                 {"nominal_g", w.nominal.approx().g},
+                 {"nominal_g", w.nominal.approx().g()},
                  {"class", w.weight_class},
-                 {"conventional_mass_g", w.conventional_mass().approx().g},
+                 {"conventional_mass_g", w.conventional_mass().approx().g()},
                  {"correction_mg", w.current.correction.approx().mg()},
                  {"uncertainty_mg", w.current.uncertainty.approx().mg()},
                  {"k", w.current.k.to_double()},
@@ -66,9 +66,9 @@ json balances_json(const std::vector<store::BalanceRecord>& balances) {
   for (const auto& b : balances)
     j.push_back({{"id", b.id},
                  {"location", b.location},
-                 {"capacity_g", b.capacity.approx().g},
-                 {"readability_g", b.readability.approx().g},
-                 {"smallest_net_g", b.smallest_net ? json(b.smallest_net->approx().g) : json()},
+                 {"capacity_g", b.capacity.approx().g()},
+                 {"readability_g", b.readability.approx().g()},
+                 {"smallest_net_g", b.smallest_net ? json(b.smallest_net->approx().g()) : json()},
                  {"every", b.every.to_string()},
                  {"policy", b.policy.key()}});
   return j;

@@ -14,8 +14,8 @@ nlohmann::json criteria_json(const std::vector<Criterion>& criteria) {
     json j = json::object();
     j["name"] = c.name;
     j["quantity"] = c.quantity;
-    j["measured_g"] = c.measured.g;
-    j["limit_g"] = c.limit.g;
+    j["measured_g"] = c.measured.g();
+    j["limit_g"] = c.limit.g();
     j["basis"] = c.basis;
     j["pass"] = c.pass;
     out.push_back(std::move(j));
