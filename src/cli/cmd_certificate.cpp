@@ -13,7 +13,7 @@ namespace {
 
 // --format pdf needs --output FILE.pdf; checked before anything is issued, so bad input writes nothing.
 std::optional<std::string> pdf_output(const po::variables_map& vm, const std::string& format) {
-  const auto output = optional_string(vm, "output");
+  auto output = optional_string(vm, "output");
   if (format == "pdf" && !output) throw InputError("--format pdf needs --output FILE.pdf.");
   if (format != "pdf" && output) throw InputError(fmt::format("--output is for --format pdf, not {}.", format));
   if (output) app::require_pdf_path(*output);

@@ -56,7 +56,7 @@ void add_by_option(po::options_description& d, const std::string& what) {
 }
 
 std::string format_of(const po::variables_map& vm, const std::vector<std::string>& allowed) {
-  const std::string f = vm["format"].as<std::string>();
+  std::string f = vm["format"].as<std::string>();
   if (std::find(allowed.begin(), allowed.end(), f) == allowed.end())
     throw InputError(fmt::format("--format \"{}\" is not one of: {}.", f, fmt::join(allowed, ", ")));
   return f;

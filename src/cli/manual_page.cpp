@@ -52,7 +52,7 @@ std::vector<std::string> shell_words(std::string_view line) {
 std::vector<std::string> option_groups(const std::vector<std::string>& words) {
   std::vector<std::string> groups;
   for (std::size_t i = 0; i < words.size(); ++i) {
-    if (words[i].rfind("--", 0) == 0 && i + 1 < words.size() && words[i + 1].rfind("-", 0) != 0) {
+    if (words[i].rfind("--", 0) == 0 && i + 1 < words.size() && words[i + 1].rfind('-', 0) != 0) {
       groups.push_back(words[i] + " " + words[i + 1]);
       ++i;
     } else {

@@ -162,6 +162,9 @@ struct MassReading {
   MassUnit unit = MassUnit::g;
   Decimal value;     ///< parsed from text, same scale as displayed
   [[nodiscard]] ExactMass mass() const { return ExactMass::from(value, unit); }
+  /// Decimals the reading shows once expressed in grams: "100.0003" g -> 4; "100000.3" mg -> 4. A reading
+  /// may not show more than the readability of its balance allows.
+  [[nodiscard]] int decimals_in_grams() const { return value.scale() - exponent_to_gram(unit); }
 };
 
 /// Formats a mass in grams with a sensible unit and significant digits for people to read.

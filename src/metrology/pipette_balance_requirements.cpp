@@ -35,6 +35,7 @@ bool exceeds(Mass value, Decimal limit_mg) { return value.mg() > limit_mg.to_dou
 const std::vector<Requirement>& iso8655_6_table() {
   static const std::vector<Requirement> table = [] {
     std::vector<Requirement> rows;
+    rows.reserve(std::size(table_text));
     for (const auto& t : table_text)
       rows.push_back({ExactVolume::microlitres(Decimal::parse(t[0])), ExactVolume::microlitres(Decimal::parse(t[1])),
                       Decimal::parse(t[2]), Decimal::parse(t[3]), Decimal::parse(t[4])});

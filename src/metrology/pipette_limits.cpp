@@ -42,6 +42,7 @@ std::string listed_nominals() {
 const std::vector<Iso8655Row>& iso8655_2_table() {
   static const std::vector<Iso8655Row> table = [] {
     std::vector<Iso8655Row> rows;
+    rows.reserve(std::size(table_text));
     for (const auto& t : table_text)
       rows.push_back({ExactVolume::microlitres(Decimal::parse(t[0])), Decimal::parse(t[1]),
                       ExactVolume::microlitres(Decimal::parse(t[2])), Decimal::parse(t[3]),

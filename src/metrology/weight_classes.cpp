@@ -87,6 +87,7 @@ bool cross_checked(WeightClass c) { return index_of(c) <= index_of(WeightClass::
 
 std::vector<ExactMass> table_nominals() {
   std::vector<ExactMass> out;
+  out.reserve(std::size(kTable));
   for (const auto& row : kTable) out.push_back(ExactMass::parse(row.nominal, "nominal"));
   return out;
 }

@@ -2,6 +2,7 @@
 
 #include <SQLiteCpp/Statement.h>
 
+#include "store/columns.hpp"
 #include "store/repository.hpp"
 
 namespace plumb::store {
@@ -14,8 +15,6 @@ std::optional<std::string> optional_text(const SQLite::Column& c) {
   if (c.isNull()) return std::nullopt;
   return c.getString();
 }
-ExactMass grams(const SQLite::Column& c) { return ExactMass::grams(Decimal::parse(c.getString(), c.getName())); }
-
 }  // namespace
 
 namespace {
@@ -29,9 +28,9 @@ CalibrationSettings settings_from(SQLite::Statement& q) {
   s.id = q.getColumn(0).getInt64();
   s.instrument_id = q.getColumn(1).getString();
   s.accuracy_class = optional_text(q.getColumn(2));
-  if (!q.getColumn(3).isNull()) s.verification_interval = grams(q.getColumn(3));
+  if (!q.getColumn(3).isNull()) s.verification_interval = stored_grams(q.getColumn(3));
   s.tolerance = q.getColumn(4).getString();
-  if (!q.getColumn(5).isNull()) s.lab_limit = grams(q.getColumn(5));
+  if (!q.getColumn(5).isNull()) s.lab_limit = stored_grams(q.getColumn(5));
   if (!q.getColumn(6).isNull()) s.lab_percent = Decimal::parse(q.getColumn(6).getString());
   s.decision_rule = q.getColumn(7).getString();
   s.calibrate_every = Interval::parse(q.getColumn(8).getString());
@@ -157,8 +156,8 @@ std::optional<CalibrationRunDetails> find_calibration_details(SQLite::Database& 
     load.part = l.getColumn(1).getString();
     load.load_no = l.getColumn(2).getInt();
     load.combination = l.getColumn(3).getString();
-    load.nominal = grams(l.getColumn(4));
-    load.conventional = grams(l.getColumn(5));
+    load.nominal = stored_grams(l.getColumn(4));
+    load.conventional = stored_grams(l.getColumn(5));
     SQLite::Statement w(db,
                         "SELECT weight_id, weight_calibration_id FROM calibration_load_weights WHERE run_id = ? AND "
                         "stage = ? AND part = ? AND load_no = ? ORDER BY item");

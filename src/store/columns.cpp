@@ -13,4 +13,13 @@ checks::Procedure stored_procedure(const SQLite::Column& c) {
                                  c.getName(), key));
 }
 
+ExactMass stored_grams(const SQLite::Column& c) { return ExactMass::grams(Decimal::parse(c.getString(), c.getName())); }
+
+std::optional<ExactMass> stored_grams_or_none(const SQLite::Column& c) {
+  if (c.isNull()) return std::nullopt;
+  return stored_grams(c);
+}
+
+Date stored_date(const SQLite::Column& c) { return parse_date(c.getString(), c.getName()); }
+
 }  // namespace plumb::store

@@ -3,10 +3,19 @@
 // a StorageError naming the column: the database was changed behind plumb's back or by a newer version.
 #include <SQLiteCpp/Column.h>
 
+#include <optional>
+
 #include "checks/procedure.hpp"
+#include "core/dates.hpp"
+#include "core/units.hpp"
 
 namespace plumb::store {
 
 checks::Procedure stored_procedure(const SQLite::Column& c);
+/// An exact mass stored as decimal text in grams.
+ExactMass stored_grams(const SQLite::Column& c);
+std::optional<ExactMass> stored_grams_or_none(const SQLite::Column& c);
+/// A date stored as ISO 8601 text.
+Date stored_date(const SQLite::Column& c);
 
 }  // namespace plumb::store

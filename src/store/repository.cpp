@@ -15,15 +15,6 @@ Value text_or_null(const std::optional<ExactMass>& m) {
   return m ? Value(m->in_grams().to_string()) : Value();
 }
 
-ExactMass grams(const SQLite::Column& c) { return ExactMass::grams(Decimal::parse(c.getString(), c.getName())); }
-
-std::optional<ExactMass> grams_or_none(const SQLite::Column& c) {
-  if (c.isNull()) return std::nullopt;
-  return grams(c);
-}
-
-Date date_of(const SQLite::Column& c) { return parse_date(c.getString(), c.getName()); }
-
 constexpr const char* weight_select =
     "SELECT w.id, w.nominal_text, w.nominal_g, w.weight_class, w.density_kg_m3, c.id, c.certificate_no, "
     "c.correction_g, c.uncertainty_g, c.coverage_k, c.calibrated_on, c.due_on FROM weights w "
@@ -34,16 +25,16 @@ WeightRecord weight_from(SQLite::Statement& q) {
   WeightRecord w;
   w.id = q.getColumn(0).getString();
   w.nominal_text = q.getColumn(1).getString();
-  w.nominal = grams(q.getColumn(2));
+  w.nominal = stored_grams(q.getColumn(2));
   w.weight_class = q.getColumn(3).getString();
   if (!q.getColumn(4).isNull()) w.density_kg_m3 = Decimal::parse(q.getColumn(4).getString());
   w.current.id = q.getColumn(5).getInt64();
   w.current.certificate_no = q.getColumn(6).getString();
-  w.current.correction = grams(q.getColumn(7));
-  w.current.uncertainty = grams(q.getColumn(8));
+  w.current.correction = stored_grams(q.getColumn(7));
+  w.current.uncertainty = stored_grams(q.getColumn(8));
   w.current.k = Decimal::parse(q.getColumn(9).getString());
-  w.current.calibrated_on = date_of(q.getColumn(10));
-  w.current.due_on = date_of(q.getColumn(11));
+  w.current.calibrated_on = stored_date(q.getColumn(10));
+  w.current.due_on = stored_date(q.getColumn(11));
   return w;
 }
 
@@ -56,13 +47,13 @@ BalanceRecord balance_from(SQLite::Statement& q) {
   b.id = q.getColumn(0).getString();
   b.location = q.getColumn(1).getString();
   b.every = Interval::parse(q.getColumn(2).getString());
-  b.created_on = date_of(q.getColumn(3));
-  b.capacity = grams(q.getColumn(4));
-  b.readability = grams(q.getColumn(5));
-  b.smallest_net = grams_or_none(q.getColumn(6));
+  b.created_on = stored_date(q.getColumn(3));
+  b.capacity = stored_grams(q.getColumn(4));
+  b.readability = stored_grams(q.getColumn(5));
+  b.smallest_net = stored_grams_or_none(q.getColumn(6));
   b.policy.kind = q.getColumn(7).getString() == "lab" ? TolerancePolicy::Kind::lab : TolerancePolicy::Kind::usp41;
-  b.policy.max_bias = grams_or_none(q.getColumn(8));
-  b.policy.max_sd = grams_or_none(q.getColumn(9));
+  b.policy.max_bias = stored_grams_or_none(q.getColumn(8));
+  b.policy.max_sd = stored_grams_or_none(q.getColumn(9));
   return b;
 }
 
@@ -76,11 +67,11 @@ RunRecord run_from(SQLite::Statement& q) {
   r.id = q.getColumn(0).getInt64();
   r.instrument_id = q.getColumn(1).getString();
   r.procedure = stored_procedure(q.getColumn(2));
-  r.performed_on = date_of(q.getColumn(3));
+  r.performed_on = stored_date(q.getColumn(3));
   r.operator_name = q.getColumn(4).getString();
   r.results = json::parse(q.getColumn(5).getString());
   r.verdict = q.getColumn(6).getString() == "pass" ? Verdict::pass : Verdict::fail;
-  if (!q.getColumn(7).isNull()) r.next_due = date_of(q.getColumn(7));
+  if (!q.getColumn(7).isNull()) r.next_due = stored_date(q.getColumn(7));
   if (!q.getColumn(8).isNull()) r.supersedes = q.getColumn(8).getInt64();
   if (!q.getColumn(9).isNull()) r.reason = q.getColumn(9).getString();
   r.recorded_at = q.getColumn(10).getString();
@@ -135,11 +126,11 @@ std::optional<WeightCalibration> find_weight_calibration(SQLite::Database& db, s
   WeightCalibration c;
   c.id = q.getColumn(0).getInt64();
   c.certificate_no = q.getColumn(1).getString();
-  c.correction = grams(q.getColumn(2));
-  c.uncertainty = grams(q.getColumn(3));
+  c.correction = stored_grams(q.getColumn(2));
+  c.uncertainty = stored_grams(q.getColumn(3));
   c.k = Decimal::parse(q.getColumn(4).getString());
-  c.calibrated_on = date_of(q.getColumn(5));
-  c.due_on = date_of(q.getColumn(6));
+  c.calibrated_on = stored_date(q.getColumn(5));
+  c.due_on = stored_date(q.getColumn(6));
   return c;
 }
 

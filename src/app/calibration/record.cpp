@@ -40,9 +40,6 @@ struct UsedWeight {
 
 ExactMass abs_mass(ExactMass m) { return m < ExactMass{} ? ExactMass{} - m : m; }
 
-/// Decimals a reading shows once expressed in grams: "100.0003" g -> 4; "100000.3" mg -> 4.
-int decimals_in_grams(const MassReading& r) { return r.value.scale() - exponent_to_gram(r.unit); }
-
 /// An environment option: a plain decimal inside [lo, hi].
 std::optional<double> environment_value(const std::optional<std::string>& text, const char* option, double lo,
                                         double hi, const char* unit, const char* what) {
@@ -271,7 +268,7 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
   RunBuilder builder(db, in, on, *balance);
   bool as_found_seen = false;
   for (const auto& r : rows) {
-    if (decimals_in_grams(r.reading) > allowed)
+    if (r.reading.decimals_in_grams() > allowed)
       throw InputError(fmt::format("{} line {} column reading: \"{}\" {} shows more decimals than the readability {} "
                                    "of {} allows.",
                                    in.readings_source, r.line, r.reading.text, to_string(r.reading.unit),

@@ -67,7 +67,7 @@ store::CertificateRecord approve_certificate(store::Database& db, const store::A
     throw InputError("--meaning must state what the signature means, e.g. \"reviewed and approved\".");
   if (normalized(actor.name).empty()) throw InputError("--by must name the person approving the certificate.");
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
-  const store::CertificateRecord cert = find_certificate(db, selector);
+  store::CertificateRecord cert = find_certificate(db, selector);
   const store::RunRecord run = *store::find_run(db.sql(), cert.run_id);
   if (same_person(actor.name, run.operator_name))
     throw InputError(fmt::format("--by \"{}\" performed check run {} of certificate {}; a certificate must be "

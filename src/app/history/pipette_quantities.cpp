@@ -20,7 +20,6 @@ namespace {
 
 using nlohmann::json;
 
-constexpr double coverage_k = 2.0;
 
 enum class PipetteMeasure { systematic_ul, systematic_pct, cv_pct };
 

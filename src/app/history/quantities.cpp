@@ -14,7 +14,6 @@ namespace {
 using nlohmann::json;
 
 constexpr double mg_per_g = 1000.0;
-constexpr double coverage_k = 2.0;
 
 std::optional<double> number(const json& results, const char* key) {
   if (!results.contains(key) || !results[key].is_number()) return std::nullopt;

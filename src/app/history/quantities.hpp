@@ -14,6 +14,9 @@
 
 namespace plumb::app {
 
+/// The coverage factor of every U the history quantities report (about 95 %, normal distribution).
+inline constexpr double coverage_k = 2.0;
+
 /// The instrument whose history is read, with what the quantities need to know about it.
 struct InstrumentInfo {
   std::string id;

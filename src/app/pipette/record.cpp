@@ -149,9 +149,6 @@ BalanceOnDate balance_on(store::Database& db, const std::string& id, Date on) {
   return out;
 }
 
-/// Decimals a reading shows once expressed in grams: "0.09971" g -> 5; "99.71" mg -> 5.
-int decimals_in_grams(const MassReading& r) { return r.value.scale() - exponent_to_gram(r.unit); }
-
 }  // namespace
 
 store::RunRecord record_pipette_check(store::Database& db, const store::Actor& actor, const PipetteCheckInput& in) {
@@ -207,7 +204,7 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
       throw InputError(fmt::format("{} column channel: channel {} does not exist on pipette {}, which has {} "
                                    "channel(s).",
                                    where, w.channel, def.id, def.channels));
-    if (decimals_in_grams(w.reading) > allowed)
+    if (w.reading.decimals_in_grams() > allowed)
       throw InputError(fmt::format("{}: weighing \"{}\" {} shows more decimals than the readability {} of balance {} "
                                    "allows.",
                                    where, w.reading.text, to_string(w.reading.unit), bal.balance.readability.to_string(),

@@ -10,13 +10,6 @@
 #include "store/repository.hpp"
 
 namespace plumb::app {
-namespace {
-
-/// Decimals a reading shows once expressed in grams: "100.0003" g -> 4; "100000.3" mg -> 4.
-int decimals_in_grams(const MassReading& r) { return r.value.scale() - exponent_to_gram(r.unit); }
-
-}  // namespace
-
 store::RunRecord record_check(store::Database& db, const store::Actor& actor, const CheckInput& in) {
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   store::Recorder rec(db.sql(), actor);
@@ -54,7 +47,7 @@ store::RunRecord build_check_run(CheckLookups& lookups, const CheckInput& in) {
   const int allowed = balance->readability.in_grams().significant_scale();
   checks::RepeatabilityInput input;
   for (const auto& r : readings) {
-    if (decimals_in_grams(r.reading) > allowed)
+    if (r.reading.decimals_in_grams() > allowed)
       throw InputError(fmt::format("{} line {}: reading \"{}\" {} shows more decimals than the readability {} of {} "
                                    "allows.",
                                    in.readings_source, r.line, r.reading.text, to_string(r.reading.unit),

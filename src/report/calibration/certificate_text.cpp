@@ -13,11 +13,6 @@ namespace {
 
 using nlohmann::json;
 
-std::string upper(std::string s) {
-  std::transform(s.begin(), s.end(), s.begin(), [](unsigned char c) { return static_cast<char>(std::toupper(c)); });
-  return s;
-}
-
 }  // namespace
 
 std::string calibration_certificate_text(const json& c, const std::string& content_sha256) {
@@ -35,7 +30,7 @@ std::string calibration_certificate_text(const json& c, const std::string& conte
   for (const auto& l : lab.value("address_lines", json::array())) add(l.get<std::string>());
   if (!field_text(lab, "accreditation", "").empty()) para(field_text(lab, "accreditation"), "", "");
   add(rule('='));
-  add(fmt::format("{:<52}{:>26}", upper(field_text(c, "title")), "No. " + field_text(c, "number")));
+  add(fmt::format("{:<52}{:>26}", upper_case(field_text(c, "title")), "No. " + field_text(c, "number")));
   add(fmt::format("Issued {} by {}", field_text(c, "issued_at"), field_text(c, "issued_by")));
   add(rule());
   add(fmt::format("{:<14}{} (balance), {}", "Instrument", field_text(inst, "id"), field_text(inst, "location")));
@@ -70,7 +65,7 @@ std::string calibration_certificate_text(const json& c, const std::string& conte
   for (const auto& stage : cal["stages"]) {
     add("");
     add(rule());
-    add(fmt::format("{}: {}", upper(field_text(stage, "title")), field_text(stage, "state")));
+    add(fmt::format("{}: {}", upper_case(field_text(stage, "title")), field_text(stage, "state")));
     const json& set = field_text(stage, "stage") == "as-left" ? results["as_left"] : results["as_found"];
     for (const auto& l : calibration_set_lines(set, d, {field_text(stage, "stage") == field_text(cal, "final_stage")}))
       add(l);

@@ -12,10 +12,6 @@ namespace {
 
 using nlohmann::json;
 
-double num(const json& j, const char* key) {
-  return j.contains(key) && j[key].is_number() ? j[key].get<double>() : 0.0;
-}
-
 /// Decimals of d in grams (0.0001 -> 4).
 int d_scale(const std::string& d_g) {
   return d_g.empty() ? 4 : Decimal::parse(d_g).significant_scale();
@@ -64,7 +60,7 @@ std::vector<std::string> calibration_set_lines(const json& set, const std::strin
   add(fmt::format("    {:<14}{:>4}  {:>18}  {:>12}", "load", "n", "mean / g", "s / mg"));
   for (const auto& r : set.value("repeatability", json::array()))
     add(fmt::format("    {:<14}{:>4}  {:>18.{}f}  {:>12}", grams_exact(r, "load_g"), field_text(r, "n"),
-                    num(r, "mean_g"), dg + 2, mg_unsigned(num(r, "sd_g"), emg)));
+                    number_field(r, "mean_g"), dg + 2, mg_unsigned(number_field(r, "sd_g"), emg)));
   const json& ecc = set.contains("eccentricity") ? set["eccentricity"] : json();
   if (ecc.is_null() || ecc.empty()) {
     add("  Eccentricity: not tested in this set.");
@@ -76,19 +72,19 @@ std::vector<std::string> calibration_set_lines(const json& set, const std::strin
       add(fmt::format("    {:<16}{:>16}{:>16}", field_text(d, "position"), field_text(d, "reading_g"),
                       field_text(d, "deviation_g")));
     add(fmt::format("    largest |deviation| {} g at {} (relative {:.3g})", field_text(ecc, "max_abs_deviation_g"),
-                    field_text(ecc, "max_position"), num(ecc, "relative_max")));
+                    field_text(ecc, "max_position"), number_field(ecc, "relative_max")));
   }
   add("  Error of indication E = I - m_ref (E, U and tolerance in mg)");
   add(fmt::format("    {:>2} {:<16}{:>14}{:>14}{:>9}{:>8}{:>6}{:>7}{:>8}  {}", "#", "load", "m_ref / g", "I / g", "E",
                   "U", "k", "nu_eff", "+/-tol", "conformity"));
   for (const auto& l : set.value("loads", json::array())) {
     add(fmt::format("    {:>2} {:<16}{:>14.{}f}{:>14.{}f}{:>9}{:>8}{:>6.2f}{:>7}{:>8}  {}", field_text(l, "index"),
-                    field_text(l, "combination"), num(l, "reference_g"), dg + 2, num(l, "indication_g"), dg + 1,
-                    mg(num(l, "error_g"), emg), mg_unsigned(num(l, "U_g"), emg), num(l, "k"), dof_text(l["nu_eff"]),
-                    mg_unsigned(num(l, "tolerance_g"), emg), field_text(l, "state")));
+                    field_text(l, "combination"), number_field(l, "reference_g"), dg + 2, number_field(l, "indication_g"), dg + 1,
+                    mg(number_field(l, "error_g"), emg), mg_unsigned(number_field(l, "U_g"), emg), number_field(l, "k"), dof_text(l["nu_eff"]),
+                    mg_unsigned(number_field(l, "tolerance_g"), emg), field_text(l, "state")));
     if (l.contains("hysteresis_g") && l["hysteresis_g"].is_number())
-      add(fmt::format("       going down {:.{}f} g, hysteresis {} mg", num(l, "indication_down_g"), dg + 1,
-                      mg(num(l, "hysteresis_g"), emg)));
+      add(fmt::format("       going down {:.{}f} g, hysteresis {} mg", number_field(l, "indication_down_g"), dg + 1,
+                      mg(number_field(l, "hysteresis_g"), emg)));
   }
   if (!set.value("loads", json::array()).empty())
     add(fmt::format("    tolerance basis (load 1): {}", field_text(set["loads"][0], "tolerance_basis")));
@@ -104,14 +100,14 @@ std::vector<std::string> calibration_set_lines(const json& set, const std::strin
                                 : std::vector<std::string>{"intercept b0 / g", "slope b1"};
   for (std::size_t i = 0; i < coef.size() && i < names.size(); ++i)
     add(fmt::format("    {:<22}{:>+20.10g}  +/- {:.3g} (SE)", names[i], coef[i], i < se.size() ? se[i] : 0.0));
-  add(fmt::format("    R^2 = {:.12f} ({}), RMSE = {} mg, residual SD = {} mg, n = {}, dof = {}", num(fit, "r_squared"),
-                  field_text(fit, "r_squared_kind"), mg_unsigned(num(fit, "rmse_g"), emg + 1),
-                  mg_unsigned(num(fit, "residual_sd_g"), emg + 1), field_text(fit, "n"), field_text(fit, "dof")));
+  add(fmt::format("    R^2 = {:.12f} ({}), RMSE = {} mg, residual SD = {} mg, n = {}, dof = {}", number_field(fit, "r_squared"),
+                  field_text(fit, "r_squared_kind"), mg_unsigned(number_field(fit, "rmse_g"), emg + 1),
+                  mg_unsigned(number_field(fit, "residual_sd_g"), emg + 1), field_text(fit, "n"), field_text(fit, "dof")));
   std::string residuals = "    residuals / mg:";
   for (const auto& r : fit.value("residuals_g", std::vector<double>{})) residuals += " " + mg(r, emg + 1);
   add(residuals);
-  add(fmt::format("    calibrated range {:.6g} g to {:.6g} g: the model is not used outside it.", num(fit, "x_min_g"),
-                  num(fit, "x_max_g")));
+  add(fmt::format("    calibrated range {:.6g} g to {:.6g} g: the model is not used outside it.", number_field(fit, "x_min_g"),
+                  number_field(fit, "x_max_g")));
   if (options.budgets) {
     add("  Uncertainty budget of E at each load (GUM; EURAMET cg-18), contributions in mg");
     for (const auto& l : set.value("loads", json::array())) {
@@ -121,11 +117,11 @@ std::vector<std::string> calibration_set_lines(const json& set, const std::strin
                       "divisor", "c_i", "u_i|c_i| /mg", "dof"));
       for (const auto& r : b["lines"])
         add(fmt::format("      {:<19}{:>12.{}f} {:<12}{:>8.4f}{:>7.1f}{:>13.{}f}{:>7}", field_text(r, "source"),
-                        num(r, "value") * 1e3, emg + 1, field_text(r, "distribution"), num(r, "divisor"),
-                        num(r, "sensitivity"), num(r, "contribution_g") * 1e3, emg + 2, dof_text(r["dof"])));
+                        number_field(r, "value") * 1e3, emg + 1, field_text(r, "distribution"), number_field(r, "divisor"),
+                        number_field(r, "sensitivity"), number_field(r, "contribution_g") * 1e3, emg + 2, dof_text(r["dof"])));
       add(fmt::format("      u_c = {} mg, nu_eff = {}, k = {:.3f}, U = k u_c = {} mg",
-                      mg_unsigned(num(b, "combined_g"), emg + 2), dof_text(b["nu_eff"]), num(b, "k"),
-                      mg_unsigned(num(b, "expanded_g"), emg + 1)));
+                      mg_unsigned(number_field(b, "combined_g"), emg + 2), dof_text(b["nu_eff"]), number_field(b, "k"),
+                      mg_unsigned(number_field(b, "expanded_g"), emg + 1)));
     }
   }
   for (const auto& n : set.value("notes", json::array()))
@@ -166,7 +162,7 @@ std::string calibration_run_text(const json& r) {
     const json& a = r["error_at"];
     line(fmt::format(
         "Fitted error at {} ({} model, {}): E = {} mg (SE {} mg){}", field_text(a, "load"), field_text(a, "model"),
-        field_text(a, "stage"), mg(num(a, "error_g"), 4), mg_unsigned(num(a, "se_g"), 4),
+        field_text(a, "stage"), mg(number_field(a, "error_g"), 4), mg_unsigned(number_field(a, "se_g"), 4),
         a.value("extrapolated", false) ? "  EXTRAPOLATED: outside the calibrated range, not reliable" : ""));
   }
   if (field_text(r, "verdict") == "pass")

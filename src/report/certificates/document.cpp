@@ -7,15 +7,12 @@
 #include "checks/procedure.hpp"
 #include "report/history/charts.hpp"
 
+#include "report/format/text.hpp"
+
 namespace plumb::report {
 namespace {
 
 using nlohmann::json;
-
-std::string upper(std::string s) {
-  std::transform(s.begin(), s.end(), s.begin(), [](unsigned char c) { return static_cast<char>(std::toupper(c)); });
-  return s;
-}
 
 KeyValues instrument_block(const json& inst) {
   KeyValues kv;
@@ -28,7 +25,9 @@ KeyValues instrument_block(const json& inst) {
   for (const auto& [key, label] : fields)
     if (inst.contains(key) && !inst[key].is_null()) kv.rows.emplace_back(label, cell(inst, key));
   // Fields other kinds add (model, serial, volume ...) follow, so nothing stored is left off the page.
-  for (const auto& [k, v] : inst.items()) {
+  for (const auto& item : inst.items()) {
+    const std::string& k = item.key();
+    const auto& v = item.value();
     const bool known = std::any_of(std::begin(fields), std::end(fields), [&](const auto& f) { return k == f.first; });
     if (!known && !v.is_null() && !v.is_structured()) kv.rows.emplace_back(k, cell(inst, k.c_str()));
   }
@@ -89,7 +88,7 @@ Document certificate_document(const json& c, const std::string& content_sha256) 
   const std::string verdict = c.value("verdict", "");
   const bool pass = verdict == "pass";
   doc.blocks.push_back(VerdictBox{
-      "VERDICT: " + upper(verdict.empty() ? "none" : verdict),
+      "VERDICT: " + upper_case(verdict.empty() ? "none" : verdict),
       pass ? fmt::format("Next {} due: {}", c.value("kind", "") == "balance_calibration" ? "calibration" : "check",
                          cell(c, "next_due"))
            : "The instrument is OUT OF SERVICE until a passing check.",

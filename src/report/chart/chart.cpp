@@ -45,7 +45,7 @@ constexpr double flag_radius = 7.5;
 
 void set_colour(cairo_t* cr, Rgb c, double alpha = 1.0) { cairo_set_source_rgba(cr, c.r, c.g, c.b, alpha); }
 
-std::string num(double v) { return fmt::format("{:.6g}", v); }
+std::string svg_number(double v) { return fmt::format("{:.6g}", v); }
 std::string px(double v) { return fmt::format("{:.2f}", v); }
 
 using Text = TextLayout;
@@ -231,8 +231,8 @@ private:
       xt_ = number_ticks(xr.lo - xpad, xr.hi + xpad, target);
     }
     rec_.add("plot", {{"left", px(left_)}, {"right", px(right_)}, {"top", px(top_)}, {"bottom", px(bottom_)},
-                      {"x-min", num(xt_.min)}, {"x-max", num(xt_.max)}, {"y-min", num(yt_.min)},
-                      {"y-max", num(yt_.max)}});
+                      {"x-min", svg_number(xt_.min)}, {"x-max", svg_number(xt_.max)}, {"y-min", svg_number(yt_.min)},
+                      {"y-max", svg_number(yt_.max)}});
   }
 
   [[nodiscard]] double X(double x) const { return left_ + (x - xt_.min) / (xt_.max - xt_.min) * (right_ - left_); }
@@ -305,7 +305,7 @@ private:
         if (!v) continue;
         if (in_view(*v)) {
           hline(*v, tolerance_colour, 1.6, false);
-          rec_.add("tolerance-limit", {{"side", side}, {"value", num(*v)}, {"py", px(Y(*v))}});
+          rec_.add("tolerance-limit", {{"side", side}, {"value", svg_number(*v)}, {"py", px(Y(*v))}});
         } else {
           off_scale(*v > yt_.max, fmt::format("{} limit {}, off scale", side, signed_text(*v, s_.y.unit)), *v);
         }
@@ -316,9 +316,9 @@ private:
       hline(s_.control->centre, control_colour, 1.1, false);
       hline(s_.control->upper, control_colour, 1.1, true);
       hline(s_.control->lower, control_colour, 1.1, true);
-      rec_.add("control-lines", {{"centre", num(s_.control->centre)},
-                                 {"lower", num(s_.control->lower)},
-                                 {"upper", num(s_.control->upper)}});
+      rec_.add("control-lines", {{"centre", svg_number(s_.control->centre)},
+                                 {"lower", svg_number(s_.control->lower)},
+                                 {"upper", svg_number(s_.control->upper)}});
     }
     if (s_.trend) trend();
     std::size_t k = 0;
@@ -360,7 +360,7 @@ private:
     cairo_fill(cr_);
     set_colour(cr_, tolerance_colour);
     t.draw(x + 11, ty);
-    rec_.add("off-scale-limit", {{"edge", top ? "top" : "bottom"}, {"value", num(value)}, {"py", px(edge)}});
+    rec_.add("off-scale-limit", {{"edge", top ? "top" : "bottom"}, {"value", svg_number(value)}, {"py", px(edge)}});
     rec_.add("text", {{"role", "off-scale-label"}}, label);
     x += t.width() + 30;
   }
@@ -401,7 +401,7 @@ private:
     cairo_move_to(cr_, X(t.x0), Y(t.y0));
     cairo_line_to(cr_, X(t.x1), Y(t.y1));
     cairo_stroke(cr_);
-    rec_.add("trend", {{"x0", num(t.x0)}, {"y0", num(t.y0)}, {"x1", num(t.x1)}, {"y1", num(t.y1)}});
+    rec_.add("trend", {{"x0", svg_number(t.x0)}, {"y0", svg_number(t.y0)}, {"x1", svg_number(t.x1)}, {"y1", svg_number(t.y1)}});
     if (!(t.x_extrapolated && t.y_extrapolated)) return;
     const double dash[] = {7, 4};
     cairo_set_dash(cr_, dash, 2, 0);
@@ -409,8 +409,8 @@ private:
     cairo_line_to(cr_, X(*t.x_extrapolated), Y(*t.y_extrapolated));
     cairo_stroke(cr_);
     cairo_set_dash(cr_, nullptr, 0, 0);
-    rec_.add("extrapolated", {{"x0", num(t.x1)}, {"y0", num(t.y1)}, {"x1", num(*t.x_extrapolated)},
-                              {"y1", num(*t.y_extrapolated)}, {"dashed", "true"}});
+    rec_.add("extrapolated", {{"x0", svg_number(t.x1)}, {"y0", svg_number(t.y1)}, {"x1", svg_number(*t.x_extrapolated)},
+                              {"y1", svg_number(*t.y_extrapolated)}, {"dashed", "true"}});
     // The word sits above the middle of the dashed part (below it when there is no room above),
     // kept inside the plot so it is never clipped.
     Text word(cr_, "extrapolated", 9, false, true);
@@ -435,7 +435,7 @@ private:
       cairo_line_to(cr_, x + 3, yy);
     }
     cairo_stroke(cr_);
-    rec_.add("error-bar", {{"x", num(p.x)}, {"y", num(p.y)}, {"u", num(*p.error)}, {"px", px(x)},
+    rec_.add("error-bar", {{"x", svg_number(p.x)}, {"y", svg_number(p.y)}, {"u", svg_number(*p.error)}, {"px", px(x)},
                            {"py-low", px(y0)}, {"py-high", px(y1)}});
   }
 
@@ -458,7 +458,7 @@ private:
       cairo_set_line_width(cr_, 1.8);
       cairo_stroke(cr_);
     }
-    rec_.add("point", {{"series", series}, {"x", num(p.x)}, {"y", num(p.y)}, {"px", px(x)}, {"py", px(y)},
+    rec_.add("point", {{"series", series}, {"x", svg_number(p.x)}, {"y", svg_number(p.y)}, {"px", px(x)}, {"py", px(y)},
                        {"flagged", p.flagged ? "true" : "false"}});
   }
 
@@ -468,7 +468,7 @@ private:
     for (const auto& t : yt_.ticks) {
       Text l(cr_, t.label, 9);
       l.draw(left_ - 6 - l.width(), Y(t.value) - l.height() / 2);
-      rec_.add("text", {{"role", "y-tick"}, {"value", num(t.value)}}, t.label);
+      rec_.add("text", {{"role", "y-tick"}, {"value", svg_number(t.value)}}, t.label);
     }
     double tick_bottom = bottom_;
     for (const auto& t : xt_.ticks) {
@@ -476,7 +476,7 @@ private:
       const double cx = std::clamp(X(t.value) - l.width() / 2, 2.0, s_.width - l.width() - 2);
       l.draw(cx, bottom_ + 6);
       tick_bottom = std::max(tick_bottom, bottom_ + 6 + l.height());
-      rec_.add("text", {{"role", "x-tick"}, {"value", num(t.value)}}, t.label);
+      rec_.add("text", {{"role", "x-tick"}, {"value", svg_number(t.value)}}, t.label);
     }
     Text xl(cr_, s_.x.text(), 10.5);
     xl.draw((left_ + right_) / 2 - xl.width() / 2, tick_bottom + 6);
@@ -617,11 +617,6 @@ private:
   std::vector<std::string> shown_notes_;
 };
 
-cairo_status_t append_to_string(void* closure, const unsigned char* data, unsigned int length) {
-  static_cast<std::string*>(closure)->append(reinterpret_cast<const char*>(data), length);
-  return CAIRO_STATUS_SUCCESS;
-}
-
 void draw_on(cairo_surface_t* surface, const ChartSpec& spec, DrawRecord& rec, double scale) {
   cairo_t* cr = cairo_create(surface);
   cairo_scale(cr, scale, scale);
@@ -682,14 +677,14 @@ std::string render_chart(const ChartSpec& spec, ChartFormat format) {
   DrawRecord rec;
   switch (format) {
     case ChartFormat::svg: {
-      cairo_surface_t* surface = cairo_svg_surface_create_for_stream(append_to_string, &out, spec.width, spec.height);
+      cairo_surface_t* surface = cairo_svg_surface_create_for_stream(append_to_string_closure, &out, spec.width, spec.height);
       draw_on(surface, spec, rec, 1.0);
       cairo_surface_finish(surface);
       cairo_surface_destroy(surface);
       return annotate_svg(std::move(out), spec.title, description(spec), rec);
     }
     case ChartFormat::pdf: {
-      cairo_surface_t* surface = cairo_pdf_surface_create_for_stream(append_to_string, &out, spec.width, spec.height);
+      cairo_surface_t* surface = cairo_pdf_surface_create_for_stream(append_to_string_closure, &out, spec.width, spec.height);
       cairo_pdf_surface_set_metadata(surface, CAIRO_PDF_METADATA_TITLE, spec.title.c_str());
       cairo_pdf_surface_set_metadata(surface, CAIRO_PDF_METADATA_CREATOR, "plumb");
       draw_on(surface, spec, rec, 1.0);
@@ -704,7 +699,7 @@ std::string render_chart(const ChartSpec& spec, ChartFormat format) {
           cairo_image_surface_create(CAIRO_FORMAT_ARGB32, static_cast<int>(std::ceil(spec.width * scale)),
                                      static_cast<int>(std::ceil(spec.height * scale)));
       draw_on(surface, spec, rec, scale);
-      cairo_surface_write_to_png_stream(surface, append_to_string, &out);
+      cairo_surface_write_to_png_stream(surface, append_to_string_closure, &out);
       cairo_surface_destroy(surface);
       return out;
     }

@@ -41,4 +41,9 @@ PangoRectangle TextLayout::extent() const {
   return logical;
 }
 
+cairo_status_t append_to_string_closure(void* closure, const unsigned char* data, unsigned int length) {
+  static_cast<std::string*>(closure)->append(reinterpret_cast<const char*>(data), length);
+  return CAIRO_STATUS_SUCCESS;
+}
+
 }  // namespace plumb::report

@@ -11,6 +11,10 @@ namespace plumb::report {
 
 inline constexpr const char* text_font_family = "DejaVu Sans";
 
+/// A cairo write function (cairo_write_func_t) that appends to the std::string given as its closure: the PDF
+/// and SVG surfaces write into memory, and the caller decides where the bytes go.
+cairo_status_t append_to_string_closure(void* closure, const unsigned char* data, unsigned int length);
+
 class TextLayout {
 public:
   /// `wrap` > 0 wraps at that width in points.

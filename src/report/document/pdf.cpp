@@ -19,20 +19,20 @@ constexpr double margin_x = 48, margin_top = 40, margin_bottom = 36;
 constexpr double text_w = page_w - 2 * margin_x;
 constexpr double footer_h = 30;
 
-struct Rgb {
+struct PageRgb {
   double r, g, b;
 };
-constexpr Rgb ink{0.10, 0.10, 0.10};
-constexpr Rgb muted{0.38, 0.38, 0.38};
-constexpr Rgb rule_grey{0.70, 0.70, 0.70};
-constexpr Rgb header_fill{0.91, 0.93, 0.95};
-constexpr Rgb stripe_fill{0.97, 0.97, 0.97};
-constexpr Rgb pass_colour{0.000, 0.620, 0.451};  // the charts' bluish green
-constexpr Rgb fail_colour{0.835, 0.369, 0.000};  // the charts' vermillion
+constexpr PageRgb page_ink{0.10, 0.10, 0.10};
+constexpr PageRgb page_muted{0.38, 0.38, 0.38};
+constexpr PageRgb page_rule_grey{0.70, 0.70, 0.70};
+constexpr PageRgb page_header_fill{0.91, 0.93, 0.95};
+constexpr PageRgb page_stripe_fill{0.97, 0.97, 0.97};
+constexpr PageRgb page_pass_colour{0.000, 0.620, 0.451};  // the charts' bluish green
+constexpr PageRgb page_fail_colour{0.835, 0.369, 0.000};  // the charts' vermillion
 
-void colour(cairo_t* cr, Rgb c) { cairo_set_source_rgb(cr, c.r, c.g, c.b); }
+void colour(cairo_t* cr, PageRgb c) { cairo_set_source_rgb(cr, c.r, c.g, c.b); }
 
-void hrule(cairo_t* cr, double y, double width = 0.6, Rgb c = rule_grey) {
+void hrule(cairo_t* cr, double y, double width = 0.6, PageRgb c = page_rule_grey) {
   colour(cr, c);
   cairo_set_line_width(cr, width);
   cairo_move_to(cr, margin_x, y);
@@ -79,7 +79,7 @@ private:
     if (y_ + height > bottom() && y_ > top_of_body_ + 1) new_page();
   }
 
-  double text(const std::string& s, double x, double y, double size, Rgb c, bool bold = false, bool italic = false,
+  double text(const std::string& s, double x, double y, double size, PageRgb c, bool bold = false, bool italic = false,
               double wrap = -1) {
     TextLayout t(cr_, s, size, bold, italic, wrap);
     colour(cr_, c);
@@ -110,19 +110,19 @@ private:
     const double right_w = 150;
     const double lab_w = page_w - margin_x - right_w - x - 8;
     double ly = y;
-    ly += text(h.lab_name, x, ly, 13, ink, true, false, lab_w) + 1;
-    for (const auto& l : h.address_lines) ly += text(l, x, ly, 8.5, muted, false, false, lab_w);
-    if (!h.accreditation.empty()) ly += 2 + text(h.accreditation, x, ly, 8, muted, false, true, lab_w);
+    ly += text(h.lab_name, x, ly, 13, page_ink, true, false, lab_w) + 1;
+    for (const auto& l : h.address_lines) ly += text(l, x, ly, 8.5, page_muted, false, false, lab_w);
+    if (!h.accreditation.empty()) ly += 2 + text(h.accreditation, x, ly, 8, page_muted, false, true, lab_w);
     const double rx = page_w - margin_x - right_w;
     double ry = y;
-    ry += text("Certificate No.", rx, ry, 8, muted, false, false, right_w);
-    ry += text(h.number, rx, ry, 12, ink, true, false, right_w);
-    if (!h.status.empty()) ry += text("Status: " + h.status, rx, ry, 9, ink, true, false, right_w);
+    ry += text("Certificate No.", rx, ry, 8, page_muted, false, false, right_w);
+    ry += text(h.number, rx, ry, 12, page_ink, true, false, right_w);
+    if (!h.status.empty()) ry += text("Status: " + h.status, rx, ry, 9, page_ink, true, false, right_w);
     y = std::max({ly, ry, logo_bottom}) + 8;
-    hrule(cr_, y, 1.0, ink);
+    hrule(cr_, y, 1.0, page_ink);
     y += 10;
-    y += text(h.title, margin_x, y, 16, ink, true, false, text_w) + 2;
-    if (!h.issued.empty()) y += text(h.issued, margin_x, y, 8.5, muted, false, false, text_w);
+    y += text(h.title, margin_x, y, 16, page_ink, true, false, text_w) + 2;
+    if (!h.issued.empty()) y += text(h.issued, margin_x, y, 8.5, page_muted, false, false, text_w);
     y_ = y + 8;
     top_of_body_ = y_;
   }
@@ -132,12 +132,12 @@ private:
     double y = margin_top;
     // The number (with the status, which can be long) takes the width it needs; the lab and title wrap beside it.
     TextLayout num(cr_, "No. " + h.number + (h.status.empty() ? "" : " (" + h.status + ")"), 10, true);
-    colour(cr_, ink);
+    colour(cr_, page_ink);
     num.draw(page_w - margin_x - num.width(), y);
     const double left_h =
-        text(h.lab_name + " \u2014 " + h.title, margin_x, y, 8.5, muted, false, false, text_w - num.width() - 16);
+        text(h.lab_name + " \u2014 " + h.title, margin_x, y, 8.5, page_muted, false, false, text_w - num.width() - 16);
     y += std::max({num.height(), left_h, 12.0}) + 4;
-    hrule(cr_, y, 0.8, ink);
+    hrule(cr_, y, 0.8, page_ink);
     y_ = y + 10;
     top_of_body_ = y_;
   }
@@ -147,9 +147,9 @@ private:
     hrule(cr_, y);
     const std::string pages = total_ > 0 ? fmt::format("page {} of {}", page_, total_) : fmt::format("page {}", page_);
     TextLayout right(cr_, fmt::format("Certificate No. {}   {}", doc_.header.number, pages), 8, true);
-    colour(cr_, ink);
+    colour(cr_, page_ink);
     right.draw(page_w - margin_x - right.width(), y + 4);
-    if (!doc_.footer.empty()) text(doc_.footer, margin_x, y + 4, 6.5, muted, false, false, text_w - right.width() - 16);
+    if (!doc_.footer.empty()) text(doc_.footer, margin_x, y + 4, 6.5, page_muted, false, false, text_w - right.width() - 16);
   }
 
   // ---- blocks -------------------------------------------------------------------------------------
@@ -157,7 +157,7 @@ private:
     const double height = measure(h.text, 11, true, text_w);
     need(height + 8 + 40);  // keep a heading with the start of what it heads
     y_ += 8;
-    y_ += text(h.text, margin_x, y_, 11, ink, true, false, text_w) + 2;
+    y_ += text(h.text, margin_x, y_, 11, page_ink, true, false, text_w) + 2;
     hrule(cr_, y_, 0.5);
     y_ += 4;
   }
@@ -167,8 +167,8 @@ private:
     for (const auto& [k, v] : kv.rows) {
       const double h = std::max(measure(k, 8.5, false, key_w), measure(v, 8.5, false, val_w)) + 2;
       need(h);
-      text(k, margin_x, y_, 8.5, muted, false, false, key_w);
-      text(v, margin_x + key_w + 8, y_, 8.5, ink, false, false, val_w);
+      text(k, margin_x, y_, 8.5, page_muted, false, false, key_w);
+      text(v, margin_x + key_w + 8, y_, 8.5, page_ink, false, false, val_w);
       y_ += h;
     }
     y_ += 4;
@@ -191,14 +191,14 @@ private:
       h = std::max(h, measure(cells[i], size, head, w[i] - 2 * pad));
     h += 2 * pad - 1;
     if (head || stripe) {
-      colour(cr_, head ? header_fill : stripe_fill);
+      colour(cr_, head ? page_header_fill : page_stripe_fill);
       cairo_rectangle(cr_, margin_x, y_, text_w, h);
       cairo_fill(cr_);
     }
     double x = margin_x;
     for (std::size_t i = 0; i < cells.size() && i < w.size(); ++i) {
       TextLayout c(cr_, cells[i], size, head, false, w[i] - 2 * pad);
-      colour(cr_, ink);
+      colour(cr_, page_ink);
       const bool right = i < t.right.size() && t.right[i] && !head;
       c.draw(right ? x + w[i] - pad - c.width() : x + pad, y_ + pad - 0.5);
       x += w[i];
@@ -233,7 +233,7 @@ private:
   void block(const Paragraph& p) {
     const double size = p.small ? 7.5 : 9;
     need(measure(p.text, size, false, text_w));
-    y_ += text(p.text, margin_x, y_, size, p.small ? muted : ink, false, p.italic, text_w) + 4;
+    y_ += text(p.text, margin_x, y_, size, p.small ? page_muted : page_ink, false, p.italic, text_w) + 4;
   }
 
   void block(const VerdictBox& v) {
@@ -241,14 +241,14 @@ private:
     const double h = measure(v.verdict, 15, true, inner) + measure(v.detail, 9.5, false, inner) + 16;
     need(h + 8);
     y_ += 4;
-    const Rgb c = v.pass ? pass_colour : fail_colour;
+    const PageRgb c = v.pass ? page_pass_colour : page_fail_colour;
     colour(cr_, c);
     cairo_set_line_width(cr_, 1.6);
     cairo_rectangle(cr_, margin_x, y_, text_w, h);
     cairo_stroke(cr_);
     double y = y_ + 8;
     y += text(v.verdict, margin_x + 10, y, 15, c, true, false, inner);
-    text(v.detail, margin_x + 10, y, 9.5, ink, false, false, inner);
+    text(v.detail, margin_x + 10, y, 9.5, page_ink, false, false, inner);
     y_ += h + 8;
   }
 
@@ -273,18 +273,18 @@ private:
       for (std::size_t j = i; j < std::min(i + per_row, s.people.size()); ++j) {
         const double x = margin_x + static_cast<double>(j - i) * col_w;
         double y = y_;
-        y += text(s.people[j].role, x, y, 9, ink, true, false, col_w - 12);
-        y += text(s.people[j].name.empty() ? " " : s.people[j].name, x, y, 9, ink, false, false, col_w - 12);
+        y += text(s.people[j].role, x, y, 9, page_ink, true, false, col_w - 12);
+        y += text(s.people[j].name.empty() ? " " : s.people[j].name, x, y, 9, page_ink, false, false, col_w - 12);
         y += 26;
-        colour(cr_, ink);
+        colour(cr_, page_ink);
         cairo_set_line_width(cr_, 0.6);
         cairo_move_to(cr_, x, y);
         cairo_line_to(cr_, x + col_w * 0.55, y);
         cairo_move_to(cr_, x + col_w * 0.62, y);
         cairo_line_to(cr_, x + col_w - 12, y);
         cairo_stroke(cr_);
-        text("signature", x, y + 2, 7, muted);
-        text("date", x + col_w * 0.62, y + 2, 7, muted);
+        text("signature", x, y + 2, 7, page_muted);
+        text("date", x + col_w * 0.62, y + 2, 7, page_muted);
         tallest = std::max(tallest, y + 12 - y_);
       }
       y_ += tallest + 6;
@@ -299,13 +299,8 @@ private:
   double y_ = 0, top_of_body_ = 0;
 };
 
-cairo_status_t append_to_string(void* closure, const unsigned char* data, unsigned int length) {
-  static_cast<std::string*>(closure)->append(reinterpret_cast<const char*>(data), length);
-  return CAIRO_STATUS_SUCCESS;
-}
-
 int draw_document(const Document& doc, cairo_surface_t* logo, int total, std::string& out) {
-  Surface surface(cairo_pdf_surface_create_for_stream(append_to_string, &out, page_w, page_h));
+  Surface surface(cairo_pdf_surface_create_for_stream(append_to_string_closure, &out, page_w, page_h));
   cairo_pdf_surface_set_metadata(surface.get(), CAIRO_PDF_METADATA_TITLE,
                                  (doc.header.title + " " + doc.header.number).c_str());
   cairo_pdf_surface_set_metadata(surface.get(), CAIRO_PDF_METADATA_CREATOR, "plumb");

@@ -2,6 +2,9 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
+#include <cctype>
+
 #include <sstream>
 
 #include "core/units.hpp"
@@ -77,6 +80,20 @@ std::string reasons_and_notes_text(const nlohmann::json& result) {
   for (const auto& n : result.value("notes", nlohmann::json::array()))
     for (const auto& l : wrap(n.get<std::string>(), 78, "  Note: ", "    ")) out += l + "\n";
   return out;
+}
+
+std::string upper_case(std::string s) {
+  std::transform(s.begin(), s.end(), s.begin(), [](unsigned char c) { return static_cast<char>(std::toupper(c)); });
+  return s;
+}
+
+double number_field(const nlohmann::json& j, const char* key) {
+  return j.contains(key) && j[key].is_number() ? j[key].get<double>() : 0.0;
+}
+
+void add_line(std::string& out, const std::string& line) {
+  out += line;
+  out += '\n';
 }
 
 }  // namespace plumb::report

@@ -12,6 +12,12 @@ std::string mass_text(const nlohmann::json& grams, int significant = 4);
 std::vector<std::string> wrap(const std::string& text, std::size_t width, const std::string& first = "",
                               const std::string& indent = "");
 std::string rule(char c = '-', std::size_t width = 78);
+/// `s` in capitals (ASCII), for titles and verdicts.
+std::string upper_case(std::string s);
+/// j[key] as a number; 0 when absent or not a number.
+double number_field(const nlohmann::json& j, const char* key);
+/// Appends `line` and a line end.
+void add_line(std::string& out, const std::string& line);
 
 /// j[key] as text: strings as they are, numbers as JSON prints them, `fallback` when absent or null.
 std::string field_text(const nlohmann::json& j, const char* key, const std::string& fallback = "-");

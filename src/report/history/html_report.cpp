@@ -26,7 +26,7 @@ tr.superseded td { color: #777; text-decoration: line-through; }
 details summary { cursor: pointer; color: #0b5c8e; }
 )";
 
-std::string num(std::optional<double> v) { return v ? fmt::format("{:.4g}", *v) : "&ndash;"; }
+std::string html_number(std::optional<double> v) { return v ? fmt::format("{:.4g}", *v) : "&ndash;"; }
 
 std::string status_class(const std::string& status) {
   return status == "in date" || status == "due" ? "status-ok" : "status-bad";
@@ -55,8 +55,8 @@ void history_table(std::string& out, const HistoryView& h) {
                        r.superseded_by ? " class=\"superseded\"" : "", r.run_id, to_string(r.date),
                        html_escape(r.operator_name));
     for (std::size_t i = 0; i < h.columns.size(); ++i)
-      out += fmt::format("<td class=\"num\">{}</td><td class=\"num\">{}</td>", num(r.values[i]),
-                         num(r.uncertainties[i]));
+      out += fmt::format("<td class=\"num\">{}</td><td class=\"num\">{}</td>", html_number(r.values[i]),
+                         html_number(r.uncertainties[i]));
     std::string note;
     if (r.superseded_by) note = fmt::format("superseded by run {}", *r.superseded_by);
     if (r.supersedes) note += fmt::format("{}corrects run {}", note.empty() ? "" : "; ", *r.supersedes);

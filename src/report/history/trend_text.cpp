@@ -13,7 +13,7 @@ namespace {
 
 using nlohmann::json;
 
-std::string num(std::optional<double> v) { return v ? fmt::format("{:.4g}", *v) : "-"; }
+std::string text_number(std::optional<double> v) { return v ? fmt::format("{:.4g}", *v) : "-"; }
 json num_json(std::optional<double> v) { return v ? json(*v) : json(); }
 std::string date_text(std::optional<Date> d) { return d ? to_string(*d) : "-"; }
 json date_json(std::optional<Date> d) { return d ? json(to_string(*d)) : json(); }
@@ -64,11 +64,6 @@ std::string run_note(const HistoryRow& r) {
   return note;
 }
 
-std::string upper(std::string s) {
-  std::transform(s.begin(), s.end(), s.begin(), [](unsigned char c) { return static_cast<char>(std::toupper(c)); });
-  return s;
-}
-
 }  // namespace
 
 std::string value_key(const std::string& key, const std::string& unit, const std::string& infix) {
@@ -93,7 +88,7 @@ std::string history_text(const HistoryView& v) {
     std::string l = fmt::format("{:>5}  {:<10}  {:<13}  {:<18}", r.run_id, to_string(r.date), checks::to_string(r.procedure),
                                 r.operator_name.substr(0, 18));
     for (std::size_t i = 0; i < v.columns.size(); ++i)
-      l += fmt::format("  {:>16}  {:>8}", num(r.values[i]), num(r.uncertainties[i]));
+      l += fmt::format("  {:>16}  {:>8}", text_number(r.values[i]), text_number(r.uncertainties[i]));
     l += fmt::format("  {:<7}  {:<10}  {}", r.superseded_by ? r.verdict + "*" : r.verdict, date_text(r.next_due),
                      run_note(r));
     line(out, l);
@@ -164,9 +159,9 @@ std::string control_chart_text(const ControlChartView& v) {
   const auto& u = s.quantity.unit;
   line(out, fmt::format("Individuals control chart of {} for {}: {}", s.quantity.label, s.instrument_title,
                         period_text(s.points)));
-  line(out, fmt::format("  centre line      {} {}", num(l.centre), u));
-  line(out, fmt::format("  control limits   {} to {} {} (centre +/- 3 sigma, sigma = {} {})", num(l.lcl()),
-                        num(l.ucl()), u, num(l.sigma), u));
+  line(out, fmt::format("  centre line      {} {}", text_number(l.centre), u));
+  line(out, fmt::format("  control limits   {} to {} {} (centre +/- 3 sigma, sigma = {} {})", text_number(l.lcl()),
+                        text_number(l.ucl()), u, text_number(l.sigma), u));
   line(out, fmt::format("  baseline         checks {} to {} ({} to {})", l.baseline_first + 1,
                         l.baseline_first + l.baseline_count, to_string(s.points[l.baseline_first].date),
                         to_string(s.points[l.baseline_first + l.baseline_count - 1].date)));
@@ -234,11 +229,11 @@ std::string drift_text(const DriftView& v) {
   line(out, fmt::format("  equation         {}   (d = days since {}, {} in {})", d.equation(), to_string(d.origin),
                         s.quantity.key, u));
   line(out, fmt::format("  R^2              {:.4f}", d.fit->r_squared));
-  line(out, fmt::format("  RMSE             {} {}", num(d.fit->rmse), u));
-  line(out, fmt::format("  slope            {} {} per year (p = {:.3g}; {})", num(d.slope_per_day * 365.25), u,
+  line(out, fmt::format("  RMSE             {} {}", text_number(d.fit->rmse), u));
+  line(out, fmt::format("  slope            {} {} per year (p = {:.3g}; {})", text_number(d.slope_per_day * 365.25), u,
                         d.slope_p_value, d.slope_significant ? "significant" : "not significant"));
   const auto b = d.band(d.span_days);
-  line(out, fmt::format("  95 % prediction  {} to {} {} at the last check ({})", num(b.lower), num(b.upper), u,
+  line(out, fmt::format("  95 % prediction  {} to {} {} at the last check ({})", text_number(b.lower), text_number(b.upper), u,
                         to_string(d.last)));
   line(out, fmt::format("  tolerance        {}", tolerance_text(s.quantity)));
   line(out, fmt::format("  horizon          {} (no projection beyond it)", to_string(d.horizon)));
@@ -246,7 +241,7 @@ std::string drift_text(const DriftView& v) {
   switch (d.status) {
     case stats::DriftStatus::reaches_limit:
       projection = fmt::format("reaches the {} limit on {}: {}", d.reached->upper ? "upper" : "lower",
-                               to_string(d.reached->date), upper(std::string(stats::to_string(d.reached->extent))));
+                               to_string(d.reached->date), upper_case(std::string(stats::to_string(d.reached->extent))));
       break;
     case stats::DriftStatus::not_reached_within_horizon:
       projection = fmt::format("no limit reached up to the horizon {}; plumb refuses to project further",
@@ -326,7 +321,7 @@ json recommendation_json(const stats::IntervalRecommendation& r) {
 std::string interval_review_text(const IntervalReviewView& v) {
   std::string out;
   line(out, fmt::format("Interval review of {} (current interval {})", v.instrument_title, v.current.to_string()));
-  line(out, fmt::format("RECOMMENDATION: {}, next interval {} days", upper(std::string(stats::to_string(v.recommended.action))),
+  line(out, fmt::format("RECOMMENDATION: {}, next interval {} days", upper_case(std::string(stats::to_string(v.recommended.action))),
                         v.recommended.recommended_days));
   para(out, v.combination, "", "  ");
   line(out, "");

@@ -17,8 +17,6 @@ namespace {
 
 using nlohmann::json;
 
-double num(const json& j, const char* key) { return j.contains(key) && j[key].is_number() ? j[key].get<double>() : 0; }
-
 std::string grams(const json& j, const char* key) {
   if (!j.is_object() || !j.contains(key) || j[key].is_null()) return "-";
   if (j[key].is_string()) return ExactMass::grams(Decimal::parse(j[key].get<std::string>())).to_string();
@@ -70,26 +68,26 @@ void conditions_block(const json& run, Document& doc) {
   doc.blocks.push_back(Heading{"Conditions and conversion factor Z"});
   doc.blocks.push_back(KeyValues{
       {{"Conditions", fmt::format("water {:g} degC, air pressure {:g} hPa, relative humidity {:g} %",
-                                  num(env, "water_temperature_c"), num(env, "air_pressure_hpa"),
-                                  num(env, "humidity_pct"))},
+                                  number_field(env, "water_temperature_c"), number_field(env, "air_pressure_hpa"),
+                                  number_field(env, "humidity_pct"))},
        {"Evaporation", env.contains("evaporation_g") && env["evaporation_g"].is_number()
                            ? mass_text(env["evaporation_g"]) + " per weighing, added to each"
                            : "not applied"},
-       {"Z", fmt::format("{:.7f} uL/mg; V = (m + evaporation) x Z", num(z, "z_ul_per_mg"))},
+       {"Z", fmt::format("{:.7f} uL/mg; V = (m + evaporation) x Z", number_field(z, "z_ul_per_mg"))},
        {"Densities", fmt::format("water {:.5f} kg/m3 (Tanaka et al. 2001), air {:.5f} kg/m3 (OIML R 111-1 Annex E), "
                                  "weights {:g} kg/m3",
-                                 num(z, "water_density_kg_m3"), num(z, "air_density_kg_m3"),
-                                 num(z, "weight_density_kg_m3"))}}});
+                                 number_field(z, "water_density_kg_m3"), number_field(z, "air_density_kg_m3"),
+                                 number_field(z, "weight_density_kg_m3"))}}});
 }
 
 std::string limit_text(const json& l, int dp) {
-  if (l.value("compare_in_pct", false)) return fmt::format("\u00b1{:.3f} %", num(l, "systematic_pct"));
-  return fmt::format("\u00b1{:.{}f} uL", num(l, "systematic_ul"), dp);
+  if (l.value("compare_in_pct", false)) return fmt::format("\u00b1{:.3f} %", number_field(l, "systematic_pct"));
+  return fmt::format("\u00b1{:.{}f} uL", number_field(l, "systematic_ul"), dp);
 }
 
 std::string random_limit_text(const json& l, int dp) {
-  if (l.value("compare_in_pct", false)) return fmt::format("CV {:.3f} %", num(l, "random_pct"));
-  return fmt::format("{:.{}f} uL", num(l, "random_ul"), dp);
+  if (l.value("compare_in_pct", false)) return fmt::format("CV {:.3f} %", number_field(l, "random_pct"));
+  return fmt::format("{:.{}f} uL", number_field(l, "random_ul"), dp);
 }
 
 void results_block(const json& run, Document& doc) {
@@ -103,14 +101,14 @@ void results_block(const json& run, Document& doc) {
           {true, true, true, true, true, true, true, true, true, true, false},
           {}};
   for (const auto& tv : run.value("volumes", json::array())) {
-    const int dp = pipette_volume_decimals(num(tv, "selected_ul"));
+    const int dp = pipette_volume_decimals(number_field(tv, "selected_ul"));
     for (const auto& ch : tv.value("channels", json::array())) {
       const json& l = ch.value("limits", json::object());
       t.rows.push_back({tv.value("selected", "") + " uL", cell(ch, "channel"), cell(ch, "n"),
-                        fmt::format("{:.{}f}", num(ch, "mean_ul"), dp),
-                        fmt::format("{:+.{}f}", num(ch, "systematic_error_ul"), dp),
-                        fmt::format("{:+.3f}", num(ch, "systematic_error_pct")),
-                        fmt::format("{:.{}f}", num(ch, "random_error_ul"), dp), fmt::format("{:.3f}", num(ch, "cv_pct")),
+                        fmt::format("{:.{}f}", number_field(ch, "mean_ul"), dp),
+                        fmt::format("{:+.{}f}", number_field(ch, "systematic_error_ul"), dp),
+                        fmt::format("{:+.3f}", number_field(ch, "systematic_error_pct")),
+                        fmt::format("{:.{}f}", number_field(ch, "random_error_ul"), dp), fmt::format("{:.3f}", number_field(ch, "cv_pct")),
                         limit_text(l, dp), random_limit_text(l, dp),
                         ch.value("verdict", "") == "pass" ? "pass" : "FAIL"});
     }
@@ -143,21 +141,21 @@ void chart_block(const json& c, const json& run, Document& doc) {
     s.series[i].name = per_channel ? fmt::format("channel {}", i + 1) : channels > 1 ? "all channels" : "e_s";
   bool any_failed = false;
   for (const auto& tv : volumes) {
-    const double v = num(tv, "selected_ul");
+    const double v = number_field(tv, "selected_ul");
     const double scale = in_pct ? (v > 0 ? 100 / v : 0) : 1;  // uL -> % of the selected volume
     std::size_t i = 0;
     for (const auto& ch : tv.value("channels", json::array())) {
-      const double n = num(ch, "n");
-      const double u = n > 0 ? 2 * num(ch, "random_error_ul") / std::sqrt(n) * scale : 0;
+      const double n = number_field(ch, "n");
+      const double u = n > 0 ? 2 * number_field(ch, "random_error_ul") / std::sqrt(n) * scale : 0;
       const bool failed = ch.value("verdict", "") != "pass";
       any_failed = any_failed || failed;
       s.series[per_channel ? i : 0].points.push_back(
-          {v, num(ch, in_pct ? "systematic_error_pct" : "systematic_error_ul"), u, failed});
+          {v, number_field(ch, in_pct ? "systematic_error_pct" : "systematic_error_ul"), u, failed});
       ++i;
     }
     const json& chs = tv.value("channels", json::array());
     if (!chs.empty()) {
-      const double lim = num(chs[0].value("limits", json::object()), in_pct ? "systematic_pct" : "systematic_ul");
+      const double lim = number_field(chs[0].value("limits", json::object()), in_pct ? "systematic_pct" : "systematic_ul");
       upper.points.emplace_back(v, lim);
       lower.points.emplace_back(v, -lim);
     }
