@@ -27,6 +27,16 @@ struct TolerancePolicy {
   Kind kind = Kind::usp41;
   std::optional<ExactMass> max_bias;  ///< lab policy: |bias| limit
   std::optional<ExactMass> max_sd;    ///< lab policy: repeatability SD limit
+  std::optional<int> min_readings;    ///< lab policy: its own minimum of replicate weighings (default 10)
+
+  /// Replicate weighings a weekly check needs: USP <41> asks for not less than 10; a lab policy may set its own.
+  [[nodiscard]] int required_readings() const { return kind == Kind::usp41 ? 10 : min_readings.value_or(10); }
+  /// Where that number comes from, for messages and certificates.
+  [[nodiscard]] std::string readings_basis() const {
+    return kind == Kind::usp41 ? "USP <41> asks for not less than 10 replicate weighings"
+                               : min_readings ? "the lab's policy for this balance"
+                                              : "the lab's policy for this balance (10 unless it sets its own)";
+  }
 
   [[nodiscard]] std::string name() const { return kind == Kind::usp41 ? "USP <41>" : "lab limits"; }
   [[nodiscard]] std::string key() const { return kind == Kind::usp41 ? "usp41" : "lab"; }

@@ -196,6 +196,7 @@ std::optional<RunRecord> latest_run_by_procedure(SQLite::Database& db, const std
   SQLite::Statement q(db, std::string("SELECT id FROM check_runs WHERE instrument_id = ? AND procedure ") +
                               (include ? "=" : "<>") +
                               " ? AND id NOT IN (SELECT supersedes FROM check_runs WHERE supersedes IS NOT NULL) "
+                              "AND id NOT IN (SELECT run_id FROM run_voids) "
                               "ORDER BY performed_on DESC, id DESC LIMIT 1");
   q.bind(1, instrument_id);
   q.bind(2, std::string(checks::to_string(procedure)));

@@ -20,6 +20,8 @@ std::optional<ExactMass> stored_grams_or_none(const SQLite::Column& c) {
   return stored_grams(c);
 }
 
+Value grams_value(const std::optional<ExactMass>& m) { return m ? Value(m->in_grams().to_string()) : Value(); }
+
 Date stored_date(const SQLite::Column& c) { return parse_date(c.getString(), c.getName()); }
 
 }  // namespace plumb::store

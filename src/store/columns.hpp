@@ -8,6 +8,7 @@
 #include "checks/procedure.hpp"
 #include "core/dates.hpp"
 #include "core/units.hpp"
+#include "store/row.hpp"
 
 namespace plumb::store {
 
@@ -15,6 +16,8 @@ checks::Procedure stored_procedure(const SQLite::Column& c);
 /// An exact mass stored as decimal text in grams.
 ExactMass stored_grams(const SQLite::Column& c);
 std::optional<ExactMass> stored_grams_or_none(const SQLite::Column& c);
+/// An exact mass to store: decimal text in grams, or NULL.
+Value grams_value(const std::optional<ExactMass>& m);
 /// A date stored as ISO 8601 text.
 Date stored_date(const SQLite::Column& c);
 

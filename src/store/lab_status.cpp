@@ -8,7 +8,8 @@ namespace plumb::store {
 namespace {
 
 // For each instrument, the index check_runs_by_instrument (instrument_id, performed_on, id) is walked
-// backwards to its first run that nothing supersedes (index check_runs_superseded): a handful of index
+// backwards to its first run that nothing supersedes and that is not void (index check_runs_superseded,
+// run_voids' key): a handful of index
 // steps per instrument instead of a scan of every run.
 constexpr const char* status_sql = R"(
 SELECT i.id, i.kind, i.location, i.check_every, i.created_on,
@@ -19,6 +20,7 @@ LEFT JOIN check_runs r ON r.id = (
   SELECT l.id FROM check_runs l
   WHERE l.instrument_id = i.id
     AND NOT EXISTS (SELECT 1 FROM check_runs s WHERE s.supersedes = l.id)
+    AND NOT EXISTS (SELECT 1 FROM run_voids v WHERE v.run_id = l.id)
   ORDER BY l.performed_on DESC, l.id DESC LIMIT 1)
 WHERE ?1 = '' OR i.kind = ?1
 ORDER BY i.id)";

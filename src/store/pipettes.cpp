@@ -3,6 +3,7 @@
 #include <SQLiteCpp/Statement.h>
 #include <fmt/format.h>
 
+#include "store/instrument_versions.hpp"
 #include "store/repository.hpp"
 
 namespace plumb::store {
@@ -31,10 +32,17 @@ pipette_limits::LimitsPolicy::Kind policy_kind(const std::string& key) {
   return pipette_limits::LimitsPolicy::Kind::iso8655_2;
 }
 
-constexpr const char* pipette_select =
-    "SELECT i.id, i.location, i.check_every, i.created_on, p.volume_kind, p.nominal_ul, p.lower_limit_ul, "
-    "p.channels, p.limits_policy, p.max_systematic, p.max_random FROM instruments i "
-    "JOIN pipettes p ON p.instrument_id = i.id";
+// A pipette with the attributes in force on the date bound to ?1 (schema/006_lifecycle.sql).
+const std::string& pipette_select() {
+  static const std::string sql =
+      "SELECT i.id, CASE WHEN v.id IS NULL THEN i.location ELSE v.location END, coalesce(v.check_every, "
+      "i.check_every), i.created_on, p.volume_kind, p.nominal_ul, p.lower_limit_ul, p.channels, p.limits_policy, "
+      "p.max_systematic, p.max_random, coalesce(v.maker, n.maker, ''), coalesce(v.model, n.model, ''), "
+      "coalesce(v.serial_no, n.serial_no, ''), coalesce(v.asset_tag, n.asset_tag, '') FROM instruments i "
+      "JOIN pipettes p ON p.instrument_id = i.id LEFT JOIN instrument_identities n ON n.instrument_id = i.id" +
+      version_join("v", "i.id", 1);
+  return sql;
+}
 
 PipetteRecord pipette_from(SQLite::Statement& q) {
   PipetteRecord p;
@@ -50,6 +58,8 @@ PipetteRecord pipette_from(SQLite::Statement& q) {
   d.limits.kind = policy_kind(q.getColumn(8).getString());
   d.limits.systematic = decimal_or_none(q.getColumn(9));
   d.limits.random = decimal_or_none(q.getColumn(10));
+  p.identity = {q.getColumn(11).getString(), q.getColumn(12).getString(), q.getColumn(13).getString(),
+                q.getColumn(14).getString()};
   return p;
 }
 
@@ -82,17 +92,20 @@ void add_pipette(Recorder& rec, const PipetteRecord& p) {
               {"max_systematic", lab ? text_or_null(d.limits.systematic) : Value()},
               {"max_random", lab ? text_or_null(d.limits.random) : Value()}},
              {"instrument_id"});
+  if (!p.identity.empty()) add_instrument_identity(rec, d.id, p.identity);
 }
 
 std::optional<PipetteRecord> find_pipette(SQLite::Database& db, const std::string& id) {
-  SQLite::Statement q(db, std::string(pipette_select) + " WHERE i.id = ?");
-  q.bind(1, id);
+  SQLite::Statement q(db, pipette_select() + " WHERE i.id = ?2");
+  q.bind(1, latest_attributes_date);
+  q.bind(2, id);
   if (!q.executeStep()) return std::nullopt;
   return pipette_from(q);
 }
 
 std::vector<PipetteRecord> list_pipettes(SQLite::Database& db) {
-  SQLite::Statement q(db, std::string(pipette_select) + " ORDER BY i.id");
+  SQLite::Statement q(db, pipette_select() + " ORDER BY i.id");
+  q.bind(1, latest_attributes_date);
   std::vector<PipetteRecord> out;
   while (q.executeStep()) out.push_back(pipette_from(q));
   return out;
@@ -131,7 +144,7 @@ std::optional<RunRecord> latest_run_on_or_before(SQLite::Database& db, const std
   SQLite::Statement q(db,
                       "SELECT id FROM check_runs WHERE instrument_id = ?1 AND performed_on <= ?2 AND id NOT IN "
                       "(SELECT supersedes FROM check_runs WHERE supersedes IS NOT NULL) "
-                      "ORDER BY performed_on DESC, id DESC LIMIT 1");
+                      "AND id NOT IN (SELECT run_id FROM run_voids) ORDER BY performed_on DESC, id DESC LIMIT 1");
   q.bind(1, instrument_id);
   q.bind(2, to_string(on));
   if (!q.executeStep()) return std::nullopt;

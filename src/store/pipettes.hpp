@@ -16,8 +16,10 @@
 
 namespace plumb::store {
 
+/// A pipette with the attributes in force (today, or on the date it was read for).
 struct PipetteRecord {
   checks::PipetteDefinition definition;  ///< id, fixed/variable, nominal, range, channels, limits
+  InstrumentIdentity identity;
   std::string location;
   Interval every;
   Date created_on;  ///< the first check is due on this date

@@ -38,8 +38,19 @@ struct WeightRecord {
   [[nodiscard]] ExactMass conventional_mass() const { return nominal + current.correction; }
 };
 
+/// Who made an instrument and how the lab tells it apart from its siblings.
+struct InstrumentIdentity {
+  std::string maker, model, serial_no, asset_tag;
+  [[nodiscard]] bool empty() const {
+    return maker.empty() && model.empty() && serial_no.empty() && asset_tag.empty();
+  }
+  friend bool operator==(const InstrumentIdentity&, const InstrumentIdentity&) = default;
+};
+
+/// A balance with the attributes in force (today, or on the date it was read for).
 struct BalanceRecord {
   std::string id;
+  InstrumentIdentity identity;
   std::string location;
   Interval every;
   Date created_on;
@@ -60,6 +71,11 @@ struct RunWeight {
   std::int64_t weight_calibration_id = 0;
 };
 
+/// Why and by whom a run entered in error was voided.
+struct RunVoid {
+  std::string reason, by_name, recorded_at;
+};
+
 struct RunRecord {
   std::int64_t id = 0;
   std::string instrument_id;
@@ -75,6 +91,9 @@ struct RunRecord {
   std::optional<std::int64_t> supersedes;
   std::string reason;
   std::optional<std::int64_t> superseded_by;  ///< read only: the run that corrected this one
+  std::optional<RunVoid> voided;              ///< read only: set when the run was voided
+  /// A current run counts in due dates, trends and summaries: neither corrected away nor void.
+  [[nodiscard]] bool current() const { return !superseded_by && !voided; }
   std::string recorded_at;
   std::string os_user;
   std::vector<RunWeight> weights;

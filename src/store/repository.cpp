@@ -5,15 +5,13 @@
 
 #include "core/errors.hpp"
 #include "store/columns.hpp"
+#include "store/instrument_versions.hpp"
 
 namespace plumb::store {
 namespace {
 
 using nlohmann::json;
 
-Value text_or_null(const std::optional<ExactMass>& m) {
-  return m ? Value(m->in_grams().to_string()) : Value();
-}
 
 constexpr const char* weight_select =
     "SELECT w.id, w.nominal_text, w.nominal_g, w.weight_class, w.density_kg_m3, c.id, c.certificate_no, "
@@ -38,9 +36,20 @@ WeightRecord weight_from(SQLite::Statement& q) {
   return w;
 }
 
-constexpr const char* balance_select =
-    "SELECT i.id, i.location, i.check_every, i.created_on, b.capacity_g, b.readability_g, b.smallest_net_g, "
-    "b.policy, b.max_bias_g, b.max_sd_g FROM instruments i JOIN balances b ON b.instrument_id = i.id";
+// A balance with the attributes in force on the date bound to ?1 (schema/006_lifecycle.sql): the latest
+// version dated on or before it, else the registration row.
+const std::string& balance_select() {
+  static const std::string sql =
+      "SELECT i.id, CASE WHEN v.id IS NULL THEN i.location ELSE v.location END, coalesce(v.check_every, "
+      "i.check_every), i.created_on, b.capacity_g, b.readability_g, CASE WHEN v.id IS NULL THEN b.smallest_net_g "
+      "ELSE v.smallest_net_g END, coalesce(v.policy, b.policy), CASE WHEN v.id IS NULL THEN b.max_bias_g ELSE "
+      "v.max_bias_g END, CASE WHEN v.id IS NULL THEN b.max_sd_g ELSE v.max_sd_g END, v.min_readings, "
+      "coalesce(v.maker, n.maker, ''), coalesce(v.model, n.model, ''), coalesce(v.serial_no, n.serial_no, ''), "
+      "coalesce(v.asset_tag, n.asset_tag, '') FROM instruments i JOIN balances b ON b.instrument_id = i.id "
+      "LEFT JOIN instrument_identities n ON n.instrument_id = i.id" +
+      version_join("v", "i.id", 1);
+  return sql;
+}
 
 BalanceRecord balance_from(SQLite::Statement& q) {
   BalanceRecord b;
@@ -54,12 +63,17 @@ BalanceRecord balance_from(SQLite::Statement& q) {
   b.policy.kind = q.getColumn(7).getString() == "lab" ? TolerancePolicy::Kind::lab : TolerancePolicy::Kind::usp41;
   b.policy.max_bias = stored_grams_or_none(q.getColumn(8));
   b.policy.max_sd = stored_grams_or_none(q.getColumn(9));
+  if (!q.getColumn(10).isNull()) b.policy.min_readings = q.getColumn(10).getInt();
+  b.identity = {q.getColumn(11).getString(), q.getColumn(12).getString(), q.getColumn(13).getString(),
+                q.getColumn(14).getString()};
   return b;
 }
 
 constexpr const char* run_select =
     "SELECT id, instrument_id, procedure, performed_on, operator, results_json, verdict, next_due, supersedes, "
-    "reason, recorded_at, os_user, (SELECT min(s.id) FROM check_runs s WHERE s.supersedes = check_runs.id) "
+    "reason, recorded_at, os_user, (SELECT min(s.id) FROM check_runs s WHERE s.supersedes = check_runs.id), "
+    "(SELECT reason FROM run_voids v WHERE v.run_id = check_runs.id), (SELECT by_name FROM run_voids v WHERE "
+    "v.run_id = check_runs.id), (SELECT recorded_at FROM run_voids v WHERE v.run_id = check_runs.id) "
     "FROM check_runs";
 
 RunRecord run_from(SQLite::Statement& q) {
@@ -77,6 +91,8 @@ RunRecord run_from(SQLite::Statement& q) {
   r.recorded_at = q.getColumn(10).getString();
   r.os_user = q.getColumn(11).getString();
   if (!q.getColumn(12).isNull()) r.superseded_by = q.getColumn(12).getInt64();
+  if (!q.getColumn(13).isNull())
+    r.voided = RunVoid{q.getColumn(13).getString(), q.getColumn(14).getString(), q.getColumn(15).getString()};
   return r;
 }
 
@@ -175,14 +191,24 @@ bool instrument_exists(SQLite::Database& db, const std::string& id) {
 }
 
 std::optional<BalanceRecord> find_balance(SQLite::Database& db, const std::string& id) {
-  SQLite::Statement q(db, std::string(balance_select) + " WHERE i.id = ?");
-  q.bind(1, id);
+  SQLite::Statement q(db, balance_select() + " WHERE i.id = ?2");
+  q.bind(1, latest_attributes_date);
+  q.bind(2, id);
+  if (!q.executeStep()) return std::nullopt;
+  return balance_from(q);
+}
+
+std::optional<BalanceRecord> find_balance_on(SQLite::Database& db, const std::string& id, Date on) {
+  SQLite::Statement q(db, balance_select() + " WHERE i.id = ?2");
+  q.bind(1, to_string(on));
+  q.bind(2, id);
   if (!q.executeStep()) return std::nullopt;
   return balance_from(q);
 }
 
 std::vector<BalanceRecord> list_balances(SQLite::Database& db) {
-  SQLite::Statement q(db, std::string(balance_select) + " ORDER BY i.id");
+  SQLite::Statement q(db, balance_select() + " ORDER BY i.id");
+  q.bind(1, latest_attributes_date);
   std::vector<BalanceRecord> out;
   while (q.executeStep()) out.push_back(balance_from(q));
   return out;
@@ -202,11 +228,12 @@ void add_balance(Recorder& rec, const BalanceRecord& b) {
              {{"instrument_id", b.id},
               {"capacity_g", b.capacity.in_grams().to_string()},
               {"readability_g", b.readability.in_grams().to_string()},
-              {"smallest_net_g", text_or_null(b.smallest_net)},
+              {"smallest_net_g", grams_value(b.smallest_net)},
               {"policy", b.policy.key()},
-              {"max_bias_g", text_or_null(b.policy.max_bias)},
-              {"max_sd_g", text_or_null(b.policy.max_sd)}},
+              {"max_bias_g", grams_value(b.policy.max_bias)},
+              {"max_sd_g", grams_value(b.policy.max_sd)}},
              {"instrument_id"});
+  if (!b.identity.empty()) add_instrument_identity(rec, b.id, b.identity);
 }
 
 PreparedGroup prepare_run(Recorder& rec, RunRecord&& run, std::int64_t& id, const RunDetails& details) {
@@ -287,7 +314,8 @@ std::vector<RunRecord> runs_of(SQLite::Database& db, const std::string& instrume
 std::optional<RunRecord> latest_run(SQLite::Database& db, const std::string& instrument_id) {
   SQLite::Statement q(db, std::string(run_select) +
                               " WHERE instrument_id = ? AND id NOT IN (SELECT supersedes FROM check_runs WHERE "
-                              "supersedes IS NOT NULL) ORDER BY performed_on DESC, id DESC LIMIT 1");
+                              "supersedes IS NOT NULL) AND id NOT IN (SELECT run_id FROM run_voids) "
+                              "ORDER BY performed_on DESC, id DESC LIMIT 1");
   q.bind(1, instrument_id);
   if (!q.executeStep()) return std::nullopt;
   return run_from(q);

@@ -27,7 +27,10 @@ void add_weight_calibration(Recorder& rec, const std::string& weight_id, const W
 
 // Instruments
 bool instrument_exists(SQLite::Database& db, const std::string& id);
+/// The balance with its attributes in force now (after every change recorded) ...
 std::optional<BalanceRecord> find_balance(SQLite::Database& db, const std::string& id);
+/// ... or on a date (a check dated `on` is judged by the policy in force then).
+std::optional<BalanceRecord> find_balance_on(SQLite::Database& db, const std::string& id, Date on);
 std::vector<BalanceRecord> list_balances(SQLite::Database& db);
 void add_balance(Recorder& rec, const BalanceRecord& b);
 

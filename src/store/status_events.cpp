@@ -115,4 +115,32 @@ void add_service_event(Recorder& rec, const ServiceEvent& e) {
              {"id"}, e.reason);
 }
 
+void add_run_void(Recorder& rec, std::int64_t run_id, const std::string& reason) {
+  rec.insert("run_voids",
+             {{"run_id", run_id},
+              {"reason", reason},
+              {"by_name", rec.actor().name},
+              {"recorded_at", rec.now()},
+              {"os_user", rec.actor().os_user}},
+             {"run_id"}, reason);
+}
+
+void add_certificate_withdrawal(Recorder& rec, std::int64_t certificate_id, const std::string& reason) {
+  rec.insert("certificate_withdrawals",
+             {{"certificate_id", certificate_id},
+              {"reason", reason},
+              {"by_name", rec.actor().name},
+              {"recorded_at", rec.now()},
+              {"os_user", rec.actor().os_user}},
+             {"certificate_id"}, reason);
+}
+
+std::optional<CertificateWithdrawal> certificate_withdrawal(SQLite::Database& db, std::int64_t certificate_id) {
+  SQLite::Statement q(db, "SELECT reason, by_name, recorded_at FROM certificate_withdrawals WHERE certificate_id = ?");
+  q.bind(1, certificate_id);
+  if (!q.executeStep()) return std::nullopt;
+  return CertificateWithdrawal{certificate_id, q.getColumn(0).getString(), q.getColumn(1).getString(),
+                               q.getColumn(2).getString()};
+}
+
 }  // namespace plumb::store

@@ -50,4 +50,14 @@ std::optional<ServiceEvent> retirement(SQLite::Database& db, const std::string& 
 std::set<std::string> retired_ids(SQLite::Database& db, const std::string& item_kind);
 void add_service_event(Recorder& rec, const ServiceEvent& e);
 
+/// A run voided because it was entered in error (schema/006_lifecycle.sql).
+void add_run_void(Recorder& rec, std::int64_t run_id, const std::string& reason);
+/// A certificate withdrawn, with the reason (its run was voided).
+struct CertificateWithdrawal {
+  std::int64_t certificate_id = 0;
+  std::string reason, by_name, recorded_at;
+};
+void add_certificate_withdrawal(Recorder& rec, std::int64_t certificate_id, const std::string& reason);
+std::optional<CertificateWithdrawal> certificate_withdrawal(SQLite::Database& db, std::int64_t certificate_id);
+
 }  // namespace plumb::store
