@@ -13,7 +13,9 @@ namespace plumb::checks {
 std::string_view to_string(DecisionRule r) {
   return r == DecisionRule::simple_acceptance ? "simple acceptance" : "guard band w = U";
 }
-std::string_view key(DecisionRule r) { return r == DecisionRule::simple_acceptance ? "simple" : "guard-band"; }
+std::string_view key(DecisionRule r) {
+  return r == DecisionRule::simple_acceptance ? "simple" : "guard-band";
+}
 
 DecisionRule parse_decision_rule(std::string_view text, std::string_view field) {
   std::string t;
@@ -38,20 +40,28 @@ std::string rule_statement(DecisionRule r) {
 
 std::string_view to_string(Conformity c) {
   switch (c) {
-    case Conformity::pass: return "pass";
-    case Conformity::pass_not_proven: return "pass, not proven";
-    case Conformity::fail_not_proven: return "fail, not proven";
-    case Conformity::fail: return "fail";
+    case Conformity::pass:
+      return "pass";
+    case Conformity::pass_not_proven:
+      return "pass, not proven";
+    case Conformity::fail_not_proven:
+      return "fail, not proven";
+    case Conformity::fail:
+      return "fail";
   }
   return "?";
 }
 
 std::string_view key(Conformity c) {
   switch (c) {
-    case Conformity::pass: return "pass";
-    case Conformity::pass_not_proven: return "pass-not-proven";
-    case Conformity::fail_not_proven: return "fail-not-proven";
-    case Conformity::fail: return "fail";
+    case Conformity::pass:
+      return "pass";
+    case Conformity::pass_not_proven:
+      return "pass-not-proven";
+    case Conformity::fail_not_proven:
+      return "fail-not-proven";
+    case Conformity::fail:
+      return "fail";
   }
   return "?";
 }
@@ -82,10 +92,10 @@ Decision decide(Mass value, Mass U, const Limits& limits, DecisionRule rule) {
                            : "The result lies outside the tolerance limits (simple acceptance).";
     return d;
   }
-  const bool clearly_inside = (!limits.lower || value - w >= *limits.lower) &&
-                              (!limits.upper || value + w <= *limits.upper);
-  const bool clearly_outside = (limits.lower && value + w < *limits.lower) ||
-                               (limits.upper && value - w > *limits.upper);
+  const bool clearly_inside =
+      (!limits.lower || value - w >= *limits.lower) && (!limits.upper || value + w <= *limits.upper);
+  const bool clearly_outside =
+      (limits.lower && value + w < *limits.lower) || (limits.upper && value - w > *limits.upper);
   if (clearly_inside) {
     d.state = Conformity::pass;
     d.explanation = "The result lies inside the tolerance by at least its expanded uncertainty: a clear pass.";
@@ -94,16 +104,22 @@ Decision decide(Mass value, Mass U, const Limits& limits, DecisionRule rule) {
     d.explanation = "The result lies outside the tolerance by more than its expanded uncertainty: a clear fail.";
   } else if (inside) {
     d.state = Conformity::pass_not_proven;
-    d.explanation = "The result lies inside the tolerance, but closer to a limit than its expanded uncertainty: "
-                    "conformity is not proven (neither a clear pass nor a clear fail).";
+    d.explanation =
+        "The result lies inside the tolerance, but closer to a limit than its expanded uncertainty: "
+        "conformity is not proven (neither a clear pass nor a clear fail).";
   } else {
     d.state = Conformity::fail_not_proven;
-    d.explanation = "The result lies outside the tolerance, but within its expanded uncertainty of the limit: "
-                    "nonconformity is not proven (neither a clear pass nor a clear fail).";
+    d.explanation =
+        "The result lies outside the tolerance, but within its expanded uncertainty of the limit: "
+        "nonconformity is not proven (neither a clear pass nor a clear fail).";
   }
   if (d.acceptance_zone_empty)
     d.explanation += " The expanded uncertainty is at least half the tolerance width, so no result can clearly pass.";
   return d;
+}
+
+bool beyond_limit(double magnitude, double limit) {
+  return magnitude > limit * (1.0 + 1e-9);
 }
 
 }  // namespace plumb::checks

@@ -27,7 +27,9 @@ enum class Conformity { pass, pass_not_proven, fail_not_proven, fail };
 std::string_view to_string(Conformity c);  ///< "pass", "pass, not proven", "fail, not proven", "fail"
 std::string_view key(Conformity c);        ///< "pass", "pass-not-proven", "fail-not-proven", "fail"
 /// True only for a clear pass.
-inline bool clear_pass(Conformity c) { return c == Conformity::pass; }
+inline bool clear_pass(Conformity c) {
+  return c == Conformity::pass;
+}
 
 /// Tolerance limits on the measured mass (the error of indication of a balance); either side may be open.
 struct Limits {
@@ -51,5 +53,10 @@ struct Decision {
 /// Decides conformity of `value` with expanded uncertainty `U` against `limits`. Throws InputError when
 /// U is negative or not finite, both limits are missing, or lower > upper.
 Decision decide(Mass value, Mass U, const Limits& limits, DecisionRule rule);
+
+/// Simple acceptance on a magnitude computed in binary floating point (a pipette error, a CV): a value equal
+/// to its limit is not beyond it. "Equal" allows a relative 1e-9, since a limit printed as a short decimal
+/// (0.8 uL) and an error computed through the Z factor never meet to the last bit.
+bool beyond_limit(double magnitude, double limit);
 
 }  // namespace plumb::checks

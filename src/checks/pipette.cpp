@@ -1,5 +1,7 @@
 #include "checks/pipette.hpp"
 
+#include "checks/decision_rule.hpp"
+
 #include <fmt/format.h>
 
 #include <algorithm>
@@ -16,12 +18,16 @@ const Decimal zero{0, 0};
 const ExactVolume no_volume;
 
 /// Shortest exact text: 10 % of 100 uL is "10", not "10.0".
-Decimal trimmed(Decimal v) { return v.rescaled(v.significant_scale()); }
+Decimal trimmed(Decimal v) {
+  return v.rescaled(v.significant_scale());
+}
 std::string ul(ExactVolume v) {
   return v.to_string();
 }
 /// Balance readabilities are stated in mg in ISO 8655-6, so messages state them in mg too.
-std::string in_mg(const ExactMass& m) { return trimmed(m.in_grams().shifted(3)).to_string() + " mg"; }
+std::string in_mg(const ExactMass& m) {
+  return trimmed(m.in_grams().shifted(3)).to_string() + " mg";
+}
 
 /// Decimals for printing a volume error next to a selected volume: 5 at 1 uL, 3 at 100 uL, 1 at 10 mL.
 int volume_decimals(ExactVolume selected) {
@@ -29,10 +35,6 @@ int volume_decimals(ExactVolume selected) {
   const int d = 5 - static_cast<int>(std::floor(std::log10(v)));
   return std::clamp(d, 1, 6);
 }
-
-// Simple acceptance (ILAC G8, guard band 0): a value equal to the limit passes. Errors are computed in
-// binary floating point, so "equal" allows a relative 1e-9 for a limit printed as a short decimal.
-bool beyond(double magnitude, double limit) { return magnitude > limit * (1.0 + 1e-9); }
 
 ExactVolume half_of(ExactVolume v) {
   const Decimal ul = v.in_microlitres();
@@ -42,21 +44,23 @@ ExactVolume half_of(ExactVolume v) {
 void check_channel_input(const PipetteRunInput& in, const TestVolumeWeighings& tv, const ChannelWeighings& ch) {
   const std::string where = fmt::format("test volume {}, channel {}", ul(tv.volume), ch.channel);
   if (ch.weighings.size() < min_replicates)
-    throw InputError(fmt::format("{}: {} weighing(s) given; the gravimetric check needs at least {} replicates "
-                                 "({} recommended).",
-                                 where, ch.weighings.size(), min_replicates, recommended_replicates));
+    throw InputError(
+        fmt::format("{}: {} weighing(s) given; the gravimetric check needs at least {} replicates "
+                    "({} recommended).",
+                    where, ch.weighings.size(), min_replicates, recommended_replicates));
   const ExactMass& d = in.balance.readability;
   const int d_scale = d.in_grams().significant_scale();
   for (std::size_t i = 0; i < ch.weighings.size(); ++i) {
     const MassReading& r = ch.weighings[i];
     const Decimal g = r.mass().in_grams();
     if (g <= zero)
-      throw InputError(fmt::format("{}: weighing {} ({} {}) is not a positive mass.", where, i + 1, r.text,
-                                   to_string(r.unit)));
+      throw InputError(
+          fmt::format("{}: weighing {} ({} {}) is not a positive mass.", where, i + 1, r.text, to_string(r.unit)));
     if (g.significant_scale() > d_scale)
-      throw InputError(fmt::format("{}: weighing {} ({} {}) has more decimals than the readability {} of balance "
-                                   "{} allows.",
-                                   where, i + 1, r.text, to_string(r.unit), in_mg(d), in.balance.id));
+      throw InputError(
+          fmt::format("{}: weighing {} ({} {}) has more decimals than the readability {} of balance "
+                      "{} allows.",
+                      where, i + 1, r.text, to_string(r.unit), in_mg(d), in.balance.id));
   }
 }
 
@@ -93,17 +97,17 @@ ChannelResult evaluate_channel(const PipetteRunInput& in, const gravimetric::ZFa
   };
   const std::string policy = in.pipette.limits.name();
   if (r.limits.compare_in_pct) {
-    if (beyond(std::abs(r.systematic_error_pct), r.limits.systematic_pct))
+    if (beyond_limit(std::abs(r.systematic_error_pct), r.limits.systematic_pct))
       fail(fmt::format("{}: systematic error {:+.3f} % exceeds the limit +/-{} % ({})", where, r.systematic_error_pct,
                        in.pipette.limits.systematic->to_string(), policy));
-    if (beyond(r.cv_pct, r.limits.random_pct))
+    if (beyond_limit(r.cv_pct, r.limits.random_pct))
       fail(fmt::format("{}: random error CV {:.3f} % exceeds the limit {} % ({})", where, r.cv_pct,
                        in.pipette.limits.random->to_string(), policy));
   } else {
-    if (beyond(abs(r.systematic_error).ul(), r.limits.systematic.ul()))
+    if (beyond_limit(abs(r.systematic_error).ul(), r.limits.systematic.ul()))
       fail(fmt::format("{}: systematic error {:+.{}f} uL exceeds the limit +/-{:.{}f} uL ({})", where,
                        r.systematic_error.ul(), dp, r.limits.systematic.ul(), dp, policy));
-    if (beyond(r.random_error.ul(), r.limits.random.ul()))
+    if (beyond_limit(r.random_error.ul(), r.limits.random.ul()))
       fail(fmt::format("{}: random error s = {:.{}f} uL exceeds the limit {:.{}f} uL ({})", where, r.random_error.ul(),
                        dp, r.limits.random.ul(), dp, policy));
   }
@@ -112,7 +116,9 @@ ChannelResult evaluate_channel(const PipetteRunInput& in, const gravimetric::ZFa
 
 }  // namespace
 
-std::string_view to_string(PipetteKind k) { return k == PipetteKind::fixed ? "fixed" : "variable"; }
+std::string_view to_string(PipetteKind k) {
+  return k == PipetteKind::fixed ? "fixed" : "variable";
+}
 
 void validate(const PipetteDefinition& p) {
   const std::string who = p.id.empty() ? std::string("pipette") : fmt::format("pipette {}", p.id);
@@ -154,8 +160,8 @@ PipetteRunResult evaluate_pipette_run(const PipetteRunInput& in) {
   out.z = gravimetric::z_factor(in.environment);  // refuses a water temperature outside 15-30 degC
   if (in.run_date) pipette_balance::require_usable(in.balance, *in.run_date);
   if (in.balance.readability.in_grams() <= zero)
-    throw InputError(fmt::format("balance {}: readability {} must be positive.", in.balance.id,
-                                 in_mg(in.balance.readability)));
+    throw InputError(
+        fmt::format("balance {}: readability {} must be positive.", in.balance.id, in_mg(in.balance.readability)));
   if (in.evaporation_per_weighing && in.evaporation_per_weighing->in_grams() < zero)
     throw InputError(fmt::format("evaporation loss {} is negative; give the mass lost per weighing.",
                                  in_mg(*in.evaporation_per_weighing)));
