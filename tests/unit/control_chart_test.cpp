@@ -57,7 +57,7 @@ TEST_CASE("individuals chart limits from the moving range, worked by hand", "[st
   CHECK(c.zones[1] == Zone::c);
 }
 
-TEST_CASE("default baseline is the first 20 points; later points do not move the limits", "[stats][control]") {
+TEST_CASE("default baseline is the first 20 points, later points do not move the limits", "[stats][control]") {
   // 20 alternating +/-0.564 (centre 0, sigma 1 by the construction above), then 5 and 0.5.
   std::vector<Observation> h;
   for (int i = 0; i < 20; ++i) h = concat(h, {i % 2 == 0 ? 0.564 : -0.564});

@@ -67,7 +67,7 @@ TEST_CASE("one-sided limits and names", "[unit][decision]") {
   CHECK_THROWS_AS(decide(mg(0), mg(1), Limits{mg(2.0), mg(1.0)}, DecisionRule::guard_band_u), plumb::InputError);
 }
 
-TEST_CASE("beyond_limit: a magnitude on its limit is not beyond it; the next printed digit is", "[unit][decision]") {
+TEST_CASE("beyond_limit: a magnitude on its limit is not beyond it, the next printed digit is", "[unit][decision]") {
   // ILAC G8:09/2019 simple acceptance: a result exactly on the limit passes.
   CHECK_FALSE(beyond_limit(0.8, 0.8));
   CHECK_FALSE(beyond_limit(0.8 * (1 + 1e-12), 0.8));  // the same value through the Z factor, off by rounding

@@ -228,7 +228,7 @@ TEST_CASE("Multichannel: limits doubled, results per channel, every channel requ
   }
 }
 
-TEST_CASE("Variable pipette: absolute limits at nominal across the range; missing volumes reported", "[pipette]") {
+TEST_CASE("Variable pipette: absolute limits at nominal across the range, missing volumes reported", "[pipette]") {
   // Variable 100 uL (10-100 uL). At 50 uL the worked-example weighings halved would be another case; here
   // the 100 uL data are reused at 100 uL, and at 50 uL and 10 uL data chosen so the errors are easy by hand.
   // 50 uL: ten weighings of 49.80 mg -> V = 49.80 * 1.0028509 = 49.94198 uL, e_s = -0.05802 uL, s = 0:
@@ -349,7 +349,7 @@ TEST_CASE("Bad input is refused with one clear sentence", "[pipette][bad-input]"
   }
 }
 
-TEST_CASE("Boundary: a CV exactly at the lab limit passes; a limit one digit lower fails", "[pipette][boundary]") {
+TEST_CASE("Boundary: a CV exactly at the lab limit passes, a limit one digit lower fails", "[pipette][boundary]") {
   // Weighings (mg) 100.03 99.97 100.03 99.97 and six of 100.00, worked by hand: mean 100.00 mg, deviations
   // +-0.03 four times, SS = 4 x 0.0009 = 0.0036 mg^2, s^2 = 0.0036 / 9 = 0.0004, s = 0.02 mg exactly.
   // CV = 100 x s / mean = 0.02 % (Z cancels, ISO 8655-6 random error as a CV). Simple acceptance

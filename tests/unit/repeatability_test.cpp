@@ -104,7 +104,7 @@ TEST_CASE("resolution supported by a repeatability SD follows the 1-2-5 series",
   CHECK_THAT(resolution_supported_by(mg(7)), mass_near(mg(10), ug(1e-6)));
 }
 
-TEST_CASE("boundaries: a bias exactly at the lab limit passes; one digit beyond it fails",
+TEST_CASE("boundaries: a bias exactly at the lab limit passes, one digit beyond it fails",
           "[repeatability][boundary]") {
   // Weight of conventional mass 100.0000 g exactly (U = 0.01 mg, below a third of 0.3 mg). Readings 100.0002
   // and 100.0004 five times each: mean 100.0003 g, bias +0.3 mg exactly. Simple acceptance (ILAC G8:09/2019,
