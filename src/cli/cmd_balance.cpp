@@ -2,6 +2,7 @@
 
 #include "app/registry/balances.hpp"
 #include "cli/command_groups.hpp"
+#include "cli/instrument_options.hpp"
 #include "report/registry/lists.hpp"
 #include "store/repository.hpp"
 
@@ -22,6 +23,7 @@ std::vector<Command> balance_commands() {
                     "max-sd", po::value<std::string>(), "lab's own repeatability limit s (replaces USP <41>)")(
                     "location", po::value<std::string>()->default_value(""), "where it stands")(
                     "since", po::value<std::string>(), "in use since (first check due), default today");
+                add_identity_options(d);
                 add_by_option(d);
                 p.add("id", 1);
               },
@@ -36,6 +38,7 @@ std::vector<Command> balance_commands() {
                 in.max_bias = optional_string(vm, "max-bias");
                 in.max_sd = optional_string(vm, "max-sd");
                 in.since = optional_string(vm, "since");
+                in.identity = identity_from(vm);
                 auto db = env.open();
                 const auto b = app::add_balance(db, Env::actor(vm), in);
                 fmt::print(env.out, "Balance {} registered: capacity {}, d = {}, checked every {} under {}.\n", b.id,

@@ -4,6 +4,7 @@
 
 #include "app/pipette/registry.hpp"
 #include "cli/command_groups.hpp"
+#include "cli/instrument_options.hpp"
 #include "store/pipettes.hpp"
 #include "store/repository.hpp"
 
@@ -34,6 +35,7 @@ std::vector<Command> pipette_commands() {
                     "lab's own limit on the random error: SD in uL, or CV in % (replaces ISO 8655-2)")(
                     "location", po::value<std::string>()->default_value(""), "where it is kept")(
                     "since", po::value<std::string>(), "in use since (first check due), default today");
+                add_identity_options(d);
                 add_by_option(d);
                 p.add("id", 1);
               },
@@ -48,6 +50,7 @@ std::vector<Command> pipette_commands() {
                 in.max_systematic = optional_string(vm, "max-systematic");
                 in.max_random = optional_string(vm, "max-random");
                 in.since = optional_string(vm, "since");
+                in.identity = identity_from(vm);
                 auto db = env.open();
                 const auto p = app::add_pipette(db, Env::actor(vm), in);
                 const auto volumes = checks::default_test_volumes(p.definition);

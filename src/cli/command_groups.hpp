@@ -18,6 +18,7 @@ std::vector<Command> due_commands();
 std::vector<Command> summary_commands();
 std::vector<Command> demo_commands();
 std::vector<Command> service_commands();
+std::vector<Command> instrument_commands();
 std::vector<Command> audit_commands();
 std::vector<Command> backup_commands();
 std::vector<Command> import_commands();

@@ -103,6 +103,14 @@ std::optional<PipetteRecord> find_pipette(SQLite::Database& db, const std::strin
   return pipette_from(q);
 }
 
+std::optional<PipetteRecord> find_pipette_on(SQLite::Database& db, const std::string& id, Date on) {
+  SQLite::Statement q(db, pipette_select() + " WHERE i.id = ?2");
+  q.bind(1, to_string(on));
+  q.bind(2, id);
+  if (!q.executeStep()) return std::nullopt;
+  return pipette_from(q);
+}
+
 std::vector<PipetteRecord> list_pipettes(SQLite::Database& db) {
   SQLite::Statement q(db, pipette_select() + " ORDER BY i.id");
   q.bind(1, latest_attributes_date);

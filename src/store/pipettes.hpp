@@ -40,6 +40,8 @@ struct PipetteRunConditions {
 
 void add_pipette(Recorder& rec, const PipetteRecord& p);
 std::optional<PipetteRecord> find_pipette(SQLite::Database& db, const std::string& id);
+/// The pipette with the attributes (location, interval, identity) in force on `on`.
+std::optional<PipetteRecord> find_pipette_on(SQLite::Database& db, const std::string& id, Date on);
 std::vector<PipetteRecord> list_pipettes(SQLite::Database& db);
 
 void add_pipette_run_conditions(RowGroup& group, const PipetteRunConditions& c);

@@ -128,6 +128,7 @@ store::PipetteRecord add_pipette(store::Database& db, const store::Actor& actor,
   checks::validate(d);
   p.every = Interval::parse(in.every, "--every");
   p.location = in.location;
+  p.identity = read_identity(in.identity);
   p.created_on = in.since ? parse_date(*in.since, "--since") : today_utc();
 
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);

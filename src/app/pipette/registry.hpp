@@ -7,6 +7,7 @@
 
 #include "core/decimal.hpp"
 #include "core/units.hpp"
+#include "app/registry/instrument_attributes.hpp"
 #include "store/database.hpp"
 #include "store/pipettes.hpp"
 #include "store/recorder.hpp"
@@ -23,6 +24,7 @@ struct PipetteInput {
   std::optional<std::string> max_systematic;  ///< lab limit: "0.8uL" or "0.8%"
   std::optional<std::string> max_random;      ///< lab limit: "0.3uL" (SD) or "0.3%" (CV)
   std::optional<std::string> since;           ///< in use since (first check due), default today
+  IdentityInput identity;
 };
 
 store::PipetteRecord add_pipette(store::Database& db, const store::Actor& actor, const PipetteInput& in);

@@ -14,6 +14,7 @@ store::BalanceRecord add_balance(store::Database& db, const store::Actor& actor,
   store::BalanceRecord b;
   b.id = in.id;
   b.location = in.location;
+  b.identity = read_identity(in.identity);
   b.capacity = positive_mass(in.capacity, "--capacity");
   b.readability = positive_mass(in.readability, "--readability");
   if (b.readability >= b.capacity)

@@ -3,6 +3,7 @@
 #include <optional>
 #include <string>
 
+#include "app/registry/instrument_attributes.hpp"
 #include "store/database.hpp"
 #include "store/recorder.hpp"
 #include "store/records.hpp"
@@ -12,6 +13,7 @@ namespace plumb::app {
 struct BalanceInput {
   std::string id, capacity, readability, every, location;
   std::optional<std::string> smallest_net, max_bias, max_sd, since;
+  IdentityInput identity;
 };
 store::BalanceRecord add_balance(store::Database& db, const store::Actor& actor, const BalanceInput& in);
 
