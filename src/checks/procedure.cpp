@@ -49,7 +49,7 @@ ProcedureSpec make_spec(Procedure p) {
               "CC",
               "balance_calibration",
               "Balance calibration certificate",
-              false,
+              true,
               calibration_options,
               calibration_results};
     case Procedure::gravimetric:
@@ -61,7 +61,7 @@ ProcedureSpec make_spec(Procedure p) {
               "PC",
               "pipette_check",
               "Pipette check certificate",
-              false,
+              true,
               gravimetric_options,
               gravimetric_results};
   }

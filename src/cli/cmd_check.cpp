@@ -9,6 +9,7 @@
 #include "app/calibration/record.hpp"
 #include "app/runs/correct.hpp"
 #include "app/runs/resolve.hpp"
+#include "app/runs/void_run.hpp"
 #include "app/weekly_check/record.hpp"
 #include "checks/procedure.hpp"
 #include "app/pipette/record.hpp"
@@ -211,8 +212,17 @@ std::vector<Command> check_commands() {
             "unit", po::value<std::string>()->default_value("g"), "unit of readings without a unit column")(
             "on", po::value<std::string>(), "corrected date performed, YYYY-MM-DD")(
             "operator", po::value<std::string>(), "corrected name of the operator who performed the check")(
-            "weight", po::value<std::vector<std::string>>(), "corrected reference weight id")(
-            "layout", po::value<std::string>(), "layout of the replacement certificate, if one is issued");
+            "weight", po::value<std::vector<std::string>>(), "repeatability: corrected reference weight id")(
+            "temperature", po::value<std::string>(), "calibration: corrected air temperature, degC")(
+            "pressure", po::value<std::string>(), "calibration and gravimetric: corrected air pressure, hPa")(
+            "humidity", po::value<std::string>(), "calibration and gravimetric: corrected relative humidity, %")(
+            "air-formula", po::value<std::string>(), "calibration: corrected air density formula")(
+            "model", po::value<std::string>(), "calibration: corrected fitted model")(
+            "balance", po::value<std::string>(), "gravimetric: corrected balance the water was weighed on")(
+            "water-temp", po::value<std::string>(), "gravimetric: corrected water temperature, degC")(
+            "evaporation", po::value<std::string>(), "gravimetric: corrected evaporation loss per weighing")(
+            "layout", po::value<std::string>(), "layout of the replacement certificate (default: that of the one it "
+                                                "replaces)");
         add_format_option(d);
         add_by_option(d, "the person making the correction");
         p.add("run", 1);
@@ -229,6 +239,10 @@ std::vector<Command> check_commands() {
         in.on = optional_string(vm, "on");
         in.operator_name = optional_string(vm, "operator");
         if (vm.count("weight")) in.weight_ids = vm["weight"].as<std::vector<std::string>>();
+        for (const std::string_view option : checks::procedure_options()) {
+          const std::string name(option);
+          if (name != "weight" && vm.count(name)) in.conditions[name] = vm[name].as<std::string>();
+        }
         in.layout_path = optional_string(vm, "layout");
         auto db = env.open();
         const auto out = app::correct_check(db, Env::actor(vm), in);
@@ -251,7 +265,41 @@ std::vector<Command> check_commands() {
         print_run(out.correction, "text", env);
         return 0;
       }};
-  return {record, show, correct};
+  Command void_command{
+      "check", "void",
+      "void a run entered in error (reason required): it stays in history, marked void, and stops counting",
+      "plumb check void 14 --reason \"entered for BAL-A by mistake; the check was on BAL-B\" --by \"Q. Manager\"",
+      [](po::options_description& d, po::positional_options_description& p) {
+        d.add_options()("run", po::value<std::string>()->required(), "run number or LAST (positional)")(
+            "reason", po::value<std::string>(), "why the run is void (required; kept with the run)");
+        add_format_option(d);
+        add_by_option(d, "the person voiding the run");
+        p.add("run", 1);
+      },
+      [](const po::variables_map& vm, Env& env) {
+        const auto format = format_of(vm, {"text", "json"});
+        if (!vm.count("reason")) throw InputError("--reason must say why the run is void (it is kept with the run).");
+        if (!vm.count("by")) throw InputError("--by must name the person voiding the run.");
+        auto db = env.open();
+        const auto out = app::void_run(db, Env::actor(vm), vm["run"].as<std::string>(), vm["reason"].as<std::string>());
+        if (format == "json") {
+          nlohmann::json j = {{"run", report::run_json(out.run)},
+                              {"withdrawn_certificate", out.withdrawn_certificate
+                                                            ? nlohmann::json(out.withdrawn_certificate->number)
+                                                            : nlohmann::json()}};
+          env.out << j.dump(2) << "\n";
+          return 0;
+        }
+        fmt::print(env.out,
+                   "Run {} ({} of {} on {}) is void: {}. It stays in history and no longer counts for due dates, "
+                   "trends or summaries.\n",
+                   out.run.id, checks::to_string(out.run.procedure), out.run.instrument_id,
+                   to_string(out.run.performed_on), out.run.voided->reason);
+        if (out.withdrawn_certificate)
+          fmt::print(env.out, "Certificate {} is withdrawn with the same reason.\n", out.withdrawn_certificate->number);
+        return 0;
+      }};
+  return {record, show, correct, void_command};
 }
 
 }  // namespace plumb::cli

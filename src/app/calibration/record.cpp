@@ -257,7 +257,7 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
   require_lab(db);
   const auto balance = store::find_balance(db.sql(), in.instrument_id);
   if (!balance) throw InputError(fmt::format("balance \"{}\" is not registered.", in.instrument_id));
-  require_in_service(db, "instrument", balance->id);
+  if (!in.supersedes) require_in_service(db, "instrument", balance->id);  // a correction is not a new check
   const auto settings = store::find_calibration_settings(db.sql(), balance->id);
   if (!settings)
     throw InputError(fmt::format("balance {} has no calibration settings; set them first with `plumb balance "
@@ -319,6 +319,8 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
   run.procedure = checks::Procedure::calibration;
   run.performed_on = on;
   run.operator_name = in.operator_name;
+  run.supersedes = in.supersedes;
+  run.reason = in.reason;
   run.verdict = checks::clear_pass(final_set.overall) ? Verdict::pass : Verdict::fail;
   if (run.verdict == Verdict::pass) run.next_due = add_interval(on, settings->calibrate_every);
   run.results = report::to_json(result);

@@ -35,6 +35,8 @@ struct CalibrationRunInput {
   std::optional<std::string> temperature_c, pressure_hpa, humidity_pct;  ///< all three, or none (not measured)
   std::string air_formula = "cipm2007";  ///< cipm2007 | oiml-r111
   std::string model = "line";            ///< line | through-origin | quadratic
+  std::optional<std::int64_t> supersedes;  ///< a correction: the run this one replaces
+  std::string reason;                      ///< why it replaces it (required with supersedes)
 };
 
 store::RunRecord record_calibration(store::Database& db, const store::Actor& actor, const CalibrationRunInput& in);

@@ -49,7 +49,11 @@ json certificate_status(store::Database& db, const store::CertificateRecord& c) 
   }
   if (c.supersedes)
     if (auto old = store::find_certificate_by_id(db.sql(), *c.supersedes)) status["replaces"] = old->number;
-  if (!status["superseded"].is_null()) status["state"] = "superseded";
+  status["withdrawn"] = nullptr;
+  if (const auto w = store::certificate_withdrawal(db.sql(), c.id))
+    status["withdrawn"] = {{"by", w->by_name}, {"at", w->recorded_at}, {"reason", w->reason}};
+  if (!status["withdrawn"].is_null()) status["state"] = "withdrawn";
+  else if (!status["superseded"].is_null()) status["state"] = "superseded";
   else if (!status["approval"].is_null()) status["state"] = "approved";
   return status;
 }
@@ -73,6 +77,10 @@ store::CertificateRecord approve_certificate(store::Database& db, const store::A
     throw InputError(fmt::format("--by \"{}\" performed check run {} of certificate {}; a certificate must be "
                                  "approved by someone other than its operator.",
                                  actor.name, run.id, cert.number));
+  if (const auto w = store::certificate_withdrawal(db.sql(), cert.id))
+    throw InputError(fmt::format("certificate {} was withdrawn on {} ({}); a withdrawn certificate cannot be "
+                                 "approved.",
+                                 cert.number, w->recorded_at, w->reason));
   if (auto done = store::certificate_event(db.sql(), cert.id, "approved"))
     throw InputError(fmt::format("certificate {} was already approved by {} on {}; an approved certificate cannot "
                                  "change.",

@@ -12,8 +12,8 @@
 
 namespace plumb::app {
 
-/// {"state": "draft"|"approved"|"superseded", "approval": {...}|null, "superseded": {...}|null,
-///  "replaces": NUMBER|null}. Not covered by content_sha256: it is the certificate's standing today.
+/// {"state": "draft"|"approved"|"superseded"|"withdrawn", "approval": {...}|null, "superseded": {...}|null,
+///  "withdrawn": {...}|null, "replaces": NUMBER|null}. Not covered by content_sha256: it is the certificate's standing today.
 nlohmann::json certificate_status(store::Database& db, const store::CertificateRecord& c);
 
 /// What renderers (text, JSON, PDF) receive: the stored content plus "content_sha256" and "status".

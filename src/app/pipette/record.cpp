@@ -185,7 +185,7 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
   require_lab(db);
   const auto pipette = store::find_pipette(db.sql(), in.pipette_id);
   if (!pipette) throw InputError(fmt::format("pipette \"{}\" is not registered.", in.pipette_id));
-  require_in_service(db, "instrument", pipette->id());
+  if (!in.supersedes) require_in_service(db, "instrument", pipette->id());  // a correction is not a new check
   require_in_service(db, "instrument", in.balance_id);
   const checks::PipetteDefinition& def = pipette->definition;
   const BalanceOnDate bal = balance_on(db, in.balance_id, on);
@@ -253,6 +253,8 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
   run.procedure = checks::Procedure::gravimetric;
   run.performed_on = on;
   run.operator_name = in.operator_name;
+  run.supersedes = in.supersedes;
+  run.reason = in.reason;
   run.results = report::to_json(result);
   run.results["policy"] = def.limits.key();
   run.results["policy_name"] = def.limits.name();

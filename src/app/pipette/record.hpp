@@ -33,6 +33,8 @@ struct PipetteCheckInput {
   MassUnit default_unit = MassUnit::g;
   std::string on;                 ///< date performed, YYYY-MM-DD
   std::string operator_name;
+  std::optional<std::int64_t> supersedes;  ///< a correction: the run this one replaces
+  std::string reason;                      ///< why it replaces it (required with supersedes)
 };
 
 /// Validates, computes and records one pipette check in its own transaction; nothing is written on error.

@@ -33,7 +33,9 @@ nlohmann::json run_json(const store::RunRecord& run) {
   j["recorded_at"] = run.recorded_at;
   j["verdict"] = std::string(to_string(run.verdict));
   j["next_due"] = run.next_due ? json(to_string(*run.next_due)) : json();
-  j["status"] = run.verdict == Verdict::pass ? "in service" : "out of service";
+  j["status"] = run.voided ? "void" : run.verdict == Verdict::pass ? "in service" : "out of service";
+  j["void"] = run.voided ? json{{"reason", run.voided->reason}, {"by", run.voided->by_name}, {"at", run.voided->recorded_at}}
+                         : json();
   j["supersedes"] = run.supersedes ? json(*run.supersedes) : json();
   j["correction_reason"] = run.reason.empty() ? json() : json(run.reason);
   j["superseded_by"] = run.superseded_by ? json(*run.superseded_by) : json();

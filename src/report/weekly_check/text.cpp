@@ -12,14 +12,6 @@ std::string repeatability_run_text(const nlohmann::json& r) {
   line(fmt::format("Run {}: {} of {} on {} by {} ({})", r.value("run_id", 0), r.value("procedure", ""),
                    r.value("instrument", ""), r.value("date", ""), r.value("operator", ""),
                    r.value("policy_name", "")));
-  if (r.contains("superseded_by") && r["superseded_by"].is_number_integer())
-    line(fmt::format("  SUPERSEDED by run {}: this record was corrected and is kept for history only.",
-                     r["superseded_by"].get<std::int64_t>()));
-  if (r.contains("supersedes") && r["supersedes"].is_number_integer())
-    for (const auto& l : wrap(fmt::format("corrects run {}: {}", r["supersedes"].get<std::int64_t>(),
-                                          r.value("correction_reason", std::string())),
-                              78, "  ", "    "))
-      line(l);
   std::string weights;
   for (const auto& w : r.value("weights", nlohmann::json::array()))
     weights += (weights.empty() ? "" : ", ") + w.get<std::string>();
