@@ -2,7 +2,9 @@
 
 #include "app/registry/balances.hpp"
 #include "cli/command_groups.hpp"
+#include "app/registry/instrument_page.hpp"
 #include "cli/instrument_options.hpp"
+#include "report/registry/instrument_page.hpp"
 #include "report/registry/lists.hpp"
 #include "store/repository.hpp"
 
@@ -56,7 +58,24 @@ std::vector<Command> balance_commands() {
                  else env.out << report::balances_text(balances);
                  return 0;
                }};
-  return {add, list};
+  Command show{"balance", "show", "show one balance: attributes and their history, status, check runs and certificates",
+               "plumb balance show BAL-A",
+               [](po::options_description& d, po::positional_options_description& p) {
+                 d.add_options()("id", po::value<std::string>()->required(), "balance id (positional)")(
+                     "on", po::value<std::string>(), "status as of this date, YYYY-MM-DD (default today)");
+                 add_format_option(d);
+                 p.add("id", 1);
+               },
+               [](const po::variables_map& vm, Env& env) {
+                 const auto format = format_of(vm, {"text", "json"});
+                 const Date on = vm.count("on") ? parse_date(vm["on"].as<std::string>(), "--on") : today_utc();
+                 auto db = env.open();
+                 const auto page = app::instrument_page(db, "balance", vm["id"].as<std::string>(), on);
+                 if (format == "json") env.out << page.dump(2) << "\n";
+                 else env.out << report::instrument_page_text(page);
+                 return 0;
+               }};
+  return {add, list, show};
 }
 
 }  // namespace plumb::cli

@@ -184,9 +184,20 @@ TEST_CASE("a retired balance or weight is not due and takes no new checks until 
                       "Q. Manager"},
                      dir.path());
   REQUIRE(r.status == 0);
+  // Not due for anything: absent from the due list, and listed as retired (no due date) only with --all.
+  r = run_plumb({"--db", db, "due", "--within", "1y", "--on", "2026-12-01", "--format", "json"}, dir.path());
+  const json due_within_a_year = json::parse(r.out);
+  for (const auto& item : due_within_a_year["items"]) CHECK(item["id"] != "BAL-A");
   r = run_plumb({"--db", db, "due", "--all", "--on", "2026-12-01", "--format", "json"}, dir.path());
-  const json without = json::parse(r.out);
-  for (const auto& item : without["items"]) CHECK(item["id"] != "BAL-A");
+  const json everything = json::parse(r.out);
+  int listed = 0;
+  for (const auto& item : everything["items"])
+    if (item["id"] == "BAL-A") {
+      ++listed;
+      CHECK(item["status"] == "retired");
+      CHECK(item["due_on"].is_null());
+    }
+  CHECK(listed == 1);
   r = run_plumb(check, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("BAL-A was retired") && Catch::Contains("replaced by a newer balance"));
@@ -199,8 +210,11 @@ TEST_CASE("a retired balance or weight is not due and takes no new checks until 
               .status == 0);
   r = run_plumb({"--db", db, "due", "--all", "--on", "2026-12-01", "--format", "json"}, dir.path());
   const json items = json::parse(r.out)["items"];
-  REQUIRE(items.size() == 1);
+  REQUIRE(items.size() == 2);
   CHECK(items[0]["id"] == "BAL-A");
+  CHECK(items[0]["status"] != "retired");
+  CHECK(items[1]["id"] == "W100");
+  CHECK(items[1]["status"] == "retired");
   r = run_plumb(check, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("--weight W100 was retired"));

@@ -74,9 +74,14 @@ store::CertificateRecord issue_certificate_in(store::Database& db, store::Record
   const store::RunRecord run = *store::find_run(db.sql(), run_id);
 
   json instrument = {{"id", run.instrument_id}};
-  if (auto b = store::find_balance(db.sql(), run.instrument_id)) {
+  // The attributes in force on the check date: a balance moved or re-tagged since is certified as it was.
+  if (auto b = store::find_balance_on(db.sql(), run.instrument_id, run.performed_on)) {
     instrument = {{"id", b->id},
                   {"kind", "balance"},
+                  {"maker", b->identity.maker},
+                  {"model", b->identity.model},
+                  {"serial", b->identity.serial_no},
+                  {"asset_tag", b->identity.asset_tag},
                   {"location", b->location},
                   {"capacity_g", b->capacity.in_grams().to_string()},
                   {"readability_g", b->readability.in_grams().to_string()},

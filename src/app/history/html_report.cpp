@@ -80,26 +80,28 @@ report::HtmlReport history_report(store::Database& db, const HistoryReportReques
     ids = instrument_ids(db);
     out.scope = "the whole laboratory";
   }
-  for (const auto& d : due_items(db, r.on, 14, true))
+  for (const auto& d : due_items(db, r.on, default_due_window_days, true))
     if (!r.instrument || d.id == *r.instrument || d.kind == "weight")
       out.due.push_back(d);
 
+  const auto standing_of = standings_on(db, r.on, default_due_window_days);
   for (const auto& id : ids) {
     const InstrumentInfo inst = find_instrument(db, id);
     report::InstrumentSection s;
     s.id = inst.id;
     s.title = inst.title;
     s.location = inst.location;
-    s.status = "no check yet";
-    for (const auto& d : out.due)
-      if (d.id == id && d.kind != "weight") s.status = d.status;
+    const auto standing = standing_of.find(standing_key("instrument", id));
+    s.status = standing == standing_of.end() ? "in date" : standing->second.status;
     s.history = history_view(db, inst, {});
     const auto keys = quantity_keys(inst.kind);
     // The watched quantities (bias and repeatability of a balance, e_s % and CV of a pipette); the others follow
     // from them (the minimum weight from the SD) or repeat them in another unit.
     for (const auto& q : history_quantities())
       if (q.instrument_kind == inst.kind && q.watched) add_trends(db, inst, q, s);
-    if (!keys.empty() && !s.history.rows.empty()) {
+    if (s.status == "retired") {
+      s.findings.push_back(fmt::format("Retired ({}); kept for history, not due for checks.", standing->second.detail));
+    } else if (!keys.empty() && !s.history.rows.empty()) {
       const auto review = interval_review(db, {id, keys.front(), {}, std::nullopt});
       s.findings.push_back(fmt::format("Check interval: {} the current {} ({} days recommended). {}",
                                        stats::to_string(review.recommended.action), inst.every.to_string(),

@@ -34,7 +34,7 @@ report::QuantityView quantity_view(store::Database& db, const InstrumentInfo& in
   // The latest current run of the quantity's procedure decides the label and the limits that apply now.
   const auto replaced = superseded_by(runs);
   for (auto it = runs.rbegin(); it != runs.rend(); ++it) {
-    if (it->procedure != q.procedure || replaced.count(it->id)) continue;
+    if (it->procedure != q.procedure || replaced.count(it->id) || it->voided) continue;
     const RunContext c{*it, first_weight(db, *it)};
     v.label = q.axis_label(c);
     const auto t = q.tolerance(c, inst);
@@ -100,6 +100,7 @@ report::HistoryView history_view(store::Database& db, const InstrumentInfo& inst
     row.next_due = run.next_due;
     row.supersedes = run.supersedes;
     if (auto it = replaced.find(run.id); it != replaced.end()) row.superseded_by = it->second;
+    if (run.voided) row.void_reason = run.voided->reason;
     row.results = run.results;
     const RunContext c{run, first_weight(db, run)};
     for (const auto* q : quantities) {
@@ -121,6 +122,10 @@ report::SeriesView series_view(store::Database& db, const InstrumentInfo& inst, 
     if (run.procedure != q.procedure || !in_period(run.performed_on, period)) continue;
     if (replaced.count(run.id)) {
       ++view.superseded_left_out;
+      continue;
+    }
+    if (run.voided) {
+      ++view.void_left_out;
       continue;
     }
     const auto v = q.read(RunContext{run, first_weight(db, run)});

@@ -153,7 +153,7 @@ report::IntervalReviewView interval_review(store::Database& db, const TrendReque
   const report::HistoryView all = history_view(db, inst, r.period);
   std::vector<stats::CheckOutcome> outcomes;
   for (const auto& row : all.rows)
-    if (!row.superseded_by) outcomes.push_back({row.date, row.verdict == "pass"});
+    if (row.current()) outcomes.push_back({row.date, row.verdict == "pass"});
   if (outcomes.empty())
     throw InputError(fmt::format("instrument {} has no check in the period; there is no history to review.", inst.id));
   v.staircase = stats::staircase_review(inst.every, outcomes);

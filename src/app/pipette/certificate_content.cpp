@@ -19,10 +19,14 @@ constexpr const char* pipette_caution =
 }  // namespace
 
 void add_pipette_certificate_parts(store::Database& db, const store::RunRecord& run, json& content) {
-  if (const auto p = store::find_pipette(db.sql(), run.instrument_id)) {
+  if (const auto p = store::find_pipette_on(db.sql(), run.instrument_id, run.performed_on)) {
     const auto& d = p->definition;
     content["instrument"] = {{"id", d.id},
                              {"kind", "pipette"},
+                             {"maker", p->identity.maker},
+                             {"model", p->identity.model},
+                             {"serial", p->identity.serial_no},
+                             {"asset_tag", p->identity.asset_tag},
                              {"volume_kind", std::string(checks::to_string(d.kind))},
                              {"location", p->location},
                              {"nominal_ul", d.nominal.ul_text()},
@@ -39,7 +43,7 @@ void add_pipette_certificate_parts(store::Database& db, const store::RunRecord& 
   json weights = json::array();
   if (const auto cond = store::find_pipette_run_conditions(db.sql(), run.id)) {
     balance_used["id"] = cond->balance_id;
-    if (const auto b = store::find_balance(db.sql(), cond->balance_id)) {
+    if (const auto b = store::find_balance_on(db.sql(), cond->balance_id, run.performed_on)) {
       balance_used["location"] = b->location;
       balance_used["capacity_g"] = b->capacity.in_grams().to_string();
       balance_used["readability_g"] = b->readability.in_grams().to_string();

@@ -111,19 +111,46 @@ std::vector<report::DueItem> due_items(store::Database& db, Date on, int within_
     item.status = timing_status(*item.days_left, within_days);
     items.push_back(std::move(item));
   }
-  // Retired instruments and weights are kept in history but are not due for anything.
+  // Retired instruments and weights are kept in history but are not due for anything: they are listed as
+  // retired (with --all), with no due date.
   const auto retired_instruments = store::retired_ids(db.sql(), "instrument");
   const auto retired_weights = store::retired_ids(db.sql(), "weight");
-  std::erase_if(items, [&](const report::DueItem& i) {
-    return i.kind == "weight" ? retired_weights.count(i.id) > 0 : retired_instruments.count(i.id) > 0;
-  });
-  if (!everything) std::erase_if(items, [](const report::DueItem& i) { return i.status == "in date"; });
+  for (auto& i : items) {
+    const bool weight = i.kind == "weight";
+    if (!(weight ? retired_weights.count(i.id) : retired_instruments.count(i.id))) continue;
+    const auto r = store::retirement(db.sql(), weight ? "weight" : "instrument", i.id);
+    i.status = "retired";
+    i.due_on.reset();
+    i.days_left.reset();
+    i.detail = r ? fmt::format("retired {}: {}", r->recorded_at.substr(0, 10), r->reason) : "retired";
+  }
+  if (!everything)
+    std::erase_if(items, [](const report::DueItem& i) { return i.status == "in date" || i.status == "retired"; });
   std::stable_sort(items.begin(), items.end(), [](const report::DueItem& a, const report::DueItem& b) {
     const bool a_out = a.status == "out of service", b_out = b.status == "out of service";
     if (a_out != b_out) return a_out;
+    const bool a_retired = a.status == "retired", b_retired = b.status == "retired";
+    if (a_retired != b_retired) return b_retired;  // retired items last: nothing is due for them
     return a.days_left.value_or(0) < b.days_left.value_or(0);
   });
   return items;
+}
+
+int standing_rank(std::string_view status) {
+  for (std::size_t i = 0; i < standings.size(); ++i)
+    if (standings[i] == status) return static_cast<int>(i);
+  throw std::logic_error(fmt::format("\"{}\" is not a standing", status));
+}
+
+std::map<std::string, report::DueItem> standings_on(store::Database& db, Date on, int within_days) {
+  std::map<std::string, report::DueItem> out;
+  for (auto& item : due_items(db, on, within_days, true)) {
+    const std::string key = standing_key(item.kind == "weight" ? "weight" : "instrument", item.id);
+    const auto it = out.find(key);
+    if (it == out.end()) out.emplace(key, std::move(item));
+    else if (standing_rank(item.status) < standing_rank(it->second.status)) it->second = std::move(item);
+  }
+  return out;
 }
 
 }  // namespace plumb::app

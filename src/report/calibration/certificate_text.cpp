@@ -34,6 +34,7 @@ std::string calibration_certificate_text(const json& c, const std::string& conte
   add(fmt::format("Issued {} by {}", field_text(c, "issued_at"), field_text(c, "issued_by")));
   add(rule());
   add(fmt::format("{:<14}{} (balance), {}", "Instrument", field_text(inst, "id"), field_text(inst, "location")));
+  if (const auto id = identity_text(inst); !id.empty()) add(fmt::format("{:<14}{}", "", id));
   add(fmt::format("{:<14}capacity {}, readability d = {}", "", grams_field(inst, "capacity_g"),
                   grams_field(inst, "readability_g")));
   add(fmt::format("{:<14}run {}, performed {} by {}", "Calibration", field_text(run, "run_id"), field_text(run, "date"),

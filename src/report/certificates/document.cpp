@@ -17,13 +17,14 @@ using nlohmann::json;
 KeyValues instrument_block(const json& inst) {
   KeyValues kv;
   const std::pair<const char*, const char*> fields[] = {
-      {"id", "Instrument"}, {"kind", "Kind"}, {"location", "Location"}, {"capacity_g", "Capacity (g)"},
+      {"id", "Instrument"}, {"kind", "Kind"}, {"maker", "Maker"}, {"model", "Model"}, {"serial", "Serial number"},
+      {"asset_tag", "Asset tag"}, {"location", "Location"}, {"capacity_g", "Capacity (g)"},
       {"readability_g", "Readability d (g)"}, {"smallest_net_g", "Smallest net weight (g)"},
       {"check_every", "Check interval"}, {"volume_kind", "Volume"}, {"nominal_ul", "Nominal volume (uL)"},
       {"lower_limit_ul", "Lowest selectable volume (uL)"}, {"channels", "Channels"}, {"limits_policy", "Limits policy"},
       {"limits", "Limits"}, {"limits_source", "Limits source"}};
   for (const auto& [key, label] : fields)
-    if (inst.contains(key) && !inst[key].is_null()) kv.rows.emplace_back(label, cell(inst, key));
+    if (inst.contains(key) && !inst[key].is_null() && !cell(inst, key).empty()) kv.rows.emplace_back(label, cell(inst, key));
   // Fields other kinds add (model, serial, volume ...) follow, so nothing stored is left off the page.
   for (const auto& item : inst.items()) {
     const std::string& k = item.key();

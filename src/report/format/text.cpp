@@ -96,4 +96,13 @@ void add_line(std::string& out, const std::string& line) {
   out += '\n';
 }
 
+std::string identity_text(const nlohmann::json& instrument) {
+  const auto part = [&](const char* key) { return field_text(instrument, key, ""); };
+  std::string out = part("maker");
+  if (!part("model").empty()) out += (out.empty() ? "" : " ") + part("model");
+  if (!part("serial").empty()) out += (out.empty() ? "serial " : ", serial ") + part("serial");
+  if (!part("asset_tag").empty()) out += (out.empty() ? "asset tag " : ", asset tag ") + part("asset_tag");
+  return out;
+}
+
 }  // namespace plumb::report

@@ -24,6 +24,9 @@ std::string field_text(const nlohmann::json& j, const char* key, const std::stri
 /// A gram value of a certificate or result: exact decimal strings print exactly in a readable unit,
 /// computed numbers through mass_text; "-" when absent.
 std::string grams_field(const nlohmann::json& j, const char* key);
+/// The item's identification on a certificate, "Norvale NX-220, serial NX22-00417, asset tag QA-17", from the
+/// instrument block's maker, model, serial and asset_tag; "" when none is recorded.
+std::string identity_text(const nlohmann::json& instrument);
 /// The closing part every text certificate shares: signature lines, the caution and the content hash.
 std::string certificate_closing_text(const nlohmann::json& certificate, const std::string& content_sha256);
 /// The reasons (each fail) and notes of a result, wrapped as list items.

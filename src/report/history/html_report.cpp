@@ -52,12 +52,13 @@ void history_table(std::string& out, const HistoryView& h) {
   for (auto it = h.rows.rbegin(); it != h.rows.rend(); ++it) {  // newest first: what a reviewer reads first
     const auto& r = *it;
     out += fmt::format("<tr{}><td class=\"num\">{}</td><td>{}</td><td>{}</td>",
-                       r.superseded_by ? " class=\"superseded\"" : "", r.run_id, to_string(r.date),
+                       r.current() ? "" : " class=\"superseded\"", r.run_id, to_string(r.date),
                        html_escape(r.operator_name));
     for (std::size_t i = 0; i < h.columns.size(); ++i)
       out += fmt::format("<td class=\"num\">{}</td><td class=\"num\">{}</td>", html_number(r.values[i]),
                          html_number(r.uncertainties[i]));
     std::string note;
+    if (r.void_reason) note = "VOID: " + *r.void_reason;
     if (r.superseded_by) note = fmt::format("superseded by run {}", *r.superseded_by);
     if (r.supersedes) note += fmt::format("{}corrects run {}", note.empty() ? "" : "; ", *r.supersedes);
     out += fmt::format("<td class=\"{}\">{}</td><td>{}</td><td>{}</td></tr>\n",

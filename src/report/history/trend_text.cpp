@@ -59,6 +59,7 @@ json points_json(const SeriesView& s) {
 
 std::string run_note(const HistoryRow& r) {
   std::string note;
+  if (r.void_reason) note = "VOID: " + *r.void_reason;
   if (r.superseded_by) note = fmt::format("superseded by run {}", *r.superseded_by);
   if (r.supersedes) note += fmt::format("{}corrects run {}", note.empty() ? "" : "; ", *r.supersedes);
   return note;
@@ -89,12 +90,13 @@ std::string history_text(const HistoryView& v) {
                                 r.operator_name.substr(0, 18));
     for (std::size_t i = 0; i < v.columns.size(); ++i)
       l += fmt::format("  {:>16}  {:>8}", text_number(r.values[i]), text_number(r.uncertainties[i]));
-    l += fmt::format("  {:<7}  {:<10}  {}", r.superseded_by ? r.verdict + "*" : r.verdict, date_text(r.next_due),
+    l += fmt::format("  {:<7}  {:<10}  {}", r.current() ? r.verdict : r.verdict + "*", date_text(r.next_due),
                      run_note(r));
     line(out, l);
   }
-  if (std::any_of(v.rows.begin(), v.rows.end(), [](const auto& r) { return r.superseded_by.has_value(); }))
-    line(out, "* superseded: kept as recorded; the correcting run replaces it in trends and due dates.");
+  if (std::any_of(v.rows.begin(), v.rows.end(), [](const auto& r) { return !r.current(); }))
+    line(out, "* superseded or void: kept as recorded; it does not count in trends and due dates (a correcting run "
+              "replaces a superseded one).");
   line(out, "U: expanded uncertainty, k = 2.");
   for (const auto& c : v.columns) {
     para(out, fmt::format("{}: {}.", c.key, c.uncertainty_basis));
@@ -171,6 +173,7 @@ std::string control_chart_text(const ControlChartView& v) {
   if (s.superseded_left_out)
     para(out, fmt::format("Note: {} superseded result(s) are left out; their corrections are used.",
                           s.superseded_left_out));
+  if (s.void_left_out) para(out, fmt::format("Note: {} void run(s) are left out.", s.void_left_out));
   line(out, "");
   if (v.chart.flags.empty()) {
     line(out, "In control: no Western Electric rule is broken.");
@@ -211,6 +214,7 @@ json control_chart_json(const ControlChartView& v) {
           {"in_control", v.chart.in_control()},
           {"flags", flags},
           {"superseded_left_out", s.superseded_left_out},
+          {"void_left_out", s.void_left_out},
           {"points", points}};
 }
 
@@ -257,6 +261,7 @@ std::string drift_text(const DriftView& v) {
   if (s.superseded_left_out)
     para(out, fmt::format("{} superseded result(s) are left out; their corrections are used.", s.superseded_left_out),
          "", "  ");
+  if (s.void_left_out) para(out, fmt::format("{} void run(s) are left out.", s.void_left_out), "", "  ");
   return out;
 }
 

@@ -36,6 +36,9 @@ struct HistoryRow {
   std::optional<Date> next_due;
   std::optional<std::int64_t> supersedes;
   std::optional<std::int64_t> superseded_by;
+  std::optional<std::string> void_reason;  ///< set when the run was voided (entered in error)
+  /// A current run counts in trends, reviews and due dates: neither corrected away nor void.
+  [[nodiscard]] bool current() const { return !superseded_by && !void_reason; }
   std::vector<std::optional<double>> values;  ///< one per column
   std::vector<std::optional<double>> uncertainties;
   nlohmann::json results;  ///< as stored with the run
@@ -58,6 +61,7 @@ struct SeriesView {
   std::vector<stats::Observation> points;
   std::vector<std::int64_t> run_ids;  ///< one per point
   std::size_t superseded_left_out = 0;
+  std::size_t void_left_out = 0;
 };
 
 struct ControlChartView {

@@ -39,6 +39,7 @@ std::string pipette_certificate_text(const json& c, const std::string& content_s
           : fmt::format("fixed volume {} uL", field_text(inst, "nominal_ul"));
   add_line(out,
       fmt::format("{:<14}{} (piston pipette), {}", "Instrument", field_text(inst, "id"), field_text(inst, "location")));
+  if (const auto id = identity_text(inst); !id.empty()) add_line(out, fmt::format("{:<14}{}", "", id));
   add_line(out, fmt::format("{:<14}{}, {} channel(s), check interval {}", "", volume, field_text(inst, "channels"),
                        field_text(inst, "check_every")));
   add_line(out, fmt::format("{:<14}run {}, gravimetric method (ISO 8655-6)", "Check", field_text(run, "run_id")));

@@ -33,6 +33,7 @@ std::string balance_check_certificate_text(const json& c, const std::string& con
 
   add_line(out, fmt::format("{:<14}{} ({}), {}", "Instrument", field_text(inst, "id"), field_text(inst, "kind"),
                        field_text(inst, "location")));
+  if (const auto id = identity_text(inst); !id.empty()) add_line(out, fmt::format("{:<14}{}", "", id));
   add_line(out,
       fmt::format("{:<14}capacity {}, readability d = {}, smallest net weight {}", "", grams_field(inst, "capacity_g"),
                   grams_field(inst, "readability_g"), grams_field(inst, "smallest_net_g")));
