@@ -6,7 +6,7 @@
 using plumb::Decimal;
 
 TEST_CASE("repeatability SD of large readings is exact", "[stats]") {
-  // DESIGN.md's case: readings like 10000000.1 / 10000000.3. By hand: mean 10000000.2, deviations +-0.1,
+  // Large readings with small scatter (a 10 t scale read to 0.1 kg): 10000000.1 / 10000000.3. By hand: mean 10000000.2, deviations +-0.1,
   // SS = 4 x 0.01 = 0.04, s^2 = 0.04 / 3, s = 0.115470053837925 (sqrt(1/75)).
   const std::vector<Decimal> v{Decimal::parse("10000000.1"), Decimal::parse("10000000.3"),
                                Decimal::parse("10000000.1"), Decimal::parse("10000000.3")};
