@@ -29,6 +29,7 @@ void CheckLookups::load_all() {
     std::string id = b.id;
     balances_.insert_or_assign(std::move(id), std::move(b));
   }
+  for (const auto& [id, b] : balances_) attribute_histories_[id] = store::attribute_history(db_.sql(), id);
   for (auto& w : store::list_weights(db_.sql())) {
     std::string id = w.id;
     auto calibrations = store::weight_calibrations_until(db_.sql(), id, end_of_history);
@@ -48,6 +49,29 @@ const store::BalanceRecord& CheckLookups::balance(const std::string& id) {
     it = balances_.emplace(id, std::move(*b)).first;
   }
   return it->second;
+}
+
+store::BalanceRecord CheckLookups::balance_on(const std::string& id, Date on) {
+  store::BalanceRecord b = balance(id);
+  auto it = attribute_histories_.find(id);
+  if (it == attribute_histories_.end()) {
+    if (all_loaded_) return b;
+    it = attribute_histories_.emplace(id, store::attribute_history(db_.sql(), id)).first;
+  }
+  const auto& history = it->second;
+  if (history.size() < 2) return b;  // never changed: the registration set is the current one
+  std::size_t in_force = 0;
+  for (std::size_t i = 1; i < history.size(); ++i)
+    if (history[i].effective_on <= on) in_force = i;
+  const store::InstrumentAttributes& a = history[in_force];
+  b.identity = a.identity;
+  b.location = a.location;
+  b.every = a.every;
+  if (a.balance_policy) {
+    b.policy = a.balance_policy->tolerance;
+    b.smallest_net = a.balance_policy->smallest_net;
+  }
+  return b;
 }
 
 store::WeightRecord CheckLookups::traceable_weight(const std::string& id, Date on) {

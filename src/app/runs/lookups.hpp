@@ -6,6 +6,7 @@
 
 #include "core/dates.hpp"
 #include "store/database.hpp"
+#include "store/instrument_versions.hpp"
 #include "store/records.hpp"
 #include "store/status_events.hpp"
 
@@ -24,8 +25,11 @@ public:
   /// one thread while another writes, and one query per table beats thousands of look-ups.
   void load_all();
   void require_lab();
-  /// The balance; InputError when it is not registered.
+  /// The balance with its attributes in force now; InputError when it is not registered.
   const store::BalanceRecord& balance(const std::string& id);
+  /// The balance with the attributes (policy, smallest net weight, location, identity) in force on `on`: a
+  /// check, a correction or an imported run is judged by the policy of its own date.
+  store::BalanceRecord balance_on(const std::string& id, Date on);
   /// The weight with the certificate in force on `on`; InputError when it is unknown, has no certificate
   /// dated on or before `on`, or that certificate was overdue on `on`.
   store::WeightRecord traceable_weight(const std::string& id, Date on);
@@ -41,6 +45,7 @@ private:
   bool all_loaded_ = false;  ///< load_all was called: a miss is an unknown item, not a query
   bool lab_checked_ = false;
   std::map<std::string, store::BalanceRecord> balances_;
+  std::map<std::string, std::vector<store::InstrumentAttributes>> attribute_histories_;
   std::map<std::string, WeightHistory> weights_;
   std::map<std::string, std::optional<store::ServiceEvent>> retirements_;  ///< key: kind + '/' + id
 };

@@ -36,7 +36,8 @@ store::RunRecord build_check_run(CheckLookups& lookups, const CheckInput& in) {
   if (!in.parsed_readings) parsed = parse_readings_csv(in.readings_csv, in.readings_source, in.default_unit);
   const std::vector<CsvReading>& readings = in.parsed_readings ? *in.parsed_readings : parsed;
   lookups.require_lab();
-  const store::BalanceRecord* balance = &lookups.balance(in.instrument_id);
+  const store::BalanceRecord balance_then = lookups.balance_on(in.instrument_id, on);
+  const store::BalanceRecord* balance = &balance_then;
   const store::WeightRecord weight = lookups.traceable_weight(in.weight_ids[0], on);
   // Retired items take no new checks; a correction of an earlier run is not a new check.
   if (!in.supersedes) {
