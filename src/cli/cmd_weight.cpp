@@ -124,9 +124,10 @@ std::vector<Command> weight_commands() {
                  const auto format = format_of(vm, {"text", "json", "csv"});
                  auto db = env.open();
                  const auto weights = store::list_weights(db.sql());
-                 if (format == "json") env.out << report::weights_json(weights).dump(2) << "\n";
-                 else if (format == "csv") env.out << report::weights_csv(weights);
-                 else env.out << report::weights_text(weights);
+                 const auto status = app::weight_statuses(db, today_utc());
+                 if (format == "json") env.out << report::weights_json(weights, status).dump(2) << "\n";
+                 else if (format == "csv") env.out << report::weights_csv(weights, status);
+                 else env.out << report::weights_text(weights, status);
                  return 0;
                }};
   return {add, recalibrate_command(), list, show_command()};

@@ -56,6 +56,9 @@ TEST_CASE("a recalibrated weight keeps every certificate, each in force for its 
   auto r = run_plumb({"--db", db, "weight", "show", "W100", "--format", "json"}, dir.path());
   REQUIRE(r.status == 0);
   CHECK(json::parse(r.out)["status"] == "overdue");
+  r = run_plumb({"--db", db, "weight", "list", "--format", "json"}, dir.path());
+  REQUIRE(r.status == 0);
+  CHECK(json::parse(r.out)[0]["status"] == "overdue");
   std::string csv = "reading\n";
   for (const auto& x : readings) csv += x + "\n";
   dir.write("r.csv", csv);
@@ -115,6 +118,15 @@ TEST_CASE("a recalibrated weight keeps every certificate, each in force for its 
   r = run_plumb({"--db", db, "weight", "show", "W999"}, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("W999"));
+  // Retired: marked so by show and list, whatever its certificates say.
+  r = run_plumb({"--db", db, "weight", "list"}, dir.path());
+  CHECK_THAT(r.out, Catch::Contains("in date"));
+  REQUIRE(run_plumb({"--db", db, "weight", "retire", "W100", "--reason", "chipped", "--by", "Q. Manager"}, dir.path())
+              .status == 0);
+  r = run_plumb({"--db", db, "weight", "show", "W100"}, dir.path());
+  CHECK_THAT(r.out, Catch::Contains("retired") && Catch::Contains("by Q. Manager: chipped"));
+  r = run_plumb({"--db", db, "weight", "list", "--format", "json"}, dir.path());
+  CHECK(json::parse(r.out)[0]["status"] == "retired");
   CHECK(plumb::test::check_audit_chain(db).problem.empty());
   CHECK(run_plumb({"--db", db, "audit", "verify"}, dir.path()).status == 0);
 }

@@ -9,6 +9,15 @@
 #include "store/weight_certificates.hpp"
 
 namespace plumb::app {
+namespace {
+
+std::string status_of(const report::WeightDetails& d) {
+  if (d.retirement) return "retired";
+  if (!d.in_force_id) return "no certificate in force";
+  return d.overdue ? "overdue" : "in date";
+}
+
+}  // namespace
 
 report::WeightDetails weight_details(store::Database& db, const std::string& id, Date on) {
   report::WeightDetails d;
@@ -23,7 +32,14 @@ report::WeightDetails weight_details(store::Database& db, const std::string& id,
     d.overdue = overdue_on(*c, on);
   }
   d.retirement = store::retirement(db.sql(), "weight", id);
+  d.status = status_of(d);
   return d;
+}
+
+std::map<std::string, std::string> weight_statuses(store::Database& db, Date on) {
+  std::map<std::string, std::string> out;
+  for (const auto& w : store::list_weights(db.sql())) out[w.id] = weight_details(db, w.id, on).status;
+  return out;
 }
 
 }  // namespace plumb::app

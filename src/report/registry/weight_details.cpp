@@ -7,13 +7,6 @@ namespace {
 
 using nlohmann::json;
 
-/// The weight's standing on `d.on`, in the words of the due list ("in date", "overdue") plus "retired".
-std::string status_of(const WeightDetails& d) {
-  if (d.retirement) return "retired";
-  if (!d.in_force_id) return "no certificate in force";
-  return d.overdue ? "overdue" : "in date";
-}
-
 const store::WeightCalibration* in_force(const WeightDetails& d) {
   for (const auto& c : d.certificates)
     if (d.in_force_id && c.id == *d.in_force_id) return &c;
@@ -39,7 +32,7 @@ std::string weight_details_text(const WeightDetails& d) {
   const store::WeightRecord& w = d.weight;
   std::string out = fmt::format("Weight {}: nominal {}, OIML R 111-1:2004 class {}, density {}\n", w.id, w.nominal_text,
                                 w.weight_class, density_text(w));
-  out += fmt::format("Status on {}: {}", to_string(d.on), status_of(d));
+  out += fmt::format("Status on {}: {}", to_string(d.on), d.status);
   if (const auto* c = in_force(d))
     out += fmt::format(" (certificate {} in force, due {})", c->certificate_no, to_string(c->due_on));
   out += "\n";
@@ -110,7 +103,7 @@ json weight_details_json(const WeightDetails& d) {
           {"standard", "OIML R 111-1:2004"},
           {"density_kg_m3", w.density_kg_m3 ? json(w.density_kg_m3->to_double()) : json()},
           {"on", to_string(d.on)},
-          {"status", status_of(d)},
+          {"status", d.status},
           {"retired", retired},
           {"in_force_certificate", current ? json(current->certificate_no) : json()},
           {"certificates", certificates}};

@@ -22,6 +22,8 @@ struct WeightDetails {
   std::optional<std::int64_t> in_force_id;        ///< the certificate in force on `on`; none before the first
   bool overdue = false;                           ///< the certificate in force on `on` was past its due date
   std::optional<store::ServiceEvent> retirement;  ///< set while the weight is retired
+  /// On `on`: "retired", "overdue", "in date" (the words of the due list) or "no certificate in force".
+  std::string status;
 };
 
 std::string weight_details_text(const WeightDetails& d);
