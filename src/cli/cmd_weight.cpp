@@ -1,11 +1,83 @@
 #include <fmt/ostream.h>
 
+#include "app/registry/weight_details.hpp"
 #include "app/registry/weights.hpp"
 #include "cli/command_groups.hpp"
 #include "report/registry/lists.hpp"
+#include "report/registry/weight_details.hpp"
 #include "store/repository.hpp"
 
 namespace plumb::cli {
+namespace {
+
+void add_override_reason_option(po::options_description& d) {
+  d.add_options()("override-reason", po::value<std::string>(),
+                  "accept a certificate outside the class limits of OIML R 111-1:2004 (|correction| <= MPE, "
+                  "U for k = 2 <= MPE / 3); the reason is recorded and shown by `weight show`");
+}
+
+Command recalibrate_command() {
+  return {"weight", "recalibrate",
+          "record a new calibration certificate for a registered weight (earlier certificates stay in force for "
+          "their dates)",
+          "plumb weight recalibrate W100 --certificate RC-2417 --calibrated 2027-02-20 --due 2028-02-20 "
+          "--correction 0.04mg --uncertainty 0.05mg --k 2 --by \"Q. Manager\"",
+          [](po::options_description& d, po::positional_options_description& p) {
+            d.add_options()("id", po::value<std::string>()->required(), "weight id (positional)")(
+                "certificate", po::value<std::string>()->required(), "number of the new calibration certificate")(
+                "calibrated", po::value<std::string>()->required(), "calibration date, YYYY-MM-DD")(
+                "due", po::value<std::string>()->required(), "recalibration due date, YYYY-MM-DD")(
+                "correction", po::value<std::string>()->default_value("0g"),
+                "certificate correction: conventional mass = nominal + correction")(
+                "uncertainty", po::value<std::string>()->required(), "expanded uncertainty U from the certificate")(
+                "k", po::value<std::string>()->default_value("2"), "coverage factor of U");
+            add_override_reason_option(d);
+            add_by_option(d);
+            p.add("id", 1);
+          },
+          [](const po::variables_map& vm, Env& env) {
+            app::WeightCertificateInput in;
+            in.certificate = vm["certificate"].as<std::string>();
+            in.calibrated = vm["calibrated"].as<std::string>();
+            in.due = vm["due"].as<std::string>();
+            in.correction = vm["correction"].as<std::string>();
+            in.uncertainty = vm["uncertainty"].as<std::string>();
+            in.k = vm["k"].as<std::string>();
+            in.override_reason = optional_string(vm, "override-reason");
+            auto db = env.open();
+            const auto out = app::recalibrate_weight(db, Env::actor(vm), vm["id"].as<std::string>(), in);
+            const auto& w = out.weight;
+            fmt::print(env.out, "Weight {} recalibrated: certificate {} ({} to {}), conventional mass {} g{}.\n", w.id,
+                       w.current.certificate_no, to_string(w.current.calibrated_on), to_string(w.current.due_on),
+                       w.conventional_mass().in_grams().to_string(),
+                       out.in_force_today ? ", in force today" : ", not in force today (see `plumb weight show`)");
+            if (out.overridden)
+              fmt::print(env.out, "Recorded as accepted outside class {} ({}), with the reason given.\n",
+                         w.weight_class, *out.overridden);
+            return 0;
+          }};
+}
+
+Command show_command() {
+  return {"weight", "show", "a reference weight with every certificate, the one in force, and class overrides",
+          "plumb weight show W100 --format json",
+          [](po::options_description& d, po::positional_options_description& p) {
+            d.add_options()("id", po::value<std::string>()->required(), "weight id (positional)");
+            add_format_option(d);
+            p.add("id", 1);
+          },
+          [](const po::variables_map& vm, Env& env) {
+            const auto format = format_of(vm, {"text", "json"});
+            auto db = env.open();
+            const auto details = app::weight_details(db, vm["id"].as<std::string>(), today_utc());
+            if (format == "json") env.out << report::weight_details_json(details).dump(2) << "\n";
+            else env.out << report::weight_details_text(details);
+            return 0;
+          }};
+}
+
+}  // namespace
+
 std::vector<Command> weight_commands() {
   Command add{"weight", "add", "register a reference weight with its calibration certificate",
               "plumb weight add W100 --nominal 100g --class E2 --correction 0.03mg --uncertainty 0.05mg --k 2 "
@@ -22,6 +94,7 @@ std::vector<Command> weight_commands() {
                     "calibrated", po::value<std::string>()->required(), "calibration date, YYYY-MM-DD")(
                     "due", po::value<std::string>()->required(), "recalibration due date, YYYY-MM-DD")(
                     "density", po::value<std::string>(), "density in kg/m3 (default: 8000, conventional)");
+                add_override_reason_option(d);
                 add_by_option(d);
                 p.add("id", 1);
               },
@@ -37,6 +110,7 @@ std::vector<Command> weight_commands() {
                 in.calibrated = vm["calibrated"].as<std::string>();
                 in.due = vm["due"].as<std::string>();
                 in.density = optional_string(vm, "density");
+                in.override_reason = optional_string(vm, "override-reason");
                 auto db = env.open();
                 const auto w = app::add_weight(db, Env::actor(vm), in);
                 fmt::print(env.out, "Weight {} registered: conventional mass {} g (certificate {}, due {}).\n", w.id,
@@ -50,12 +124,13 @@ std::vector<Command> weight_commands() {
                  const auto format = format_of(vm, {"text", "json", "csv"});
                  auto db = env.open();
                  const auto weights = store::list_weights(db.sql());
-                 if (format == "json") env.out << report::weights_json(weights).dump(2) << "\n";
-                 else if (format == "csv") env.out << report::weights_csv(weights);
-                 else env.out << report::weights_text(weights);
+                 const auto status = app::weight_statuses(db, today_utc());
+                 if (format == "json") env.out << report::weights_json(weights, status).dump(2) << "\n";
+                 else if (format == "csv") env.out << report::weights_csv(weights, status);
+                 else env.out << report::weights_text(weights, status);
                  return 0;
                }};
-  return {add, list};
+  return {add, recalibrate_command(), list, show_command()};
 }
 
 }  // namespace plumb::cli

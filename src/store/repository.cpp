@@ -157,7 +157,7 @@ std::vector<WeightRecord> list_weights(SQLite::Database& db) {
   return out;
 }
 
-void add_weight(Recorder& rec, const WeightRecord& w) {
+std::int64_t add_weight(Recorder& rec, const WeightRecord& w) {
   rec.insert("weights",
              {{"id", w.id},
               {"nominal_text", w.nominal_text},
@@ -167,11 +167,11 @@ void add_weight(Recorder& rec, const WeightRecord& w) {
               {"created_at", rec.now()},
               {"created_by", rec.actor().name}},
              {"id"});
-  add_weight_calibration(rec, w.id, w.current);
+  return add_weight_calibration(rec, w.id, w.current);
 }
 
-void add_weight_calibration(Recorder& rec, const std::string& weight_id, const WeightCalibration& c) {
-  rec.insert("weight_calibrations",
+std::int64_t add_weight_calibration(Recorder& rec, const std::string& weight_id, const WeightCalibration& c) {
+  return rec.insert("weight_calibrations",
              {{"weight_id", weight_id},
               {"certificate_no", c.certificate_no},
               {"correction_g", c.correction.in_grams().to_string()},

@@ -21,9 +21,10 @@ void add_lab(Recorder& rec, const std::string& name);
 std::optional<WeightRecord> find_weight(SQLite::Database& db, const std::string& id);
 std::optional<WeightCalibration> find_weight_calibration(SQLite::Database& db, std::int64_t id);
 std::vector<WeightRecord> list_weights(SQLite::Database& db);
-void add_weight(Recorder& rec, const WeightRecord& w);
-/// Appends a new certificate for an existing weight (a recalibration).
-void add_weight_calibration(Recorder& rec, const std::string& weight_id, const WeightCalibration& c);
+/// Appends the weight and its first certificate; returns the certificate's id.
+std::int64_t add_weight(Recorder& rec, const WeightRecord& w);
+/// Appends a new certificate for an existing weight (a recalibration); returns its id.
+std::int64_t add_weight_calibration(Recorder& rec, const std::string& weight_id, const WeightCalibration& c);
 
 // Instruments
 bool instrument_exists(SQLite::Database& db, const std::string& id);

@@ -275,24 +275,27 @@ TEST_CASE("backup copies a verified database and restore puts it back, refusing 
   CHECK(run_plumb({"--db", db, "backup", "copy.db"}, dir.path()).status == 2);  // exists: needs --force
 
   // Restore into a fresh path, then over the live database (which is saved first).
-  r = run_plumb({"--db", "fresh.db", "restore", "copy.db"}, dir.path());
+  r = run_plumb({"--db", "fresh.db", "restore", "copy.db", "--reason", "new lab PC"}, dir.path());
   REQUIRE(r.status == 0);
   CHECK(run_plumb({"--db", "fresh.db", "audit", "verify"}, dir.path()).status == 0);
   REQUIRE(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
                      "2026-12-01", "--by", "A. Technician"},
                     dir.path())
               .status == 0);
-  CHECK(run_plumb({"--db", db, "restore", "copy.db"}, dir.path()).status == 2);  // exists: needs --force
-  r = run_plumb({"--db", db, "restore", "copy.db", "--force"}, dir.path());
+  CHECK(run_plumb({"--db", db, "restore", "copy.db", "--reason", "test"}, dir.path()).status == 2);  // needs --force
+  r = run_plumb({"--db", db, "restore", "copy.db", "--force", "--reason", "disk failure"}, dir.path());
   REQUIRE(r.status == 0);
-  CHECK_THAT(r.out, Catch::Contains("6 audit records") && Catch::Contains("(7 audit records) was saved as"));
-  CHECK(plumb::test::dump_database(db) == plumb::test::dump_database(dir.file("copy.db")));
+  // The backup's 6 records and the record of the restore; the run of 2026-12-01 is gone (kept in the safety copy).
+  CHECK_THAT(r.out, Catch::Contains("7 audit records") && Catch::Contains("(7 audit records) was saved as") &&
+                        Catch::Contains("removes 1 record recorded after the backup"));
+  CHECK(run_plumb({"--db", db, "check", "show", "2"}, dir.path()).status == 2);
+  CHECK(run_plumb({"--db", db, "check", "show", "1"}, dir.path()).status == 0);
 
   // A tampered backup is refused before anything is written; backing up a tampered database keeps nothing.
   REQUIRE(sqlite3_shell(dir.file("copy.db").string(),
                         "DROP TRIGGER weights_no_update; UPDATE weights SET weight_class = 'F1';") == 0);
   const std::string before = plumb::test::dump_database(db);
-  r = run_plumb({"--db", db, "restore", "copy.db", "--force"}, dir.path());
+  r = run_plumb({"--db", db, "restore", "copy.db", "--force", "--reason", "disk failure"}, dir.path());
   CHECK(r.status == 1);
   CHECK_THAT(r.err, Catch::Contains("nothing restored") && Catch::Contains("field weight_class"));
   CHECK(plumb::test::dump_database(db) == before);

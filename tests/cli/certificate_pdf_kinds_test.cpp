@@ -66,7 +66,7 @@ std::string calibrated_balance(const plumb::test::ScratchDir& dir) {
        "--decision-rule", "simple", "--calibrate-every", "1y", "--since", "2026-01-05"}};
   for (const auto& s : steps) REQUIRE(run_plumb(s, dir.path()).status == 0);
   for (const auto& [id, nominal, u] : std::vector<std::tuple<std::string, std::string, std::string>>{
-           {"W20", "20g", "0.03mg"}, {"W50", "50g", "0.03mg"}, {"W100", "100g", "0.05mg"}, {"W200", "200g", "0.10mg"}})
+           {"W20", "20g", "0.025mg"}, {"W50", "50g", "0.03mg"}, {"W100", "100g", "0.05mg"}, {"W200", "200g", "0.10mg"}})
     REQUIRE(run_plumb({"--db", db, "weight", "add", id, "--nominal", nominal, "--class", "E2", "--correction", "0mg",
                        "--uncertainty", u, "--k", "2", "--certificate", "RC-" + id, "--calibrated", "2026-03-02",
                        "--due", "2027-03-02"},

@@ -2,6 +2,7 @@
 
 #include <SQLiteCpp/Backup.h>
 #include <SQLiteCpp/Database.h>
+#include <SQLiteCpp/Transaction.h>
 #include <fmt/format.h>
 #include <sqlite3.h>
 
@@ -9,6 +10,8 @@
 
 #include "core/errors.hpp"
 #include "store/embedded.hpp"
+#include "store/file_digest.hpp"
+#include "store/private_file.hpp"
 #include "store/recorder.hpp"
 
 namespace plumb::app {
@@ -82,8 +85,10 @@ BackupOutcome backup_database(store::Database& db, const std::filesystem::path& 
   const std::filesystem::path partial = file.string() + ".partial";
   std::filesystem::remove(partial);
   BackupOutcome out{file, {}};
+  if (!store::create_private_file(partial))  // another backup to the same name is under way
+    throw InputError(fmt::format("backup file \"{}\" is being written by another command.", partial.string()));
   try {
-    SQLite::Database copy(partial.string(), SQLite::OPEN_READWRITE | SQLite::OPEN_CREATE);
+    SQLite::Database copy(partial.string(), SQLite::OPEN_READWRITE);
     copy_pages(db.sql(), copy);
     // One self-contained file: no write-ahead log beside the copy.
     copy.exec("PRAGMA journal_mode = DELETE");
@@ -100,44 +105,105 @@ BackupOutcome backup_database(store::Database& db, const std::filesystem::path& 
   return out;
 }
 
-RestoreOutcome restore_database(const std::filesystem::path& db_path, const std::filesystem::path& file, bool force) {
+namespace {
+
+std::string lab_text(const store::LabIdentity& lab, bool with_date) {
+  return with_date ? fmt::format("\"{}\" (created {})", lab.name, lab.created_at) : fmt::format("\"{}\"", lab.name);
+}
+
+/// Refuses to put one lab's records in place of another's unless asked to in so many words.
+void require_same_lab(const RestoreRequest& r, const std::optional<store::LabIdentity>& replaced,
+                      const std::optional<store::LabIdentity>& backup) {
+  if (!replaced || !backup || *replaced == *backup || r.other_lab) return;
+  // Same name, different creation: two databases started apart, which the dates tell apart.
+  const bool dates = replaced->name == backup->name;
+  throw InputError(
+      fmt::format("backup \"{}\" holds the records of lab {}, but database \"{}\" holds those of lab {}; "
+                  "add --other-lab to replace one lab's records with the other's.",
+                  r.file.string(), lab_text(*backup, dates), r.db_path.string(), lab_text(*replaced, dates)));
+}
+
+void record_restore(store::Database& restored, const store::Actor& actor, const RestoreRequest& r,
+                    const RestoreOutcome& out, const std::string& backup_sha256) {
+  SQLite::Transaction tx(restored.sql(), SQLite::TransactionBehavior::IMMEDIATE);
+  store::Recorder rec(restored.sql(), actor);
+  const auto& d = out.difference;
+  rec.insert("restores",
+             {{"backup_file", std::filesystem::absolute(r.file).lexically_normal().string()},
+              {"backup_sha256", backup_sha256},
+              {"backup_records", d.second_records},
+              {"backup_last_hash", d.second_last_hash.empty() ? store::genesis_hash() : d.second_last_hash},
+              {"replaced_records", out.replaced_existing ? store::Value(d.first_records) : store::Value()},
+              {"replaced_last_hash",
+               out.replaced_existing && !d.first_last_hash.empty() ? store::Value(d.first_last_hash) : store::Value()},
+              {"common_records", d.common},
+              {"removed_records", out.replaced_existing ? d.first_only() : std::int64_t{0}},
+              {"safety_copy", out.replaced_existing ? store::Value(out.previous_saved.string()) : store::Value()},
+              {"reason", r.reason},
+              {"by_name", actor.name},
+              {"recorded_at", rec.now()},
+              {"os_user", actor.os_user}},
+             {"id"}, r.reason);
+  tx.commit();
+}
+
+}  // namespace
+
+RestoreOutcome restore_database(const RestoreRequest& r, const store::Actor& actor) {
+  const auto& db_path = r.db_path;
+  const auto& file = r.file;
+  if (r.reason.find_first_not_of(" \t") == std::string::npos)
+    throw InputError("--reason must say why the database is restored (it is recorded in the restored trail).");
   if (!std::filesystem::exists(file))
     throw InputError(fmt::format("restore FILE \"{}\" does not exist.", file.string()));
   const bool exists = std::filesystem::exists(db_path);
   if (exists && std::filesystem::equivalent(file, db_path))
     throw InputError(fmt::format("restore FILE \"{}\" is the database itself.", file.string()));
-  if (exists && !force)
-    throw InputError(fmt::format("database \"{}\" exists and restore would replace it; add --force (its present content "
-                                 "is saved beside it first).",
-                                 db_path.string()));
+  if (exists && !r.force)
+    throw InputError(
+        fmt::format("database \"{}\" exists and restore would replace it; add --force (its present content "
+                    "is saved beside it first).",
+                    db_path.string()));
   RestoreOutcome out;
   out.source = check_copy(file);
   if (!out.source.ok) return out;
+  const std::string backup_sha256 = store::sha256_of_file(file, "restore FILE");
   try {
+    SQLite::Database source(file.string(), SQLite::OPEN_READONLY);
+    out.backup_lab = store::lab_identity(source);
     if (exists) {
-      out.replaced_existing = true;
       SQLite::Database current(db_path.string(), SQLite::OPEN_READWRITE);
       current.setBusyTimeout(30000);
-      out.previous_records = current.execAndGet("SELECT count(*) FROM audit_log").getInt64();
-      out.previous_saved = db_path.string() + ".before-restore-" + stamp_for_file_name();
+      out.replaced_lab = store::lab_identity(current);
+      require_same_lab(r, out.replaced_lab, out.backup_lab);
+      out.replaced_existing = true;
+      if (current.tableExists("audit_log")) out.difference = store::compare_trails(current, source);
+      out.previous_records = out.difference.first_records;
+      out.previous_saved =
+          store::create_unique_private_file(db_path.string() + ".before-restore-" + stamp_for_file_name());
       {
-        SQLite::Database saved(out.previous_saved.string(), SQLite::OPEN_READWRITE | SQLite::OPEN_CREATE);
+        SQLite::Database saved(out.previous_saved.string(), SQLite::OPEN_READWRITE);
         copy_pages(current, saved);
         saved.exec("PRAGMA journal_mode = DELETE");
       }
-      SQLite::Database source(file.string(), SQLite::OPEN_READONLY);
       copy_pages(source, current);
     } else {
+      out.difference.second_records = source.execAndGet("SELECT count(*) FROM audit_log").getInt64();
+      out.difference.second_last_hash = out.source.audit.last_hash;
       if (db_path.has_parent_path()) std::filesystem::create_directories(db_path.parent_path());
-      SQLite::Database source(file.string(), SQLite::OPEN_READONLY);
-      SQLite::Database target(db_path.string(), SQLite::OPEN_READWRITE | SQLite::OPEN_CREATE);
+      if (!store::create_private_file(db_path))
+        throw InputError(fmt::format("database \"{}\" appeared while restoring; nothing restored.", db_path.string()));
+      SQLite::Database target(db_path.string(), SQLite::OPEN_READWRITE);
       copy_pages(source, target);
     }
   } catch (const SQLite::Exception& e) {
-    throw StorageError(fmt::format("restore of \"{}\" from \"{}\" failed: {}", db_path.string(), file.string(), e.what()));
+    throw StorageError(
+        fmt::format("restore of \"{}\" from \"{}\" failed: {}", db_path.string(), file.string(), e.what()));
   }
-  // Opening through plumb applies any newer migrations to an older backup; then the result is proved again.
+  // Opening through plumb applies any newer migrations to an older backup; the restore is recorded in the restored
+  // trail, and then the result is proved again.
   store::Database restored(db_path, store::Database::Open::existing);
+  record_restore(restored, actor, r, out, backup_sha256);
   out.after = store::verify_audit_trail(restored.sql());
   out.restored = true;
   return out;

@@ -3,10 +3,13 @@
 // snapshot while other plumb processes keep reading and writing. A copy counts only once it has passed
 // PRAGMA integrity_check and `audit verify`.
 #include <filesystem>
+#include <optional>
 #include <string>
 
 #include "store/audit_trail.hpp"
 #include "store/database.hpp"
+#include "store/recorder.hpp"
+#include "store/trail_comparison.hpp"
 
 namespace plumb::app {
 
@@ -27,18 +30,31 @@ struct BackupOutcome {
 /// written beside `file` and renamed into place only when verified.
 BackupOutcome backup_database(store::Database& db, const std::filesystem::path& file, bool force);
 
+struct RestoreRequest {
+  std::filesystem::path db_path;  ///< the database to restore into
+  std::filesystem::path file;     ///< the backup
+  bool force = false;             ///< replace an existing database
+  bool other_lab = false;         ///< ... even one whose lab is not the backup's lab
+  std::string reason;             ///< why; recorded in the restored trail
+};
+
 struct RestoreOutcome {
   CopyCheck source;                     ///< verification of the backup file, before anything was written
   bool restored = false;
   bool replaced_existing = false;
   std::filesystem::path previous_saved;  ///< where the replaced database was saved, if there was one
   std::int64_t previous_records = 0;     ///< audit records the replaced database had
+  store::TrailComparison difference;     ///< the replaced trail (first) against the backup's (second)
+  std::optional<store::LabIdentity> replaced_lab, backup_lab;
   store::AuditVerification after;        ///< the restored database, verified again once in place
 };
 
-/// Verifies `file`, then copies it over the database at `db_path` (refused when that exists, unless
-/// `force`; the replaced content is first saved beside it as DB.before-restore-TIMESTAMP).
-RestoreOutcome restore_database(const std::filesystem::path& db_path, const std::filesystem::path& file, bool force);
+/// Verifies the backup, then copies it over the database (refused when that exists, unless `force`; refused when
+/// the two belong to different labs, unless also `other_lab`). The replaced content is first saved beside it as
+/// DB.before-restore-TIMESTAMP (a new name each time, mode 0600). The restore is recorded in the restored trail
+/// (table restores): the backup file, its SHA-256 and last audit hash, who, why, and how many audit records of
+/// the replaced database the restore removed.
+RestoreOutcome restore_database(const RestoreRequest& request, const store::Actor& actor);
 
 /// Integrity check, schema version and audit verification of the database file at `path`, opened read-only.
 CopyCheck check_copy(const std::filesystem::path& path);

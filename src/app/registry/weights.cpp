@@ -3,21 +3,15 @@
 #include <SQLiteCpp/Transaction.h>
 #include <fmt/format.h>
 
-#include <array>
-#include <cmath>
-
 #include "app/registry/fields.hpp"
 #include "app/registry/lab.hpp"
+#include "app/registry/weight_in_force.hpp"
 #include "core/errors.hpp"
+#include "metrology/weight_classes.hpp"
 #include "store/repository.hpp"
+#include "store/weight_certificates.hpp"
 
 namespace plumb::app {
-namespace {
-
-constexpr std::array weight_classes{"E1", "E2", "F1", "F2", "M1", "M1-2", "M2", "M2-3", "M3"};
-
-
-}  // namespace
 
 store::WeightRecord add_weight(store::Database& db, const store::Actor& actor, const WeightInput& in) {
   validate_id(in.id, "weight id");
@@ -25,42 +19,64 @@ store::WeightRecord add_weight(store::Database& db, const store::Actor& actor, c
   w.id = in.id;
   w.nominal_text = in.nominal;
   w.nominal = positive_mass(in.nominal, "--nominal");
-  if (std::find(weight_classes.begin(), weight_classes.end(), in.weight_class) == weight_classes.end())
-    throw InputError(fmt::format("--class \"{}\" is not an OIML R 111 weight class (E1, E2, F1, F2, M1, M1-2, M2, "
-                                 "M2-3, M3).",
-                                 in.weight_class));
-  w.weight_class = in.weight_class;
+  w.weight_class = std::string(weights::to_string(weights::parse_weight_class(in.weight_class, "--class")));
   if (in.density) {
     w.density_kg_m3 = Decimal::parse(*in.density, "--density");
     if (w.density_kg_m3->to_double() < 1000 || w.density_kg_m3->to_double() > 25000)
       throw InputError(fmt::format("--density \"{}\" kg/m3 is outside the range of weight materials (1000-25000).",
                                    *in.density));
   }
-  w.current.certificate_no = in.certificate;
-  if (in.certificate.empty()) throw InputError("--certificate must give the weight's calibration certificate number.");
-  w.current.correction = ExactMass::parse(in.correction, "--correction");
-  w.current.uncertainty = positive_mass(in.uncertainty, "--uncertainty");
-  w.current.k = Decimal::parse(in.k, "--k");
-  if (w.current.k.to_double() < 1 || w.current.k.to_double() > 10)
-    throw InputError(fmt::format("--k \"{}\" is not a plausible coverage factor (1 to 10).", in.k));
-  w.current.calibrated_on = parse_date(in.calibrated, "--calibrated");
-  w.current.due_on = parse_date(in.due, "--due");
-  if (days_between(w.current.calibrated_on, w.current.due_on) <= 0)
-    throw InputError(fmt::format("--due {} is not after --calibrated {}.", in.due, in.calibrated));
-  const Decimal nominal_g = w.nominal.in_grams();
-  const Decimal correction_g = w.current.correction.in_grams();
-  if (std::abs(correction_g.to_double()) > 0.01 * nominal_g.to_double())
-    throw InputError(fmt::format("--correction {} is more than 1 % of the nominal value {}; check the unit.",
-                                 in.correction, in.nominal));
+  const WeightCertificateInput typed{in.certificate, in.correction, in.uncertainty,
+                                     in.k,           in.calibrated, in.due,
+                                     in.override_reason};
+  w.current = parse_weight_certificate(typed, w.nominal);
+  auto override_record = judge_against_class(w, w.current, typed);
 
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   require_lab(db);
   if (store::find_weight(db.sql(), w.id))
-    throw InputError(fmt::format("weight id \"{}\" already exists.", w.id));
+    throw InputError(
+        fmt::format("weight id \"{}\" already exists; record a new certificate with `plumb weight recalibrate {}`.",
+                    w.id, w.id));
   store::Recorder rec(db.sql(), actor);
-  store::add_weight(rec, w);
+  const std::int64_t certificate_id = store::add_weight(rec, w);
+  if (override_record) {
+    override_record->weight_calibration_id = certificate_id;
+    store::add_weight_class_override(rec, *override_record);
+  }
   tx.commit();
   return *store::find_weight(db.sql(), w.id);
+}
+
+RecalibrationOutcome recalibrate_weight(store::Database& db, const store::Actor& actor, const std::string& id,
+                                        const WeightCertificateInput& in) {
+  SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
+  require_lab(db);
+  auto weight = store::find_weight(db.sql(), id);
+  if (!weight) throw InputError(fmt::format("weight \"{}\" is not a known reference weight.", id));
+  const store::WeightCalibration certificate = parse_weight_certificate(in, weight->nominal);
+  auto history = store::weight_certificates(db.sql(), id);
+  for (const auto& earlier : history)
+    if (earlier.certificate_no == certificate.certificate_no)
+      throw InputError(fmt::format("--certificate {} is already recorded for weight {} (calibrated {}).",
+                                   certificate.certificate_no, id, to_string(earlier.calibrated_on)));
+  auto override_record = judge_against_class(*weight, certificate, in);
+
+  store::Recorder rec(db.sql(), actor);
+  RecalibrationOutcome out;
+  out.weight = *weight;
+  out.weight.current = certificate;
+  out.weight.current.id = store::add_weight_calibration(rec, id, certificate);
+  if (override_record) {
+    override_record->weight_calibration_id = out.weight.current.id;
+    out.overridden = override_record->beyond;
+    store::add_weight_class_override(rec, *override_record);
+  }
+  tx.commit();
+  history = store::weight_certificates(db.sql(), id);
+  const store::WeightCalibration* today = certificate_in_force(history, today_utc());
+  out.in_force_today = today && today->id == out.weight.current.id;
+  return out;
 }
 
 }  // namespace plumb::app

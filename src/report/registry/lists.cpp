@@ -10,16 +10,25 @@ namespace plumb::report {
 
 using nlohmann::json;
 
-std::string weights_text(const std::vector<store::WeightRecord>& weights) {
-  constexpr const char* row = "{:<10}{:<10}{:<6}{:<22}{:<14}{:<12}\n";
-  std::string out = fmt::format(row, "id", "nominal", "class", "conventional mass (g)", "certificate", "due");
+namespace {
+
+std::string status_text(const WeightStatuses& status, const std::string& id) {
+  const auto it = status.find(id);
+  return it == status.end() ? std::string() : it->second;
+}
+
+}  // namespace
+
+std::string weights_text(const std::vector<store::WeightRecord>& weights, const WeightStatuses& status) {
+  constexpr const char* row = "{:<10}{:<10}{:<6}{:<22}{:<14}{:<12}{}\n";
+  std::string out = fmt::format(row, "id", "nominal", "class", "conventional mass (g)", "certificate", "due", "status");
   for (const auto& w : weights)
     out += fmt::format(row, w.id, w.nominal_text, w.weight_class, w.conventional_mass().in_grams().to_string(),
-                       w.current.certificate_no, to_string(w.current.due_on));
+                       w.current.certificate_no, to_string(w.current.due_on), status_text(status, w.id));
   return out;
 }
 
-json weights_json(const std::vector<store::WeightRecord>& weights) {
+json weights_json(const std::vector<store::WeightRecord>& weights, const WeightStatuses& status) {
   json j = json::array();
   for (const auto& w : weights)
     j.push_back({{"id", w.id},
@@ -32,21 +41,23 @@ json weights_json(const std::vector<store::WeightRecord>& weights) {
                  {"k", w.current.k.to_double()},
                  {"certificate", w.current.certificate_no},
                  {"calibrated_on", to_string(w.current.calibrated_on)},
-                 {"due_on", to_string(w.current.due_on)}});
+                 {"due_on", to_string(w.current.due_on)},
+                 {"status", status_text(status, w.id)}});
   return j;
 }
 
 // Exact values as stored (decimal grams), so a spreadsheet gets the certificate's digits, not a rounded float.
-std::string weights_csv(const std::vector<store::WeightRecord>& weights) {
+std::string weights_csv(const std::vector<store::WeightRecord>& weights, const WeightStatuses& status) {
   std::ostringstream out;
   CsvWriter csv(out);
   csv.header({"id", "nominal", "nominal_g", "class", "conventional_mass_g", "correction_g", "uncertainty_g", "k",
-              "certificate", "calibrated_on", "due_on"});
+              "certificate", "calibrated_on", "due_on", "status"});
   for (const auto& w : weights) {
     csv.value(w.id).text(w.nominal_text).value(w.nominal.in_grams().to_string()).value(w.weight_class);
     csv.value(w.conventional_mass().in_grams().to_string()).value(w.current.correction.in_grams().to_string());
     csv.value(w.current.uncertainty.in_grams().to_string()).value(w.current.k.to_string());
     csv.text(w.current.certificate_no).value(to_string(w.current.calibrated_on)).value(to_string(w.current.due_on));
+    csv.value(status_text(status, w.id));
     csv.end_row();
   }
   return out.str();

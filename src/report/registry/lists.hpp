@@ -1,5 +1,6 @@
 #pragma once
 // The registry lists (`plumb weight list`, `plumb balance list`) as text, JSON and CSV.
+#include <map>
 #include <nlohmann/json.hpp>
 #include <string>
 #include <vector>
@@ -8,9 +9,12 @@
 
 namespace plumb::report {
 
-std::string weights_text(const std::vector<store::WeightRecord>& weights);
-nlohmann::json weights_json(const std::vector<store::WeightRecord>& weights);
-std::string weights_csv(const std::vector<store::WeightRecord>& weights);
+/// `status`: by weight id, "in date", "overdue", "retired", ... (app::weight_statuses); a weight without one is
+/// listed with an empty status.
+using WeightStatuses = std::map<std::string, std::string>;
+std::string weights_text(const std::vector<store::WeightRecord>& weights, const WeightStatuses& status = {});
+nlohmann::json weights_json(const std::vector<store::WeightRecord>& weights, const WeightStatuses& status = {});
+std::string weights_csv(const std::vector<store::WeightRecord>& weights, const WeightStatuses& status = {});
 
 std::string balances_text(const std::vector<store::BalanceRecord>& balances);
 nlohmann::json balances_json(const std::vector<store::BalanceRecord>& balances);

@@ -1,0 +1,45 @@
+#include "app/registry/weight_details.hpp"
+
+#include <fmt/format.h>
+
+#include "app/registry/weight_in_force.hpp"
+#include "core/errors.hpp"
+#include "store/repository.hpp"
+#include "store/status_events.hpp"
+#include "store/weight_certificates.hpp"
+
+namespace plumb::app {
+namespace {
+
+std::string status_of(const report::WeightDetails& d) {
+  if (d.retirement) return "retired";
+  if (!d.in_force_id) return "no certificate in force";
+  return d.overdue ? "overdue" : "in date";
+}
+
+}  // namespace
+
+report::WeightDetails weight_details(store::Database& db, const std::string& id, Date on) {
+  report::WeightDetails d;
+  auto weight = store::find_weight(db.sql(), id);
+  if (!weight) throw InputError(fmt::format("weight \"{}\" is not a known reference weight.", id));
+  d.weight = std::move(*weight);
+  d.certificates = store::weight_certificates(db.sql(), id);
+  d.overrides = store::weight_class_overrides(db.sql(), id);
+  d.on = on;
+  if (const store::WeightCalibration* c = certificate_in_force(d.certificates, on)) {
+    d.in_force_id = c->id;
+    d.overdue = overdue_on(*c, on);
+  }
+  d.retirement = store::retirement(db.sql(), "weight", id);
+  d.status = status_of(d);
+  return d;
+}
+
+std::map<std::string, std::string> weight_statuses(store::Database& db, Date on) {
+  std::map<std::string, std::string> out;
+  for (const auto& w : store::list_weights(db.sql())) out[w.id] = weight_details(db, w.id, on).status;
+  return out;
+}
+
+}  // namespace plumb::app
