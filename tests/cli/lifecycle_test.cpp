@@ -186,10 +186,11 @@ TEST_CASE("a calibration run is corrected with a new air temperature", "[cli][li
   ok({"--db", db, "balance", "set-calibration", "BAL-C", "--class", "I", "--e", "1mg", "--tolerance", "r76",
       "--decision-rule", "simple", "--calibrate-every", "1y", "--since", "2026-01-05"},
      dir);
-  for (const auto& [id, nominal] : std::vector<std::pair<std::string, std::string>>{
-           {"W20", "20g"}, {"W50", "50g"}, {"W100", "100g"}, {"W200", "200g"}})
+  // U within a third of the OIML R 111-1:2004 E2 MPE of each weight (20 g: 0.08 mg; 50 g: 0.10 mg).
+  for (const auto& [id, nominal, u] : std::vector<std::tuple<std::string, std::string, std::string>>{
+           {"W20", "20g", "0.025mg"}, {"W50", "50g", "0.03mg"}, {"W100", "100g", "0.05mg"}, {"W200", "200g", "0.10mg"}})
     ok({"--db", db, "weight", "add", id, "--nominal", nominal, "--class", "E2", "--correction", "0mg", "--uncertainty",
-        "0.03mg", "--k", "2", "--certificate", "RC-" + id, "--calibrated", "2026-03-02", "--due", "2027-03-02"},
+        u, "--k", "2", "--certificate", "RC-" + id, "--calibrated", "2026-03-02", "--due", "2027-03-02"},
        dir);
   // The run file of tests/cli/calibration_test.cpp.
   std::string csv = "stage,part,load,position,direction,reading,unit\n";
