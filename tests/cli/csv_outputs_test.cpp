@@ -68,7 +68,10 @@ TEST_CASE("CSV outputs keep awkward text whole and disarm spreadsheet formulas",
       {"--db", db, "balance", "add", "BAL-B", "--capacity", "220g", "--readability", "0.1mg", "--every", "7d",
        "--smallest-net", "200mg", "--location", formula_location, "--since", "2026-01-05"}};
   for (const auto& s : setup) REQUIRE(run_plumb(s, dir.path()).status == 0);
-  dir.write("r.csv", "reading\n100.0003\n100.0001\n100.0002\n");
+  // Ten readings: USP <41> asks for not less than 10 replicate weighings.
+  dir.write("r.csv",
+            "reading\n100.0003\n100.0001\n100.0002\n100.0002\n100.0003\n100.0001\n100.0002\n100.0004\n"
+            "100.0002\n100.0003\n");
   REQUIRE(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
                      "2026-11-02", "--by", formula_operator},
                     dir.path())
@@ -90,7 +93,8 @@ TEST_CASE("CSV outputs keep awkward text whole and disarm spreadsheet formulas",
     REQUIRE(rows.size() == 3);
     CHECK(rows[1][column(rows, "location")] == awkward_location);
     CHECK(rows[2][column(rows, "location")] == "'" + formula_location);
-    CHECK(rows[1][column(rows, "bias_g")] == "0.00017");  // mean 100.0002 g - conventional mass 100.00003 g
+    // By hand: the ten readings sum to 1000.0023 g, mean 100.00023 g; minus the conventional mass 100.00003 g.
+    CHECK(rows[1][column(rows, "bias_g")] == "0.0002");
   }
   SECTION("history") {
     const json rows = csv_of(dir, {"--db", db, "history", "BAL-A", "--format", "csv"});
