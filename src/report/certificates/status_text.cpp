@@ -22,7 +22,12 @@ void add_wrapped(std::string& out, const std::string& text) {
 std::string certificate_status_banner(const json& status) {
   std::string out;
   const std::string state = status.value("state", "draft");
-  if (state == "superseded") {
+  if (state == "withdrawn") {
+    const json& w = status["withdrawn"];
+    add_wrapped(out, fmt::format("STATUS: WITHDRAWN on {} (recorded by {}: {}). The check it certifies was voided; "
+                                 "this certificate is no longer valid.",
+                                 field(w, "at"), field(w, "recorded_by"), field(w, "reason")));
+  } else if (state == "superseded") {
     const json& s = status["superseded"];
     add_wrapped(out, fmt::format("STATUS: SUPERSEDED by certificate {} on {} (correction recorded by {}: {}). This "
                                  "certificate is no longer valid.",
@@ -42,6 +47,8 @@ std::string certificate_status_banner(const json& status) {
 
 std::string certificate_status_summary(const json& status) {
   const std::string state = status.value("state", "draft");
+  if (state == "withdrawn")
+    return "WITHDRAWN on " + field(status["withdrawn"], "at").substr(0, 10) + ", no longer valid";
   if (state == "superseded") return "SUPERSEDED by " + field(status["superseded"], "by_certificate") + ", no longer valid";
   if (state == "approved")
     return fmt::format("APPROVED by {} on {}", field(status["approval"], "by"),
@@ -57,7 +64,9 @@ std::string certificate_review_lines(const json& status) {
                                  field(a, "by"), field(a, "at"), field(a, "meaning"), field(a, "os_user")));
   else
     out += "  Not approved yet (draft).\n";
-  if (status.value("state", "") == "superseded")
+  if (status.value("state", "") == "withdrawn")
+    add_wrapped(out, fmt::format("  Withdrawn: {}.", field(status["withdrawn"], "reason")));
+  if (status.value("superseded", json()).is_object())
     add_wrapped(out, fmt::format("  Superseded by certificate {}.", field(status["superseded"], "by_certificate")));
   return out;
 }
