@@ -2,6 +2,7 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <cmath>
 
 #include "core/errors.hpp"
@@ -20,10 +21,22 @@ Mass resolution_supported_by(Mass s) {
   return Mass::grams(10 * decade);
 }
 
+std::size_t required_readings(const TolerancePolicy& policy) {
+  return std::max(static_cast<std::size_t>(std::max(policy.required_readings(), 0)), min_readings_for_sd);
+}
+
+void require_enough_readings(std::size_t n, const TolerancePolicy& policy, std::string_view where) {
+  if (n < required_readings(policy))
+    throw InputError(fmt::format("{}: {} reading(s) given; {}.", where, n, policy.readings_basis()));
+}
+
+bool met_its_minimum(long long n, std::optional<long long> required) {
+  const long long floor = static_cast<long long>(min_readings_for_sd);
+  return n >= std::max(required.value_or(usp41::min_replicate_weighings), floor);
+}
+
 RepeatabilityResult evaluate_repeatability(const RepeatabilityInput& in) {
-  if (in.readings.size() < min_readings)
-    throw InputError(fmt::format("readings: {} reading(s) given; a repeatability check needs at least {}.",
-                                 in.readings.size(), min_readings));
+  require_enough_readings(in.readings.size(), in.policy, "readings");
   const Decimal d_exact = in.balance.readability.in_grams();
   const int d_scale = d_exact.significant_scale();
   const std::vector<Decimal> readings_g = in_grams(in.readings);
@@ -36,6 +49,8 @@ RepeatabilityResult evaluate_repeatability(const RepeatabilityInput& in) {
   const stats::ExactSummary sum = stats::summarize_exact(readings_g);
   RepeatabilityResult r;
   r.n = sum.n;
+  r.required_readings = static_cast<int>(required_readings(in.policy));
+  r.readings_basis = in.policy.readings_basis();
   r.mean = Mass::grams(sum.mean());
   r.sd = Mass::grams(sum.sd());
   r.reference = in.weight.conventional_mass.approx();
@@ -66,7 +81,8 @@ RepeatabilityResult evaluate_repeatability(const RepeatabilityInput& in) {
   if (r.n < static_cast<long long>(recommended_readings))
     r.notes.push_back(fmt::format("Only {} readings; {} or more are recommended for a repeatability SD.", r.n,
                                   recommended_readings));
-  const double load_fraction = r.reference / in.balance.capacity.approx();
+  const double load_fraction =
+      in.weight.nominal.value_or(in.weight.conventional_mass).approx() / in.balance.capacity.approx();
   if (load_fraction < usp41::test_load_min_fraction || load_fraction > 1.0)
     r.notes.push_back(fmt::format("The test load is {:.1f} % of capacity; USP <41> asks for 5 % to 100 %.",
                                   100.0 * load_fraction));

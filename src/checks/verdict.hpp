@@ -5,6 +5,7 @@
 #include <vector>
 
 #include "core/units.hpp"
+#include "metrology/usp41.hpp"
 
 namespace plumb {
 
@@ -29,13 +30,20 @@ struct TolerancePolicy {
   std::optional<ExactMass> max_sd;    ///< lab policy: repeatability SD limit
   std::optional<int> min_readings;    ///< lab policy: its own minimum of replicate weighings (default 10)
 
-  /// Replicate weighings a weekly check needs: USP <41> asks for not less than 10; a lab policy may set its own.
-  [[nodiscard]] int required_readings() const { return kind == Kind::usp41 ? 10 : min_readings.value_or(10); }
+  /// Replicate weighings a weekly check needs: USP <41> asks for not less than 10; a lab policy may set its own
+  /// (10 when it does not).
+  [[nodiscard]] int required_readings() const {
+    return kind == Kind::usp41 ? usp41::min_replicate_weighings : min_readings.value_or(usp41::min_replicate_weighings);
+  }
   /// Where that number comes from, for messages and certificates.
   [[nodiscard]] std::string readings_basis() const {
-    return kind == Kind::usp41 ? "USP <41> asks for not less than 10 replicate weighings"
-                               : min_readings ? "the lab's policy for this balance"
-                                              : "the lab's policy for this balance (10 unless it sets its own)";
+    if (kind == Kind::usp41)
+      return "USP General Chapter <41> Balances (2013 onwards) asks for not less than 10 replicate weighings";
+    if (min_readings)
+      return "the lab's policy for this balance asks for at least " + std::to_string(*min_readings) +
+             " replicate weighings";
+    return "the lab's policy for this balance sets no minimum of its own, so plumb asks for 10 replicate weighings, "
+           "as USP <41> does";
   }
 
   [[nodiscard]] std::string name() const { return kind == Kind::usp41 ? "USP <41>" : "lab limits"; }

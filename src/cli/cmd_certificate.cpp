@@ -1,10 +1,13 @@
 #include <fmt/ostream.h>
 
-#include "app/certificates/pdf.hpp"
-#include "app/certificates/review.hpp"
 #include "app/certificates/issue.hpp"
+#include "app/certificates/list.hpp"
+#include "app/certificates/pdf.hpp"
+#include "app/certificates/resolve.hpp"
+#include "app/certificates/review.hpp"
 #include "cli/command_groups.hpp"
 #include "core/errors.hpp"
+#include "report/certificates/list.hpp"
 #include "report/certificates/status_text.hpp"
 #include "report/certificates/text.hpp"
 
@@ -46,7 +49,8 @@ std::vector<Command> certificate_commands() {
   Command issue{"certificate", "issue", "issue the certificate of a check run (stored; never changes)",
                 "plumb certificate issue LAST --format text",
                 [](po::options_description& d, po::positional_options_description& p) {
-                  d.add_options()("run", po::value<std::string>()->default_value("LAST"), "run number or LAST")(
+                  d.add_options()("run", po::value<std::string>()->default_value("LAST"),
+                                  "run number or LAST (the last run recorded)")(
                       "layout", po::value<std::string>(), "certificate layout JSON (default: $PLUMB_LAYOUT or built-in)");
                   add_format_option(d, "text|json|pdf");
                   d.add_options()("output", po::value<std::string>(), "FILE.pdf for --format pdf");
@@ -65,10 +69,12 @@ std::vector<Command> certificate_commands() {
                   print_certificate(db, outcome.certificate, format, output, env);
                   return 0;
                 }};
-  Command show{"certificate", "show", "show a stored certificate by number (or by run)",
+  Command show{"certificate", "show", "show a stored certificate by number, LAST (the last issued) or run number",
                "plumb certificate show BC-2026-0001",
                [](po::options_description& d, po::positional_options_description& p) {
-                 d.add_options()("number", po::value<std::string>()->required(), "certificate number, run number or LAST");
+                 d.add_options()("number", po::value<std::string>()->required(),
+                                 "certificate number, LAST (the last certificate issued) or a run number (its "
+                                 "certificate)");
                  add_format_option(d, "text|json|pdf");
                  d.add_options()("output", po::value<std::string>(), "FILE.pdf for --format pdf");
                  p.add("number", 1);
@@ -77,7 +83,8 @@ std::vector<Command> certificate_commands() {
                  const auto format = format_of(vm, {"text", "json", "pdf"});
                  const auto output = pdf_output(vm, format);
                  auto db = env.open();
-                 print_certificate(db, app::find_certificate(db, vm["number"].as<std::string>()), format, output, env);
+                 print_certificate(db, app::resolve_certificate(db, vm["number"].as<std::string>()), format, output,
+                                   env);
                  return 0;
                }};
   Command approve{"certificate", "approve",
@@ -85,7 +92,7 @@ std::vector<Command> certificate_commands() {
                   "plumb certificate approve BC-2026-0001 --by \"Q. Manager\" --meaning \"reviewed and approved\"",
                   [](po::options_description& d, po::positional_options_description& p) {
                     d.add_options()("number", po::value<std::string>()->required(),
-                                    "certificate number, run number or LAST (positional)")(
+                                    "certificate number, LAST (the last certificate issued) or a run number")(
                         "meaning", po::value<std::string>(),
                         "what the signature means, e.g. \"reviewed and approved\" (required)");
                     add_format_option(d);
@@ -105,7 +112,55 @@ std::vector<Command> certificate_commands() {
                     print_certificate(db, c, format, std::nullopt, env);
                     return 0;
                   }};
-  return {issue, show, approve};
+  Command list{
+      "certificate",
+      "list",
+      "list certificates with their state (draft, approved, superseded, withdrawn), filtered by state, "
+      "instrument or issue date",
+      "plumb certificate list --state approved --instrument BAL-A --from 2026-01-01 --to 2026-12-31",
+      [](po::options_description& d, po::positional_options_description&) {
+        d.add_options()("state", po::value<std::string>(), "only this state: draft|approved|superseded|withdrawn")(
+            "instrument", po::value<std::string>(), "only the certificates of this instrument")(
+            "from", po::value<std::string>(), "issued on or after this date (UTC), e.g. 2026-01-01")(
+            "to", po::value<std::string>(), "issued on or before this date (UTC)");
+        add_format_option(d, "text|json|csv");
+      },
+      [](const po::variables_map& vm, Env& env) {
+        const auto format = format_of(vm, {"text", "json", "csv"});
+        auto db = env.open();
+        const auto found = app::list_certificates(db, {optional_string(vm, "state"), optional_string(vm, "instrument"),
+                                                       optional_string(vm, "from"), optional_string(vm, "to")});
+        if (format == "json")
+          env.out << report::certificate_list_json(found.items).dump(2) << "\n";
+        else if (format == "csv")
+          env.out << report::certificate_list_csv(found.items);
+        else
+          env.out << report::certificate_list_text(found.items, found.scope);
+        return 0;
+      }};
+  Command queue{"certificate",
+                "queue",
+                "the approval queue: draft certificates waiting for a reviewer, oldest first, with how long each "
+                "has waited",
+                "plumb certificate queue --instrument BAL-A",
+                [](po::options_description& d, po::positional_options_description&) {
+                  d.add_options()("instrument", po::value<std::string>(), "only the drafts of this instrument")(
+                      "on", po::value<std::string>(), "count the wait up to this date (default today, UTC)");
+                  add_format_option(d, "text|json|csv");
+                },
+                [](const po::variables_map& vm, Env& env) {
+                  const auto format = format_of(vm, {"text", "json", "csv"});
+                  auto db = env.open();
+                  const auto q = app::approval_queue(db, optional_string(vm, "instrument"), optional_string(vm, "on"));
+                  if (format == "json")
+                    env.out << report::approval_queue_json(q.items, q.on).dump(2) << "\n";
+                  else if (format == "csv")
+                    env.out << report::approval_queue_csv(q.items);
+                  else
+                    env.out << report::approval_queue_text(q.items, q.on);
+                  return 0;
+                }};
+  return {issue, show, approve, list, queue};
 }
 
 }  // namespace plumb::cli

@@ -59,6 +59,7 @@ std::vector<Command> demo_commands() {
                    pdf.string(), html.string());
         fmt::print(env.out, "\nTry: plumb --db {} due --on {} --within 14d\n     plumb --db {} check show LAST\n     plumb --db {} drift AB-01 --chart ab01-drift.png\n",
                    path.string(), to_string(summary.report_on), path.string(), path.string());
+        fmt::print(env.out, "     plumb --db {} certificate queue\n", path.string());
         return 0;
       }};
   return {demo};

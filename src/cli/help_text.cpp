@@ -49,6 +49,11 @@ const std::vector<std::string>& description() {
       "instrument displayed them.",
       "A command is a noun and, for most nouns, a verb. Bad input is refused with one sentence naming the field, "
       "line and value, exit status 2, and nothing written. Every command explains itself with --help.",
+      "Selectors: a run is named by its number or LAST, the last run recorded (check show, check correct, "
+      "certificate issue). A certificate is named by its number (BC-2026-0001), LAST, the last certificate issued, "
+      "or a run number for that run's certificate (certificate show, certificate approve, audit log "
+      "--certificate). `plumb certificate list` finds a number; `plumb certificate queue` lists the drafts "
+      "waiting for a reviewer.",
       "plumb records names as given with --by; it does not authenticate users. It supports, and does not "
       "replace, accredited calibration, legal-for-trade verification by the competent authority and the "
       "laboratory's own quality procedures. Where results are used for medicine, clinical or food weighing, "

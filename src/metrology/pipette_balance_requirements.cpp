@@ -68,9 +68,10 @@ Suitability assess(const BalanceForPipette& balance, ExactVolume test_volume) {
   }
   if (!balance.repeatability) {
     s.suitable = false;
-    s.reasons.push_back(fmt::format("balance {}: no repeatability on record; a standard deviation of at most {} "
-                                    "is needed {}",
-                                    balance.id, mg(req.repeatability_mg), where));
+    s.reasons.push_back(
+        fmt::format("balance {}: no repeatability on record from a check that counts and met its "
+                    "own minimum of readings; a standard deviation of at most {} is needed {}",
+                    balance.id, mg(req.repeatability_mg), where));
   } else if (exceeds(*balance.repeatability, req.repeatability_mg)) {
     s.suitable = false;
     s.reasons.push_back(fmt::format("balance {}: repeatability {} exceeds the {} allowed {}", balance.id,

@@ -5,7 +5,8 @@
 // are outside the table and refused.
 //
 // A balance is suitable for V when its readability d is no coarser than the table's, and its latest
-// repeatability s (from its own weekly check) is no larger than the table's. A balance with no repeatability
+// repeatability s (from its own weekly check; the caller picks a check that counts and met its own minimum
+// of readings) is no larger than the table's. A balance with no repeatability
 // on record is not suitable: the table asks for one. A standard uncertainty is checked when one is given.
 // Whether the balance is in service and in date is the caller's to supply (BalanceForPipette::in_service, due).
 #include <optional>

@@ -10,6 +10,8 @@ inline constexpr double repeatability_factor = 2000.0;  ///< m_min = 2000 * s  (
 inline constexpr double sd_floor_in_d = 0.41;           ///< s is replaced by 0.41 d when smaller
 inline constexpr double accuracy_limit_fraction = 0.001; ///< 0.10 % of the test weight's value
 inline constexpr double test_load_min_fraction = 0.05;  ///< the test weight is 5 % to 100 % of capacity
+/// Repeatability: "not less than 10 replicate weighings" of one test weight.
+inline constexpr int min_replicate_weighings = 10;
 
 /// The standard deviation USP <41> uses: max(s, 0.41 d).
 inline Mass effective_sd(Mass s, Mass d) {

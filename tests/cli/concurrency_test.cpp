@@ -14,6 +14,7 @@
 namespace {
 
 constexpr int per_writer = 200;
+constexpr int readings_per_run = 10;  // USP <41> asks for not less than 10 replicate weighings
 
 std::string slurp(const std::filesystem::path& p) {
   std::ifstream in(p);
@@ -31,7 +32,9 @@ TEST_CASE("concurrency: two writers and a reader never see a locked database", "
                                   "--readability", "0.1mg", "--every", "7d", "--smallest-net", "200mg"},
                                  dir.path())
               .status == 0);
-  dir.write("r.csv", "reading\n100.0003\n100.0001\n100.0002\n100.0004\n100.0002\n");
+  dir.write("r.csv",
+            "reading\n100.0003\n100.0001\n100.0002\n100.0004\n100.0002\n100.0003\n100.0001\n100.0002\n"
+            "100.0003\n100.0002\n");
   dir.write("race.sh", R"(set -u
 plumb="$1"; db="$2"; n="$3"
 writer() {
@@ -69,10 +72,10 @@ wait "$r"
   SQLite::Database sql(db.string(), SQLite::OPEN_READONLY);
   CHECK(sql.execAndGet("SELECT count(*) FROM check_runs WHERE instrument_id = 'BAL-A'").getInt() == per_writer);
   CHECK(sql.execAndGet("SELECT count(*) FROM check_runs WHERE instrument_id = 'BAL-B'").getInt() == per_writer);
-  CHECK(sql.execAndGet("SELECT count(*) FROM readings").getInt() == 2 * per_writer * 5);
+  CHECK(sql.execAndGet("SELECT count(*) FROM readings").getInt() == 2 * per_writer * readings_per_run);
   const auto audit = plumb::test::check_audit_chain(db);
   CHECK(audit.problem.empty());
   // Registry: lab 1, weight and certificate 2, two balances 2 x 2; then one record per run (the run, its weight
-  // and its 5 readings together).
+  // and its 10 readings together).
   CHECK(audit.rows == 7 + 2 * per_writer);
 }

@@ -3,54 +3,16 @@
 // text field that a spreadsheet would run as a formula comes back with the apostrophe that disarms it.
 #include <catch2/catch.hpp>
 
-#include <fstream>
 #include <nlohmann/json.hpp>
 
+#include "support/csv_output.hpp"
 #include "support/run_plumb.hpp"
 
 using nlohmann::json;
+using plumb::test::column;
+using plumb::test::csv_of;
 using plumb::test::run_plumb;
 using plumb::test::ScratchDir;
-
-namespace {
-
-/// The records of a CSV text as Python's csv.reader returns them.
-json parse_csv(const ScratchDir& dir, const std::string& text) {
-  dir.write("out.csv", text);
-  const auto script = dir.file("read.py");
-  dir.write("read.py",
-            "import csv, json, sys\n"
-            "with open(sys.argv[1], newline='', encoding='utf-8') as f:\n"
-            "    print(json.dumps(list(csv.reader(f, strict=True))))\n");
-  const std::string cmd = "python3 '" + script.string() + "' '" + dir.file("out.csv").string() + "' > '" +
-                          dir.file("parsed.json").string() + "'";
-  REQUIRE(std::system(cmd.c_str()) == 0);
-  std::ifstream in(dir.file("parsed.json"));
-  return json::parse(in);
-}
-
-/// Runs a CSV command; checks the exit status and that every record has the header's field count.
-json csv_of(const ScratchDir& dir, const std::vector<std::string>& args) {
-  const auto r = run_plumb(args, dir.path());
-  INFO(r.err);
-  REQUIRE(r.status == 0);
-  const json rows = parse_csv(dir, r.out);
-  REQUIRE(rows.size() >= 1);
-  for (std::size_t i = 1; i < rows.size(); ++i) {
-    INFO("record " << i << ": " << rows[i].dump());
-    CHECK(rows[i].size() == rows[0].size());
-  }
-  return rows;
-}
-
-std::size_t column(const json& rows, const std::string& name) {
-  for (std::size_t i = 0; i < rows[0].size(); ++i)
-    if (rows[0][i] == name) return i;
-  FAIL("no column " << name);
-  return 0;
-}
-
-}  // namespace
 
 TEST_CASE("CSV outputs keep awkward text whole and disarm spreadsheet formulas", "[cli][csv]") {
   ScratchDir dir;
@@ -68,7 +30,10 @@ TEST_CASE("CSV outputs keep awkward text whole and disarm spreadsheet formulas",
       {"--db", db, "balance", "add", "BAL-B", "--capacity", "220g", "--readability", "0.1mg", "--every", "7d",
        "--smallest-net", "200mg", "--location", formula_location, "--since", "2026-01-05"}};
   for (const auto& s : setup) REQUIRE(run_plumb(s, dir.path()).status == 0);
-  dir.write("r.csv", "reading\n100.0003\n100.0001\n100.0002\n");
+  // Ten readings: USP <41> asks for not less than 10 replicate weighings.
+  dir.write("r.csv",
+            "reading\n100.0003\n100.0001\n100.0002\n100.0002\n100.0003\n100.0001\n100.0002\n100.0004\n"
+            "100.0002\n100.0003\n");
   REQUIRE(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
                      "2026-11-02", "--by", formula_operator},
                     dir.path())
@@ -90,7 +55,8 @@ TEST_CASE("CSV outputs keep awkward text whole and disarm spreadsheet formulas",
     REQUIRE(rows.size() == 3);
     CHECK(rows[1][column(rows, "location")] == awkward_location);
     CHECK(rows[2][column(rows, "location")] == "'" + formula_location);
-    CHECK(rows[1][column(rows, "bias_g")] == "0.00017");  // mean 100.0002 g - conventional mass 100.00003 g
+    // By hand: the ten readings sum to 1000.0023 g, mean 100.00023 g; minus the conventional mass 100.00003 g.
+    CHECK(rows[1][column(rows, "bias_g")] == "0.0002");
   }
   SECTION("history") {
     const json rows = csv_of(dir, {"--db", db, "history", "BAL-A", "--format", "csv"});

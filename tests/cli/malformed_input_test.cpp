@@ -94,7 +94,10 @@ void run_case(const fs::path& file) {
   const auto db = plumb::test::example_lab(dir).string();
   if (prep.baseline) {
     // A baseline run so that tables other than the registry are populated too.
-    dir.write("ok.csv", "reading\n100.0003\n100.0001\n100.0002\n");
+    // Ten readings: USP <41> asks for not less than 10 replicate weighings.
+    dir.write("ok.csv",
+              "reading\n100.0003\n100.0001\n100.0002\n100.0002\n100.0003\n100.0001\n100.0002\n100.0004\n"
+              "100.0002\n100.0003\n");
     const auto r = plumb::test::run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings",
                                            "ok.csv", "--on", "2026-11-02", "--by", "A. Technician"},
                                           dir.path());

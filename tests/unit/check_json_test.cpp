@@ -46,8 +46,11 @@ TEST_CASE("stored repeatability results text equals nlohmann's object and dump, 
     checks::RepeatabilityInput in;
     in.balance = {ExactMass::parse("220g", "cap"), ExactMass::parse("0.1mg", "d"),
                   k % 3 == 0 ? std::nullopt : std::optional(ExactMass::parse("200mg", "m"))};
-    in.weight = {"W100", ExactMass::parse("100.00003g", "w"), Mass::grams(0.05e-3), 2.0};
-    const int scatter = scatter_of(rng), n = count_of(rng), policy = policy_of(rng);
+    in.weight = {"W100", ExactMass::parse("100.00003g", "w"), Mass::grams(0.05e-3), 2.0, ExactMass::parse("100g", "n")};
+    const int scatter = scatter_of(rng), policy = policy_of(rng);
+    // USP <41> asks for not less than 10 replicate weighings; the lab policies here allow 2, so short runs
+    // are generated too.
+    const int n = policy == 0 ? std::max(count_of(rng), 10) : count_of(rng);
     for (int i = 0; i < n; ++i) {
       const int units = 1000000 + 200 + scatter * spread(rng) + k % 7;  // in 0.1 mg, about 100.02 g
       in.readings.push_back(ExactMass::grams(Decimal::parse(fmt::format("{}.{:04}", units / 10000, units % 10000))));
@@ -55,6 +58,7 @@ TEST_CASE("stored repeatability results text equals nlohmann's object and dump, 
     if (policy > 0) {
       in.policy.kind = TolerancePolicy::Kind::lab;
       in.policy.max_bias = ExactMass::parse("0.5mg", "b");
+      in.policy.min_readings = 2;
       if (policy == 2) in.policy.max_sd = ExactMass::parse("0.2mg", "s");
     }
     const auto r = checks::evaluate_repeatability(in);

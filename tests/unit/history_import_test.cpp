@@ -22,9 +22,11 @@ namespace {
 
 const store::Actor quality{"Q. Manager", "tester"};
 
+/// One run of ten readings (USP <41> asks for not less than 10 replicate weighings).
 std::string rows(const std::string& date) {
   std::string csv;
-  for (const char* r : {"100.0003", "100.0001", "100.0002"})
+  for (const char* r : {"100.0003", "100.0001", "100.0002", "100.0002", "100.0003", "100.0001", "100.0002", "100.0004",
+                        "100.0002", "100.0003"})
     csv += std::string("BAL-H,repeatability,") + date + ",A. Technician,W1," + r + ",g\n";
   return csv;
 }
@@ -83,7 +85,7 @@ TEST_CASE("imported runs are traced to the certificate valid on their date", "[i
     app::import_history(db, quality, dir.file("late.csv"), "late.csv");
     FAIL("the import should have been refused");
   } catch (const InputError& e) {
-    CHECK_THAT(e.what(), Catch::Contains("late.csv line 8 (run of BAL-H on 2025-01-20)"));
+    CHECK_THAT(e.what(), Catch::Contains("late.csv line 22 (run of BAL-H on 2025-01-20)"));
     CHECK_THAT(e.what(), Catch::Contains("W1 was due for calibration on 2025-01-10"));
   }
   SQLite::Statement count(db.sql(), "SELECT count(*) FROM check_runs");
@@ -100,12 +102,13 @@ TEST_CASE("a long import goes through both threads in file order, all or nothing
   store::Database db(dir.file("lab.db"), store::Database::Open::create);
   lab_with_weight(db, "C-1");
   for (int k = 0; k < 10; ++k) add_usp41_balance(db, "BAL-" + std::to_string(k), "7d", "2024-01-15");
-  // Run k: balance k % 10, day k / 10 after 2024-02-01, three readings whose last digit follows k.
+  // Run k: balance k % 10, day k / 10 after 2024-02-01, ten readings (USP <41>: not less than 10) whose last
+  // digit follows k.
   const auto file_of = [](int runs, int bad_run) {
     std::string csv = "instrument,procedure,date,operator,weight,reading,unit\n";
     for (int k = 0; k < runs; ++k) {
       const std::string date = to_string(add_days(parse_date("2024-02-01"), k / 10));
-      for (int r = 0; r < 3; ++r) {
+      for (int r = 0; r < 10; ++r) {
         const std::string reading = k == bad_run && r == 2 ? "100.00001" : "100.000" + std::to_string((k + r) % 10);
         csv += fmt::format("BAL-{},repeatability,{},A. Technician,W1,{},g\n", k % 10, date, reading);
       }
@@ -115,10 +118,10 @@ TEST_CASE("a long import goes through both threads in file order, all or nothing
   dir.write("long.csv", file_of(2000, -1));
   const auto report = app::import_history(db, quality, dir.file("long.csv"), "long.csv");
   REQUIRE(report.runs == 2000);
-  CHECK(report.readings == 6000);
+  CHECK(report.readings == 20000);
   const auto count = [&](const std::string& sql) { return db.sql().execAndGet(sql).getInt64(); };
   CHECK(count("SELECT count(*) FROM check_runs") == 2000);
-  CHECK(count("SELECT count(*) FROM readings") == 6000);
+  CHECK(count("SELECT count(*) FROM readings") == 20000);
   // Run ids follow the file: run k is id first + k, on balance k % 10, with the readings of the file.
   long long misplaced = 0;
   SQLite::Statement q(db.sql(), "SELECT r.id, r.instrument_id, r.performed_on, d.seq, d.text FROM check_runs r "
@@ -139,7 +142,7 @@ TEST_CASE("a long import goes through both threads in file order, all or nothing
               "CAST(substr(row_key, 4) AS INTEGER) <> CAST(substr(before, 4) AS INTEGER) + 1") == 0);
   CHECK(store::verify_audit_trail(db.sql()).ok());
 
-  // A reading finer than the readability, the third of run 1,900 (line 2 + 3 x 1,900 + 2 = 5,704): refused
+  // A reading finer than the readability, the third of run 1,900 (line 2 + 10 x 1,900 + 2 = 19,004): refused
   // with its line, nothing written.
   const auto trail = count("SELECT count(*) FROM audit_log");
   dir.write("bad.csv", file_of(2000, 1900));
@@ -147,7 +150,7 @@ TEST_CASE("a long import goes through both threads in file order, all or nothing
     app::import_history(db, quality, dir.file("bad.csv"), "bad.csv");
     FAIL("the import should have been refused");
   } catch (const InputError& e) {
-    CHECK_THAT(e.what(), Catch::Contains("bad.csv line 5704"));
+    CHECK_THAT(e.what(), Catch::Contains("bad.csv line 19004"));
   }
   CHECK(count("SELECT count(*) FROM check_runs") == 2000);
   CHECK(count("SELECT count(*) FROM audit_log") == trail);

@@ -23,7 +23,7 @@ namespace {
 RepeatabilityInput example(const std::vector<const char*>& readings) {
   RepeatabilityInput in;
   in.balance = {ExactMass::parse("220g", "cap"), ExactMass::parse("0.1mg", "d"), ExactMass::parse("200mg", "m")};
-  in.weight = {"W100", ExactMass::parse("100.00003g", "w"), Mass::grams(0.05e-3), 2.0};
+  in.weight = {"W100", ExactMass::parse("100.00003g", "w"), Mass::grams(0.05e-3), 2.0, ExactMass::parse("100g", "n")};
   for (const char* r : readings) in.readings.push_back(ExactMass::parse(r, "reading"));
   return in;
 }
@@ -91,9 +91,68 @@ TEST_CASE("lab limits: bias beyond the limit and an unsuitable weight both fail 
   CHECK_THAT(r.reasons[1], Catch::Contains("unsuitable"));
 }
 
-TEST_CASE("readings finer than the readability and too few readings are refused", "[repeatability]") {
-  CHECK_THROWS_AS(evaluate_repeatability(example({"100.00031", "100.0002"})), InputError);
-  CHECK_THROWS_AS(evaluate_repeatability(example({"100.0002"})), InputError);
+TEST_CASE("a reading finer than the readability is refused with its place", "[repeatability]") {
+  CHECK_THROWS_WITH(evaluate_repeatability(example({"100.0003", "100.00031", "100.0002", "100.0004", "100.0002",
+                                                    "100.0003", "100.0001", "100.0002", "100.0003", "100.0002"})),
+                    Catch::Contains("reading 2") && Catch::Contains("100.00031"));
+}
+
+TEST_CASE("USP <41>: not less than 10 replicate weighings, and nine are refused naming the chapter",
+          "[repeatability][usp41][min-readings]") {
+  // USP General Chapter <41> Balances (2013 onwards, as summarised in shared/reference-data/README.md, from
+  // memory): repeatability is assessed from not less than 10 replicate weighings.
+  const std::vector<const char*> ten{"100.0003", "100.0001", "100.0002", "100.0004", "100.0002",
+                                     "100.0003", "100.0001", "100.0002", "100.0003", "100.0002"};
+  const auto r = evaluate_repeatability(example(ten));
+  CHECK(r.required_readings == 10);
+  CHECK_THAT(r.readings_basis, Catch::Contains("USP General Chapter <41>") && Catch::Contains("not less than 10"));
+  const std::vector<const char*> nine(ten.begin(), ten.end() - 1);
+  CHECK_THROWS_WITH(evaluate_repeatability(example(nine)),
+                    Catch::Contains("9 reading(s) given") && Catch::Contains("USP General Chapter <41>"));
+  CHECK_THROWS_AS(evaluate_repeatability(example({"100.0002", "100.0003", "100.0002"})), InputError);
+}
+
+TEST_CASE("a lab policy sets its own minimum of readings, never below the two an SD needs",
+          "[repeatability][min-readings]") {
+  // Three readings 100.0002, 100.0004, 100.0003 (by hand): mean 100.0003 g, s = 0.1 mg exactly.
+  auto in = example({"100.0002", "100.0004", "100.0003"});
+  in.policy.kind = TolerancePolicy::Kind::lab;
+  in.policy.max_bias = ExactMass::parse("0.5mg", "b");
+  // Without a minimum of its own a lab policy asks for 10, as USP <41> does.
+  CHECK_THROWS_WITH(evaluate_repeatability(in),
+                    Catch::Contains("3 reading(s) given") && Catch::Contains("sets no minimum of its own"));
+  in.policy.min_readings = 3;
+  const auto r = evaluate_repeatability(in);
+  CHECK(r.required_readings == 3);
+  CHECK_THAT(r.readings_basis, Catch::Contains("lab's policy") && Catch::Contains("at least 3"));
+  CHECK_THAT(r.sd, mass_near(mg(0.1), ug(1e-6)));
+  // Fewer than 10 readings is allowed by this policy, and noted.
+  REQUIRE(r.notes.size() == 1);
+  CHECK_THAT(r.notes[0], Catch::Contains("Only 3 readings"));
+  in.policy.min_readings = 4;
+  CHECK_THROWS_WITH(evaluate_repeatability(in), Catch::Contains("3 reading(s) given") && Catch::Contains("at least 4"));
+  // The statistical floor: a policy of one reading (the store refuses it; the check does not rely on that)
+  // still needs two, since an SD of one reading is undefined.
+  in.policy.min_readings = 1;
+  CHECK(required_readings(in.policy) == min_readings_for_sd);
+  in.readings.resize(1);
+  CHECK_THROWS_AS(evaluate_repeatability(in), InputError);
+}
+
+TEST_CASE("the share of capacity is judged on the weight's nominal mass, not its conventional mass",
+          "[repeatability][capacity]") {
+  // A 200 g weight of conventional mass 200.00005 g on a 200 g balance is a full-capacity load (100 %), not a
+  // load above capacity: no note about the 5 % to 100 % range of USP <41>. Without the nominal, the
+  // conventional mass is 100.000025 % of capacity and the note appears.
+  auto in = example({"200.0003", "200.0001", "200.0002", "200.0004", "200.0002", "200.0003", "200.0001", "200.0002",
+                     "200.0003", "200.0002"});
+  in.balance.capacity = ExactMass::parse("200g", "cap");
+  in.weight = {"W200", ExactMass::parse("200.00005g", "w"), Mass::grams(0.08e-3), 2.0, ExactMass::parse("200g", "n")};
+  CHECK(evaluate_repeatability(in).notes.empty());
+  in.weight.nominal.reset();
+  const auto without = evaluate_repeatability(in);
+  REQUIRE(without.notes.size() == 1);
+  CHECK_THAT(without.notes[0], Catch::Contains("5 % to 100 %"));
 }
 
 TEST_CASE("resolution supported by a repeatability SD follows the 1-2-5 series", "[repeatability]") {
@@ -111,7 +170,7 @@ TEST_CASE("boundaries: a bias exactly at the lab limit passes, one digit beyond 
   // w = 0): a result exactly on its limit passes. With the limit one digit lower (0.2 mg) it fails.
   auto in = example({"100.0002", "100.0004", "100.0002", "100.0004", "100.0002", "100.0004", "100.0002", "100.0004",
                      "100.0002", "100.0004"});
-  in.weight = {"W100", ExactMass::parse("100.0000g", "w"), Mass::grams(0.01e-3), 2.0};
+  in.weight = {"W100", ExactMass::parse("100.0000g", "w"), Mass::grams(0.01e-3), 2.0, ExactMass::parse("100g", "n")};
   in.policy.kind = TolerancePolicy::Kind::lab;
   in.policy.max_bias = ExactMass::parse("0.3mg", "b");
   const auto at_limit = evaluate_repeatability(in);

@@ -273,10 +273,13 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
                                    "of {} allows.",
                                    in.readings_source, r.line, r.reading.text, to_string(r.reading.unit),
                                    balance->readability.to_string(), balance->id));
-    if (r.reading.mass() > balance->capacity)
-      throw InputError(fmt::format("{} line {} column reading: \"{}\" {} exceeds the capacity {} of {}.",
-                                   in.readings_source, r.line, r.reading.text, to_string(r.reading.unit),
-                                   balance->capacity.to_string(), balance->id));
+    // Capacity is judged on the load (its nominal mass, in load_of), not on the reading: a full-capacity load on
+    // a balance that reads high is within its range, and its error of indication is what the run is for.
+    if (r.reading.mass() < ExactMass{})
+      throw InputError(
+          fmt::format("{} line {} column reading: \"{}\" {} is negative, which no load on the pan can "
+                      "show; check the tare and the file.",
+                      in.readings_source, r.line, r.reading.text, to_string(r.reading.unit)));
     if (r.stage == "as-found") as_found_seen = true;
     else if (!as_found_seen)
       throw InputError(fmt::format("{} line {} column stage: as-left readings come before any as-found reading; "

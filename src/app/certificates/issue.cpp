@@ -137,15 +137,4 @@ store::CertificateRecord issue_certificate_in(store::Database& db, store::Record
   return cert;
 }
 
-store::CertificateRecord find_certificate(store::Database& db, const std::string& selector) {
-  if (auto c = store::find_certificate(db.sql(), selector)) return *c;
-  if (selector == "LAST" || std::all_of(selector.begin(), selector.end(), ::isdigit)) {
-    const std::int64_t run_id = resolve_run(db, selector);
-    if (auto c = store::certificate_for_run(db.sql(), run_id)) return *c;
-    throw InputError(fmt::format("run {} has no certificate yet; issue one with `plumb certificate issue {}`.",
-                                 run_id, run_id));
-  }
-  throw InputError(fmt::format("certificate \"{}\" does not exist.", selector));
-}
-
 }  // namespace plumb::app

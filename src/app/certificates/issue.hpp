@@ -32,7 +32,4 @@ store::CertificateRecord issue_certificate_in(store::Database& db, store::Record
 /// The run that corrected (superseded) `run_id`, if any.
 std::optional<store::RunRecord> superseding_run(store::Database& db, std::int64_t run_id);
 
-/// A stored certificate by number, or by run ("LAST" / run number) when `selector` is not a number.
-store::CertificateRecord find_certificate(store::Database& db, const std::string& selector);
-
 }  // namespace plumb::app

@@ -5,7 +5,8 @@
 
 #include <cctype>
 
-#include "app/certificates/issue.hpp"
+#include "app/certificates/resolve.hpp"
+#include "app/certificates/state.hpp"
 #include "core/errors.hpp"
 #include "store/repository.hpp"
 #include "store/status_events.hpp"
@@ -35,7 +36,11 @@ std::string normalized(const std::string& name) {
 bool same_person(const std::string& a, const std::string& b) { return normalized(a) == normalized(b); }
 
 json certificate_status(store::Database& db, const store::CertificateRecord& c) {
-  json status = {{"state", "draft"}, {"approval", nullptr}, {"superseded", nullptr}, {"replaces", nullptr}};
+  json status = {{"state", "draft"},
+                 {"approval", nullptr},
+                 {"superseded", nullptr},
+                 {"withdrawn", nullptr},
+                 {"replaces", nullptr}};
   for (const auto& e : store::certificate_events(db.sql(), c.id)) {
     if (e.event == "approved")
       status["approval"] = {{"by", e.by_name}, {"at", e.recorded_at}, {"meaning", e.meaning}, {"os_user", e.os_user}};
@@ -49,12 +54,10 @@ json certificate_status(store::Database& db, const store::CertificateRecord& c) 
   }
   if (c.supersedes)
     if (auto old = store::find_certificate_by_id(db.sql(), *c.supersedes)) status["replaces"] = old->number;
-  status["withdrawn"] = nullptr;
-  if (const auto w = store::certificate_withdrawal(db.sql(), c.id))
-    status["withdrawn"] = {{"by", w->by_name}, {"at", w->recorded_at}, {"reason", w->reason}};
-  if (!status["withdrawn"].is_null()) status["state"] = "withdrawn";
-  else if (!status["superseded"].is_null()) status["state"] = "superseded";
-  else if (!status["approval"].is_null()) status["state"] = "approved";
+  if (auto w = store::certificate_withdrawal(db.sql(), c.id))
+    status["withdrawn"] = {{"at", w->recorded_at}, {"recorded_by", w->by_name}, {"reason", w->reason}};
+  status["state"] = std::string(state_key(certificate_state(
+      !status["approval"].is_null(), !status["superseded"].is_null(), !status["withdrawn"].is_null())));
   return status;
 }
 
@@ -71,20 +74,21 @@ store::CertificateRecord approve_certificate(store::Database& db, const store::A
     throw InputError("--meaning must state what the signature means, e.g. \"reviewed and approved\".");
   if (normalized(actor.name).empty()) throw InputError("--by must name the person approving the certificate.");
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
-  store::CertificateRecord cert = find_certificate(db, selector);
+  store::CertificateRecord cert = resolve_certificate(db, selector);
   const store::RunRecord run = *store::find_run(db.sql(), cert.run_id);
   if (same_person(actor.name, run.operator_name))
     throw InputError(fmt::format("--by \"{}\" performed check run {} of certificate {}; a certificate must be "
                                  "approved by someone other than its operator.",
                                  actor.name, run.id, cert.number));
-  if (const auto w = store::certificate_withdrawal(db.sql(), cert.id))
-    throw InputError(fmt::format("certificate {} was withdrawn on {} ({}); a withdrawn certificate cannot be "
-                                 "approved.",
-                                 cert.number, w->recorded_at, w->reason));
   if (auto done = store::certificate_event(db.sql(), cert.id, "approved"))
     throw InputError(fmt::format("certificate {} was already approved by {} on {}; an approved certificate cannot "
                                  "change.",
                                  cert.number, done->by_name, done->recorded_at));
+  if (auto withdrawn = store::certificate_withdrawal(db.sql(), cert.id))
+    throw InputError(
+        fmt::format("certificate {} was withdrawn on {} ({}); a withdrawn certificate cannot be "
+                    "approved.",
+                    cert.number, withdrawn->recorded_at, withdrawn->reason));
   if (auto gone = store::certificate_event(db.sql(), cert.id, "superseded")) {
     const auto by = gone->replaced_by ? store::find_certificate_by_id(db.sql(), *gone->replaced_by) : std::nullopt;
     throw InputError(fmt::format("certificate {} was superseded by {} ({}); review that one instead.", cert.number,

@@ -13,15 +13,16 @@
 namespace plumb::app {
 
 /// {"state": "draft"|"approved"|"superseded"|"withdrawn", "approval": {...}|null, "superseded": {...}|null,
-///  "withdrawn": {...}|null, "replaces": NUMBER|null}. Not covered by content_sha256: it is the certificate's standing today.
+///  "withdrawn": {...}|null, "replaces": NUMBER|null} (app/certificates/state.hpp says which state wins). Not
+///  covered by content_sha256: it is the certificate's standing today.
 nlohmann::json certificate_status(store::Database& db, const store::CertificateRecord& c);
 
 /// What renderers (text, JSON, PDF) receive: the stored content plus "content_sha256" and "status".
 nlohmann::json certificate_document(store::Database& db, const store::CertificateRecord& c);
 
-/// Records the approval of the certificate `selector` (number, or run number / LAST) by `actor` with the
-/// meaning of the signature. InputError (nothing written) when the approver is the run's operator, the
-/// certificate is already approved or has been superseded, or the meaning is empty.
+/// Records the approval of the certificate `selector` (number, LAST or run number: app/certificates/resolve.hpp)
+/// by `actor` with the meaning of the signature. InputError (nothing written) when the approver is the run's
+/// operator, the certificate is already approved, has been withdrawn or superseded, or the meaning is empty.
 store::CertificateRecord approve_certificate(store::Database& db, const store::Actor& actor,
                                              const std::string& selector, const std::string& meaning);
 

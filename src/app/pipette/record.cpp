@@ -11,6 +11,7 @@
 #include "app/registry/lab.hpp"
 #include "app/registry/service_status.hpp"
 #include "checks/pipette.hpp"
+#include "checks/repeatability.hpp"
 #include "core/errors.hpp"
 #include "core/readings_csv.hpp"
 #include "metrology/gravimetric.hpp"
@@ -111,6 +112,18 @@ Decimal parse_condition(const std::string& text, std::string_view field, double 
   return v;
 }
 
+/// The repeatability s a run's results give, when they measured one from at least the readings they were
+/// judged by (checks::met_its_minimum).
+std::optional<Mass> repeatability_evidence(const json& results) {
+  if (!results.contains("sd_g") || !results["sd_g"].is_number()) return std::nullopt;
+  if (!results.contains("n") || !results["n"].is_number_integer()) return std::nullopt;
+  std::optional<long long> required;
+  if (results.contains("required_readings") && results["required_readings"].is_number_integer())
+    required = results["required_readings"].get<long long>();
+  if (!checks::met_its_minimum(results["n"].get<long long>(), required)) return std::nullopt;
+  return Mass::grams(results["sd_g"].get<double>());
+}
+
 /// The balance as it stood on the run date: usable, in date, and with its latest repeatability.
 struct BalanceOnDate {
   store::BalanceRecord balance;
@@ -136,12 +149,13 @@ BalanceOnDate balance_on(store::Database& db, const std::string& id, Date on) {
                                  id, to_string(on), latest->next_due ? to_string(*latest->next_due) : "-", latest->id,
                                  to_string(latest->performed_on)));
   BalanceOnDate out{*b, *latest, std::nullopt, std::nullopt};
-  // The repeatability of ISO 8655-6 Table 1: the SD of the latest check that measured one.
+  // The repeatability of ISO 8655-6 Table 1: the SD of the latest check that measured one, counts (neither
+  // corrected nor void) and met its own minimum of readings. A short run says too little about s.
   auto runs = store::runs_of(db.sql(), id);
   for (auto it = runs.rbegin(); it != runs.rend(); ++it) {
-    if (it->performed_on > on) continue;
-    if (it->results.contains("sd_g") && it->results["sd_g"].is_number()) {
-      out.repeatability = Mass::grams(it->results["sd_g"].get<double>());
+    if (it->performed_on > on || !it->current()) continue;
+    if (auto s = repeatability_evidence(it->results)) {
+      out.repeatability = s;
       out.repeatability_run = it->id;
       break;
     }

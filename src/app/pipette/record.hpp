@@ -5,8 +5,9 @@
 //
 // The balance used must be registered and, on the run date, in service (its latest check on or before that
 // date passed) and in date (that check's next due date is not before the run date); its repeatability for
-// ISO 8655-6 Table 1 is the SD of its latest check on or before the run date that measured one
-// (results "sd_g"). An unusable or unsuitable balance refuses the run: exit 2, nothing written.
+// ISO 8655-6 Table 1 is the SD of its latest check on or before the run date that measured one (results
+// "sd_g"), counts (neither corrected nor void) and met its own minimum of readings (checks::met_its_minimum).
+// An unusable or unsuitable balance refuses the run: exit 2, nothing written.
 //
 // Weighings CSV: a header row with columns `volume` (the selected volume: 100, 100uL or 0.1mL; a bare
 // number is in uL), `channel` (optional, 1-based, default 1), `reading` (the mass exactly as displayed) and

@@ -5,7 +5,7 @@
 #include <nlohmann/json.hpp>
 #include <set>
 
-#include "app/certificates/issue.hpp"
+#include "app/certificates/resolve.hpp"
 #include "core/errors.hpp"
 #include "store/audit_trail.hpp"
 #include "store/repository.hpp"
@@ -72,7 +72,7 @@ AuditLog audit_log(store::Database& db, const AuditLogFilter& filter) {
     log.scope = "instrument " + *filter.instrument;
     log.records = of_instrument(store::audit_records(db.sql()), *filter.instrument);
   } else if (filter.certificate) {
-    const auto cert = find_certificate(db, *filter.certificate);
+    const auto cert = resolve_certificate(db, *filter.certificate);
     log.scope = "certificate " + cert.number;
     log.records = of_certificate(store::audit_records(db.sql()), cert);
   } else {

@@ -45,6 +45,11 @@ store::RunRecord build_check_run(CheckLookups& lookups, const CheckInput& in) {
     lookups.require_in_service("weight", weight.id);
   }
 
+  // Capacity is a property of the load, not of what the balance shows: a full-capacity weight on a balance that
+  // reads high is still within its range (and the bias will say how high it reads).
+  if (weight.nominal > balance->capacity)
+    throw InputError(fmt::format("--weight {}: the load {} is above the capacity {} of {}.", weight.id,
+                                 weight.nominal.to_string(), balance->capacity.to_string(), balance->id));
   const int allowed = balance->readability.in_grams().significant_scale();
   checks::RepeatabilityInput input;
   for (const auto& r : readings) {
@@ -54,18 +59,18 @@ store::RunRecord build_check_run(CheckLookups& lookups, const CheckInput& in) {
                                    in.readings_source, r.line, r.reading.text, to_string(r.reading.unit),
                                    balance->readability.to_string(), balance->id));
     const ExactMass m = r.reading.mass();
-    if (m > balance->capacity)
-      throw InputError(fmt::format("{} line {}: reading \"{}\" {} exceeds the capacity {} of {}.", in.readings_source,
-                                   r.line, r.reading.text, to_string(r.reading.unit), balance->capacity.to_string(),
-                                   balance->id));
+    if (m < ExactMass{})
+      throw InputError(
+          fmt::format("{} line {}: reading \"{}\" {} is negative, which no load on the pan can show; check the "
+                      "tare and the file.",
+                      in.readings_source, r.line, r.reading.text, to_string(r.reading.unit)));
     input.readings.push_back(m);
   }
-  if (readings.size() < checks::min_readings)
-    throw InputError(fmt::format("{}: {} reading(s); a repeatability check needs at least {}.", in.readings_source,
-                                 readings.size(), checks::min_readings));
+  checks::require_enough_readings(readings.size(), balance->policy, in.readings_source);
   input.balance = {balance->capacity, balance->readability, balance->smallest_net};
   input.weight.id = weight.id;
   input.weight.conventional_mass = weight.conventional_mass();
+  input.weight.nominal = weight.nominal;
   input.weight.expanded_uncertainty = weight.current.uncertainty.approx();
   input.weight.coverage_factor = weight.current.k.to_double();
   input.policy = balance->policy;

@@ -24,9 +24,9 @@ std::string certificate_status_banner(const json& status) {
   const std::string state = status.value("state", "draft");
   if (state == "withdrawn") {
     const json& w = status["withdrawn"];
-    add_wrapped(out, fmt::format("STATUS: WITHDRAWN on {} by {}: its check run was voided ({}). This certificate is "
-                                 "not valid and has no replacement.",
-                                 field(w, "at"), field(w, "by"), field(w, "reason")));
+    add_wrapped(out, fmt::format("STATUS: WITHDRAWN on {} (recorded by {}: {}). The check it certifies was voided; "
+                                 "this certificate is no longer valid.",
+                                 field(w, "at"), field(w, "recorded_by"), field(w, "reason")));
   } else if (state == "superseded") {
     const json& s = status["superseded"];
     add_wrapped(out, fmt::format("STATUS: SUPERSEDED by certificate {} on {} (correction recorded by {}: {}). This "
@@ -47,7 +47,8 @@ std::string certificate_status_banner(const json& status) {
 
 std::string certificate_status_summary(const json& status) {
   const std::string state = status.value("state", "draft");
-  if (state == "withdrawn") return "WITHDRAWN, not valid (" + field(status["withdrawn"], "reason") + ")";
+  if (state == "withdrawn")
+    return "WITHDRAWN on " + field(status["withdrawn"], "at").substr(0, 10) + ", no longer valid";
   if (state == "superseded") return "SUPERSEDED by " + field(status["superseded"], "by_certificate") + ", no longer valid";
   if (state == "approved")
     return fmt::format("APPROVED by {} on {}", field(status["approval"], "by"),
@@ -64,9 +65,8 @@ std::string certificate_review_lines(const json& status) {
   else
     out += "  Not approved yet (draft).\n";
   if (status.value("state", "") == "withdrawn")
-    add_wrapped(out, fmt::format("  Withdrawn on {} by {}: {}.", field(status["withdrawn"], "at"),
-                                 field(status["withdrawn"], "by"), field(status["withdrawn"], "reason")));
-  if (status.value("state", "") == "superseded")
+    add_wrapped(out, fmt::format("  Withdrawn: {}.", field(status["withdrawn"], "reason")));
+  if (status.value("superseded", json()).is_object())
     add_wrapped(out, fmt::format("  Superseded by certificate {}.", field(status["superseded"], "by_certificate")));
   return out;
 }

@@ -69,7 +69,7 @@ void balance_check_sections(const json& c, Document& doc) {
                            : 6;
   const json& weights = c.value("weights", json::array());
   doc.blocks.push_back(Heading{"Results"});
-  doc.blocks.push_back(KeyValues{
+  KeyValues results{
       {{"Number of readings n", cell(run, "n")},
        {"Mean indication", fixed_grams_field(run, "mean_g", decimals)},
        {"Reference value (conventional mass)", weights.empty() ? "-" : grams_field(weights[0], "conventional_mass_g")},
@@ -77,7 +77,13 @@ void balance_check_sections(const json& c, Document& doc) {
        {"Repeatability SD s (n - 1)", grams_field(run, "sd_g")},
        {"s / d", fmt::format("{:.2f}", run.value("sd_over_d", 0.0))},
        {"Minimum weight (USP <41>)", grams_field(run, "min_weight_g") + "  = 2000 x max(s, 0.41 d)"},
-       {"Readability", cell(run, "readability_statement")}}});
+       {"Readability", cell(run, "readability_statement")}}};
+  // Which minimum applied and why; certificates of runs recorded before it was stored go without.
+  if (run.contains("required_readings"))
+    results.rows.insert(results.rows.begin() + 1,
+                        {"Minimum number of readings",
+                         fmt::format("{}: {}", cell(run, "required_readings"), cell(run, "readings_basis"))});
+  doc.blocks.push_back(std::move(results));
 
   doc.blocks.push_back(Heading{fmt::format("Tolerances ({})", cell(run, "policy_name"))});
   Table tol{{"Criterion", "Quantity", "Measured", "Limit", "Basis", "Result"},

@@ -64,6 +64,12 @@ std::string balance_check_certificate_text(const json& c, const std::string& con
   add_line(out, "");
   add_line(out, "Results");
   add_line(out, fmt::format("  {:<38}{}", "number of readings n", field_text(run, "n")));
+  // Which minimum applied and why; certificates of runs recorded before it was stored go without.
+  if (run.contains("required_readings"))
+    for (const auto& l :
+         wrap(fmt::format("{}: {}", field_text(run, "required_readings"), field_text(run, "readings_basis")), 78,
+              fmt::format("  {:<38}", "minimum number of readings"), std::string(40, ' ')))
+      add_line(out, l);
   const int decimals = inst.contains("readability_g") && inst["readability_g"].is_string()
                            ? Decimal::parse(inst["readability_g"].get<std::string>()).significant_scale() + 2
                            : 6;

@@ -10,6 +10,8 @@ using nlohmann::json;
 nlohmann::json to_json(const checks::RepeatabilityResult& r) {
   json j = json::object();
   j["n"] = r.n;
+  j["required_readings"] = r.required_readings;
+  j["readings_basis"] = r.readings_basis;
   j["mean_g"] = r.mean.g();
   j["sd_g"] = r.sd.g();
   j["reference_g"] = r.reference.g();
@@ -65,8 +67,10 @@ std::string repeatability_results_text(const checks::RepeatabilityResult& r, std
   j.key("policy_name").value(policy_name);
   j.key("readability_g").value(r.readability.g());
   j.key("readability_statement").value(r.readability_statement);
+  j.key("readings_basis").value(r.readings_basis);
   j.key("reasons").strings(r.reasons);
   j.key("reference_g").value(r.reference.g());
+  j.key("required_readings").value(static_cast<long long>(r.required_readings));
   j.key("sd_g").value(r.sd.g());
   j.key("sd_limit_g");
   r.sd_limit ? j.value(r.sd_limit->g()) : j.null();

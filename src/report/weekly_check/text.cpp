@@ -17,6 +17,12 @@ std::string repeatability_run_text(const nlohmann::json& r) {
     weights += (weights.empty() ? "" : ", ") + w.get<std::string>();
   line(fmt::format("  reference weight   {}", weights));
   line(fmt::format("  n                  {}", r.value("n", 0)));
+  // Runs recorded before the minimum was stored have no such member; they show n alone.
+  if (r.contains("required_readings"))
+    for (const auto& l :
+         wrap(fmt::format("at least {}: {}", r.value("required_readings", 0), r.value("readings_basis", std::string())),
+              78, "  minimum n          ", "                     "))
+      line(l);
   line(fmt::format("  mean               {}", mass_text(r["mean_g"], 9)));
   line(fmt::format("  reference value    {}", mass_text(r["reference_g"], 9)));
   line(fmt::format("  bias               {} ({:+.5f} %)", mass_text(r["bias_g"]), r.value("bias_pct", 0.0)));
