@@ -13,8 +13,7 @@ std::vector<Command> lab_commands() {
                  add_by_option(d);
                },
                [](const po::variables_map& vm, Env& env) {
-                 store::Database db(env.db_path, store::Database::Open::create);
-                 app::init_lab(db, Env::actor(vm), vm["lab"].as<std::string>());
+                 app::create_lab(env.db_path, Env::actor(vm), vm["lab"].as<std::string>());
                  fmt::print(env.out, "Initialised {} for {}.\n", env.db_path.string(), vm["lab"].as<std::string>());
                  return 0;
                }};

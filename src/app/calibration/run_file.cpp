@@ -6,8 +6,10 @@
 #include <array>
 #include <map>
 
+#include "core/csv_columns.hpp"
 #include "core/errors.hpp"
 #include "core/readings_csv.hpp"
+#include "core/text_field.hpp"
 
 namespace plumb::app {
 namespace {
@@ -26,6 +28,7 @@ std::vector<CalibrationRow> parse_calibration_csv(std::string_view text, std::st
   constexpr std::array known{"stage", "part", "load", "position", "direction", "reading", "unit"};
   std::map<std::string, std::size_t> col;
   std::size_t columns = 0;
+  std::vector<std::string> header_names;
   std::vector<CalibrationRow> rows;
   std::size_t pos = text.substr(0, 3) == "\xEF\xBB\xBF" ? 3 : 0;  // byte-order mark of spreadsheet exports
   int line_no = 0;
@@ -47,7 +50,7 @@ std::vector<CalibrationRow> parse_calibration_csv(std::string_view text, std::st
         const std::string name = lower(fields[i]);
         if (std::find(known.begin(), known.end(), name) == known.end())
           throw InputError(fmt::format("{} line {}: column \"{}\" is not known (the header is {}).", source, line_no,
-                                       fields[i], calibration_csv_header));
+                                       shown_on_one_line(fields[i]), calibration_csv_header));
         if (!col.emplace(name, i).second)
           throw InputError(
               fmt::format("{} line {}: column \"{}\" appears twice in the header.", source, line_no, name));
@@ -57,11 +60,13 @@ std::vector<CalibrationRow> parse_calibration_csv(std::string_view text, std::st
           throw InputError(fmt::format("{} line {}: the header has no \"{}\" column (expected {}).", source, line_no,
                                        required, calibration_csv_header));
       columns = fields.size();
+      header_names = fields;
       continue;
     }
     if (fields.size() != columns)
       throw InputError(fmt::format("{} line {}: {} field(s) where the header has {}.", source, line_no, fields.size(),
                                    columns));
+    check_csv_text(raw, fields, header_names, source, line_no);
     const auto field = [&](const char* name) -> std::string {
       const auto it = col.find(name);
       return it == col.end() ? std::string() : fields[it->second];

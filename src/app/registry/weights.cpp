@@ -36,6 +36,7 @@ store::WeightRecord add_weight(store::Database& db, const store::Actor& actor, c
       throw InputError(fmt::format("--density \"{}\" kg/m3 is outside the range of weight materials (1000-25000).",
                                    *in.density));
   }
+  validate_free_text(in.certificate, "--certificate", false);
   w.current.certificate_no = in.certificate;
   if (in.certificate.empty()) throw InputError("--certificate must give the weight's calibration certificate number.");
   w.current.correction = ExactMass::parse(in.correction, "--correction");

@@ -5,6 +5,7 @@
 #include <fmt/ranges.h>
 
 #include "app/certificates/issue.hpp"
+#include "app/registry/fields.hpp"
 #include "app/runs/resolve.hpp"
 #include "app/weekly_check/record.hpp"
 #include "checks/procedure.hpp"
@@ -54,6 +55,7 @@ void require_correctable(const store::RunRecord& run) {
 }  // namespace
 
 CorrectionOutcome correct_check(store::Database& db, const store::Actor& actor, const CorrectionInput& in) {
+  validate_free_text(in.reason, "--reason", false);
   if (in.reason.find_first_not_of(" \t") == std::string::npos)
     throw InputError("--reason must say why the run is corrected (it is kept with the correction).");
   if (actor.name.find_first_not_of(" \t") == std::string::npos)
