@@ -1,11 +1,13 @@
 #include "app/calibration/run_file.hpp"
 
 #include <fmt/format.h>
+#include <fmt/ranges.h>
 
 #include <algorithm>
 #include <array>
 #include <map>
 
+#include "checks/eccentricity.hpp"
 #include "core/csv_columns.hpp"
 #include "core/errors.hpp"
 #include "core/readings_csv.hpp"
@@ -91,6 +93,10 @@ std::vector<CalibrationRow> parse_calibration_csv(std::string_view text, std::st
       throw InputError(fmt::format("{} line {} column position: an eccentricity reading needs its position on the "
                                    "pan (centre, front-left, ...).",
                                    source, line_no));
+    if (r.part == "eccentricity" &&
+        std::find(checks::pan_positions.begin(), checks::pan_positions.end(), r.position) == checks::pan_positions.end())
+      throw InputError(fmt::format("{} line {} column position: \"{}\" is not a position on the pan (use {}).", source,
+                                   line_no, shown_on_one_line(field("position")), fmt::join(checks::pan_positions, ", ")));
     if (r.part != "eccentricity" && !r.position.empty())
       throw InputError(fmt::format("{} line {} column position: \"{}\" is given for a {} reading; positions belong "
                                    "to eccentricity readings only.",
