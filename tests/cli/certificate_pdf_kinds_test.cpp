@@ -224,12 +224,12 @@ TEST_CASE("pipette history quantities: e_s and CV with U, worked by hand", "[cli
   r = run_plumb({"--db", db, "history", "P-07", "--quantity", "cv@100uL/ch1", "--chart", "cv.svg"}, dir.path());
   INFO(r.err);
   CHECK(r.status == 0);
-  r = run_plumb({"--db", db, "history", "P-07", "--quantity", "cv@50", "--chart", "cv50.svg"}, dir.path());
+  r = run_plumb({"--db", db, "history", "P-07", "--quantity", "cv@50uL", "--chart", "cv50.svg"}, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("no result of cv"));
   r = run_plumb({"--db", db, "history", "P-07", "--quantity", "cv@ten"}, dir.path());
   CHECK(r.status == 2);
-  CHECK_THAT(r.err, Catch::Contains("--quantity \"cv@ten\"") && Catch::Contains("not a number of uL"));
+  CHECK_THAT(r.err, Catch::Contains("--quantity \"cv@ten\"") && Catch::Contains("not a volume with its unit"));
   r = run_plumb({"--db", db, "history", "P-07", "--quantity", "bias"}, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("relative-systematic-error"));
