@@ -21,7 +21,7 @@ std::vector<Command> weight_commands() {
                     "certificate", po::value<std::string>()->required(), "calibration certificate number")(
                     "calibrated", po::value<std::string>()->required(), "calibration date, YYYY-MM-DD")(
                     "due", po::value<std::string>()->required(), "recalibration due date, YYYY-MM-DD")(
-                    "density", po::value<std::string>(), "density in kg/m3 (default: 8000, conventional)");
+                    "density", po::value<std::string>(), "density with its unit, e.g. 7950kg/m3 (default: 8000kg/m3, conventional)");
                 add_by_option(d);
                 p.add("id", 1);
               },

@@ -54,4 +54,9 @@ Decimal parse_percent_rh(std::string_view text, std::string_view field) {
   return parse_with_unit(text, field, {{"%", 0}, {"%RH", 0}, {"% RH", 0}}, "%", "relative humidity", "% or %RH");
 }
 
+Decimal parse_kg_per_cubic_metre(std::string_view text, std::string_view field) {
+  return parse_with_unit(text, field, {{"kg/m3", 0}, {"kg/m^3", 0}, {"g/cm3", 3}, {"g/cm^3", 3}}, "kg/m3", "density",
+                         "kg/m3 or g/cm3");
+}
+
 }  // namespace plumb

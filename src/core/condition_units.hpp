@@ -1,6 +1,7 @@
 #pragma once
-// Run conditions as people type them, each with its unit, like a mass: "20.5C", "1013hPa", "50%". A bare
-// number is refused, so that a temperature can never be taken for a pressure or a humidity in another unit.
+// Quantities other than masses and volumes as people type them, each with its unit like a mass: the run
+// conditions ("20.5C", "1013hPa", "50%") and a weight's density ("8000kg/m3"). A bare number is refused, so that
+// a value can never be read in a unit it was not meant in.
 #include <string_view>
 
 #include "core/decimal.hpp"
@@ -13,5 +14,7 @@ Decimal parse_celsius(std::string_view text, std::string_view field);
 Decimal parse_hectopascals(std::string_view text, std::string_view field);
 /// Relative humidity in percent: "50%", "50 %RH". Returns the percentage.
 Decimal parse_percent_rh(std::string_view text, std::string_view field);
+/// Density in kg/m3: "8000kg/m3", "8000 kg/m^3", "7.95g/cm3" (converted exactly). Returns kg/m3.
+Decimal parse_kg_per_cubic_metre(std::string_view text, std::string_view field);
 
 }  // namespace plumb

@@ -8,6 +8,7 @@
 
 #include "app/registry/fields.hpp"
 #include "app/registry/lab.hpp"
+#include "core/condition_units.hpp"
 #include "core/errors.hpp"
 #include "store/repository.hpp"
 
@@ -31,10 +32,11 @@ store::WeightRecord add_weight(store::Database& db, const store::Actor& actor, c
                                  in.weight_class));
   w.weight_class = in.weight_class;
   if (in.density) {
-    w.density_kg_m3 = Decimal::parse(*in.density, "--density");
+    w.density_kg_m3 = parse_kg_per_cubic_metre(*in.density, "--density");
     if (w.density_kg_m3->to_double() < 1000 || w.density_kg_m3->to_double() > 25000)
-      throw InputError(fmt::format("--density \"{}\" kg/m3 is outside the range of weight materials (1000-25000).",
-                                   *in.density));
+      throw InputError(fmt::format("--density \"{}\" ({} kg/m3) is outside the range of weight materials (1000 to "
+                                   "25000 kg/m3).",
+                                   *in.density, w.density_kg_m3->to_string()));
   }
   validate_free_text(in.certificate, "--certificate", false);
   w.current.certificate_no = in.certificate;
