@@ -42,8 +42,15 @@ Decimal parse_with_unit(std::string_view text, std::string_view field,
 }  // namespace
 
 Decimal parse_celsius(std::string_view text, std::string_view field) {
-  return parse_with_unit(text, field, {{"C", 0}, {"degC", 0}, {"\xC2\xB0" "C", 0}}, "C", "temperature",
-                         "C, degC or \xC2\xB0" "C");
+  return parse_with_unit(text, field,
+                         {{"C", 0},
+                          {"degC", 0},
+                          {"\xC2\xB0"
+                           "C",
+                           0}},
+                         "C", "temperature",
+                         "C, degC or \xC2\xB0"
+                         "C");
 }
 
 Decimal parse_hectopascals(std::string_view text, std::string_view field) {

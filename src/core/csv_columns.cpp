@@ -12,9 +12,8 @@ namespace plumb {
 
 std::string csv_column_key(std::string_view name) {
   std::string key(name);
-  std::transform(key.begin(), key.end(), key.begin(), [](unsigned char c) {
-    return c < 0x80 ? static_cast<char>(std::tolower(c)) : static_cast<char>(c);
-  });
+  std::transform(key.begin(), key.end(), key.begin(),
+                 [](unsigned char c) { return c < 0x80 ? static_cast<char>(std::tolower(c)) : static_cast<char>(c); });
   return key;
 }
 

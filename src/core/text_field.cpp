@@ -15,10 +15,14 @@ struct Decoded {
   std::size_t length = 1;
 };
 
-bool continuation(unsigned char b, unsigned char lo = 0x80, unsigned char hi = 0xBF) { return b >= lo && b <= hi; }
+bool continuation(unsigned char b, unsigned char lo = 0x80, unsigned char hi = 0xBF) {
+  return b >= lo && b <= hi;
+}
 
 Decoded decode(std::string_view s, std::size_t i) {
-  const auto at = [&](std::size_t k) { return i + k < s.size() ? static_cast<unsigned char>(s[i + k]) : static_cast<unsigned char>(0); };
+  const auto at = [&](std::size_t k) {
+    return i + k < s.size() ? static_cast<unsigned char>(s[i + k]) : static_cast<unsigned char>(0);
+  };
   const unsigned char b0 = at(0);
   if (b0 < 0x80) return {b0, 1};
   if (b0 >= 0xC2 && b0 <= 0xDF && continuation(at(1))) return {((b0 & 0x1F) << 6) | (at(1) & 0x3F), 2};
@@ -53,10 +57,14 @@ const char* refusal(std::int32_t c) {
 
 std::string escape(std::int32_t c) {
   switch (c) {
-    case 0x09: return "\\t";
-    case 0x0A: return "\\n";
-    case 0x0D: return "\\r";
-    default: return c < 0x80 ? fmt::format("\\x{:02X}", c) : fmt::format("\\u{:04X}", c);
+    case 0x09:
+      return "\\t";
+    case 0x0A:
+      return "\\n";
+    case 0x0D:
+      return "\\r";
+    default:
+      return c < 0x80 ? fmt::format("\\x{:02X}", c) : fmt::format("\\u{:04X}", c);
   }
 }
 

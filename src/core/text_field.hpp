@@ -13,7 +13,7 @@ namespace plumb {
 
 /// What is wrong with a text, at which character (1-based) and byte offset (0-based).
 struct TextFault {
-  std::string what;        ///< e.g. "a line break (U+000A)", "a byte that is not UTF-8 (0xFF)"
+  std::string what;  ///< e.g. "a line break (U+000A)", "a byte that is not UTF-8 (0xFF)"
   std::size_t character = 0;
   std::size_t byte = 0;
 };

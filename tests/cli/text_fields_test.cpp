@@ -16,7 +16,9 @@ namespace {
 const std::string readings =
     "reading\n100.0003\n100.0001\n100.0002\n100.0004\n100.0002\n100.0003\n100.0001\n100.0002\n100.0003\n100.0002\n";
 
-std::size_t lines_of(const std::string& s) { return static_cast<std::size_t>(std::count(s.begin(), s.end(), '\n')); }
+std::size_t lines_of(const std::string& s) {
+  return static_cast<std::size_t>(std::count(s.begin(), s.end(), '\n'));
+}
 
 }  // namespace
 
@@ -57,7 +59,9 @@ TEST_CASE("a name with a line break stored behind plumb's back is shown on one l
 TEST_CASE("text in any script is kept exactly as typed", "[cli][text_field]") {
   plumb::test::ScratchDir dir;
   const auto db = dir.file("lab.db").string();
-  const std::string lab = "\xC3\x85ngstr\xC3\xB6m-Labor M\xC3\xBC" "ller";  // Ångström-Labor Müller
+  const std::string lab =
+      "\xC3\x85ngstr\xC3\xB6m-Labor M\xC3\xBC"
+      "ller";  // Ångström-Labor Müller
   auto r = run_plumb({"--db", db, "init", "--lab", lab}, dir.path());
   REQUIRE(r.status == 0);
   CHECK_THAT(r.out, Catch::Contains(lab));

@@ -10,7 +10,9 @@ using namespace plumb;
 TEST_CASE("conditions are read with their units and converted exactly", "[condition_units]") {
   CHECK(parse_celsius("20.5C", "--water-temp") == Decimal::parse("20.5"));
   CHECK(parse_celsius("20.5 degC", "--water-temp") == Decimal::parse("20.5"));
-  CHECK(parse_celsius("20.5 \xC2\xB0" "C", "--water-temp") == Decimal::parse("20.5"));
+  CHECK(parse_celsius("20.5 \xC2\xB0"
+                      "C",
+                      "--water-temp") == Decimal::parse("20.5"));
   CHECK(parse_celsius("-5C", "--temperature") == Decimal::parse("-5"));
   CHECK(parse_hectopascals("1013.25hPa", "--pressure") == Decimal::parse("1013.25"));
   CHECK(parse_hectopascals("1013 mbar", "--pressure") == Decimal::parse("1013"));
