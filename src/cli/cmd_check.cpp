@@ -139,7 +139,9 @@ int record_pipette(const po::variables_map& vm, Env& env, const std::string& for
 
 std::vector<Command> check_commands() {
   Command record{
-      "check", "record", "record a check run from readings, compute and judge it, schedule the next",
+      "check",
+      "record",
+      "record a check run from readings, compute and judge it, schedule the next",
       "plumb check record BAL-A --procedure repeatability --weight W100 --readings readings.csv --on 2026-11-30 "
       "--by \"A. Technician\"\n  plumb check record BAL-A --procedure calibration --readings cal.csv "
       "--temperature 20.3C --pressure 1009hPa --humidity 45% --model line --on 2026-11-30 --by \"A. Technician\"\n"
@@ -148,14 +150,16 @@ std::vector<Command> check_commands() {
       [](po::options_description& d, po::positional_options_description& p) {
         d.add_options()("instrument", po::value<std::string>()->required(), "instrument id (positional)")(
             "procedure", po::value<std::string>()->default_value("repeatability"),
-            ("check procedure: " + procedures_by_instrument()).c_str())(
-            "weight", po::value<std::vector<std::string>>(), "reference weight id (repeatability)")(
+            ("check procedure: " + procedures_by_instrument()).c_str())("weight", po::value<std::vector<std::string>>(),
+                                                                        "reference weight id (repeatability)")(
             "readings", po::value<std::string>()->required(),
             "CSV with a header and a `reading` column (optional `unit`); calibration: columns stage,part,load,"
             "position,direction,reading,unit; gravimetric: also `volume` and optional `channel`; - for standard input")(
             "temperature", po::value<std::string>(), "calibration: air temperature with its unit, e.g. 20.3C")(
-            "pressure", po::value<std::string>(), "calibration and gravimetric: air pressure with its unit, e.g. 1009hPa")(
-            "humidity", po::value<std::string>(), "calibration and gravimetric: relative humidity with its unit, e.g. 45%")(
+            "pressure", po::value<std::string>(),
+            "calibration and gravimetric: air pressure with its unit, e.g. 1009hPa")(
+            "humidity", po::value<std::string>(),
+            "calibration and gravimetric: relative humidity with its unit, e.g. 45%")(
             "air-formula", po::value<std::string>()->default_value("cipm2007"), "calibration: cipm2007 | oiml-r111")(
             "model", po::value<std::string>()->default_value("line"),
             "calibration: fitted model, line | through-origin | quadratic")(
@@ -175,9 +179,12 @@ std::vector<Command> check_commands() {
         const checks::Procedure procedure = checks::parse_procedure(vm["procedure"].as<std::string>());
         refuse_other_procedures_options(vm, procedure);
         switch (procedure) {
-          case checks::Procedure::repeatability: return record_weekly_check(vm, env, format);
-          case checks::Procedure::calibration: return record_calibration(vm, env, format);
-          case checks::Procedure::gravimetric: return record_pipette(vm, env, format);
+          case checks::Procedure::repeatability:
+            return record_weekly_check(vm, env, format);
+          case checks::Procedure::calibration:
+            return record_calibration(vm, env, format);
+          case checks::Procedure::gravimetric:
+            return record_pipette(vm, env, format);
         }
         return 3;
       }};

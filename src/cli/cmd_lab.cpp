@@ -6,7 +6,9 @@
 namespace plumb::cli {
 
 std::vector<Command> lab_commands() {
-  Command init{"init", "", "create the database and record the laboratory's name",
+  Command init{"init",
+               "",
+               "create the database and record the laboratory's name",
                "plumb --db lab.db init --lab \"Example Analytical Lab\"",
                [](po::options_description& d, po::positional_options_description&) {
                  d.add_options()("lab", po::value<std::string>()->required(), "the laboratory's name");

@@ -58,7 +58,9 @@ void check_option_texts(const po::variables_map& vm, const po::positional_option
 }
 
 /// A message on one line, whatever text it quotes (a value read from a file, an older database, argv).
-std::string one_line(const char* message) { return shown_on_one_line(message); }
+std::string one_line(const char* message) {
+  return shown_on_one_line(message);
+}
 
 }  // namespace
 

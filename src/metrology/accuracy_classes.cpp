@@ -76,7 +76,9 @@ constexpr std::array<ClassificationRow, 6> kClassification{{
     {AccuracyClass::IIII, "5g", nullptr, 100, 1000},
 }};
 
-ExactMass table_mass(const char* text) { return ExactMass::parse(text, "R 76-1 Table 3"); }
+ExactMass table_mass(const char* text) {
+  return ExactMass::parse(text, "R 76-1 Table 3");
+}
 
 /// 1, 2 or 5 times a power of ten: the significant digits of e, trailing zeros dropped, are "1", "2" or "5".
 bool one_two_five(ExactMass e) {
@@ -98,7 +100,9 @@ std::string n_range(const ClassificationRow& row) {
 
 }  // namespace
 
-std::span<const ClassificationRow> classification_rows() { return kClassification; }
+std::span<const ClassificationRow> classification_rows() {
+  return kClassification;
+}
 
 std::optional<std::string> classification_fault(AccuracyClass cls, ExactMass e, ExactMass max) {
   constexpr const char* source = "OIML R 76-1:2006";

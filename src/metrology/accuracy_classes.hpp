@@ -35,10 +35,10 @@ std::string_view to_string(Verification v);
 /// checked: plumb has no Min). Transcribed from memory; class II and III each have two rows.
 struct ClassificationRow {
   AccuracyClass cls;
-  const char* e_from;     ///< smallest e of the row, inclusive ("0.001g")
-  const char* e_to;       ///< largest e, inclusive; nullptr: no upper bound
-  long long n_min;        ///< smallest n = Max / e
-  long long n_max;        ///< largest n; 0: no upper bound
+  const char* e_from;  ///< smallest e of the row, inclusive ("0.001g")
+  const char* e_to;    ///< largest e, inclusive; nullptr: no upper bound
+  long long n_min;     ///< smallest n = Max / e
+  long long n_max;     ///< largest n; 0: no upper bound
 };
 std::span<const ClassificationRow> classification_rows();
 

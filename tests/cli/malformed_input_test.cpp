@@ -5,8 +5,8 @@
 //
 // A case holds "description", "args" (with {db}), "message" (parts that stderr must contain), and optionally
 // "fixture", "files", "setup" and "stdin". JSON text is UTF-8, so a byte that is not (for the cases of text
-// that is not UTF-8) is written {byte:FF} in args, files and stdin. A fixture, tests/malformed/fixtures/<name>.json, is the lab that
-// many cases share: its own "files" and "setup", optionally a base "fixture" prepared before it, and
+// that is not UTF-8) is written {byte:FF} in args, files and stdin. A fixture, tests/malformed/fixtures/<name>.json, is
+// the lab that many cases share: its own "files" and "setup", optionally a base "fixture" prepared before it, and
 // "baseline": false when the weekly check that every case otherwise starts from must not be recorded.
 // Preparation order: the example lab, the baseline check, the fixture's files then setup (base fixture
 // first), then the case's files then setup.

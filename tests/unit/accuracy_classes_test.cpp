@@ -7,7 +7,9 @@ using namespace plumb;
 using r76::AccuracyClass;
 
 namespace {
-ExactMass g(const char* s) { return ExactMass::parse(s, "mass", MassUnit::g); }
+ExactMass g(const char* s) {
+  return ExactMass::parse(s, "mass", MassUnit::g);
+}
 }  // namespace
 
 TEST_CASE("R 76 MPE from class, e and load, in service twice initial", "[unit][r76]") {

@@ -243,11 +243,12 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
     throw InputError(fmt::format("--air-formula \"{}\" is not cipm2007 or oiml-r111.", in.air_formula));
 
   // Environment: all three conditions (the air density follows from them) or none (not measured).
-  const auto t = environment_value(in.temperature_c, "--temperature", parse_celsius, density::min_t_c, density::max_t_c, "degC",
-                                   "the range plumb accepts for a weighing room");
-  const auto p = environment_value(in.pressure_hpa, "--pressure", parse_hectopascals, density::min_pressure_hpa, density::max_pressure_hpa,
-                                   "hPa", "the plausible range of air pressure");
-  const auto h = environment_value(in.humidity_pct, "--humidity", parse_percent_rh, 0.0, 100.0, "%", "relative humidity");
+  const auto t = environment_value(in.temperature_c, "--temperature", parse_celsius, density::min_t_c, density::max_t_c,
+                                   "degC", "the range plumb accepts for a weighing room");
+  const auto p = environment_value(in.pressure_hpa, "--pressure", parse_hectopascals, density::min_pressure_hpa,
+                                   density::max_pressure_hpa, "hPa", "the plausible range of air pressure");
+  const auto h =
+      environment_value(in.humidity_pct, "--humidity", parse_percent_rh, 0.0, 100.0, "%", "relative humidity");
   const int given = (t ? 1 : 0) + (p ? 1 : 0) + (h ? 1 : 0);
   if (given != 0 && given != 3)
     throw InputError(fmt::format("--temperature, --pressure and --humidity go together (the air density needs all "

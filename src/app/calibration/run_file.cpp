@@ -93,10 +93,11 @@ std::vector<CalibrationRow> parse_calibration_csv(std::string_view text, std::st
       throw InputError(fmt::format("{} line {} column position: an eccentricity reading needs its position on the "
                                    "pan (centre, front-left, ...).",
                                    source, line_no));
-    if (r.part == "eccentricity" &&
-        std::find(checks::pan_positions.begin(), checks::pan_positions.end(), r.position) == checks::pan_positions.end())
+    if (r.part == "eccentricity" && std::find(checks::pan_positions.begin(), checks::pan_positions.end(), r.position) ==
+                                        checks::pan_positions.end())
       throw InputError(fmt::format("{} line {} column position: \"{}\" is not a position on the pan (use {}).", source,
-                                   line_no, shown_on_one_line(field("position")), fmt::join(checks::pan_positions, ", ")));
+                                   line_no, shown_on_one_line(field("position")),
+                                   fmt::join(checks::pan_positions, ", ")));
     if (r.part != "eccentricity" && !r.position.empty())
       throw InputError(fmt::format("{} line {} column position: \"{}\" is given for a {} reading; positions belong "
                                    "to eccentricity readings only.",

@@ -4,18 +4,18 @@
 #include <SQLiteCpp/Transaction.h>
 #include <fmt/format.h>
 
-#include "app/certificates/history_section.hpp"
 #include "app/calibration/certificate_content.hpp"
+#include "app/certificates/history_section.hpp"
 #include "app/pipette/certificate_content.hpp"
 #include "app/registry/lab.hpp"
 #include "app/runs/resolve.hpp"
 #include "checks/procedure.hpp"
 #include "core/errors.hpp"
-#include "report/runs/json.hpp"
 #include "report/certificates/document.hpp"
 #include "report/certificates/text.hpp"
 #include "report/document/layout.hpp"
 #include "report/document/pdf.hpp"
+#include "report/runs/json.hpp"
 #include "store/repository.hpp"
 
 namespace plumb::app {

@@ -6,15 +6,15 @@
 #include <nlohmann/json.hpp>
 #include <random>
 
+#include "app/calibration/record.hpp"
 #include "app/calibration/settings.hpp"
 #include "app/certificates/issue.hpp"
-#include "app/calibration/record.hpp"
-#include "app/pipette/registry.hpp"
 #include "app/pipette/record.hpp"
-#include "app/weekly_check/record.hpp"
-#include "app/registry/weights.hpp"
+#include "app/pipette/registry.hpp"
 #include "app/registry/balances.hpp"
 #include "app/registry/lab.hpp"
+#include "app/registry/weights.hpp"
+#include "app/weekly_check/record.hpp"
 #include "checks/pipette.hpp"
 #include "core/condition_units.hpp"
 #include "core/errors.hpp"

@@ -6,9 +6,9 @@
 
 #include <algorithm>
 
-#include "app/status/due.hpp"
-#include "app/registry/lab.hpp"
 #include "app/history/trends.hpp"
+#include "app/registry/lab.hpp"
+#include "app/status/due.hpp"
 #include "core/errors.hpp"
 #include "report/history/charts.hpp"
 #include "store/file_output.hpp"

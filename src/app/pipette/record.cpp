@@ -177,12 +177,13 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
   validate_free_text(in.operator_name, "--by");
 
   // Conditions, named by the options they came from.
-  const Decimal water = parse_condition(in.water_temperature, "--water-temp", parse_celsius, gravimetric::min_water_temperature_c,
-                                        gravimetric::max_water_temperature_c, "degC",
-                                        "the range of the gravimetric method (ISO 8655-6)");
+  const Decimal water =
+      parse_condition(in.water_temperature, "--water-temp", parse_celsius, gravimetric::min_water_temperature_c,
+                      gravimetric::max_water_temperature_c, "degC", "the range of the gravimetric method (ISO 8655-6)");
   const Decimal pressure = parse_condition(in.pressure, "--pressure", parse_hectopascals, gravimetric::min_pressure_hpa,
                                            gravimetric::max_pressure_hpa, "hPa", "a plausible laboratory air pressure");
-  const Decimal humidity = parse_condition(in.humidity, "--humidity", parse_percent_rh, 0, 100, "%RH", "a relative humidity");
+  const Decimal humidity =
+      parse_condition(in.humidity, "--humidity", parse_percent_rh, 0, 100, "%RH", "a relative humidity");
   std::optional<ExactMass> evaporation;
   if (in.evaporation) {
     const std::string& e = *in.evaporation;

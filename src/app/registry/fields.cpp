@@ -17,7 +17,8 @@ void validate_id(const std::string& id, std::string_view field) {
                     return std::isalnum(c) || c == '-' || c == '_' || c == '.';
                   });
   if (!ok)
-    throw InputError(fmt::format("{} \"{}\" is not a valid id (1-64 letters, digits, '-', '_' or '.').", field, shown_on_one_line(id)));
+    throw InputError(fmt::format("{} \"{}\" is not a valid id (1-64 letters, digits, '-', '_' or '.').", field,
+                                 shown_on_one_line(id)));
 }
 
 void validate_free_text(std::string_view text, std::string_view field, bool required) {

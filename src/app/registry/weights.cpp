@@ -34,9 +34,10 @@ store::WeightRecord add_weight(store::Database& db, const store::Actor& actor, c
   if (in.density) {
     w.density_kg_m3 = parse_kg_per_cubic_metre(*in.density, "--density");
     if (w.density_kg_m3->to_double() < 1000 || w.density_kg_m3->to_double() > 25000)
-      throw InputError(fmt::format("--density \"{}\" ({} kg/m3) is outside the range of weight materials (1000 to "
-                                   "25000 kg/m3).",
-                                   *in.density, w.density_kg_m3->to_string()));
+      throw InputError(
+          fmt::format("--density \"{}\" ({} kg/m3) is outside the range of weight materials (1000 to "
+                      "25000 kg/m3).",
+                      *in.density, w.density_kg_m3->to_string()));
   }
   validate_free_text(in.certificate, "--certificate", false);
   w.current.certificate_no = in.certificate;

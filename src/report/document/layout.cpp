@@ -56,28 +56,31 @@ void validate_layout(const json& layout, std::string_view file) {
       require_png(value, file);
     } else if (key == "signatories") {
       if (!value.is_array())
-        throw InputError(fmt::format("layout file \"{}\" field signatories: must be a list of {{\"role\", \"name\"}} "
-                                     "objects, not {}.",
-                                     file, value.type_name()));
+        throw InputError(
+            fmt::format("layout file \"{}\" field signatories: must be a list of {{\"role\", \"name\"}} "
+                        "objects, not {}.",
+                        file, value.type_name()));
       for (std::size_t i = 0; i < value.size(); ++i) {
         const std::string where = fmt::format("signatories[{}]", i);
         if (!value[i].is_object())
-          throw InputError(fmt::format("layout file \"{}\" field {}: must be an object with \"role\" and \"name\".",
-                                       file, where));
+          throw InputError(
+              fmt::format("layout file \"{}\" field {}: must be an object with \"role\" and \"name\".", file, where));
         for (const auto& [k, v] : value[i].items()) {
           if (k != "role" && k != "name")
-            throw InputError(fmt::format("layout file \"{}\" field {}.{}: is not known (a signatory has role and "
-                                         "name).",
-                                         file, where, shown_on_one_line(k)));
-          require_text(v, file, where + "." + k);
+            throw InputError(
+                fmt::format("layout file \"{}\" field {}.{}: is not known (a signatory has role and "
+                            "name).",
+                            file, where, shown_on_one_line(k)));
+          require_text(v, file, fmt::format("{}.{}", where, k));
         }
         if (!value[i].contains("role"))
           throw InputError(fmt::format("layout file \"{}\" field {}: has no \"role\".", file, where));
       }
     } else {
-      throw InputError(fmt::format("layout file \"{}\" field {}: is not known (a layout has comment, address_lines, "
-                                   "accreditation, logo_png, signatories and caution).",
-                                   file, shown_on_one_line(key)));
+      throw InputError(
+          fmt::format("layout file \"{}\" field {}: is not known (a layout has comment, address_lines, "
+                      "accreditation, logo_png, signatories and caution).",
+                      file, shown_on_one_line(key)));
     }
   }
 }
