@@ -5,8 +5,10 @@
 // error of indication at a load L follows EURAMET cg-18 (7.1.1.4, rectangular distribution):
 //   u(delta_I_ecc)(L) = |Delta_I_ecc|max / (2 L_ecc) * L / sqrt(3)
 // where |Delta_I_ecc|max is the largest |I_position - I_centre| and L_ecc the eccentricity test load.
+#include <array>
 #include <optional>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include "core/units.hpp"
@@ -25,6 +27,12 @@ struct EccentricityInput {
 };
 
 inline constexpr std::size_t min_eccentricity_positions = 4;
+
+/// The places on the pan a run file may name: the centre, then the four quarters (corners) or the four edges,
+/// where EURAMET cg-18 5.3 and OIML R 76-1 A.4.7 put the off-centre loads. A name outside this list (a typing
+/// slip such as "middle" or "font-left") is refused rather than taken for one more position.
+inline constexpr std::array<std::string_view, 9> pan_positions{
+    "centre", "front-left", "front-right", "back-left", "back-right", "front", "back", "left", "right"};
 
 struct EccentricityDeviation {
   std::string name;

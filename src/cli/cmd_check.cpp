@@ -122,9 +122,9 @@ int record_pipette(const po::variables_map& vm, Env& env, const std::string& for
   app::PipetteCheckInput in;
   in.pipette_id = vm["instrument"].as<std::string>();
   in.balance_id = required(vm, "balance", "the balance the water was weighed on");
-  in.water_temperature = required(vm, "water-temp", "the water temperature in degC");
-  in.pressure = required(vm, "pressure", "the air pressure in hPa");
-  in.humidity = required(vm, "humidity", "the relative humidity in %");
+  in.water_temperature = required(vm, "water-temp", "the water temperature, e.g. 20.5C");
+  in.pressure = required(vm, "pressure", "the air pressure, e.g. 1013hPa");
+  in.humidity = required(vm, "humidity", "the relative humidity, e.g. 50%");
   in.evaporation = optional_string(vm, "evaporation");
   in.default_unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
   in.readings_csv = read_input(vm["readings"].as<std::string>(), in.readings_source);
@@ -140,28 +140,32 @@ int record_pipette(const po::variables_map& vm, Env& env, const std::string& for
 
 std::vector<Command> check_commands() {
   Command record{
-      "check", "record", "record a check run from readings, compute and judge it, schedule the next",
+      "check",
+      "record",
+      "record a check run from readings, compute and judge it, schedule the next",
       "plumb check record BAL-A --procedure repeatability --weight W100 --readings readings.csv --on 2026-11-30 "
       "--by \"A. Technician\"\n  plumb check record BAL-A --procedure calibration --readings cal.csv "
-      "--temperature 20.3 --pressure 1009 --humidity 45 --model line --on 2026-11-30 --by \"A. Technician\"\n"
-      "  plumb check record P-07 --procedure gravimetric --balance SM-02 --water-temp 20.5 "
-      "--pressure 1013 --humidity 50 --readings weighings.csv --on 2026-11-30 --by \"A. Technician\"",
+      "--temperature 20.3C --pressure 1009hPa --humidity 45% --model line --on 2026-11-30 --by \"A. Technician\"\n"
+      "  plumb check record P-07 --procedure gravimetric --balance SM-02 --water-temp 20.5C "
+      "--pressure 1013hPa --humidity 50% --readings weighings.csv --on 2026-11-30 --by \"A. Technician\"",
       [](po::options_description& d, po::positional_options_description& p) {
         d.add_options()("instrument", po::value<std::string>()->required(), "instrument id (positional)")(
             "procedure", po::value<std::string>()->default_value("repeatability"),
-            ("check procedure: " + procedures_by_instrument()).c_str())(
-            "weight", po::value<std::vector<std::string>>(), "reference weight id (repeatability)")(
+            ("check procedure: " + procedures_by_instrument()).c_str())("weight", po::value<std::vector<std::string>>(),
+                                                                        "reference weight id (repeatability)")(
             "readings", po::value<std::string>()->required(),
             "CSV with a header and a `reading` column (optional `unit`); calibration: columns stage,part,load,"
             "position,direction,reading,unit; gravimetric: also `volume` and optional `channel`; - for standard input")(
-            "temperature", po::value<std::string>(), "calibration: air temperature, degC")(
-            "pressure", po::value<std::string>(), "calibration and gravimetric: air pressure, hPa")(
-            "humidity", po::value<std::string>(), "calibration and gravimetric: relative humidity, %")(
+            "temperature", po::value<std::string>(), "calibration: air temperature with its unit, e.g. 20.3C")(
+            "pressure", po::value<std::string>(),
+            "calibration and gravimetric: air pressure with its unit, e.g. 1009hPa")(
+            "humidity", po::value<std::string>(),
+            "calibration and gravimetric: relative humidity with its unit, e.g. 45%")(
             "air-formula", po::value<std::string>()->default_value("cipm2007"), "calibration: cipm2007 | oiml-r111")(
             "model", po::value<std::string>()->default_value("line"),
             "calibration: fitted model, line | through-origin | quadratic")(
             "balance", po::value<std::string>(), "gravimetric: the balance the water was weighed on")(
-            "water-temp", po::value<std::string>(), "gravimetric: water temperature in degC (15 to 30)")(
+            "water-temp", po::value<std::string>(), "gravimetric: water temperature with its unit, 15C to 30C")(
             "evaporation", po::value<std::string>(),
             "gravimetric: mass lost by evaporation per weighing, with unit (e.g. 0.01mg); added to each weighing")(
             "unit", po::value<std::string>()->default_value("g"), "unit of readings without a unit column")(
@@ -176,9 +180,12 @@ std::vector<Command> check_commands() {
         const checks::Procedure procedure = checks::parse_procedure(vm["procedure"].as<std::string>());
         refuse_other_procedures_options(vm, procedure);
         switch (procedure) {
-          case checks::Procedure::repeatability: return record_weekly_check(vm, env, format);
-          case checks::Procedure::calibration: return record_calibration(vm, env, format);
-          case checks::Procedure::gravimetric: return record_pipette(vm, env, format);
+          case checks::Procedure::repeatability:
+            return record_weekly_check(vm, env, format);
+          case checks::Procedure::calibration:
+            return record_calibration(vm, env, format);
+          case checks::Procedure::gravimetric:
+            return record_pipette(vm, env, format);
         }
         return 3;
       }};

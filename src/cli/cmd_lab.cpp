@@ -6,15 +6,16 @@
 namespace plumb::cli {
 
 std::vector<Command> lab_commands() {
-  Command init{"init", "", "create the database and record the laboratory's name",
+  Command init{"init",
+               "",
+               "create the database and record the laboratory's name",
                "plumb --db lab.db init --lab \"Example Analytical Lab\"",
                [](po::options_description& d, po::positional_options_description&) {
                  d.add_options()("lab", po::value<std::string>()->required(), "the laboratory's name");
                  add_by_option(d);
                },
                [](const po::variables_map& vm, Env& env) {
-                 store::Database db(env.db_path, store::Database::Open::create);
-                 app::init_lab(db, Env::actor(vm), vm["lab"].as<std::string>());
+                 app::create_lab(env.db_path, Env::actor(vm), vm["lab"].as<std::string>());
                  fmt::print(env.out, "Initialised {} for {}.\n", env.db_path.string(), vm["lab"].as<std::string>());
                  return 0;
                }};

@@ -79,7 +79,9 @@ Command show_command() {
 }  // namespace
 
 std::vector<Command> weight_commands() {
-  Command add{"weight", "add", "register a reference weight with its calibration certificate",
+  Command add{"weight",
+              "add",
+              "register a reference weight with its calibration certificate",
               "plumb weight add W100 --nominal 100g --class E2 --correction 0.03mg --uncertainty 0.05mg --k 2 "
               "--certificate RC-2291 --calibrated 2026-03-02 --due 2027-03-02",
               [](po::options_description& d, po::positional_options_description& p) {
@@ -93,7 +95,8 @@ std::vector<Command> weight_commands() {
                     "certificate", po::value<std::string>()->required(), "calibration certificate number")(
                     "calibrated", po::value<std::string>()->required(), "calibration date, YYYY-MM-DD")(
                     "due", po::value<std::string>()->required(), "recalibration due date, YYYY-MM-DD")(
-                    "density", po::value<std::string>(), "density in kg/m3 (default: 8000, conventional)");
+                    "density", po::value<std::string>(),
+                    "density with its unit, e.g. 7950kg/m3 (default: 8000kg/m3, conventional)");
                 add_override_reason_option(d);
                 add_by_option(d);
                 p.add("id", 1);

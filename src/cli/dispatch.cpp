@@ -10,6 +10,7 @@
 #include "cli/help_text.hpp"
 #include "cli/manual_page.hpp"
 #include "core/errors.hpp"
+#include "core/text_field.hpp"
 #include "plumb/version.hpp"
 
 namespace plumb::cli {
@@ -36,6 +37,29 @@ std::string describe(const po::error& e) {
   if (!what.empty()) what[0] = static_cast<char>(std::toupper(static_cast<unsigned char>(what[0])));
   if (!what.empty() && what.back() != '.') what += '.';
   return what;
+}
+
+/// Every text a command was given is checked here, before any command runs, so that no option can miss the
+/// check: a name, a reason, an id or a path with a control character or bytes that are not UTF-8 is refused,
+/// naming the option. (The app checks its free-text fields again, for callers other than this one.)
+void check_option_texts(const po::variables_map& vm, const po::positional_options_description& positional) {
+  const auto field_name = [&](const std::string& name) {
+    for (unsigned k = 0; k < positional.max_total_count() && k < 8; ++k)
+      if (positional.name_for_position(k) == name) return name;
+    return "--" + name;
+  };
+  for (const auto& [name, value] : vm) {
+    if (const auto* text = boost::any_cast<std::string>(&value.value())) {
+      check_text_field(*text, field_name(name));
+    } else if (const auto* texts = boost::any_cast<std::vector<std::string>>(&value.value())) {
+      for (const auto& t : *texts) check_text_field(t, field_name(name));
+    }
+  }
+}
+
+/// A message on one line, whatever text it quotes (a value read from a file, an older database, argv).
+std::string one_line(const char* message) {
+  return shown_on_one_line(message);
 }
 
 }  // namespace
@@ -138,21 +162,22 @@ int run(int argc, const char* const* argv, std::ostream& out, std::ostream& err)
       return 0;
     }
     po::notify(vm);
+    check_option_texts(vm, positional);
     return chosen->run(vm, env);
   } catch (const InputError& e) {
-    err << "plumb: " << e.what() << "\n";
+    err << "plumb: " << one_line(e.what()) << "\n";
     return 2;
   } catch (const po::error& e) {
-    err << "plumb: " << describe(e) << "\n";
+    err << "plumb: " << one_line(describe(e).c_str()) << "\n";
     return 2;
   } catch (const StorageError& e) {
-    err << "plumb: storage error: " << e.what() << "\n";
+    err << "plumb: storage error: " << one_line(e.what()) << "\n";
     return 3;
   } catch (const SQLite::Exception& e) {
-    err << "plumb: database error: " << e.what() << "\n";
+    err << "plumb: database error: " << one_line(e.what()) << "\n";
     return 3;
   } catch (const std::exception& e) {
-    err << "plumb: internal error: " << e.what() << "\n";
+    err << "plumb: internal error: " << one_line(e.what()) << "\n";
     return 3;
   }
 }

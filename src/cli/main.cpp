@@ -1,4 +1,5 @@
 #include <sqlite3.h>
+#include <sys/stat.h>
 
 #include <iostream>
 
@@ -8,5 +9,8 @@ int main(int argc, char** argv) {
   // Before any other SQLite call: no allocation statistics, which SQLite would otherwise keep under a global
   // mutex on every allocation (a batch import makes millions of them).
   sqlite3_config(SQLITE_CONFIG_MEMSTATUS, 0);
+  // Every file plumb creates (the database and its journal, backups, certificates, reports, charts) holds the
+  // lab's records: readable and writable by its owner only (0600; folders 0700).
+  umask(077);
   return plumb::cli::run(argc, argv, std::cout, std::cerr);
 }

@@ -4,7 +4,9 @@
 
 #include <algorithm>
 
+#include "core/csv_columns.hpp"
 #include "core/errors.hpp"
+#include "core/text_field.hpp"
 
 namespace plumb {
 namespace {
@@ -47,9 +49,10 @@ void HistoryCsvParser::read_header(const std::vector<std::string>& fields) {
                                                         : nullptr;
     if (!slot)
       throw InputError(fmt::format("{} line {}: header column \"{}\" is not known (expected {}, and optionally run).",
-                                   source_, line_, fields[i], header));
+                                   source_, line_, shown_on_one_line(fields[i]), header));
     if (*slot >= 0)
-      throw InputError(fmt::format("{} line {}: header column \"{}\" appears twice.", source_, line_, fields[i]));
+      throw InputError(
+          fmt::format("{} line {}: header column \"{}\" appears twice.", source_, line_, shown_on_one_line(fields[i])));
     *slot = static_cast<int>(i);
   }
   const std::pair<const char*, int> required[] = {{"instrument", col_instrument_}, {"procedure", col_procedure_},
@@ -61,6 +64,7 @@ void HistoryCsvParser::read_header(const std::vector<std::string>& fields) {
       throw InputError(fmt::format("{} line {}: the header has no \"{}\" column (expected {}).", source_, line_, name,
                                    header));
   columns_ = fields.size();
+  header_names_ = fields;
   have_header_ = true;
 }
 
@@ -79,6 +83,7 @@ std::optional<HistoryRun> HistoryCsvParser::feed(std::string_view line) {
   if (fields.size() != columns_)
     throw InputError(
         fmt::format("{} line {}: {} field(s) where the header has {}.", source_, line_, fields.size(), columns_));
+  check_csv_text(line, fields, header_names_, source_, line_);
   const auto field = [&](int col, const char* name) -> const std::string& {
     const std::string& v = fields[static_cast<std::size_t>(col)];
     if (v.empty()) throw InputError(fmt::format("{} line {} column {}: the value is empty.", source_, line_, name));

@@ -58,6 +58,7 @@ private:
   int line_ = 0;
   bool have_header_ = false;
   std::size_t columns_ = 0;
+  std::vector<std::string> header_names_;
   int col_instrument_ = -1, col_procedure_ = -1, col_date_ = -1, col_operator_ = -1, col_weight_ = -1,
       col_reading_ = -1, col_unit_ = -1, col_run_ = -1;
   std::optional<HistoryRun> open_;

@@ -4,6 +4,7 @@
 
 #include <algorithm>
 
+#include "core/csv_columns.hpp"
 #include "core/errors.hpp"
 
 namespace plumb {
@@ -77,6 +78,8 @@ std::vector<CsvReading> parse_readings_csv(std::string_view text, std::string_vi
   int line_no = 0;
   int reading_col = -1, unit_col = -1;
   std::size_t columns = 0;
+  std::vector<std::string> header;
+  constexpr std::string_view known[] = {"reading", "unit"};
   std::size_t pos = 0;
   if (text.substr(0, 3) == "\xEF\xBB\xBF") pos = 3;  // a UTF-8 byte-order mark from spreadsheet exports
   while (pos <= text.size()) {
@@ -93,20 +96,22 @@ std::vector<CsvReading> parse_readings_csv(std::string_view text, std::string_vi
       throw InputError(fmt::format("{} line {}: contains a NUL byte; this is not a text CSV file.", source, line_no));
     const auto fields = split_csv_line(raw);
     if (reading_col < 0) {
+      check_csv_header(fields, known, source, line_no, "reading[,unit]");
       for (std::size_t i = 0; i < fields.size(); ++i) {
-        std::string name = fields[i];
-        std::transform(name.begin(), name.end(), name.begin(), [](unsigned char c) { return std::tolower(c); });
+        const std::string name = csv_column_key(fields[i]);
         if (name == "reading") reading_col = static_cast<int>(i);
         if (name == "unit") unit_col = static_cast<int>(i);
       }
       if (reading_col < 0)
         throw InputError(fmt::format("{} line {}: the header has no \"reading\" column.", source, line_no));
       columns = fields.size();
+      header = fields;
       continue;
     }
     if (fields.size() != columns)
       throw InputError(fmt::format("{} line {}: {} field(s) where the header has {}.", source, line_no,
                                    fields.size(), columns));
+    check_csv_text(raw, fields, header, source, line_no);
     CsvReading r;
     r.line = line_no;
     const std::string where = fmt::format("{} line {} column reading: value", source, line_no);

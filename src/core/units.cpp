@@ -63,12 +63,15 @@ std::pair<std::string_view, std::string_view> split_number(std::string_view text
 
 }  // namespace
 
-ExactMass ExactMass::parse(std::string_view text, std::string_view field, MassUnit default_unit) {
+ExactMass ExactMass::parse(std::string_view text, std::string_view field, std::optional<MassUnit> default_unit) {
   const auto [number, unit] = split_number(text);
   if (number.empty())
     throw InputError(fmt::format("{} \"{}\" is not a mass (expected a number and a unit, e.g. 100g).", field, text));
   const Decimal value = Decimal::parse(number, field);
-  MassUnit u = default_unit;
+  if (unit.empty() && !default_unit)
+    throw InputError(
+        fmt::format("{} \"{}\" has no unit; write it with its unit, e.g. {}mg or {}g.", field, text, number, number));
+  MassUnit u = default_unit.value_or(MassUnit::g);
   if (!unit.empty()) {
     try {
       u = parse_mass_unit(unit, field);
@@ -79,13 +82,16 @@ ExactMass ExactMass::parse(std::string_view text, std::string_view field, MassUn
   return from(value, u);
 }
 
-ExactVolume ExactVolume::parse(std::string_view text, std::string_view field, VolumeUnit default_unit) {
+ExactVolume ExactVolume::parse(std::string_view text, std::string_view field, std::optional<VolumeUnit> default_unit) {
   const auto [number, unit] = split_number(text);
   if (number.empty())
     throw InputError(
         fmt::format("{} \"{}\" is not a volume (expected a number and uL or mL, e.g. 100uL).", field, text));
   const Decimal value = Decimal::parse(number, field);
-  VolumeUnit u = default_unit;
+  if (unit.empty() && !default_unit)
+    throw InputError(
+        fmt::format("{} \"{}\" has no unit; write it with its unit, e.g. {}uL or {}mL.", field, text, number, number));
+  VolumeUnit u = default_unit.value_or(VolumeUnit::ul);
   if (!unit.empty()) {
     try {
       u = parse_volume_unit(unit, field);

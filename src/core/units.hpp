@@ -4,6 +4,7 @@
 // can never be added to a volume or printed without its unit.
 #include <cmath>
 #include <compare>
+#include <optional>
 #include <span>
 #include <string>
 #include <string_view>
@@ -98,8 +99,10 @@ public:
   ExactMass() = default;
   static ExactMass from(Decimal value, MassUnit unit) { return ExactMass(value.shifted(exponent_to_gram(unit))); }
   static ExactMass grams(Decimal g) { return ExactMass(g); }
-  /// Parses "100g", "0.03 mg", "-0.02mg". A bare number takes `default_unit`.
-  static ExactMass parse(std::string_view text, std::string_view field, MassUnit default_unit = MassUnit::g);
+  /// Parses "100g", "0.03 mg", "-0.02mg". A bare number is refused ("0.03" might be g or mg, a factor of a
+  /// thousand), unless the caller passes the unit a documented input implies (a readings column and --unit).
+  static ExactMass parse(std::string_view text, std::string_view field,
+                         std::optional<MassUnit> default_unit = std::nullopt);
 
   [[nodiscard]] Decimal in_grams() const { return g_; }
   [[nodiscard]] Mass approx() const { return Mass::grams(g_.to_double()); }
@@ -134,8 +137,10 @@ class ExactVolume {
   }
   static ExactVolume microlitres(Decimal ul) { return ExactVolume(ul); }
   static ExactVolume millilitres(Decimal ml) { return from(ml, VolumeUnit::ml); }
-  /// Parses "100uL", "100 uL", "0.1mL". A bare number takes `default_unit`. Throws InputError naming `field`.
-  static ExactVolume parse(std::string_view text, std::string_view field, VolumeUnit default_unit = VolumeUnit::ul);
+  /// Parses "100uL", "100 uL", "0.1mL". A bare number is refused unless the caller passes the unit a documented
+  /// input implies (the volume column of a weighings file is in uL). Throws InputError naming `field`.
+  static ExactVolume parse(std::string_view text, std::string_view field,
+                           std::optional<VolumeUnit> default_unit = std::nullopt);
 
   [[nodiscard]] Decimal in_microlitres() const { return ul_; }
   [[nodiscard]] Volume approx() const { return Volume::microlitres(ul_.to_double()); }

@@ -1,10 +1,12 @@
 #include "metrology/accuracy_classes.hpp"
 
 #include <fmt/format.h>
+#include <fmt/ranges.h>
 
 #include <algorithm>
 #include <array>
 #include <string>
+#include <vector>
 
 #include "core/errors.hpp"
 
@@ -61,6 +63,67 @@ AccuracyClass parse_accuracy_class(std::string_view text, std::string_view field
 }
 
 std::span<const MpeBand> bands() { return kBands; }
+
+namespace {
+
+// OIML R 76-1:2006 Table 3, from memory.
+constexpr std::array<ClassificationRow, 6> kClassification{{
+    {AccuracyClass::I, "0.001g", nullptr, 50000, 0},
+    {AccuracyClass::II, "0.001g", "0.05g", 100, 100000},
+    {AccuracyClass::II, "0.1g", nullptr, 5000, 100000},
+    {AccuracyClass::III, "0.1g", "2g", 100, 10000},
+    {AccuracyClass::III, "5g", nullptr, 500, 10000},
+    {AccuracyClass::IIII, "5g", nullptr, 100, 1000},
+}};
+
+ExactMass table_mass(const char* text) {
+  return ExactMass::parse(text, "R 76-1 Table 3");
+}
+
+/// 1, 2 or 5 times a power of ten: the significant digits of e, trailing zeros dropped, are "1", "2" or "5".
+bool one_two_five(ExactMass e) {
+  const Decimal d = e.in_grams();
+  const Decimal digits = d.rescaled(d.significant_scale());
+  std::int64_t u = digits.units();
+  while (u != 0 && u % 10 == 0) u /= 10;
+  return u == 1 || u == 2 || u == 5;
+}
+
+std::string e_range(const ClassificationRow& row) {
+  return row.e_to ? fmt::format("from {} to {}", table_mass(row.e_from).to_string(), table_mass(row.e_to).to_string())
+                  : fmt::format("of {} or more", table_mass(row.e_from).to_string());
+}
+
+std::string n_range(const ClassificationRow& row) {
+  return row.n_max ? fmt::format("{} to {}", row.n_min, row.n_max) : fmt::format("at least {}", row.n_min);
+}
+
+}  // namespace
+
+std::span<const ClassificationRow> classification_rows() {
+  return kClassification;
+}
+
+std::optional<std::string> classification_fault(AccuracyClass cls, ExactMass e, ExactMass max) {
+  constexpr const char* source = "OIML R 76-1:2006";
+  if (e <= ExactMass{}) return fmt::format("e = {} is not positive.", e.to_string());
+  if (!one_two_five(e))
+    return fmt::format("e = {} is not 1, 2 or 5 times a power of ten ({} 3.4.1).", e.to_string(), source);
+  std::vector<std::string> ranges;
+  for (const auto& row : kClassification) {
+    if (row.cls != cls) continue;
+    ranges.push_back(e_range(row));
+    if (e < table_mass(row.e_from) || (row.e_to && e > table_mass(row.e_to))) continue;
+    // n = Max / e compared exactly: n_min * e <= Max (and Max <= n_max * e).
+    if (compare_with_multiple(max, row.n_min, e) < 0 || (row.n_max && compare_with_multiple(max, row.n_max, e) > 0))
+      return fmt::format("class {} with e = {} needs n = Max / e of {} ({} Table 3); Max = {} gives n = {}.",
+                         to_string(cls), e.to_string(), n_range(row), source, max.to_string(),
+                         max.approx().g() / e.approx().g());
+    return std::nullopt;
+  }
+  return fmt::format("class {} allows e {} ({} Table 3), not e = {}.", to_string(cls), fmt::join(ranges, ", or "),
+                     source, e.to_string());
+}
 
 std::string_view to_string(Verification v) {
   return v == Verification::initial ? "initial verification" : "in service";

@@ -15,6 +15,7 @@
 #include <tuple>
 
 #include "core/errors.hpp"
+#include "core/text_field.hpp"
 #include "store/canonical_json.hpp"
 
 namespace plumb::store {
@@ -77,7 +78,10 @@ json row_json(SQLite::Statement& row) {
   return j;
 }
 
-Recorder::Recorder(SQLite::Database& db, Actor actor) : db_(db), actor_(std::move(actor)), now_(utc_timestamp()) {}
+Recorder::Recorder(SQLite::Database& db, Actor actor) : db_(db), actor_(std::move(actor)), now_(utc_timestamp()) {
+  // Who is recorded in every audit record: plain text on one line, like every stored text.
+  check_text_field(actor_.name, "--by");
+}
 
 SQLite::Statement& Recorder::statement(const std::string& sql) {
   auto& s = statements_[sql];
@@ -293,6 +297,14 @@ void Recorder::bind_row(Writer& w, const Row& row, std::size_t first_parameter) 
     if (v.kind() != w.kinds[i])
       throw StorageError(fmt::format("column {}.{} cannot store {} exactly (exact values only).", w.table,
                                      row[i].column, v.kind() == Value::Kind::integer ? "an integer" : "a text"));
+    // The last guard of the one rule for stored text (core/text_field.hpp): the app checks each field by its
+    // name first, so this fires only for a field a new use case forgot to check.
+    if (v.kind() == Value::Kind::text) {
+      if (const auto fault = text_fault(v.text()))
+        throw InputError(fmt::format("the text \"{}\" for {}.{} holds {} at character {}; it cannot be stored.",
+                                     shown_on_one_line(v.text()), w.table, row[i].column, fault->what,
+                                     fault->character));
+    }
     // Texts are bound without a copy: `row` outlives the statement's execution in write_rows.
     if (v.kind() == Value::Kind::integer) w.insert->bind(at, v.integer());
     else w.insert->bindNoCopy(at, v.text());

@@ -62,9 +62,10 @@ TEST_CASE("calibration: record, show with budget and fit, error at a load, certi
   plumb::test::ScratchDir dir;
   const auto db = calibration_lab(dir);
   dir.write("cal.csv", calibration_file());
-  auto r = run_plumb({"--db", db, "check", "record", "BAL-C", "--procedure", "calibration", "--readings", "cal.csv",
-                      "--temperature", "20", "--pressure", "1013.25", "--humidity", "50", "--air-formula", "oiml-r111",
-                      "--on", "2026-11-30", "--by", "A. Technician"},
+  auto r = run_plumb({"--db",        db,           "check",        "record",        "BAL-C",     "--procedure",
+                      "calibration", "--readings", "cal.csv",      "--temperature", "20C",       "--pressure",
+                      "1013.25hPa",  "--humidity", "50%",          "--air-formula", "oiml-r111", "--on",
+                      "2026-11-30",  "--by",       "A. Technician"},
                      dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);

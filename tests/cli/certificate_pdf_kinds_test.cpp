@@ -80,9 +80,10 @@ std::string calibrated_balance(const plumb::test::ScratchDir& dir) {
          "as-found,indication,W50,,up,50.0002,g\nas-found,indication,W100,,up,100.0004,g\n"
          "as-found,indication,W100+W50,,up,150.0006,g\nas-found,indication,W200,,up,200.0008,g\n";
   dir.write("cal.csv", csv);
-  const auto r = run_plumb({"--db", db, "check", "record", "BAL-C", "--procedure", "calibration", "--readings",
-                            "cal.csv", "--temperature", "20", "--pressure", "1013.25", "--humidity", "50",
-                            "--air-formula", "oiml-r111", "--on", "2026-11-30", "--by", "A. Technician"},
+  const auto r = run_plumb({"--db",        db,           "check",        "record",        "BAL-C",     "--procedure",
+                            "calibration", "--readings", "cal.csv",      "--temperature", "20C",       "--pressure",
+                            "1013.25hPa",  "--humidity", "50%",          "--air-formula", "oiml-r111", "--on",
+                            "2026-11-30",  "--by",       "A. Technician"},
                            dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
@@ -106,10 +107,12 @@ std::string checked_pipette(const plumb::test::ScratchDir& dir) {
         std::vector<std::string>{"--db", db, "check", "record", "SM-02", "--weight", "W100", "--readings", "sm02.csv",
                                  "--on", "2026-11-30", "--by", "A. Technician"},
         std::vector<std::string>{"--db", db, "pipette", "add", "P-07", "--nominal", "100uL", "--range", "fixed",
-                                 "--every", "3mo", "--location", "Lab 2", "--since", "2026-06-01", "--by", "Q. Manager"},
-        std::vector<std::string>{"--db", db, "check", "record", "P-07", "--procedure", "gravimetric", "--balance",
-                                 "SM-02", "--water-temp", "20", "--pressure", "1013", "--humidity", "50", "--readings",
-                                 "w.csv", "--on", "2026-12-01", "--by", "A. Technician"}}) {
+                                 "--every", "3mo", "--location", "Lab 2", "--since", "2026-06-01", "--by",
+                                 "Q. Manager"},
+        std::vector<std::string>{"--db",        db,           "check",        "record",       "P-07",  "--procedure",
+                                 "gravimetric", "--balance",  "SM-02",        "--water-temp", "20C",   "--pressure",
+                                 "1013hPa",     "--humidity", "50%",          "--readings",   "w.csv", "--on",
+                                 "2026-12-01",  "--by",       "A. Technician"}}) {
     const auto r = run_plumb(step, dir.path());
     INFO(r.err);
     REQUIRE(r.status == 0);
@@ -224,12 +227,12 @@ TEST_CASE("pipette history quantities: e_s and CV with U, worked by hand", "[cli
   r = run_plumb({"--db", db, "history", "P-07", "--quantity", "cv@100uL/ch1", "--chart", "cv.svg"}, dir.path());
   INFO(r.err);
   CHECK(r.status == 0);
-  r = run_plumb({"--db", db, "history", "P-07", "--quantity", "cv@50", "--chart", "cv50.svg"}, dir.path());
+  r = run_plumb({"--db", db, "history", "P-07", "--quantity", "cv@50uL", "--chart", "cv50.svg"}, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("no result of cv"));
   r = run_plumb({"--db", db, "history", "P-07", "--quantity", "cv@ten"}, dir.path());
   CHECK(r.status == 2);
-  CHECK_THAT(r.err, Catch::Contains("--quantity \"cv@ten\"") && Catch::Contains("not a number of uL"));
+  CHECK_THAT(r.err, Catch::Contains("--quantity \"cv@ten\"") && Catch::Contains("not a volume with its unit"));
   r = run_plumb({"--db", db, "history", "P-07", "--quantity", "bias"}, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("relative-systematic-error"));

@@ -17,7 +17,7 @@ using plumb::test::ScratchDir;
 TEST_CASE("CSV outputs keep awkward text whole and disarm spreadsheet formulas", "[cli][csv]") {
   ScratchDir dir;
   const auto db = dir.file("lab.db").string();
-  const std::string awkward_location = "Room \"B\", bench 2\nnear the door";
+  const std::string awkward_location = "Room \"B\", bench 2; near the door";  // no line break: refused as input
   const std::string formula_location = "=HYPERLINK(\"http://example.invalid\",\"x\")";
   const std::string formula_operator = "+Mira Okafor-Vance";
   const std::vector<std::vector<std::string>> setup = {

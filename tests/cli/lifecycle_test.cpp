@@ -141,13 +141,13 @@ TEST_CASE("a calibration and a pipette run are corrected with new run conditions
   ok({"--db", db, "pipette", "add", "P-07", "--nominal", "100uL", "--range", "fixed", "--every", "3mo", "--since",
       "2026-06-01", "--by", "Q. Manager"},
      dir);
-  ok({"--db", db, "check", "record", "P-07", "--procedure", "gravimetric", "--balance", "SM-02", "--water-temp", "20",
-      "--pressure", "1013", "--humidity", "50", "--readings", "w.csv", "--on", "2026-11-30", "--by", "A. Technician"},
+  ok({"--db", db, "check", "record", "P-07", "--procedure", "gravimetric", "--balance", "SM-02", "--water-temp", "20C",
+      "--pressure", "1013hPa", "--humidity", "50%", "--readings", "w.csv", "--on", "2026-11-30", "--by", "A. Technician"},
      dir);
   ok({"--db", db, "certificate", "issue", "LAST", "--by", "Q. Manager"}, dir);
 
   // A condition of another procedure is refused, naming the ones this run takes.
-  auto r = run_plumb({"--db", db, "check", "correct", "2", "--temperature", "21", "--reason", "x", "--by",
+  auto r = run_plumb({"--db", db, "check", "correct", "2", "--temperature", "21C", "--reason", "x", "--by",
                       "Q. Manager"},
                      dir.path());
   CHECK(r.status == 2);
@@ -158,7 +158,7 @@ TEST_CASE("a calibration and a pipette run are corrected with new run conditions
   // hand at t = 21: (t + a1)^2 = 17.016965^2 = 289.57710; t + a2 = 322.797; a3 (t + a4) = 522528.9 x 90.34881
   // = 47209594.3; ratio = 289.57710 x 322.797 / 47209594.3 = 0.00197998; rho_w = 999.97495 x (1 - 0.00197998)
   // = 997.99502 kg/m3 (20 degC gave 998.20675).
-  const json c = json_of({"--db", db, "check", "correct", "2", "--water-temp", "21", "--reason",
+  const json c = json_of({"--db", db, "check", "correct", "2", "--water-temp", "21C", "--reason",
                           "water thermometer read 1 degC low", "--by", "Q. Manager", "--format", "json"},
                          dir);
   CHECK(c["original"]["run_id"] == 2);
@@ -170,7 +170,7 @@ TEST_CASE("a calibration and a pipette run are corrected with new run conditions
   CHECK(c["superseded_certificate"].is_string());
   CHECK(c["new_certificate"].is_string());
   // The same conditions again change nothing.
-  r = run_plumb({"--db", db, "check", "correct", "3", "--water-temp", "21", "--reason", "again", "--by", "Q. Manager"},
+  r = run_plumb({"--db", db, "check", "correct", "3", "--water-temp", "21C", "--reason", "again", "--by", "Q. Manager"},
                 dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("changes nothing"));
@@ -203,13 +203,13 @@ TEST_CASE("a calibration run is corrected with a new air temperature", "[cli][li
          "as-found,indication,W100+W50,,up,150.0006,g\nas-found,indication,W200,,up,200.0008,g\n";
   dir.write("cal.csv", csv);
   ok({"--db", db, "check", "record", "BAL-C", "--procedure", "calibration", "--readings", "cal.csv", "--temperature",
-      "20", "--pressure", "1013.25", "--humidity", "50", "--air-formula", "oiml-r111", "--model", "through-origin",
+      "20C", "--pressure", "1013.25hPa", "--humidity", "50%", "--air-formula", "oiml-r111", "--model", "through-origin",
       "--on", "2026-11-30", "--by", "A. Technician"},
      dir);
   // OIML R 111-1:2004 Annex E (E.3-1) by hand at t = 22 degC, p = 1013.25 hPa, h = 50 %: 0.34848 x 1013.25 =
   // 353.09736; 0.45 x exp(0.061 x 22) = 0.45 x exp(1.342) = 1.722010; (353.09736 - 1.722010) / 295.15 =
   // 1.190498 kg/m3 (at 20 degC: 1.199294).
-  const json c = json_of({"--db", db, "check", "correct", "1", "--temperature", "22", "--reason",
+  const json c = json_of({"--db", db, "check", "correct", "1", "--temperature", "22C", "--reason",
                           "temperature transcribed as 20 for 22", "--by", "Q. Manager", "--format", "json"},
                          dir);
   CHECK(c["correction"]["supersedes"] == 1);

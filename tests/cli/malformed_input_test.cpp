@@ -4,8 +4,9 @@
 // (sqlite3 .dump before == after) and leave no file behind.
 //
 // A case holds "description", "args" (with {db}), "message" (parts that stderr must contain), and optionally
-// "fixture", "files", "setup" and "stdin". A fixture, tests/malformed/fixtures/<name>.json, is the lab that
-// many cases share: its own "files" and "setup", optionally a base "fixture" prepared before it, and
+// "fixture", "files", "setup" and "stdin". JSON text is UTF-8, so a byte that is not (for the cases of text
+// that is not UTF-8) is written {byte:FF} in args, files and stdin. A fixture, tests/malformed/fixtures/<name>.json, is
+// the lab that many cases share: its own "files" and "setup", optionally a base "fixture" prepared before it, and
 // "baseline": false when the weekly check that every case otherwise starts from must not be recorded.
 // Preparation order: the example lab, the baseline check, the fixture's files then setup (base fixture
 // first), then the case's files then setup.
@@ -42,9 +43,18 @@ std::vector<fs::path> cases() {
   return files;
 }
 
+/// "{byte:FF}" -> the byte 0xFF.
+std::string with_bytes(std::string s) {
+  for (std::size_t p; (p = s.find("{byte:")) != std::string::npos;) {
+    if (p + 9 > s.size() || s[p + 8] != '}') throw std::runtime_error("malformed {byte:XX} in \"" + s + "\"");
+    s.replace(p, 9, 1, static_cast<char>(std::stoi(s.substr(p + 6, 2), nullptr, 16)));
+  }
+  return s;
+}
+
 std::string substitute(std::string s, const std::string& db) {
   for (std::size_t p; (p = s.find("{db}")) != std::string::npos;) s.replace(p, 4, db);
-  return s;
+  return with_bytes(s);
 }
 
 /// What is written and run before a case's command, in order.
@@ -107,7 +117,7 @@ void run_case(const fs::path& file) {
   for (const auto& part : prep.parts) {
     // Files first: setup steps may read them (e.g. a balance check before a pipette check).
     const json files = part.value("files", json::object());  // named: items() must not outlive it
-    for (const auto& [name, text] : files.items()) dir.write(name, text.get<std::string>());
+    for (const auto& [name, text] : files.items()) dir.write(name, with_bytes(text.get<std::string>()));
     for (const auto& step : part.value("setup", json::array())) {
       std::vector<std::string> setup_args;
       for (const auto& a : step) setup_args.push_back(substitute(a.get<std::string>(), db));
@@ -120,7 +130,7 @@ void run_case(const fs::path& file) {
   for (const auto& a : c.at("args")) args.push_back(substitute(a.get<std::string>(), db));
   const std::string before = plumb::test::dump_database(db);
   const auto files_before = listing(dir.path());
-  const auto r = plumb::test::run_plumb(args, dir.path(), c.value("stdin", ""));
+  const auto r = plumb::test::run_plumb(args, dir.path(), with_bytes(c.value("stdin", "")));
   INFO(shell_line(args) << "\nexit status " << r.status << "\nstdout: " << r.out << "\nstderr: " << r.err);
   CHECK(r.status == 2);
   CHECK(r.out.empty());

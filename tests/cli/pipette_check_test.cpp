@@ -85,9 +85,9 @@ TEST_CASE("pipette check: register, record, show, certify, due", "[cli][pipette]
   CHECK(listed);
 
   dir.write("w.csv", "volume,channel,reading\n" + weighings("100uL", 1, ten));
-  r = run_plumb({"--db", db, "check", "record", "P-07", "--procedure", "gravimetric", "--balance", "SM-02",
-                 "--water-temp", "20", "--pressure", "1013", "--humidity", "50", "--readings", "w.csv", "--on",
-                 "2026-12-01", "--by", "A. Technician"},
+  r = run_plumb({"--db",      db,           "check",        "record", "P-07",       "--procedure", "gravimetric",
+                 "--balance", "SM-02",      "--water-temp", "20C",    "--pressure", "1013hPa",     "--humidity",
+                 "50%",       "--readings", "w.csv",        "--on",   "2026-12-01", "--by",        "A. Technician"},
                 dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
@@ -192,9 +192,11 @@ TEST_CASE("pipette check: evaporation, an incomplete multichannel run fails and 
   }());
   // Evaporation 0.01 mg per weighing: mean mass 99.741 mg; by hand 99.741 * 1.0028509 = 99.741 + 0.284352
   // = 100.02535 uL. The SD does not change: s_r = 0.1048020 uL.
-  auto r = run_plumb({"--db", db, "check", "record", "P-07", "--procedure", "gravimetric", "--balance", "SM-02",
-                      "--water-temp", "20", "--pressure", "1013", "--humidity", "50", "--evaporation", "0.01mg",
-                      "--readings", "w.csv", "--on", "2026-12-01", "--by", "A. Technician", "--format", "json"},
+  auto r = run_plumb({"--db",        db,           "check",      "record",        "P-07",          "--procedure",
+                      "gravimetric", "--balance",  "SM-02",      "--water-temp",  "20C",           "--pressure",
+                      "1013hPa",     "--humidity", "50%",        "--evaporation", "0.01mg",        "--readings",
+                      "w.csv",       "--on",       "2026-12-01", "--by",          "A. Technician", "--format",
+                      "json"},
                      dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
@@ -210,9 +212,10 @@ TEST_CASE("pipette check: evaporation, an incomplete multichannel run fails and 
                     dir.path())
               .status == 0);
   dir.write("m.csv", "volume,channel,reading\n" + weighings("100", 1, ten) + weighings("100", 2, ten));
-  r = run_plumb({"--db", db, "check", "record", "M-8", "--procedure", "gravimetric", "--balance", "SM-02",
-                 "--water-temp", "20", "--pressure", "1013", "--humidity", "50", "--readings", "m.csv", "--on",
-                 "2026-12-01", "--by", "A. Technician", "--format", "json", "--gate"},
+  r = run_plumb({"--db",        db,           "check",         "record",       "M-8",   "--procedure",
+                 "gravimetric", "--balance",  "SM-02",         "--water-temp", "20C",   "--pressure",
+                 "1013hPa",     "--humidity", "50%",           "--readings",   "m.csv", "--on",
+                 "2026-12-01",  "--by",       "A. Technician", "--format",     "json",  "--gate"},
                 dir.path());
   CHECK(r.status == 1);  // --gate on a failed check
   j = json::parse(r.out);

@@ -15,7 +15,7 @@ using plumb::test::ug;
 
 namespace {
 ExactMass g(const char* s) {
-  return ExactMass::parse(s, "mass");
+  return ExactMass::parse(s, "mass", MassUnit::g);
 }
 
 CalibrationWeight weight(const char* id, const char* nominal) {

@@ -14,7 +14,7 @@ using plumb::test::ug;
 
 namespace {
 ExactMass grams(const char* text) {
-  return ExactMass::parse(text, "reading");
+  return ExactMass::parse(text, "reading", MassUnit::g);
 }
 
 EccentricityInput run() {

@@ -48,9 +48,9 @@ app::PipetteCheckInput pipette_run(const std::string& on) {
   app::PipetteCheckInput in;
   in.pipette_id = "P-07";
   in.balance_id = "SM-02";
-  in.water_temperature = "20";
-  in.pressure = "1013";
-  in.humidity = "50";
+  in.water_temperature = "20C";
+  in.pressure = "1013hPa";
+  in.humidity = "50%";
   in.readings_csv = weighings();
   in.readings_source = "w.csv";
   in.on = on;

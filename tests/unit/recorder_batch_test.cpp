@@ -79,3 +79,29 @@ TEST_CASE("groups written together land as prepared, whether their tables match 
   INFO((v.problems.empty() ? "" : v.problems.front().message));
   CHECK(v.ok());
 }
+
+TEST_CASE("the Recorder refuses a text that is not plain text on one line, for any column", "[audit][recorder]") {
+  // The app checks each field by name first (app/registry/fields.hpp); this is the guard behind it for a field a
+  // new use case forgets: a run whose operator holds a line break is refused and nothing is written.
+  test::ScratchDir dir;
+  store::Database db(dir.file("lab.db"), store::Database::Open::create);
+  const store::Actor quality{"Q. Manager", "tester"};
+  app::init_lab(db, quality, "Batch Lab");
+  const std::int64_t calibration =
+      app::add_weight(db, quality, test::e2_weight("W1", "100g", "C-1", "2026-01-10", "2027-01-10")).current.id;
+  app::add_balance(db, quality, test::usp41_balance("BAL-1", "7d", "2026-01-15"));
+  const auto records_before = db.sql().execAndGet("SELECT count(*) FROM audit_log").getInt64();
+  auto run = run_of("2026-02-02", true, calibration);
+  run.operator_name = "A. Technician\n#99 forged";
+  {
+    SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
+    store::Recorder rec(db.sql(), quality);
+    CHECK_THROWS_WITH(store::add_run(rec, run, {}),
+                      Catch::Contains("for check_runs.operator holds a line break (U+000A)"));
+  }
+  CHECK(db.sql().execAndGet("SELECT count(*) FROM check_runs").getInt64() == 0);
+  CHECK(db.sql().execAndGet("SELECT count(*) FROM audit_log").getInt64() == records_before);
+  // The person recorded in the trail is held to the same rule.
+  CHECK_THROWS_WITH(store::Recorder(db.sql(), store::Actor{"Q.\x1B[2JManager", "tester"}),
+                    Catch::StartsWith("--by \"Q.\\x1B[2JManager\" holds an escape character"));
+}

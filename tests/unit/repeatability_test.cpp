@@ -24,7 +24,7 @@ RepeatabilityInput example(const std::vector<const char*>& readings) {
   RepeatabilityInput in;
   in.balance = {ExactMass::parse("220g", "cap"), ExactMass::parse("0.1mg", "d"), ExactMass::parse("200mg", "m")};
   in.weight = {"W100", ExactMass::parse("100.00003g", "w"), Mass::grams(0.05e-3), 2.0, ExactMass::parse("100g", "n")};
-  for (const char* r : readings) in.readings.push_back(ExactMass::parse(r, "reading"));
+  for (const char* r : readings) in.readings.push_back(ExactMass::parse(r, "reading", MassUnit::g));
   return in;
 }
 

@@ -179,7 +179,9 @@ TEST_CASE("named constructors agree on the unit: 1 mg is 0.001 g, 1 mL is 1000 u
 TEST_CASE("exact volumes parse like exact masses: unit, default unit, trailing zeros", "[unit][units]") {
   // 0.1 mL = 100 uL exactly; "100" takes the default unit uL; 100.0 uL equals 100 uL and prints as "100 uL".
   CHECK(ExactVolume::parse("0.1mL", "v") == ExactVolume::microlitres(Decimal::parse("100")));
-  CHECK(ExactVolume::parse("100", "v").in_microlitres() == Decimal::parse("100"));
+  CHECK(ExactVolume::parse("100", "v", plumb::VolumeUnit::ul).in_microlitres() == Decimal::parse("100"));
+  CHECK_THROWS_WITH(ExactVolume::parse("100", "--nominal"),
+                    "--nominal \"100\" has no unit; write it with its unit, e.g. 100uL or 100mL.");
   CHECK(ExactVolume::parse("100.0 uL", "v").to_string() == "100 uL");
   CHECK(ExactVolume::parse("2.5 uL", "v").ul_text() == "2.5");
   CHECK(ExactVolume::millilitres(Decimal::parse("0.25")) == ExactVolume::microlitres(Decimal::parse("250")));

@@ -9,10 +9,12 @@
 
 #include "app/calibration/run_file.hpp"
 #include "app/calibration/settings.hpp"
+#include "app/registry/fields.hpp"
 #include "app/registry/lab.hpp"
 #include "app/registry/service_status.hpp"
 #include "app/registry/weight_in_force.hpp"
 #include "checks/calibration.hpp"
+#include "core/condition_units.hpp"
 #include "core/errors.hpp"
 #include "report/calibration/json.hpp"
 #include "store/calibration.hpp"
@@ -40,13 +42,16 @@ struct UsedWeight {
 
 ExactMass abs_mass(ExactMass m) { return m < ExactMass{} ? ExactMass{} - m : m; }
 
-/// An environment option: a plain decimal inside [lo, hi].
-std::optional<double> environment_value(const std::optional<std::string>& text, const char* option, double lo,
-                                        double hi, const char* unit, const char* what) {
+/// An environment option with its unit (core/condition_units.hpp), inside [lo, hi].
+std::optional<double> environment_value(const std::optional<std::string>& text, const char* option,
+                                        Decimal (*parse)(std::string_view, std::string_view), double lo, double hi,
+                                        const char* unit, const char* what) {
   if (!text) return std::nullopt;
-  const double v = Decimal::parse(*text, option).to_double();
+  const Decimal value = parse(*text, option);
+  const double v = value.to_double();
   if (v < lo || v > hi)
-    throw InputError(fmt::format("{} {} {} is outside {} ({} to {} {}).", option, *text, unit, what, lo, hi, unit));
+    throw InputError(
+        fmt::format("{} {} {} is outside {} ({} to {} {}).", option, value.to_string(), unit, what, lo, hi, unit));
   return v;
 }
 
@@ -230,6 +235,7 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
   const Date on = parse_date(in.on, "--on");
   if (days_between(today_utc(), on) > 1) throw InputError(fmt::format("--on {} is in the future.", in.on));
   if (in.operator_name.empty()) throw InputError("--by must name the operator who performed the calibration.");
+  validate_free_text(in.operator_name, "--by");
   const stats::Model model = report::parse_model(in.model, "--model");
   density::AirFormula formula = density::AirFormula::cipm2007;
   if (in.air_formula == "oiml-r111") formula = density::AirFormula::oiml_r111;
@@ -237,11 +243,12 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
     throw InputError(fmt::format("--air-formula \"{}\" is not cipm2007 or oiml-r111.", in.air_formula));
 
   // Environment: all three conditions (the air density follows from them) or none (not measured).
-  const auto t = environment_value(in.temperature_c, "--temperature", density::min_t_c, density::max_t_c, "degC",
-                                   "the range plumb accepts for a weighing room");
-  const auto p = environment_value(in.pressure_hpa, "--pressure", density::min_pressure_hpa, density::max_pressure_hpa,
-                                   "hPa", "the plausible range of air pressure");
-  const auto h = environment_value(in.humidity_pct, "--humidity", 0.0, 100.0, "%", "relative humidity");
+  const auto t = environment_value(in.temperature_c, "--temperature", parse_celsius, density::min_t_c, density::max_t_c,
+                                   "degC", "the range plumb accepts for a weighing room");
+  const auto p = environment_value(in.pressure_hpa, "--pressure", parse_hectopascals, density::min_pressure_hpa,
+                                   density::max_pressure_hpa, "hPa", "the plausible range of air pressure");
+  const auto h =
+      environment_value(in.humidity_pct, "--humidity", parse_percent_rh, 0.0, 100.0, "%", "relative humidity");
   const int given = (t ? 1 : 0) + (p ? 1 : 0) + (h ? 1 : 0);
   if (given != 0 && given != 3)
     throw InputError(fmt::format("--temperature, --pressure and --humidity go together (the air density needs all "

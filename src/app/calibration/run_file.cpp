@@ -1,13 +1,17 @@
 #include "app/calibration/run_file.hpp"
 
 #include <fmt/format.h>
+#include <fmt/ranges.h>
 
 #include <algorithm>
 #include <array>
 #include <map>
 
+#include "checks/eccentricity.hpp"
+#include "core/csv_columns.hpp"
 #include "core/errors.hpp"
 #include "core/readings_csv.hpp"
+#include "core/text_field.hpp"
 
 namespace plumb::app {
 namespace {
@@ -26,6 +30,7 @@ std::vector<CalibrationRow> parse_calibration_csv(std::string_view text, std::st
   constexpr std::array known{"stage", "part", "load", "position", "direction", "reading", "unit"};
   std::map<std::string, std::size_t> col;
   std::size_t columns = 0;
+  std::vector<std::string> header_names;
   std::vector<CalibrationRow> rows;
   std::size_t pos = text.substr(0, 3) == "\xEF\xBB\xBF" ? 3 : 0;  // byte-order mark of spreadsheet exports
   int line_no = 0;
@@ -47,7 +52,7 @@ std::vector<CalibrationRow> parse_calibration_csv(std::string_view text, std::st
         const std::string name = lower(fields[i]);
         if (std::find(known.begin(), known.end(), name) == known.end())
           throw InputError(fmt::format("{} line {}: column \"{}\" is not known (the header is {}).", source, line_no,
-                                       fields[i], calibration_csv_header));
+                                       shown_on_one_line(fields[i]), calibration_csv_header));
         if (!col.emplace(name, i).second)
           throw InputError(
               fmt::format("{} line {}: column \"{}\" appears twice in the header.", source, line_no, name));
@@ -57,11 +62,13 @@ std::vector<CalibrationRow> parse_calibration_csv(std::string_view text, std::st
           throw InputError(fmt::format("{} line {}: the header has no \"{}\" column (expected {}).", source, line_no,
                                        required, calibration_csv_header));
       columns = fields.size();
+      header_names = fields;
       continue;
     }
     if (fields.size() != columns)
       throw InputError(fmt::format("{} line {}: {} field(s) where the header has {}.", source, line_no, fields.size(),
                                    columns));
+    check_csv_text(raw, fields, header_names, source, line_no);
     const auto field = [&](const char* name) -> std::string {
       const auto it = col.find(name);
       return it == col.end() ? std::string() : fields[it->second];
@@ -86,6 +93,11 @@ std::vector<CalibrationRow> parse_calibration_csv(std::string_view text, std::st
       throw InputError(fmt::format("{} line {} column position: an eccentricity reading needs its position on the "
                                    "pan (centre, front-left, ...).",
                                    source, line_no));
+    if (r.part == "eccentricity" && std::find(checks::pan_positions.begin(), checks::pan_positions.end(), r.position) ==
+                                        checks::pan_positions.end())
+      throw InputError(fmt::format("{} line {} column position: \"{}\" is not a position on the pan (use {}).", source,
+                                   line_no, shown_on_one_line(field("position")),
+                                   fmt::join(checks::pan_positions, ", ")));
     if (r.part != "eccentricity" && !r.position.empty())
       throw InputError(fmt::format("{} line {} column position: \"{}\" is given for a {} reading; positions belong "
                                    "to eccentricity readings only.",

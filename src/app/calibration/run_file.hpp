@@ -10,8 +10,9 @@
 //   as-left,indication,W100+W50,,up,150.0001,g
 //
 // stage: as-found | as-left. part: repeatability | eccentricity | indication. load: the reference weights
-// on the pan, joined by '+'. position: eccentricity only (centre, front-left, back, ... named freely, one
-// of them "centre"). direction: indication only, up (default) or down. unit: optional (else --unit).
+// on the pan, joined by '+'. position: eccentricity only, one of checks::pan_positions (centre, front-left,
+// front-right, back-left, back-right, front, back, left, right; "center" is read as centre), one of them
+// "centre". direction: indication only, up (default) or down. unit: optional (else --unit).
 // Columns may come in any order; position, direction and unit may be left out.
 #include <string>
 #include <string_view>

@@ -5,6 +5,7 @@
 
 #include "app/registry/lab.hpp"
 #include "core/errors.hpp"
+#include "metrology/accuracy_classes.hpp"
 #include "store/repository.hpp"
 
 namespace plumb::app {
@@ -54,6 +55,16 @@ store::CalibrationSettings set_calibration_settings(store::Database& db, const s
     if (*s.verification_interval >= balance->capacity)
       throw InputError(fmt::format("--e {} is not smaller than the capacity {} of {}.", *in.e,
                                    balance->capacity.to_string(), balance->id));
+  }
+  if (s.accuracy_class) {
+    // The class must fit the balance: OIML R 76-1 Table 3 ties each class to a range of e and of n = Max / e.
+    const ExactMass e = s.verification_interval.value_or(balance->readability);
+    if (const auto fault =
+            r76::classification_fault(r76::parse_accuracy_class(*s.accuracy_class), e, balance->capacity))
+      throw InputError(fmt::format("--class {} does not fit {} ({}): {}", *s.accuracy_class, balance->id,
+                                   in.e ? fmt::format("--e {}", *in.e)
+                                        : fmt::format("no --e given, so e = d = {}", balance->readability.to_string()),
+                                   *fault));
   }
   store::Recorder rec(db.sql(), actor);
   s.id = store::add_calibration_settings(rec, s);

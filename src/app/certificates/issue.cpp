@@ -4,15 +4,18 @@
 #include <SQLiteCpp/Transaction.h>
 #include <fmt/format.h>
 
-#include "app/certificates/history_section.hpp"
 #include "app/calibration/certificate_content.hpp"
+#include "app/certificates/history_section.hpp"
 #include "app/pipette/certificate_content.hpp"
 #include "app/registry/lab.hpp"
 #include "app/runs/resolve.hpp"
 #include "checks/procedure.hpp"
 #include "core/errors.hpp"
-#include "report/runs/json.hpp"
+#include "report/certificates/document.hpp"
+#include "report/certificates/text.hpp"
 #include "report/document/layout.hpp"
+#include "report/document/pdf.hpp"
+#include "report/runs/json.hpp"
 #include "store/repository.hpp"
 
 namespace plumb::app {
@@ -26,6 +29,20 @@ void add_procedure_content(store::Database& db, const store::RunRecord& run, jso
     case checks::Procedure::repeatability: return;  // the run's results and its weights say it all
     case checks::Procedure::calibration: return add_calibration_content(run, content);
     case checks::Procedure::gravimetric: return add_pipette_certificate_parts(db, run, content);
+  }
+}
+
+/// A certificate, once stored, never changes: so it is drawn as text and as PDF before it is stored, and one that
+/// cannot be drawn (from a layout that passed validation but still breaks a renderer) is refused, not kept.
+void require_drawable(const store::CertificateRecord& cert) {
+  try {
+    (void)report::certificate_text(cert.content, cert.content_sha256);
+    (void)report::render_pdf(report::certificate_document(cert.content, cert.content_sha256));
+  } catch (const InputError&) {
+    throw;
+  } catch (const std::exception& e) {
+    throw InputError(fmt::format("certificate {} cannot be drawn with the layout given ({}); nothing was stored.",
+                                 cert.number, e.what()));
   }
 }
 
@@ -133,6 +150,7 @@ store::CertificateRecord issue_certificate_in(store::Database& db, store::Record
     cert.content["replaces"] = {{"number", replaces->number}, {"run_id", replaces->run_id}, {"reason", run.reason}};
   }
   cert.content_sha256 = store::sha256_hex(cert.content.dump());
+  require_drawable(cert);
   cert.id = store::add_certificate(rec, cert);
   return cert;
 }

@@ -3,11 +3,11 @@
 #include <fmt/format.h>
 
 #include <algorithm>
-#include <fstream>
 
 #include "core/errors.hpp"
 #include "report/certificates/document.hpp"
 #include "report/document/pdf.hpp"
+#include "store/file_output.hpp"
 
 namespace plumb::app {
 
@@ -23,9 +23,7 @@ void require_pdf_path(const std::filesystem::path& output) {
 PdfOutcome write_certificate_pdf(const store::CertificateRecord& c, const std::filesystem::path& output) {
   require_pdf_path(output);
   const auto pdf = report::render_pdf(report::certificate_document(c.content, c.content_sha256));
-  std::ofstream f(output, std::ios::binary);
-  if (!f || !f.write(pdf.bytes.data(), static_cast<std::streamsize>(pdf.bytes.size())))
-    throw StorageError(fmt::format("cannot write the PDF file \"{}\".", output.string()));
+  store::write_whole_file(output, pdf.bytes, "PDF file");
   return {pdf.pages, pdf.warnings};
 }
 

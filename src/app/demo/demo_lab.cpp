@@ -6,16 +6,17 @@
 #include <nlohmann/json.hpp>
 #include <random>
 
+#include "app/calibration/record.hpp"
 #include "app/calibration/settings.hpp"
 #include "app/certificates/issue.hpp"
-#include "app/calibration/record.hpp"
-#include "app/pipette/registry.hpp"
 #include "app/pipette/record.hpp"
-#include "app/weekly_check/record.hpp"
-#include "app/registry/weights.hpp"
+#include "app/pipette/registry.hpp"
 #include "app/registry/balances.hpp"
 #include "app/registry/lab.hpp"
+#include "app/registry/weights.hpp"
+#include "app/weekly_check/record.hpp"
 #include "checks/pipette.hpp"
+#include "core/condition_units.hpp"
 #include "core/errors.hpp"
 #include "metrology/gravimetric.hpp"
 #include "store/embedded.hpp"
@@ -204,9 +205,9 @@ DemoSummary build_demo(const std::filesystem::path& path, const std::function<vo
       in.water_temperature = pc["water_temp"][k];
       in.pressure = pc["pressure"][k];
       in.humidity = pc["humidity"][k];
-      const double z = gravimetric::z_factor({Decimal::parse(in.water_temperature).to_double(),
-                                              Decimal::parse(in.pressure).to_double(),
-                                              Decimal::parse(in.humidity).to_double()})
+      const double z = gravimetric::z_factor({parse_celsius(in.water_temperature, "water_temp").to_double(),
+                                              parse_hectopascals(in.pressure, "pressure").to_double(),
+                                              parse_percent_rh(in.humidity, "humidity").to_double()})
                            .z_ul_per_mg;
       in.readings_csv = pipette_weighings(p, pipette, static_cast<int>(k), z, balance.readability, pipette_noise);
       in.readings_source = fmt::format("demo {} check {}", pipette.id(), k + 1);

@@ -5,13 +5,13 @@
 #include <SQLiteCpp/Statement.h>
 
 #include <algorithm>
-#include <fstream>
 
-#include "app/status/due.hpp"
-#include "app/registry/lab.hpp"
 #include "app/history/trends.hpp"
+#include "app/registry/lab.hpp"
+#include "app/status/due.hpp"
 #include "core/errors.hpp"
 #include "report/history/charts.hpp"
+#include "store/file_output.hpp"
 #include "store/repository.hpp"
 
 namespace plumb::app {
@@ -117,9 +117,7 @@ report::HtmlReport write_history_report(store::Database& db, const HistoryReport
   require_html_path(r.output);
   report::HtmlReport rep = history_report(db, r);
   const std::string html = report::html_report(rep);
-  std::ofstream f(r.output, std::ios::binary);
-  if (!f || !f.write(html.data(), static_cast<std::streamsize>(html.size())))
-    throw StorageError(fmt::format("cannot write the report file \"{}\".", r.output.string()));
+  store::write_whole_file(r.output, html, "report file");
   return rep;
 }
 

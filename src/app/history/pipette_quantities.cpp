@@ -1,8 +1,8 @@
 // A pipette's chartable results, read from the stored run (report/pipette/json.cpp): per test volume and
 // channel, the systematic error e_s (uL and % of the selected volume) and the random error as CV. A run
 // has several test volumes and channels but a history is one number per run, so each quantity is read at
-// one point: the test volume the user names (--quantity cv@10) or the largest test volume of the run (the
-// nominal volume), and the channel named (cv@10/ch3) or, on a multichannel pipette, the worst channel of
+// one point: the test volume the user names (--quantity cv@10uL) or the largest test volume of the run (the
+// nominal volume), and the channel named (cv@10uL/ch3) or, on a multichannel pipette, the worst channel of
 // the run, the one a reviewer must watch.
 #include <fmt/format.h>
 
@@ -134,17 +134,13 @@ Point parse_selector(const std::string& selector, const std::string& key) {
   const auto slash = selector.find('/');
   std::string volume = selector.substr(0, slash);
   volume.erase(std::remove(volume.begin(), volume.end(), ' '), volume.end());
-  if (volume.size() > 2) {
-    std::string tail = volume.substr(volume.size() - 2);
-    std::transform(tail.begin(), tail.end(), tail.begin(), [](unsigned char ch) { return static_cast<char>(std::tolower(ch)); });
-    if (tail == "ul") volume.resize(volume.size() - 2);
-  }
+  // The volume with its unit, like every quantity typed: 10uL or 0.01mL (a bare 10 is refused).
   try {
-    p.volume_ul = Decimal::parse(volume).to_double();
+    p.volume_ul = ExactVolume::parse(volume, "the test volume").in_microlitres().to_double();
   } catch (const InputError&) {
-    throw bad(fmt::format("the test volume \"{}\" is not a number of uL", volume));
+    throw bad(fmt::format("the test volume \"{}\" is not a volume with its unit (uL or mL)", volume));
   }
-  if (!(*p.volume_ul > 0)) throw bad(fmt::format("the test volume {} uL is not above zero", volume));
+  if (!(*p.volume_ul > 0)) throw bad(fmt::format("the test volume {} is not above zero", volume));
   if (slash != std::string::npos) {
     std::string ch = selector.substr(slash + 1);
     if (ch.rfind("ch", 0) == 0) ch = ch.substr(2);

@@ -8,10 +8,13 @@
 #include <map>
 
 #include "app/pipette/registry.hpp"
+#include "app/registry/fields.hpp"
 #include "app/registry/lab.hpp"
 #include "app/registry/service_status.hpp"
 #include "checks/pipette.hpp"
 #include "checks/repeatability.hpp"
+#include "core/condition_units.hpp"
+#include "core/csv_columns.hpp"
 #include "core/errors.hpp"
 #include "core/readings_csv.hpp"
 #include "metrology/gravimetric.hpp"
@@ -47,6 +50,7 @@ std::vector<WeighingLine> parse_weighings_csv(std::string_view text, const std::
   int volume_col = -1, channel_col = -1, reading_col = -1, unit_col = -1;
   std::size_t columns = 0;
   bool header = false;
+  std::vector<std::string> header_names;
   std::size_t pos = text.substr(0, 3) == "\xEF\xBB\xBF" ? 3 : 0;
   int line_no = 0;
   while (pos < text.size()) {
@@ -60,9 +64,10 @@ std::vector<WeighingLine> parse_weighings_csv(std::string_view text, const std::
       throw InputError(fmt::format("{} line {}: contains a NUL byte; this is not a text CSV file.", source, line_no));
     const auto fields = split_csv_line(raw);
     if (!header) {
+      constexpr std::string_view known[] = {"volume", "channel", "reading", "unit"};
+      check_csv_header(fields, known, source, line_no, "volume,reading[,channel][,unit]");
       for (std::size_t i = 0; i < fields.size(); ++i) {
-        std::string name = fields[i];
-        std::transform(name.begin(), name.end(), name.begin(), [](unsigned char c) { return std::tolower(c); });
+        const std::string name = csv_column_key(fields[i]);
         const int col = static_cast<int>(i);
         if (name == "volume") volume_col = col;
         if (name == "channel") channel_col = col;
@@ -75,15 +80,18 @@ std::vector<WeighingLine> parse_weighings_csv(std::string_view text, const std::
                                      source, line_no));
       columns = fields.size();
       header = true;
+      header_names = fields;
       continue;
     }
     if (fields.size() != columns)
       throw InputError(fmt::format("{} line {}: {} field(s) where the header has {}.", source, line_no, fields.size(),
                                    columns));
+    check_csv_text(raw, fields, header_names, source, line_no);
     WeighingLine w;
     w.line = line_no;
     const auto field = [&](int col) { return fields[static_cast<std::size_t>(col)]; };
-    w.volume = parse_volume(field(volume_col), fmt::format("{} line {} column volume: value", source, line_no));
+    w.volume = parse_volume(field(volume_col), fmt::format("{} line {} column volume: value", source, line_no),
+                            VolumeUnit::ul);
     if (channel_col >= 0 && !field(channel_col).empty()) {
       const std::string c = field(channel_col);
       const auto [p, ec] = std::from_chars(c.data(), c.data() + c.size(), w.channel);
@@ -103,12 +111,15 @@ std::vector<WeighingLine> parse_weighings_csv(std::string_view text, const std::
   return out;
 }
 
-Decimal parse_condition(const std::string& text, std::string_view field, double lo, double hi, std::string_view unit,
-                        std::string_view why) {
-  const Decimal v = Decimal::parse(text, field);
+/// A run condition with its unit (core/condition_units.hpp), inside [lo, hi].
+Decimal parse_condition(const std::string& text, std::string_view field,
+                        Decimal (*parse)(std::string_view, std::string_view), double lo, double hi,
+                        std::string_view unit, std::string_view why) {
+  const Decimal v = parse(text, field);
   const double x = v.to_double();
   if (x < lo || x > hi)
-    throw InputError(fmt::format("{} {} {} is outside {} ({} {} to {} {}).", field, text, unit, why, lo, unit, hi, unit));
+    throw InputError(
+        fmt::format("{} {} {} is outside {} ({} {} to {} {}).", field, v.to_string(), unit, why, lo, unit, hi, unit));
   return v;
 }
 
@@ -177,14 +188,16 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
   const Date on = parse_date(in.on, "--on");
   if (days_between(today_utc(), on) > 1) throw InputError(fmt::format("--on {} is in the future.", in.on));
   if (in.operator_name.empty()) throw InputError("--by must name the operator who performed the check.");
+  validate_free_text(in.operator_name, "--by");
 
   // Conditions, named by the options they came from.
-  const Decimal water = parse_condition(in.water_temperature, "--water-temp", gravimetric::min_water_temperature_c,
-                                        gravimetric::max_water_temperature_c, "degC",
-                                        "the range of the gravimetric method (ISO 8655-6)");
-  const Decimal pressure = parse_condition(in.pressure, "--pressure", gravimetric::min_pressure_hpa,
+  const Decimal water =
+      parse_condition(in.water_temperature, "--water-temp", parse_celsius, gravimetric::min_water_temperature_c,
+                      gravimetric::max_water_temperature_c, "degC", "the range of the gravimetric method (ISO 8655-6)");
+  const Decimal pressure = parse_condition(in.pressure, "--pressure", parse_hectopascals, gravimetric::min_pressure_hpa,
                                            gravimetric::max_pressure_hpa, "hPa", "a plausible laboratory air pressure");
-  const Decimal humidity = parse_condition(in.humidity, "--humidity", 0, 100, "%RH", "a relative humidity");
+  const Decimal humidity =
+      parse_condition(in.humidity, "--humidity", parse_percent_rh, 0, 100, "%RH", "a relative humidity");
   std::optional<ExactMass> evaporation;
   if (in.evaporation) {
     const std::string& e = *in.evaporation;

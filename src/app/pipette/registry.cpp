@@ -58,8 +58,8 @@ int parse_channels(const std::string& text) {
 
 }  // namespace
 
-ExactVolume parse_volume(std::string_view text, std::string_view field) {
-  const ExactVolume v = ExactVolume::parse(text, field, VolumeUnit::ul);
+ExactVolume parse_volume(std::string_view text, std::string_view field, std::optional<VolumeUnit> bare_number_unit) {
+  const ExactVolume v = ExactVolume::parse(text, field, bare_number_unit);
   if (v <= ExactVolume()) throw InputError(fmt::format("{} \"{}\" must be greater than zero.", field, text));
   return v.trimmed();
 }
@@ -127,6 +127,7 @@ store::PipetteRecord add_pipette(store::Database& db, const store::Actor& actor,
   }
   checks::validate(d);
   p.every = Interval::parse(in.every, "--every");
+  validate_free_text(in.location, "--location", false);
   p.location = in.location;
   p.identity = read_identity(in.identity);
   p.created_on = in.since ? parse_date(*in.since, "--since") : today_utc();

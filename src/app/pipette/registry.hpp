@@ -29,9 +29,11 @@ struct PipetteInput {
 
 store::PipetteRecord add_pipette(store::Database& db, const store::Actor& actor, const PipetteInput& in);
 
-/// A volume as typed: "100uL", "100 uL", "0.1mL", "100" (bare numbers are microlitres). Exact, with
-/// trailing zeros dropped. Throws InputError naming `field` when it is not a positive volume.
-ExactVolume parse_volume(std::string_view text, std::string_view field);
+/// A volume as typed: "100uL", "100 uL", "0.1mL"; a bare number only where a documented input says its unit
+/// (`bare_number_unit`: the volume column of a weighings file is in uL). Exact, with trailing zeros dropped.
+/// Throws InputError naming `field` when it is not a positive volume.
+ExactVolume parse_volume(std::string_view text, std::string_view field,
+                         std::optional<VolumeUnit> bare_number_unit = std::nullopt);
 
 /// One line describing a pipette's limits, e.g. "ISO 8655-2:2002" or "lab: systematic 1 %, random 0.5 % (CV)".
 std::string limits_summary(const pipette_limits::LimitsPolicy& p);

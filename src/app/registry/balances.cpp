@@ -13,6 +13,7 @@ store::BalanceRecord add_balance(store::Database& db, const store::Actor& actor,
   validate_id(in.id, "balance id");
   store::BalanceRecord b;
   b.id = in.id;
+  validate_free_text(in.location, "--location", false);
   b.location = in.location;
   b.identity = read_identity(in.identity);
   b.capacity = positive_mass(in.capacity, "--capacity");

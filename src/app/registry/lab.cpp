@@ -3,7 +3,9 @@
 #include <SQLiteCpp/Transaction.h>
 #include <fmt/format.h>
 
+#include "app/registry/fields.hpp"
 #include "core/errors.hpp"
+#include "store/created_file.hpp"
 #include "store/repository.hpp"
 
 namespace plumb::app {
@@ -16,14 +18,31 @@ store::LabRecord require_lab(store::Database& db) {
   return *lab;
 }
 
+namespace {
+
+void validate_lab_name(const std::string& name) {
+  validate_free_text(name, "--lab");
+  if (name.size() > 200) throw InputError("--lab must name the laboratory (1-200 characters).");
+}
+
+}  // namespace
+
 void init_lab(store::Database& db, const store::Actor& actor, const std::string& name) {
-  if (name.empty() || name.size() > 200) throw InputError("--lab must name the laboratory (1-200 characters).");
+  validate_lab_name(name);
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   if (auto lab = store::find_lab(db.sql()))
     throw InputError(fmt::format("database \"{}\" is already set up for lab \"{}\".", db.path().string(), lab->name));
   store::Recorder rec(db.sql(), actor);
   store::add_lab(rec, name);
   tx.commit();
+}
+
+void create_lab(const std::filesystem::path& path, const store::Actor& actor, const std::string& name) {
+  validate_lab_name(name);
+  store::CreatedFileGuard file(path);
+  store::Database db(path, store::Database::Open::create);
+  init_lab(db, actor, name);
+  file.keep();
 }
 
 }  // namespace plumb::app

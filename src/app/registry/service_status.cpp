@@ -3,6 +3,7 @@
 #include <SQLiteCpp/Transaction.h>
 #include <fmt/format.h>
 
+#include "app/registry/fields.hpp"
 #include "app/registry/lab.hpp"
 #include "core/errors.hpp"
 #include "store/repository.hpp"
@@ -23,6 +24,7 @@ store::ServiceEvent change_service_status(store::Database& db, const store::Acto
   if (event != "retired" && event != "reinstated")
     throw InputError(fmt::format("service event \"{}\" is not retired or reinstated.", event));
   const std::string verb = event == "retired" ? "retire" : "reinstate";
+  validate_free_text(reason, "--reason", false);
   if (reason.find_first_not_of(" \t") == std::string::npos)
     throw InputError(fmt::format("--reason must say why {} {} is {}.", item_kind, id, event));
   if (actor.name.find_first_not_of(" \t") == std::string::npos)

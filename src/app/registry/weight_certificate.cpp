@@ -23,6 +23,7 @@ bool blank(const std::string& s) {
 
 store::WeightCalibration parse_weight_certificate(const WeightCertificateInput& in, ExactMass nominal) {
   store::WeightCalibration c;
+  validate_free_text(in.certificate, "--certificate", false);
   if (blank(in.certificate)) throw InputError("--certificate must give the weight's calibration certificate number.");
   c.certificate_no = in.certificate;
   c.correction = ExactMass::parse(in.correction, "--correction");

@@ -6,6 +6,7 @@
 #include "app/registry/fields.hpp"
 #include "app/registry/lab.hpp"
 #include "app/registry/weight_in_force.hpp"
+#include "core/condition_units.hpp"
 #include "core/errors.hpp"
 #include "metrology/weight_classes.hpp"
 #include "store/repository.hpp"
@@ -21,10 +22,12 @@ store::WeightRecord add_weight(store::Database& db, const store::Actor& actor, c
   w.nominal = positive_mass(in.nominal, "--nominal");
   w.weight_class = std::string(weights::to_string(weights::parse_weight_class(in.weight_class, "--class")));
   if (in.density) {
-    w.density_kg_m3 = Decimal::parse(*in.density, "--density");
+    w.density_kg_m3 = parse_kg_per_cubic_metre(*in.density, "--density");
     if (w.density_kg_m3->to_double() < 1000 || w.density_kg_m3->to_double() > 25000)
-      throw InputError(fmt::format("--density \"{}\" kg/m3 is outside the range of weight materials (1000-25000).",
-                                   *in.density));
+      throw InputError(
+          fmt::format("--density \"{}\" ({} kg/m3) is outside the range of weight materials (1000 to "
+                      "25000 kg/m3).",
+                      *in.density, w.density_kg_m3->to_string()));
   }
   const WeightCertificateInput typed{in.certificate, in.correction, in.uncertainty,
                                      in.k,           in.calibrated, in.due,

@@ -9,9 +9,11 @@
 #include "app/calibration/record.hpp"
 #include "app/certificates/issue.hpp"
 #include "app/pipette/record.hpp"
+#include "app/registry/fields.hpp"
 #include "app/runs/resolve.hpp"
 #include "app/weekly_check/record.hpp"
 #include "checks/procedure.hpp"
+#include "core/condition_units.hpp"
 #include "core/errors.hpp"
 #include "report/document/layout.hpp"
 #include "store/calibration.hpp"
@@ -82,6 +84,25 @@ bool same_readings(const store::RunRecord& a, const store::RunRecord& b) {
   return true;
 }
 
+/// A run condition as stored, with its unit: runs recorded before units were required hold a bare number, which
+/// was always in the unit named here.
+std::string with_unit(const std::string& stored, const char* unit) {
+  const bool bare = !stored.empty() && stored.find_first_not_of("+-0123456789.") == std::string::npos;
+  return bare ? stored + unit : stored;
+}
+
+std::optional<std::string> with_unit(const std::optional<std::string>& stored, const char* unit) {
+  return stored ? std::optional(with_unit(*stored, unit)) : std::nullopt;
+}
+
+/// A stored condition as its number in the named unit ("" when absent), so that "20C" and "20.0 degC" compare equal.
+std::string condition_value(const std::optional<std::string>& stored, const char* unit,
+                            Decimal (*parse)(std::string_view, std::string_view)) {
+  if (!stored) return "";
+  const Decimal v = parse(with_unit(*stored, unit), "condition");
+  return v.rescaled(v.significant_scale()).to_string();
+}
+
 /// The run conditions as stored, for telling whether a correction changed any of them.
 std::vector<std::string> stored_conditions(store::Database& db, const store::RunRecord& run) {
   switch (run.procedure) {
@@ -89,8 +110,9 @@ std::vector<std::string> stored_conditions(store::Database& db, const store::Run
     case checks::Procedure::calibration: {
       const auto d = store::find_calibration_details(db.sql(), run.id);
       if (!d) return {};
-      return {d->temperature_c.value_or(""), d->pressure_hpa.value_or(""), d->humidity_pct.value_or(""), d->model,
-              d->air_method};
+      return {condition_value(d->temperature_c, "C", parse_celsius),
+              condition_value(d->pressure_hpa, "hPa", parse_hectopascals),
+              condition_value(d->humidity_pct, "%", parse_percent_rh), d->model, d->air_method};
     }
     case checks::Procedure::gravimetric: {
       const auto c = store::find_pipette_run_conditions(db.sql(), run.id);
@@ -170,9 +192,9 @@ std::int64_t record_calibration_correction(store::Database& db, store::Recorder&
   c.default_unit = in.default_unit;
   c.on = date_of(in, original);
   c.operator_name = operator_of(in, original);
-  c.temperature_c = details ? details->temperature_c : std::nullopt;
-  c.pressure_hpa = details ? details->pressure_hpa : std::nullopt;
-  c.humidity_pct = details ? details->humidity_pct : std::nullopt;
+  c.temperature_c = details ? with_unit(details->temperature_c, "C") : std::nullopt;
+  c.pressure_hpa = details ? with_unit(details->pressure_hpa, "hPa") : std::nullopt;
+  c.humidity_pct = details ? with_unit(details->humidity_pct, "%") : std::nullopt;
   if (details && details->air_method == "oiml-r111") c.air_formula = "oiml-r111";
   if (details) c.model = details->model;
   if (auto v = condition(in, "temperature")) c.temperature_c = v;
@@ -192,9 +214,9 @@ std::int64_t record_pipette_correction(store::Database& db, store::Recorder& rec
   PipetteCheckInput p;
   p.pipette_id = original.instrument_id;
   p.balance_id = condition(in, "balance").value_or(cond->balance_id);
-  p.water_temperature = condition(in, "water-temp").value_or(cond->water_temperature_c.to_string());
-  p.pressure = condition(in, "pressure").value_or(cond->air_pressure_hpa.to_string());
-  p.humidity = condition(in, "humidity").value_or(cond->humidity_pct.to_string());
+  p.water_temperature = condition(in, "water-temp").value_or(cond->water_temperature_c.to_string() + "C");
+  p.pressure = condition(in, "pressure").value_or(cond->air_pressure_hpa.to_string() + "hPa");
+  p.humidity = condition(in, "humidity").value_or(cond->humidity_pct.to_string() + "%");
   p.evaporation = cond->evaporation ? std::optional(cond->evaporation->to_string()) : std::nullopt;
   if (auto v = condition(in, "evaporation")) p.evaporation = v;
   p.readings_csv = in.readings_csv ? *in.readings_csv : weighings_file_of(original);
@@ -231,6 +253,7 @@ std::int64_t record_correction(store::Database& db, store::Recorder& rec, const 
 }  // namespace
 
 CorrectionOutcome correct_check(store::Database& db, const store::Actor& actor, const CorrectionInput& in) {
+  validate_free_text(in.reason, "--reason", false);
   if (in.reason.find_first_not_of(" \t") == std::string::npos)
     throw InputError("--reason must say why the run is corrected (it is kept with the correction).");
   if (actor.name.find_first_not_of(" \t") == std::string::npos)

@@ -3,6 +3,7 @@
 #include <SQLiteCpp/Transaction.h>
 #include <fmt/format.h>
 
+#include "app/registry/fields.hpp"
 #include "checks/repeatability.hpp"
 #include "core/errors.hpp"
 #include "core/readings_csv.hpp"
@@ -29,6 +30,7 @@ store::RunRecord build_check_run(CheckLookups& lookups, const CheckInput& in) {
   if (days_between(today_utc(), on) > 1)
     throw InputError(fmt::format("--on {} is in the future.", in.on));
   if (in.operator_name.empty()) throw InputError("--by must name the operator who performed the check.");
+  validate_free_text(in.operator_name, "--by");
   if (in.weight_ids.size() != 1)
     throw InputError(fmt::format("--weight: a repeatability check uses exactly one reference weight ({} given).",
                                  in.weight_ids.size()));

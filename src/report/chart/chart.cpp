@@ -8,7 +8,6 @@
 
 #include <algorithm>
 #include <cmath>
-#include <fstream>
 #include <functional>
 #include <memory>
 #include <numbers>
@@ -18,6 +17,7 @@
 #include "report/chart/axis_ticks.hpp"
 #include "report/chart/draw_record.hpp"
 #include "report/chart/pango_text.hpp"
+#include "store/file_output.hpp"
 
 namespace plumb::report {
 namespace {
@@ -718,9 +718,7 @@ ChartFormat chart_format_for(const std::filesystem::path& path) {
 
 void write_chart(const ChartSpec& spec, const std::filesystem::path& path) {
   const std::string bytes = render_chart(spec, chart_format_for(path));
-  std::ofstream f(path, std::ios::binary);
-  if (!f || !f.write(bytes.data(), static_cast<std::streamsize>(bytes.size())))
-    throw StorageError(fmt::format("cannot write the chart file \"{}\".", path.string()));
+  store::write_whole_file(path, bytes, "chart file");
 }
 
 }  // namespace plumb::report

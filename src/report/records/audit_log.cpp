@@ -4,6 +4,7 @@
 
 #include <sstream>
 
+#include "core/text_field.hpp"
 #include "report/format/csv.hpp"
 
 namespace plumb::report {
@@ -28,19 +29,22 @@ std::string columns_text(const json& row) {
     }
     std::string v = value.is_string() ? value.get<std::string>() : value.dump();
     if (v.size() > 60) v = v.substr(0, 40) + fmt::format("... ({} characters; complete in --format json)", v.size());
-    out += fmt::format("{}{}={}", out.empty() ? "" : ", ", name, v);
+    out += fmt::format("{}{}={}", out.empty() ? "" : ", ", name, shown_on_one_line(v));
   }
   return out;
 }
 
 }  // namespace
 
+// Every stored text is shown on one line (core/text_field.hpp): a name or reason recorded with a line break
+// (by an older plumb, or written behind its back) cannot make the log show a record that is not there.
 std::string audit_log_text(const std::string& scope, const std::vector<store::AuditRecord>& records) {
   std::string out = fmt::format("Audit trail of {}: {} record(s), times in UTC\n", scope, records.size());
   for (const auto& r : records) {
-    out += fmt::format("\n#{:<6} {}  {} (OS account {})\n", r.seq, r.at, r.actor, r.os_user);
-    out += fmt::format("        {} {} {}\n", r.action, r.table_name, r.row_key);
-    if (r.reason) out += fmt::format("        why: {}\n", *r.reason);
+    out += fmt::format("\n#{:<6} {}  {} (OS account {})\n", r.seq, r.at, shown_on_one_line(r.actor),
+                       shown_on_one_line(r.os_user));
+    out += fmt::format("        {} {} {}\n", r.action, r.table_name, shown_on_one_line(r.row_key));
+    if (r.reason) out += fmt::format("        why: {}\n", shown_on_one_line(*r.reason));
     const json before = parsed_or_null(r.before_json);
     if (before.is_object()) out += fmt::format("        before: {}\n", columns_text(before));
     const json after = parsed_or_null(r.after_json);
