@@ -128,7 +128,7 @@ store::PipetteRecord add_pipette(store::Database& db, const store::Actor& actor,
   checks::validate(d);
   p.every = Interval::parse(in.every, "--every");
   p.location = in.location;
-  p.created_on = in.since ? parse_date(*in.since, "--since") : today_utc();
+  p.created_on = in.since ? parse_date(*in.since, "--since") : today_local();
 
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   require_lab(db);
