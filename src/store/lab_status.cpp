@@ -23,7 +23,7 @@ LEFT JOIN check_runs r ON r.id = (
     AND NOT EXISTS (SELECT 1 FROM run_voids v WHERE v.run_id = l.id)
   ORDER BY l.performed_on DESC, l.id DESC LIMIT 1)
 WHERE ?1 = '' OR i.kind = ?1
-ORDER BY i.id)";
+ORDER BY i.id COLLATE natural_id)";
 
 Date date_column(const SQLite::Column& c) { return parse_date(c.getString(), "stored date"); }
 

@@ -104,7 +104,7 @@ std::optional<PipetteRecord> find_pipette(SQLite::Database& db, const std::strin
 }
 
 std::vector<PipetteRecord> list_pipettes(SQLite::Database& db) {
-  SQLite::Statement q(db, pipette_select() + " ORDER BY i.id");
+  SQLite::Statement q(db, pipette_select() + " ORDER BY i.id COLLATE natural_id");
   q.bind(1, latest_attributes_date);
   std::vector<PipetteRecord> out;
   while (q.executeStep()) out.push_back(pipette_from(q));
