@@ -7,6 +7,7 @@
 
 #include <sstream>
 
+#include "core/decimal.hpp"
 #include "core/units.hpp"
 
 namespace plumb::report {
@@ -48,6 +49,13 @@ std::string grams_field(const nlohmann::json& j, const char* key) {
   if (!j.is_object() || !j.contains(key) || j[key].is_null()) return "-";
   if (j[key].is_string()) return ExactMass::grams(Decimal::parse(j[key].get<std::string>())).to_string();
   return mass_text(j[key], 4);
+}
+
+std::string milligrams_for_d(double grams, const std::string& d_g, int finer, bool with_sign) {
+  const int d_decimals_in_mg = d_g.empty() ? 1 : std::max(0, Decimal::parse(d_g).significant_scale() - 3);
+  const int decimals = d_decimals_in_mg + finer;
+  return with_sign ? fmt::format("{:+.{}f} mg", grams * 1e3, decimals)
+                   : fmt::format("{:.{}f} mg", grams * 1e3, decimals);
 }
 
 std::string fixed_grams_field(const nlohmann::json& j, const char* key, int decimals) {

@@ -29,6 +29,10 @@ std::string certificate_closing_text(const nlohmann::json& certificate, const st
 /// The reasons (each fail) and notes of a result, wrapped as list items.
 std::string reasons_and_notes_text(const nlohmann::json& result);
 
+/// A computed mass in mg with decimals that follow the readability d (decimal grams, "0.0001"): `finer` decimals
+/// more than d has in mg, so d = 0.01 mg and finer 1 print "+0.018 mg". A d of 1 mg or more counts as 0 decimals.
+std::string milligrams_for_d(double grams, const std::string& d_g, int finer, bool with_sign);
+
 /// A computed gram value with a fixed number of decimals ("-" when absent).
 std::string fixed_grams_field(const nlohmann::json& j, const char* key, int decimals);
 
