@@ -205,6 +205,8 @@ std::vector<Command> check_commands() {
                },
                [](const po::variables_map& vm, Env& env) {
                  const auto format = format_of(vm, {"text", "json"});
+                 if (vm["extrapolate"].as<bool>() && !vm.count("at"))
+                   throw InputError("--extrapolate applies only with --at LOAD (the load to read the fitted error at).");
                  auto db = env.open();
                  const auto id = app::resolve_run(db, vm["run"].as<std::string>());
                  const auto run = *store::find_run(db.sql(), id);
@@ -214,7 +216,6 @@ std::vector<Command> check_commands() {
                    env.out << (format == "json" ? e.dump(2) + "\n" : report::calibration_error_at_text(e));
                    return 0;
                  }
-                 if (vm["extrapolate"].as<bool>()) throw InputError("--extrapolate applies only with --at LOAD.");
                  print_run(run, format, env);
                  return 0;
                }};
