@@ -90,8 +90,8 @@ TEST_CASE("audit log filters by date and by person", "[cli][audit-log]") {
 
   const auto r = run_plumb({"--db", db, "audit", "log", "--by", "A. Technician", "--from", utc_date(-1)}, dir.path());
   REQUIRE(r.status == 0);
-  CHECK_THAT(r.out, Catch::StartsWith("Audit trail of the whole lab, " + utc_date(-1) +
-                                      " to today (UTC), by "
+  CHECK_THAT(r.out, Catch::StartsWith("Audit trail of the whole lab, from " + utc_date(-1) +
+                                      " on (UTC), by "
                                       "A. Technician: 1 record(s)"));
 }
 

@@ -75,8 +75,12 @@ void narrow(AuditLog& log, const AuditLogFilter& f) {
     const std::string day = r.at.substr(0, 10);
     return (from && day < to_string(*from)) || (to && day > to_string(*to)) || (f.by && r.actor != *f.by);
   });
-  if (from || to)
-    log.scope += fmt::format(", {} to {} (UTC)", from ? to_string(*from) : "the start", to ? to_string(*to) : "today");
+  if (from && to)
+    log.scope += fmt::format(", {} to {} (UTC)", to_string(*from), to_string(*to));
+  else if (from)
+    log.scope += fmt::format(", from {} on (UTC)", to_string(*from));
+  else if (to)
+    log.scope += fmt::format(", up to {} (UTC)", to_string(*to));
   if (f.by) log.scope += fmt::format(", by {}", *f.by);
 }
 
