@@ -7,20 +7,30 @@
 namespace plumb::cli {
 
 std::vector<Command> audit_commands() {
-  Command log{"audit", "log", "who did what, when and why: the trail of the lab, one instrument or one certificate",
-              "plumb audit log --instrument BAL-A --format csv",
+  Command log{"audit",
+              "log",
+              "who did what, when and why: the trail of the lab, one instrument or one certificate",
+              "plumb audit log --instrument BAL-A --from 2026-11-01 --to 2026-11-30 --by \"A. Technician\"",
               [](po::options_description& d, po::positional_options_description&) {
                 d.add_options()("instrument", po::value<std::string>(), "only the records of this instrument")(
-                    "certificate", po::value<std::string>(), "only the records of this certificate (number)");
+                    "certificate", po::value<std::string>(), "only the records of this certificate (number)")(
+                    "from", po::value<std::string>(), "only records from this UTC date on, YYYY-MM-DD")(
+                    "to", po::value<std::string>(), "only records up to this UTC date, YYYY-MM-DD")(
+                    "by", po::value<std::string>(), "only the records of this person (the name as recorded)");
                 add_format_option(d, "text|csv|json");
               },
               [](const po::variables_map& vm, Env& env) {
                 const auto format = format_of(vm, {"text", "csv", "json"});
                 auto db = env.open();
-                const auto trail = app::audit_log(db, {optional_string(vm, "instrument"), optional_string(vm, "certificate")});
-                if (format == "json") env.out << report::audit_log_json(trail.scope, trail.records).dump(2) << "\n";
-                else if (format == "csv") env.out << report::audit_log_csv(trail.records);
-                else env.out << report::audit_log_text(trail.scope, trail.records);
+                const auto trail = app::audit_log(
+                    db, {optional_string(vm, "instrument"), optional_string(vm, "certificate"),
+                         optional_string(vm, "from"), optional_string(vm, "to"), optional_string(vm, "by")});
+                if (format == "json")
+                  env.out << report::audit_log_json(trail.scope, trail.records).dump(2) << "\n";
+                else if (format == "csv")
+                  env.out << report::audit_log_csv(trail.records);
+                else
+                  env.out << report::audit_log_text(trail.scope, trail.records);
                 return 0;
               }};
   Command verify{

@@ -7,14 +7,15 @@
 #include <sstream>
 
 #include "app/calibration/record.hpp"
+#include "app/pipette/record.hpp"
 #include "app/runs/correct.hpp"
 #include "app/runs/resolve.hpp"
 #include "app/runs/void_run.hpp"
 #include "app/weekly_check/record.hpp"
 #include "checks/procedure.hpp"
-#include "app/pipette/record.hpp"
 #include "cli/command_groups.hpp"
 #include "core/errors.hpp"
+#include "report/calibration/text.hpp"
 #include "report/runs/json.hpp"
 #include "report/runs/text.hpp"
 #include "store/repository.hpp"
@@ -36,17 +37,25 @@ std::string read_input(const std::string& path, std::string& source) {
   return text.str();
 }
 
-void print_run(const store::RunRecord& run, const std::string& format, Env& env,
-               const nlohmann::json& error_at = nullptr) {
-  auto j = report::run_json(run);
-  if (!error_at.is_null()) j["error_at"] = error_at;
+void print_run(const store::RunRecord& run, const std::string& format, Env& env) {
+  const auto j = report::run_json(run);
   if (format == "json") env.out << j.dump(2) << "\n";
   else env.out << report::run_text(j);
 }
 
-/// Every recording prints the run and, with --gate, exits 1 when the check failed.
+/// --on, or today's local date when it is not given (the bench records what was done today).
+std::string date_performed(const po::variables_map& vm) {
+  return vm.count("on") ? vm["on"].as<std::string>() : to_string(today_local());
+}
+
+/// Every recording prints the run (its date marked "(today)" when --on was left out) and, with --gate, exits 1
+/// when the check failed.
 int print_and_gate(const store::RunRecord& run, const po::variables_map& vm, const std::string& format, Env& env) {
-  print_run(run, format, env);
+  const auto j = report::run_json(run);
+  if (format == "json")
+    env.out << j.dump(2) << "\n";
+  else
+    env.out << (vm.count("on") ? report::run_text(j) : report::run_text_dated_today(j));
   return vm["gate"].as<bool>() && run.verdict == Verdict::fail ? 1 : 0;
 }
 
@@ -87,7 +96,7 @@ int record_weekly_check(const po::variables_map& vm, Env& env, const std::string
   if (vm.count("weight")) in.weight_ids = vm["weight"].as<std::vector<std::string>>();
   in.default_unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
   in.readings_csv = read_input(vm["readings"].as<std::string>(), in.readings_source);
-  in.on = vm["on"].as<std::string>();
+  in.on = date_performed(vm);
   if (!vm.count("by")) throw InputError("--by must name the operator who performed the check.");
   in.operator_name = vm["by"].as<std::string>();
   auto db = env.open();
@@ -100,7 +109,7 @@ int record_calibration(const po::variables_map& vm, Env& env, const std::string&
   in.instrument_id = vm["instrument"].as<std::string>();
   in.default_unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
   in.readings_csv = read_input(vm["readings"].as<std::string>(), in.readings_source);
-  in.on = vm["on"].as<std::string>();
+  in.on = date_performed(vm);
   if (!vm.count("by")) throw InputError("--by must name the operator who performed the calibration.");
   in.operator_name = vm["by"].as<std::string>();
   in.temperature_c = optional_string(vm, "temperature");
@@ -128,7 +137,7 @@ int record_pipette(const po::variables_map& vm, Env& env, const std::string& for
   in.evaporation = optional_string(vm, "evaporation");
   in.default_unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
   in.readings_csv = read_input(vm["readings"].as<std::string>(), in.readings_source);
-  in.on = vm["on"].as<std::string>();
+  in.on = date_performed(vm);
   if (!vm.count("by")) throw InputError("--by must name the operator who performed the check.");
   in.operator_name = vm["by"].as<std::string>();
   auto db = env.open();
@@ -169,7 +178,7 @@ std::vector<Command> check_commands() {
             "evaporation", po::value<std::string>(),
             "gravimetric: mass lost by evaporation per weighing, with unit (e.g. 0.01mg); added to each weighing")(
             "unit", po::value<std::string>()->default_value("g"), "unit of readings without a unit column")(
-            "on", po::value<std::string>()->required(), "date performed, YYYY-MM-DD")(
+            "on", po::value<std::string>(), "date performed, YYYY-MM-DD (default today, the local date)")(
             "gate", po::bool_switch(), "exit with status 1 when the check fails");
         add_format_option(d);
         add_by_option(d, "the operator who performed the check");
@@ -199,12 +208,18 @@ std::vector<Command> check_commands() {
                },
                [](const po::variables_map& vm, Env& env) {
                  const auto format = format_of(vm, {"text", "json"});
+                 if (vm["extrapolate"].as<bool>() && !vm.count("at"))
+                   throw InputError("--extrapolate applies only with --at LOAD (the load to read the fitted error at).");
                  auto db = env.open();
                  const auto id = app::resolve_run(db, vm["run"].as<std::string>());
                  const auto run = *store::find_run(db.sql(), id);
-                 const auto at = optional_string(vm, "at");
-                 print_run(run, format, env,
-                           at ? app::calibration_error_at(run, *at, vm["extrapolate"].as<bool>()) : nlohmann::json());
+                 if (const auto at = optional_string(vm, "at")) {
+                   // The answer at that load only, not the whole run around it.
+                   const auto e = app::calibration_error_at(run, *at, vm["extrapolate"].as<bool>());
+                   env.out << (format == "json" ? e.dump(2) + "\n" : report::calibration_error_at_text(e));
+                   return 0;
+                 }
+                 print_run(run, format, env);
                  return 0;
                }};
   Command correct{

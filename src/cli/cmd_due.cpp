@@ -18,7 +18,7 @@ std::vector<Command> due_commands() {
               },
               [](const po::variables_map& vm, Env& env) {
                 const auto format = format_of(vm, {"text", "json", "csv"});
-                const Date on = vm.count("on") ? parse_date(vm["on"].as<std::string>(), "--on") : today_utc();
+                const Date on = vm.count("on") ? parse_date(vm["on"].as<std::string>(), "--on") : today_local();
                 const Interval within = Interval::parse(vm["within"].as<std::string>(), "--within");
                 const int days = days_between(on, add_interval(on, within));
                 auto db = env.open();

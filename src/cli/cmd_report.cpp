@@ -18,7 +18,7 @@ std::vector<Command> report_commands() {
                    app::HistoryReportRequest request;
                    request.output = vm["html"].as<std::string>();
                    request.instrument = optional_string(vm, "instrument");
-                   request.on = vm.count("on") ? parse_date(vm["on"].as<std::string>(), "--on") : today_utc();
+                   request.on = vm.count("on") ? parse_date(vm["on"].as<std::string>(), "--on") : today_local();
                    auto db = env.open();
                    const auto written = app::write_history_report(db, request);
                    fmt::print(env.out, "Report on {} instrument(s) written to {}.\n", written.instruments.size(),

@@ -14,7 +14,7 @@ std::vector<Command> summary_commands() {
       },
       [](const po::variables_map& vm, Env& env) {
         const auto format = format_of(vm, {"text", "json", "csv"});
-        const Date on = vm.count("on") ? parse_date(vm["on"].as<std::string>(), "--on") : today_utc();
+        const Date on = vm.count("on") ? parse_date(vm["on"].as<std::string>(), "--on") : today_local();
         auto db = env.open();
         // Rows are printed as they come from the database: memory stays flat however large the lab.
         report::SummaryWriter writer(env.out,

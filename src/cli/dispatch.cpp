@@ -3,6 +3,7 @@
 #include <fmt/ostream.h>
 #include <unistd.h>
 
+#include <algorithm>
 #include <iostream>
 
 #include "cli/bash_completion.hpp"
@@ -17,19 +18,63 @@ namespace plumb::cli {
 namespace {
 
 void print_usage(std::ostream& out) {
-  out << "plumb: " << help::tagline << "\n\nusage: " << help::usage << "\n\nglobal options:\n";
+  std::vector<std::string> globals, names;
   for (const auto& g : help::global_options())
-    out << fmt::format("  {:<14}{}\n", g.parameter.empty() ? g.name : g.name + " " + g.parameter, g.description);
+    globals.push_back(g.parameter.empty() ? g.name : g.name + " " + g.parameter);
+  for (const auto& c : commands()) names.push_back(help::command_name(c));
+  std::vector<std::string> all = globals;
+  all.insert(all.end(), names.begin(), names.end());
+  // One column for both lists, as wide as the longest name, so that every description starts in it.
+  const std::size_t width = help::name_column_width(all);
+  out << "plumb: " << help::tagline << "\n\nusage: " << help::usage << "\n\nglobal options:\n";
+  for (std::size_t i = 0; i < globals.size(); ++i)
+    out << fmt::format("  {:<{}}{}\n", globals[i], width, help::global_options()[i].description);
   out << "\ncommands:\n";
-  for (const auto& c : commands()) out << fmt::format("  {:<22}{}\n", help::command_name(c), c.summary);
+  for (std::size_t i = 0; i < names.size(); ++i)
+    out << fmt::format("  {:<{}}{}\n", names[i], width, commands()[i].summary);
   std::vector<std::string> statuses;
   for (const auto& s : help::exit_statuses()) statuses.push_back(fmt::format("{} {}", s.code, s.meaning));
   out << fmt::format("\nexit status: {}\n", fmt::join(statuses, ", "));
 }
 
-void print_command_help(const Command& c, const po::options_description& d, std::ostream& out) {
-  out << fmt::format("plumb {}: {}\n\n{}\nexample:\n  {}\n", help::command_name(c), c.summary, fmt::streamed(d),
-                     c.example);
+/// "LAST" from Boost's "arg (=LAST)"; empty without a default.
+std::string default_value_text(const po::option_description& o) {
+  const std::string parameter = o.format_parameter();
+  const auto at = parameter.find("(=");
+  return at == std::string::npos ? "" : parameter.substr(at + 2, parameter.size() - at - 3);
+}
+
+/// `plumb balance add BALANCE [options]`, the positional arguments by what they are (not "--id arg"), then the
+/// options without them.
+void print_command_help(const Command& c, const po::options_description& d, const po::positional_options_description& p,
+                        std::ostream& out) {
+  const auto positional = help::positional_names(p);
+  std::string usage = "plumb " + help::command_name(c);
+  std::vector<std::string> labels;
+  for (const auto& name : positional) {
+    const auto* o = d.find_nothrow(name, false);
+    const bool required = o && o->semantic()->is_required();
+    labels.push_back(help::positional_label(c, name));
+    usage += " " + std::string(required ? "" : "[") + labels.back() + (required ? "" : "]");
+  }
+  usage += " [options]";
+  po::options_description named("options");
+  for (const auto& o : d.options())
+    if (std::find(positional.begin(), positional.end(), o->long_name()) == positional.end()) named.add(o);
+  out << fmt::format("plumb {}: {}\n\nusage: {}\n", help::command_name(c), c.summary, usage);
+  if (!positional.empty()) {
+    out << "\narguments:\n";
+    const std::size_t width = std::max<std::size_t>(help::name_column_width(labels), 22);
+    for (std::size_t i = 0; i < positional.size(); ++i) {
+      const auto* o = d.find_nothrow(positional[i], false);
+      std::string what = o ? o->description() : "";
+      if (const auto cut = what.find(" (positional)"); cut != std::string::npos) what.erase(cut, 13);
+      const std::string value = o ? default_value_text(*o) : "";
+      out << fmt::format("  {:<{}}{}{} (or --{})\n", labels[i], width, what, value.empty() ? "" : ", default " + value,
+                         positional[i]);
+    }
+  }
+  out << fmt::format("\n{}\nexample:\n  {}\n", fmt::streamed(named), c.example);
 }
 
 std::string describe(const po::error& e) {
@@ -158,7 +203,7 @@ int run(int argc, const char* const* argv, std::ostream& out, std::ostream& err)
     po::variables_map vm;
     po::store(po::command_line_parser(rest).options(desc).positional(positional).run(), vm);
     if (vm.count("help")) {
-      print_command_help(*chosen, desc, out);
+      print_command_help(*chosen, desc, positional, out);
       return 0;
     }
     po::notify(vm);

@@ -82,6 +82,19 @@ std::vector<std::string> positional_names(const po::positional_options_descripti
   return names;
 }
 
+std::string positional_label(const Command& c, const std::string& option_name) {
+  std::string label = option_name == "id" ? c.noun : option_name;
+  std::transform(label.begin(), label.end(), label.begin(),
+                 [](unsigned char ch) { return static_cast<char>(std::toupper(ch)); });
+  return label;
+}
+
+std::size_t name_column_width(const std::vector<std::string>& names) {
+  std::size_t longest = 0;
+  for (const auto& n : names) longest = std::max(longest, n.size());
+  return longest + 2;
+}
+
 bool takes_path(const po::option_description& o) {
   if (o.semantic()->max_tokens() == 0) return false;
   const std::string& description = o.description();

@@ -2,6 +2,7 @@
 // The words plumb explains itself with, kept in one place: `plumb --help`, `plumb NOUN VERB --help`, the
 // manual page (plumb --print-man) and the shell completion (plumb --print-bash-completion) all read them, so
 // that what the binary prints and what is installed beside it cannot drift apart.
+#include <cstddef>
 #include <string>
 #include <vector>
 
@@ -45,6 +46,14 @@ void command_options(const Command& c, po::options_description& d, po::positiona
 
 /// The long names of the positional arguments, in order (an argument repeated without limit appears once).
 std::vector<std::string> positional_names(const po::positional_options_description& p);
+
+/// What a positional argument is called in usage lines: an `id` is named by the command's noun ("BALANCE",
+/// "WEIGHT", "INSTRUMENT"), any other argument by its own name ("RUN", "FILE").
+std::string positional_label(const Command& c, const std::string& option_name);
+
+/// The width of the name column of a two-column listing: the longest name and two spaces, so that no name
+/// runs into its description.
+std::size_t name_column_width(const std::vector<std::string>& names);
 
 /// Whether an option's value is a path (a file to read or write, a folder): the completion offers files.
 bool takes_path(const po::option_description& o);

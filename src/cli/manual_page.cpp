@@ -131,11 +131,6 @@ std::string italic(std::string_view s) {
   return "\\fI" + roff_escape(s) + "\\fR";
 }
 
-std::string upper(std::string s) {
-  for (auto& ch : s) ch = static_cast<char>(std::toupper(static_cast<unsigned char>(ch)));
-  return s;
-}
-
 void write_command(Roff& roff, const Command& c) {
   po::options_description d("options");
   po::positional_options_description p;
@@ -147,7 +142,8 @@ void write_command(Roff& roff, const Command& c) {
   for (const auto& name : positional) {
     const auto* o = d.find_nothrow(name, false);
     const bool required = o && o->semantic()->is_required();
-    synopsis += " " + std::string(required ? "" : "[") + italic(upper(name)) + (required ? "" : "]");
+    synopsis +=
+        " " + std::string(required ? "" : "[") + italic(help::positional_label(c, name)) + (required ? "" : "]");
   }
   synopsis += " [" + italic("options") + "]";
   roff.raw(synopsis);

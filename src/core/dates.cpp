@@ -4,6 +4,7 @@
 
 #include <charconv>
 #include <chrono>
+#include <ctime>
 
 #include "core/errors.hpp"
 
@@ -57,6 +58,15 @@ int days_between(Date a, Date b) {
 Date add_days(Date d, int days) { return Date{date::sys_days{d} + date::days{days}}; }
 
 Date today_utc() { return Date{date::floor<date::days>(std::chrono::system_clock::now())}; }
+
+Date today_local() {
+  // The C library applies TZ and the system's zone rules; a bench date is the date on the wall of the lab.
+  const std::time_t now = std::time(nullptr);
+  std::tm local{};
+  if (localtime_r(&now, &local) == nullptr) return today_utc();
+  return Date{date::year{local.tm_year + 1900}, date::month{static_cast<unsigned>(local.tm_mon + 1)},
+              date::day{static_cast<unsigned>(local.tm_mday)}};
+}
 
 Interval Interval::parse(std::string_view text, std::string_view field) {
   std::size_t digits = 0;

@@ -18,6 +18,8 @@ int days_between(Date a, Date b);
 Date add_days(Date d, int days);
 /// Today's date in UTC.
 Date today_utc();
+/// Today's date where plumb runs (the local time zone, TZ): the default of every --on and --since.
+Date today_local();
 
 /// A check or calibration interval: 7d, 4w, 6mo, 1y.
 struct Interval {

@@ -2,11 +2,13 @@
 
 #include <SQLiteCpp/Transaction.h>
 #include <fmt/format.h>
+#include <sqlite3.h>
 
 #include <cstdlib>
 #include <string>
 
 #include "core/errors.hpp"
+#include "core/natural_order.hpp"
 #include "store/embedded.hpp"
 
 namespace plumb::store {
@@ -21,7 +23,18 @@ int migration_number(std::string_view name) {
   return n;
 }
 
+int natural_collation(void*, int a_size, const void* a, int b_size, const void* b) {
+  return compare_natural(std::string_view(static_cast<const char*>(a), static_cast<std::size_t>(a_size)),
+                         std::string_view(static_cast<const char*>(b), static_cast<std::size_t>(b_size)));
+}
+
 }  // namespace
+
+void register_natural_collation(SQLite::Database& db) {
+  if (sqlite3_create_collation_v2(db.getHandle(), "natural_id", SQLITE_UTF8, nullptr, natural_collation, nullptr) !=
+      SQLITE_OK)
+    throw StorageError(fmt::format("cannot register the natural collation: {}", sqlite3_errmsg(db.getHandle())));
+}
 
 std::filesystem::path default_database_path() {
   if (const char* env = std::getenv("PLUMB_DB"); env && *env) return env;
@@ -43,6 +56,7 @@ Database::Database(const std::filesystem::path& path, Open mode) : path_(path) {
     // Concurrent writers wait rather than fail: "database is locked" must not reach the user.
     db_->setBusyTimeout(30000);
     db_->exec("PRAGMA foreign_keys = ON");
+    register_natural_collation(*db_);
     if (mode == Open::create) {
       // 8 KiB pages for a new database (SQLite's default is 4 KiB): a check run's stored results and its
       // audit record are 1-2 KiB each, and larger pages mean fewer page splits and write-ahead-log frames

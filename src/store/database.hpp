@@ -8,6 +8,10 @@
 
 namespace plumb::store {
 
+/// Makes `ORDER BY id COLLATE natural_id` sort as every list of plumb does (core/natural_order.hpp). Database does it
+/// on open; a connection opened by hand (a backup being verified) calls it before such a query.
+void register_natural_collation(SQLite::Database& db);
+
 class Database {
 public:
   enum class Open { create, existing };

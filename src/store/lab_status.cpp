@@ -14,8 +14,14 @@ namespace {
 constexpr const char* status_sql = R"(
 SELECT i.id, i.kind, i.location, i.check_every, i.created_on,
        r.id, r.procedure, r.performed_on, r.operator, r.verdict, r.next_due,
-       json_extract(r.results_json, '$.bias_g'), json_extract(r.results_json, '$.sd_g')
+       json_extract(r.results_json, '$.bias_g'), json_extract(r.results_json, '$.sd_g'), b.readability_g,
+       (SELECT json_extract(c.value, '$.systematic_error_pct')
+          FROM json_each(r.results_json, '$.volumes') v, json_each(v.value, '$.channels') c
+          ORDER BY abs(json_extract(c.value, '$.systematic_error_pct')) DESC LIMIT 1),
+       (SELECT max(json_extract(c.value, '$.cv_pct'))
+          FROM json_each(r.results_json, '$.volumes') v, json_each(v.value, '$.channels') c)
 FROM instruments i
+LEFT JOIN balances b ON b.instrument_id = i.id
 LEFT JOIN check_runs r ON r.id = (
   SELECT l.id FROM check_runs l
   WHERE l.instrument_id = i.id
@@ -23,7 +29,7 @@ LEFT JOIN check_runs r ON r.id = (
     AND NOT EXISTS (SELECT 1 FROM run_voids v WHERE v.run_id = l.id)
   ORDER BY l.performed_on DESC, l.id DESC LIMIT 1)
 WHERE ?1 = '' OR i.kind = ?1
-ORDER BY i.id)";
+ORDER BY i.id COLLATE natural_id)";
 
 Date date_column(const SQLite::Column& c) { return parse_date(c.getString(), "stored date"); }
 
@@ -45,6 +51,8 @@ void for_each_instrument_status(SQLite::Database& db, const std::string& kind,
     s.location = q.getColumn(2).getString();
     s.check_every = q.getColumn(3).getString();
     s.created_on = date_column(q.getColumn(4));
+    s.readability_g.reset();
+    if (!q.getColumn(13).isNull()) s.readability_g = q.getColumn(13).getString();
     s.latest.reset();
     if (!q.getColumn(5).isNull()) {
       LatestResult r;
@@ -56,6 +64,8 @@ void for_each_instrument_status(SQLite::Database& db, const std::string& kind,
       if (!q.getColumn(10).isNull()) r.next_due = date_column(q.getColumn(10));
       r.bias_g = number_column(q.getColumn(11));
       r.sd_g = number_column(q.getColumn(12));
+      r.systematic_error_pct = number_column(q.getColumn(14));
+      r.cv_pct = number_column(q.getColumn(15));
       s.latest = std::move(r);
     }
     visit(s);

@@ -23,6 +23,10 @@ struct LatestResult {
   std::optional<Date> next_due;
   std::optional<double> bias_g;  ///< from the stored results, when the procedure has one
   std::optional<double> sd_g;
+  /// A pipette check: the systematic error farthest from zero and the largest CV over its test volumes and
+  /// channels, in % (ISO 8655), the figures a reviewer must watch.
+  std::optional<double> systematic_error_pct;
+  std::optional<double> cv_pct;
 };
 
 struct InstrumentStatus {
@@ -31,6 +35,7 @@ struct InstrumentStatus {
   std::string location;
   std::string check_every;
   Date created_on;
+  std::optional<std::string> readability_g;  ///< a balance's d, exact decimal grams ("0.0001")
   std::optional<LatestResult> latest;  ///< the latest run not superseded, by date then run number
 };
 

@@ -112,7 +112,7 @@ std::optional<PipetteRecord> find_pipette_on(SQLite::Database& db, const std::st
 }
 
 std::vector<PipetteRecord> list_pipettes(SQLite::Database& db) {
-  SQLite::Statement q(db, pipette_select() + " ORDER BY i.id");
+  SQLite::Statement q(db, pipette_select() + " ORDER BY i.id COLLATE natural_id");
   q.bind(1, latest_attributes_date);
   std::vector<PipetteRecord> out;
   while (q.executeStep()) out.push_back(pipette_from(q));

@@ -3,7 +3,10 @@
 #include <SQLiteCpp/Statement.h>
 #include <fmt/format.h>
 
+#include <algorithm>
+
 #include "core/errors.hpp"
+#include "core/natural_order.hpp"
 #include "store/columns.hpp"
 #include "store/instrument_versions.hpp"
 
@@ -151,9 +154,14 @@ std::optional<WeightCalibration> find_weight_calibration(SQLite::Database& db, s
 }
 
 std::vector<WeightRecord> list_weights(SQLite::Database& db) {
-  SQLite::Statement q(db, std::string(weight_select) + " ORDER BY w.id");
+  SQLite::Statement q(db, weight_select);
   std::vector<WeightRecord> out;
   while (q.executeStep()) out.push_back(weight_from(q));
+  // A set of weights reads in mass order (W1MG, W10G, W100G), then by id; masses compare exactly.
+  std::sort(out.begin(), out.end(), [](const WeightRecord& a, const WeightRecord& b) {
+    if (a.nominal != b.nominal) return a.nominal < b.nominal;
+    return compare_natural(a.id, b.id) < 0;
+  });
   return out;
 }
 
@@ -207,7 +215,7 @@ std::optional<BalanceRecord> find_balance_on(SQLite::Database& db, const std::st
 }
 
 std::vector<BalanceRecord> list_balances(SQLite::Database& db) {
-  SQLite::Statement q(db, balance_select() + " ORDER BY i.id");
+  SQLite::Statement q(db, balance_select() + " ORDER BY i.id COLLATE natural_id");
   q.bind(1, latest_attributes_date);
   std::vector<BalanceRecord> out;
   while (q.executeStep()) out.push_back(balance_from(q));

@@ -3,6 +3,8 @@
 // 7.2, GUM JCGM 100:2008, least squares for a straight line, OIML R 76-1 Table 6 and R 111-1 Annex E).
 #include <catch2/catch.hpp>
 
+#include <algorithm>
+
 #include <nlohmann/json.hpp>
 
 #include "support/margin.hpp"
@@ -149,9 +151,22 @@ TEST_CASE("calibration: record, show with budget and fit, error at a load, certi
   // 0.48273921 mg).
   r = run_plumb({"--db", db, "check", "show", "LAST", "--at", "120g", "--format", "json"}, dir.path());
   REQUIRE(r.status == 0);
-  const json at = json::parse(r.out)["error_at"];
+  const json at = json::parse(r.out);  // the answer at that load only, not the whole run
   CHECK_THAT(at["error_g"].get<double>(), grams_near(0.00048273921201, ug(1e-5)));
   CHECK(at["extrapolated"] == false);
+  CHECK(at["run_id"] == j["run_id"]);
+  CHECK(at["instrument"] == "BAL-C");
+  // 120 g lies between the calibrated loads 3 (100 g) and 4 (150 g): their E and U as stated for the run.
+  REQUIRE(at["nearest_calibrated_loads"].size() == 2);
+  CHECK(at["nearest_calibrated_loads"][0]["index"] == 3);
+  CHECK(at["nearest_calibrated_loads"][1]["index"] == 4);
+  CHECK(at["nearest_calibrated_loads"][0]["U_g"] == w100["U_g"]);
+  r = run_plumb({"--db", db, "check", "show", "LAST", "--at", "120g"}, dir.path());
+  REQUIRE(r.status == 0);
+  // A few lines: the run, the error at the load (0.48 mg to d / 10 = 0.01 mg), the two loads beside it, a note.
+  CHECK(std::count(r.out.begin(), r.out.end(), '\n') == 5);
+  CHECK_THAT(r.out, Catch::Contains("fitted error at 120 g: E = +0.48 mg"));
+  CHECK_THAT(r.out, Catch::Contains("calibrated load 3 (100"));
   // 210 g lies outside the calibrated 20-200 g: refused, or shown marked as extrapolated.
   r = run_plumb({"--db", db, "check", "show", "LAST", "--at", "210g"}, dir.path());
   CHECK(r.status == 2);

@@ -229,7 +229,8 @@ TEST_CASE("pipette history quantities: e_s and CV with U, worked by hand", "[cli
   CHECK(r.status == 0);
   r = run_plumb({"--db", db, "history", "P-07", "--quantity", "cv@50uL", "--chart", "cv50.svg"}, dir.path());
   CHECK(r.status == 2);
-  CHECK_THAT(r.err, Catch::Contains("no result of cv"));
+  CHECK_THAT(r.err,
+             Catch::Contains("no check of pipette P-07 has a result there") && Catch::Contains("tested: 100 uL"));
   r = run_plumb({"--db", db, "history", "P-07", "--quantity", "cv@ten"}, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("--quantity \"cv@ten\"") && Catch::Contains("not a volume with its unit"));

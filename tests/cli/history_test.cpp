@@ -113,6 +113,30 @@ TEST_CASE("history lists every run with bias, SD and their U worked by hand", "[
   CHECK(plumb::test::dump_database(db) == before);
 }
 
+TEST_CASE("history --quantity shows that quantity only, in text, CSV and JSON", "[cli][history]") {
+  plumb::test::ScratchDir dir;
+  const auto db = hand_built_lab(dir);
+  auto r = run_plumb({"--db", db, "history", "BAL-L", "--quantity", "sd", "--format", "csv"}, dir.path());
+  REQUIRE(r.status == 0);
+  // The same SD worked by hand as above (0.052704627669 mg), and no other quantity's columns.
+  CHECK_THAT(r.out, Catch::StartsWith("run_id,date,procedure,operator,verdict,next_due,supersedes,superseded_by,"
+                                      "sd_mg,sd_u_mg\n"));
+  CHECK_THAT(r.out, !Catch::Contains("bias_mg") && Catch::Contains(",0.05270462767,"));
+  r = run_plumb({"--db", db, "history", "BAL-L", "--quantity", "sd"}, dir.path());
+  REQUIRE(r.status == 0);
+  CHECK_THAT(r.out, Catch::Contains("sd (mg)") && !Catch::Contains("bias (mg)") && !Catch::Contains("min-weight"));
+  r = run_plumb({"--db", db, "history", "BAL-L", "--quantity", "bias", "--format", "json"}, dir.path());
+  REQUIRE(r.status == 0);
+  const json j = json::parse(r.out);
+  REQUIRE(j["columns"].size() == 1);
+  CHECK(j["columns"][0]["key"] == "bias");
+  CHECK(!j["runs"][0]["values"].contains("sd_mg"));
+  // Without --quantity every quantity of a balance is a column, as before.
+  r = run_plumb({"--db", db, "history", "BAL-L", "--format", "csv"}, dir.path());
+  REQUIRE(r.status == 0);
+  CHECK_THAT(r.out, Catch::Contains("bias_mg") && Catch::Contains("sd_mg") && Catch::Contains("min_weight_mg"));
+}
+
 TEST_CASE("drift of the hand-built history: line, R^2 = 1 and an extrapolated date", "[cli][history][drift]") {
   plumb::test::ScratchDir dir;
   const auto db = hand_built_lab(dir);

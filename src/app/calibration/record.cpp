@@ -430,14 +430,40 @@ json calibration_error_at(const store::RunRecord& run, const std::string& load, 
                                  load, lin.fit.x_min, lin.fit.x_max));
   const auto e =
       checks::error_at(lin, at.approx(), extrapolate ? checks::Extrapolation::mark : checks::Extrapolation::refuse);
-  return {{"load", at.to_string()},
+  // The calibrated loads on either side of the load asked for: their errors and expanded uncertainties are
+  // what the certificate states; the fit's standard error alone leaves out the budget of each load.
+  json nearest = json::array();
+  const json* below = nullptr;
+  const json* above = nullptr;
+  static const json no_loads = json::array();
+  // Pointers into the stored set itself (value() would hand back a copy that dies after the loop).
+  const json& loads = set.contains("loads") ? set["loads"] : no_loads;
+  for (const auto& l : loads) {
+    const double ref = l.value("reference_g", 0.0);
+    if (ref <= at_g && (!below || ref > (*below).value("reference_g", 0.0))) below = &l;
+    if (ref >= at_g && (!above || ref < (*above).value("reference_g", 0.0))) above = &l;
+  }
+  for (const json* l : {below, above}) {
+    if (!l || (l == above && above == below)) continue;
+    nearest.push_back({{"index", l->value("index", 0)},
+                       {"reference_g", l->value("reference_g", 0.0)},
+                       {"error_g", l->value("error_g", 0.0)},
+                       {"U_g", l->value("U_g", 0.0)},
+                       {"k", l->value("k", 0.0)}});
+  }
+  return {{"run_id", run.id},
+          {"instrument", run.instrument_id},
+          {"date", to_string(run.performed_on)},
+          {"readability_g", results.value("readability_g", "")},
+          {"load", at.to_string()},
           {"load_g", e.load.g()},
           {"stage", left ? "as-left" : "as-found"},
           {"model", set["fit"].value("model", "")},
           {"indication_g", e.indication.g()},
           {"error_g", e.error.g()},
           {"se_g", e.se.g()},
-          {"extrapolated", e.extrapolated}};
+          {"extrapolated", e.extrapolated},
+          {"nearest_calibrated_loads", nearest}};
 }
 
 }  // namespace plumb::app

@@ -38,7 +38,7 @@ store::CalibrationSettings set_calibration_settings(store::Database& db, const s
                                  s.tolerance));
   s.decision_rule = std::string(checks::key(checks::parse_decision_rule(in.decision_rule, "--decision-rule")));
   s.calibrate_every = Interval::parse(in.calibrate_every, "--calibrate-every");
-  s.effective_on = in.since ? parse_date(*in.since, "--since") : today_utc();
+  s.effective_on = in.since ? parse_date(*in.since, "--since") : today_local();
 
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   require_lab(db);

@@ -19,7 +19,7 @@ namespace {
 
 std::vector<std::string> instrument_ids(store::Database& db) {
   std::vector<std::string> ids;
-  SQLite::Statement q(db.sql(), "SELECT id FROM instruments ORDER BY id");
+  SQLite::Statement q(db.sql(), "SELECT id FROM instruments ORDER BY id COLLATE natural_id");
   while (q.executeStep()) ids.push_back(q.getColumn(0).getString());
   return ids;
 }

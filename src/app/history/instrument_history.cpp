@@ -1,9 +1,11 @@
 #include "app/history/instrument_history.hpp"
 
 #include <fmt/format.h>
+#include <fmt/ranges.h>
 
 #include <SQLiteCpp/Statement.h>
 
+#include <algorithm>
 #include <cctype>
 #include <map>
 
@@ -80,15 +82,18 @@ InstrumentInfo find_instrument(store::Database& db, const std::string& id) {
 }
 
 report::HistoryView history_view(store::Database& db, const InstrumentInfo& inst, const Period& period) {
+  std::vector<const HistoryQuantity*> quantities;
+  for (const auto& q : history_quantities())
+    if (q.instrument_kind == inst.kind) quantities.push_back(&q);
+  return history_view(db, inst, period, quantities);
+}
+
+report::HistoryView history_view(store::Database& db, const InstrumentInfo& inst, const Period& period,
+                                 const std::vector<const HistoryQuantity*>& quantities) {
   const auto runs = store::runs_of(db.sql(), inst.id);
   const auto replaced = superseded_by(runs);
   report::HistoryView view{inst.id, inst.title, period.from, period.to, {}, {}};
-  std::vector<const HistoryQuantity*> quantities;
-  for (const auto& q : history_quantities())
-    if (q.instrument_kind == inst.kind) {
-      quantities.push_back(&q);
-      view.columns.push_back(quantity_view(db, inst, q, runs));
-    }
+  for (const auto* q : quantities) view.columns.push_back(quantity_view(db, inst, *q, runs));
   for (const auto& run : runs) {
     if (!in_period(run.performed_on, period)) continue;
     report::HistoryRow row;
@@ -111,6 +116,26 @@ report::HistoryView history_view(store::Database& db, const InstrumentInfo& inst
     view.rows.push_back(std::move(row));
   }
   return view;
+}
+
+void require_results(store::Database& db, const InstrumentInfo& inst, const HistoryQuantity& q,
+                     const std::string& asked) {
+  std::vector<std::string> points;
+  bool any_run = false;
+  for (const auto& run : store::runs_of(db.sql(), inst.id)) {
+    if (run.procedure != q.procedure) continue;
+    any_run = true;
+    if (q.read(RunContext{run, first_weight(db, run)})) return;
+    if (q.points_tested)
+      for (auto& p : q.points_tested(run))
+        if (std::find(points.begin(), points.end(), p) == points.end()) points.push_back(std::move(p));
+  }
+  // Before the first check a plain quantity simply has no rows yet; a point of one (cv@15uL) names a test
+  // volume or channel, which only a recorded check can show to exist.
+  if (!any_run && asked.find('@') == std::string::npos) return;
+  throw InputError(fmt::format("--quantity \"{}\": no check of {} {} has a result there{}.", asked, inst.kind, inst.id,
+                               points.empty() ? std::string(" (no check has been recorded)")
+                                              : fmt::format(" (tested: {})", fmt::join(points, ", "))));
 }
 
 report::SeriesView series_view(store::Database& db, const InstrumentInfo& inst, const HistoryQuantity& q,

@@ -4,6 +4,7 @@
 // Read-only: nothing here writes.
 #include <optional>
 #include <string>
+#include <vector>
 
 #include "app/history/quantities.hpp"
 #include "report/history/views.hpp"
@@ -23,6 +24,15 @@ InstrumentInfo find_instrument(store::Database& db, const std::string& id);
 
 /// Every run in the period, oldest first, with every quantity of the instrument's kind as a column.
 report::HistoryView history_view(store::Database& db, const InstrumentInfo& instrument, const Period& period);
+
+/// The same with only the given quantities as columns (`history --quantity`).
+report::HistoryView history_view(store::Database& db, const InstrumentInfo& instrument, const Period& period,
+                                 const std::vector<const HistoryQuantity*>& quantities);
+
+/// InputError unless some run of the instrument (in any period) carries `quantity`: a pipette's test volume never
+/// tested, or a channel it does not have, is refused rather than shown as an empty column. `asked` is --quantity.
+void require_results(store::Database& db, const InstrumentInfo& instrument, const HistoryQuantity& quantity,
+                     const std::string& asked);
 
 /// The current (not superseded) results of one quantity in the period, with the tolerance that applies now.
 report::SeriesView series_view(store::Database& db, const InstrumentInfo& instrument, const HistoryQuantity& quantity,

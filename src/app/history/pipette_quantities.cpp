@@ -186,6 +186,17 @@ HistoryQuantity make(const MeasureInfo& mi, const Point& p) {
   };
   q.tolerance = [p, m](const RunContext& c, const InstrumentInfo&) { return tolerance_at(c, p, m); };
   q.select = [&mi](const std::string& selector) { return make(mi, parse_selector(selector, mi.key)); };
+  q.points_tested = [](const store::RunRecord& run) {
+    std::vector<std::string> out;
+    for (const auto& tv : run.results.value("volumes", json::array())) {
+      const std::string volume = tv.value("selected", fmt::format("{:g}", num(tv, "selected_ul")));
+      std::vector<int> channels;
+      for (const auto& ch : tv.value("channels", json::array())) channels.push_back(ch.value("channel", 0));
+      out.push_back(channels.size() > 1 ? fmt::format("{} uL/ch{}-{}", volume, channels.front(), channels.back())
+                                        : fmt::format("{} uL", volume));
+    }
+    return out;
+  };
   q.watched = m != PipetteMeasure::systematic_ul;  // % and CV compare across volumes; the uL view is on request
   return q;
 }

@@ -135,20 +135,49 @@ QuantityTolerance calibration_error_tolerance(const RunContext& latest, const In
 
 std::vector<HistoryQuantity> make_table() {
   std::vector<HistoryQuantity> t;
-  t.push_back({"bias", "balance", checks::Procedure::repeatability, "Bias at the check load", "mg",
+  t.push_back({"bias",
+               "balance",
+               checks::Procedure::repeatability,
+               "Bias at the check load",
+               "mg",
                "U (k = 2) of the bias combines s / sqrt(n), the reference weight's U / k and the rounding of the "
                "zero indication d / (2 sqrt 3) (GUM)",
-               read_bias, [](const RunContext& c) { return "Bias at " + load_text(c); }, bias_tolerance, {}, true});
-  t.push_back({"sd", "balance", checks::Procedure::repeatability, "Repeatability SD", "mg",
+               read_bias,
+               [](const RunContext& c) { return "Bias at " + load_text(c); },
+               bias_tolerance,
+               {},
+               true,
+               {}});
+  t.push_back({"sd",
+               "balance",
+               checks::Procedure::repeatability,
+               "Repeatability SD",
+               "mg",
                "U (k = 2) of the SD is 2 s / sqrt(2 (n - 1)), the spread of a sample SD of n normal readings "
                "(GUM E.4.3)",
-               read_sd, [](const RunContext& c) { return "Repeatability SD at " + load_text(c); }, sd_tolerance, {},
-               true});
-  t.push_back({"min-weight", "balance", checks::Procedure::repeatability, "Minimum weight (USP <41>)", "mg",
+               read_sd,
+               [](const RunContext& c) { return "Repeatability SD at " + load_text(c); },
+               sd_tolerance,
+               {},
+               true,
+               {}});
+  t.push_back({"min-weight",
+               "balance",
+               checks::Procedure::repeatability,
+               "Minimum weight (USP <41>)",
+               "mg",
                "U (k = 2) of the minimum weight is 2000 U(s) when s > 0.41 d, else 0 (the 0.41 d floor sets it)",
-               read_min_weight, [](const RunContext&) { return std::string("Minimum weight (USP <41>)"); },
-               min_weight_tolerance, {}, false});
-  t.push_back({"cal-error", "balance", checks::Procedure::calibration, "Error of indication at the largest load", "mg",
+               read_min_weight,
+               [](const RunContext&) { return std::string("Minimum weight (USP <41>)"); },
+               min_weight_tolerance,
+               {},
+               false,
+               {}});
+  t.push_back({"cal-error",
+               "balance",
+               checks::Procedure::calibration,
+               "Error of indication at the largest load",
+               "mg",
                "U (k from Welch-Satterthwaite, about 95 %) is the calibration's own EURAMET cg-18 budget at that load",
                read_calibration_error,
                [](const RunContext& c) {
@@ -157,7 +186,10 @@ std::vector<HistoryQuantity> make_table() {
                  return ref ? fmt::format("Error of indication at {:.4g} g (final stage)", *ref)
                             : std::string("Error of indication at the largest load");
                },
-               calibration_error_tolerance, {}, false});
+               calibration_error_tolerance,
+               {},
+               false,
+               {}});
   for (auto& q : pipette_quantities()) t.push_back(std::move(q));
   return t;
 }

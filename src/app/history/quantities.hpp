@@ -61,6 +61,9 @@ struct HistoryQuantity {
   std::function<HistoryQuantity(const std::string& selector)> select;
   /// Watched in the HTML report: control chart and drift for each instrument.
   bool watched = false;
+  /// For quantities read at one point: the points a run has results at ("10 uL channel 1", ...), named in the
+  /// refusal of a point no run has; empty otherwise.
+  std::function<std::vector<std::string>(const store::RunRecord&)> points_tested;
 };
 
 /// A pipette's systematic error in uL ("systematic-error") or % ("relative-systematic-error"), or its CV ("cv"), at

@@ -107,7 +107,10 @@ report::HistoryView history(store::Database& db, const TrendRequest& r) {
   require_chart_path(r.chart);
   const InstrumentInfo inst = find_instrument(db, r.instrument);
   const HistoryQuantity& q = find_quantity(r.quantity, inst);
-  report::HistoryView view = history_view(db, inst, r.period);
+  // --quantity named: that column only, in every format, and only if the instrument has such a result.
+  if (!r.quantity.empty()) require_results(db, inst, q, r.quantity);
+  report::HistoryView view =
+      r.quantity.empty() ? history_view(db, inst, r.period) : history_view(db, inst, r.period, {&q});
   if (r.chart) {
     const report::SeriesView s = series_view(db, inst, q, r.period);
     if (s.points.empty())

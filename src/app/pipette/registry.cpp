@@ -130,7 +130,7 @@ store::PipetteRecord add_pipette(store::Database& db, const store::Actor& actor,
   validate_free_text(in.location, "--location", false);
   p.location = in.location;
   p.identity = read_identity(in.identity);
-  p.created_on = in.since ? parse_date(*in.since, "--since") : today_utc();
+  p.created_on = in.since ? parse_date(*in.since, "--since") : today_local();
 
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   require_lab(db);

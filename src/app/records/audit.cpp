@@ -6,6 +6,7 @@
 #include <set>
 
 #include "app/certificates/resolve.hpp"
+#include "core/dates.hpp"
 #include "core/errors.hpp"
 #include "store/audit_trail.hpp"
 #include "store/repository.hpp"
@@ -60,6 +61,29 @@ std::vector<store::AuditRecord> of_certificate(const std::vector<store::AuditRec
   return out;
 }
 
+/// Applies --from, --to and --by, and says so in the scope.
+void narrow(AuditLog& log, const AuditLogFilter& f) {
+  std::optional<Date> from, to;
+  if (f.from) from = parse_date(*f.from, "--from");
+  if (f.to) to = parse_date(*f.to, "--to");
+  if (from && to && *from > *to) throw InputError(fmt::format("--from {} is after --to {}.", *f.from, *f.to));
+  if (f.by && f.by->find_first_not_of(" \t") == std::string::npos)
+    throw InputError("--by must name the person whose records to show (it is empty).");
+  if (!from && !to && !f.by) return;
+  std::erase_if(log.records, [&](const store::AuditRecord& r) {
+    // Recorded times are UTC, ISO 8601: the first ten characters are the date.
+    const std::string day = r.at.substr(0, 10);
+    return (from && day < to_string(*from)) || (to && day > to_string(*to)) || (f.by && r.actor != *f.by);
+  });
+  if (from && to)
+    log.scope += fmt::format(", {} to {} (UTC)", to_string(*from), to_string(*to));
+  else if (from)
+    log.scope += fmt::format(", from {} on (UTC)", to_string(*from));
+  else if (to)
+    log.scope += fmt::format(", up to {} (UTC)", to_string(*to));
+  if (f.by) log.scope += fmt::format(", by {}", *f.by);
+}
+
 }  // namespace
 
 AuditLog audit_log(store::Database& db, const AuditLogFilter& filter) {
@@ -79,6 +103,7 @@ AuditLog audit_log(store::Database& db, const AuditLogFilter& filter) {
     log.scope = "the whole lab";
     log.records = store::audit_records(db.sql());
   }
+  narrow(log, filter);
   return log;
 }
 

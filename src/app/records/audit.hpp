@@ -13,6 +13,8 @@ namespace plumb::app {
 struct AuditLogFilter {
   std::optional<std::string> instrument;   ///< an instrument id
   std::optional<std::string> certificate;  ///< a certificate number (or run number / LAST)
+  std::optional<std::string> from, to;     ///< --from / --to: UTC dates, YYYY-MM-DD, inclusive
+  std::optional<std::string> by;           ///< --by: only the records of this person (the name as recorded)
 };
 
 struct AuditLog {
@@ -24,6 +26,8 @@ struct AuditLog {
 /// own rows, every row naming it (instrument_id), its runs and their rows (run_id), their certificates and
 /// their events (certificate_id), and its retire/reinstate events. A certificate's records are its run with
 /// the run's rows, the certificate, its events and the certificate that replaces it.
+/// --from, --to and --by narrow any of these further; InputError naming the option for a malformed date, a
+/// period that ends before it starts, or an empty name.
 AuditLog audit_log(store::Database& db, const AuditLogFilter& filter);
 
 /// Verifies the trail of the database (see store::verify_audit_trail).

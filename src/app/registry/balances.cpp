@@ -21,7 +21,7 @@ store::BalanceRecord add_balance(store::Database& db, const store::Actor& actor,
   if (b.readability >= b.capacity)
     throw InputError(fmt::format("--readability {} must be smaller than --capacity {}.", in.readability, in.capacity));
   b.every = Interval::parse(in.every, "--every");
-  b.created_on = in.since ? parse_date(*in.since, "--since") : today_utc();
+  b.created_on = in.since ? parse_date(*in.since, "--since") : today_local();
   if (in.smallest_net) {
     b.smallest_net = positive_mass(*in.smallest_net, "--smallest-net");
     if (*b.smallest_net > b.capacity)

@@ -158,19 +158,30 @@ std::string calibration_run_text(const json& r) {
   line("");
   for (const auto& n : r.value("notes", json::array()))
     for (const auto& l : wrap(n.get<std::string>(), 78, "note: ", "  ")) line(l);
-  if (r.contains("error_at")) {
-    const json& a = r["error_at"];
-    line(fmt::format(
-        "Fitted error at {} ({} model, {}): E = {} mg (SE {} mg){}", field_text(a, "load"), field_text(a, "model"),
-        field_text(a, "stage"), mg(number_field(a, "error_g"), 4), mg_unsigned(number_field(a, "se_g"), 4),
-        a.value("extrapolated", false) ? "  EXTRAPOLATED: outside the calibrated range, not reliable" : ""));
-  }
   if (field_text(r, "verdict") == "pass")
     line(fmt::format("Verdict: PASS ({} {}); next calibration due {}", field_text(r, "final_stage"),
                      field_text(r, "final_state"), field_text(r, "next_due")));
   else
     line(fmt::format("Verdict: FAIL ({} {}): out of service until a passing calibration", field_text(r, "final_stage"),
                      field_text(r, "final_state")));
+  return out;
+}
+
+std::string calibration_error_at_text(const json& a) {
+  std::string out;
+  const auto line = [&](const std::string& l) { add_line(out, l); };
+  // One decimal finer than d, in mg: d = 0.1 mg gives "+0.07 mg".
+  const int decimals = std::max(0, d_scale(field_text(a, "readability_g", "")) - 3) + 1;
+  line(fmt::format("Run {}: calibration of {} on {}, {} ({} model)", field_text(a, "run_id"),
+                   field_text(a, "instrument"), field_text(a, "date"), field_text(a, "stage"), field_text(a, "model")));
+  line(fmt::format("  fitted error at {}: E = {} mg (standard error of the fit {} mg){}", field_text(a, "load"),
+                   mg(number_field(a, "error_g"), decimals), mg_unsigned(number_field(a, "se_g"), decimals),
+                   a.value("extrapolated", false) ? "; EXTRAPOLATED: outside the calibrated range, not reliable" : ""));
+  for (const auto& l : a.value("nearest_calibrated_loads", json::array()))
+    line(fmt::format("  calibrated load {} ({} g): E = {} mg, U = {} mg (k = {:.2f})", field_text(l, "index"),
+                     fmt::format("{:.10g}", number_field(l, "reference_g")), mg(number_field(l, "error_g"), decimals),
+                     mg_unsigned(number_field(l, "U_g"), decimals), number_field(l, "k")));
+  line("U is stated at the calibrated loads (EURAMET cg-18); between them the error is read from the fitted model.");
   return out;
 }
 

@@ -17,6 +17,9 @@ std::vector<std::string> calibration_set_lines(const nlohmann::json& set, const 
                                                const CalibrationTextOptions& options = {});
 /// `check show` of a calibration run (`run` as report::run_json gives it).
 std::string calibration_run_text(const nlohmann::json& run);
+/// `check show N --at LOAD`: the fitted error at one load, the run it comes from and the calibrated loads beside it
+/// (`error_at` as app::calibration_error_at gives it).
+std::string calibration_error_at_text(const nlohmann::json& error_at);
 /// What the four conformity states mean, one sentence each, for the given rule key ("simple", "guard-band").
 std::vector<std::string> conformity_state_meanings(const std::string& rule_key);
 

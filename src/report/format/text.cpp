@@ -6,7 +6,9 @@
 #include <cctype>
 
 #include <sstream>
+#include <utility>
 
+#include "core/decimal.hpp"
 #include "core/units.hpp"
 
 namespace plumb::report {
@@ -48,6 +50,64 @@ std::string grams_field(const nlohmann::json& j, const char* key) {
   if (!j.is_object() || !j.contains(key) || j[key].is_null()) return "-";
   if (j[key].is_string()) return ExactMass::grams(Decimal::parse(j[key].get<std::string>())).to_string();
   return mass_text(j[key], 4);
+}
+
+namespace {
+
+/// The code point of the UTF-8 sequence at text[i] and its length; length 0 when the bytes are not UTF-8.
+std::pair<char32_t, std::size_t> next_code_point(std::string_view text, std::size_t i) {
+  const auto byte = [&](std::size_t k) { return static_cast<unsigned char>(text[k]); };
+  const unsigned char b = byte(i);
+  const std::size_t n = b < 0x80 ? 1 : (b >> 5) == 0x6 ? 2 : (b >> 4) == 0xE ? 3 : (b >> 3) == 0x1E ? 4 : 0;
+  if (n == 0 || i + n > text.size()) return {0, 0};
+  char32_t cp = n == 1 ? b : b & (0x7F >> n);
+  for (std::size_t k = 1; k < n; ++k) {
+    if ((byte(i + k) & 0xC0) != 0x80) return {0, 0};
+    cp = (cp << 6) | (byte(i + k) & 0x3F);
+  }
+  return {cp, n};
+}
+
+bool breaks_the_line(char32_t cp) {
+  return cp < 0x20 || (cp >= 0x7F && cp <= 0x9F) || cp == 0x2028 || cp == 0x2029 || (cp >= 0x202A && cp <= 0x202E) ||
+         (cp >= 0x2066 && cp <= 0x2069);
+}
+
+}  // namespace
+
+std::string printable(std::string_view text) {
+  std::string out;
+  out.reserve(text.size());
+  for (std::size_t i = 0; i < text.size();) {
+    const auto [cp, n] = next_code_point(text, i);
+    if (n == 0) {
+      out += fmt::format("\\x{:02x}", static_cast<unsigned char>(text[i]));
+      ++i;
+      continue;
+    }
+    if (!breaks_the_line(cp)) {
+      out.append(text.substr(i, n));
+    } else if (cp == '\n') {
+      out += "\\n";
+    } else if (cp == '\r') {
+      out += "\\r";
+    } else if (cp == '\t') {
+      out += "\\t";
+    } else if (cp < 0x100) {
+      out += fmt::format("\\x{:02x}", static_cast<unsigned>(cp));
+    } else {
+      out += fmt::format("\\u{{{:04x}}}", static_cast<unsigned>(cp));
+    }
+    i += n;
+  }
+  return out;
+}
+
+std::string milligrams_for_d(double grams, const std::string& d_g, int finer, bool with_sign) {
+  const int d_decimals_in_mg = d_g.empty() ? 1 : std::max(0, Decimal::parse(d_g).significant_scale() - 3);
+  const int decimals = d_decimals_in_mg + finer;
+  return with_sign ? fmt::format("{:+.{}f} mg", grams * 1e3, decimals)
+                   : fmt::format("{:.{}f} mg", grams * 1e3, decimals);
 }
 
 std::string fixed_grams_field(const nlohmann::json& j, const char* key, int decimals) {

@@ -2,6 +2,7 @@
 // Small helpers for plain-text reports: masses from JSON gram values, wrapping, rules.
 #include <nlohmann/json.hpp>
 #include <string>
+#include <string_view>
 #include <vector>
 
 namespace plumb::report {
@@ -31,6 +32,15 @@ std::string identity_text(const nlohmann::json& instrument);
 std::string certificate_closing_text(const nlohmann::json& certificate, const std::string& content_sha256);
 /// The reasons (each fail) and notes of a result, wrapped as list items.
 std::string reasons_and_notes_text(const nlohmann::json& result);
+
+/// Free text made safe to print on one line: control characters (C0, DEL, C1), line and paragraph separators and
+/// bidirectional overrides become visible escapes (\n, \t, \x1b, \u{2028}), as do bytes that are not UTF-8, so a
+/// name or reason cannot end a line, start a forged one or reorder what a terminal shows.
+std::string printable(std::string_view text);
+
+/// A computed mass in mg with decimals that follow the readability d (decimal grams, "0.0001"): `finer` decimals
+/// more than d has in mg, so d = 0.01 mg and finer 1 print "+0.018 mg". A d of 1 mg or more counts as 0 decimals.
+std::string milligrams_for_d(double grams, const std::string& d_g, int finer, bool with_sign);
 
 /// A computed gram value with a fixed number of decimals ("-" when absent).
 std::string fixed_grams_field(const nlohmann::json& j, const char* key, int decimals);

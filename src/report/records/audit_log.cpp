@@ -6,6 +6,8 @@
 
 #include "core/text_field.hpp"
 #include "report/format/csv.hpp"
+#include "report/format/text.hpp"
+#include "report/records/audit_line.hpp"
 
 namespace plumb::report {
 namespace {
@@ -18,43 +20,16 @@ json parsed_or_null(const std::optional<std::string>& text) {
   return j.is_discarded() ? json(*text) : j;
 }
 
-/// "column=value, ..." with long values (stored results, certificate content) shortened for reading.
-std::string columns_text(const json& row) {
-  std::string out;
-  for (const auto& [name, value] : row.items()) {
-    if (value.is_object() && value.contains("sha256")) {  // a long text, recorded by its digest
-      out += fmt::format("{}{}=(SHA-256 {}...)", out.empty() ? "" : ", ", name,
-                         value["sha256"].get<std::string>().substr(0, 16));
-      continue;
-    }
-    std::string v = value.is_string() ? value.get<std::string>() : value.dump();
-    if (v.size() > 60) v = v.substr(0, 40) + fmt::format("... ({} characters; complete in --format json)", v.size());
-    out += fmt::format("{}{}={}", out.empty() ? "" : ", ", name, shown_on_one_line(v));
-  }
-  return out;
-}
-
 }  // namespace
 
 // Every stored text is shown on one line (core/text_field.hpp): a name or reason recorded with a line break
 // (by an older plumb, or written behind its back) cannot make the log show a record that is not there.
 std::string audit_log_text(const std::string& scope, const std::vector<store::AuditRecord>& records) {
-  std::string out = fmt::format("Audit trail of {}: {} record(s), times in UTC\n", scope, records.size());
-  for (const auto& r : records) {
-    out += fmt::format("\n#{:<6} {}  {} (OS account {})\n", r.seq, r.at, shown_on_one_line(r.actor),
-                       shown_on_one_line(r.os_user));
-    out += fmt::format("        {} {} {}\n", r.action, r.table_name, shown_on_one_line(r.row_key));
-    if (r.reason) out += fmt::format("        why: {}\n", shown_on_one_line(*r.reason));
-    const json before = parsed_or_null(r.before_json);
-    if (before.is_object()) out += fmt::format("        before: {}\n", columns_text(before));
-    const json after = parsed_or_null(r.after_json);
-    if (r.action == "insert rows") {
-      for (const auto& [table, row] : store::recorded_rows(r))
-        out += fmt::format("        {}: {}\n", table, columns_text(row));
-    } else if (after.is_object()) {
-      out += fmt::format("        after: {}\n", columns_text(after));
-    }
-  }
+  std::string out = fmt::format(
+      "Audit trail of {}: {} record(s), times in UTC (every column, the OS account and the "
+      "hashes: --format csv or json)\n",
+      printable(scope), records.size());
+  for (const auto& r : records) out += fmt::format("#{:<6} {}\n", r.seq, audit_record_line(r));
   return out;
 }
 

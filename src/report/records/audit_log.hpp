@@ -8,7 +8,7 @@
 
 namespace plumb::report {
 
-/// Plain text: one block per record (who, OS account, when, what, why), long values shortened.
+/// Plain text: one line per record (sequence, time, who, what, why), as report/records/audit_line.hpp writes it.
 std::string audit_log_text(const std::string& scope, const std::vector<store::AuditRecord>& records);
 /// RFC 4180 CSV with a header row; every field complete.
 std::string audit_log_csv(const std::vector<store::AuditRecord>& records);

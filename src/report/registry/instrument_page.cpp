@@ -9,7 +9,7 @@ namespace {
 
 using nlohmann::json;
 
-std::string text_of(const json& j, const char* key) {
+std::string page_text(const json& j, const char* key) {
   if (!j.contains(key) || j[key].is_null()) return "-";
   if (j[key].is_string()) return j[key].get<std::string>().empty() ? "-" : j[key].get<std::string>();
   return j[key].dump();
@@ -26,34 +26,34 @@ std::string instrument_page_text(const json& p) {
   const bool balance = p.value("kind", "") == "balance";
   add_line(out, fmt::format("{} {}", balance ? "Balance" : "Pipette", p.value("id", "")));
   const json& id = p["identity"];
-  field(out, "maker / model", fmt::format("{} / {}", text_of(id, "maker"), text_of(id, "model")));
-  field(out, "serial number", text_of(id, "serial"));
-  field(out, "asset tag", text_of(id, "asset_tag"));
-  field(out, "location", text_of(p, "location"));
-  field(out, "checked every", text_of(p, "check_every"));
-  field(out, "in use since", text_of(p, "in_use_since"));
+  field(out, "maker / model", fmt::format("{} / {}", page_text(id, "maker"), page_text(id, "model")));
+  field(out, "serial number", page_text(id, "serial"));
+  field(out, "asset tag", page_text(id, "asset_tag"));
+  field(out, "location", page_text(p, "location"));
+  field(out, "checked every", page_text(p, "check_every"));
+  field(out, "in use since", page_text(p, "in_use_since"));
   if (balance) {
-    field(out, "capacity", text_of(p, "capacity"));
-    field(out, "readability d", text_of(p, "readability"));
+    field(out, "capacity", page_text(p, "capacity"));
+    field(out, "readability d", page_text(p, "readability"));
     const json& w = p["weekly_check"];
     if (w.is_object()) {
-      std::string policy = text_of(w, "policy_name");
-      if (!w["smallest_net"].is_null()) policy += ", smallest net weight " + text_of(w, "smallest_net");
-      if (!w["max_bias"].is_null()) policy += ", |bias| <= " + text_of(w, "max_bias");
-      if (!w["max_sd"].is_null()) policy += ", s <= " + text_of(w, "max_sd");
+      std::string policy = page_text(w, "policy_name");
+      if (!w["smallest_net"].is_null()) policy += ", smallest net weight " + page_text(w, "smallest_net");
+      if (!w["max_bias"].is_null()) policy += ", |bias| <= " + page_text(w, "max_bias");
+      if (!w["max_sd"].is_null()) policy += ", s <= " + page_text(w, "max_sd");
       field(out, "weekly check", policy);
       field(out, "readings per check",
             fmt::format("at least {} ({})", w.value("min_readings", 0), w.value("min_readings_basis", "")));
     }
   } else {
-    field(out, "volume", fmt::format("{} {}{}", text_of(p, "volume_kind"), text_of(p, "nominal"),
-                                     p["lower_limit"].is_null() ? "" : " (from " + text_of(p, "lower_limit") + ")"));
-    field(out, "channels", text_of(p, "channels"));
-    field(out, "limits", text_of(p, "limits"));
+    field(out, "volume", fmt::format("{} {}{}", page_text(p, "volume_kind"), page_text(p, "nominal"),
+                                     p["lower_limit"].is_null() ? "" : " (from " + page_text(p, "lower_limit") + ")"));
+    field(out, "channels", page_text(p, "channels"));
+    field(out, "limits", page_text(p, "limits"));
   }
   const json& s = p["standing"];
   field(out, "status", fmt::format("{}{} (on {})", s.value("status", ""),
-                                   s["due_on"].is_null() ? "" : ", due " + text_of(s, "due_on"), text_of(p, "on")));
+                                   s["due_on"].is_null() ? "" : ", due " + page_text(s, "due_on"), page_text(p, "on")));
   for (const auto& l : s.value("lines", json::array()))
     field(out, "", fmt::format("{}: {} ({})", l.value("kind", ""), l.value("status", ""), l.value("detail", "")));
 
@@ -76,7 +76,7 @@ std::string instrument_page_text(const json& p) {
                               "operator", "verdict", "certificate", "standing"));
   for (const auto& r : runs) {
     const json& c = r["certificate"];
-    const std::string cert = c.is_object() ? fmt::format("{} ({})", text_of(c, "number"), text_of(c, "state")) : "-";
+    const std::string cert = c.is_object() ? fmt::format("{} ({})", page_text(c, "number"), page_text(c, "state")) : "-";
     add_line(out, fmt::format("  {:>5}  {:<10}  {:<13}  {:<20}  {:<7}  {:<16}  {}", r.value("run_id", 0),
                               r.value("date", ""), r.value("procedure", ""), r.value("operator", "").substr(0, 20),
                               r.value("verdict", ""), cert, r.value("standing", "")));

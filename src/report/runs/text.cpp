@@ -49,4 +49,13 @@ std::string run_text(const nlohmann::json& run) {
   return text.insert(first_line_end + 1, standing_lines(run));
 }
 
+std::string run_text_dated_today(const nlohmann::json& run) {
+  std::string text = run_text(run);
+  // Every procedure's heading reads "Run N: ... on DATE by ...": mark the date in that first line only.
+  const std::string on = " on " + run.value("date", "") + " ";
+  if (const auto at = text.find(on); at != std::string::npos && at < text.find('\n'))
+    text.insert(at + on.size() - 1, " (today)");
+  return text;
+}
+
 }  // namespace plumb::report

@@ -8,4 +8,8 @@ namespace plumb::report {
 /// `run` is the JSON of report::run_json.
 std::string run_text(const nlohmann::json& run);
 
+/// The same, with the date of the heading marked as the default a recording took ("on 2026-12-03 (today)"),
+/// so that a run recorded without --on says which date it was given.
+std::string run_text_dated_today(const nlohmann::json& run);
+
 }  // namespace plumb::report

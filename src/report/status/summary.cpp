@@ -4,7 +4,10 @@
 
 #include <nlohmann/json.hpp>
 
+#include <utility>
+
 #include "report/format/csv.hpp"
+#include "report/format/text.hpp"
 
 namespace plumb::report {
 namespace {
@@ -24,7 +27,9 @@ nlohmann::json row_json(const SummaryRow& r) {
               {"operator", i.latest->operator_name},
               {"verdict", std::string(to_string(i.latest->verdict))},
               {"bias_g", opt(i.latest->bias_g)},
-              {"sd_g", opt(i.latest->sd_g)}};
+              {"sd_g", opt(i.latest->sd_g)},
+              {"systematic_error_pct", opt(i.latest->systematic_error_pct)},
+              {"cv_pct", opt(i.latest->cv_pct)}};
   return {{"id", i.id},
           {"kind", i.kind},
           {"location", i.location},
@@ -35,7 +40,20 @@ nlohmann::json row_json(const SummaryRow& r) {
           {"latest", latest}};
 }
 
-constexpr const char* text_row = "{:<16}{:<9}{:<16}{:<12}{:>6}  {:<11}{:<8}{:>13}{:>13}\n";
+constexpr const char* text_row = "{:<16}{:<9}{:<16}{:<12}{:>6}  {:<11}{:<8}{:<17}{}\n";
+
+/// The latest result as a person reads it: a balance's bias and s in mg to the decimals its d calls for, a
+/// pipette's systematic error and CV in %. Empty where the latest run has no such result (a calibration).
+std::pair<std::string, std::string> result_texts(const store::InstrumentStatus& i) {
+  const auto& l = *i.latest;
+  const std::string d = i.readability_g.value_or("");
+  std::string accuracy, precision;
+  if (l.bias_g) accuracy = "bias " + milligrams_for_d(*l.bias_g, d, 1, true);
+  if (l.sd_g) precision = "s " + milligrams_for_d(*l.sd_g, d, 2, false);
+  if (l.systematic_error_pct) accuracy = fmt::format("e_s {:+.2f} %", *l.systematic_error_pct);
+  if (l.cv_pct) precision = fmt::format("CV {:.2f} %", *l.cv_pct);
+  return {accuracy, precision};
+}
 
 }  // namespace
 
@@ -44,12 +62,12 @@ SummaryWriter::SummaryWriter(std::ostream& out, SummaryFormat format, Date on) :
     case SummaryFormat::as_json: fmt::print(out_, "{{\n  \"on\": \"{}\",\n  \"instruments\": [", to_string(on)); break;
     case SummaryFormat::as_csv:
       CsvWriter(out_).header({"id", "kind", "location", "status", "next_due", "days_left", "last_run", "last_date",
-                              "procedure", "verdict", "bias_g", "sd_g"});
+                              "procedure", "verdict", "bias_g", "sd_g", "systematic_error_pct", "cv_pct"});
       break;
     case SummaryFormat::as_text:
       fmt::print(out_, "Lab summary on {}:\n", to_string(on));
       fmt::print(out_, text_row, "instrument", "kind", "status", "next due", "days", "last check", "verdict",
-                 "bias (g)", "s (g)");
+                 "accuracy", "precision");
       break;
   }
 }
@@ -66,18 +84,20 @@ void SummaryWriter::row(const SummaryRow& r) {
       if (l) {
         csv.integer(l->run_id).value(to_string(l->performed_on)).value(checks::to_string(l->procedure));
         csv.value(to_string(l->verdict)).value(opt_number(l->bias_g)).value(opt_number(l->sd_g));
+        csv.value(opt_number(l->systematic_error_pct)).value(opt_number(l->cv_pct));
       } else {
-        csv.empty().empty().empty().empty().empty().empty();
+        csv.empty().empty().empty().empty().empty().empty().empty().empty();
       }
       csv.end_row();
       break;
     }
-    case SummaryFormat::as_text:
+    case SummaryFormat::as_text: {
+      const auto [accuracy, precision] = l ? result_texts(i) : std::pair<std::string, std::string>();
       fmt::print(out_, text_row, i.id, i.kind, r.status, r.next_due ? to_string(*r.next_due) : "-",
                  opt_int(r.days_left), l ? to_string(l->performed_on) : "never",
-                 l ? std::string(to_string(l->verdict)) : "-", l ? opt_number(l->bias_g) : "",
-                 l ? opt_number(l->sd_g) : "");
+                 l ? std::string(to_string(l->verdict)) : "-", accuracy, precision);
       break;
+    }
   }
   ++count_;
 }
@@ -86,7 +106,14 @@ void SummaryWriter::finish() {
   switch (format_) {
     case SummaryFormat::as_json: out_ << (count_ ? "\n  ]\n}\n" : "]\n}\n"); break;
     case SummaryFormat::as_csv: break;
-    case SummaryFormat::as_text: fmt::print(out_, "{} instrument(s).\n", count_); break;
+    case SummaryFormat::as_text:
+      fmt::print(out_, "{} instrument(s).\n", count_);
+      for (const auto& l : wrap("Balances: bias and repeatability s of the latest check, in mg to the readability. "
+                                "Pipettes: the systematic error e_s farthest from zero and the largest CV over the "
+                                "test volumes and channels of the latest check (ISO 8655-6).",
+                                100))
+        fmt::print(out_, "{}\n", l);
+      break;
   }
 }
 
