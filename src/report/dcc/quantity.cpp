@@ -33,6 +33,46 @@ bool is_dsi_decimal(std::string_view text) {
   return std::regex_match(text.begin(), text.end(), pattern);
 }
 
+std::optional<std::string> plain_decimal(std::string_view text) {
+  if (!is_dsi_decimal(text)) return std::nullopt;
+  std::string s(text);
+  bool negative = false;
+  if (s[0] == '+' || s[0] == '-') {
+    negative = s[0] == '-';
+    s.erase(0, 1);
+  }
+  int exponent = 0;
+  if (const auto e = s.find_first_of("eE"); e != std::string::npos) {
+    const std::string digits = s.substr(e + 1);
+    if (digits.size() > 4) return std::nullopt;  // beyond any mass or volume plumb keeps
+    exponent = std::stoi(digits);
+    s.erase(e);
+  }
+  // Digits without the point, and where the point stood: the value is 0.DIGITS x 10^point.
+  std::string digits;
+  int point = -1;
+  for (char c : s) {
+    if (c == '.') point = static_cast<int>(digits.size());
+    else digits += c;
+  }
+  if (point < 0) point = static_cast<int>(digits.size());
+  point += exponent;
+  if (point > 40 || point < -40) return std::nullopt;
+  if (point <= 0) {
+    digits.insert(0, static_cast<std::size_t>(-point) + 1, '0');
+    point = 1;
+  }
+  if (point > static_cast<int>(digits.size())) digits.append(static_cast<std::size_t>(point) - digits.size(), '0');
+  std::string out = digits.substr(0, static_cast<std::size_t>(point));
+  const std::string fraction = digits.substr(static_cast<std::size_t>(point));
+  if (!fraction.empty()) out += "." + fraction;
+  // Leading zeros of the integer part are noise; one stays before the point.
+  const auto first = out.find_first_not_of('0');
+  if (first == std::string::npos || out[first] == '.') out = "0" + out.substr(first == std::string::npos ? out.size() : first);
+  else out = out.substr(first);
+  return negative ? "-" + out : out;
+}
+
 std::string decimal_text(const nlohmann::json& value, std::string_view what) {
   std::string text;
   if (value.is_string()) text = value.get<std::string>();

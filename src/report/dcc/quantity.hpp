@@ -17,6 +17,10 @@ namespace plumb::report::dcc {
 /// True when `text` is a number as D-SI writes one (si:decimalType: "-0.0001", "1.5e-05"; no "nan", no "inf").
 bool is_dsi_decimal(std::string_view text);
 
+/// A D-SI decimal read back as plain decimal text, exactly ("1.5E-5" -> "0.000015", "+2" -> "2"), for
+/// Decimal::parse; nullopt when `text` is not a D-SI decimal.
+std::optional<std::string> plain_decimal(std::string_view text);
+
 /// A stored number as D-SI text: a string as stored, a number in its shortest round-trip form.
 /// StorageError naming `what` for null, a non-finite number or a text that is not a decimal.
 std::string decimal_text(const nlohmann::json& value, std::string_view what);
