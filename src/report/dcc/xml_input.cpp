@@ -6,6 +6,7 @@
 #include <libxml/xmlIO.h>
 #include <libxml/xmlschemas.h>
 
+#include <algorithm>
 #include <fstream>
 #include <iterator>
 #include <memory>
@@ -69,10 +70,14 @@ XmlDoc parse_untrusted_xml(std::string_view text, std::string_view field) {
     throw InputError(fmt::format("{} is not well-formed XML ({}).", field,
                                  errors.first().empty() ? "no document" : errors.first()));
   if (doc->intSubset || doc->extSubset) {
-    const long line = doc->intSubset ? xmlGetLineNo(reinterpret_cast<xmlNodePtr>(doc->intSubset)) : 1;
+    // libxml2 keeps no line for the DTD node; the declaration's own text says where it is.
+    const auto at = text.find("<!DOCTYPE");
+    const auto line = 1 + std::count(text.begin(), text.begin() + static_cast<std::ptrdiff_t>(
+                                                                       at == std::string_view::npos ? 0 : at),
+                                     '\n');
     throw InputError(fmt::format("{} line {}: declares a DOCTYPE, which a DCC never has; refused, as it could "
                                  "pull in external entities.",
-                                 field, line > 0 ? line : 1));
+                                 field, line));
   }
   return doc;
 }
