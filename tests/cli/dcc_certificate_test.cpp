@@ -33,8 +33,8 @@ void ok(const std::vector<std::string>& args, const plumb::test::ScratchDir& dir
 /// The DCC of `selector`, checked to be well-formed and valid against the schema.
 plumb::test::TestXmlDoc valid_dcc(const std::string& db, const std::string& selector,
                                   const plumb::test::ScratchDir& dir, const std::filesystem::path& schema) {
-  const auto r = run_plumb({"--db", db, "certificate", "show", selector, "--format", "dcc", "--country", "DE"},
-                           dir.path());
+  const auto r =
+      run_plumb({"--db", db, "certificate", "show", selector, "--format", "dcc", "--country", "DE"}, dir.path());
   INFO("stderr: " << r.err);
   REQUIRE(r.status == 0);
   CHECK(r.err.empty());
@@ -54,9 +54,14 @@ double number(const std::string& text) {
 /// Every unit text in the document is one of the D-SI spellings plumb should write (the schema accepts any
 /// string, so a misspelt unit would validate).
 void check_units(xmlDoc* doc) {
-  const std::set<std::string> dsi = {"\\gram",           "\\milli\\gram",  "\\micro\\litre",
-                                     "\\percent",        "\\one",          "\\degreecelsius",
-                                     "\\hecto\\pascal",  "\\kilogram\\metre\\tothe{-3}",
+  const std::set<std::string> dsi = {"\\gram",
+                                     "\\milli\\gram",
+                                     "\\micro\\litre",
+                                     "\\percent",
+                                     "\\one",
+                                     "\\degreecelsius",
+                                     "\\hecto\\pascal",
+                                     "\\kilogram\\metre\\tothe{-3}",
                                      "\\micro\\litre\\milli\\gram\\tothe{-1}"};
   std::vector<std::string> units = xpath_texts(doc, "//si:unit");
   for (const auto& list : xpath_texts(doc, "//si:unitXMLList"))
@@ -81,8 +86,27 @@ std::string calibration_lab(const plumb::test::ScratchDir& dir) {
      dir);
   for (const auto& [id, nominal, u] : std::vector<std::tuple<std::string, std::string, std::string>>{
            {"W20", "20g", "0.025mg"}, {"W50", "50g", "0.03mg"}, {"W100", "100g", "0.05mg"}, {"W200", "200g", "0.10mg"}})
-    ok({"--db", db, "weight", "add", id, "--nominal", nominal, "--class", "E2", "--correction", "0mg", "--uncertainty",
-        u, "--k", "2", "--certificate", "RC-" + id, "--calibrated", "2026-03-02", "--due", "2027-03-02"},
+    ok({"--db",
+        db,
+        "weight",
+        "add",
+        id,
+        "--nominal",
+        nominal,
+        "--class",
+        "E2",
+        "--correction",
+        "0mg",
+        "--uncertainty",
+        u,
+        "--k",
+        "2",
+        "--certificate",
+        "RC-" + id,
+        "--calibrated",
+        "2026-03-02",
+        "--due",
+        "2027-03-02"},
        dir);
   std::string csv = "stage,part,load,position,direction,reading,unit\n";
   for (int i = 0; i < 10; ++i)
@@ -94,9 +118,10 @@ std::string calibration_lab(const plumb::test::ScratchDir& dir) {
       "as-found,indication,W50,,up,50.0002,g\nas-found,indication,W100,,up,100.0004,g\n"
       "as-found,indication,W100+W50,,up,150.0006,g\nas-found,indication,W200,,up,200.0008,g\n";
   dir.write("cal.csv", csv);
-  ok({"--db", db, "check", "record", "BAL-C", "--procedure", "calibration", "--readings", "cal.csv", "--temperature",
-      "20", "--pressure", "1013.25", "--humidity", "50", "--air-formula", "oiml-r111", "--on", "2026-11-30", "--by",
-      "A. Technician"},
+  ok({"--db",        db,           "check",        "record",        "BAL-C",     "--procedure",
+      "calibration", "--readings", "cal.csv",      "--temperature", "20",        "--pressure",
+      "1013.25",     "--humidity", "50",           "--air-formula", "oiml-r111", "--on",
+      "2026-11-30",  "--by",       "A. Technician"},
      dir);
   ok({"--db", db, "certificate", "issue", "LAST", "--by", "Q. Manager"}, dir);
   return db;
@@ -104,7 +129,9 @@ std::string calibration_lab(const plumb::test::ScratchDir& dir) {
 
 const char* as_found = "//dcc:measurementResult[@refType='plumb_asFound']";
 
-std::string in_as_found(const std::string& rest) { return std::string(as_found) + rest; }
+std::string in_as_found(const std::string& rest) {
+  return std::string(as_found) + rest;
+}
 
 }  // namespace
 
@@ -169,7 +196,8 @@ TEST_CASE("dcc: a calibration certificate validates and carries the hand-worked 
 
   // Traceability: the four weights with their certificates and U, k (k = 2: 0.9545, normal distribution).
   CHECK(xpath_texts(d, in_as_found("//dcc:measuringEquipment[@refType='plumb_referenceWeight']")).size() == 4);
-  const auto certificates = xpath_texts(d, in_as_found("//dcc:measuringEquipment//dcc:identification[dcc:issuer='other']/dcc:value"));
+  const auto certificates =
+      xpath_texts(d, in_as_found("//dcc:measuringEquipment//dcc:identification[dcc:issuer='other']/dcc:value"));
   CHECK(certificates == std::vector<std::string>{"RC-W100", "RC-W20", "RC-W50", "RC-W200"});
   CHECK(xpath_texts(d, in_as_found("//dcc:measuringEquipment//si:coverageProbability"))[0] == "0.9545");
   CHECK(xpath_texts(d, in_as_found("//dcc:measuringEquipment//si:uncertainty"))[0] == "0.00005");
@@ -207,7 +235,8 @@ TEST_CASE("dcc: a broken DCC fails validation (the test's validation can fail)",
   }
   plumb::test::ScratchDir dir;
   const auto db = calibration_lab(dir);
-  const auto r = run_plumb({"--db", db, "certificate", "show", "LAST", "--format", "dcc", "--country", "DE"}, dir.path());
+  const auto r =
+      run_plumb({"--db", db, "certificate", "show", "LAST", "--format", "dcc", "--country", "DE"}, dir.path());
   REQUIRE(r.status == 0);
 
   // A required element removed.
@@ -256,19 +285,20 @@ TEST_CASE("dcc: a pipette certificate validates and carries the ISO 8655-6 resul
   ok({"--db", db, "balance", "add", "SM-02", "--capacity", "120g", "--readability", "0.01mg", "--every", "7d",
       "--smallest-net", "50mg", "--location", "Weighing room", "--since", "2026-01-05"},
      dir);
-  ok({"--db", db, "check", "record", "SM-02", "--weight", "W100", "--readings", "sm02.csv", "--on", "2026-11-30", "--by",
-      "A. Technician"},
+  ok({"--db", db, "check", "record", "SM-02", "--weight", "W100", "--readings", "sm02.csv", "--on", "2026-11-30",
+      "--by", "A. Technician"},
      dir);
   ok({"--db", db, "pipette", "add", "P-07", "--nominal", "100uL", "--range", "fixed", "--every", "3mo", "--location",
       "Lab 2", "--since", "2026-06-01", "--by", "Q. Manager"},
      dir);
   std::string w = "volume,channel,reading\n";
-  for (const char* reading : {"0.09971", "0.09965", "0.09980", "0.09958", "0.09992", "0.09975", "0.09969", "0.09983",
-                              "0.09961", "0.09977"})
+  for (const char* reading :
+       {"0.09971", "0.09965", "0.09980", "0.09958", "0.09992", "0.09975", "0.09969", "0.09983", "0.09961", "0.09977"})
     w += std::string("100uL,1,") + reading + "\n";
   dir.write("w.csv", w);
-  ok({"--db", db, "check", "record", "P-07", "--procedure", "gravimetric", "--balance", "SM-02", "--water-temp", "20",
-      "--pressure", "1013", "--humidity", "50", "--readings", "w.csv", "--on", "2026-12-01", "--by", "A. Technician"},
+  ok({"--db",      db,           "check",        "record", "P-07",       "--procedure", "gravimetric",
+      "--balance", "SM-02",      "--water-temp", "20",     "--pressure", "1013",        "--humidity",
+      "50",        "--readings", "w.csv",        "--on",   "2026-12-01", "--by",        "A. Technician"},
      dir);
   ok({"--db", db, "certificate", "issue", "LAST", "--by", "Q. Manager"}, dir);
   auto doc = valid_dcc(db, "PC-2026-0001", dir, *schema);
@@ -282,8 +312,8 @@ TEST_CASE("dcc: a pipette certificate validates and carries the ISO 8655-6 resul
   // e_s = +0.01532 uL = +0.01532 %; s_r = 0.1048020 uL; CV = 0.10479 %; limits 0.8 uL and 0.3 uL
   // (ISO 8655-2:2002 Table 1, from memory).
   const auto list_value = [&](const char* ref_type) {
-    return number(xpath_text(d, std::string("//dcc:quantity[@refType='") + ref_type +
-                                    "']/si:realListXMLList/si:valueXMLList"));
+    return number(
+        xpath_text(d, std::string("//dcc:quantity[@refType='") + ref_type + "']/si:realListXMLList/si:valueXMLList"));
   };
   CHECK_THAT(list_value("plumb_meanVolume"), microlitres_near(100.01532, ul(0.000005)));
   CHECK_THAT(list_value("plumb_systematicError"), microlitres_near(0.01532, ul(0.000005)));

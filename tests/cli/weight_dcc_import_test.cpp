@@ -83,7 +83,8 @@ TEST_CASE("weight recalibrate --from-dcc records the provider's certificate", "[
   CHECK_THAT(r.err, Catch::Contains("NMS-2027-0417") && Catch::Contains("already recorded"));
 }
 
-TEST_CASE("weight recalibrate --from-dcc: a correction in mg in scientific notation, and --due", "[cli][weights][dcc]") {
+TEST_CASE("weight recalibrate --from-dcc: a correction in mg in scientific notation, and --due",
+          "[cli][weights][dcc]") {
   const auto schema = plumb::test::dcc_schema_path();
   if (!schema) {
     WARN("skipped: the DCC schema of shared/reference-data/dcc was not found (set PLUMB_REFERENCE_DATA)");
@@ -91,7 +92,8 @@ TEST_CASE("weight recalibrate --from-dcc: a correction in mg in scientific notat
   }
   plumb::test::ScratchDir dir;
   const auto db = plumb::test::example_lab(dir).string();
-  std::string dcc = replaced(provider_dcc(), "<dcc:uniqueIdentifier>NMS-2027-0417", "<dcc:uniqueIdentifier>NMS-2027-0418");
+  std::string dcc =
+      replaced(provider_dcc(), "<dcc:uniqueIdentifier>NMS-2027-0417", "<dcc:uniqueIdentifier>NMS-2027-0418");
   // A correction of -2.5E-2 mg with U = 4.5E-2 mg: -0.000025 g and 0.000045 g, exactly (U within a third of
   // the E2 MPE at 100 g, 0.16 mg, OIML R 111-1:2004 Table 1).
   dcc = replaced(dcc, R"(<dcc:quantity refType="conventionalMass">
@@ -134,8 +136,8 @@ TEST_CASE("weight recalibrate --from-dcc refuses an external entity and reads no
   dir.write("secret.txt", "TOP-SECRET-CERTIFICATE-KEY");
   const std::string entity = "<!DOCTYPE dcc:digitalCalibrationCertificate [<!ENTITY leak SYSTEM \"" +
                              dir.file("secret.txt").string() + "\">]>\n";
-  std::string dcc = replaced(provider_dcc(), "<dcc:digitalCalibrationCertificate ",
-                             entity + "<dcc:digitalCalibrationCertificate ");
+  std::string dcc =
+      replaced(provider_dcc(), "<dcc:digitalCalibrationCertificate ", entity + "<dcc:digitalCalibrationCertificate ");
   dcc = replaced(dcc, "<dcc:uniqueIdentifier>NMS-2027-0417", "<dcc:uniqueIdentifier>&leak;");
   dir.write("cert.xml", dcc);
   const std::string before = plumb::test::dump_database(db);

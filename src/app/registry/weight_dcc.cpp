@@ -112,14 +112,15 @@ MassQuantity read_mass(DccReader& r, xmlNodePtr quantity, const std::string& nam
   const std::string unit_text = r.text("si:real/si:unit", quantity);
   const auto unit = dcc::find_dsi_unit(unit_text);
   if (!unit || unit->dimension != dcc::Dimension::mass)
-    throw InputError(fmt::format("{} line {}: the unit \"{}\" of \"{}\" is not a D-SI unit of mass (\\gram, "
-                                 "\\milli\\gram, \\kilogram ...).",
-                                 field, m.line, unit_text, name));
+    throw InputError(
+        fmt::format("{} line {}: the unit \"{}\" of \"{}\" is not a D-SI unit of mass (\\gram, "
+                    "\\milli\\gram, \\kilogram ...).",
+                    field, m.line, unit_text, name));
   const auto exact = [&](const std::string& text, const char* what) {
     const auto plain = dcc::plain_decimal(text);
     if (!plain)
-      throw InputError(fmt::format("{} line {}: the {} \"{}\" of \"{}\" is not a number.", field, m.line, what, text,
-                                   name));
+      throw InputError(
+          fmt::format("{} line {}: the {} \"{}\" of \"{}\" is not a number.", field, m.line, what, text, name));
     return ExactMass::grams(Decimal::parse(*plain, field).shifted(unit->exponent_to_base));
   };
   m.value = exact(r.text("si:real/si:value", quantity), "value");
@@ -135,8 +136,8 @@ MassQuantity read_mass(DccReader& r, xmlNodePtr quantity, const std::string& nam
 void require_this_weight(DccReader& r, const store::WeightRecord& weight, const std::string& field) {
   const auto items = r.nodes("/dcc:digitalCalibrationCertificate/dcc:administrativeData/dcc:items/dcc:item");
   if (items.size() != 1)
-    throw InputError(fmt::format("{} certifies {} items; plumb reads the certificate of one weight.", field,
-                                 items.size()));
+    throw InputError(
+        fmt::format("{} certifies {} items; plumb reads the certificate of one weight.", field, items.size()));
   std::vector<std::string> named;
   for (xmlNodePtr v : r.nodes("dcc:identifications/dcc:identification/dcc:value", items[0]))
     named.push_back(DccReader::content(v));
@@ -144,9 +145,10 @@ void require_this_weight(DccReader& r, const store::WeightRecord& weight, const 
     if (n == weight.id) return;
   std::string list;
   for (const auto& n : named) list += (list.empty() ? "" : ", ") + n;
-  throw InputError(fmt::format("{} line {}: the item is identified as {}, not as weight {}; this is another "
-                               "weight's certificate.",
-                               field, xmlGetLineNo(items[0]), list.empty() ? "nothing" : list, weight.id));
+  throw InputError(
+      fmt::format("{} line {}: the item is identified as {}, not as weight {}; this is another "
+                  "weight's certificate.",
+                  field, xmlGetLineNo(items[0]), list.empty() ? "nothing" : list, weight.id));
 }
 
 /// A due date the provider states: a statement with a dcc:date whose refType or declaration speaks of
@@ -181,25 +183,28 @@ WeightCertificateInput weight_certificate_from_dcc(const store::WeightRecord& we
                                                   : nullptr;
     if (!slot) continue;
     if (*slot)
-      throw InputError(fmt::format("{} line {}: \"{}\" is a second result of its kind (the first is \"{}\" on line "
-                                   "{}); plumb reads the certificate of one weight.",
-                                   field, xmlGetLineNo(q), name, (*slot)->name, (*slot)->line));
+      throw InputError(
+          fmt::format("{} line {}: \"{}\" is a second result of its kind (the first is \"{}\" on line "
+                      "{}); plumb reads the certificate of one weight.",
+                      field, xmlGetLineNo(q), name, (*slot)->name, (*slot)->line));
     *slot = read_mass(r, q, name, field);
   }
   if (nominal && nominal->value != weight.nominal)
-    throw InputError(fmt::format("{} line {}: the nominal value {} is not that of weight {} ({}); this is another "
-                                 "weight's certificate.",
-                                 field, nominal->line, nominal->value.to_string(), weight.id,
-                                 weight.nominal.to_string()));
+    throw InputError(
+        fmt::format("{} line {}: the nominal value {} is not that of weight {} ({}); this is another "
+                    "weight's certificate.",
+                    field, nominal->line, nominal->value.to_string(), weight.id, weight.nominal.to_string()));
   const MassQuantity* result = correction ? &*correction : conventional ? &*conventional : nullptr;
   if (!result)
-    throw InputError(fmt::format("{} gives no conventional mass and no correction of it{}; plumb records the "
-                                 "conventional mass (OIML D 28).",
-                                 field, true_mass ? fmt::format(" (only \"{}\")", true_mass->name) : ""));
+    throw InputError(
+        fmt::format("{} gives no conventional mass and no correction of it{}; plumb records the "
+                    "conventional mass (OIML D 28).",
+                    field, true_mass ? fmt::format(" (only \"{}\")", true_mass->name) : ""));
   if (!result->uncertainty)
-    throw InputError(fmt::format("{} line {}: \"{}\" has no si:expandedUnc; the expanded uncertainty U and its "
-                                 "coverage factor are needed.",
-                                 field, result->line, result->name));
+    throw InputError(
+        fmt::format("{} line {}: \"{}\" has no si:expandedUnc; the expanded uncertainty U and its "
+                    "coverage factor are needed.",
+                    field, result->line, result->name));
 
   WeightCertificateInput out;
   out.certificate =
@@ -211,8 +216,10 @@ WeightCertificateInput weight_certificate_from_dcc(const store::WeightRecord& we
   out.calibrated =
       r.text("/dcc:digitalCalibrationCertificate/dcc:administrativeData/dcc:coreData/dcc:endPerformanceDate");
   const std::string due = stated_due_date(r);
-  if (in.due) out.due = *in.due;
-  else if (!due.empty()) out.due = due;
+  if (in.due)
+    out.due = *in.due;
+  else if (!due.empty())
+    out.due = due;
   else
     throw InputError(fmt::format("{} states no recalibration due date; give it with --due YYYY-MM-DD.", field));
   out.override_reason = in.override_reason;

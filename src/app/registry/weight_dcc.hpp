@@ -16,9 +16,9 @@
 namespace plumb::app {
 
 struct WeightDccInput {
-  std::string file;                       ///< the provider's DCC
-  std::string schema;                     ///< dcc-3.1.2 XSD whose D-SI import is a local file
-  std::optional<std::string> due;         ///< required when the DCC states no due date; wins over it otherwise
+  std::string file;                ///< the provider's DCC
+  std::string schema;              ///< dcc-3.1.2 XSD whose D-SI import is a local file
+  std::optional<std::string> due;  ///< required when the DCC states no due date; wins over it otherwise
   std::optional<std::string> override_reason;
 };
 

@@ -175,8 +175,10 @@ void add_statements(xmlNodePtr admin, const json& doc) {
   add(conformity, "conformity", dcc_conformity(key));
 
   std::string rule = text_of(doc, "decision_rule");
-  if (doc.contains("calibration")) rule = text_of(doc["calibration"]["decision_rule"], "statement");
-  else rule = fmt::format("Decision rule: {}.", rule);
+  if (doc.contains("calibration"))
+    rule = text_of(doc["calibration"]["decision_rule"], "statement");
+  else
+    rule = fmt::format("Decision rule: {}.", rule);
   add_statement(statements, "plumb_decisionRule", {"ILAC G8:09/2019"}, rule);
   if (doc.contains("uncertainty_statement"))
     add_statement(statements, "plumb_uncertainty", {"JCGM 100:2008 (GUM)"}, text_of(doc, "uncertainty_statement"));

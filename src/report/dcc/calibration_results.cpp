@@ -33,7 +33,7 @@ void add_error_of_indication(xmlNodePtr results, const json& doc, const json& st
   if (rows.empty()) return;
   const json& loads = stored_loads(doc, stage.value("stage", ""));
   RealList nominal = list_in(Unit::gram), reference = list_in(Unit::gram), indication = list_in(Unit::gram),
-      error = list_in(Unit::gram), tolerance = list_in(Unit::gram), hysteresis = list_in(Unit::gram);
+           error = list_in(Unit::gram), tolerance = list_in(Unit::gram), hysteresis = list_in(Unit::gram);
   std::vector<std::string> states;
   bool any_hysteresis = false;
   for (std::size_t i = 0; i < rows.size(); ++i) {
@@ -45,8 +45,8 @@ void add_error_of_indication(xmlNodePtr results, const json& doc, const json& st
     indication.values.push_back(decimal_text(r["indication_g"], "indication"));
     error.labels.push_back(label);
     error.values.push_back(decimal_text(r["error_g"], "error of indication"));
-    error.uncertainties.push_back({decimal_text(r["U_g"], "expanded uncertainty"), decimal_text(r["k"], "k"),
-                                   coverage_probability(loads, i, r)});
+    error.uncertainties.push_back(
+        {decimal_text(r["U_g"], "expanded uncertainty"), decimal_text(r["k"], "k"), coverage_probability(loads, i, r)});
     tolerance.values.push_back(decimal_text(r["tolerance_g"], "tolerance"));
     if (!r["hysteresis_g"].is_null()) any_hysteresis = true;
     hysteresis.values.push_back(r["hysteresis_g"].is_null() ? "0" : decimal_text(r["hysteresis_g"], "hysteresis"));
@@ -68,8 +68,8 @@ void add_error_of_indication(xmlNodePtr results, const json& doc, const json& st
 
 void add_repeatability(xmlNodePtr results, const json& stage) {
   for (const auto& r : stage["repeatability"]) {
-    xmlNodePtr data = add_result(results, fmt::format("Repeatability at {} g", r.value("load_g", "")),
-                                 "plumb_repeatability");
+    xmlNodePtr data =
+        add_result(results, fmt::format("Repeatability at {} g", r.value("load_g", "")), "plumb_repeatability");
     add_real_quantity(data, "test load", "plumb_load", decimal_text(r["load_g"], "repeatability load"), Unit::gram);
     add_real_quantity(data, "number of readings", "plumb_count", decimal_text(r["n"], "n"), Unit::one);
     add_real_quantity(data, "mean of the readings", "plumb_mean", decimal_text(r["mean_g"], "mean"), Unit::gram);
@@ -81,8 +81,8 @@ void add_repeatability(xmlNodePtr results, const json& stage) {
 void add_eccentricity(xmlNodePtr results, const json& stage) {
   const json& ecc = stage["eccentricity"];
   if (!ecc.is_object() || ecc.empty()) return;
-  xmlNodePtr data = add_result(results, fmt::format("Eccentricity at {} g", ecc.value("load_g", "")),
-                               "plumb_eccentricity");
+  xmlNodePtr data =
+      add_result(results, fmt::format("Eccentricity at {} g", ecc.value("load_g", "")), "plumb_eccentricity");
   add_real_quantity(data, "reading at the centre", "plumb_centreReading", decimal_text(ecc["centre_g"], "centre"),
                     Unit::gram);
   RealList deviations = list_in(Unit::gram);
@@ -92,15 +92,15 @@ void add_eccentricity(xmlNodePtr results, const json& stage) {
   }
   if (!deviations.values.empty())
     add_list_quantity(data, "deviation from the centre reading at each position", "plumb_deviation", deviations);
-  add_real_quantity(data, fmt::format("largest deviation (at {})", ecc.value("max_position", "")),
-                    "plumb_maxDeviation", decimal_text(ecc["max_abs_deviation_g"], "largest deviation"), Unit::gram);
+  add_real_quantity(data, fmt::format("largest deviation (at {})", ecc.value("max_position", "")), "plumb_maxDeviation",
+                    decimal_text(ecc["max_abs_deviation_g"], "largest deviation"), Unit::gram);
 }
 
 void add_fit(xmlNodePtr results, const json& stage) {
   const json& fit = stage["fit"];
   if (!fit.is_object() || !fit.contains("error_equation")) return;
-  xmlNodePtr data = add_result(results, fmt::format("Fitted model of the error ({})", fit.value("model", "")),
-                               "plumb_fit");
+  xmlNodePtr data =
+      add_result(results, fmt::format("Fitted model of the error ({})", fit.value("model", "")), "plumb_fit");
   add_text(data, "text", fmt::format("{} (m and E in g)", fit.value("error_equation", "")));
   add_real_quantity(data, "root mean square of the residuals", "plumb_rmse", decimal_text(fit["rmse_g"], "RMSE"),
                     Unit::gram);

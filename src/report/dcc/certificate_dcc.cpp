@@ -19,9 +19,15 @@ std::string certificate_dcc(const nlohmann::json& doc, const DccOptions& options
   add_administrative_data(root, doc, options);
   xmlNodePtr results = add(root, "measurementResults");
   switch (*procedure) {
-    case checks::Procedure::repeatability: add_weekly_check_results(results, doc); break;
-    case checks::Procedure::calibration: add_calibration_results(results, doc); break;
-    case checks::Procedure::gravimetric: add_pipette_results(results, doc); break;
+    case checks::Procedure::repeatability:
+      add_weekly_check_results(results, doc);
+      break;
+    case checks::Procedure::calibration:
+      add_calibration_results(results, doc);
+      break;
+    case checks::Procedure::gravimetric:
+      add_pipette_results(results, doc);
+      break;
   }
   return to_xml_text(xml.get());
 }

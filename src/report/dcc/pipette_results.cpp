@@ -17,9 +17,9 @@ void add_balance_used(xmlNodePtr equipments, const json& balance) {
   xmlNodePtr e = add(equipments, "measuringEquipment");
   set_attribute(e, "refType", "plumb_balanceUsed");
   add_text(e, "name", fmt::format("Balance {}", balance.value("id", "")));
-  std::string check = fmt::format("checked on {} (run {}, {} procedure): {}; due {}",
-                                  balance.value("checked_on", ""), balance.value("check_run", 0),
-                                  balance.value("check_procedure", ""), balance.value("check_verdict", ""),
+  std::string check = fmt::format("checked on {} (run {}, {} procedure): {}; due {}", balance.value("checked_on", ""),
+                                  balance.value("check_run", 0), balance.value("check_procedure", ""),
+                                  balance.value("check_verdict", ""),
                                   balance["due_on"].is_string() ? balance["due_on"].get<std::string>() : "-");
   if (balance["check_certificate"].is_string())
     check += fmt::format(", certificate {}", balance["check_certificate"].get<std::string>());
@@ -50,8 +50,9 @@ void add_conditions(xmlNodePtr result, const json& check) {
 
 void add_volume(xmlNodePtr results, const json& volume, const std::string& limits_name) {
   RealList channel = list_in(Unit::one), n = list_in(Unit::one), mean = list_in(Unit::microlitre),
-      systematic = list_in(Unit::microlitre), systematic_pct = list_in(Unit::percent), random = list_in(Unit::microlitre),
-      cv = list_in(Unit::percent), limit_systematic = list_in(Unit::microlitre), limit_random = list_in(Unit::microlitre);
+           systematic = list_in(Unit::microlitre), systematic_pct = list_in(Unit::percent),
+           random = list_in(Unit::microlitre), cv = list_in(Unit::percent),
+           limit_systematic = list_in(Unit::microlitre), limit_random = list_in(Unit::microlitre);
   std::vector<std::string> states;
   for (const auto& c : volume["channels"]) {
     channel.values.push_back(decimal_text(c["channel"], "channel"));
@@ -74,9 +75,9 @@ void add_volume(xmlNodePtr results, const json& volume, const std::string& limit
   add_list_quantity(list, "number of weighings", "plumb_count", n);
   add_list_quantity(list, "mean volume", "plumb_meanVolume", mean);
   xmlNodePtr s = add_list_quantity(list, "systematic error e_s", "plumb_systematicError", systematic);
-  add_conformity(s, fmt::format("Conformity of each channel with the limits of {} (systematic and random error).",
-                                limits_name),
-                 states);
+  add_conformity(
+      s, fmt::format("Conformity of each channel with the limits of {} (systematic and random error).", limits_name),
+      states);
   add_list_quantity(list, "systematic error e_s, relative", "plumb_systematicErrorRelative", systematic_pct);
   add_list_quantity(list, "random error s_r", "plumb_randomError", random);
   add_list_quantity(list, "coefficient of variation CV", "plumb_coefficientOfVariation", cv);

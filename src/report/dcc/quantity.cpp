@@ -52,8 +52,10 @@ std::optional<std::string> plain_decimal(std::string_view text) {
   std::string digits;
   int point = -1;
   for (char c : s) {
-    if (c == '.') point = static_cast<int>(digits.size());
-    else digits += c;
+    if (c == '.')
+      point = static_cast<int>(digits.size());
+    else
+      digits += c;
   }
   if (point < 0) point = static_cast<int>(digits.size());
   point += exponent;
@@ -68,19 +70,24 @@ std::optional<std::string> plain_decimal(std::string_view text) {
   if (!fraction.empty()) out += "." + fraction;
   // Leading zeros of the integer part are noise; one stays before the point.
   const auto first = out.find_first_not_of('0');
-  if (first == std::string::npos || out[first] == '.') out = "0" + out.substr(first == std::string::npos ? out.size() : first);
-  else out = out.substr(first);
+  if (first == std::string::npos || out[first] == '.')
+    out = "0" + out.substr(first == std::string::npos ? out.size() : first);
+  else
+    out = out.substr(first);
   return negative ? "-" + out : out;
 }
 
 std::string decimal_text(const nlohmann::json& value, std::string_view what) {
   std::string text;
-  if (value.is_string()) text = value.get<std::string>();
-  else if (value.is_number_integer()) text = fmt::format("{}", value.get<long long>());
-  else if (value.is_number() && std::isfinite(value.get<double>())) text = fmt::format("{}", value.get<double>());
+  if (value.is_string())
+    text = value.get<std::string>();
+  else if (value.is_number_integer())
+    text = fmt::format("{}", value.get<long long>());
+  else if (value.is_number() && std::isfinite(value.get<double>()))
+    text = fmt::format("{}", value.get<double>());
   if (!is_dsi_decimal(text))
-    throw StorageError(fmt::format("the stored certificate's {} ({}) is not a number a DCC can carry.", what,
-                                   value.dump()));
+    throw StorageError(
+        fmt::format("the stored certificate's {} ({}) is not a number a DCC can carry.", what, value.dump()));
   return text;
 }
 
@@ -91,7 +98,8 @@ std::string normal_coverage_probability(const nlohmann::json& k) {
 }
 
 xmlNodePtr add_real_quantity(xmlNodePtr parent, std::string_view name, std::string_view ref_type,
-                             const std::string& value, Unit unit, const std::optional<ExpandedUncertainty>& uncertainty) {
+                             const std::string& value, Unit unit,
+                             const std::optional<ExpandedUncertainty>& uncertainty) {
   xmlNodePtr q = add(parent, "quantity");
   add_name_and_ref_type(q, name, ref_type);
   xmlNodePtr real = add_si(q, "real");
@@ -106,7 +114,8 @@ xmlNodePtr add_real_quantity(xmlNodePtr parent, std::string_view name, std::stri
   return q;
 }
 
-xmlNodePtr add_list_quantity(xmlNodePtr parent, std::string_view name, std::string_view ref_type, const RealList& list) {
+xmlNodePtr add_list_quantity(xmlNodePtr parent, std::string_view name, std::string_view ref_type,
+                             const RealList& list) {
   xmlNodePtr q = add(parent, "quantity");
   add_name_and_ref_type(q, name, ref_type);
   xmlNodePtr l = add_si(q, "realListXMLList");

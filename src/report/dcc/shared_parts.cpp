@@ -13,13 +13,14 @@ void add_reference_weights(xmlNodePtr measuring_equipments, const json& weights)
   for (const auto& w : weights) {
     xmlNodePtr e = add(measuring_equipments, "measuringEquipment");
     set_attribute(e, "refType", "plumb_referenceWeight");
-    add_text(e, "name", fmt::format("Reference weight {} ({}, OIML R 111 class {})", w.value("id", ""),
-                                    w.value("nominal", ""), w.value("class", "")));
+    add_text(e, "name",
+             fmt::format("Reference weight {} ({}, OIML R 111 class {})", w.value("id", ""), w.value("nominal", ""),
+                         w.value("class", "")));
     add_text(e, "description",
              fmt::format("Calibration certificate {}, calibrated {}, due {}; conventional mass = nominal + correction "
-                    "({} g).",
-                    w.value("certificate", ""), w.value("calibrated_on", ""), w.value("due_on", ""),
-                    w.value("correction_g", "")));
+                         "({} g).",
+                         w.value("certificate", ""), w.value("calibrated_on", ""), w.value("due_on", ""),
+                         w.value("correction_g", "")));
     xmlNodePtr ids = add(e, "identifications");
     xmlNodePtr id = add(ids, "identification");
     add(id, "issuer", "owner");

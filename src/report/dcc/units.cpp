@@ -24,7 +24,9 @@ constexpr std::array<UnitRow, 12> rows{{
 
 }  // namespace
 
-std::span<const UnitRow> unit_table() { return rows; }
+std::span<const UnitRow> unit_table() {
+  return rows;
+}
 
 std::string_view dsi_text(Unit u) {
   for (const auto& r : rows)

@@ -27,9 +27,9 @@ enum class Dimension { mass, volume, volume_per_mass, ratio, temperature, pressu
 
 struct UnitRow {
   Unit unit;
-  std::string_view dsi;   ///< the D-SI text written into si:unit
+  std::string_view dsi;  ///< the D-SI text written into si:unit
   Dimension dimension;
-  int exponent_to_base;   ///< power of ten to the base unit of its dimension: gram, microlitre (mg -> -3)
+  int exponent_to_base;  ///< power of ten to the base unit of its dimension: gram, microlitre (mg -> -3)
 };
 
 /// Every unit plumb writes, one row each.

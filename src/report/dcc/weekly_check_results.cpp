@@ -23,8 +23,7 @@ void add_weekly_check_results(xmlNodePtr results, const json& doc) {
   const std::string policy = check.value("policy_name", "");
   xmlNodePtr m = add(results, "measurementResult");
   add_text(m, "name", "Balance check: repeatability and accuracy");
-  add_text(m, "description",
-           fmt::format("Repeated weighings of one reference weight, judged under {}.", policy));
+  add_text(m, "description", fmt::format("Repeated weighings of one reference weight, judged under {}.", policy));
   add_used_method(m, fmt::format("repeatability and accuracy check ({})", policy), {policy});
   if (!doc["weights"].empty()) add_reference_weights(add(m, "measuringEquipments"), doc["weights"]);
   xmlNodePtr list = add(m, "results");
@@ -38,11 +37,11 @@ void add_weekly_check_results(xmlNodePtr results, const json& doc) {
   add_if_stored(data, "minimum weight", "plumb_minimumWeight", check["min_weight_g"], Unit::gram);
 
   for (const auto& c : check["criteria"]) {
-    xmlNodePtr criterion =
-        add_result(list, fmt::format("Criterion: {} ({})", c.value("name", ""), c.value("basis", "")), "plumb_criterion");
+    xmlNodePtr criterion = add_result(
+        list, fmt::format("Criterion: {} ({})", c.value("name", ""), c.value("basis", "")), "plumb_criterion");
     const std::string quantity = c.value("quantity", "");
-    xmlNodePtr measured = add_real_quantity(criterion, quantity, "plumb_measured",
-                                            decimal_text(c["measured_g"], quantity), Unit::gram);
+    xmlNodePtr measured =
+        add_real_quantity(criterion, quantity, "plumb_measured", decimal_text(c["measured_g"], quantity), Unit::gram);
     add_conformity(measured, fmt::format("Conformity of the {} with its limit.", quantity),
                    {c.value("pass", false) ? "pass" : "fail"});
     add_if_stored(criterion, "limit", "plumb_limit", c["limit_g"], Unit::gram);

@@ -2,8 +2,8 @@
 
 #include <fmt/format.h>
 #include <libxml/parser.h>
-#include <libxml/xmlerror.h>
 #include <libxml/xmlIO.h>
+#include <libxml/xmlerror.h>
 #include <libxml/xmlschemas.h>
 
 #include <algorithm>
@@ -67,17 +67,18 @@ XmlDoc parse_untrusted_xml(std::string_view text, std::string_view field) {
   const int options = XML_PARSE_NONET | XML_PARSE_NOERROR | XML_PARSE_NOWARNING;
   XmlDoc doc(xmlCtxtReadMemory(parser.get(), text.data(), static_cast<int>(text.size()), nullptr, "UTF-8", options));
   if (!doc)
-    throw InputError(fmt::format("{} is not well-formed XML ({}).", field,
-                                 errors.first().empty() ? "no document" : errors.first()));
+    throw InputError(
+        fmt::format("{} is not well-formed XML ({}).", field, errors.first().empty() ? "no document" : errors.first()));
   if (doc->intSubset || doc->extSubset) {
     // libxml2 keeps no line for the DTD node; the declaration's own text says where it is.
     const auto at = text.find("<!DOCTYPE");
-    const auto line = 1 + std::count(text.begin(), text.begin() + static_cast<std::ptrdiff_t>(
-                                                                       at == std::string_view::npos ? 0 : at),
-                                     '\n');
-    throw InputError(fmt::format("{} line {}: declares a DOCTYPE, which a DCC never has; refused, as it could "
-                                 "pull in external entities.",
-                                 field, line));
+    const auto line =
+        1 + std::count(text.begin(), text.begin() + static_cast<std::ptrdiff_t>(at == std::string_view::npos ? 0 : at),
+                       '\n');
+    throw InputError(
+        fmt::format("{} line {}: declares a DOCTYPE, which a DCC never has; refused, as it could "
+                    "pull in external entities.",
+                    field, line));
   }
   return doc;
 }
@@ -100,9 +101,10 @@ std::optional<std::string> schema_violation(xmlDoc* doc, const std::filesystem::
   std::unique_ptr<xmlSchemaParserCtxt, SchemaParserFree> parser(xmlSchemaNewParserCtxt(schema.c_str()));
   std::unique_ptr<xmlSchema, SchemaFree> xsd(parser ? xmlSchemaParse(parser.get()) : nullptr);
   if (!xsd)
-    throw InputError(fmt::format("{} \"{}\" could not be loaded offline ({}); use the copy whose import of D-SI "
-                                 "points at a local SI_Format-2.1.0.xsd.",
-                                 schema_field, schema.string(), errors.first()));
+    throw InputError(
+        fmt::format("{} \"{}\" could not be loaded offline ({}); use the copy whose import of D-SI "
+                    "points at a local SI_Format-2.1.0.xsd.",
+                    schema_field, schema.string(), errors.first()));
   std::unique_ptr<xmlSchemaValidCtxt, ValidFree> valid(xmlSchemaNewValidCtxt(xsd.get()));
   if (!valid) throw StorageError("libxml2 could not create a schema validation context.");
   const int result = xmlSchemaValidateDoc(valid.get(), doc);

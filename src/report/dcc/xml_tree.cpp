@@ -5,7 +5,9 @@
 namespace plumb::report::dcc {
 namespace {
 
-const xmlChar* x(const char* s) { return reinterpret_cast<const xmlChar*>(s); }
+const xmlChar* x(const char* s) {
+  return reinterpret_cast<const xmlChar*>(s);
+}
 
 xmlNsPtr ns_of(xmlNodePtr parent, const char* href) {
   xmlNsPtr ns = xmlSearchNsByHref(parent->doc, parent, x(href));
@@ -31,14 +33,18 @@ XmlDoc new_dcc_document() {
   return doc;
 }
 
-xmlNodePtr add(xmlNodePtr parent, const char* name) { return child(parent, dcc_namespace, name, nullptr); }
+xmlNodePtr add(xmlNodePtr parent, const char* name) {
+  return child(parent, dcc_namespace, name, nullptr);
+}
 
 xmlNodePtr add(xmlNodePtr parent, const char* name, std::string_view text) {
   const std::string t(text);
   return child(parent, dcc_namespace, name, &t);
 }
 
-xmlNodePtr add_si(xmlNodePtr parent, const char* name) { return child(parent, si_namespace, name, nullptr); }
+xmlNodePtr add_si(xmlNodePtr parent, const char* name) {
+  return child(parent, si_namespace, name, nullptr);
+}
 
 xmlNodePtr add_si(xmlNodePtr parent, const char* name, std::string_view text) {
   const std::string t(text);
