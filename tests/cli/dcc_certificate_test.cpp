@@ -376,3 +376,28 @@ TEST_CASE("dcc: a weekly check certificate validates, and withdrawn it says so a
   CHECK_THAT(xpath_text(d, "//dcc:statement[@refType='plumb_certificateStatus']/dcc:declaration/dcc:content"),
              Catch::StartsWith("WITHDRAWN") && Catch::Contains("recorded on the wrong balance"));
 }
+
+TEST_CASE("dcc: a replacement names the certificate it replaces, and the replaced one is superseded", "[cli][dcc]") {
+  const auto schema = plumb::test::dcc_schema_path();
+  if (!schema) {
+    WARN("skipped: the DCC schema of shared/reference-data/dcc was not found (set PLUMB_REFERENCE_DATA)");
+    return;
+  }
+  plumb::test::ScratchDir dir;
+  const auto db = plumb::test::example_lab(dir).string();
+  dir.write("r.csv", "reading\n100.0003\n100.0004\n100.0003\n");
+  ok({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on", "2026-11-30", "--by",
+      "A. Technician"},
+     dir);
+  ok({"--db", db, "certificate", "issue", "LAST", "--by", "Q. Manager"}, dir);
+  ok({"--db", db, "check", "correct", "1", "--on", "2026-11-29", "--reason", "date typed wrong", "--by", "Q. Manager"},
+     dir);
+  auto doc = valid_dcc(db, "BC-2026-0002", dir, *schema);
+  CHECK(xpath_text(doc.get(), "//dcc:statement[@refType='plumb_replaces']/dcc:declaration/dcc:content") ==
+        "This certificate replaces certificate BC-2026-0001 (reason: date typed wrong).");
+  CHECK(xpath_text(doc.get(), "//dcc:coreData/dcc:endPerformanceDate") == "2026-11-29");
+  doc = valid_dcc(db, "BC-2026-0001", dir, *schema);
+  CHECK(xpath_text(doc.get(), "//dcc:statement[@refType='plumb_certificateStatus']/dcc:valid") == "false");
+  CHECK_THAT(xpath_text(doc.get(), "//dcc:statement[@refType='plumb_certificateStatus']/dcc:declaration/dcc:content"),
+             Catch::StartsWith("SUPERSEDED by certificate BC-2026-0002"));
+}

@@ -27,12 +27,12 @@ struct XPathObjectFree {
   void operator()(xmlXPathObject* o) const { xmlXPathFreeObject(o); }
 };
 
-std::string lower(std::string s) {
+std::string lowercase_of(std::string s) {
   std::transform(s.begin(), s.end(), s.begin(), [](unsigned char c) { return static_cast<char>(std::tolower(c)); });
   return s;
 }
 
-std::string trimmed(std::string s) {
+std::string without_blanks_around(std::string s) {
   const auto b = s.find_first_not_of(" \t\r\n");
   if (b == std::string::npos) return {};
   return s.substr(b, s.find_last_not_of(" \t\r\n") - b + 1);
@@ -70,7 +70,7 @@ class DccReader {
     xmlChar* c = xmlNodeGetContent(n);
     std::string s = c ? reinterpret_cast<const char*>(c) : "";
     xmlFree(c);
-    return trimmed(s);
+    return without_blanks_around(s);
   }
 
   static std::string attribute(xmlNodePtr n, const char* name) {
@@ -88,7 +88,7 @@ class DccReader {
 enum class MassKind { correction, conventional, nominal, true_mass, other };
 
 MassKind kind_of(const std::string& ref_type, const std::string& name) {
-  const std::string words = lower(ref_type + " " + name);
+  const std::string words = lowercase_of(ref_type + " " + name);
   if (words.find("correction") != std::string::npos) return MassKind::correction;
   if (words.find("conventional") != std::string::npos) return MassKind::conventional;
   if (words.find("nominal") != std::string::npos) return MassKind::nominal;
@@ -155,7 +155,7 @@ void require_this_weight(DccReader& r, const store::WeightRecord& weight, const 
 /// recalibration or a due date.
 std::string stated_due_date(DccReader& r) {
   for (xmlNodePtr s : r.nodes("//dcc:administrativeData/dcc:statements/dcc:statement[dcc:date]")) {
-    const std::string words = lower(DccReader::attribute(s, "refType") + " " + r.text("dcc:declaration", s));
+    const std::string words = lowercase_of(DccReader::attribute(s, "refType") + " " + r.text("dcc:declaration", s));
     if (words.find("recalibrat") != std::string::npos || words.find("due") != std::string::npos)
       return r.text("dcc:date", s);
   }

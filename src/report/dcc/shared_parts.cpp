@@ -73,6 +73,7 @@ void add_conformity(xmlNodePtr quantity, const std::string& declaration, const s
   add(m, "norm", "ILAC G8:09/2019");
   add_text(m, "declaration", declaration);
   std::vector<std::string> states;
+  states.reserve(state_keys.size());
   for (const auto& k : state_keys) states.push_back(dcc_conformity(k));
   if (states.size() == 1) {
     add(m, "conformity", states[0]);

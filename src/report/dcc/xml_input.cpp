@@ -59,7 +59,7 @@ struct ValidFree {
 XmlDoc parse_untrusted_xml(std::string_view text, std::string_view field) {
   if (text.size() > max_xml_bytes)
     throw InputError(fmt::format("{} is larger than {} MiB; a DCC of one item is a few kilobytes.", field,
-                                 max_xml_bytes / (1024 * 1024)));
+                                 max_xml_bytes / (std::size_t{1024} * 1024)));
   ErrorCapture errors;
   std::unique_ptr<xmlParserCtxt, ParserFree> parser(xmlNewParserCtxt());
   if (!parser) throw StorageError("libxml2 could not create a parser.");

@@ -14,7 +14,7 @@
 namespace plumb::report::dcc {
 
 /// Larger files are refused before parsing: a DCC of one weight is a few kilobytes.
-inline constexpr std::size_t max_xml_bytes = 4 * 1024 * 1024;
+inline constexpr std::size_t max_xml_bytes = std::size_t{4} * 1024 * 1024;
 
 /// Parses `text` as untrusted XML. InputError naming `field` (e.g. "--from-dcc cert.xml") and the line at
 /// fault: not well-formed, a DOCTYPE, or too large.

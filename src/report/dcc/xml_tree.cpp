@@ -5,18 +5,19 @@
 namespace plumb::report::dcc {
 namespace {
 
-const xmlChar* x(const char* s) {
+const xmlChar* xml_chars(const char* s) {
   return reinterpret_cast<const xmlChar*>(s);
 }
 
 xmlNsPtr ns_of(xmlNodePtr parent, const char* href) {
-  xmlNsPtr ns = xmlSearchNsByHref(parent->doc, parent, x(href));
+  xmlNsPtr ns = xmlSearchNsByHref(parent->doc, parent, xml_chars(href));
   if (!ns) throw StorageError(std::string("DCC writer: namespace ") + href + " is not declared");
   return ns;
 }
 
 xmlNodePtr child(xmlNodePtr parent, const char* href, const char* name, const std::string* text) {
-  xmlNodePtr n = xmlNewTextChild(parent, ns_of(parent, href), x(name), text ? x(text->c_str()) : nullptr);
+  xmlNodePtr n =
+      xmlNewTextChild(parent, ns_of(parent, href), xml_chars(name), text ? xml_chars(text->c_str()) : nullptr);
   if (!n) throw StorageError(std::string("DCC writer: libxml2 could not add element ") + name);
   return n;
 }
@@ -24,12 +25,12 @@ xmlNodePtr child(xmlNodePtr parent, const char* href, const char* name, const st
 }  // namespace
 
 XmlDoc new_dcc_document() {
-  XmlDoc doc(xmlNewDoc(x("1.0")));
-  xmlNodePtr root = xmlNewNode(nullptr, x("digitalCalibrationCertificate"));
+  XmlDoc doc(xmlNewDoc(xml_chars("1.0")));
+  xmlNodePtr root = xmlNewNode(nullptr, xml_chars("digitalCalibrationCertificate"));
   xmlDocSetRootElement(doc.get(), root);
-  xmlSetNs(root, xmlNewNs(root, x(dcc_namespace), x("dcc")));
-  xmlNewNs(root, x(si_namespace), x("si"));
-  xmlNewProp(root, x("schemaVersion"), x("3.1.2"));
+  xmlSetNs(root, xmlNewNs(root, xml_chars(dcc_namespace), xml_chars("dcc")));
+  xmlNewNs(root, xml_chars(si_namespace), xml_chars("si"));
+  xmlNewProp(root, xml_chars("schemaVersion"), xml_chars("3.1.2"));
   return doc;
 }
 
@@ -60,7 +61,7 @@ xmlNodePtr add_text(xmlNodePtr parent, const char* name, std::string_view text) 
 
 void set_attribute(xmlNodePtr node, const char* name, std::string_view value) {
   const std::string v(value);
-  xmlSetProp(node, x(name), x(v.c_str()));
+  xmlSetProp(node, xml_chars(name), xml_chars(v.c_str()));
 }
 
 std::string to_xml_text(xmlDoc* doc) {
