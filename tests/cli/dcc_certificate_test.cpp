@@ -401,3 +401,57 @@ TEST_CASE("dcc: a replacement names the certificate it replaces, and the replace
   CHECK_THAT(xpath_text(doc.get(), "//dcc:statement[@refType='plumb_certificateStatus']/dcc:declaration/dcc:content"),
              Catch::StartsWith("SUPERSEDED by certificate BC-2026-0002"));
 }
+
+TEST_CASE("dcc: the item's maker, model, serial and asset tag, and the lab's address from the layout", "[cli][dcc]") {
+  const auto schema = plumb::test::dcc_schema_path();
+  if (!schema) {
+    WARN("skipped: the DCC schema of shared/reference-data/dcc was not found (set PLUMB_REFERENCE_DATA)");
+    return;
+  }
+  plumb::test::ScratchDir dir;
+  const auto db = plumb::test::example_lab(dir).string();
+  // An invented maker and model.
+  ok({"--db",
+      db,
+      "balance",
+      "add",
+      "BAL-M",
+      "--capacity",
+      "220g",
+      "--readability",
+      "0.1mg",
+      "--every",
+      "7d",
+      "--smallest-net",
+      "200mg",
+      "--maker",
+      "Invented Weighing Works",
+      "--model",
+      "IW-220",
+      "--serial",
+      "SN 0042-7",
+      "--asset-tag",
+      "LAB-0815",
+      "--location",
+      "Room 2",
+      "--since",
+      "2026-01-05"},
+     dir);
+  dir.write("r.csv", "reading\n100.0003\n100.0004\n100.0003\n");
+  ok({"--db", db, "check", "record", "BAL-M", "--weight", "W100", "--readings", "r.csv", "--on", "2026-11-30", "--by",
+      "A. Technician"},
+     dir);
+  dir.write("layout.json", R"({"address_lines": ["Building 4, Room 2.17", "1 Example Street, Exampletown"],
+    "accreditation": "EX-K-00000", "signatories": [{"role": "Performed by", "name": "{operator}"}]})");
+  ok({"--db", db, "certificate", "issue", "LAST", "--layout", "layout.json", "--by", "Q. Manager"}, dir);
+  auto doc = valid_dcc(db, "LAST", dir, *schema);
+  xmlDoc* d = doc.get();
+  CHECK(xpath_text(d, "//dcc:item/dcc:manufacturer/dcc:name/dcc:content") == "Invented Weighing Works");
+  CHECK(xpath_text(d, "//dcc:item/dcc:model") == "IW-220");
+  CHECK(xpath_text(d, "//dcc:item//dcc:identification[dcc:issuer='manufacturer']/dcc:value") == "SN 0042-7");
+  CHECK(xpath_text(d, "//dcc:item//dcc:identification[dcc:issuer='owner']/dcc:value") == "LAB-0815");
+  CHECK_THAT(xpath_text(d, "//dcc:item/dcc:description/dcc:content"), Catch::Contains("location: Room 2"));
+  CHECK(xpath_texts(d, "//dcc:calibrationLaboratory//dcc:location/dcc:further/dcc:content") ==
+        std::vector<std::string>{"Building 4, Room 2.17", "1 Example Street, Exampletown"});
+  CHECK(xpath_text(d, "//dcc:calibrationLaboratory/dcc:calibrationLaboratoryCode") == "EX-K-00000");
+}
