@@ -110,6 +110,9 @@ TEST_CASE("weight recalibrate --from-dcc: a correction in mg in scientific notat
                 <si:unit>\milli\gram</si:unit>
                 <si:expandedUnc>
                   <si:uncertainty>4.5E-2</si:uncertainty>)");
+  // xs:date may carry a time zone; the certificate's date is the calendar day.
+  dcc = replaced(dcc, "<dcc:endPerformanceDate>2027-02-18</dcc:endPerformanceDate>",
+                 "<dcc:endPerformanceDate>2027-02-18+01:00</dcc:endPerformanceDate>");
   dir.write("cert.xml", dcc);
   const auto r = run_plumb({"--db", db, "weight", "recalibrate", "W100", "--from-dcc", "cert.xml", "--dcc-schema",
                             schema->string(), "--due", "2027-08-18", "--by", "Q. Manager"},
@@ -121,6 +124,7 @@ TEST_CASE("weight recalibrate --from-dcc: a correction in mg in scientific notat
   const json c = certificate_named(json::parse(shown.out), "NMS-2027-0418");
   REQUIRE(c.is_object());
   CHECK_THAT(c["conventional_mass_g"].get<double>(), grams_near(99.999975, ug(0.001)));  // 100 - 0.000025
+  CHECK(c["calibrated_on"] == "2027-02-18");
   CHECK(c["due_on"] == "2027-08-18");  // --due wins over the provider's recommendation
 }
 

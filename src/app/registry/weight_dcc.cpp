@@ -84,6 +84,15 @@ class DccReader {
   std::unique_ptr<xmlXPathContext, XPathContextFree> ctx_;
 };
 
+/// An xs:date as a calendar date: "2027-02-18Z" and "2027-02-18+01:00" (a time zone is allowed there) are the
+/// day 2027-02-18 for a certificate.
+std::string calendar_date(const std::string& xs_date) {
+  if (xs_date.size() <= 10) return xs_date;
+  const std::string zone = xs_date.substr(10);
+  const bool is_zone = zone == "Z" || (zone.size() == 6 && (zone[0] == '+' || zone[0] == '-') && zone[3] == ':');
+  return is_zone ? xs_date.substr(0, 10) : xs_date;
+}
+
 /// What a mass quantity of the DCC is, from its refType and its name (providers name them differently).
 enum class MassKind { correction, conventional, nominal, true_mass, other };
 
@@ -157,7 +166,7 @@ std::string stated_due_date(DccReader& r) {
   for (xmlNodePtr s : r.nodes("//dcc:administrativeData/dcc:statements/dcc:statement[dcc:date]")) {
     const std::string words = lowercase_of(DccReader::attribute(s, "refType") + " " + r.text("dcc:declaration", s));
     if (words.find("recalibrat") != std::string::npos || words.find("due") != std::string::npos)
-      return r.text("dcc:date", s);
+      return calendar_date(r.text("dcc:date", s));
   }
   return {};
 }
@@ -213,8 +222,8 @@ WeightCertificateInput weight_certificate_from_dcc(const store::WeightRecord& we
   out.correction = c.in_grams().to_string() + "g";
   out.uncertainty = result->uncertainty->in_grams().to_string() + "g";
   out.k = result->k;
-  out.calibrated =
-      r.text("/dcc:digitalCalibrationCertificate/dcc:administrativeData/dcc:coreData/dcc:endPerformanceDate");
+  out.calibrated = calendar_date(
+      r.text("/dcc:digitalCalibrationCertificate/dcc:administrativeData/dcc:coreData/dcc:endPerformanceDate"));
   const std::string due = stated_due_date(r);
   if (in.due)
     out.due = *in.due;
