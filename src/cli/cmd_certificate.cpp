@@ -1,5 +1,8 @@
 #include <fmt/ostream.h>
 
+#include "app/certificates/dcc_export.hpp"
+#include "app/certificates/pdf.hpp"
+#include "app/certificates/review.hpp"
 #include "app/certificates/issue.hpp"
 #include "app/certificates/list.hpp"
 #include "app/certificates/pdf.hpp"
@@ -8,6 +11,7 @@
 #include "cli/command_groups.hpp"
 #include "core/errors.hpp"
 #include "report/certificates/list.hpp"
+#include "plumb/version.hpp"
 #include "report/certificates/status_text.hpp"
 #include "report/certificates/text.hpp"
 
@@ -69,20 +73,34 @@ std::vector<Command> certificate_commands() {
                   print_certificate(db, outcome.certificate, format, output, env);
                   return 0;
                 }};
-  Command show{"certificate", "show", "show a stored certificate by number, LAST (the last issued) or run number",
-               "plumb certificate show BC-2026-0001",
+  Command show{"certificate", "show",
+               "show a stored certificate by number, LAST (the last issued) or run number; --format dcc writes it as "
+               "a Digital Calibration Certificate (DCC 3.1.2 XML, D-SI 2.1.0 units; see doc/dcc.md)",
+               "plumb certificate show CC-2026-0001 --format dcc --country DE > CC-2026-0001.xml",
                [](po::options_description& d, po::positional_options_description& p) {
                  d.add_options()("number", po::value<std::string>()->required(),
                                  "certificate number, LAST (the last certificate issued) or a run number (its "
                                  "certificate)");
-                 add_format_option(d, "text|json|pdf");
-                 d.add_options()("output", po::value<std::string>(), "FILE.pdf for --format pdf");
+                 add_format_option(d, "text|json|pdf|dcc");
+                 d.add_options()("output", po::value<std::string>(), "FILE.pdf for --format pdf")(
+                     "country", po::value<std::string>(),
+                     "the laboratory's ISO 3166-1 two-letter country code, for --format dcc (e.g. DE)");
                  p.add("number", 1);
                },
                [](const po::variables_map& vm, Env& env) {
-                 const auto format = format_of(vm, {"text", "json", "pdf"});
+                 const auto format = format_of(vm, {"text", "json", "pdf", "dcc"});
                  const auto output = pdf_output(vm, format);
+                 const auto country = optional_string(vm, "country");
+                 if (format == "dcc" && !country)
+                   throw InputError("--format dcc needs --country, the laboratory's ISO 3166-1 two-letter country "
+                                    "code (e.g. --country DE).");
+                 if (format != "dcc" && country)
+                   throw InputError(fmt::format("--country is for --format dcc, not {}.", format));
                  auto db = env.open();
+                 if (format == "dcc") {
+                   env.out << app::certificate_dcc(db, vm["number"].as<std::string>(), {*country, plumb::version});
+                   return 0;
+                 }
                  print_certificate(db, app::resolve_certificate(db, vm["number"].as<std::string>()), format, output,
                                    env);
                  return 0;

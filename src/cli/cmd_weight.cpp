@@ -1,8 +1,12 @@
 #include <fmt/ostream.h>
 
+#include <cstdlib>
+
+#include "app/registry/weight_dcc.hpp"
 #include "app/registry/weight_details.hpp"
 #include "app/registry/weights.hpp"
 #include "cli/command_groups.hpp"
+#include "core/errors.hpp"
 #include "report/registry/lists.hpp"
 #include "report/registry/weight_details.hpp"
 #include "store/repository.hpp"
@@ -16,41 +20,89 @@ void add_override_reason_option(po::options_description& d) {
                   "U for k = 2 <= MPE / 3); the reason is recorded and shown by `weight show`");
 }
 
+/// The typed certificate options of `weight recalibrate`: required unless --from-dcc reads them from a file.
+constexpr const char* typed_certificate_options[] = {"certificate", "calibrated", "uncertainty"};
+
+app::WeightCertificateInput typed_certificate(const po::variables_map& vm) {
+  for (const char* name : typed_certificate_options)
+    if (!vm.count(name))
+      throw InputError(fmt::format("the option '--{}' is required but missing (or read the certificate from its DCC "
+                                   "with --from-dcc FILE).",
+                                   name));
+  if (!vm.count("due")) throw InputError("the option '--due' is required but missing.");
+  app::WeightCertificateInput in;
+  in.certificate = vm["certificate"].as<std::string>();
+  in.calibrated = vm["calibrated"].as<std::string>();
+  in.due = vm["due"].as<std::string>();
+  in.correction = vm["correction"].as<std::string>();
+  in.uncertainty = vm["uncertainty"].as<std::string>();
+  in.k = vm["k"].as<std::string>();
+  in.override_reason = optional_string(vm, "override-reason");
+  return in;
+}
+
+app::WeightDccInput dcc_input(const po::variables_map& vm) {
+  for (const char* name : {"certificate", "calibrated", "uncertainty"})
+    if (vm.count(name))
+      throw InputError(fmt::format("--{} is read from the DCC given with --from-dcc; do not type it as well.", name));
+  for (const char* name : {"correction", "k"})
+    if (!vm[name].defaulted())
+      throw InputError(fmt::format("--{} is read from the DCC given with --from-dcc; do not type it as well.", name));
+  app::WeightDccInput in;
+  in.file = vm["from-dcc"].as<std::string>();
+  const char* env_schema = std::getenv("PLUMB_DCC_SCHEMA");
+  if (vm.count("dcc-schema")) in.schema = vm["dcc-schema"].as<std::string>();
+  else if (env_schema && *env_schema) in.schema = env_schema;
+  else
+    throw InputError("--from-dcc needs the DCC 3.1.2 schema to validate the file: give --dcc-schema FILE.xsd or set "
+                     "PLUMB_DCC_SCHEMA.");
+  in.due = optional_string(vm, "due");
+  in.override_reason = optional_string(vm, "override-reason");
+  return in;
+}
+
 Command recalibrate_command() {
   return {"weight", "recalibrate",
           "record a new calibration certificate for a registered weight (earlier certificates stay in force for "
-          "their dates)",
+          "their dates), typed or read from the provider's DCC XML file (--from-dcc; see doc/dcc.md)",
           "plumb weight recalibrate W100 --certificate RC-2417 --calibrated 2027-02-20 --due 2028-02-20 "
-          "--correction 0.04mg --uncertainty 0.05mg --k 2 --by \"Q. Manager\"",
+          "--correction 0.04mg --uncertainty 0.05mg --k 2 --by \"Q. Manager\"\n"
+          "  plumb weight recalibrate W100 --from-dcc RC-2417.xml --dcc-schema dcc-3.1.2-local.xsd --by \"Q. Manager\"",
           [](po::options_description& d, po::positional_options_description& p) {
             d.add_options()("id", po::value<std::string>()->required(), "weight id (positional)")(
-                "certificate", po::value<std::string>()->required(), "number of the new calibration certificate")(
-                "calibrated", po::value<std::string>()->required(), "calibration date, YYYY-MM-DD")(
-                "due", po::value<std::string>()->required(), "recalibration due date, YYYY-MM-DD")(
+                "certificate", po::value<std::string>(), "number of the new calibration certificate")(
+                "calibrated", po::value<std::string>(), "calibration date, YYYY-MM-DD")(
+                "due", po::value<std::string>(),
+                "recalibration due date, YYYY-MM-DD (with --from-dcc: needed when the DCC states none)")(
                 "correction", po::value<std::string>()->default_value("0g"),
                 "certificate correction: conventional mass = nominal + correction")(
-                "uncertainty", po::value<std::string>()->required(), "expanded uncertainty U from the certificate")(
-                "k", po::value<std::string>()->default_value("2"), "coverage factor of U");
+                "uncertainty", po::value<std::string>(), "expanded uncertainty U from the certificate")(
+                "k", po::value<std::string>()->default_value("2"), "coverage factor of U")(
+                "from-dcc", po::value<std::string>(),
+                "read the certificate from the provider's Digital Calibration Certificate (DCC 3.1.2 XML): number, "
+                "calibration date, conventional mass or correction, U, k and due date")(
+                "dcc-schema", po::value<std::string>(),
+                "the DCC 3.1.2 XSD to validate --from-dcc against, its D-SI import local (default: $PLUMB_DCC_SCHEMA)");
             add_override_reason_option(d);
             add_by_option(d);
             p.add("id", 1);
           },
           [](const po::variables_map& vm, Env& env) {
-            app::WeightCertificateInput in;
-            in.certificate = vm["certificate"].as<std::string>();
-            in.calibrated = vm["calibrated"].as<std::string>();
-            in.due = vm["due"].as<std::string>();
-            in.correction = vm["correction"].as<std::string>();
-            in.uncertainty = vm["uncertainty"].as<std::string>();
-            in.k = vm["k"].as<std::string>();
-            in.override_reason = optional_string(vm, "override-reason");
+            const bool from_dcc = vm.count("from-dcc") > 0;
+            const auto typed = from_dcc ? app::WeightCertificateInput{} : typed_certificate(vm);
+            const auto dcc = from_dcc ? dcc_input(vm) : app::WeightDccInput{};
             auto db = env.open();
-            const auto out = app::recalibrate_weight(db, Env::actor(vm), vm["id"].as<std::string>(), in);
+            const auto out = from_dcc ? app::recalibrate_weight_from_dcc(db, Env::actor(vm), vm["id"].as<std::string>(), dcc)
+                                      : app::recalibrate_weight(db, Env::actor(vm), vm["id"].as<std::string>(), typed);
             const auto& w = out.weight;
             fmt::print(env.out, "Weight {} recalibrated: certificate {} ({} to {}), conventional mass {} g{}.\n", w.id,
                        w.current.certificate_no, to_string(w.current.calibrated_on), to_string(w.current.due_on),
                        w.conventional_mass().in_grams().to_string(),
                        out.in_force_today ? ", in force today" : ", not in force today (see `plumb weight show`)");
+            if (from_dcc)
+              fmt::print(env.out, "Read from {}: correction {} g, U = {} g (k = {}).\n", dcc.file,
+                         w.current.correction.in_grams().to_string(), w.current.uncertainty.in_grams().to_string(),
+                         w.current.k.to_string());
             if (out.overridden)
               fmt::print(env.out, "Recorded as accepted outside class {} ({}), with the reason given.\n",
                          w.weight_class, *out.overridden);

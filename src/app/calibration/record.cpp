@@ -254,6 +254,15 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
     throw InputError(fmt::format("--temperature, --pressure and --humidity go together (the air density needs all "
                                  "three); {} is missing.",
                                  !t ? "--temperature" : !p ? "--pressure" : "--humidity"));
+  // Stored as the exact number in the unit the field names (temperature_c in degC ...), as typed but for the unit.
+  const auto exact = [](const std::optional<std::string>& typed, Decimal (*parse)(std::string_view, std::string_view),
+                        std::string_view field) -> std::optional<std::string> {
+    if (!typed) return std::nullopt;
+    return parse(*typed, field).to_string();
+  };
+  const auto stored_t = exact(in.temperature_c, parse_celsius, "--temperature");
+  const auto stored_p = exact(in.pressure_hpa, parse_hectopascals, "--pressure");
+  const auto stored_h = exact(in.humidity_pct, parse_percent_rh, "--humidity");
   std::optional<density::Environment> environment;
   if (given == 3) {
     environment = density::Environment{*t, *p, *h};
@@ -352,9 +361,9 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
                              {"calibrate_every", settings->calibrate_every.to_string()}};
   run.results["environment"] = {
       {"measured", environment.has_value()},
-      {"temperature_c", in.temperature_c ? json(*in.temperature_c) : json()},
-      {"pressure_hpa", in.pressure_hpa ? json(*in.pressure_hpa) : json()},
-      {"humidity_pct", in.humidity_pct ? json(*in.humidity_pct) : json()},
+      {"temperature_c", stored_t ? json(*stored_t) : json()},
+      {"pressure_hpa", stored_p ? json(*stored_p) : json()},
+      {"humidity_pct", stored_h ? json(*stored_h) : json()},
       {"air_method", environment ? std::string(density::to_string(formula)) : std::string("assumed")},
       {"air_density_kg_m3", result.air ? result.air->rho : 1.2},
       {"u_air_density_kg_m3", result.air ? result.air->u : 0.12 / std::sqrt(3.0)},
@@ -374,9 +383,9 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
   store::CalibrationRunDetails details;
   details.settings_id = settings->id;
   details.model = std::string(report::model_key(model));
-  details.temperature_c = in.temperature_c;
-  details.pressure_hpa = in.pressure_hpa;
-  details.humidity_pct = in.humidity_pct;
+  details.temperature_c = stored_t;
+  details.pressure_hpa = stored_p;
+  details.humidity_pct = stored_h;
   details.air_density_kg_m3 = fmt::format("{:.5f}", result.air ? result.air->rho : 1.2);
   details.u_air_density = fmt::format("{:.5f}", result.air ? result.air->u : 0.12 / std::sqrt(3.0));
   details.air_method = environment ? (formula == density::AirFormula::cipm2007 ? "cipm2007" : "oiml-r111") : "assumed";
