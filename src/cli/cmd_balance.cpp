@@ -3,6 +3,7 @@
 #include "app/registry/balances.hpp"
 #include "cli/command_groups.hpp"
 #include "app/registry/instrument_page.hpp"
+#include "app/status/due.hpp"
 #include "cli/instrument_options.hpp"
 #include "report/registry/instrument_page.hpp"
 #include "report/registry/lists.hpp"
@@ -53,9 +54,10 @@ std::vector<Command> balance_commands() {
                  const auto format = format_of(vm, {"text", "json", "csv"});
                  auto db = env.open();
                  const auto balances = store::list_balances(db.sql());
-                 if (format == "json") env.out << report::balances_json(balances).dump(2) << "\n";
-                 else if (format == "csv") env.out << report::balances_csv(balances);
-                 else env.out << report::balances_text(balances);
+                 const auto status = app::instrument_standings(db, today_local());
+                 if (format == "json") env.out << report::balances_json(balances, status).dump(2) << "\n";
+                 else if (format == "csv") env.out << report::balances_csv(balances, status);
+                 else env.out << report::balances_text(balances, status);
                  return 0;
                }};
   Command show{"balance", "show", "show one balance: attributes and their history, status, check runs and certificates",
@@ -68,7 +70,7 @@ std::vector<Command> balance_commands() {
                },
                [](const po::variables_map& vm, Env& env) {
                  const auto format = format_of(vm, {"text", "json"});
-                 const Date on = vm.count("on") ? parse_date(vm["on"].as<std::string>(), "--on") : today_utc();
+                 const Date on = vm.count("on") ? parse_date(vm["on"].as<std::string>(), "--on") : today_local();
                  auto db = env.open();
                  const auto page = app::instrument_page(db, "balance", vm["id"].as<std::string>(), on);
                  if (format == "json") env.out << page.dump(2) << "\n";

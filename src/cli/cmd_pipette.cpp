@@ -5,6 +5,7 @@
 #include "app/pipette/registry.hpp"
 #include "cli/command_groups.hpp"
 #include "app/registry/instrument_page.hpp"
+#include "app/status/due.hpp"
 #include "cli/instrument_options.hpp"
 #include "report/registry/instrument_page.hpp"
 #include "store/pipettes.hpp"
@@ -70,6 +71,11 @@ std::vector<Command> pipette_commands() {
                  const auto format = format_of(vm, {"text", "json"});
                  auto db = env.open();
                  const auto pipettes = store::list_pipettes(db.sql());
+                 const auto status = app::instrument_standings(db, today_local());
+                 const auto status_of = [&](const std::string& id) {
+                   const auto it = status.find(id);
+                   return it == status.end() ? std::string() : it->second;
+                 };
                  if (format == "json") {
                    nlohmann::json j = nlohmann::json::array();
                    for (const auto& p : pipettes) {
@@ -83,17 +89,18 @@ std::vector<Command> pipette_commands() {
                                   {"channels", d.channels},
                                   {"every", p.every.to_string()},
                                   {"policy", d.limits.key()},
-                                  {"limits", app::limits_summary(d.limits)}});
+                                  {"limits", app::limits_summary(d.limits)},
+                                  {"status", status_of(d.id)}});
                    }
                    env.out << j.dump(2) << "\n";
                    return 0;
                  }
-                 fmt::print(env.out, "{:<10}{:<18}{:<10}{:<8}{:<36}{}\n", "id", "volume", "channels", "every", "limits",
-                            "location");
+                 fmt::print(env.out, "{:<10}{:<18}{:<10}{:<8}{:<36}{:<16}{}\n", "id", "volume", "channels", "every",
+                            "limits", "status", "location");
                  for (const auto& p : pipettes)
-                   fmt::print(env.out, "{:<10}{:<18}{:<10}{:<8}{:<36}{}\n", p.id(), range_text(p.definition),
+                   fmt::print(env.out, "{:<10}{:<18}{:<10}{:<8}{:<36}{:<16}{}\n", p.id(), range_text(p.definition),
                               p.definition.channels, p.every.to_string(), app::limits_summary(p.definition.limits),
-                              p.location);
+                              status_of(p.id()), p.location);
                  return 0;
                }};
   Command show{"pipette", "show", "show one pipette: attributes and their history, status, check runs and certificates",
@@ -106,7 +113,7 @@ std::vector<Command> pipette_commands() {
                },
                [](const po::variables_map& vm, Env& env) {
                  const auto format = format_of(vm, {"text", "json"});
-                 const Date on = vm.count("on") ? parse_date(vm["on"].as<std::string>(), "--on") : today_utc();
+                 const Date on = vm.count("on") ? parse_date(vm["on"].as<std::string>(), "--on") : today_local();
                  auto db = env.open();
                  const auto page = app::instrument_page(db, "pipette", vm["id"].as<std::string>(), on);
                  if (format == "json") env.out << page.dump(2) << "\n";

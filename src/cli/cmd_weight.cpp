@@ -121,7 +121,7 @@ Command show_command() {
           [](const po::variables_map& vm, Env& env) {
             const auto format = format_of(vm, {"text", "json"});
             auto db = env.open();
-            const auto details = app::weight_details(db, vm["id"].as<std::string>(), today_utc());
+            const auto details = app::weight_details(db, vm["id"].as<std::string>(), today_local());
             if (format == "json") env.out << report::weight_details_json(details).dump(2) << "\n";
             else env.out << report::weight_details_text(details);
             return 0;
@@ -179,7 +179,7 @@ std::vector<Command> weight_commands() {
                  const auto format = format_of(vm, {"text", "json", "csv"});
                  auto db = env.open();
                  const auto weights = store::list_weights(db.sql());
-                 const auto status = app::weight_statuses(db, today_utc());
+                 const auto status = app::weight_statuses(db, today_local());
                  if (format == "json") env.out << report::weights_json(weights, status).dump(2) << "\n";
                  else if (format == "csv") env.out << report::weights_csv(weights, status);
                  else env.out << report::weights_text(weights, status);

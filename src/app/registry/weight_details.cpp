@@ -5,6 +5,7 @@
 #include "app/registry/weight_in_force.hpp"
 #include "core/errors.hpp"
 #include "store/repository.hpp"
+#include "app/status/due.hpp"
 #include "store/status_events.hpp"
 #include "store/weight_certificates.hpp"
 
@@ -33,12 +34,21 @@ report::WeightDetails weight_details(store::Database& db, const std::string& id,
   }
   d.retirement = store::retirement(db.sql(), "weight", id);
   d.status = status_of(d);
+  // The same standing as the due list and every other output (app/status/due.hpp), "due" included.
+  if (d.status != "no certificate in force") {
+    const auto standing = standings_on(db, on, default_due_window_days);
+    if (const auto it = standing.find(standing_key("weight", id)); it != standing.end()) d.status = it->second.status;
+  }
   return d;
 }
 
 std::map<std::string, std::string> weight_statuses(store::Database& db, Date on) {
   std::map<std::string, std::string> out;
-  for (const auto& w : store::list_weights(db.sql())) out[w.id] = weight_details(db, w.id, on).status;
+  const auto standing = standings_on(db, on, default_due_window_days);
+  for (const auto& w : store::list_weights(db.sql())) {
+    const auto it = standing.find(standing_key("weight", w.id));
+    out[w.id] = it != standing.end() ? it->second.status : weight_details(db, w.id, on).status;
+  }
   return out;
 }
 

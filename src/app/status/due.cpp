@@ -153,4 +153,12 @@ std::map<std::string, report::DueItem> standings_on(store::Database& db, Date on
   return out;
 }
 
+std::map<std::string, std::string> instrument_standings(store::Database& db, Date on) {
+  std::map<std::string, std::string> out;
+  const std::string prefix = standing_key("instrument", "");
+  for (const auto& [key, item] : standings_on(db, on, default_due_window_days))
+    if (key.rfind(prefix, 0) == 0) out[key.substr(prefix.size())] = item.status;
+  return out;
+}
+
 }  // namespace plumb::app

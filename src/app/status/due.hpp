@@ -33,5 +33,7 @@ inline std::string standing_key(std::string_view kind, std::string_view id) {
 /// Every item's one standing on `on`: the due line that matters most (a calibrated balance has two, its weekly
 /// check and its calibration).
 std::map<std::string, report::DueItem> standings_on(store::Database& db, Date on, int within_days);
+/// Instrument id -> its standing on `on` (default window), for the registry lists.
+std::map<std::string, std::string> instrument_standings(store::Database& db, Date on);
 
 }  // namespace plumb::app

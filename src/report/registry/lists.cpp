@@ -63,16 +63,23 @@ std::string weights_csv(const std::vector<store::WeightRecord>& weights, const W
   return out.str();
 }
 
-std::string balances_text(const std::vector<store::BalanceRecord>& balances) {
-  constexpr const char* row = "{:<10}{:<12}{:<12}{:<8}{:<12}{}\n";
-  std::string out = fmt::format(row, "id", "capacity", "d", "every", "policy", "location");
+namespace {
+std::string status_of(const InstrumentStatuses& status, const std::string& id) {
+  const auto it = status.find(id);
+  return it == status.end() ? std::string() : it->second;
+}
+}  // namespace
+
+std::string balances_text(const std::vector<store::BalanceRecord>& balances, const InstrumentStatuses& status) {
+  constexpr const char* row = "{:<10}{:<12}{:<12}{:<8}{:<12}{:<16}{}\n";
+  std::string out = fmt::format(row, "id", "capacity", "d", "every", "policy", "status", "location");
   for (const auto& b : balances)
     out += fmt::format(row, b.id, b.capacity.to_string(), b.readability.to_string(), b.every.to_string(),
-                       b.policy.key(), b.location);
+                       b.policy.key(), status_of(status, b.id), b.location);
   return out;
 }
 
-json balances_json(const std::vector<store::BalanceRecord>& balances) {
+json balances_json(const std::vector<store::BalanceRecord>& balances, const InstrumentStatuses& status) {
   json j = json::array();
   for (const auto& b : balances)
     j.push_back({{"id", b.id},
@@ -81,18 +88,19 @@ json balances_json(const std::vector<store::BalanceRecord>& balances) {
                  {"readability_g", b.readability.approx().g()},
                  {"smallest_net_g", b.smallest_net ? json(b.smallest_net->approx().g()) : json()},
                  {"every", b.every.to_string()},
-                 {"policy", b.policy.key()}});
+                 {"policy", b.policy.key()},
+                 {"status", status_of(status, b.id)}});
   return j;
 }
 
-std::string balances_csv(const std::vector<store::BalanceRecord>& balances) {
+std::string balances_csv(const std::vector<store::BalanceRecord>& balances, const InstrumentStatuses& status) {
   std::ostringstream out;
   CsvWriter csv(out);
-  csv.header({"id", "capacity_g", "readability_g", "smallest_net_g", "every", "policy", "location"});
+  csv.header({"id", "capacity_g", "readability_g", "smallest_net_g", "every", "policy", "location", "status"});
   for (const auto& b : balances) {
     csv.value(b.id).value(b.capacity.in_grams().to_string()).value(b.readability.in_grams().to_string());
     csv.value(b.smallest_net ? b.smallest_net->in_grams().to_string() : "");
-    csv.value(b.every.to_string()).value(b.policy.key()).text(b.location);
+    csv.value(b.every.to_string()).value(b.policy.key()).text(b.location).value(status_of(status, b.id));
     csv.end_row();
   }
   return out.str();

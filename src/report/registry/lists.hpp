@@ -16,8 +16,11 @@ std::string weights_text(const std::vector<store::WeightRecord>& weights, const 
 nlohmann::json weights_json(const std::vector<store::WeightRecord>& weights, const WeightStatuses& status = {});
 std::string weights_csv(const std::vector<store::WeightRecord>& weights, const WeightStatuses& status = {});
 
-std::string balances_text(const std::vector<store::BalanceRecord>& balances);
-nlohmann::json balances_json(const std::vector<store::BalanceRecord>& balances);
-std::string balances_csv(const std::vector<store::BalanceRecord>& balances);
+/// `status`: by balance id, the standing every output shows (app::standings_on): "in date", "due", "overdue",
+/// "out of service", "retired".
+using InstrumentStatuses = std::map<std::string, std::string>;
+std::string balances_text(const std::vector<store::BalanceRecord>& balances, const InstrumentStatuses& status = {});
+nlohmann::json balances_json(const std::vector<store::BalanceRecord>& balances, const InstrumentStatuses& status = {});
+std::string balances_csv(const std::vector<store::BalanceRecord>& balances, const InstrumentStatuses& status = {});
 
 }  // namespace plumb::report
