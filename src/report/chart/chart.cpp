@@ -361,7 +361,7 @@ private:
   }
 
   // The baseline behind everything, widened by a few points so that its first and last results sit inside it;
-  // labelled inside the top of the plot so that the reader sees which results set the limits.
+  // labelled near the top of the plot so that the reader sees which results set the limits.
   void baseline_span(const XSpan& b) {
     const double x0 = X(b.from) - 4, x1 = X(b.to) + 4;
     set_colour(cr_, baseline_fill);
@@ -369,7 +369,7 @@ private:
     cairo_fill(cr_);
     Text t(cr_, b.label, 8.5, false, false, std::max(60.0, x1 - x0 - 6));
     set_colour(cr_, muted);
-    t.draw(x0 + 3, top_ + 3);
+    t.draw(x0 + 3, top_ + 24);  // below the band an off-scale limit's label may take at the top edge
     rec_.add("baseline",
              {{"from", svg_number(b.from)}, {"to", svg_number(b.to)}, {"px-from", px(x0)}, {"px-to", px(x1)}});
     rec_.add("text", {{"role", "baseline-label"}}, b.label);
