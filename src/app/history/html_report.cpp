@@ -38,6 +38,7 @@ std::string svg_of(const report::ChartSpec& spec) { return report::render_chart(
 // The trend findings and charts of one quantity; a statistic that cannot be computed says why instead.
 void add_trends(store::Database& db, const InstrumentInfo& inst, const HistoryQuantity& q, report::InstrumentSection& s) {
   const report::SeriesView series = series_view(db, inst, q, {});
+  const report::HistoryChartMarks marks = chart_marks(series, history_view(db, inst, {}));
   if (series.points.size() < 2) {
     s.findings.push_back(fmt::format("{}: {} result(s), too few for a control chart or a drift line.",
                                      series.quantity.label, series.points.size()));
@@ -49,18 +50,14 @@ void add_trends(store::Database& db, const InstrumentInfo& inst, const HistoryQu
                              ? fmt::format("{}: in control, no Western Electric rule is broken.", series.quantity.label)
                              : fmt::format("{}: {} Western Electric signal(s); the latest: {}", series.quantity.label,
                                            cc.chart.flags.size(), cc.chart.flags.back().explanation));
-    s.svg_charts.push_back(svg_of(control_chart_spec(cc)));
+    s.svg_charts.push_back(svg_of(control_chart_spec(cc, marks)));
   } catch (const InputError& e) {
     s.findings.push_back(fmt::format("{}: no control chart ({})", series.quantity.label, e.what()));
   }
-  stats::DriftOptions o;
-  o.tolerance = series.quantity.tolerance;
-  o.unit = q.unit;
-  o.quantity = series.quantity.label;
-  report::DriftView dv{series, stats::analyse_drift(series.points, o)};
+  report::DriftView dv{series, drift_in_period(series, marks)};
   if (dv.drift.fit) {
     s.findings.push_back(dv.drift.explanation.back());
-    s.svg_charts.push_back(svg_of(drift_chart_spec(dv)));
+    s.svg_charts.push_back(svg_of(drift_chart_spec(dv, marks)));
   } else {
     s.findings.push_back(dv.drift.message);
   }

@@ -32,7 +32,7 @@ std::map<std::int64_t, std::int64_t> superseded_by(const std::vector<store::RunR
 
 report::QuantityView quantity_view(store::Database& db, const InstrumentInfo& inst, const HistoryQuantity& q,
                                    const std::vector<store::RunRecord>& runs) {
-  report::QuantityView v{q.key, q.label, q.unit, q.uncertainty_basis, {}, ""};
+  report::QuantityView v{q.key, q.label, q.unit, q.uncertainty_basis, {}, "", q.non_negative};
   // The latest current run of the quantity's procedure decides the label and the limits that apply now.
   const auto replaced = superseded_by(runs);
   for (auto it = runs.rbegin(); it != runs.rend(); ++it) {

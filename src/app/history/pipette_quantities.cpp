@@ -197,6 +197,7 @@ HistoryQuantity make(const MeasureInfo& mi, const Point& p) {
     }
     return out;
   };
+  q.non_negative = m == PipetteMeasure::cv_pct;
   q.watched = m != PipetteMeasure::systematic_ul;  // % and CV compare across volumes; the uL view is on request
   return q;
 }

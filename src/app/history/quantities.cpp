@@ -160,7 +160,8 @@ std::vector<HistoryQuantity> make_table() {
                sd_tolerance,
                {},
                true,
-               {}});
+               {},
+               true});
   t.push_back({"min-weight",
                "balance",
                checks::Procedure::repeatability,
@@ -172,7 +173,8 @@ std::vector<HistoryQuantity> make_table() {
                min_weight_tolerance,
                {},
                false,
-               {}});
+               {},
+               true});
   t.push_back({"cal-error",
                "balance",
                checks::Procedure::calibration,
@@ -190,6 +192,11 @@ std::vector<HistoryQuantity> make_table() {
                {},
                false,
                {}});
+  for (auto& q : t) {
+    if (q.key == "bias") q.criterion = "|bias|";
+    if (q.key == "sd") q.criterion = "SD s";
+    if (q.key == "min-weight") q.criterion = "minimum weight";
+  }
   for (auto& q : pipette_quantities()) t.push_back(std::move(q));
   return t;
 }

@@ -64,6 +64,11 @@ struct HistoryQuantity {
   /// For quantities read at one point: the points a run has results at ("10 uL channel 1", ...), named in the
   /// refusal of a point no run has; empty otherwise.
   std::function<std::vector<std::string>(const store::RunRecord&)> points_tested;
+  /// A quantity that cannot be negative (an SD, a CV, a minimum weight): its chart axis never goes below zero.
+  bool non_negative = false;
+  /// The quantity of the check's criterion this charts ("|bias|", "SD s", "minimum weight": checks/repeatability),
+  /// so that a failed check's certificate charts the criterion that failed; empty when none.
+  std::string criterion = {};
 };
 
 /// A pipette's systematic error in uL ("systematic-error") or % ("relative-systematic-error"), or its CV ("cv"), at

@@ -3,6 +3,9 @@
 #include <fmt/format.h>
 
 #include <algorithm>
+#include <cstdint>
+#include <map>
+#include <span>
 
 #include "core/errors.hpp"
 #include "report/history/charts.hpp"
@@ -11,7 +14,7 @@ namespace plumb::app {
 namespace {
 
 report::HistoryChartLabels labels_of(const report::SeriesView& s) {
-  return {s.instrument_title, s.quantity.label, s.quantity.unit};
+  return {s.instrument_title, s.quantity.label, s.quantity.unit, s.quantity.non_negative};
 }
 
 // Every chart states how its error bars were found and where its limits come from.
@@ -69,6 +72,49 @@ report::SeriesView require_series(store::Database& db, const TrendRequest& r, st
 
 }  // namespace
 
+report::HistoryChartMarks chart_marks(const report::SeriesView& s, const report::HistoryView& all) {
+  report::HistoryChartMarks m;
+  std::map<std::int64_t, const report::HistoryRow*> by_id;
+  for (const auto& row : all.rows) by_id[row.run_id] = &row;
+  for (const auto id : s.run_ids) {
+    const auto it = by_id.find(id);
+    m.outcomes.push_back(it != by_id.end() && it->second->verdict == "fail" ? report::ChartPoint::Outcome::failed
+                                                                            : report::ChartPoint::Outcome::pass);
+  }
+  const auto column =
+      std::find_if(all.columns.begin(), all.columns.end(), [&](const auto& c) { return c.key == s.quantity.key; });
+  const report::HistoryRow* latest = nullptr;
+  for (const auto& row : all.rows) {
+    if (column != all.columns.end()) {
+      const auto k = static_cast<std::size_t>(column - all.columns.begin());
+      if (row.void_reason && row.values[k]) m.void_runs.push_back({row.date, *row.values[k], 0.0});
+    }
+    if (row.current() && row.procedure == checks::Procedure::calibration && row.results.is_object() &&
+        row.results.value("adjusted", false)) {
+      m.adjustments.emplace_back(row.date, fmt::format("adjusted (run {})", row.run_id));
+      if (!latest || row.date > latest->date || (row.date == latest->date && row.run_id > latest->run_id))
+        latest = &row;
+    }
+  }
+  if (latest) {
+    std::size_t i = 0;
+    while (i < s.points.size() && i < s.run_ids.size() &&
+           (s.points[i].date < latest->date || (s.points[i].date == latest->date && s.run_ids[i] < latest->run_id)))
+      ++i;
+    m.fitted_from = i;
+  }
+  return m;
+}
+
+stats::DriftResult drift_in_period(const report::SeriesView& s, const report::HistoryChartMarks& marks) {
+  stats::DriftOptions options;
+  options.tolerance = s.quantity.tolerance;
+  options.unit = s.quantity.unit;
+  options.quantity = s.quantity.label;
+  const std::size_t from = std::min(marks.fitted_from.value_or(0), s.points.size());
+  return stats::analyse_drift(std::span(s.points).subspan(from), options);
+}
+
 void require_chart_path(const std::optional<std::filesystem::path>& chart) {
   if (!chart) return;
   report::chart_format_for(*chart);
@@ -86,19 +132,22 @@ report::ChartSpec history_chart(const report::SeriesView& current, const report:
     for (const auto& row : all.rows)
       if (row.superseded_by && row.values[k]) superseded.push_back({row.date, *row.values[k], 0.0});
   }
-  auto spec = report::history_chart_spec(current.points, superseded, current.quantity.tolerance, labels_of(current));
+  auto spec = report::history_chart_spec(current.points, superseded, current.quantity.tolerance, labels_of(current),
+                                         chart_marks(current, all));
   add_basis_notes(spec, current);
   return spec;
 }
 
-report::ChartSpec control_chart_spec(const report::ControlChartView& v) {
-  auto spec = report::control_chart_spec(v.series.points, v.chart, v.series.quantity.tolerance, labels_of(v.series));
+report::ChartSpec control_chart_spec(const report::ControlChartView& v, const report::HistoryChartMarks& marks) {
+  auto spec =
+      report::control_chart_spec(v.series.points, v.chart, v.series.quantity.tolerance, labels_of(v.series), marks);
   add_basis_notes(spec, v.series);
   return spec;
 }
 
-report::ChartSpec drift_chart_spec(const report::DriftView& v) {
-  auto spec = report::drift_chart_spec(v.series.points, v.drift, v.series.quantity.tolerance, labels_of(v.series));
+report::ChartSpec drift_chart_spec(const report::DriftView& v, const report::HistoryChartMarks& marks) {
+  auto spec =
+      report::drift_chart_spec(v.series.points, v.drift, v.series.quantity.tolerance, labels_of(v.series), marks);
   add_basis_notes(spec, v.series);
   return spec;
 }
@@ -128,19 +177,20 @@ report::ControlChartView control_chart(store::Database& db, const ControlChartRe
   if (r.baseline_count || r.baseline_from || r.baseline_to) options.baseline = choose_baseline(r, v.series);
   options.unit = v.series.quantity.unit;
   v.chart = stats::individuals_chart(v.series.points, options);
-  write_if_asked(control_chart_spec(v), r.trend);
+  if (r.trend.chart) {
+    const auto all = history_view(db, find_instrument(db, r.trend.instrument), r.trend.period);
+    write_if_asked(control_chart_spec(v, chart_marks(v.series, all)), r.trend);
+  }
   return v;
 }
 
 report::DriftView drift(store::Database& db, const TrendRequest& r) {
   require_chart_path(r.chart);
   report::DriftView v{require_series(db, r, 1, "a drift analysis"), {}};
-  stats::DriftOptions options;
-  options.tolerance = v.series.quantity.tolerance;
-  options.unit = v.series.quantity.unit;
-  options.quantity = v.series.quantity.label;
-  v.drift = stats::analyse_drift(v.series.points, options);
-  write_if_asked(drift_chart_spec(v), r);
+  // An adjustment starts a new drift: the line is fitted within the latest adjustment period only.
+  const auto marks = chart_marks(v.series, history_view(db, find_instrument(db, r.instrument), r.period));
+  v.drift = drift_in_period(v.series, marks);
+  write_if_asked(drift_chart_spec(v, marks), r);
   return v;
 }
 

@@ -8,6 +8,7 @@
 
 #include "app/history/instrument_history.hpp"
 #include "report/chart/chart.hpp"
+#include "report/history/charts.hpp"
 #include "report/history/views.hpp"
 
 namespace plumb::app {
@@ -38,9 +39,18 @@ report::IntervalReviewView interval_review(store::Database& db, const TrendReque
 /// Checks the chart path before any work: a known extension and an existing folder (InputError otherwise).
 void require_chart_path(const std::optional<std::filesystem::path>& chart);
 
+/// What a chart marks besides the values, read from the instrument's history: which results failed, the void runs'
+/// results of the quantity, each adjustment (a current calibration run stored with `adjusted` true, i.e. with an
+/// as-left stage), and the index of the first result of the latest adjustment period (the adjusting run's own
+/// as-left result and everything after it), which is the only part a drift line is fitted to.
+report::HistoryChartMarks chart_marks(const report::SeriesView& s, const report::HistoryView& all);
+
+/// The drift of `s` fitted within the latest adjustment period only (`marks.fitted_from` on).
+stats::DriftResult drift_in_period(const report::SeriesView& s, const report::HistoryChartMarks& marks);
+
 /// The chart specs the commands draw, shared with the HTML report.
 report::ChartSpec history_chart(const report::SeriesView& current, const report::HistoryView& all);
-report::ChartSpec control_chart_spec(const report::ControlChartView& v);
-report::ChartSpec drift_chart_spec(const report::DriftView& v);
+report::ChartSpec control_chart_spec(const report::ControlChartView& v, const report::HistoryChartMarks& marks = {});
+report::ChartSpec drift_chart_spec(const report::DriftView& v, const report::HistoryChartMarks& marks = {});
 
 }  // namespace plumb::app

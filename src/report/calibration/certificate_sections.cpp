@@ -1,16 +1,17 @@
 // Sections of the balance calibration certificate (kind "balance_calibration", content from
 // app/calibration/certificate_content.cpp): calibration and environment, air density, traceability of every weight,
 // per stage (as found / as left) the error of indication table and the fitted model, a chart of E against the
-// load, the uncertainty budget of the final stage, and the decision rule with what its states mean.
+// load (report/calibration/error_chart), the uncertainty budget of the final stage, and the decision rule with
+// what its states mean.
 #include <fmt/format.h>
 #include <fmt/ranges.h>
 
 #include <algorithm>
-#include <cctype>
 #include <cmath>
 
 #include "core/decimal.hpp"
 #include "core/units.hpp"
+#include "report/calibration/error_chart.hpp"
 #include "report/certificates/document.hpp"
 
 namespace plumb::report {
@@ -104,17 +105,6 @@ Table error_table(const json& stage, const MgFormat& f) {
   return t;
 }
 
-// E(m) = I(m) - m from the fitted indication model: the slope less one (calibration_text.cpp prints the same).
-double model_error(const json& fit, double m) {
-  const auto coef = fit.value("coef", std::vector<double>{});
-  const std::string model = fit.value("model", "line");
-  if (model == "through-origin") return coef.empty() ? 0 : (coef[0] - 1) * m;
-  if (coef.size() < 2) return 0;
-  double e = coef[0] + (coef[1] - 1) * m;
-  if (model == "quadratic" && coef.size() > 2) e += coef[2] * m * m;
-  return e;
-}
-
 KeyValues model_block(const json& fit, const MgFormat& f) {
   KeyValues kv;
   kv.rows.emplace_back("Model", fmt::format("{}: {}", cell(fit, "model"), cell(fit, "equation")));
@@ -133,44 +123,6 @@ KeyValues model_block(const json& fit, const MgFormat& f) {
   kv.rows.emplace_back("Range", fmt::format("{:.6g} g to {:.6g} g; the model is not used outside it",
                                             num(fit, "x_min_g"), num(fit, "x_max_g")));
   return kv;
-}
-
-// E against the load with U as error bars, the MPE at the tested loads (joined) and the fitted model's error.
-ChartSpec error_chart(const json& c, const json& stage) {
-  ChartSpec s;
-  const json& rows = stage.value("error_of_indication", json::array());
-  std::string stage_name = stage.value("title", "final stage");
-  if (!stage_name.empty()) stage_name[0] = static_cast<char>(std::tolower(static_cast<unsigned char>(stage_name[0])));
-  s.title = fmt::format("Balance {}: error of indication against load, {}", c["instrument"].value("id", ""), stage_name);
-  s.subtitle = fmt::format("Calibration run {} on {}, {} load(s); E = I - m_ref", cell(c["check"], "run_id"),
-                           cell(c["check"], "date"), rows.size());
-  s.x = {"Load m_ref", "g", AxisScale::number};
-  s.y = {"Error of indication E", "mg", AxisScale::number};
-  ChartSeries series{"E at each load", {}};
-  ChartCurve upper{"\u00b1MPE at each tested load", ChartCurve::Style::limit, {}};
-  ChartCurve lower = upper;
-  for (const auto& l : rows) {
-    const double m = num(l, "reference_g");
-    series.points.push_back({m, num(l, "error_g") * 1e3, num(l, "U_g") * 1e3, false});
-    upper.points.emplace_back(m, num(l, "tolerance_g") * 1e3);
-    lower.points.emplace_back(m, -num(l, "tolerance_g") * 1e3);
-  }
-  s.series.push_back(std::move(series));
-  const json& fit = stage.value("fit", json::object());
-  ChartCurve model{"fitted model as error: " + cell(fit, "model"), ChartCurve::Style::model, {}};
-  const double x0 = num(fit, "x_min_g"), x1 = num(fit, "x_max_g");
-  constexpr int steps = 40;
-  for (int i = 0; i <= steps; ++i) {
-    const double m = x0 + (x1 - x0) * i / steps;
-    model.points.emplace_back(m, model_error(fit, m) * 1e3);
-  }
-  s.curves = {std::move(upper), std::move(lower), std::move(model)};
-  s.notes = {"Error bars: expanded uncertainty U of E at each load (EURAMET cg-18 budget, k from Welch-Satterthwaite).",
-             "The MPE is known at the tested loads only: each is marked there; the dotted line joining them is a guide, "
-             "not a limit between loads."};
-  s.width = 720;
-  s.height = 400;
-  return s;
 }
 
 void budget_block(const json& stage, const MgFormat& f, Document& doc) {
@@ -240,7 +192,7 @@ void balance_calibration_sections(const json& c, Document& doc) {
   if (!final_stage && !stages.empty()) final_stage = &stages.back();
   if (final_stage && final_stage->value("error_of_indication", json::array()).size() >= 2) {
     doc.blocks.push_back(Heading{"Error of indication against load"});
-    doc.blocks.push_back(ChartBlock{error_chart(c, *final_stage)});
+    doc.blocks.push_back(ChartBlock{calibration_error_chart(c)});
   }
   if (final_stage) budget_block(*final_stage, f, doc);
   decision_block(cal, doc);

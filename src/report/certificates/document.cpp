@@ -109,22 +109,37 @@ Document certificate_document(const json& c, const std::string& content_sha256) 
   return doc;
 }
 
+namespace {
+
+// The stored history names its quantity; an SD, a CV or a minimum weight cannot be negative (the same keys as
+// app/history/quantities, read back from the stored record).
+bool non_negative_quantity(const json& h) {
+  const std::string key = h.value("quantity", "");
+  return h.value("non_negative", false) || key == "sd" || key == "min-weight" || key.rfind("cv", 0) == 0;
+}
+
+}  // namespace
+
 void history_chart_section(const json& c, Document& doc) {
   if (!c.contains("history") || !c["history"].is_object()) return;
   const json& h = c["history"];
   std::vector<stats::Observation> points;
-  for (const auto& p : h.value("points", json::array()))
+  HistoryChartMarks marks;
+  for (const auto& p : h.value("points", json::array())) {
     points.push_back({parse_date(p.at("date").get<std::string>()), p.at("value").get<double>(),
                       p.value("u", 0.0)});
+    marks.outcomes.push_back(p.value("failed", false) ? ChartPoint::Outcome::failed : ChartPoint::Outcome::pass);
+  }
   if (points.size() < 2) return;  // one point tells no history
   stats::ToleranceLimits tol;
   if (h.contains("lower") && h["lower"].is_number()) tol.lower = h["lower"].get<double>();
   if (h.contains("upper") && h["upper"].is_number()) tol.upper = h["upper"].get<double>();
   const std::string instrument = c.value("instrument", json::object()).value("id", "");
-  ChartSpec spec = history_chart_spec(points, {}, tol,
-                                      {fmt::format("{} {}", c.value("instrument", json::object()).value("kind", ""),
-                                                   instrument),
-                                       h.value("label", ""), h.value("unit", "")});
+  ChartSpec spec =
+      history_chart_spec(points, {}, tol,
+                         {fmt::format("{} {}", c.value("instrument", json::object()).value("kind", ""), instrument),
+                          h.value("label", ""), h.value("unit", ""), non_negative_quantity(h)},
+                         marks);
   spec.title = fmt::format("Recent history of {}: {}", instrument, h.value("label", ""));
   spec.notes = {"Error bars: " + h.value("uncertainty_basis", "") + ".",
                 "Tolerance: " + h.value("tolerance_basis", "") + "."};

@@ -37,6 +37,7 @@ constexpr Rgb tolerance_fill{0.94, 0.98, 0.94};        // the allowed region, fa
 constexpr Rgb control_colour{0.000, 0.620, 0.451};    // bluish green
 constexpr Rgb trend_colour{0.800, 0.475, 0.655};      // reddish purple
 constexpr Rgb band_fill{0.96, 0.90, 0.94};
+constexpr Rgb baseline_fill{0.90, 0.93, 0.97};  // a pale blue-grey: behind the data, unlike the allowed region
 
 constexpr double margin = 16;
 constexpr double legend_width = 210;
@@ -46,6 +47,18 @@ constexpr double flag_radius = 7.5;
 void set_colour(cairo_t* cr, Rgb c, double alpha = 1.0) { cairo_set_source_rgba(cr, c.r, c.g, c.b, alpha); }
 
 std::string svg_number(double v) { return fmt::format("{:.6g}", v); }
+
+const char* outcome_key(ChartPoint::Outcome o) {
+  switch (o) {
+    case ChartPoint::Outcome::failed:
+      return "failed";
+    case ChartPoint::Outcome::void_run:
+      return "void";
+    case ChartPoint::Outcome::pass:
+      break;
+  }
+  return "pass";
+}
 std::string px(double v) { return fmt::format("{:.2f}", v); }
 
 using Text = TextLayout;
@@ -70,6 +83,10 @@ void validate(const ChartSpec& s) {
       if (p.error && !(std::isfinite(*p.error) && *p.error >= 0))
         throw InputError(fmt::format("chart {} has error bar {}; it must be a finite number >= 0.", where, *p.error));
     }
+  if (s.x_range &&
+      !(std::isfinite(s.x_range->first) && std::isfinite(s.x_range->second) && s.x_range->first < s.x_range->second))
+    throw InputError(fmt::format("chart x range {} to {} is empty; the end must be above the start.", s.x_range->first,
+                                 s.x_range->second));
   if (s.tolerance && s.tolerance->lower && s.tolerance->upper && *s.tolerance->lower >= *s.tolerance->upper)
     throw InputError(fmt::format("chart tolerance lower limit {} is not below the upper limit {}.",
                                  *s.tolerance->lower, *s.tolerance->upper));
@@ -194,7 +211,9 @@ private:
     if (yr.empty()) yr.add(0), yr.add(1);
     // A little air so that no point sits on the frame.
     const double ypad = 0.04 * (yr.hi - yr.lo), xpad = 0.03 * (xr.hi - xr.lo);
-    yt_ = number_ticks(yr.lo - ypad, yr.hi + ypad, 6);
+    // A quantity that cannot be negative never gets a negative axis: the air below is dropped at zero.
+    const double y_lo = s_.y_non_negative ? std::max(0.0, yr.lo - ypad) : yr.lo - ypad;
+    yt_ = number_ticks(y_lo, yr.hi + ypad, 6);
 
     double widest_y = 0;
     for (const auto& t : yt_.ticks) widest_y = std::max(widest_y, Text(cr_, t.label, 9).width());
@@ -222,7 +241,16 @@ private:
     bottom_ = s_.height - margin - notes_h_ - (notes_h_ > 0 ? 8 : 0) - x_label_h - 6 - tick_h - 6;
 
     const double plot_w = right_ - left_;
-    if (s_.x.scale == AxisScale::date) {
+    if (s_.x_range) {
+      // A stated range (0 to the capacity): ticks inside it only, the frame exactly at its ends.
+      const int target = std::max(2, std::min(8, static_cast<int>(plot_w / 70)));
+      xt_ = number_ticks(s_.x_range->first, s_.x_range->second, target);
+      xt_.min = s_.x_range->first;
+      xt_.max = s_.x_range->second;
+      std::erase_if(xt_.ticks, [this](const auto& t) {
+        return t.value < xt_.min - 1e-9 * xt_.step || t.value > xt_.max + 1e-9 * xt_.step;
+      });
+    } else if (s_.x.scale == AxisScale::date) {
       const double label_w = Text(cr_, "2024-12-31", 9).width();
       const int max_ticks = std::max(2, static_cast<int>(plot_w / (label_w + 18)));
       xt_ = date_ticks(xr.lo - xpad, xr.hi + xpad, max_ticks);
@@ -286,6 +314,7 @@ private:
 
   void data_layers() {
     clip_to_plot();
+    if (s_.baseline) baseline_span(*s_.baseline);
     if (s_.zero_line) {
       hline(0, ink, 0.9, false);
       rec_.add("zero-line", {{"py", px(Y(0))}});
@@ -321,6 +350,7 @@ private:
                                  {"upper", svg_number(s_.control->upper)}});
     }
     if (s_.trend) trend();
+    for (const auto& m : s_.markers) marker_line(m);
     std::size_t k = 0;
     for (const auto& series : s_.series) {
       const Rgb c = series_colours[k++ % std::size(series_colours)];
@@ -328,6 +358,43 @@ private:
       for (const auto& p : series.points) point(series.name, p, c);
     }
     cairo_restore(cr_);
+  }
+
+  // The baseline behind everything, widened by a few points so that its first and last results sit inside it;
+  // labelled near the top of the plot so that the reader sees which results set the limits.
+  void baseline_span(const XSpan& b) {
+    const double x0 = X(b.from) - 4, x1 = X(b.to) + 4;
+    set_colour(cr_, baseline_fill);
+    cairo_rectangle(cr_, x0, top_, x1 - x0, bottom_ - top_);
+    cairo_fill(cr_);
+    Text t(cr_, b.label, 8.5, false, false, std::max(60.0, x1 - x0 - 6));
+    set_colour(cr_, muted);
+    t.draw(x0 + 3, top_ + 24);  // below the band an off-scale limit's label may take at the top edge
+    rec_.add("baseline",
+             {{"from", svg_number(b.from)}, {"to", svg_number(b.to)}, {"px-from", px(x0)}, {"px-to", px(x1)}});
+    rec_.add("text", {{"role", "baseline-label"}}, b.label);
+  }
+
+  // An adjustment: a dashed vertical in ink across the plot with its label at the top, turned to read upwards
+  // so that two adjustments close together do not overprint.
+  void marker_line(const XMarker& m) {
+    const double x = X(m.x);
+    set_colour(cr_, ink);
+    cairo_set_line_width(cr_, 1.2);
+    const double dash[] = {5, 3};
+    cairo_set_dash(cr_, dash, 2, 0);
+    cairo_move_to(cr_, x, top_);
+    cairo_line_to(cr_, x, bottom_);
+    cairo_stroke(cr_);
+    cairo_set_dash(cr_, nullptr, 0, 0);
+    Text t(cr_, m.label, 8.5);
+    cairo_save(cr_);
+    cairo_translate(cr_, x - t.height() - 1, top_ + 4 + t.width());
+    cairo_rotate(cr_, -std::numbers::pi / 2);
+    t.draw(0, 0);
+    cairo_restore(cr_);
+    rec_.add("adjustment", {{"x", svg_number(m.x)}, {"px", px(x)}});
+    rec_.add("text", {{"role", "adjustment-label"}}, m.label);
   }
 
   [[nodiscard]] bool in_view(double y) const { return y >= yt_.min && y <= yt_.max; }
@@ -368,10 +435,11 @@ private:
   void curve(const ChartCurve& c) {
     if (c.points.size() < 2) return;
     const bool limit = c.style == ChartCurve::Style::limit;
-    set_colour(cr_, limit ? tolerance_colour : trend_colour);
+    const bool step = c.style == ChartCurve::Style::step_limit;
+    set_colour(cr_, limit || step ? tolerance_colour : trend_colour);
     // A limit known at some points only: a bold bar at each point, joined by a thin dotted guide, so that no
     // slope between two points is read as a limit nobody stated.
-    cairo_set_line_width(cr_, limit ? 0.9 : 2.0);
+    cairo_set_line_width(cr_, limit ? 0.9 : step ? 1.6 : 2.0);
     const double dots[] = {1.5, 2.5};
     if (limit) cairo_set_dash(cr_, dots, 2, 0);
     cairo_move_to(cr_, X(c.points.front().first), Y(c.points.front().second));
@@ -386,8 +454,17 @@ private:
       }
       cairo_stroke(cr_);
     }
-    rec_.add("curve", {{"name", c.name}, {"style", limit ? "limit" : "model"}, {"points", std::to_string(c.points.size())}});
-    if (!limit) return;
+    rec_.add("curve", {{"name", c.name},
+                       {"style", limit  ? "limit"
+                                 : step ? "step-limit"
+                                        : "model"},
+                       {"points", std::to_string(c.points.size())}});
+    if (step) {
+      // Each vertex is recorded so that a test can read the steps back: x, y in data units.
+      for (const auto& [x, y] : c.points)
+        rec_.add("curve-vertex", {{"curve", c.name}, {"x", svg_number(x)}, {"y", svg_number(y)}});
+    }
+    if (!limit && !step) return;
     double hi = -INFINITY, lo = INFINITY;
     for (const auto& pt : c.points) hi = std::max(hi, pt.second), lo = std::min(lo, pt.second);
     if (hi > yt_.max) off_scale(true, fmt::format("{} up to {}, off scale", c.name, signed_text(hi, s_.y.unit)), hi);
@@ -447,10 +524,7 @@ private:
     cairo_arc(cr_, x, y, point_radius + 0.8, 0, 2 * std::numbers::pi);
     set_colour(cr_, {1, 1, 1});
     cairo_fill(cr_);
-    cairo_new_sub_path(cr_);
-    cairo_arc(cr_, x, y, point_radius, 0, 2 * std::numbers::pi);
-    set_colour(cr_, c);
-    cairo_fill(cr_);
+    marker(p.outcome, x, y, c);
     if (p.flagged) {
       cairo_new_sub_path(cr_);
       cairo_arc(cr_, x, y, flag_radius, 0, 2 * std::numbers::pi);
@@ -458,8 +532,35 @@ private:
       cairo_set_line_width(cr_, 1.8);
       cairo_stroke(cr_);
     }
-    rec_.add("point", {{"series", series}, {"x", svg_number(p.x)}, {"y", svg_number(p.y)}, {"px", px(x)}, {"py", px(y)},
-                       {"flagged", p.flagged ? "true" : "false"}});
+    rec_.add("point", {{"series", series},
+                       {"x", svg_number(p.x)},
+                       {"y", svg_number(p.y)},
+                       {"px", px(x)},
+                       {"py", px(y)},
+                       {"flagged", p.flagged ? "true" : "false"},
+                       {"outcome", outcome_key(p.outcome)}});
+  }
+
+  // A pass is a filled dot; a failed run a bold cross; a void run an open square: the shape tells them apart
+  // in grey print and for readers who do not see the colours.
+  void marker(ChartPoint::Outcome o, double x, double y, Rgb c) {
+    set_colour(cr_, c);
+    if (o == ChartPoint::Outcome::failed) {
+      const double r = point_radius + 1.5;
+      cairo_set_line_width(cr_, 2.4);
+      cairo_move_to(cr_, x - r, y - r), cairo_line_to(cr_, x + r, y + r);
+      cairo_move_to(cr_, x - r, y + r), cairo_line_to(cr_, x + r, y - r);
+      cairo_stroke(cr_);
+    } else if (o == ChartPoint::Outcome::void_run) {
+      const double r = point_radius + 0.5;
+      cairo_set_line_width(cr_, 1.6);
+      cairo_rectangle(cr_, x - r, y - r, 2 * r, 2 * r);
+      cairo_stroke(cr_);
+    } else {
+      cairo_new_sub_path(cr_);
+      cairo_arc(cr_, x, y, point_radius, 0, 2 * std::numbers::pi);
+      cairo_fill(cr_);
+    }
   }
 
   // ---- text around the plot -----------------------------------------------------------------------
@@ -524,12 +625,28 @@ private:
     bool any_error = false, any_flag = false;
     for (const auto& series : s_.series) {
       const Rgb c = series_colours[k++ % std::size(series_colours)];
-      y = legend_entry(y, [this, c](double x, double yy) {
-        cairo_new_sub_path(cr_);
-        cairo_arc(cr_, x, yy, point_radius, 0, 2 * std::numbers::pi);
-        set_colour(cr_, c);
-        cairo_fill(cr_);
-      }, series.name);
+      // A series of one kind (all void, say) shows that marker; a mixed one its passes and then each other kind.
+      bool failed = false, void_run = false, passed = series.points.empty();
+      for (const auto& p : series.points) {
+        failed = failed || p.outcome == ChartPoint::Outcome::failed;
+        void_run = void_run || p.outcome == ChartPoint::Outcome::void_run;
+        passed = passed || p.outcome == ChartPoint::Outcome::pass;
+      }
+      const auto own = passed   ? ChartPoint::Outcome::pass
+                       : failed ? ChartPoint::Outcome::failed
+                                : ChartPoint::Outcome::void_run;
+      y = legend_entry(
+          y, [this, c, own](double x, double yy) { marker(own, x, yy, c); }, series.name);
+      if (own == ChartPoint::Outcome::failed) failed = false;
+      if (own == ChartPoint::Outcome::void_run) void_run = false;
+      if (failed)
+        y = legend_entry(
+            y, [this, c](double x, double yy) { marker(ChartPoint::Outcome::failed, x, yy, c); },
+            series.name + ": failed run");
+      if (void_run)
+        y = legend_entry(
+            y, [this, c](double x, double yy) { marker(ChartPoint::Outcome::void_run, x, yy, c); },
+            series.name + ": void run (not used in the statistics)");
       for (const auto& p : series.points) {
         any_error = any_error || (p.error && *p.error > 0);
         any_flag = any_flag || p.flagged;
@@ -568,7 +685,7 @@ private:
     for (const auto& c : s_.curves) {
       if (std::find(named.begin(), named.end(), c.name) != named.end()) continue;
       named.push_back(c.name);
-      const bool limit = c.style == ChartCurve::Style::limit;
+      const bool limit = c.style != ChartCurve::Style::model;
       y = legend_entry(y, line_symbol(limit ? tolerance_colour : trend_colour, limit ? 1.6 : 2.0, false), c.name);
     }
     if (s_.control) {
@@ -578,6 +695,25 @@ private:
                                    with_unit(s_.control->upper)));
     }
     if (s_.zero_line) y = legend_entry(y, line_symbol(ink, 0.9, false), "zero");
+    if (s_.baseline)
+      y = legend_entry(
+          y,
+          [this](double x, double yy) {
+            set_colour(cr_, baseline_fill);
+            cairo_rectangle(cr_, x - 10, yy - 5, 20, 10);
+            cairo_fill(cr_);
+          },
+          "baseline period (sets centre line and control limits)");
+    if (!s_.markers.empty())
+      y = legend_entry(
+          y,
+          [this](double x, double yy) {
+            set_colour(cr_, ink);
+            cairo_set_line_width(cr_, 1.2);
+            cairo_move_to(cr_, x, yy - 6), cairo_line_to(cr_, x, yy + 6);
+            cairo_stroke(cr_);
+          },
+          "adjustment (as found / as left)");
     if (s_.trend) {
       y = legend_entry(y, line_symbol(trend_colour, 2.0, false), "trend (least squares)");
       if (s_.trend->x_extrapolated) y = legend_entry(y, line_symbol(trend_colour, 2.0, true), "trend, extrapolated");

@@ -32,6 +32,10 @@ struct ChartPoint {
   double y = 0.0;
   std::optional<double> error;  ///< half-length of the error bar: the expanded uncertainty U
   bool flagged = false;         ///< e.g. a Western Electric signal: drawn with a ring
+  /// A failed or void run is drawn with its own marker shape (a cross, an open square), not by colour alone,
+  /// and the legend names each shape in use.
+  enum class Outcome { pass, failed, void_run };
+  Outcome outcome = Outcome::pass;
 };
 
 struct ChartSeries {
@@ -65,10 +69,24 @@ struct ControlLines {
 /// A named polyline in data coordinates: a fitted model across the loads, or a limit that changes along x
 /// (an MPE that steps up with the load). Limits are drawn like the tolerance band; models like the trend.
 struct ChartCurve {
-  enum class Style { model, limit };
+  /// `limit`: known at the tested points only (bars joined by a dotted guide); `step_limit`: a limit stated for
+  /// every x, drawn solid as steps (OIML R 76-1 MPE bands).
+  enum class Style { model, limit, step_limit };
   std::string name;  ///< legend text
   Style style = Style::model;
   std::vector<std::pair<double, double>> points;
+};
+
+/// A stretch of x shaded behind the data and labelled: the baseline a control chart's limits were set from.
+struct XSpan {
+  double from = 0, to = 0;
+  std::string label;  ///< "baseline: 20 results, 2024-01-01 to 2024-05-13"
+};
+
+/// A vertical line across the plot at x, labelled at its top: an adjustment of the instrument.
+struct XMarker {
+  double x = 0;
+  std::string label;  ///< "adjusted (run 12)"
 };
 
 /// The tolerance band may be at most this many times the span of the data (with error bars and zero)
@@ -84,7 +102,13 @@ struct ChartSpec {
   bool zero_line = true;
   std::optional<TrendLine> trend;
   std::optional<ControlLines> control;
+  std::optional<XSpan> baseline;  ///< shaded and labelled behind the data
+  std::vector<XMarker> markers;   ///< adjustments: dashed verticals with a label; said in the legend
   std::vector<ChartCurve> curves;
+  /// A fixed x axis (e.g. 0 to the balance's capacity) instead of one fitted to the data.
+  std::optional<std::pair<double, double>> x_range;
+  /// For quantities that cannot be negative (SD, CV, minimum weight): the y axis starts at zero at the lowest.
+  bool y_non_negative = false;
   bool full_scale = false;  ///< never zoom: the tolerance band in view however flat it makes the data
   std::vector<std::string> notes;  ///< small print under the chart (caution, method)
   double width = 840, height = 520;  ///< in points (1/72 in); PNG is drawn at 2 pixels per point

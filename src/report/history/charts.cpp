@@ -2,6 +2,8 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
+
 #include "report/chart/axis_ticks.hpp"
 
 namespace plumb::report {
@@ -14,18 +16,33 @@ const char* const history_chart_caution =
 namespace {
 
 ChartSpec base(std::span<const stats::Observation> h, const stats::ToleranceLimits& tol, const HistoryChartLabels& l,
-               std::string what) {
+               std::string what, const HistoryChartMarks& marks) {
   ChartSpec s;
   s.title = fmt::format("{}: {}, {}", l.instrument, l.quantity, what);
   if (!h.empty())
     s.subtitle = fmt::format("{} to {}, {} check(s)", to_string(h.front().date), to_string(h.back().date), h.size());
   s.x = {"Date of check", "", AxisScale::date};
   s.y = {l.quantity, l.unit, AxisScale::number};
+  s.y_non_negative = l.non_negative;
   ChartSeries series{"check result", {}};
   for (const auto& o : h)
     series.points.push_back(
         {date_axis_value(o.date), o.value, o.expanded_uncertainty > 0 ? std::optional(o.expanded_uncertainty) : std::nullopt, false});
+  for (std::size_t i = 0; i < series.points.size() && i < marks.outcomes.size(); ++i)
+    series.points[i].outcome = marks.outcomes[i];
   s.series.push_back(std::move(series));
+  if (!marks.void_runs.empty()) {
+    ChartSeries voided{"void run (entered in error)", {}};
+    for (const auto& o : marks.void_runs)
+      voided.points.push_back({date_axis_value(o.date), o.value, std::nullopt, false, ChartPoint::Outcome::void_run});
+    s.series.push_back(std::move(voided));
+    s.notes.push_back(
+        fmt::format("{} void run(s) are drawn as open squares; no statistic uses them.", marks.void_runs.size()));
+  }
+  if (std::any_of(marks.outcomes.begin(), marks.outcomes.end(),
+                  [](auto o) { return o == ChartPoint::Outcome::failed; }))
+    s.notes.push_back("A failed check is drawn as a cross; the instrument was out of service until a passing check.");
+  for (const auto& [date, label] : marks.adjustments) s.markers.push_back({date_axis_value(date), label});
   if (tol.lower || tol.upper) s.tolerance = ToleranceBand{tol.lower, tol.upper, "tolerance limit"};
   return s;
 }
@@ -35,8 +52,14 @@ std::string unit_suffix(const std::string& unit) { return unit.empty() ? "" : " 
 }  // namespace
 
 ChartSpec drift_chart_spec(std::span<const stats::Observation> h, const stats::DriftResult& d,
-                           const stats::ToleranceLimits& tol, const HistoryChartLabels& l) {
-  ChartSpec s = base(h, tol, l, "drift");
+                           const stats::ToleranceLimits& tol, const HistoryChartLabels& l,
+                           const HistoryChartMarks& marks) {
+  ChartSpec s = base(h, tol, l, "drift", marks);
+  if (marks.fitted_from && *marks.fitted_from > 0 && *marks.fitted_from < h.size())
+    s.notes.push_back(fmt::format(
+        "The trend is fitted to the {} result(s) from {} on only, after the latest adjustment: an adjustment starts "
+        "a new drift, so results before it are drawn but not fitted.",
+        h.size() - *marks.fitted_from, to_string(h[*marks.fitted_from].date)));
   if (!d.fit) {
     s.notes.push_back(d.message);
   } else if (!d.slope_significant) {
@@ -75,9 +98,10 @@ ChartSpec drift_chart_spec(std::span<const stats::Observation> h, const stats::D
   return s;
 }
 
-ChartSpec history_chart_spec(std::span<const stats::Observation> current, std::span<const stats::Observation> superseded,
-                             const stats::ToleranceLimits& tol, const HistoryChartLabels& l) {
-  ChartSpec s = base(current, tol, l, "history");
+ChartSpec history_chart_spec(std::span<const stats::Observation> current,
+                             std::span<const stats::Observation> superseded, const stats::ToleranceLimits& tol,
+                             const HistoryChartLabels& l, const HistoryChartMarks& marks) {
+  ChartSpec s = base(current, tol, l, "history", marks);
   if (!superseded.empty()) {
     ChartSeries old{"superseded by a correction", {}};
     for (const auto& o : superseded) old.points.push_back({date_axis_value(o.date), o.value, std::nullopt, false});
@@ -90,9 +114,15 @@ ChartSpec history_chart_spec(std::span<const stats::Observation> current, std::s
 }
 
 ChartSpec control_chart_spec(std::span<const stats::Observation> h, const stats::ControlChart& c,
-                             const stats::ToleranceLimits& tol, const HistoryChartLabels& l) {
-  ChartSpec s = base(h, tol, l, "individuals control chart");
+                             const stats::ToleranceLimits& tol, const HistoryChartLabels& l,
+                             const HistoryChartMarks& marks) {
+  ChartSpec s = base(h, tol, l, "individuals control chart", marks);
   s.control = ControlLines{c.limits.centre, c.limits.lcl(), c.limits.ucl()};
+  const std::size_t first = c.limits.baseline_first, count = c.limits.baseline_count;
+  if (count > 0 && first + count <= h.size())
+    s.baseline = XSpan{date_axis_value(h[first].date), date_axis_value(h[first + count - 1].date),
+                       fmt::format("baseline: {} result(s), {} to {}", count, to_string(h[first].date),
+                                   to_string(h[first + count - 1].date))};
   for (std::size_t i : c.flagged_indices())
     if (i < s.series[0].points.size()) s.series[0].points[i].flagged = true;
   s.notes.push_back(c.method);

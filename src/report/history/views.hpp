@@ -24,6 +24,7 @@ struct QuantityView {
   std::string uncertainty_basis;
   stats::ToleranceLimits tolerance;
   std::string tolerance_basis;
+  bool non_negative = false;  ///< an SD, CV or minimum weight: charts never draw a negative axis
 };
 
 /// One check run as a row of the history table; values in the columns' units, absent where not carried.
