@@ -51,7 +51,7 @@ PipetteUncertainty pipette_uncertainty(const PipetteMeanInputs& in, const Pipett
   if (in.balance_u)
     inputs.push_back(stats::Contribution::standard("balance calibration, u of a weighing", in.balance_u->mg(), z));
   inputs.push_back(stats::Contribution::rounding("balance readability d", in.readability.mg(), z));
-inputs.push_back(
+  inputs.push_back(
       stats::Contribution::standard("water temperature (thermometer)", u_t, m * z_temperature_slope(in.environment)));
   inputs.back().note = options.water_temperature_u_c
                            ? "entered"

@@ -186,6 +186,35 @@ TEST_CASE("pipette certificate PDF: results table, balance traceability, Z, on e
   CHECK_THAT(text, Catch::Contains("Limits source"));
 }
 
+TEST_CASE("pipette budget: an entered thermometer u is stored, kept by a correction and changes U by hand",
+          "[cli][history][pipette][uncertainty]") {
+  plumb::test::ScratchDir dir;
+  const auto db = checked_pipette(dir);
+  // Run 2 is the gravimetric check (run 1 the balance's weekly check). Correct it with u(t) = 0.05 degC entered.
+  auto r = run_plumb({"--db", db, "check", "correct", "2", "--water-temp-u", "0.05C", "--reason",
+                      "thermometer calibration certificate found", "--by", "Q. Manager"},
+                     dir.path());
+  INFO(r.err);
+  REQUIRE(r.status == 0);
+  r = run_plumb({"--db", db, "check", "show", "LAST", "--format", "json"}, dir.path());
+  REQUIRE(r.status == 0);
+  const json run = json::parse(r.out);
+  CHECK_THAT(run["environment"]["water_temperature_u_c"].get<double>(), Catch::Matchers::WithinAbs(0.05, 1e-12));
+  CHECK(run["environment"]["air_density_u_kg_m3"].is_null());  // the stated default applied
+  r = run_plumb({"--db", db, "history", "P-07", "--format", "json"}, dir.path());
+  REQUIRE(r.status == 0);
+  const json j = json::parse(r.out);
+  REQUIRE(j["runs"].size() == 2);  // the original stays in history, marked; the correction comes last
+  // Terms worked by hand in pipette_check_test.cpp, the temperature's now 0.05 x 99.731 x 0.00020382604
+  // = 0.0010163887 uL: U = 2 sqrt(0.0331413184^2 + 0.0028949812^2 + 0.0010163887^2 + 0.0008781170^2
+  // + 0.0000421325^2) = 0.0665893028 uL.
+  CHECK_THAT(j["runs"][1]["values"]["systematic_error_u_ul"].get<double>(),
+             microlitres_near(0.0665893028, ul(0.000000005)));
+  // The original keeps the default thermometer's U worked by hand in the test below (0.0667236194 uL).
+  CHECK_THAT(j["runs"][0]["values"]["systematic_error_u_ul"].get<double>(),
+             microlitres_near(0.0667236194, ul(0.000000005)));
+}
+
 TEST_CASE("pipette history quantities: e_s and CV with U, worked by hand", "[cli][history][pipette]") {
   plumb::test::ScratchDir dir;
   const auto db = checked_pipette(dir);

@@ -117,8 +117,12 @@ std::vector<std::string> stored_conditions(store::Database& db, const store::Run
     case checks::Procedure::gravimetric: {
       const auto c = store::find_pipette_run_conditions(db.sql(), run.id);
       if (!c) return {};
+      // The budget's entered uncertainties are stored with the results, not in a column.
+      const auto& e = run.results.value("environment", nlohmann::json::object());
       return {c->balance_id, c->water_temperature_c.to_string(), c->air_pressure_hpa.to_string(),
-              c->humidity_pct.to_string(), c->evaporation ? c->evaporation->in_grams().to_string() : ""};
+              c->humidity_pct.to_string(), c->evaporation ? c->evaporation->in_grams().to_string() : "",
+              e.value("water_temperature_u_c", nlohmann::json()).dump(),
+              e.value("air_density_u_kg_m3", nlohmann::json()).dump()};
     }
   }
   return {};
