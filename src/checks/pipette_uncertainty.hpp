@@ -19,13 +19,15 @@
 namespace plumb::checks {
 
 inline constexpr double pipette_coverage_k = 2.0;
-/// ISO 8655-6:2002 (5.3) asks for a thermometer with a maximum error of 0.2 degC: read as a rectangular
-/// half-width, u(t) = 0.2 / sqrt(3) degC when the lab enters none.
+/// ISO 8655-6:2002 asks for a thermometer with a maximum error of 0.2 degC: read as a rectangular
+/// half-width, u(t) = 0.2 / sqrt(3) degC when the lab enters none. (The requirement is recalled from memory of the
+/// standard; doc/uncertainty.md says so and how a lab enters its own u.)
 inline constexpr double default_thermometer_half_width_c = 0.2;
 /// u(rho_a) when the lab enters none: 0.01 kg/m3, under 1 % of air density, which covers the OIML R 111-1
 /// (2004) E.3 approximation with an ordinary barometer and hygrometer. Its share of a budget is negligible.
 inline constexpr double default_air_density_u_kg_m3 = 0.01;
-/// The water density formula of Tanaka et al., Metrologia 38 (2001) 301: U = 0.00084 kg/m3 (k = 2).
+/// The water density formula of Tanaka et al., Metrologia 38 (2001) 301: U = 0.00084 kg/m3 (k = 2), recalled from
+/// memory of the paper; its share of any budget is below 0.1 %.
 inline constexpr double water_density_formula_u_kg_m3 = 0.00042;
 
 struct PipetteUncertaintyOptions {
