@@ -87,6 +87,12 @@ ChannelResult evaluate_channel(const PipetteRunInput& in, const gravimetric::ZFa
   r.systematic_error_pct = 100.0 * r.systematic_error.ul() / selected.approx().ul();
   r.random_error = Volume::microlitres(zf * s.sd());
   r.cv_pct = 100.0 * s.sd() / s.mean();  // Z cancels
+  r.uncertainty = pipette_uncertainty(
+      {r.mean_mass, r.random_error, r.n, selected.approx(), in.balance.readability.approx(),
+       in.balance.standard_uncertainty,
+       in.evaporation_per_weighing ? std::optional<Mass>(in.evaporation_per_weighing->approx()) : std::nullopt,
+       in.environment, z},
+      in.uncertainty);
   r.limits = pipette_limits::limits_at(in.pipette.limits, in.pipette.nominal, selected, in.pipette.channels);
 
   const int dp = volume_decimals(selected);

@@ -18,6 +18,7 @@
 #include <string_view>
 #include <vector>
 
+#include "checks/pipette_uncertainty.hpp"
 #include "checks/verdict.hpp"
 #include "core/dates.hpp"
 #include "core/decimal.hpp"
@@ -70,6 +71,7 @@ struct PipetteRunInput {
   gravimetric::Environment environment;
   std::optional<ExactMass> evaporation_per_weighing;  ///< added to every weighing
   std::vector<TestVolumeWeighings> volumes;
+  PipetteUncertaintyOptions uncertainty;  ///< entered instrument uncertainties; stated defaults otherwise
 };
 
 inline constexpr std::size_t min_replicates = 4;
@@ -87,6 +89,7 @@ struct ChannelResult {
   double systematic_error_pct = 0.0;  ///< 100 * systematic_error / selected
   Volume random_error;           ///< sample SD of the volumes = Z * sd_mass
   double cv_pct = 0.0;           ///< 100 * random_error / mean
+  PipetteUncertainty uncertainty;  ///< budget of the mean volume; U of e_s and s_r (checks/pipette_uncertainty.hpp)
   pipette_limits::AppliedLimits limits;
   Verdict verdict = Verdict::pass;
   std::vector<std::string> reasons;  ///< every fail names its reason; empty on pass

@@ -14,17 +14,18 @@ namespace {
 constexpr std::array<std::string_view, 1> repeatability_options{"weight"};
 constexpr std::array<std::string_view, 5> calibration_options{"temperature", "pressure", "humidity", "air-formula",
                                                               "model"};
-constexpr std::array<std::string_view, 5> gravimetric_options{"balance", "water-temp", "pressure", "humidity",
-                                                              "evaporation"};
+constexpr std::array<std::string_view, 7> gravimetric_options{"balance",     "water-temp",    "pressure",
+                                                              "humidity",    "evaporation",   "water-temp-u",
+                                                              "air-density-u"};
 constexpr std::array<std::string_view, 8> repeatability_results{"n",           "mean_g",  "reference_g", "bias_g",
                                                                  "sd_g",        "min_weight_g", "criteria", "reasons"};
 constexpr std::array<std::string_view, 7> calibration_results{"as_found",    "as_left",  "final_stage", "final_state",
                                                               "environment", "settings", "weights_used"};
 constexpr std::array<std::string_view, 6> gravimetric_results{"volumes", "z",      "environment",
                                                               "balance", "pipette", "reasons"};
-constexpr std::array<std::string_view, 9> every_option{"weight",     "temperature", "pressure",
-                                                       "humidity",   "air-formula", "model",
-                                                       "balance",    "water-temp",  "evaporation"};
+constexpr std::array<std::string_view, 11> every_option{"weight",      "temperature",  "pressure",     "humidity",
+                                                        "air-formula", "model",        "balance",      "water-temp",
+                                                        "evaporation", "water-temp-u", "air-density-u"};
 
 ProcedureSpec make_spec(Procedure p) {
   switch (p) {

@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <cmath>
 
+#include "checks/repeatability_uncertainty.hpp"
 #include "core/errors.hpp"
 #include "metrology/usp41.hpp"
 #include "stats/exact_summary.hpp"
@@ -56,6 +57,11 @@ RepeatabilityResult evaluate_repeatability(const RepeatabilityInput& in) {
   r.reference = in.weight.conventional_mass.approx();
   r.bias = Mass::grams(sum.mean_minus(in.weight.conventional_mass.in_grams()));
   r.bias_pct = 100.0 * r.bias.g() / r.reference.g();
+  const RepeatabilityUncertainty u = repeatability_uncertainty(
+      {r.sd, r.n, in.balance.readability.approx(), in.weight.expanded_uncertainty, in.weight.coverage_factor});
+  r.bias_expanded_u = u.bias_expanded;
+  r.sd_expanded_u = u.sd_expanded;
+  r.uncertainty_k = u.k;
   r.readability = in.balance.readability.approx();
   r.sd_over_d = r.sd / r.readability;
   r.sd_used = usp41::effective_sd(r.sd, r.readability);

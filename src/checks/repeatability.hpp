@@ -41,6 +41,9 @@ struct RepeatabilityResult {
   int required_readings = 0;   ///< the minimum the policy asks for (TolerancePolicy::required_readings)
   std::string readings_basis;  ///< where that minimum comes from, as certificates state it
   Mass mean, sd, reference, bias;
+  /// U of the bias and of s with their k (checks/repeatability_uncertainty.hpp states the model).
+  Mass bias_expanded_u, sd_expanded_u;
+  double uncertainty_k = 2.0;
   double bias_pct = 0.0;
   Mass readability;
   double sd_over_d = 0.0;

@@ -135,6 +135,8 @@ int record_pipette(const po::variables_map& vm, Env& env, const std::string& for
   in.pressure = required(vm, "pressure", "the air pressure, e.g. 1013hPa");
   in.humidity = required(vm, "humidity", "the relative humidity, e.g. 50%");
   in.evaporation = optional_string(vm, "evaporation");
+  in.water_temperature_u = optional_string(vm, "water-temp-u");
+  in.air_density_u = optional_string(vm, "air-density-u");
   in.default_unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
   in.readings_csv = read_input(vm["readings"].as<std::string>(), in.readings_source);
   in.on = date_performed(vm);
@@ -177,6 +179,11 @@ std::vector<Command> check_commands() {
             "water-temp", po::value<std::string>(), "gravimetric: water temperature with its unit, 15C to 30C")(
             "evaporation", po::value<std::string>(),
             "gravimetric: mass lost by evaporation per weighing, with unit (e.g. 0.01mg); added to each weighing")(
+            "water-temp-u", po::value<std::string>(),
+            "gravimetric: standard uncertainty of the water thermometer, e.g. 0.05C (default 0.2C / sqrt 3, the "
+            "maximum error ISO 8655-6:2002 allows)")(
+            "air-density-u", po::value<std::string>(),
+            "gravimetric: standard uncertainty of the air density, e.g. 0.005kg/m3 (default 0.01kg/m3)")(
             "unit", po::value<std::string>()->default_value("g"), "unit of readings without a unit column")(
             "on", po::value<std::string>(), "date performed, YYYY-MM-DD (default today, the local date)")(
             "gate", po::bool_switch(), "exit with status 1 when the check fails");
@@ -243,6 +250,8 @@ std::vector<Command> check_commands() {
             "balance", po::value<std::string>(), "gravimetric: corrected balance the water was weighed on")(
             "water-temp", po::value<std::string>(), "gravimetric: corrected water temperature, degC")(
             "evaporation", po::value<std::string>(), "gravimetric: corrected evaporation loss per weighing")(
+            "water-temp-u", po::value<std::string>(), "gravimetric: corrected thermometer standard uncertainty")(
+            "air-density-u", po::value<std::string>(), "gravimetric: corrected air density standard uncertainty")(
             "layout", po::value<std::string>(), "layout of the replacement certificate (default: that of the one it "
                                                 "replaces)");
         add_format_option(d);

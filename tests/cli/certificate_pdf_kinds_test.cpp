@@ -186,6 +186,35 @@ TEST_CASE("pipette certificate PDF: results table, balance traceability, Z, on e
   CHECK_THAT(text, Catch::Contains("Limits source"));
 }
 
+TEST_CASE("pipette budget: an entered thermometer u is stored, kept by a correction and changes U by hand",
+          "[cli][history][pipette][uncertainty]") {
+  plumb::test::ScratchDir dir;
+  const auto db = checked_pipette(dir);
+  // Run 2 is the gravimetric check (run 1 the balance's weekly check). Correct it with u(t) = 0.05 degC entered.
+  auto r = run_plumb({"--db", db, "check", "correct", "2", "--water-temp-u", "0.05C", "--reason",
+                      "thermometer calibration certificate found", "--by", "Q. Manager"},
+                     dir.path());
+  INFO(r.err);
+  REQUIRE(r.status == 0);
+  r = run_plumb({"--db", db, "check", "show", "LAST", "--format", "json"}, dir.path());
+  REQUIRE(r.status == 0);
+  const json run = json::parse(r.out);
+  CHECK_THAT(run["environment"]["water_temperature_u_c"].get<double>(), Catch::Matchers::WithinAbs(0.05, 1e-12));
+  CHECK(run["environment"]["air_density_u_kg_m3"].is_null());  // the stated default applied
+  r = run_plumb({"--db", db, "history", "P-07", "--format", "json"}, dir.path());
+  REQUIRE(r.status == 0);
+  const json j = json::parse(r.out);
+  REQUIRE(j["runs"].size() == 2);  // the original stays in history, marked; the correction comes last
+  // Terms worked by hand in pipette_check_test.cpp, the temperature's now 0.05 x 99.731 x 0.00020382604
+  // = 0.0010163887 uL: U = 2 sqrt(0.0331413184^2 + 0.0028949812^2 + 0.0010163887^2 + 0.0008781170^2
+  // + 0.0000421325^2) = 0.0665893028 uL.
+  CHECK_THAT(j["runs"][1]["values"]["systematic_error_u_ul"].get<double>(),
+             microlitres_near(0.0665893028, ul(0.000000005)));
+  // The original keeps the default thermometer's U worked by hand in the test below (0.0667236194 uL).
+  CHECK_THAT(j["runs"][0]["values"]["systematic_error_u_ul"].get<double>(),
+             microlitres_near(0.0667236194, ul(0.000000005)));
+}
+
 TEST_CASE("pipette history quantities: e_s and CV with U, worked by hand", "[cli][history][pipette]") {
   plumb::test::ScratchDir dir;
   const auto db = checked_pipette(dir);
@@ -198,13 +227,16 @@ TEST_CASE("pipette history quantities: e_s and CV with U, worked by hand", "[cli
   const json& v = j["runs"][0]["values"];
   // From the worked example (n = 10 deliveries at 100 uL): e_s = +0.01532 uL = +0.01532 % of 100 uL,
   // s_r = 0.1048020 uL, CV = 0.10479 %.
-  //   U(e_s) = 2 s_r / sqrt(n) = 2 x 0.1048020 / 3.1622777 = 0.0662830 uL; in % of 100 uL: 0.0662830 %
+  //   U(e_s) from the run's ISO 8655-6 budget, terms worked by hand in pipette_check_test.cpp (no balance
+  //   calibration u is known here, default thermometer and air density u, no evaporation):
+  //   2 sqrt(0.0331413184^2 + 0.0028949812^2 + 0.0023472493^2 + 0.0008781170^2 + 0.0000421325^2)
+  //   = 0.0667236194 uL; in % of 100 uL: 0.0667236194 %
   //   U(CV) = 2 CV / sqrt(2 (n - 1)) = 2 x 0.10479 / sqrt(18) = 0.20958 / 4.2426407 = 0.049398 %
   // Margins: half a unit in the last digit worked by hand.
   CHECK_THAT(v["systematic_error_ul"].get<double>(), microlitres_near(0.01532, ul(0.000005)));
-  CHECK_THAT(v["systematic_error_u_ul"].get<double>(), microlitres_near(0.0662830, ul(0.0000005)));
+  CHECK_THAT(v["systematic_error_u_ul"].get<double>(), microlitres_near(0.0667236194, ul(0.000000005)));
   CHECK_THAT(v["relative_systematic_error_pct"].get<double>(), percent_near(0.01532, pp(0.000005)));
-  CHECK_THAT(v["relative_systematic_error_u_pct"].get<double>(), percent_near(0.0662830, pp(0.0000005)));
+  CHECK_THAT(v["relative_systematic_error_u_pct"].get<double>(), percent_near(0.0667236194, pp(0.000000005)));
   CHECK_THAT(v["cv_pct"].get<double>(), percent_near(0.10479, pp(0.000005)));
   CHECK_THAT(v["cv_u_pct"].get<double>(), percent_near(0.049398, pp(0.000002)));
   // Tolerances from the stored limits: 0.8 uL = 0.8 % of 100 uL for e_s, CV <= 0.3 % (s_r 0.3 uL).

@@ -135,6 +135,69 @@ TEST_CASE("Worked example by hand: fixed 100 uL pipette, ten weighings at 20 deg
   CHECK(r.reasons.empty());
 }
 
+TEST_CASE("Worked example by hand: the ISO 8655-6 uncertainty budget of the mean volume", "[pipette][uncertainty]") {
+  // The worked example above (m = 99.731 mg, n = 10, s(m) = sqrt(0.098290 / 9) = 0.10450412007 mg, so
+  // s_r = 0.10450412007 x 1.0028509 = 0.10480205086 uL, Z = 1.0028509 uL/mg, rho_w = 998.20675,
+  // rho_a = 1.1989971 kg/m3 at 20 degC, 1013 hPa, 50 %RH; d = 0.01 mg), with a balance whose calibration gives
+  // u = 0.01 mg for a weighing. Model: GUM (JCGM 100:2008) 5.1.2 applied to V = Z m (ISO 8655-6 method):
+  //   dZ/drho_w = -Z / (rho_w - rho_a) = -1.0028509 / 997.00775 = -0.00100586068 uL/mg per kg/m3;
+  //   dZ/drho_a = Z / (rho_w - rho_a) - 1000 / (8000 (rho_w - rho_a)) = 0.00100586068 - 0.00012537515
+  //             = 0.00088048553 uL/mg per kg/m3;
+  //   d rho_w/dt from Tanaka's formula, x = t + a1 = 16.016965, y = t + a2 = 321.797, w = t + a4 = 89.34881:
+  //     df/dt = (2 x y + x^2) / (a3 w) - x^2 y / (a3 w^2) = 0.00020650149; d rho_w/dt = -a5 df/dt
+  //     = -0.2064963 kg/m3 per degC;
+  //   d rho_a/dt (OIML R 111-1 E.3) = (-0.009 h 0.061 e^{0.061 t} (273.15 + t) - (0.34848 p - 0.009 h e^{0.061 t}))
+  //     / (273.15 + t)^2 = -0.0044072 kg/m3 per degC;
+  //   dZ/dt = 0.00100586068 x 0.2064963 + 0.00088048553 x (-0.0044072) = 0.00020382604 uL/mg per degC.
+  // Contributions to u(V) in uL:
+  //   repeatability of the mean  0.10480205086 / sqrt(10)            = 0.0331413184
+  //   balance calibration        0.01 x 1.0028509                     = 0.0100285090
+  //   balance readability        0.01 / (2 sqrt 3) x 1.0028509        = 0.0028949812
+  //   water temperature          (0.2 / sqrt 3) x 99.731 x 0.00020382604 = 0.0023472493 (default thermometer)
+  //   air density                0.01 x 99.731 x 0.00088048553        = 0.0008781170 (default u(rho_a))
+  //   water density formula      0.00042 x 99.731 x 0.00100586068     = 0.0000421325
+  //   u_c = 0.0348364944 uL, U(e_s) = 2 u_c = 0.0696729887 uL = 0.0696729887 % of 100 uL.
+  //   U(s_r) = 2 x 0.10480205086 / sqrt(18) = 0.0494041606 uL; U(CV) = 100 x 0.0494041606 / 100.01532
+  //   = 0.0493965930 pp.
+  // (Worked with a calculator from the formulas; the code's own Z differs from the rounded hand Z by < 1e-7.)
+  auto in = fixed_100ul_run();
+  in.balance.standard_uncertainty = plumb::Mass::milligrams(0.01);
+  const ck::PipetteRunResult r = ck::evaluate_pipette_run(in);
+  const ck::PipetteUncertainty& u = r.volumes.at(0).channels.at(0).uncertainty;
+  REQUIRE(u.budget.lines.size() == 6);
+  CHECK(u.k == 2.0);
+  CHECK(u.budget.lines[0].contribution == Approx(0.0331413184).margin(5e-10).epsilon(0));
+  CHECK(u.budget.lines[1].contribution == Approx(0.0100285090).margin(5e-10).epsilon(0));
+  CHECK(u.budget.lines[2].contribution == Approx(0.0028949812).margin(5e-10).epsilon(0));
+  CHECK(u.budget.lines[3].contribution == Approx(0.0023472493).margin(5e-9).epsilon(0));
+  CHECK(u.budget.lines[4].contribution == Approx(0.0008781170).margin(5e-10).epsilon(0));
+  CHECK(u.budget.lines[5].contribution == Approx(0.0000421325).margin(5e-11).epsilon(0));
+  CHECK_THAT(u.systematic_expanded, volume_near(Volume::microlitres(0.0696729887), ul(5e-9)));
+  CHECK_THAT(u.systematic_expanded_pct, percent_near(0.0696729887, pp(5e-9)));
+  CHECK_THAT(u.random_expanded, volume_near(Volume::microlitres(0.0494041606), ul(5e-9)));
+  CHECK_THAT(u.cv_expanded_pct, percent_near(0.0493965930, pp(5e-9)));
+}
+
+TEST_CASE("pipette budget: an entered thermometer u and an evaporation correction enter, a bad u is refused",
+          "[pipette][uncertainty]") {
+  // Same run without a balance calibration u, with u(t) = 0.05 degC entered and evaporation e = 0.02 mg:
+  //   water temperature 0.05 x 99.751 x 0.00020382604 (m = 99.731 + 0.02 = 99.751 mg) = 0.0010165926 uL
+  //   (dZ/dt does not depend on the mass); evaporation 0.02 / sqrt 3 x 1.0028509
+  //   = 0.0115799247 uL.
+  auto in = fixed_100ul_run();
+  in.evaporation_per_weighing = plumb::ExactMass::parse("0.02mg", "evaporation");
+  in.uncertainty.water_temperature_u_c = 0.05;
+  const ck::PipetteRunResult r = ck::evaluate_pipette_run(in);
+  const auto& lines = r.volumes.at(0).channels.at(0).uncertainty.budget.lines;
+  REQUIRE(lines.size() == 6);  // no balance calibration line; an evaporation line
+  CHECK_THAT(lines[2].input.source, Contains("water temperature"));
+  CHECK(lines[2].contribution == Approx(0.0010165926).margin(5e-9).epsilon(0));
+  CHECK_THAT(lines[4].input.source, Contains("evaporation"));
+  CHECK(lines[4].contribution == Approx(0.0115799247).margin(5e-10).epsilon(0));
+  in.uncertainty.water_temperature_u_c = -0.1;
+  CHECK_THROWS_WITH(ck::evaluate_pipette_run(in), Contains("water temperature uncertainty -0.1 degC"));
+}
+
 TEST_CASE("Worked example against tighter lab limits fails, naming the reason", "[pipette]") {
   // Same data as the worked example: e_s = +0.01532 uL (+0.01532 %), s_r = 0.1048 uL, CV = 0.1048 %.
   auto in = fixed_100ul_run();

@@ -2,7 +2,10 @@
 // of the chapter). Expected values are worked by hand in the comments, never taken from the code.
 #include <catch2/catch.hpp>
 
+#include <cmath>
+
 #include "checks/repeatability.hpp"
+#include "checks/repeatability_uncertainty.hpp"
 #include "core/errors.hpp"
 #include "metrology/usp41.hpp"
 #include "support/margin.hpp"
@@ -57,6 +60,41 @@ TEST_CASE("weekly check worked by hand: a passing balance", "[repeatability][usp
   CHECK(r.digit_backed);
   CHECK(r.verdict == Verdict::pass);
   CHECK(r.reasons.empty());
+}
+
+TEST_CASE("weekly check worked by hand: U of the bias and of the SD", "[repeatability][uncertainty]") {
+  // The passing readings above: n = 10, s^2 = 0.009 mg^2, d = 0.1 mg; weight W100 with U_w = 0.05 mg, k_w = 2.
+  // Model (GUM, JCGM 100:2008 5.1.2, inputs uncorrelated, sensitivities 1; checks/repeatability_uncertainty.hpp):
+  //   s^2/n          = 0.009 / 10          = 0.0009       mg^2   scatter of the mean
+  //   (U_w/k_w)^2    = (0.05 / 2)^2        = 0.000625     mg^2   reference weight's certificate
+  //   d^2/12         = 0.01 / 12           = 0.000833333  mg^2   rounding of the zero indication (GUM F.2.2.1)
+  //   u_c^2 = 0.002358333 mg^2, u_c = 0.0485626743 mg, U = 2 u_c = 0.0971253486 mg.
+  // SD (GUM E.4.3): u(s) = s / sqrt(2 (n - 1)) = 0.1 mg sqrt(0.9 / 18) = 0.1 sqrt(0.05) mg = 0.0223606798 mg,
+  //   U(s) = 0.0447213595 mg.
+  const auto r = evaluate_repeatability(example({"100.0003", "100.0001", "100.0002", "100.0004", "100.0002", "100.0003",
+                                                 "100.0001", "100.0002", "100.0003", "100.0002"}));
+  CHECK(r.uncertainty_k == 2.0);
+  CHECK_THAT(r.bias_expanded_u, mass_near(mg(0.0971253486), ug(1e-6)));
+  CHECK_THAT(r.sd_expanded_u, mass_near(mg(0.0447213595), ug(1e-6)));
+}
+
+TEST_CASE("weekly check U: each term counts, and a check without a known weight U keeps the other two",
+          "[repeatability][uncertainty]") {
+  // Without the weight's term: u_c^2 = 0.0009 + 0.000833333 = 0.001733333 mg^2, u_c = 0.0416333200 mg,
+  // U = 0.0832666400 mg.
+  const auto no_weight = repeatability_uncertainty({mg(std::sqrt(0.009)), 10, mg(0.1), std::nullopt, 2.0});
+  CHECK_THAT(no_weight.bias_standard, mass_near(mg(0.0416333200), ug(1e-6)));
+  CHECK_THAT(no_weight.bias_expanded, mass_near(mg(0.0832666400), ug(1e-6)));
+  // All readings equal (s = 0), weight U = 0.05 mg at k = 2, d = 1 mg: u_c^2 = 0.000625 + 1/12 = 0.083958333 mg^2,
+  // u_c = 0.2897556442 mg, U = 0.5795112884 mg; U(s) = 0.
+  const auto flat = repeatability_uncertainty({mg(0), 5, mg(1), mg(0.05), 2.0});
+  CHECK_THAT(flat.bias_expanded, mass_near(mg(0.5795112884), ug(1e-6)));
+  CHECK_THAT(flat.sd_expanded, mass_near(mg(0), ug(1e-9)));
+  // A weight certificate stated at k = 2.5 with U = 0.05 mg: u = 0.02 mg, 0.0004 mg^2, so with the passing
+  // readings u_c^2 = 0.0009 + 0.0004 + 0.000833333 = 0.002133333 mg^2, U = 2 x 0.0461880215 = 0.0923760431 mg.
+  const auto k25 = repeatability_uncertainty({mg(std::sqrt(0.009)), 10, mg(0.1), mg(0.05), 2.5});
+  CHECK_THAT(k25.bias_expanded, mass_near(mg(0.0923760431), ug(1e-6)));
+  CHECK_THROWS_AS(repeatability_uncertainty({mg(0.1), 10, mg(0.1), mg(0.05), 0.0}), InputError);
 }
 
 TEST_CASE("weekly check worked by hand: repeatability too poor for the smallest net weight", "[repeatability]") {

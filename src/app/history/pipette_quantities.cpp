@@ -67,8 +67,8 @@ const json* channel_entry(const json& tv, const Point& p, PipetteMeasure m) {
   return best;
 }
 
-// U (k = 2) from the scatter of the n deliveries only (the balance, Z and evaporation contributions of a full
-// ISO 8655-6 budget are not stored with the run, so this is a lower bound, said under every chart):
+// U (k = 2) as the run stored it from its full budget (checks/pipette_uncertainty.hpp). Runs recorded before
+// the budget was stored fall back to the scatter of the n deliveries only, a lower bound:
 //   e_s = mean V - V_s, so u(e_s) = s_r / sqrt(n);                           U = 2 s_r / sqrt(n);
 //   in % of the selected volume V_s:                                          U = 2 s_r / sqrt(n) / V_s x 100;
 //   CV = s_r / mean V; a sample SD of n normal values has relative u 1 / sqrt(2 (n - 1)) (GUM E.4.3), so
@@ -81,6 +81,15 @@ std::optional<QuantityValue> read_at(const RunContext& c, const Point& p, Pipett
   const double n = num(*ch, "n"), s_r = num(*ch, "random_error_ul"), v_s = num(*tv, "selected_ul");
   const double value = num(*ch, value_key(m));
   double u = 0;
+  // Runs recorded with their ISO 8655-6 budget carry U; older runs get the lower bound below.
+  if (const json& st = ch->value("uncertainty", json::object()); st.is_object() && st.contains("systematic_u_ul")) {
+    switch (m) {
+      case PipetteMeasure::systematic_ul: u = num(st, "systematic_u_ul"); break;
+      case PipetteMeasure::systematic_pct: u = num(st, "systematic_u_pct"); break;
+      case PipetteMeasure::cv_pct: u = num(st, "cv_u_pct"); break;
+    }
+    return QuantityValue{value, u};
+  }
   switch (m) {
     case PipetteMeasure::systematic_ul: u = n > 0 ? coverage_k * s_r / std::sqrt(n) : 0; break;
     case PipetteMeasure::systematic_pct: u = n > 0 && v_s > 0 ? coverage_k * s_r / std::sqrt(n) / v_s * 100 : 0; break;
@@ -162,11 +171,12 @@ struct MeasureInfo {
 
 constexpr MeasureInfo measures[] = {
     {PipetteMeasure::systematic_pct, "relative-systematic-error", "Systematic error", "%",
-     "U (k = 2) of e_s is 2 s_r / sqrt(n) in % of the selected volume: the scatter of the mean of n deliveries "
-     "only, a lower bound (the balance, Z and evaporation terms of ISO 8655-6 are not included)"},
+     "U (k = 2) of e_s in % of the selected volume from the run's ISO 8655-6 budget (repeatability of the mean, "
+     "balance, water temperature, air density, evaporation, Z; GUM); runs recorded before it: 2 s_r / sqrt(n), "
+     "a lower bound"},
     {PipetteMeasure::systematic_ul, "systematic-error", "Systematic error", "uL",
-     "U (k = 2) of e_s is 2 s_r / sqrt(n): the scatter of the mean of n deliveries only, a lower bound (the "
-     "balance, Z and evaporation terms of ISO 8655-6 are not included)"},
+     "U (k = 2) of e_s from the run's ISO 8655-6 budget (repeatability of the mean, balance, water temperature, "
+     "air density, evaporation, Z; GUM); runs recorded before it: 2 s_r / sqrt(n), a lower bound"},
     {PipetteMeasure::cv_pct, "cv", "Random error (CV)", "%",
      "U (k = 2) of the CV is 2 CV / sqrt(2 (n - 1)), the spread of a sample SD of n normal deliveries (GUM E.4.3)"},
 };

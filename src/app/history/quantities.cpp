@@ -6,6 +6,7 @@
 #include <algorithm>
 #include <cmath>
 
+#include "checks/repeatability_uncertainty.hpp"
 #include "core/errors.hpp"
 
 namespace plumb::app {
@@ -20,25 +21,26 @@ std::optional<double> number(const json& results, const char* key) {
   return results[key].get<double>();
 }
 
-// Expanded uncertainty (k = 2) of the bias at the check load, from what each run stores (GUM, JCGM 100:2008):
-//   u(mean)      = s / sqrt(n)           scatter of the mean of n readings (rounding at load is inside s);
-//   u(reference) = U_w / k_w              the reference weight's certificate;
-//   u(zero)      = d / (2 sqrt 3)         rounding of the zero indication, read once and not in s.
-// Air buoyancy and eccentricity are left out: the check uses the conventional mass and one centred load,
-// and the weekly check does not measure them. This is therefore the uncertainty of the check itself,
-// a lower bound on the full EURAMET cg-18 budget of a calibration.
-std::optional<QuantityValue> read_bias(const RunContext& c) {
+// U of the bias and of s, from what each run stores (runs recorded before the check stored its own U included):
+// one model for every output, checks::repeatability_uncertainty (GUM, JCGM 100:2008; stated there).
+std::optional<checks::RepeatabilityUncertainty> run_uncertainty(const RunContext& c) {
   const json& r = c.run.results;
-  const auto bias = number(r, "bias_g"), sd = number(r, "sd_g"), n = number(r, "n"), d = number(r, "readability_g");
-  if (!bias) return std::nullopt;
-  double variance = 0.0;
-  if (sd && n && *n >= 1) variance += *sd * *sd / *n;
-  if (c.weight) {
-    const double k = c.weight->k.to_double();
-    if (k > 0) variance += std::pow(c.weight->uncertainty.approx().g() / k, 2);
+  const auto sd = number(r, "sd_g"), n = number(r, "n"), d = number(r, "readability_g");
+  if (!sd || !n || *n < 1) return std::nullopt;
+  checks::RepeatabilityUncertaintyInput in{Mass::grams(*sd), static_cast<long long>(*n), Mass::grams(d.value_or(0.0)),
+                                           std::nullopt, 2.0};
+  if (c.weight && c.weight->k.to_double() > 0) {
+    in.weight_expanded_u = c.weight->uncertainty.approx();
+    in.weight_k = c.weight->k.to_double();
   }
-  if (d) variance += std::pow(*d / (2.0 * std::sqrt(3.0)), 2);
-  return QuantityValue{*bias * mg_per_g, coverage_k * std::sqrt(variance) * mg_per_g};
+  return checks::repeatability_uncertainty(in);
+}
+
+std::optional<QuantityValue> read_bias(const RunContext& c) {
+  const auto bias = number(c.run.results, "bias_g");
+  if (!bias) return std::nullopt;
+  const auto u = run_uncertainty(c);
+  return QuantityValue{*bias * mg_per_g, u ? u->bias_expanded.g() * mg_per_g : 0.0};
 }
 
 // A sample SD from n readings of a normal distribution has a relative standard uncertainty of about
@@ -46,9 +48,10 @@ std::optional<QuantityValue> read_bias(const RunContext& c) {
 double sd_relative_u(double n) { return n > 1 ? 1.0 / std::sqrt(2.0 * (n - 1.0)) : 0.0; }
 
 std::optional<QuantityValue> read_sd(const RunContext& c) {
-  const auto sd = number(c.run.results, "sd_g"), n = number(c.run.results, "n");
+  const auto sd = number(c.run.results, "sd_g");
   if (!sd) return std::nullopt;
-  return QuantityValue{*sd * mg_per_g, coverage_k * *sd * sd_relative_u(n.value_or(0)) * mg_per_g};
+  const auto u = run_uncertainty(c);
+  return QuantityValue{*sd * mg_per_g, u ? u->sd_expanded.g() * mg_per_g : 0.0};
 }
 
 // Minimum weight 2000 max(s, 0.41 d) (USP <41>); U follows s when s sets it, and is 0 when the floor does.

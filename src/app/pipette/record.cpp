@@ -207,6 +207,19 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
     if (*evaporation < ExactMass{})
       throw InputError(fmt::format("--evaporation \"{}\" is negative; give the mass lost per weighing.", e));
   }
+  // Upper bounds far above any laboratory instrument: beyond them the value is a typing slip.
+  const auto u_option = [](const std::optional<std::string>& text, std::string_view field,
+                           Decimal (*parse)(std::string_view, std::string_view), double hi,
+                           std::string_view unit, std::string_view what) -> std::optional<double> {
+    if (!text) return std::nullopt;
+    return parse_condition(*text, field, parse, 0, hi, unit, what).to_double();
+  };
+  checks::PipetteUncertaintyOptions u_options;
+  u_options.water_temperature_u_c = u_option(in.water_temperature_u, "--water-temp-u", parse_celsius, 2.0, "degC",
+                                              "the plausible range of a thermometer's standard uncertainty");
+  u_options.air_density_u_kg_m3 =
+      u_option(in.air_density_u, "--air-density-u", parse_kg_per_cubic_metre, 0.1, "kg/m3",
+               "the plausible range of an air density's standard uncertainty");
   const auto lines = parse_weighings_csv(in.readings_csv, in.readings_source, in.default_unit);
 
   require_lab(db);
@@ -256,6 +269,7 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
   input.run_date = on;
   input.environment = {water.to_double(), pressure.to_double(), humidity.to_double()};
   input.evaporation_per_weighing = evaporation;
+  input.uncertainty = u_options;
   for (const WeighingLine& w : lines) {
     auto tv =
         std::find_if(input.volumes.begin(), input.volumes.end(), [&](const auto& v) { return v.volume == w.volume; });
@@ -302,7 +316,13 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
   run.results["environment"] = {{"water_temperature_c", water.to_double()},
                                 {"air_pressure_hpa", pressure.to_double()},
                                 {"humidity_pct", humidity.to_double()},
-                                {"evaporation_g", evaporation ? json(evaporation->approx().g()) : json()}};
+                                {"evaporation_g", evaporation ? json(evaporation->approx().g()) : json()},
+                                // Entered for the budget (null: the stated default applied); a correction reuses them.
+                                {"water_temperature_u_c", u_options.water_temperature_u_c
+                                                              ? json(*u_options.water_temperature_u_c)
+                                                              : json()},
+                                {"air_density_u_kg_m3",
+                                 u_options.air_density_u_kg_m3 ? json(*u_options.air_density_u_kg_m3) : json()}};
   run.verdict = result.verdict;
   if (result.verdict == Verdict::pass) run.next_due = add_interval(on, pipette->every);
   int seq = 1;

@@ -29,6 +29,9 @@ struct PipetteCheckInput {
   std::string pressure;           ///< hPa, as typed
   std::string humidity;           ///< %RH, as typed
   std::optional<std::string> evaporation;  ///< mass lost per weighing, with unit, e.g. "0.01mg"
+  /// Standard uncertainties for the budget (checks/pipette_uncertainty.hpp), with units; stated defaults when absent.
+  std::optional<std::string> water_temperature_u;  ///< the thermometer's, e.g. "0.1C"
+  std::optional<std::string> air_density_u;        ///< e.g. "0.005kg/m3"
   std::string readings_csv;
   std::string readings_source;    ///< file name for messages
   MassUnit default_unit = MassUnit::g;

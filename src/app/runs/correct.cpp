@@ -117,8 +117,12 @@ std::vector<std::string> stored_conditions(store::Database& db, const store::Run
     case checks::Procedure::gravimetric: {
       const auto c = store::find_pipette_run_conditions(db.sql(), run.id);
       if (!c) return {};
+      // The budget's entered uncertainties are stored with the results, not in a column.
+      const auto& e = run.results.value("environment", nlohmann::json::object());
       return {c->balance_id, c->water_temperature_c.to_string(), c->air_pressure_hpa.to_string(),
-              c->humidity_pct.to_string(), c->evaporation ? c->evaporation->in_grams().to_string() : ""};
+              c->humidity_pct.to_string(), c->evaporation ? c->evaporation->in_grams().to_string() : "",
+              e.value("water_temperature_u_c", nlohmann::json()).dump(),
+              e.value("air_density_u_kg_m3", nlohmann::json()).dump()};
     }
   }
   return {};
@@ -219,6 +223,16 @@ std::int64_t record_pipette_correction(store::Database& db, store::Recorder& rec
   p.humidity = condition(in, "humidity").value_or(cond->humidity_pct.to_string() + "%");
   p.evaporation = cond->evaporation ? std::optional(cond->evaporation->to_string()) : std::nullopt;
   if (auto v = condition(in, "evaporation")) p.evaporation = v;
+  // The budget's entered uncertainties live in the results (no column for them): kept unless corrected.
+  const auto stored_u = [&](const char* key, const char* unit) -> std::optional<std::string> {
+    const auto& e = original.results.value("environment", nlohmann::json::object());
+    if (!e.contains(key) || !e[key].is_number()) return std::nullopt;
+    return fmt::format("{}{}", e[key].get<double>(), unit);
+  };
+  p.water_temperature_u = condition(in, "water-temp-u");
+  if (!p.water_temperature_u) p.water_temperature_u = stored_u("water_temperature_u_c", "C");
+  p.air_density_u = condition(in, "air-density-u");
+  if (!p.air_density_u) p.air_density_u = stored_u("air_density_u_kg_m3", "kg/m3");
   p.readings_csv = in.readings_csv ? *in.readings_csv : weighings_file_of(original);
   p.readings_source = in.readings_csv ? in.readings_source : fmt::format("weighings of run {}", original.id);
   p.default_unit = in.default_unit;

@@ -90,6 +90,44 @@ std::string random_limit_text(const json& l, int dp) {
   return fmt::format("{:.{}f} uL", number_field(l, "random_ul"), dp);
 }
 
+// U of each result with k, and the largest term of its budget; runs recorded before the budget was stored go
+// without this table.
+void uncertainty_block(const json& run, Document& doc) {
+  Table t{{"Volume", "Ch", "U(e_s) / uL", "U(e_s) / %", "U(s_r) / uL", "k", "Largest contribution"},
+          {0.8, 0.35, 0.9, 0.8, 0.9, 0.4, 2.6},
+          {true, true, true, true, true, true, false},
+          {}};
+  for (const auto& tv : run.value("volumes", json::array())) {
+    const int dp = pipette_volume_decimals(number_field(tv, "selected_ul"));
+    for (const auto& ch : tv.value("channels", json::array())) {
+      if (!ch.contains("uncertainty")) continue;
+      const json& u = ch["uncertainty"];
+      std::string largest;
+      double share = -1;
+      for (const auto& line : u.value("budget", json::array()))
+        if (number_field(line, "share") > share) {
+          share = number_field(line, "share");
+          largest = fmt::format("{} ({:.0f} %)", line.value("source", ""), 100 * share);
+        }
+      t.rows.push_back({tv.value("selected", "") + " uL", cell(ch, "channel"),
+                        fmt::format("{:.{}f}", number_field(u, "systematic_u_ul"), dp + 1),
+                        fmt::format("{:.4f}", number_field(u, "systematic_u_pct")),
+                        fmt::format("{:.{}f}", number_field(u, "random_u_ul"), dp + 1),
+                        fmt::format("{:g}", number_field(u, "k")), largest});
+    }
+  }
+  if (t.rows.empty()) return;
+  doc.blocks.push_back(Heading{"Uncertainty of the results"});
+  doc.blocks.push_back(Paragraph{
+      "GUM (JCGM 100:2008) budget of the mean volume per ISO 8655-6: repeatability of the mean s_r / sqrt(n), "
+      "balance calibration (when known) and readability, water temperature through dZ/dt, air density, "
+      "evaporation correction and the water density formula behind Z; U(e_s) = U(mean volume). "
+      "U(s_r) = k s_r / sqrt(2 (n - 1)) (GUM E.4.3). k = 2, coverage probability about 95 %. The largest "
+      "contribution is given with its share of u_c^2.",
+      true});
+  doc.blocks.push_back(std::move(t));
+}
+
 void results_block(const json& run, Document& doc) {
   doc.blocks.push_back(Heading{"Results per test volume and channel"});
   doc.blocks.push_back(Paragraph{"e_s = mean volume - selected volume (systematic error); s_r = SD of the delivered "
@@ -114,6 +152,7 @@ void results_block(const json& run, Document& doc) {
     }
   }
   doc.blocks.push_back(std::move(t));
+  uncertainty_block(run, doc);
 }
 
 // e_s against the test volume in the unit the limits are stated in (uL for ISO 8655-2's absolute limits, which then
@@ -146,7 +185,11 @@ void chart_block(const json& c, const json& run, Document& doc) {
     std::size_t i = 0;
     for (const auto& ch : tv.value("channels", json::array())) {
       const double n = number_field(ch, "n");
-      const double u = n > 0 ? 2 * number_field(ch, "random_error_ul") / std::sqrt(n) * scale : 0;
+      // U from the run's budget; runs recorded before it carry only the scatter of the mean (a lower bound).
+      const json& st = ch.value("uncertainty", json::object());
+      const double u = st.is_object() && st.contains("systematic_u_ul") ? number_field(st, "systematic_u_ul") * scale
+                       : n > 0 ? 2 * number_field(ch, "random_error_ul") / std::sqrt(n) * scale
+                               : 0;
       const bool failed = ch.value("verdict", "") != "pass";
       any_failed = any_failed || failed;
       s.series[per_channel ? i : 0].points.push_back(
@@ -163,8 +206,12 @@ void chart_block(const json& c, const json& run, Document& doc) {
   std::sort(upper.points.begin(), upper.points.end());
   std::sort(lower.points.begin(), lower.points.end());
   s.curves = {std::move(upper), std::move(lower)};
-  s.notes = {fmt::format("Error bars: U (k = 2) = 2 s_r / sqrt(n){}, the scatter of the mean only.",
-                         in_pct ? " in % of the selected volume" : ""),
+  const bool budgeted = volumes[0].value("channels", json::array()).empty() ||
+                        volumes[0]["channels"][0].contains("uncertainty");
+  s.notes = {budgeted ? fmt::format("Error bars: U (k = 2) of e_s{} from the ISO 8655-6 budget of each result.",
+                                    in_pct ? " in % of the selected volume" : "")
+                      : fmt::format("Error bars: U (k = 2) = 2 s_r / sqrt(n){}, the scatter of the mean only.",
+                                    in_pct ? " in % of the selected volume" : ""),
              "The limits are known at the tested volumes only: each is marked there; the dotted line joining them "
              "is a guide."};
   if (any_failed) s.notes.push_back("Ringed: a channel that failed its limits at that volume (see the reasons below).");

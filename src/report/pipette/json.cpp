@@ -9,6 +9,10 @@ json channel_json(const checks::ChannelResult& c) {
   json volumes = json::array();
   for (const Volume& v : c.volumes) volumes.push_back(v.ul());
   const auto& l = c.limits;
+  const auto& u = c.uncertainty;
+  json budget = json::array();
+  for (const auto& line : u.budget.lines)
+    budget.push_back({{"source", line.input.source}, {"u_ul", line.contribution}, {"share", line.share}, {"note", line.input.note}});
   return {{"channel", c.channel},
           {"n", c.n},
           {"mean_mass_g", c.mean_mass.g()},
@@ -19,6 +23,13 @@ json channel_json(const checks::ChannelResult& c) {
           {"systematic_error_pct", c.systematic_error_pct},
           {"random_error_ul", c.random_error.ul()},
           {"cv_pct", c.cv_pct},
+          {"uncertainty",
+           {{"systematic_u_ul", u.systematic_expanded.ul()},
+            {"systematic_u_pct", u.systematic_expanded_pct},
+            {"random_u_ul", u.random_expanded.ul()},
+            {"cv_u_pct", u.cv_expanded_pct},
+            {"k", u.k},
+            {"budget", budget}}},
           {"limits",
            {{"systematic_ul", l.systematic.ul()},
             {"systematic_pct", l.systematic_pct},

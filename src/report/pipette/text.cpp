@@ -27,12 +27,20 @@ std::vector<std::string> pipette_results_table(const json& r) {
     const double v = number_field(tv, "selected_ul");
     const int dp = pipette_volume_decimals(v);
     const json channels = tv.value("channels", json::array());
-    for (const auto& c : channels)
+    for (const auto& c : channels) {
       rows.push_back(fmt::format("  {:>6} uL {:>3} {:>3} {:>11.{}f} {:>+10.{}f} {:>+8.3f} {:>9.{}f} {:>7.3f}  {}",
                                  tv.value("selected", ""), c.value("channel", 0), c.value("n", 0), number_field(c, "mean_ul"),
                                  dp, number_field(c, "systematic_error_ul"), dp, number_field(c, "systematic_error_pct"),
                                  number_field(c, "random_error_ul"), dp, number_field(c, "cv_pct"),
                                  c.value("verdict", "") == "pass" ? "pass" : "FAIL"));
+      // The ISO 8655-6 budget's result; runs recorded before it was stored go without.
+      if (c.contains("uncertainty")) {
+        const json& u = c["uncertainty"];
+        rows.push_back(fmt::format("      U(e_s) = {:.{}f} uL ({:.4f} %), U(s_r) = {:.{}f} uL (k = {:g}, about 95 %)",
+                                   number_field(u, "systematic_u_ul"), dp + 1, number_field(u, "systematic_u_pct"),
+                                   number_field(u, "random_u_ul"), dp + 1, number_field(u, "k")));
+      }
+    }
     if (channels.empty()) continue;
     // One limits line per test volume: every channel of a volume is judged by the same limits.
     const json& l = channels[0]["limits"];

@@ -5,6 +5,7 @@
 #include "core/units.hpp"
 #include "report/certificates/document.hpp"
 #include "report/format/text.hpp"
+#include "report/weekly_check/uncertainty_text.hpp"
 
 namespace plumb::report {
 namespace {
@@ -78,12 +79,18 @@ void balance_check_sections(const json& c, Document& doc) {
        {"s / d", fmt::format("{:.2f}", run.value("sd_over_d", 0.0))},
        {"Minimum weight (USP <41>)", grams_field(run, "min_weight_g") + "  = 2000 x max(s, 0.41 d)"},
        {"Readability", cell(run, "readability_statement")}}};
+  // U of each result where the run stored it (runs recorded before go without), and the model behind it.
+  if (const std::string u = weekly_expanded_u_text(run, "sd_expanded_u_g"); !u.empty())
+    results.rows.insert(results.rows.begin() + 5, {"Uncertainty of s", u});
+  if (const std::string u = weekly_expanded_u_text(run, "bias_expanded_u_g"); !u.empty())
+    results.rows.insert(results.rows.begin() + 4, {"Uncertainty of the bias", u});
   // Which minimum applied and why; certificates of runs recorded before it was stored go without.
   if (run.contains("required_readings"))
     results.rows.insert(results.rows.begin() + 1,
                         {"Minimum number of readings",
                          fmt::format("{}: {}", cell(run, "required_readings"), cell(run, "readings_basis"))});
   doc.blocks.push_back(std::move(results));
+  if (run.contains("bias_expanded_u_g")) doc.blocks.push_back(Paragraph{weekly_uncertainty_model_text(), true});
 
   doc.blocks.push_back(Heading{fmt::format("Tolerances ({})", cell(run, "policy_name"))});
   Table tol{{"Criterion", "Quantity", "Measured", "Limit", "Basis", "Result"},

@@ -6,6 +6,7 @@
 
 #include "core/units.hpp"
 #include "report/format/text.hpp"
+#include "report/weekly_check/uncertainty_text.hpp"
 
 namespace plumb::report {
 namespace {
@@ -79,11 +80,17 @@ std::string balance_check_certificate_text(const json& c, const std::string& con
   add_line(out, fmt::format("  {:<38}{}", "reference value (conventional mass)", conventional));
   add_line(out, fmt::format("  {:<38}{}  ({:+.5f} %)", "bias (accuracy)", grams_field(run, "bias_g"),
                        run.value("bias_pct", 0.0)));
+  if (const std::string u = weekly_expanded_u_text(run, "bias_expanded_u_g"); !u.empty())
+    add_line(out, fmt::format("  {:<38}{}", "uncertainty of the bias", u));
   add_line(out, fmt::format("  {:<38}{}", "repeatability SD s (n - 1)", grams_field(run, "sd_g")));
+  if (const std::string u = weekly_expanded_u_text(run, "sd_expanded_u_g"); !u.empty())
+    add_line(out, fmt::format("  {:<38}{}", "uncertainty of s", u));
   add_line(out, fmt::format("  {:<38}{:.2f}", "s / d", run.value("sd_over_d", 0.0)));
   add_line(out, fmt::format("  {:<38}{}  = 2000 x max(s, 0.41 d)", "minimum weight (USP <41>)",
                        grams_field(run, "min_weight_g")));
   for (const auto& l : wrap(field_text(run, "readability_statement"), 78, "  Readability: ", "    ")) add_line(out, l);
+  if (run.contains("bias_expanded_u_g"))
+    for (const auto& l : wrap(weekly_uncertainty_model_text(), 78, "  ", "  ")) add_line(out, l);
   add_line(out, "");
   add_line(out, fmt::format("Tolerances ({})", field_text(run, "policy_name")));
   for (const auto& cr : run.value("criteria", json::array())) {

@@ -17,6 +17,9 @@ nlohmann::json to_json(const checks::RepeatabilityResult& r) {
   j["reference_g"] = r.reference.g();
   j["bias_g"] = r.bias.g();
   j["bias_pct"] = r.bias_pct;
+  j["bias_expanded_u_g"] = r.bias_expanded_u.g();
+  j["sd_expanded_u_g"] = r.sd_expanded_u.g();
+  j["uncertainty_k"] = r.uncertainty_k;
   j["readability_g"] = r.readability.g();
   j["sd_over_d"] = r.sd_over_d;
   j["sd_used_g"] = r.sd_used.g();
@@ -41,6 +44,7 @@ std::string repeatability_results_text(const checks::RepeatabilityResult& r, std
   out.reserve(1024);
   JsonText j(out);
   j.object();
+  j.key("bias_expanded_u_g").value(r.bias_expanded_u.g());
   j.key("bias_g").value(r.bias.g());
   j.key("bias_limit_g");
   r.bias_limit ? j.value(r.bias_limit->g()) : j.null();
@@ -71,11 +75,13 @@ std::string repeatability_results_text(const checks::RepeatabilityResult& r, std
   j.key("reasons").strings(r.reasons);
   j.key("reference_g").value(r.reference.g());
   j.key("required_readings").value(static_cast<long long>(r.required_readings));
+  j.key("sd_expanded_u_g").value(r.sd_expanded_u.g());
   j.key("sd_g").value(r.sd.g());
   j.key("sd_limit_g");
   r.sd_limit ? j.value(r.sd_limit->g()) : j.null();
   j.key("sd_over_d").value(r.sd_over_d);
   j.key("sd_used_g").value(r.sd_used.g());
+  j.key("uncertainty_k").value(r.uncertainty_k);
   j.key("verdict").value(to_string(r.verdict));
   j.key("weight_suitable").value(r.weight_suitable);
   j.end();

@@ -3,6 +3,7 @@
 #include <fmt/format.h>
 
 #include "report/format/text.hpp"
+#include "report/weekly_check/uncertainty_text.hpp"
 
 namespace plumb::report {
 
@@ -25,8 +26,14 @@ std::string repeatability_run_text(const nlohmann::json& r) {
       line(l);
   line(fmt::format("  mean               {}", mass_text(r["mean_g"], 9)));
   line(fmt::format("  reference value    {}", mass_text(r["reference_g"], 9)));
-  line(fmt::format("  bias               {} ({:+.5f} %)", mass_text(r["bias_g"]), r.value("bias_pct", 0.0)));
-  line(fmt::format("  repeatability s    {}   s/d = {:.2f}", mass_text(r["sd_g"]), r.value("sd_over_d", 0.0)));
+  const auto with_u = [&](std::string text, const char* key) {
+    const std::string u = weekly_expanded_u_text(r, key);
+    return u.empty() ? text : text + "   " + u;
+  };
+  line(with_u(fmt::format("  bias               {} ({:+.5f} %)", mass_text(r["bias_g"]), r.value("bias_pct", 0.0)),
+              "bias_expanded_u_g"));
+  line(with_u(fmt::format("  repeatability s    {}   s/d = {:.2f}", mass_text(r["sd_g"]), r.value("sd_over_d", 0.0)),
+              "sd_expanded_u_g"));
   line(fmt::format("  minimum weight     {} (USP <41>: 2000 x max(s, 0.41 d))", mass_text(r["min_weight_g"])));
   for (const auto& l : wrap(r.value("readability_statement", ""), 78, "  ", "  ")) line(l);
   for (const auto& c : r.value("criteria", nlohmann::json::array()))
