@@ -1,18 +1,18 @@
 #include <fmt/ostream.h>
 
 #include "app/registry/balances.hpp"
-#include "cli/command_groups.hpp"
-#include "app/registry/instrument_page.hpp"
 #include "app/status/due.hpp"
+#include "cli/command_groups.hpp"
 #include "cli/instrument_options.hpp"
-#include "report/registry/instrument_page.hpp"
 #include "report/registry/lists.hpp"
 #include "store/repository.hpp"
 
 namespace plumb::cli {
 
 std::vector<Command> balance_commands() {
-  Command add{"balance", "add", "register a balance, its check interval and its tolerance policy",
+  Command add{"balance",
+              "add",
+              "register a balance, its check interval and its tolerance policy",
               "plumb balance add BAL-A --capacity 220g --readability 0.1mg --every 7d --smallest-net 200mg "
               "--location \"Room 2\"",
               [](po::options_description& d, po::positional_options_description& p) {
@@ -48,36 +48,26 @@ std::vector<Command> balance_commands() {
                            b.capacity.to_string(), b.readability.to_string(), b.every.to_string(), b.policy.name());
                 return 0;
               }};
-  Command list{"balance", "list", "list balances", "plumb balance list",
-               [](po::options_description& d, po::positional_options_description&) { add_format_option(d, "text|json|csv"); },
-               [](const po::variables_map& vm, Env& env) {
-                 const auto format = format_of(vm, {"text", "json", "csv"});
-                 auto db = env.open();
-                 const auto balances = store::list_balances(db.sql());
-                 const auto status = app::instrument_standings(db, today_local());
-                 if (format == "json") env.out << report::balances_json(balances, status).dump(2) << "\n";
-                 else if (format == "csv") env.out << report::balances_csv(balances, status);
-                 else env.out << report::balances_text(balances, status);
-                 return 0;
-               }};
-  Command show{"balance", "show", "show one balance: attributes and their history, status, check runs and certificates",
-               "plumb balance show BAL-A",
-               [](po::options_description& d, po::positional_options_description& p) {
-                 d.add_options()("id", po::value<std::string>()->required(), "balance id (positional)")(
-                     "on", po::value<std::string>(), "status as of this date, YYYY-MM-DD (default today)");
-                 add_format_option(d);
-                 p.add("id", 1);
-               },
-               [](const po::variables_map& vm, Env& env) {
-                 const auto format = format_of(vm, {"text", "json"});
-                 const Date on = vm.count("on") ? parse_date(vm["on"].as<std::string>(), "--on") : today_local();
-                 auto db = env.open();
-                 const auto page = app::instrument_page(db, "balance", vm["id"].as<std::string>(), on);
-                 if (format == "json") env.out << page.dump(2) << "\n";
-                 else env.out << report::instrument_page_text(page);
-                 return 0;
-               }};
-  return {add, list, show};
+  Command list{
+      "balance",
+      "list",
+      "list balances",
+      "plumb balance list",
+      [](po::options_description& d, po::positional_options_description&) { add_format_option(d, "text|json|csv"); },
+      [](const po::variables_map& vm, Env& env) {
+        const auto format = format_of(vm, {"text", "json", "csv"});
+        auto db = env.open();
+        const auto balances = store::list_balances(db.sql());
+        const auto status = app::instrument_standings(db, today_local());
+        if (format == "json")
+          env.out << report::balances_json(balances, status).dump(2) << "\n";
+        else if (format == "csv")
+          env.out << report::balances_csv(balances, status);
+        else
+          env.out << report::balances_text(balances, status);
+        return 0;
+      }};
+  return {add, list, instrument_show_command("balance", "BAL-A")};
 }
 
 }  // namespace plumb::cli

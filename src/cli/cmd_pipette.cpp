@@ -3,11 +3,9 @@
 #include <nlohmann/json.hpp>
 
 #include "app/pipette/registry.hpp"
-#include "cli/command_groups.hpp"
-#include "app/registry/instrument_page.hpp"
 #include "app/status/due.hpp"
+#include "cli/command_groups.hpp"
 #include "cli/instrument_options.hpp"
-#include "report/registry/instrument_page.hpp"
 #include "store/pipettes.hpp"
 #include "store/repository.hpp"
 
@@ -22,7 +20,9 @@ std::string range_text(const checks::PipetteDefinition& d) {
 }  // namespace
 
 std::vector<Command> pipette_commands() {
-  Command add{"pipette", "add", "register a piston pipette, its check interval and the limits it is judged by",
+  Command add{"pipette",
+              "add",
+              "register a piston pipette, its check interval and the limits it is judged by",
               "plumb pipette add P-07 --nominal 100uL --range 10uL-100uL --channels 1 --every 3mo --location \"Lab 2\"",
               [](po::options_description& d, po::positional_options_description& p) {
                 d.add_options()("id", po::value<std::string>()->required(), "pipette id (positional)")(
@@ -65,7 +65,10 @@ std::vector<Command> pipette_commands() {
                            app::limits_summary(p.definition.limits), tested);
                 return 0;
               }};
-  Command list{"pipette", "list", "list pipettes", "plumb pipette list --format json",
+  Command list{"pipette",
+               "list",
+               "list pipettes",
+               "plumb pipette list --format json",
                [](po::options_description& d, po::positional_options_description&) { add_format_option(d); },
                [](const po::variables_map& vm, Env& env) {
                  const auto format = format_of(vm, {"text", "json"});
@@ -103,24 +106,7 @@ std::vector<Command> pipette_commands() {
                               status_of(p.id()), p.location);
                  return 0;
                }};
-  Command show{"pipette", "show", "show one pipette: attributes and their history, status, check runs and certificates",
-               "plumb pipette show P-07",
-               [](po::options_description& d, po::positional_options_description& p) {
-                 d.add_options()("id", po::value<std::string>()->required(), "pipette id (positional)")(
-                     "on", po::value<std::string>(), "status as of this date, YYYY-MM-DD (default today)");
-                 add_format_option(d);
-                 p.add("id", 1);
-               },
-               [](const po::variables_map& vm, Env& env) {
-                 const auto format = format_of(vm, {"text", "json"});
-                 const Date on = vm.count("on") ? parse_date(vm["on"].as<std::string>(), "--on") : today_local();
-                 auto db = env.open();
-                 const auto page = app::instrument_page(db, "pipette", vm["id"].as<std::string>(), on);
-                 if (format == "json") env.out << page.dump(2) << "\n";
-                 else env.out << report::instrument_page_text(page);
-                 return 0;
-               }};
-  return {add, list, show};
+  return {add, list, instrument_show_command("pipette", "P-07")};
 }
 
 }  // namespace plumb::cli

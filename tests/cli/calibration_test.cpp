@@ -17,53 +17,18 @@ using plumb::test::ug;
 
 namespace {
 
-// A balance of 220 g, d = 0.1 mg, and four E2 weights with zero correction (conventional mass = nominal), so that
-// every E below is the reading minus the nominal value. Each U is within a third of its E2 MPE (OIML R 111-1:2004
-// Table 1: 20 g 0.08 mg, 50 g 0.10 mg, 100 g 0.16 mg, 200 g 0.3 mg), as plumb requires of a weight's certificate.
-std::string calibration_lab(const plumb::test::ScratchDir& dir, const std::string& rule = "simple") {
-  const auto db = dir.file("cal.db").string();
-  const std::vector<std::vector<std::string>> steps = {
-      {"--db", db, "init", "--lab", "Example Calibration Lab"},
-      {"--db", db, "balance", "add", "BAL-C", "--capacity", "220g", "--readability", "0.1mg", "--every", "7d",
-       "--smallest-net", "200mg", "--since", "2026-01-05"},
-      {"--db", db, "balance", "set-calibration", "BAL-C", "--class", "I", "--e", "1mg", "--tolerance", "r76",
-       "--decision-rule", rule, "--calibrate-every", "1y", "--since", "2026-01-05"}};
-  for (const auto& s : steps) REQUIRE(run_plumb(s, dir.path()).status == 0);
-  for (const auto& [id, nominal, u] : std::vector<std::tuple<std::string, std::string, std::string>>{
-           {"W20", "20g", "0.025mg"}, {"W50", "50g", "0.03mg"}, {"W100", "100g", "0.05mg"}, {"W200", "200g", "0.10mg"}})
-    REQUIRE(run_plumb({"--db", db, "weight", "add", id, "--nominal", nominal, "--class", "E2", "--correction", "0mg",
-                       "--uncertainty", u, "--k", "2", "--certificate", "RC-" + id, "--calibrated", "2026-03-02",
-                       "--due", "2027-03-02"},
-                      dir.path())
-                .status == 0);
-  return db;
-}
-
-// Repeatability at W100: five 100.0003 and five 100.0004. Eccentricity at W100: centre 100.0003, largest deviation
-// +0.0002 g at front-left. Error of indication: one reading up per load, E = +0.1, +0.2, +0.4, +0.6, +0.8 mg.
-std::string calibration_file(const std::string& w200_reading = "200.0008") {
-  std::string csv = "stage,part,load,position,direction,reading,unit\n";
-  for (int i = 0; i < 10; ++i)
-    csv += std::string("as-found,repeatability,W100,,,") + (i % 2 ? "100.0004" : "100.0003") + ",g\n";
-  csv += "as-found,eccentricity,W100,centre,,100.0003,g\n"
-         "as-found,eccentricity,W100,front-left,,100.0005,g\n"
-         "as-found,eccentricity,W100,front-right,,100.0002,g\n"
-         "as-found,eccentricity,W100,back-left,,100.0003,g\n"
-         "as-found,eccentricity,W100,back-right,,100.0004,g\n"
-         "as-found,indication,W20,,up,20.0001,g\n"
-         "as-found,indication,W50,,up,50.0002,g\n"
-         "as-found,indication,W100,,up,100.0004,g\n"
-         "as-found,indication,W100+W50,,up,150.0006,g\n"
-         "as-found,indication,W200,,up," + w200_reading + ",g\n";
-  return csv;
-}
+// The example lab and run file are in tests/support/run_plumb.hpp: BAL-C, four E2 weights with zero correction
+// (conventional mass = nominal, so every E below is the reading minus the nominal value), E = +0.1, +0.2, +0.4,
+// +0.6, +0.8 mg.
+using plumb::test::calibration_lab;
+using plumb::test::calibration_run_file;
 
 }  // namespace
 
 TEST_CASE("calibration: record, show with budget and fit, error at a load, certificate, due", "[cli][calibration]") {
   plumb::test::ScratchDir dir;
-  const auto db = calibration_lab(dir);
-  dir.write("cal.csv", calibration_file());
+  const auto db = calibration_lab(dir).string();
+  dir.write("cal.csv", calibration_run_file());
   auto r = run_plumb({"--db",        db,           "check",        "record",        "BAL-C",     "--procedure",
                       "calibration", "--readings", "cal.csv",      "--temperature", "20C",       "--pressure",
                       "1013.25hPa",  "--humidity", "50%",          "--air-formula", "oiml-r111", "--on",
@@ -222,10 +187,10 @@ TEST_CASE("calibration: record, show with budget and fit, error at a load, certi
 
 TEST_CASE("calibration: guard band states, a failed as-left puts the balance out of service", "[cli][calibration]") {
   plumb::test::ScratchDir dir;
-  const auto db = calibration_lab(dir, "guard-band");
+  const auto db = calibration_lab(dir, "guard-band").string();
   // W200 read 200.0021: E = +2.1 mg against 2 mg in service; U there is about 0.3 mg, so the interval
   // [1.8, 2.4] mg straddles the limit: "fail, not proven" (ILAC G8 guard band w = U).
-  std::string csv = calibration_file("200.0021");
+  std::string csv = calibration_run_file("200.0021");
   // As left: the same, still reading high at 200 g (adjustment did not help).
   csv += "as-left,indication,W20,,up,20.0001,g\nas-left,indication,W50,,up,50.0002,g\n"
          "as-left,indication,W100,,up,100.0004,g\nas-left,indication,W100+W50,,up,150.0006,g\n"

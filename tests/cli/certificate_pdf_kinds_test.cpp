@@ -57,29 +57,8 @@ std::string joined(const std::vector<std::string>& pages) {
 // The calibration of tests/cli/calibration_test.cpp: 220 g, d = 0.1 mg, class I, e = 1 mg, r76 tolerance; E2 weights
 // with zero corrections, so E = reading - nominal: +0.1, +0.2, +0.4, +0.6, +0.8 mg at 20, 50, 100, 150, 200 g.
 std::string calibrated_balance(const plumb::test::ScratchDir& dir) {
-  const auto db = dir.file("cal.db").string();
-  const std::vector<std::vector<std::string>> steps = {
-      {"--db", db, "init", "--lab", "Example Calibration Lab"},
-      {"--db", db, "balance", "add", "BAL-C", "--capacity", "220g", "--readability", "0.1mg", "--every", "7d",
-       "--smallest-net", "200mg", "--since", "2026-01-05"},
-      {"--db", db, "balance", "set-calibration", "BAL-C", "--class", "I", "--e", "1mg", "--tolerance", "r76",
-       "--decision-rule", "simple", "--calibrate-every", "1y", "--since", "2026-01-05"}};
-  for (const auto& s : steps) REQUIRE(run_plumb(s, dir.path()).status == 0);
-  for (const auto& [id, nominal, u] : std::vector<std::tuple<std::string, std::string, std::string>>{
-           {"W20", "20g", "0.025mg"}, {"W50", "50g", "0.03mg"}, {"W100", "100g", "0.05mg"}, {"W200", "200g", "0.10mg"}})
-    REQUIRE(run_plumb({"--db", db, "weight", "add", id, "--nominal", nominal, "--class", "E2", "--correction", "0mg",
-                       "--uncertainty", u, "--k", "2", "--certificate", "RC-" + id, "--calibrated", "2026-03-02",
-                       "--due", "2027-03-02"},
-                      dir.path())
-                .status == 0);
-  std::string csv = "stage,part,load,position,direction,reading,unit\n";
-  for (int i = 0; i < 10; ++i) csv += std::string("as-found,repeatability,W100,,,") + (i % 2 ? "100.0004" : "100.0003") + ",g\n";
-  csv += "as-found,eccentricity,W100,centre,,100.0003,g\nas-found,eccentricity,W100,front-left,,100.0005,g\n"
-         "as-found,eccentricity,W100,front-right,,100.0002,g\nas-found,eccentricity,W100,back-left,,100.0003,g\n"
-         "as-found,eccentricity,W100,back-right,,100.0004,g\nas-found,indication,W20,,up,20.0001,g\n"
-         "as-found,indication,W50,,up,50.0002,g\nas-found,indication,W100,,up,100.0004,g\n"
-         "as-found,indication,W100+W50,,up,150.0006,g\nas-found,indication,W200,,up,200.0008,g\n";
-  dir.write("cal.csv", csv);
+  const auto db = plumb::test::calibration_lab(dir).string();
+  dir.write("cal.csv", plumb::test::calibration_run_file());
   const auto r = run_plumb({"--db",        db,           "check",        "record",        "BAL-C",     "--procedure",
                             "calibration", "--readings", "cal.csv",      "--temperature", "20C",       "--pressure",
                             "1013.25hPa",  "--humidity", "50%",          "--air-formula", "oiml-r111", "--on",

@@ -73,51 +73,11 @@ void check_units(xmlDoc* doc) {
   }
 }
 
-// The calibration of tests/cli/calibration_test.cpp: BAL-C (220 g, d = 0.1 mg, class I, e = 1 mg), four E2
-// weights with zero correction, readings giving E = +0.1, +0.2, +0.4, +0.6, +0.8 mg.
-std::string calibration_lab(const plumb::test::ScratchDir& dir) {
-  const auto db = dir.file("cal.db").string();
-  ok({"--db", db, "init", "--lab", "Example Calibration Lab"}, dir);
-  ok({"--db", db, "balance", "add", "BAL-C", "--capacity", "220g", "--readability", "0.1mg", "--every", "7d",
-      "--smallest-net", "200mg", "--since", "2026-01-05"},
-     dir);
-  ok({"--db", db, "balance", "set-calibration", "BAL-C", "--class", "I", "--e", "1mg", "--tolerance", "r76",
-      "--decision-rule", "simple", "--calibrate-every", "1y", "--since", "2026-01-05"},
-     dir);
-  for (const auto& [id, nominal, u] : std::vector<std::tuple<std::string, std::string, std::string>>{
-           {"W20", "20g", "0.025mg"}, {"W50", "50g", "0.03mg"}, {"W100", "100g", "0.05mg"}, {"W200", "200g", "0.10mg"}})
-    ok({"--db",
-        db,
-        "weight",
-        "add",
-        id,
-        "--nominal",
-        nominal,
-        "--class",
-        "E2",
-        "--correction",
-        "0mg",
-        "--uncertainty",
-        u,
-        "--k",
-        "2",
-        "--certificate",
-        "RC-" + id,
-        "--calibrated",
-        "2026-03-02",
-        "--due",
-        "2027-03-02"},
-       dir);
-  std::string csv = "stage,part,load,position,direction,reading,unit\n";
-  for (int i = 0; i < 10; ++i)
-    csv += std::string("as-found,repeatability,W100,,,") + (i % 2 ? "100.0004" : "100.0003") + ",g\n";
-  csv +=
-      "as-found,eccentricity,W100,centre,,100.0003,g\nas-found,eccentricity,W100,front-left,,100.0005,g\n"
-      "as-found,eccentricity,W100,front-right,,100.0002,g\nas-found,eccentricity,W100,back-left,,100.0003,g\n"
-      "as-found,eccentricity,W100,back-right,,100.0004,g\nas-found,indication,W20,,up,20.0001,g\n"
-      "as-found,indication,W50,,up,50.0002,g\nas-found,indication,W100,,up,100.0004,g\n"
-      "as-found,indication,W100+W50,,up,150.0006,g\nas-found,indication,W200,,up,200.0008,g\n";
-  dir.write("cal.csv", csv);
+// The calibration of tests/cli/calibration_test.cpp, recorded and certified: BAL-C (220 g, d = 0.1 mg, class I,
+// e = 1 mg), four E2 weights with zero correction, readings giving E = +0.1, +0.2, +0.4, +0.6, +0.8 mg.
+std::string certified_calibration(const plumb::test::ScratchDir& dir) {
+  const auto db = plumb::test::calibration_lab(dir).string();
+  dir.write("cal.csv", plumb::test::calibration_run_file());
   ok({"--db",        db,           "check",        "record",        "BAL-C",     "--procedure",
       "calibration", "--readings", "cal.csv",      "--temperature", "20C",        "--pressure",
       "1013.25hPa",     "--humidity", "50%",           "--air-formula", "oiml-r111", "--on",
@@ -142,7 +102,7 @@ TEST_CASE("dcc: a calibration certificate validates and carries the hand-worked 
     return;
   }
   plumb::test::ScratchDir dir;
-  const auto db = calibration_lab(dir);
+  const auto db = certified_calibration(dir);
   auto doc = valid_dcc(db, "CC-2026-0001", dir, *schema);
   xmlDoc* d = doc.get();
   check_units(d);
@@ -234,7 +194,7 @@ TEST_CASE("dcc: a broken DCC fails validation (the test's validation can fail)",
     return;
   }
   plumb::test::ScratchDir dir;
-  const auto db = calibration_lab(dir);
+  const auto db = certified_calibration(dir);
   const auto r =
       run_plumb({"--db", db, "certificate", "show", "LAST", "--format", "dcc", "--country", "DE"}, dir.path());
   REQUIRE(r.status == 0);

@@ -129,38 +129,7 @@ TEST_CASE("capacity is judged on the load: a full-capacity weight on a balance t
 TEST_CASE("capacity is judged on the load in a calibration: 220 g on a 220 g balance reading 220.0012 g",
           "[cli][capacity][calibration]") {
   plumb::test::ScratchDir dir;
-  const auto db = dir.file("cal.db").string();
-  const std::vector<std::vector<std::string>> steps = {
-      {"--db", db, "init", "--lab", "Example Calibration Lab"},
-      {"--db", db, "balance", "add", "BAL-C", "--capacity", "220g", "--readability", "0.1mg", "--every", "7d",
-       "--smallest-net", "200mg", "--since", "2026-01-05"},
-      {"--db", db, "balance", "set-calibration", "BAL-C", "--class", "I", "--e", "1mg", "--tolerance", "r76",
-       "--decision-rule", "simple", "--calibrate-every", "1y", "--since", "2026-01-05"}};
-  for (const auto& s : steps) must(run_plumb(s, dir.path()));
-  for (const auto& [id, nominal, u] : std::vector<std::tuple<std::string, std::string, std::string>>{
-           {"W20", "20g", "0.025mg"}, {"W50", "50g", "0.03mg"}, {"W100", "100g", "0.05mg"}, {"W200", "200g", "0.10mg"}})
-    must(run_plumb({"--db",
-                    db,
-                    "weight",
-                    "add",
-                    id,
-                    "--nominal",
-                    nominal,
-                    "--class",
-                    "E2",
-                    "--correction",
-                    "0mg",
-                    "--uncertainty",
-                    u,
-                    "--k",
-                    "2",
-                    "--certificate",
-                    "RC-" + id,
-                    "--calibrated",
-                    "2026-03-02",
-                    "--due",
-                    "2027-03-02"},
-                   dir.path()));
+  const auto db = plumb::test::calibration_lab(dir).string();
   std::string csv = "stage,part,load,position,direction,reading,unit\n";
   for (int i = 0; i < 10; ++i)
     csv += std::string("as-found,repeatability,W100,,,") + (i % 2 ? "100.0004" : "100.0003") + ",g\n";

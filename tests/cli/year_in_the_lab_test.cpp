@@ -24,23 +24,12 @@ namespace {
 const std::string weekly_readings =
     "reading\n100.0003\n100.0001\n100.0002\n100.0004\n100.0002\n100.0003\n100.0001\n100.0002\n100.0003\n100.0002\n";
 
-// The run file of tests/cli/calibration_test.cpp.
-std::string calibration_file() {
-  std::string csv = "stage,part,load,position,direction,reading,unit\n";
-  for (int i = 0; i < 10; ++i)
-    csv += std::string("as-found,repeatability,W100,,,") + (i % 2 ? "100.0004" : "100.0003") + ",g\n";
-  return csv + "as-found,eccentricity,W100,centre,,100.0003,g\nas-found,eccentricity,W100,front-left,,100.0005,g\n"
-               "as-found,eccentricity,W100,front-right,,100.0002,g\nas-found,eccentricity,W100,back-left,,100.0003,g\n"
-               "as-found,eccentricity,W100,back-right,,100.0004,g\nas-found,indication,W20,,up,20.0001,g\n"
-               "as-found,indication,W50,,up,50.0002,g\nas-found,indication,W100,,up,100.0004,g\n"
-               "as-found,indication,W100+W50,,up,150.0006,g\nas-found,indication,W200,,up,200.0008,g\n";
-}
 
 class Lab {
 public:
   Lab() : db_(dir_.file("year.db").string()) {
     dir_.write("r.csv", weekly_readings);
-    dir_.write("cal.csv", calibration_file());
+    dir_.write("cal.csv", plumb::test::calibration_run_file());
   }
   plumb::test::RunResult run(std::vector<std::string> args) const {
     args.insert(args.begin(), {"--db", db_});
@@ -196,6 +185,7 @@ TEST_CASE("a year in the lab: every lifecycle step, and one standing in every ou
   }
   // The registry list is as of today (after 2026-12-01): still overdue and retired.
   const json list = lab.json_of({"balance", "list"});
+  REQUIRE(list.size() == 2);
   for (const auto& b : list) CHECK(b["status"] == summary_status[b["id"].get<std::string>()]);
 
   lab.ok({"report", "--html", "year.html", "--on", on});

@@ -1,5 +1,7 @@
 #include "support/run_plumb.hpp"
 
+#include <tuple>
+
 #include <fstream>
 #include <random>
 #include <sstream>
@@ -43,7 +45,8 @@ void ScratchDir::write(const std::string& name, const std::string& text) const {
 RunResult run_plumb(const std::vector<std::string>& args, const std::filesystem::path& cwd, const std::string& input) {
   const auto in = cwd / ".stdin", out = cwd / ".stdout", err = cwd / ".stderr";
   std::ofstream(in, std::ios::binary) << input;
-  std::string cmd = "cd " + quote(cwd.string()) + " && env -u PLUMB_DB -u PLUMB_LAYOUT " + quote(plumb_binary().string());
+  std::string cmd =
+      "cd " + quote(cwd.string()) + " && env -u PLUMB_DB -u PLUMB_LAYOUT " + quote(plumb_binary().string());
   for (const auto& a : args) cmd += " " + quote(a);
   cmd += " <" + quote(in.string()) + " >" + quote(out.string()) + " 2>" + quote(err.string());
   const int raw = std::system(cmd.c_str());
@@ -67,9 +70,9 @@ std::filesystem::path example_lab(const ScratchDir& dir) {
   const auto db = dir.file("lab.db");
   const std::vector<std::vector<std::string>> steps = {
       {"--db", db.string(), "init", "--lab", "Example Analytical Lab"},
-      {"--db", db.string(), "weight", "add", "W100", "--nominal", "100g", "--class", "E2", "--correction", "0.03mg",
-       "--uncertainty", "0.05mg", "--k", "2", "--certificate", "RC-2291", "--calibrated", "2026-03-02", "--due",
-       "2027-03-02"},
+      {"--db",    db.string(),    "weight",     "add",           "W100",      "--nominal", "100g", "--class",
+       "E2",      "--correction", "0.03mg",     "--uncertainty", "0.05mg",    "--k",       "2",    "--certificate",
+       "RC-2291", "--calibrated", "2026-03-02", "--due",         "2027-03-02"},
       {"--db", db.string(), "balance", "add", "BAL-A", "--capacity", "220g", "--readability", "0.1mg", "--every", "7d",
        "--smallest-net", "200mg", "--location", "Room 2", "--since", "2026-01-05"}};
   for (const auto& s : steps) {
@@ -77,6 +80,63 @@ std::filesystem::path example_lab(const ScratchDir& dir) {
     if (r.status != 0) throw std::runtime_error("example lab setup failed: " + r.err);
   }
   return db;
+}
+
+std::filesystem::path calibration_lab(const ScratchDir& dir, const std::string& rule) {
+  const auto db = dir.file("cal.db").string();
+  std::vector<std::vector<std::string>> steps = {
+      {"--db", db, "init", "--lab", "Example Calibration Lab"},
+      {"--db", db, "balance", "add", "BAL-C", "--capacity", "220g", "--readability", "0.1mg", "--every", "7d",
+       "--smallest-net", "200mg", "--since", "2026-01-05"},
+      {"--db", db, "balance", "set-calibration", "BAL-C", "--class", "I", "--e", "1mg", "--tolerance", "r76",
+       "--decision-rule", rule, "--calibrate-every", "1y", "--since", "2026-01-05"}};
+  // E2 MPE, OIML R 111-1:2004 Table 1: 20 g 0.08 mg, 50 g 0.10 mg, 100 g 0.16 mg, 200 g 0.3 mg.
+  for (const auto& [id, nominal, u] : std::vector<std::tuple<std::string, std::string, std::string>>{
+           {"W20", "20g", "0.025mg"}, {"W50", "50g", "0.03mg"}, {"W100", "100g", "0.05mg"}, {"W200", "200g", "0.10mg"}})
+    steps.push_back({"--db",
+                     db,
+                     "weight",
+                     "add",
+                     id,
+                     "--nominal",
+                     nominal,
+                     "--class",
+                     "E2",
+                     "--correction",
+                     "0mg",
+                     "--uncertainty",
+                     u,
+                     "--k",
+                     "2",
+                     "--certificate",
+                     "RC-" + id,
+                     "--calibrated",
+                     "2026-03-02",
+                     "--due",
+                     "2027-03-02"});
+  for (const auto& s : steps) {
+    const auto r = run_plumb(s, dir.path());
+    if (r.status != 0) throw std::runtime_error("calibration lab setup failed: " + r.err);
+  }
+  return db;
+}
+
+std::string calibration_run_file(const std::string& w200_reading) {
+  std::string csv = "stage,part,load,position,direction,reading,unit\n";
+  for (int i = 0; i < 10; ++i)
+    csv += std::string("as-found,repeatability,W100,,,") + (i % 2 ? "100.0004" : "100.0003") + ",g\n";
+  return csv +
+         "as-found,eccentricity,W100,centre,,100.0003,g\n"
+         "as-found,eccentricity,W100,front-left,,100.0005,g\n"
+         "as-found,eccentricity,W100,front-right,,100.0002,g\n"
+         "as-found,eccentricity,W100,back-left,,100.0003,g\n"
+         "as-found,eccentricity,W100,back-right,,100.0004,g\n"
+         "as-found,indication,W20,,up,20.0001,g\n"
+         "as-found,indication,W50,,up,50.0002,g\n"
+         "as-found,indication,W100,,up,100.0004,g\n"
+         "as-found,indication,W100+W50,,up,150.0006,g\n"
+         "as-found,indication,W200,,up," +
+         w200_reading + ",g\n";
 }
 
 }  // namespace plumb::test

@@ -14,7 +14,7 @@ struct RunResult {
 
 /// A fresh temporary folder, removed when the object goes.
 class ScratchDir {
-public:
+ public:
   ScratchDir();
   ~ScratchDir();
   ScratchDir(const ScratchDir&) = delete;
@@ -23,7 +23,7 @@ public:
   [[nodiscard]] std::filesystem::path file(const std::string& name) const { return path_ / name; }
   void write(const std::string& name, const std::string& text) const;
 
-private:
+ private:
   std::filesystem::path path_;
 };
 
@@ -36,5 +36,14 @@ std::string dump_database(const std::filesystem::path& db);
 
 /// Sets up the lab of the weekly-check example: lab, W100 and BAL-A. Returns the database path.
 std::filesystem::path example_lab(const ScratchDir& dir);
+
+/// The lab of the calibration example (tests/cli/calibration_test.cpp): BAL-C (220 g, d = 0.1 mg, OIML R 76 class I,
+/// e = 1 mg, decision rule `rule`) and the E2 weights W20, W50, W100, W200 with zero correction, each U within a third
+/// of its OIML R 111-1:2004 MPE. Returns the database path (cal.db).
+std::filesystem::path calibration_lab(const ScratchDir& dir, const std::string& rule = "simple");
+/// The calibration run file of that example: repeatability at W100 (five 100.0003, five 100.0004), eccentricity at
+/// W100 (centre 100.0003, largest deviation +0.0002 g at front-left), and one reading up per load giving
+/// E = +0.1, +0.2, +0.4, +0.6 mg and, at W200, `w200_reading` - 200 g (+0.8 mg by default).
+std::string calibration_run_file(const std::string& w200_reading = "200.0008");
 
 }  // namespace plumb::test

@@ -122,8 +122,8 @@ std::string describe_change(const store::InstrumentAttributes& before, const sto
 
 AttributeChange change_attributes(store::Database& db, const store::Actor& actor, const AttributeChangeInput& in) {
   if (in.reason.empty()) throw InputError("--reason must say why the attributes change.");
-  const Date on = in.from ? parse_date(*in.from, "--from") : today_utc();
-  if (on > today_utc())
+  const Date on = in.from ? parse_date(*in.from, "--from") : today_local();
+  if (on > today_local())
     throw InputError(fmt::format("--from {} is in the future; record a change when it has happened.", *in.from));
 
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
