@@ -65,7 +65,8 @@ TEST_CASE("a correction supersedes the run and its certificate and keeps both vi
 
   // The superseded certificate says so in text and JSON; the new one names the one it replaces.
   r = run_plumb({"--db", db, "certificate", "show", old_number}, dir.path());
-  CHECK_THAT(r.out, Catch::Contains("STATUS: SUPERSEDED by certificate " + new_number) &&
+  CHECK_THAT(r.out, Catch::Contains("Status: SUPERSEDED by " + new_number) &&
+                        Catch::Contains("*** SUPERSEDED ***") &&
                         Catch::Contains("no longer valid") && Catch::Contains("VERDICT: FAIL"));
   r = run_plumb({"--db", db, "certificate", "show", old_number, "--format", "json"}, dir.path());
   json status = json::parse(r.out)["status"];
@@ -142,7 +143,7 @@ TEST_CASE("a certificate is a draft until someone other than its operator approv
   REQUIRE(run_plumb({"--db", db, "certificate", "issue", "LAST", "--by", "A. Technician"}, dir.path()).status == 0);
   const std::string number = number_of_certificate(db, dir, "1");
   auto r = run_plumb({"--db", db, "certificate", "show", number}, dir.path());
-  CHECK_THAT(r.out, Catch::Contains("STATUS: DRAFT") && Catch::Contains("Not approved yet"));
+  CHECK_THAT(r.out, Catch::Contains("Status: DRAFT, not approved") && Catch::Contains("*** DRAFT ***"));
 
   // The operator cannot approve their own check (names compared ignoring case and spacing).
   const std::string before = plumb::test::dump_database(db);
@@ -165,8 +166,9 @@ TEST_CASE("a certificate is a draft until someone other than its operator approv
   CHECK(approved["approval"]["meaning"] == "reviewed and approved");
   CHECK(approved["approval"]["at"].get<std::string>().size() == 20);  // 2026-12-02T01:02:03Z
   r = run_plumb({"--db", db, "certificate", "show", number}, dir.path());
-  CHECK_THAT(r.out, Catch::Contains("STATUS: APPROVED by Q. Manager") && Catch::Contains("Approved by Q. Manager") &&
-                        Catch::Contains("\"reviewed and approved\""));
+  CHECK_THAT(r.out, Catch::Contains("Status: APPROVED by Q. Manager") &&
+                        Catch::Contains("Q. Manager (reviewer)") &&
+                        Catch::Contains("\u201creviewed and approved\u201d") && !Catch::Contains("*** DRAFT"));
 
   // Approved means final: a second approval is refused and nothing is written.
   const std::string approved_dump = plumb::test::dump_database(db);

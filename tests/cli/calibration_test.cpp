@@ -159,7 +159,7 @@ TEST_CASE("calibration: record, show with budget and fit, error at a load, certi
   REQUIRE(r.status == 0);
   for (const char* must : {"BALANCE CALIBRATION CERTIFICATE", "CC-", "RC-W20", "RC-W200", "U = k u_c",
                            "ILAC G8", "simple acceptance", "As found", "No adjustment was made", "1.1993 kg/m3",
-                           "RESULT: PASS", "2027-11-30", "does not replace, accredited calibration"}) {
+                           "VERDICT: PASS", "2027-11-30", "does not replace, accredited calibration"}) {
     INFO(must);
     CHECK_THAT(r.out, Catch::Contains(must, Catch::CaseSensitive::No));
   }

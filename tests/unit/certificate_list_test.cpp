@@ -97,7 +97,7 @@ TEST_CASE("a withdrawn certificate is listed as withdrawn, leaves the queue and 
   const auto status = app::certificate_status(db, first);
   CHECK(status["state"] == "withdrawn");
   CHECK(status["withdrawn"]["reason"] == "run 1 entered against the wrong balance");
-  CHECK_THAT(report::certificate_status_banner(status), Catch::StartsWith("STATUS: WITHDRAWN"));
+  CHECK_THAT(report::certificate_status_line(status), Catch::StartsWith("WITHDRAWN on "));
   CHECK_THAT(report::certificate_status_summary(status), Catch::StartsWith("WITHDRAWN on "));
 
   // Filters in words and refusals naming the option.

@@ -33,7 +33,9 @@ std::string normalized(const std::string& name) {
 
 }  // namespace
 
-bool same_person(const std::string& a, const std::string& b) { return normalized(a) == normalized(b); }
+bool same_person(const std::string& a, const std::string& b) {
+  return normalized(a) == normalized(b);
+}
 
 json certificate_status(store::Database& db, const store::CertificateRecord& c) {
   json status = {{"state", "draft"},
@@ -53,7 +55,12 @@ json certificate_status(store::Database& db, const store::CertificateRecord& c) 
     }
   }
   if (c.supersedes)
-    if (auto old = store::find_certificate_by_id(db.sql(), *c.supersedes)) status["replaces"] = old->number;
+    if (auto old = store::find_certificate_by_id(db.sql(), *c.supersedes)) {
+      status["replaces"] = old->number;
+      // Why it replaces the old one: the reason of the correction that superseded it (ISO/IEC 17025 7.8.8).
+      if (auto gone = store::certificate_event(db.sql(), old->id, "superseded"))
+        status["replaces_reason"] = gone->reason;
+    }
   if (auto w = store::certificate_withdrawal(db.sql(), c.id))
     status["withdrawn"] = {{"at", w->recorded_at}, {"recorded_by", w->by_name}, {"reason", w->reason}};
   status["state"] = std::string(state_key(certificate_state(
@@ -77,13 +84,15 @@ store::CertificateRecord approve_certificate(store::Database& db, const store::A
   store::CertificateRecord cert = resolve_certificate(db, selector);
   const store::RunRecord run = *store::find_run(db.sql(), cert.run_id);
   if (same_person(actor.name, run.operator_name))
-    throw InputError(fmt::format("--by \"{}\" performed check run {} of certificate {}; a certificate must be "
-                                 "approved by someone other than its operator.",
-                                 actor.name, run.id, cert.number));
+    throw InputError(
+        fmt::format("--by \"{}\" performed check run {} of certificate {}; a certificate must be "
+                    "approved by someone other than its operator.",
+                    actor.name, run.id, cert.number));
   if (auto done = store::certificate_event(db.sql(), cert.id, "approved"))
-    throw InputError(fmt::format("certificate {} was already approved by {} on {}; an approved certificate cannot "
-                                 "change.",
-                                 cert.number, done->by_name, done->recorded_at));
+    throw InputError(
+        fmt::format("certificate {} was already approved by {} on {}; an approved certificate cannot "
+                    "change.",
+                    cert.number, done->by_name, done->recorded_at));
   if (auto withdrawn = store::certificate_withdrawal(db.sql(), cert.id))
     throw InputError(
         fmt::format("certificate {} was withdrawn on {} ({}); a withdrawn certificate cannot be "
