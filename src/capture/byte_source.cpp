@@ -98,11 +98,16 @@ sp_flowcontrol flow_of(const std::string& h) {
 
 }  // namespace
 
-std::unique_ptr<ByteSource> open_path_source(const std::string& path) {
+std::unique_ptr<ByteSource> open_path_source(const std::string& path, std::string_view field) {
   struct stat st {};
-  const bool regular = ::stat(path.c_str(), &st) == 0 && S_ISREG(st.st_mode);
-  const int fd = ::open(path.c_str(), (regular ? O_RDONLY : O_RDWR) | O_NOCTTY | O_NONBLOCK | O_CLOEXEC);
-  if (fd < 0) throw InputError(fmt::format("--from \"{}\" cannot be opened: {}.", path, std::strerror(errno)));
+  const bool known = ::stat(path.c_str(), &st) == 0;
+  // A file or FIFO is only read; a FIFO's open waits for its writer, so its end of file is the writer gone. A
+  // terminal device is also written to (the command that asks for a reading).
+  const bool read_only = known && (S_ISREG(st.st_mode) || S_ISFIFO(st.st_mode));
+  const int fd = ::open(path.c_str(), (read_only ? O_RDONLY : O_RDWR) | O_NOCTTY | O_CLOEXEC |
+                                          (known && S_ISFIFO(st.st_mode) ? 0 : O_NONBLOCK));
+  if (fd < 0) throw InputError(fmt::format("{} \"{}\" cannot be opened: {}.", field, path, std::strerror(errno)));
+  ::fcntl(fd, F_SETFL, ::fcntl(fd, F_GETFL) | O_NONBLOCK);
   set_raw_if_terminal(fd);
   return std::make_unique<PathSource>(path, fd);
 }
@@ -114,7 +119,12 @@ std::unique_ptr<ByteSource> open_port_source(const store::BalancePort& port, std
         "{} is not a serial port libserialport knows; it is read as it is (the baud, parity, data "
         "bits, stop bits and handshake settings do not apply).",
         port.device);
-    return open_path_source(port.device);
+    auto source = open_path_source(port.device, "balance port");
+    note = fmt::format(
+        "{} is not a serial port libserialport knows; it is read as it is (the baud, parity, data "
+        "bits, stop bits and handshake settings do not apply).",
+        port.device);
+    return source;
   }
   const auto fail = [&](const char* what) {
     const std::string why = sp_last_error_message();

@@ -28,8 +28,8 @@ class ByteSource {
 };
 
 /// A file, FIFO or terminal device read as it is (a terminal is set to raw mode: no echo, no line editing).
-/// Throws InputError when it cannot be opened.
-std::unique_ptr<ByteSource> open_path_source(const std::string& path);
+/// Throws InputError naming `field` when it cannot be opened.
+std::unique_ptr<ByteSource> open_path_source(const std::string& path, std::string_view field = "--from");
 
 /// The balance's port: a serial port through libserialport with the stored baud, parity, data bits, stop bits
 /// and handshake. A device that libserialport does not know as a serial port (a pseudo-terminal) is read as it

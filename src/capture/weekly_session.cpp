@@ -139,19 +139,19 @@ SessionResult run_weekly_session(app::WeeklyCapture& capture, ByteSource* port, 
   const auto short_by = [&] { return fmt::format("{} of {} readings", capture.counted(), capture.wanted()); };
   while (!capture.complete()) {
     if (InterruptGuard::interrupted())
-      return ended(SessionEnd::interrupted, fmt::format("Interrupted after {}; nothing was written.", short_by()));
+      return ended(SessionEnd::interrupted, fmt::format("interrupted after {}; nothing was written.", short_by()));
     std::array<pollfd, 2> fds{};
     nfds_t n = 0;
     if (keyboard_open) fds[n++] = {keyboard_fd, POLLIN, 0};
     const nfds_t port_index = n;
     if (port) fds[n++] = {port->fd(), POLLIN, 0};
     if (n == 0)
-      return ended(SessionEnd::input_ended, fmt::format("Input ended after {}; nothing was written.", short_by()));
+      return ended(SessionEnd::input_ended, fmt::format("input ended after {}; nothing was written.", short_by()));
     // Wakes at least every 100 ms to notice Ctrl-C even when a signal arrives between the check and the wait.
     const int ready = ::poll(fds.data(), n, 100);
     if (ready < 0 && errno != EINTR)
       return ended(SessionEnd::line_closed,
-                   fmt::format("Waiting for input failed after {}; nothing was written.", short_by()));
+                   fmt::format("waiting for input failed after {}; nothing was written.", short_by()));
     if (ready <= 0) continue;
     if (keyboard_open && (fds[0].revents & (POLLIN | POLLHUP | POLLERR)) != 0) {
       std::array<char, 256> buf{};
@@ -162,11 +162,11 @@ SessionResult run_weekly_session(app::WeeklyCapture& capture, ByteSource* port, 
         keyboard_open = false;
         if (!port)
           return ended(SessionEnd::input_ended,
-                       fmt::format("The typed input ended after {}; nothing was written.", short_by()));
+                       fmt::format("the typed input ended after {}; nothing was written.", short_by()));
       }
       while (auto typed = keyboard.next()) {
         if (is_stop(*typed))
-          return ended(SessionEnd::stopped, fmt::format("Stopped after {}; nothing was written.", short_by()));
+          return ended(SessionEnd::stopped, fmt::format("stopped after {}; nothing was written.", short_by()));
         if (port) {
           talk.typed_beside_port(*typed);
           continue;
@@ -187,7 +187,7 @@ SessionResult run_weekly_session(app::WeeklyCapture& capture, ByteSource* port, 
       }
       if (!capture.complete() && (!open || (bytes.empty() && (fds[port_index].revents & POLLHUP) != 0)))
         return ended(SessionEnd::line_closed,
-                     fmt::format("The line from {} closed after {} (a cable pulled, the balance off, or the end of "
+                     fmt::format("the line from {} closed after {} (a cable pulled, the balance off, or the end of "
                                  "the file); nothing was written.",
                                  port->name(), short_by()));
     }

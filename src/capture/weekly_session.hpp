@@ -15,7 +15,7 @@ enum class SessionEnd { complete, stopped, interrupted, line_closed, input_ended
 
 struct SessionResult {
   SessionEnd end = SessionEnd::complete;
-  /// Why it ended short, one sentence ending in "nothing was written."
+  /// Why it ended short, one sentence ending in "nothing was written." (after "plumb: ").
   std::string why;
 };
 

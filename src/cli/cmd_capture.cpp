@@ -45,7 +45,7 @@ int capture_weekly_check(const po::variables_map& vm, Env& env) {
   const auto result = capture::run_weekly_session(capture, port.get(), STDIN_FILENO, env.out);
   if (result.end != capture::SessionEnd::complete) {
     env.out.flush();
-    env.err << result.why << "\n";
+    env.err << "plumb: " << result.why << "\n";
     return result.end == capture::SessionEnd::interrupted ? 130 : 2;
   }
   const auto run = capture.record(Env::actor(vm));

@@ -66,6 +66,20 @@ class BalanceSimulator {
       std::this_thread::sleep_for(std::chrono::milliseconds(1));
     }
   }
+  /// What plumb sent to the balance, once `bytes` of it have come (at most 10 s).
+  [[nodiscard]] std::string received(std::size_t bytes) const {
+    std::string got;
+    for (int waited_ms = 0; got.size() < bytes; ++waited_ms) {
+      REQUIRE(waited_ms < 10000);
+      pollfd p{master_, POLLIN, 0};
+      if (::poll(&p, 1, 1) == 1) {
+        char buf[64];
+        const ssize_t n = ::read(master_, buf, sizeof buf);
+        if (n > 0) got.append(buf, static_cast<std::size_t>(n));
+      }
+    }
+    return got;
+  }
   /// The cable pulled: the balance's end goes away.
   void close_line() {
     if (master_ >= 0) ::close(master_);
@@ -248,6 +262,36 @@ TEST_CASE("a captured check gives the same result and record as check record of 
   CHECK(a == b);
 }
 
+TEST_CASE("capture from the balance's port settings: the lab's line pattern and the send command", "[capture]") {
+  plumb::test::ScratchDir dir;
+  const auto db = plumb::test::example_lab(dir).string();
+  BalanceSimulator balance;
+  REQUIRE(run_plumb({"--db", db, "balance", "port", "BAL-A", "--device", balance.device(), "--send-command", "READ",
+                     "--line-pattern", "NET: {value} {unit} {mark:OK|MOVING}", "--by", "Q. Manager"},
+                    dir.path())
+              .status == 0);
+  // Enter pressed once for each reading: each asks the balance with READ and CR LF.
+  plumb::test::PlumbProcess plumb(capture_args(db, "port"), dir.path(), std::string(10, '\n'));
+  CHECK(balance.received(60) == [] {
+    std::string ten;
+    for (int i = 0; i < 10; ++i) ten += "READ\r\n";
+    return ten;
+  }());
+  balance.send("NET:  100.0009 g MOVING\r\n");  // unstable in this balance's own words
+  balance.send("ST,+100.0002 g\r\n");           // a common shape, but not this balance's: not a reading
+  for (const auto& s : stable_readings) balance.send("NET:  " + s + " g OK\r\n");
+  const auto r = plumb.wait();
+  INFO(r.out << r.err);
+  REQUIRE(r.status == 0);
+  CHECK_THAT(r.out, Catch::Contains("is not a serial port libserialport knows; it is read as it is"));
+  CHECK_THAT(r.out, Catch::Contains("press Enter to ask the balance for the reading."));
+  CHECK_THAT(r.out, Catch::Contains("line 1: reading \"100.0009\" g is marked unstable"));
+  CHECK_THAT(r.out, Catch::Contains("line 2: \"ST,+100.0002 g\" is not a reading in the balance's line pattern"));
+  const json j = json::parse(run_plumb({"--db", db, "check", "show", "LAST", "--format", "json"}, dir.path()).out);
+  check_hand_worked_results(j);
+  CHECK(j["raw_lines"].size() == 12);
+}
+
 TEST_CASE("a capture cut off by a pulled cable writes nothing", "[capture]") {
   plumb::test::ScratchDir dir;
   const auto db = plumb::test::example_lab(dir);
@@ -274,7 +318,7 @@ TEST_CASE("a capture interrupted with Ctrl-C writes nothing", "[capture]") {
   plumb.signal(SIGINT);
   const auto r = plumb.wait();
   CHECK(r.status == 130);
-  CHECK(r.err == "Interrupted after 3 of 10 readings; nothing was written.\n");
+  CHECK(r.err == "plumb: interrupted after 3 of 10 readings; nothing was written.\n");
   CHECK(plumb::test::dump_database(db) == before);
   CHECK(files_in(dir.path()) == files_before);  // no file left behind (no journal, no output)
 }
@@ -338,10 +382,10 @@ TEST_CASE("Ctrl-C or stop typed at the terminal ends the capture and writes noth
     const auto r = plumb.wait();
     if (keys == "stop\n") {
       CHECK(r.status == 2);
-      CHECK(r.err == "Stopped after 1 of 10 readings; nothing was written.\n");
+      CHECK(r.err == "plumb: stopped after 1 of 10 readings; nothing was written.\n");
     } else {
       CHECK(r.status == 130);
-      CHECK(r.err == "Interrupted after 1 of 10 readings; nothing was written.\n");
+      CHECK(r.err == "plumb: interrupted after 1 of 10 readings; nothing was written.\n");
     }
     CHECK(plumb::test::dump_database(db) == before);
   }

@@ -28,7 +28,7 @@ std::string outcome_key(CaptureStep::Outcome o) {
   return "refused";
 }
 
-stats::ExactSummary summary_of(const std::vector<ExactMass>& masses) {
+stats::ExactSummary spread_summary(const std::vector<ExactMass>& masses) {
   return stats::summarize_exact(in_grams(masses));
 }
 
@@ -44,7 +44,7 @@ std::vector<ExactMass> masses_of(const std::vector<CsvReading>& readings) {
 std::optional<std::string> far_from_others(const ExactMass& reading, const std::vector<ExactMass>& others,
                                            const ExactMass& readability) {
   if (others.size() < 3) return std::nullopt;
-  const auto s = summary_of(others);
+  const auto s = spread_summary(others);
   const double spread = std::max(s.sd(), readability.in_grams().to_double());
   const double distance = std::abs(reading.in_grams().to_double() - s.mean());
   if (distance <= 4 * spread) return std::nullopt;
@@ -167,7 +167,7 @@ CaptureSummary WeeklyCapture::summary() const {
   CaptureSummary out;
   out.n = counted();
   if (readings_.empty()) return out;
-  const auto s = summary_of(masses_of(readings_));
+  const auto s = spread_summary(masses_of(readings_));
   const int decimals = setup_.balance.readability.in_grams().significant_scale() + 1;
   out.mean = fmt::format("{:.{}f} g", s.mean(), decimals);
   if (s.n >= 2) out.sd = fmt::format("{:.{}f} g", s.sd(), decimals);
