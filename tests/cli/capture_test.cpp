@@ -39,13 +39,14 @@ namespace {
 class BalanceSimulator {
  public:
   BalanceSimulator() {
-    char name[128] = {};
-    REQUIRE(::openpty(&master_, &slave_, name, nullptr, nullptr) == 0);
-    name_ = name;
+    REQUIRE(::openpty(&master_, &slave_, nullptr, nullptr, nullptr) == 0);
     termios t{};
     ::tcgetattr(slave_, &t);
     ::cfmakeraw(&t);  // bytes pass as the balance sent them: no echo, CR not turned into LF
     ::tcsetattr(slave_, TCSANOW, &t);
+    // plumb opens the slave through this process's descriptor: some containers mount a devpts instance of
+    // their own over /dev/pts, where the slave's name (ptsname) does not exist.
+    device_ = "/proc/" + std::to_string(::getpid()) + "/fd/" + std::to_string(slave_);
   }
   ~BalanceSimulator() {
     close_line();
@@ -53,18 +54,19 @@ class BalanceSimulator {
   }
   BalanceSimulator(const BalanceSimulator&) = delete;
   BalanceSimulator& operator=(const BalanceSimulator&) = delete;
-  [[nodiscard]] const std::string& device() const { return name_; }
+  [[nodiscard]] const std::string& device() const { return device_; }
 
-  /// Sends bytes and waits until plumb has read them, so the next piece arrives in a read of its own.
+  /// Sends bytes as the balance would. (When plumb has read them, the test learns from what plumb prints: the
+  /// kernel moves bytes from the master to the slave's queue asynchronously, so an empty queue does not mean read.)
   void send(const std::string& bytes) const {
     REQUIRE(::write(master_, bytes.data(), bytes.size()) == static_cast<ssize_t>(bytes.size()));
-    for (int waited_ms = 0;; ++waited_ms) {
-      int waiting = 0;
-      ::ioctl(slave_, FIONREAD, &waiting);
-      if (waiting == 0) return;
-      REQUIRE(waited_ms < 10000);
-      std::this_thread::sleep_for(std::chrono::milliseconds(1));
-    }
+  }
+  /// Sends half a line, and the rest once plumb has had time to read the first half on its own (it waits on the
+  /// port with poll and reads at once; 20 ms is ample).
+  void send_split(const std::string& first, const std::string& rest) const {
+    send(first);
+    std::this_thread::sleep_for(std::chrono::milliseconds(20));
+    send(rest);
   }
   /// What plumb sent to the balance, once `bytes` of it have come (at most 10 s).
   [[nodiscard]] std::string received(std::size_t bytes) const {
@@ -88,7 +90,7 @@ class BalanceSimulator {
 
  private:
   int master_ = -1, slave_ = -1;
-  std::string name_;
+  std::string device_;
 };
 
 std::vector<std::string> capture_args(const std::string& db, const std::string& from) {
@@ -181,15 +183,21 @@ TEST_CASE("capture from a balance's output counts exactly the stable readings an
   const auto db = plumb::test::example_lab(dir).string();
   BalanceSimulator balance;
   plumb::test::PlumbProcess plumb(capture_args(db, balance.device()), dir.path());
-  balance.send("?  100.0009 g\r\n");                    // settling: unstable, said and not counted
-  balance.send("+  100.0002 g\r\n");                    // reading 1
-  balance.send(std::string("\x00\xFF\x1B[2J\r\n", 7));  // garbage bytes
-  balance.send("+100000.4 mg\r\n");                     // the balance switched to mg: wrong unit
-  balance.send("+  100.00041 g\r\n");                   // more decimals than d = 0.1 mg
-  balance.send("+  230.0000 g\r\n");                    // above the capacity 220 g
-  balance.send("+  100.00");                            // reading 2, split across two reads
-  balance.send("04 g\r\n");
-  for (std::size_t i = 2; i < stable_readings.size(); ++i) balance.send("+  " + stable_readings[i] + " g\r\n");
+  // Each line once plumb has said what became of the one before.
+  const auto line = [&](const std::string& bytes, const std::string& said) {
+    balance.send(bytes);
+    plumb.wait_for_output(said);
+  };
+  line("?  100.0009 g\r\n", "line 1: reading");            // settling: unstable, not counted
+  line("+  100.0002 g\r\n", "reading 1 counted");          // reading 1
+  line(std::string("\x00\xFF\x1B[2J\r\n", 7), "line 3:");  // garbage bytes
+  line("+100000.4 mg\r\n", "line 4:");                     // the balance switched to mg: wrong unit
+  line("+  100.00041 g\r\n", "line 5:");                   // more decimals than d = 0.1 mg
+  line("+  230.0000 g\r\n", "line 6:");                    // above the capacity 220 g
+  balance.send_split("+  100.00", "04 g\r\n");             // reading 2, split across two reads
+  plumb.wait_for_output("reading 2 counted");
+  for (std::size_t i = 2; i < stable_readings.size(); ++i)
+    line("+  " + stable_readings[i] + " g\r\n", fmt::format("reading {} counted", i + 1));
   const auto r = plumb.wait();
   INFO(r.out << r.err);
   REQUIRE(r.status == 0);
@@ -241,9 +249,10 @@ TEST_CASE("a captured check gives the same result and record as check record of 
   BalanceSimulator balance;
   plumb::test::PlumbProcess plumb(capture_args(db_c, balance.device()), captured.path());
   std::string csv = "reading\n";
-  for (const auto& s : stable_readings) {
-    balance.send("ST,+" + s + " g\r\n");
-    csv += s + "\n";
+  for (std::size_t i = 0; i < stable_readings.size(); ++i) {
+    balance.send("ST,+" + stable_readings[i] + " g\r\n");
+    plumb.wait_for_output(fmt::format("reading {} counted", i + 1));
+    csv += stable_readings[i] + "\n";
   }
   REQUIRE(plumb.wait().status == 0);
   recorded.write("readings.csv", csv);
@@ -278,8 +287,13 @@ TEST_CASE("capture from the balance's port settings: the lab's line pattern and 
     return ten;
   }());
   balance.send("NET:  100.0009 g MOVING\r\n");  // unstable in this balance's own words
-  balance.send("ST,+100.0002 g\r\n");           // a common shape, but not this balance's: not a reading
-  for (const auto& s : stable_readings) balance.send("NET:  " + s + " g OK\r\n");
+  plumb.wait_for_output("line 1:");
+  balance.send("ST,+100.0002 g\r\n");  // a common shape, but not this balance's: not a reading
+  plumb.wait_for_output("line 2:");
+  for (std::size_t i = 0; i < stable_readings.size(); ++i) {
+    balance.send("NET:  " + stable_readings[i] + " g OK\r\n");
+    plumb.wait_for_output(fmt::format("reading {} counted", i + 1));
+  }
   const auto r = plumb.wait();
   INFO(r.out << r.err);
   REQUIRE(r.status == 0);
@@ -298,7 +312,10 @@ TEST_CASE("a capture cut off by a pulled cable writes nothing", "[capture]") {
   const auto before = plumb::test::dump_database(db);
   BalanceSimulator balance;
   plumb::test::PlumbProcess plumb(capture_args(db.string(), balance.device()), dir.path());
-  for (int i = 0; i < 4; ++i) balance.send("+  " + stable_readings[static_cast<std::size_t>(i)] + " g\r\n");
+  for (std::size_t i = 0; i < 4; ++i) {
+    balance.send("+  " + stable_readings[i] + " g\r\n");
+    plumb.wait_for_output(fmt::format("reading {} counted", i + 1));
+  }
   balance.send("+  100.00");  // half a line, then the cable goes
   balance.close_line();
   const auto r = plumb.wait();
@@ -314,7 +331,10 @@ TEST_CASE("a capture interrupted with Ctrl-C writes nothing", "[capture]") {
   const auto files_before = files_in(dir.path());
   BalanceSimulator balance;
   plumb::test::PlumbProcess plumb(capture_args(db.string(), balance.device()), dir.path());
-  for (int i = 0; i < 3; ++i) balance.send("+  " + stable_readings[static_cast<std::size_t>(i)] + " g\r\n");
+  for (std::size_t i = 0; i < 3; ++i) {
+    balance.send("+  " + stable_readings[i] + " g\r\n");
+    plumb.wait_for_output(fmt::format("reading {} counted", i + 1));
+  }
   plumb.signal(SIGINT);
   const auto r = plumb.wait();
   CHECK(r.status == 130);

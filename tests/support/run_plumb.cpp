@@ -117,6 +117,16 @@ PlumbProcess::~PlumbProcess() {
 
 void PlumbProcess::signal(int signal) const { ::kill(pid_, signal); }
 
+std::string PlumbProcess::output_so_far() const { return slurp(cwd_ / ".stdout"); }
+
+void PlumbProcess::wait_for_output(const std::string& text, int seconds) const {
+  for (int waited_ms = 0; output_so_far().find(text) == std::string::npos; waited_ms += 2) {
+    if (waited_ms > seconds * 1000)
+      throw std::runtime_error("plumb did not print \"" + text + "\"; it printed:\n" + output_so_far());
+    ::usleep(2000);
+  }
+}
+
 RunResult PlumbProcess::wait(int seconds) {
   RunResult r;
   int raw = 0;

@@ -46,6 +46,10 @@ class PlumbProcess {
   PlumbProcess(const PlumbProcess&) = delete;
   PlumbProcess& operator=(const PlumbProcess&) = delete;
   [[nodiscard]] int pid() const { return pid_; }
+  /// What plumb has printed to its .stdout file so far.
+  [[nodiscard]] std::string output_so_far() const;
+  /// Waits until plumb's .stdout holds `text` (at most `seconds`; then throws, with what it printed).
+  void wait_for_output(const std::string& text, int seconds = 10) const;
   /// Sends `signal` to plumb.
   void signal(int signal) const;
   /// Waits for plumb to end (at most `seconds`, then kills it and fails); the status and what it printed to files.
