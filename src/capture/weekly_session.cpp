@@ -85,9 +85,9 @@ class Conversation {
       return;
     }
     const auto s = capture_.summary();
-    const auto& last = capture_.lines().back();
-    fmt::print(out_, "  reading {} counted: {}   n = {}, mean = {}{}\n", s.n, last.line, s.n, s.mean,
-               s.sd.empty() ? "" : ", s = " + s.sd);
+    const auto& last = capture_.last_counted();
+    fmt::print(out_, "  reading {} counted: {} {}   n = {}, mean = {}{}\n", s.n, last.text, to_string(last.unit), s.n,
+               s.mean, s.sd.empty() ? "" : ", s = " + s.sd);
     if (step.far_warning)
       fmt::print(out_, "  warning: reading {} is far from the others: {}.\n", s.n, *step.far_warning);
     if (!capture_.complete()) {

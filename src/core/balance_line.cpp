@@ -107,8 +107,8 @@ LinePattern LinePattern::parse(std::string_view pattern, std::string_view field)
 }
 
 std::optional<BalanceLineReading> LinePattern::match(std::string_view line) const {
+  if (line.size() >= longest_balance_line) return std::nullopt;  // as received: padding counts
   line = trimmed(line);
-  if (line.size() >= longest_balance_line) return std::nullopt;
   std::match_results<std::string_view::const_iterator> m;
   if (!std::regex_match(line.begin(), line.end(), m, regex_)) return std::nullopt;
   const auto group = [&](int g) { return std::string_view(&*m[g].first, static_cast<std::size_t>(m[g].length())); };

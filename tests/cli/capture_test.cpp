@@ -208,7 +208,7 @@ TEST_CASE("capture from a balance's output counts exactly the stable readings an
   CHECK_THAT(r.out, Catch::Contains("line 5: reading \"100.00041\" g shows more decimals than the readability "
                                     "0.1 mg of BAL-A allows."));
   CHECK_THAT(r.out, Catch::Contains("line 6: reading \"230.0000\" g is above the capacity 220 g of BAL-A."));
-  CHECK_THAT(r.out, Catch::Contains("reading 10 counted: 100.0003   n = 10"));
+  CHECK_THAT(r.out, Catch::Contains("reading 10 counted: 100.0003 g   n = 10"));
   CHECK_THAT(r.out, Catch::Contains("PASS"));
 
   const auto show = run_plumb({"--db", db, "check", "show", "LAST", "--format", "json"}, dir.path());
@@ -353,14 +353,14 @@ TEST_CASE("typed readings at a real terminal: prompts, refusals, running summary
   terminal.wait_for(
       "Reading 1 of 10: place W100 on the centre of the pan; when the display is stable, type the reading:");
   terminal.type("100.0002\n");
-  terminal.wait_for("reading 1 counted: 100.0002   n = 1, mean = 100.00020 g");
+  terminal.wait_for("reading 1 counted: 100.0002 g   n = 1, mean = 100.00020 g");
   terminal.wait_for("Step: remove W100 from the pan and check that the balance returns to zero.");
   terminal.type("100.00041\n");  // a digit more than the balance shows: refused with check record's sentence
   terminal.wait_for(
       "typed line 2: reading \"100.00041\" g shows more decimals than the readability 0.1 mg of BAL-A "
       "allows.");
   terminal.type("one hundred\n");
-  terminal.wait_for("typed line 3: reading value \"one hundred\" is not a number");
+  terminal.wait_for("typed line 3: reading \"one hundred\" is not a number; type the reading as the balance displays it");
   terminal.type("100004 mg\n");  // a unit the balance is not set to show
   terminal.wait_for("is not in g, the unit BAL-A is set to show");
   terminal.type("100.0004 g\n");  // with its unit: counted
@@ -449,7 +449,7 @@ TEST_CASE("typed readings through tmux: the prompts as a technician sees them", 
   wait_for("PASS");
   const std::string screen = pane();
   tmux("kill-server");
-  CHECK_THAT(screen, Catch::Contains("reading 10 counted: 100.0003   n = 10, mean = 100.00033 g, s = 0.00009 g"));
+  CHECK_THAT(screen, Catch::Contains("reading 10 counted: 100.0003 g   n = 10, mean = 100.00033 g, s = 0.00009 g"));
   const json j = json::parse(run_plumb({"--db", db, "check", "show", "LAST", "--format", "json"}, dir.path()).out);
   check_hand_worked_results(j);
   CHECK(j["raw_lines"].size() == 11);

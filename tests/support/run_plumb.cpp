@@ -102,6 +102,9 @@ PlumbProcess::PlumbProcess(const std::vector<std::string>& args, const std::file
     ::dup2(in, 0);
     ::dup2(out, 1);
     ::dup2(err, 2);
+    // The test's other descriptors stay with the test: a simulator's end of a pseudo-terminal held open by
+    // plumb would keep plumb from ever seeing the line close.
+    for (int fd = 3; fd < 1024; ++fd) ::close(fd);
     if (::chdir(dir.c_str()) != 0) ::_exit(127);
     ::execve(binary.c_str(), argv.data(), envp.data());
     ::_exit(127);
@@ -115,9 +118,13 @@ PlumbProcess::~PlumbProcess() {
   }
 }
 
-void PlumbProcess::signal(int signal) const { ::kill(pid_, signal); }
+void PlumbProcess::signal(int signal) const {
+  ::kill(pid_, signal);
+}
 
-std::string PlumbProcess::output_so_far() const { return slurp(cwd_ / ".stdout"); }
+std::string PlumbProcess::output_so_far() const {
+  return slurp(cwd_ / ".stdout");
+}
 
 void PlumbProcess::wait_for_output(const std::string& text, int seconds) const {
   for (int waited_ms = 0; output_so_far().find(text) == std::string::npos; waited_ms += 2) {

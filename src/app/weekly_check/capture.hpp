@@ -59,6 +59,8 @@ class WeeklyCapture {
   [[nodiscard]] const std::optional<store::BalancePort>& port() const { return port_; }
   [[nodiscard]] MassUnit expected_unit() const { return unit_; }
   [[nodiscard]] const std::vector<store::RawLine>& lines() const { return lines_; }
+  /// The last reading counted, as displayed (after a counted step).
+  [[nodiscard]] const MassReading& last_counted() const { return readings_.back().reading; }
 
   /// Records the check and its lines in one transaction (InputError when not complete).
   store::RunRecord record(const store::Actor& actor);
