@@ -360,7 +360,8 @@ TEST_CASE("typed readings at a real terminal: prompts, refusals, running summary
       "typed line 2: reading \"100.00041\" g shows more decimals than the readability 0.1 mg of BAL-A "
       "allows.");
   terminal.type("one hundred\n");
-  terminal.wait_for("typed line 3: reading \"one hundred\" is not a number; type the reading as the balance displays it");
+  terminal.wait_for(
+      "typed line 3: reading \"one hundred\" is not a number; type the reading as the balance displays it");
   terminal.type("100004 mg\n");  // a unit the balance is not set to show
   terminal.wait_for("is not in g, the unit BAL-A is set to show");
   terminal.type("100.0004 g\n");  // with its unit: counted
