@@ -17,7 +17,9 @@
 #include "core/errors.hpp"
 #include "report/calibration/text.hpp"
 #include "report/runs/json.hpp"
+#include "report/runs/raw_lines.hpp"
 #include "report/runs/text.hpp"
+#include "store/raw_lines.hpp"
 #include "store/repository.hpp"
 
 namespace plumb::cli {
@@ -226,7 +228,16 @@ std::vector<Command> check_commands() {
                    env.out << (format == "json" ? e.dump(2) + "\n" : report::calibration_error_at_text(e));
                    return 0;
                  }
-                 print_run(run, format, env);
+                 // A captured run shows its original record: the lines as the balance sent them.
+                 const auto lines = store::raw_lines_of(db.sql(), id);
+                 if (format == "json") {
+                   auto j = report::run_json(run);
+                   if (!lines.empty()) j["raw_lines"] = report::raw_lines_json(lines);
+                   env.out << j.dump(2) << "\n";
+                 } else {
+                   print_run(run, format, env);
+                   env.out << report::raw_lines_text(lines);
+                 }
                  return 0;
                }};
   Command correct{

@@ -9,9 +9,11 @@ namespace plumb::cli {
 std::vector<Command> lab_commands();
 std::vector<Command> weight_commands();
 std::vector<Command> balance_commands();
+std::vector<Command> balance_port_commands();  // cmd_balance_port.cpp
 std::vector<Command> balance_calibration_commands();
 std::vector<Command> pipette_commands();
 std::vector<Command> check_commands();
+std::vector<Command> capture_commands();  // cmd_capture.cpp: check capture
 std::vector<Command> history_commands();
 std::vector<Command> certificate_commands();
 std::vector<Command> due_commands();

@@ -1,5 +1,11 @@
 #include "support/run_plumb.hpp"
 
+#include <fcntl.h>
+#include <signal.h>
+#include <sys/ioctl.h>
+#include <sys/wait.h>
+#include <unistd.h>
+
 #include <tuple>
 
 #include <fstream>
@@ -42,18 +48,110 @@ void ScratchDir::write(const std::string& name, const std::string& text) const {
   std::ofstream(path_ / name, std::ios::binary) << text;
 }
 
+std::string plumb_shell_command(const std::vector<std::string>& args) {
+  std::string cmd = "env -u PLUMB_DB -u PLUMB_LAYOUT " + quote(plumb_binary().string());
+  for (const auto& a : args) cmd += " " + quote(a);
+  return cmd;
+}
+
 RunResult run_plumb(const std::vector<std::string>& args, const std::filesystem::path& cwd, const std::string& input) {
   const auto in = cwd / ".stdin", out = cwd / ".stdout", err = cwd / ".stderr";
   std::ofstream(in, std::ios::binary) << input;
-  std::string cmd =
-      "cd " + quote(cwd.string()) + " && env -u PLUMB_DB -u PLUMB_LAYOUT " + quote(plumb_binary().string());
-  for (const auto& a : args) cmd += " " + quote(a);
+  std::string cmd = "cd " + quote(cwd.string()) + " && " + plumb_shell_command(args);
   cmd += " <" + quote(in.string()) + " >" + quote(out.string()) + " 2>" + quote(err.string());
   const int raw = std::system(cmd.c_str());
   RunResult r;
   r.status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
   r.out = slurp(out);
   r.err = slurp(err);
+  return r;
+}
+
+PlumbProcess::PlumbProcess(const std::vector<std::string>& args, const std::filesystem::path& cwd,
+                           const std::string& input, int stdin_fd, int stdout_fd, bool terminal)
+    : cwd_(cwd) {
+  std::ofstream(cwd / ".stdin", std::ios::binary) << input;
+  // Everything the child needs is built before fork: after it, only async-signal-safe calls until exec.
+  const std::string binary = plumb_binary().string();
+  std::vector<std::string> argv_text{binary};
+  argv_text.insert(argv_text.end(), args.begin(), args.end());
+  std::vector<char*> argv;
+  for (auto& a : argv_text) argv.push_back(a.data());
+  argv.push_back(nullptr);
+  std::vector<std::string> env_text;
+  for (char** e = environ; *e; ++e) {
+    const std::string_view entry(*e);
+    if (entry.rfind("PLUMB_DB=", 0) == 0 || entry.rfind("PLUMB_LAYOUT=", 0) == 0) continue;
+    env_text.emplace_back(entry);
+  }
+  std::vector<char*> envp;
+  for (auto& e : env_text) envp.push_back(e.data());
+  envp.push_back(nullptr);
+  const std::string in_path = (cwd / ".stdin").string(), out_path = (cwd / ".stdout").string(),
+                    err_path = (cwd / ".stderr").string(), dir = cwd.string();
+  pid_ = ::fork();
+  if (pid_ < 0) throw std::runtime_error("fork failed");
+  if (pid_ == 0) {
+    if (terminal) {
+      ::setsid();
+      ::ioctl(stdin_fd, TIOCSCTTY, 0);
+    }
+    const int in = stdin_fd >= 0 ? stdin_fd : ::open(in_path.c_str(), O_RDONLY);
+    const int out = stdout_fd >= 0 ? stdout_fd : ::open(out_path.c_str(), O_WRONLY | O_CREAT | O_TRUNC, 0600);
+    const int err = ::open(err_path.c_str(), O_WRONLY | O_CREAT | O_TRUNC, 0600);
+    ::dup2(in, 0);
+    ::dup2(out, 1);
+    ::dup2(err, 2);
+    // The test's other descriptors stay with the test: a simulator's end of a pseudo-terminal held open by
+    // plumb would keep plumb from ever seeing the line close.
+    for (int fd = 3; fd < 1024; ++fd) ::close(fd);
+    if (::chdir(dir.c_str()) != 0) ::_exit(127);
+    ::execve(binary.c_str(), argv.data(), envp.data());
+    ::_exit(127);
+  }
+}
+
+PlumbProcess::~PlumbProcess() {
+  if (!waited_ && pid_ > 0) {
+    ::kill(pid_, SIGKILL);
+    ::waitpid(pid_, nullptr, 0);
+  }
+}
+
+void PlumbProcess::signal(int signal) const {
+  ::kill(pid_, signal);
+}
+
+std::string PlumbProcess::output_so_far() const {
+  return slurp(cwd_ / ".stdout");
+}
+
+void PlumbProcess::wait_for_output(const std::string& text, int seconds) const {
+  for (int waited_ms = 0; output_so_far().find(text) == std::string::npos; waited_ms += 2) {
+    if (waited_ms > seconds * 1000)
+      throw std::runtime_error("plumb did not print \"" + text + "\"; it printed:\n" + output_so_far());
+    ::usleep(2000);
+  }
+}
+
+RunResult PlumbProcess::wait(int seconds) {
+  RunResult r;
+  int raw = 0;
+  for (int waited_ms = 0;; waited_ms += 5) {
+    const pid_t done = ::waitpid(pid_, &raw, WNOHANG);
+    if (done == pid_) break;
+    if (waited_ms > seconds * 1000) {
+      ::kill(pid_, SIGKILL);
+      ::waitpid(pid_, &raw, 0);
+      waited_ = true;
+      throw std::runtime_error("plumb did not end within the time allowed");
+    }
+    ::usleep(5000);
+  }
+  waited_ = true;
+  r.status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
+  r.out = slurp(cwd_ / ".stdout");
+  r.err = slurp(cwd_ / ".stderr");
   return r;
 }
 
