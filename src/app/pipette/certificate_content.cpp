@@ -36,7 +36,7 @@ void add_pipette_certificate_parts(store::Database& db, const store::RunRecord& 
                              {"limits_policy", d.limits.key()},
                              {"limits", limits_summary(d.limits)},
                              {"limits_source", d.limits.kind == pipette_limits::LimitsPolicy::Kind::iso8655_2
-                                                   ? "ISO 8655-2:2002 Table 1 (transcribed from memory)"
+                                                   ? "ISO 8655-2:2002 Table 1"
                                                    : "the laboratory's own limits"}};
   }
   json balance_used = json::object();
