@@ -115,6 +115,9 @@ int record_calibration(const po::variables_map& vm, Env& env, const std::string&
   in.temperature_c = optional_string(vm, "temperature");
   in.pressure_hpa = optional_string(vm, "pressure");
   in.humidity_pct = optional_string(vm, "humidity");
+  in.temperature_u = optional_string(vm, "temperature-u");
+  in.pressure_u = optional_string(vm, "pressure-u");
+  in.humidity_u = optional_string(vm, "humidity-u");
   in.air_formula = vm["air-formula"].as<std::string>();
   in.model = vm["model"].as<std::string>();
   auto db = env.open();
@@ -173,6 +176,10 @@ std::vector<Command> check_commands() {
             "humidity", po::value<std::string>(),
             "calibration and gravimetric: relative humidity with its unit, e.g. 45%")(
             "air-formula", po::value<std::string>()->default_value("cipm2007"), "calibration: cipm2007 | oiml-r111")(
+            "temperature-u", po::value<std::string>(),
+            "calibration: standard uncertainty of the air thermometer, e.g. 0.1C (propagated into the air density)")(
+            "pressure-u", po::value<std::string>(), "calibration: standard uncertainty of the barometer, e.g. 0.5hPa")(
+            "humidity-u", po::value<std::string>(), "calibration: standard uncertainty of the hygrometer, e.g. 2%")(
             "model", po::value<std::string>()->default_value("line"),
             "calibration: fitted model, line | through-origin | quadratic")(
             "balance", po::value<std::string>(), "gravimetric: the balance the water was weighed on")(
@@ -246,6 +253,9 @@ std::vector<Command> check_commands() {
             "pressure", po::value<std::string>(), "calibration and gravimetric: corrected air pressure, hPa")(
             "humidity", po::value<std::string>(), "calibration and gravimetric: corrected relative humidity, %")(
             "air-formula", po::value<std::string>(), "calibration: corrected air density formula")(
+            "temperature-u", po::value<std::string>(), "calibration: corrected thermometer standard uncertainty")(
+            "pressure-u", po::value<std::string>(), "calibration: corrected barometer standard uncertainty")(
+            "humidity-u", po::value<std::string>(), "calibration: corrected hygrometer standard uncertainty")(
             "model", po::value<std::string>(), "calibration: corrected fitted model")(
             "balance", po::value<std::string>(), "gravimetric: corrected balance the water was weighed on")(
             "water-temp", po::value<std::string>(), "gravimetric: corrected water temperature, degC")(
