@@ -145,12 +145,12 @@ CalibrationSetResult evaluate_set(const CalibrationInput& in, const CalibrationS
                            : "certificate U/k of each weight, summed";
     c.push_back(wc);
     auto bc = stats::Contribution::standard("air buoyancy", L.u_buoyancy.g(), -1.0);
-    bc.note = fmt::format("EURAMET cg-18 v4.0, against the conventional adjustment (rho_0 = 1.2 kg/m3, "
-                          "rho_c = 8000 kg/m3); {}; {}",
-                          air ? fmt::format("air density {:.4f} kg/m3, u {:.2g} kg/m3, measured", air->rho_a,
-                                            air->u_rho_a)
-                              : std::string("air density not measured: 1.2 kg/m3 +/- 10 %"),
-                          weight_sources(in.weights, L, true));
+    bc.note = fmt::format(
+        "EURAMET cg-18 v4.0, against the conventional adjustment (rho_0 = 1.2 kg/m3, "
+        "rho_c = 8000 kg/m3); {}; {}",
+        air ? fmt::format("air density {:.4f} kg/m3, u {:.2g} kg/m3, measured", air->rho_a, air->u_rho_a)
+            : std::string("air density not measured: 1.2 kg/m3 +/- 10 %"),
+        weight_sources(in.weights, L, true));
     c.push_back(bc);
     auto dc = stats::Contribution::rectangular("weight drift", L.u_drift.g() * std::sqrt(3.0), -1.0);
     dc.note = "EURAMET cg-18 v4.0, rectangular, u = D / sqrt 3; " + weight_sources(in.weights, L, false);

@@ -55,9 +55,9 @@ PipetteUncertainty pipette_uncertainty(const PipetteMeanInputs& in, const Pipett
   if (!in.balance_u || !in.balance_u_includes_rounding) {
     inputs.push_back(stats::Contribution::rounding("balance readability d", in.readability.mg(), z));
     if (!in.balance_u)
-      inputs.back().note = (in.no_balance_u_reason.empty() ? std::string("no balance calibration given")
-                                                           : in.no_balance_u_reason) +
-                           ": the readability alone stands for the balance (fallback)";
+      inputs.back().note =
+          (in.no_balance_u_reason.empty() ? std::string("no balance calibration given") : in.no_balance_u_reason) +
+          ": the readability alone stands for the balance (fallback)";
   }
   inputs.push_back(
       stats::Contribution::standard("water temperature (thermometer)", u_t, m * z_temperature_slope(in.environment)));

@@ -237,7 +237,8 @@ std::vector<Command> check_commands() {
                  return 0;
                }};
   Command correct{
-      "check", "correct",
+      "check",
+      "correct",
       "correct a run: a new run supersedes it (reason required); the original stays; a certificate is replaced",
       "plumb check correct 12 --readings fixed.csv --reason \"reading 4 mistyped (100.0040 for 100.0004)\" --by \"Q. "
       "Manager\"",
@@ -262,15 +263,17 @@ std::vector<Command> check_commands() {
             "evaporation", po::value<std::string>(), "gravimetric: corrected evaporation loss per weighing")(
             "water-temp-u", po::value<std::string>(), "gravimetric: corrected thermometer standard uncertainty")(
             "air-density-u", po::value<std::string>(), "gravimetric: corrected air density standard uncertainty")(
-            "layout", po::value<std::string>(), "layout of the replacement certificate (default: that of the one it "
-                                                "replaces)");
+            "layout", po::value<std::string>(),
+            "layout of the replacement certificate (default: that of the one it "
+            "replaces)");
         add_format_option(d);
         add_by_option(d, "the person making the correction");
         p.add("run", 1);
       },
       [](const po::variables_map& vm, Env& env) {
         const auto format = format_of(vm, {"text", "json"});
-        if (!vm.count("reason")) throw InputError("--reason must say why the run is corrected (it is kept with the correction).");
+        if (!vm.count("reason"))
+          throw InputError("--reason must say why the run is corrected (it is kept with the correction).");
         if (!vm.count("by")) throw InputError("--by must name the person making the correction.");
         app::CorrectionInput in;
         in.run = vm["run"].as<std::string>();

@@ -37,7 +37,8 @@ app::WeightPropertiesInput properties_input(const po::variables_map& vm) {
 }
 
 Command set_properties_command() {
-  return {"weight", "set-properties",
+  return {"weight",
+          "set-properties",
           "state a reference weight's density (with its uncertainty) or density class, and its drift allowance, for "
           "the buoyancy and drift terms of a calibration budget (earlier statements are kept)",
           "plumb weight set-properties W100 --density 7950kg/m3 --density-u 5kg/m3 --drift 0.02mg --by \"Q. "
@@ -190,8 +191,9 @@ std::vector<Command> weight_commands() {
                     "certificate", po::value<std::string>()->required(), "calibration certificate number")(
                     "calibrated", po::value<std::string>()->required(), "calibration date, YYYY-MM-DD")(
                     "due", po::value<std::string>()->required(), "recalibration due date, YYYY-MM-DD");
-                add_properties_options(d, "density with its unit, e.g. 7950kg/m3, with --density-u (default: the "
-                                          "limits of its class, OIML R 111-1:2004 Table 5)");
+                add_properties_options(d,
+                                       "density with its unit, e.g. 7950kg/m3, with --density-u (default: the "
+                                       "limits of its class, OIML R 111-1:2004 Table 5)");
                 add_override_reason_option(d);
                 add_by_option(d);
                 p.add("id", 1);

@@ -57,14 +57,19 @@ TEST_CASE("no output of the demo lab says \"from memory\", \"as remembered\" or 
   no_apology("demo HTML report", read_file(dir.file("plumb-demo.db.report.html")));
 
   const std::string pdf_text = dir.file("demo.txt").string();
-  REQUIRE(std::system(("pdftotext '" + dir.file("plumb-demo.db.certificate.pdf").string() + "' '" + pdf_text + "'")
-                          .c_str()) == 0);
+  REQUIRE(std::system(
+              ("pdftotext '" + dir.file("plumb-demo.db.certificate.pdf").string() + "' '" + pdf_text + "'").c_str()) ==
+          0);
   no_apology("demo certificate PDF", read_file(pdf_text));
 
-  for (const std::vector<std::string>& args :
-       {std::vector<std::string>{"due", "--all", "--on", "2026-12-01"}, {"summary", "--on", "2026-12-01"},
-        {"summary", "--on", "2026-12-01", "--format", "json"}, {"weight", "list", "--format", "json"},
-        {"balance", "list"}, {"pipette", "list", "--format", "json"}, {"audit", "log"}, {"certificate", "list"}}) {
+  for (const std::vector<std::string>& args : {std::vector<std::string>{"due", "--all", "--on", "2026-12-01"},
+                                               {"summary", "--on", "2026-12-01"},
+                                               {"summary", "--on", "2026-12-01", "--format", "json"},
+                                               {"weight", "list", "--format", "json"},
+                                               {"balance", "list"},
+                                               {"pipette", "list", "--format", "json"},
+                                               {"audit", "log"},
+                                               {"certificate", "list"}}) {
     std::vector<std::string> full = {"--db", db};
     full.insert(full.end(), args.begin(), args.end());
     no_apology(args.front(), output(dir, full));

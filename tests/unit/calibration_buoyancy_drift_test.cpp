@@ -101,8 +101,9 @@ TEST_CASE("cg-18 budget rows say where the buoyancy and drift values came from",
   REQUIRE(buoyancy);
   REQUIRE(drift);
   CHECK(buoyancy->contribution > 0.0);  // not zero: the densities are uncertain
-  CHECK_THAT(buoyancy->input.note, Contains("EURAMET cg-18 v4.0") && Contains("W100: rho 8000 kg/m3, u 121 kg/m3 "
-                                                                              "(class E2 limits)") &&
+  CHECK_THAT(buoyancy->input.note, Contains("EURAMET cg-18 v4.0") &&
+                                       Contains("W100: rho 8000 kg/m3, u 121 kg/m3 "
+                                                "(class E2 limits)") &&
                                        Contains("W50: rho 7950 kg/m3, u 5 kg/m3 (entered)") && Contains("measured"));
   // The drift row: u = D / sqrt 3 of W100's allowance, 0.02 mg / sqrt 3 (hand: 1.1547005e-5 g).
   CHECK_THAT(drift->contribution, grams_near(1.1547005384e-5, ug(1e-7)));

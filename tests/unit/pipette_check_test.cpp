@@ -456,8 +456,8 @@ TEST_CASE("pipette budget: the balance's calibration U(E) at the weighed load re
   REQUIRE(lines.size() == 5);
   CHECK_THAT(lines[1].input.source, Contains("balance calibration"));
   CHECK(lines[1].contribution == Approx(0.0233818699).margin(5e-9).epsilon(0));
-  CHECK_THAT(lines[1].input.note, Contains("calibration run 4 of 2026-10-01 (certificate CC-2026-0004)") &&
-                                      Contains("interpolated"));
+  CHECK_THAT(lines[1].input.note,
+             Contains("calibration run 4 of 2026-10-01 (certificate CC-2026-0004)") && Contains("interpolated"));
   for (const auto& l : lines) CHECK_THAT(l.input.source, !Contains("readability"));
   CHECK_THAT(r.volumes.at(0).channels.at(0).uncertainty.systematic_expanded,
              volume_near(Volume::microlitres(0.0812733971), ul(5e-8)));

@@ -17,8 +17,7 @@ ExactMass m(const char* s) {
 }
 }  // namespace
 
-TEST_CASE("OIML R 111-1:2004 Table 5 rows and the derived density, worked by hand (from memory)",
-          "[unit][weights]") {
+TEST_CASE("OIML R 111-1:2004 Table 5 rows and the derived density, worked by hand (from memory)", "[unit][weights]") {
   // E2, 100 g and 1 kg share the ">= 100 g" row: 7810 to 8210 kg/m3 (from memory).
   const auto e2 = density_limits(WeightClass::E2, m("1kg"));
   REQUIRE(e2);

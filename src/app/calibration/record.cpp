@@ -237,13 +237,14 @@ std::string air_statement(const density::AirDensity& air, const density::Environ
     return fmt::format("{} = {} {} x {:.3g} kg/m3 per {} = {:.2g} kg/m3", what, *entered, unit, std::abs(c), per,
                        std::abs(c) * u);
   };
-  return fmt::format("air density {:.5f} kg/m3 from t, p and h by {}; u = {:.2g} kg/m3 combines the equation's own "
-                     "relative u {:.2g} ({:.2g} kg/m3) with u(t), u(p), u(h) through the formula's sensitivity "
-                     "coefficients: {}; {}; {}",
-                     air.rho, density::to_string(air.formula), air.u, density::formula_relative_uncertainty(air.formula),
-                     air.u_formula, part("u(t)", u_t, env.u_t_c, air.dt, "degC", "K"),
-                     part("u(p)", u_p, env.u_pressure_hpa, air.dp, "hPa", "hPa"),
-                     part("u(h)", u_h, env.u_rh_pct, air.dh, "%RH", "%RH"));
+  return fmt::format(
+      "air density {:.5f} kg/m3 from t, p and h by {}; u = {:.2g} kg/m3 combines the equation's own "
+      "relative u {:.2g} ({:.2g} kg/m3) with u(t), u(p), u(h) through the formula's sensitivity "
+      "coefficients: {}; {}; {}",
+      air.rho, density::to_string(air.formula), air.u, density::formula_relative_uncertainty(air.formula),
+      air.u_formula, part("u(t)", u_t, env.u_t_c, air.dt, "degC", "K"),
+      part("u(p)", u_p, env.u_pressure_hpa, air.dp, "hPa", "hPa"),
+      part("u(h)", u_h, env.u_rh_pct, air.dh, "%RH", "%RH"));
 }
 
 json weight_trace(const std::string& id, const UsedWeight& u) {
@@ -320,9 +321,10 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
     const auto& [option, text] = u_t   ? std::pair{"--temperature-u", *in.temperature_u}
                                  : u_p ? std::pair{"--pressure-u", *in.pressure_u}
                                        : std::pair{"--humidity-u", *in.humidity_u};
-    throw InputError(fmt::format("{} {} is given, but the air was not measured: an instrument's uncertainty goes with "
-                                 "--temperature, --pressure and --humidity.",
-                                 option, text));
+    throw InputError(
+        fmt::format("{} {} is given, but the air was not measured: an instrument's uncertainty goes with "
+                    "--temperature, --pressure and --humidity.",
+                    option, text));
   }
   const auto stored_u_t = exact(in.temperature_u, parse_celsius, "--temperature-u");
   const auto stored_u_p = exact(in.pressure_u, parse_hectopascals, "--pressure-u");
@@ -441,13 +443,12 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
                                           {"pressure_hpa", stored_u_p ? json(*stored_u_p) : json()},
                                           {"humidity_pct", stored_u_h ? json(*stored_u_h) : json()}}
                                    : json()},
-      {"air_density_u_parts",
-       result.air ? json{{"formula_kg_m3", result.air->u_formula},
-                         {"conditions_kg_m3", result.air->u_conditions},
-                         {"drho_dt_kg_m3_per_K", result.air->dt},
-                         {"drho_dp_kg_m3_per_hPa", result.air->dp},
-                         {"drho_dh_kg_m3_per_pct", result.air->dh}}
-                  : json()},
+      {"air_density_u_parts", result.air ? json{{"formula_kg_m3", result.air->u_formula},
+                                                {"conditions_kg_m3", result.air->u_conditions},
+                                                {"drho_dt_kg_m3_per_K", result.air->dt},
+                                                {"drho_dp_kg_m3_per_hPa", result.air->dp},
+                                                {"drho_dh_kg_m3_per_pct", result.air->dh}}
+                                         : json()},
       {"statement", environment ? air_statement(*result.air, *environment, stored_u_t, stored_u_p, stored_u_h)
                                 : std::string("air density not measured: 1.2 kg/m3 +/- 10 % (rectangular) "
                                               "assumed, no buoyancy correction applied")}};

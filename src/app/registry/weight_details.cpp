@@ -4,9 +4,9 @@
 
 #include "app/registry/weight_in_force.hpp"
 #include "app/registry/weight_properties.hpp"
+#include "app/status/due.hpp"
 #include "core/errors.hpp"
 #include "store/repository.hpp"
-#include "app/status/due.hpp"
 #include "store/status_events.hpp"
 #include "store/weight_certificates.hpp"
 

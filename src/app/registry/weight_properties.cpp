@@ -29,9 +29,10 @@ Decimal density_option(const std::string& text, const char* option) {
 
 std::string class_cell(const weights::WeightClass c, const store::WeightRecord& w) {
   if (!weights::density_from_class(c, w.nominal))
-    throw InputError(fmt::format("--density-class {}: OIML R 111-1:2004 Table 5 sets no density limit for class {} "
-                                 "at {} (weight {}); enter the density with --density and --density-u.",
-                                 weights::to_string(c), weights::to_string(c), w.nominal.to_string(), w.id));
+    throw InputError(
+        fmt::format("--density-class {}: OIML R 111-1:2004 Table 5 sets no density limit for class {} "
+                    "at {} (weight {}); enter the density with --density and --density-u.",
+                    weights::to_string(c), weights::to_string(c), w.nominal.to_string(), w.id));
   return std::string(weights::to_string(c));
 }
 
@@ -42,23 +43,26 @@ store::WeightProperties parse_weight_properties(const WeightPropertiesInput& in,
   store::WeightProperties p;
   p.weight_id = w.id;
   if (in.density_class && (in.density || in.density_u))
-    throw InputError(fmt::format("--density-class {} and --density / --density-u are alternatives: give the "
-                                 "weight's measured density with its uncertainty, or the class whose limits stand "
-                                 "for it.",
-                                 *in.density_class));
+    throw InputError(
+        fmt::format("--density-class {} and --density / --density-u are alternatives: give the "
+                    "weight's measured density with its uncertainty, or the class whose limits stand "
+                    "for it.",
+                    *in.density_class));
   std::optional<Decimal> rho, u;
   if (in.density) rho = density_option(*in.density, "--density");
   if (in.density_u) {
     u = parse_kg_per_cubic_metre(*in.density_u, "--density-u");
     if (u->units() < 0)
-      throw InputError(fmt::format("--density-u \"{}\" is negative; give the standard uncertainty of the density.",
-                                   *in.density_u));
+      throw InputError(
+          fmt::format("--density-u \"{}\" is negative; give the standard uncertainty of the density.", *in.density_u));
   }
   if (rho && !u)
-    throw InputError(fmt::format("--density {} needs --density-u, its standard uncertainty (e.g. 5kg/m3), for the "
-                                 "buoyancy term of a calibration.",
-                                 *in.density));
-  if (u && !rho) throw InputError(fmt::format("--density-u {} needs --density, the density it belongs to.", *in.density_u));
+    throw InputError(
+        fmt::format("--density {} needs --density-u, its standard uncertainty (e.g. 5kg/m3), for the "
+                    "buoyancy term of a calibration.",
+                    *in.density));
+  if (u && !rho)
+    throw InputError(fmt::format("--density-u {} needs --density, the density it belongs to.", *in.density_u));
   if (rho && u && u->to_double() >= rho->to_double() / 2)
     throw InputError(fmt::format("--density-u \"{}\" is not below half the density {} kg/m3; check the value.",
                                  *in.density_u, rho->to_string()));
@@ -80,9 +84,10 @@ store::WeightProperties parse_weight_properties(const WeightPropertiesInput& in,
       throw InputError(fmt::format("--drift \"{}\" needs a unit of mass, e.g. 0.02mg.", d));
     p.drift = ExactMass::parse(d, "--drift");
     if (*p.drift < ExactMass{})
-      throw InputError(fmt::format("--drift \"{}\" is negative; give the largest change D expected between two "
-                                   "calibrations.",
-                                   d));
+      throw InputError(
+          fmt::format("--drift \"{}\" is negative; give the largest change D expected between two "
+                      "calibrations.",
+                      d));
     if (!(*p.drift < w.nominal))
       throw InputError(fmt::format("--drift \"{}\" is not smaller than the nominal value {} of weight {}.", d,
                                    w.nominal.to_string(), w.id));
@@ -123,10 +128,11 @@ WeightDensity density_for_budget(const store::WeightRecord& w, const std::option
   const std::string cls = p && p->density_class ? *p->density_class : w.weight_class;
   const auto c = weights::density_from_class(weights::parse_weight_class(cls, "density class"), w.nominal);
   if (!c)
-    throw InputError(fmt::format("weight {}: no density is entered and OIML R 111-1:2004 Table 5 sets no density "
-                                 "limit for class {} at {}; enter it with `plumb weight set-properties {} --density "
-                                 "... --density-u ...`.",
-                                 w.id, cls, w.nominal.to_string(), w.id));
+    throw InputError(
+        fmt::format("weight {}: no density is entered and OIML R 111-1:2004 Table 5 sets no density "
+                    "limit for class {} at {}; enter it with `plumb weight set-properties {} --density "
+                    "... --density-u ...`.",
+                    w.id, cls, w.nominal.to_string(), w.id));
   out.rho_kg_m3 = c->rho_kg_m3;
   out.u_kg_m3 = c->u_kg_m3;
   out.source = p ? c->basis : c->basis + " (no density entered)";

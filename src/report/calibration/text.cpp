@@ -121,7 +121,8 @@ std::vector<std::string> calibration_set_lines(const json& set, const std::strin
                         number_field(r, "sensitivity"), number_field(r, "contribution_g") * 1e3, emg + 2, dof_text(r["dof"])));
       for (const auto& r : b["lines"])
         if (!field_text(r, "note", "").empty())
-          for (const auto& l : wrap(field_text(r, "source") + ": " + field_text(r, "note"), 78, "      ", "        ")) add(l);
+          for (const auto& l : wrap(field_text(r, "source") + ": " + field_text(r, "note"), 78, "      ", "        "))
+            add(l);
       add(fmt::format("      u_c = {} mg, nu_eff = {}, k = {:.3f}, U = k u_c = {} mg",
                       mg_unsigned(number_field(b, "combined_g"), emg + 2), dof_text(b["nu_eff"]), number_field(b, "k"),
                       mg_unsigned(number_field(b, "expanded_g"), emg + 1)));

@@ -89,9 +89,10 @@ std::string weight_details_text(const WeightDetails& d) {
     out += "\nDensity and drift statements, oldest first:\n";
     for (const auto& p : d.properties) {
       const std::string density =
-          p.density_kg_m3 ? fmt::format("density {} kg/m3, u {} kg/m3", p.density_kg_m3->to_string(),
-                                        p.u_density_kg_m3 ? p.u_density_kg_m3->to_string() : "-")
-                          : fmt::format("density from class {} (OIML R 111-1:2004 Table 5)", p.density_class.value_or("-"));
+          p.density_kg_m3
+              ? fmt::format("density {} kg/m3, u {} kg/m3", p.density_kg_m3->to_string(),
+                            p.u_density_kg_m3 ? p.u_density_kg_m3->to_string() : "-")
+              : fmt::format("density from class {} (OIML R 111-1:2004 Table 5)", p.density_class.value_or("-"));
       out += fmt::format("  {} by {}: {}, drift allowance {}\n", p.recorded_at, p.by_name, density,
                          p.drift ? p.drift->to_string() : "none stated");
     }
