@@ -11,13 +11,13 @@ CREATE TABLE weight_properties (
   u_density_kg_m3  TEXT,              -- its standard uncertainty; NULL with density_source 'class'
   density_class    TEXT,              -- OIML R 111 class whose Table 5 limits apply; NULL with 'entered'
   drift_g          TEXT,              -- drift allowance D in grams (exact decimal); NULL: none stated
+  by_name          TEXT NOT NULL CHECK (length(by_name) > 0),
+  recorded_at      TEXT NOT NULL,
+  os_user          TEXT NOT NULL,
   CHECK ((density_source = 'entered' AND density_kg_m3 IS NOT NULL AND u_density_kg_m3 IS NOT NULL
           AND density_class IS NULL)
       OR (density_source = 'class' AND density_kg_m3 IS NULL AND u_density_kg_m3 IS NULL
-          AND density_class IS NOT NULL)),
-  by_name          TEXT NOT NULL CHECK (length(by_name) > 0),
-  recorded_at      TEXT NOT NULL,
-  os_user          TEXT NOT NULL
+          AND density_class IS NOT NULL))
 );
 CREATE INDEX weight_properties_by_weight ON weight_properties(weight_id, id);
 

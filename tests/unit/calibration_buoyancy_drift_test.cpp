@@ -13,6 +13,7 @@ using namespace plumb;
 using namespace plumb::checks;
 using Catch::Matchers::Contains;
 using plumb::test::grams_near;
+using plumb::test::mass_near;
 using plumb::test::ug;
 
 namespace {
@@ -71,12 +72,12 @@ TEST_CASE("cg-18 buoyancy and drift from entered densities, classes and a drift 
   const auto& w20 = r.loads[0];
   const auto& w100_50 = r.loads[3];
   const auto& all = r.loads[4];
-  CHECK_THAT(w20.u_buoyancy, grams_near(2.0574529868e-6, ug(1e-7)));
+  CHECK_THAT(w20.u_buoyancy, mass_near(Mass::grams(2.0574529868e-6), ug(1e-7)));
   CHECK(w20.buoyancy_correction.g() == 0.0);
-  CHECK_THAT(w100_50.u_buoyancy, grams_near(3.8715846138e-6, ug(1e-7)));
-  CHECK_THAT(w100_50.buoyancy_correction, grams_near(7.8616352201e-7, ug(1e-7)));
-  CHECK_THAT(all.u_buoyancy, grams_near(3.8715846138e-6 + 2.0574529868e-6, ug(1e-7)));
-  CHECK_THAT(w100_50.u_drift, grams_near(1.1547005384e-5, ug(1e-7)));
+  CHECK_THAT(w100_50.u_buoyancy, mass_near(Mass::grams(3.8715846138e-6), ug(1e-7)));
+  CHECK_THAT(w100_50.buoyancy_correction, mass_near(Mass::grams(7.8616352201e-7), ug(1e-7)));
+  CHECK_THAT(all.u_buoyancy, mass_near(Mass::grams(3.8715846138e-6 + 2.0574529868e-6), ug(1e-7)));
+  CHECK_THAT(w100_50.u_drift, mass_near(Mass::grams(1.1547005384e-5), ug(1e-7)));
   CHECK(w20.u_drift.g() == 0.0);
 }
 

@@ -465,7 +465,8 @@ TEST_CASE("pipette budget: the balance's calibration U(E) at the weighed load re
   // Without a calibration the readability line is the fallback, and it says why.
   auto bare = fixed_100ul_run();
   bare.no_balance_calibration = "no calibration of balance B-7 recorded on or before 2026-11-30";
-  const auto& fallback = ck::evaluate_pipette_run(bare).volumes.at(0).channels.at(0).uncertainty.budget.lines;
+  const ck::PipetteRunResult without = ck::evaluate_pipette_run(bare);
+  const auto& fallback = without.volumes.at(0).channels.at(0).uncertainty.budget.lines;
   REQUIRE(fallback.size() == 5);
   CHECK_THAT(fallback[1].input.source, Contains("readability"));
   CHECK_THAT(fallback[1].input.note, Contains("no calibration of balance B-7") && Contains("fallback"));
