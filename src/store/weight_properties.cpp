@@ -7,7 +7,7 @@
 namespace plumb::store {
 
 namespace {
-std::optional<Decimal> decimal_or_none(const SQLite::Column& c) {
+std::optional<Decimal> stored_decimal_or_none(const SQLite::Column& c) {
   if (c.isNull()) return std::nullopt;
   return Decimal::parse(c.getString(), c.getName());
 }
@@ -23,8 +23,8 @@ std::vector<WeightProperties> weight_properties_history(SQLite::Database& db, co
     WeightProperties p;
     p.id = q.getColumn(0).getInt64();
     p.weight_id = weight_id;
-    p.density_kg_m3 = decimal_or_none(q.getColumn(1));
-    p.u_density_kg_m3 = decimal_or_none(q.getColumn(2));
+    p.density_kg_m3 = stored_decimal_or_none(q.getColumn(1));
+    p.u_density_kg_m3 = stored_decimal_or_none(q.getColumn(2));
     if (!q.getColumn(3).isNull()) p.density_class = q.getColumn(3).getString();
     p.drift = stored_grams_or_none(q.getColumn(4));
     p.by_name = q.getColumn(5).getString();
