@@ -77,8 +77,8 @@ std::int64_t record_demo_calibration(store::Database& db, const store::Actor& qu
   in.pressure_hpa = c["pressure"].get<std::string>();
   in.humidity_pct = c["humidity"].get<std::string>();
   // The demo lab's thermometer, barometer and hygrometer uncertainties, for the air density's u.
-  for (const auto& [key, field] : {std::pair{"temperature_u", &in.temperature_u}, std::pair{"pressure_u", &in.pressure_u},
-                                   std::pair{"humidity_u", &in.humidity_u}})
+  for (const auto& [key, field] : {std::pair{"temperature_u", &in.temperature_u},
+                                   std::pair{"pressure_u", &in.pressure_u}, std::pair{"humidity_u", &in.humidity_u}})
     if (c.contains(key)) *field = c[key].get<std::string>();
   in.model = c["model"];
   return record_calibration(db, {in.operator_name, quality.os_user}, in).id;
