@@ -117,6 +117,9 @@ int record_calibration(const po::variables_map& vm, Env& env, const std::string&
   in.temperature_c = optional_string(vm, "temperature");
   in.pressure_hpa = optional_string(vm, "pressure");
   in.humidity_pct = optional_string(vm, "humidity");
+  in.temperature_u = optional_string(vm, "temperature-u");
+  in.pressure_u = optional_string(vm, "pressure-u");
+  in.humidity_u = optional_string(vm, "humidity-u");
   in.air_formula = vm["air-formula"].as<std::string>();
   in.model = vm["model"].as<std::string>();
   auto db = env.open();
@@ -175,6 +178,10 @@ std::vector<Command> check_commands() {
             "humidity", po::value<std::string>(),
             "calibration and gravimetric: relative humidity with its unit, e.g. 45%")(
             "air-formula", po::value<std::string>()->default_value("cipm2007"), "calibration: cipm2007 | oiml-r111")(
+            "temperature-u", po::value<std::string>(),
+            "calibration: standard uncertainty of the air thermometer, e.g. 0.1C (propagated into the air density)")(
+            "pressure-u", po::value<std::string>(), "calibration: standard uncertainty of the barometer, e.g. 0.5hPa")(
+            "humidity-u", po::value<std::string>(), "calibration: standard uncertainty of the hygrometer, e.g. 2%")(
             "model", po::value<std::string>()->default_value("line"),
             "calibration: fitted model, line | through-origin | quadratic")(
             "balance", po::value<std::string>(), "gravimetric: the balance the water was weighed on")(
@@ -241,7 +248,8 @@ std::vector<Command> check_commands() {
                  return 0;
                }};
   Command correct{
-      "check", "correct",
+      "check",
+      "correct",
       "correct a run: a new run supersedes it (reason required); the original stays; a certificate is replaced",
       "plumb check correct 12 --readings fixed.csv --reason \"reading 4 mistyped (100.0040 for 100.0004)\" --by \"Q. "
       "Manager\"",
@@ -257,21 +265,26 @@ std::vector<Command> check_commands() {
             "pressure", po::value<std::string>(), "calibration and gravimetric: corrected air pressure, hPa")(
             "humidity", po::value<std::string>(), "calibration and gravimetric: corrected relative humidity, %")(
             "air-formula", po::value<std::string>(), "calibration: corrected air density formula")(
+            "temperature-u", po::value<std::string>(), "calibration: corrected thermometer standard uncertainty")(
+            "pressure-u", po::value<std::string>(), "calibration: corrected barometer standard uncertainty")(
+            "humidity-u", po::value<std::string>(), "calibration: corrected hygrometer standard uncertainty")(
             "model", po::value<std::string>(), "calibration: corrected fitted model")(
             "balance", po::value<std::string>(), "gravimetric: corrected balance the water was weighed on")(
             "water-temp", po::value<std::string>(), "gravimetric: corrected water temperature, degC")(
             "evaporation", po::value<std::string>(), "gravimetric: corrected evaporation loss per weighing")(
             "water-temp-u", po::value<std::string>(), "gravimetric: corrected thermometer standard uncertainty")(
             "air-density-u", po::value<std::string>(), "gravimetric: corrected air density standard uncertainty")(
-            "layout", po::value<std::string>(), "layout of the replacement certificate (default: that of the one it "
-                                                "replaces)");
+            "layout", po::value<std::string>(),
+            "layout of the replacement certificate (default: that of the one it "
+            "replaces)");
         add_format_option(d);
         add_by_option(d, "the person making the correction");
         p.add("run", 1);
       },
       [](const po::variables_map& vm, Env& env) {
         const auto format = format_of(vm, {"text", "json"});
-        if (!vm.count("reason")) throw InputError("--reason must say why the run is corrected (it is kept with the correction).");
+        if (!vm.count("reason"))
+          throw InputError("--reason must say why the run is corrected (it is kept with the correction).");
         if (!vm.count("by")) throw InputError("--by must name the person making the correction.");
         app::CorrectionInput in;
         in.run = vm["run"].as<std::string>();

@@ -4,6 +4,7 @@
 
 #include "app/registry/weight_dcc.hpp"
 #include "app/registry/weight_details.hpp"
+#include "app/registry/weight_properties.hpp"
 #include "app/registry/weights.hpp"
 #include "cli/command_groups.hpp"
 #include "core/errors.hpp"
@@ -18,6 +19,49 @@ void add_override_reason_option(po::options_description& d) {
   d.add_options()("override-reason", po::value<std::string>(),
                   "accept a certificate outside the class limits of OIML R 111-1:2004 (|correction| <= MPE, "
                   "U for k = 2 <= MPE / 3); the reason is recorded and shown by `weight show`");
+}
+
+void add_properties_options(po::options_description& d, const char* density_help) {
+  d.add_options()("density", po::value<std::string>(), density_help)(
+      "density-u", po::value<std::string>(), "standard uncertainty of --density with its unit, e.g. 5kg/m3")(
+      "density-class", po::value<std::string>(),
+      "instead of --density: the OIML R 111 class whose density limits (OIML R 111-1:2004 Table 5) stand for it")(
+      "drift", po::value<std::string>(),
+      "drift allowance D with its unit, e.g. 0.02mg: the largest change expected between calibrations, used "
+      "(rectangular, EURAMET cg-18) where the certificate history gives no estimate");
+}
+
+app::WeightPropertiesInput properties_input(const po::variables_map& vm) {
+  return {optional_string(vm, "density"), optional_string(vm, "density-u"), optional_string(vm, "density-class"),
+          optional_string(vm, "drift")};
+}
+
+Command set_properties_command() {
+  return {"weight",
+          "set-properties",
+          "state a reference weight's density (with its uncertainty) or density class, and its drift allowance, for "
+          "the buoyancy and drift terms of a calibration budget (earlier statements are kept)",
+          "plumb weight set-properties W100 --density 7950kg/m3 --density-u 5kg/m3 --drift 0.02mg --by \"Q. "
+          "Manager\"\n  plumb weight set-properties W1 --density-class E2",
+          [](po::options_description& d, po::positional_options_description& p) {
+            d.add_options()("id", po::value<std::string>()->required(), "weight id (positional)");
+            add_properties_options(d, "density with its unit, e.g. 7950kg/m3 (needs --density-u)");
+            add_by_option(d);
+            p.add("id", 1);
+          },
+          [](const po::variables_map& vm, Env& env) {
+            const auto in = properties_input(vm);
+            auto db = env.open();
+            const auto p = app::set_weight_properties(db, Env::actor(vm), vm["id"].as<std::string>(), in);
+            fmt::print(env.out, "Weight {}: {}; drift allowance {}.\n", p.weight_id,
+                       p.density_kg_m3 ? fmt::format("density {} kg/m3, u {} kg/m3", p.density_kg_m3->to_string(),
+                                                     p.u_density_kg_m3->to_string())
+                                       : fmt::format("density from the limits of class {} (OIML R 111-1:2004 "
+                                                     "Table 5)",
+                                                     *p.density_class),
+                       p.drift ? p.drift->to_string() : "none stated");
+            return 0;
+          }};
 }
 
 /// The typed certificate options of `weight recalibrate`: required unless --from-dcc reads them from a file.
@@ -146,9 +190,10 @@ std::vector<Command> weight_commands() {
                     "k", po::value<std::string>()->default_value("2"), "coverage factor of U")(
                     "certificate", po::value<std::string>()->required(), "calibration certificate number")(
                     "calibrated", po::value<std::string>()->required(), "calibration date, YYYY-MM-DD")(
-                    "due", po::value<std::string>()->required(), "recalibration due date, YYYY-MM-DD")(
-                    "density", po::value<std::string>(),
-                    "density with its unit, e.g. 7950kg/m3 (default: 8000kg/m3, conventional)");
+                    "due", po::value<std::string>()->required(), "recalibration due date, YYYY-MM-DD");
+                add_properties_options(d,
+                                       "density with its unit, e.g. 7950kg/m3, with --density-u (default: the "
+                                       "limits of its class, OIML R 111-1:2004 Table 5)");
                 add_override_reason_option(d);
                 add_by_option(d);
                 p.add("id", 1);
@@ -164,7 +209,11 @@ std::vector<Command> weight_commands() {
                 in.certificate = vm["certificate"].as<std::string>();
                 in.calibrated = vm["calibrated"].as<std::string>();
                 in.due = vm["due"].as<std::string>();
-                in.density = optional_string(vm, "density");
+                const auto stated = properties_input(vm);
+                in.density = stated.density;
+                in.density_u = stated.density_u;
+                in.density_class = stated.density_class;
+                in.drift = stated.drift;
                 in.override_reason = optional_string(vm, "override-reason");
                 auto db = env.open();
                 const auto w = app::add_weight(db, Env::actor(vm), in);
@@ -185,7 +234,7 @@ std::vector<Command> weight_commands() {
                  else env.out << report::weights_text(weights, status);
                  return 0;
                }};
-  return {add, recalibrate_command(), list, show_command()};
+  return {add, recalibrate_command(), set_properties_command(), list, show_command()};
 }
 
 }  // namespace plumb::cli

@@ -76,6 +76,10 @@ std::int64_t record_demo_calibration(store::Database& db, const store::Actor& qu
   in.temperature_c = c["temperature"].get<std::string>();
   in.pressure_hpa = c["pressure"].get<std::string>();
   in.humidity_pct = c["humidity"].get<std::string>();
+  // The demo lab's thermometer, barometer and hygrometer uncertainties, for the air density's u.
+  for (const auto& [key, field] : {std::pair{"temperature_u", &in.temperature_u},
+                                   std::pair{"pressure_u", &in.pressure_u}, std::pair{"humidity_u", &in.humidity_u}})
+    if (c.contains(key)) *field = c[key].get<std::string>();
   in.model = c["model"];
   return record_calibration(db, {in.operator_name, quality.os_user}, in).id;
 }
@@ -129,6 +133,13 @@ DemoSummary build_demo(const std::filesystem::path& path, const std::function<vo
     in.certificate = w["certificate"];
     in.calibrated = w["calibrated"];
     in.due = w["due"];
+    // What the demo lab states beyond the certificate, for the buoyancy and drift terms of its calibrations.
+    const auto stated = [&](const char* key) {
+      return w.contains(key) ? std::optional<std::string>(w[key].get<std::string>()) : std::nullopt;
+    };
+    in.density = stated("density");
+    in.density_u = stated("density_u");
+    in.drift = stated("drift");
     add_weight(db, quality, in);
   }
   const Date first = parse_date(scenario["first_check"].get<std::string>());

@@ -151,6 +151,9 @@ void budget_block(const json& stage, const MgFormat& f, Document& doc) {
                         MgFormat{f.decimals + 2}.mg(num(b, "contribution_g")), dof(b.value("dof", json())),
                         fmt::format("{:.1f} %", num(b, "share") * 100)});
     doc.blocks.push_back(std::move(t));
+    for (const auto& b : l.value("budget", json::array()))
+      if (!b.value("note", "").empty())
+        doc.blocks.push_back(Paragraph{cell(b, "source") + ": " + cell(b, "note"), true});
   }
   Table per_load{{"#", "Load", "u_c / mg", "nu_eff", "k", "U = k u_c / mg"},
                  {0.3, 1.4, 1.0, 0.8, 0.6, 1.1},
