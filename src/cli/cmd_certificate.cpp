@@ -35,6 +35,7 @@ void print_certificate(store::Database& db, const store::CertificateRecord& c, c
     // The PDF header shows content["status"] when it is a string: the standing today, not part of the hash.
     store::CertificateRecord shown = c;
     shown.content["status"] = report::certificate_status_summary(doc["status"]);
+    if (doc.contains("trail_checkpoint")) shown.content["trail_checkpoint"] = doc["trail_checkpoint"];
     const auto outcome = app::write_certificate_pdf(shown, *output);
     for (const auto& w : outcome.warnings) fmt::print(env.err, "plumb: {}\n", w);
     fmt::print(env.out, "Certificate {} written to {} ({} page(s)).\n", c.number, *output, outcome.pages);
@@ -44,6 +45,10 @@ void print_certificate(store::Database& db, const store::CertificateRecord& c, c
     env.out << report::certificate_status_banner(doc["status"]);
     env.out << report::certificate_text(c.content, c.content_sha256);
     env.out << report::certificate_review_lines(doc["status"]);
+    if (const auto& cp = doc.value("trail_checkpoint", nlohmann::json()); cp.is_object())
+      fmt::print(env.out, "Audit trail: covered by signed checkpoint {} ({} records, head {}, signed {}).\n",
+                 cp["number"].get<std::int64_t>(), cp["records"].get<std::int64_t>(),
+                 cp["head_hash"].get<std::string>(), cp["signed_at"].get<std::string>());
   }
 }
 

@@ -3,15 +3,18 @@
 // when, what and why, chained by SHA-256 so that a record changed behind plumb's back is detectable.
 #include <SQLiteCpp/Database.h>
 #include <SQLiteCpp/Statement.h>
+#include <SQLiteCpp/Transaction.h>
 
 #include <functional>
 #include <map>
 #include <memory>
+#include <optional>
 #include <span>
 #include <nlohmann/json.hpp>
 #include <string>
 #include <vector>
 
+#include "store/lab_key.hpp"
 #include "store/row.hpp"
 #include "store/table_schema.hpp"
 
@@ -43,7 +46,14 @@ struct PreparedGroup {
 
 class Recorder {
 public:
+  /// Reads the lab's signing key of the database file (store::key_path_for) first: a command that cannot sign
+  /// its records is refused before it writes anything (InputError naming the key file). An in-memory database
+  /// has no key; its records cannot be committed with commit().
   Recorder(SQLite::Database& db, Actor actor);
+
+  /// Ends the command: signs a checkpoint covering every record written (store/checkpoints), then commits `tx`.
+  /// Every command that writes records ends this way, so that the trail's end is always signed.
+  void commit(SQLite::Transaction& tx);
 
   /// Inserts `row` into `table` and appends the audit record. `key_columns` name the primary key; a
   /// single integer key absent from `row` is taken from the new rowid. Returns the rowid.
@@ -106,6 +116,8 @@ private:
 
   SQLite::Database& db_;
   Actor actor_;
+  std::optional<LabKey> key_;
+  std::int64_t first_seq_ = 0;  ///< the first audit record this Recorder wrote (0: none yet)
   std::string now_;  ///< one timestamp for the whole command
   std::map<std::string, std::unique_ptr<SQLite::Statement>> statements_;
   std::map<std::string, TableSchema> schemas_;

@@ -5,6 +5,7 @@
 #include <algorithm>
 
 #include "checks/procedure.hpp"
+#include "report/certificates/trail_checkpoint_note.hpp"
 #include "report/history/charts.hpp"
 
 #include "report/format/text.hpp"
@@ -105,6 +106,7 @@ Document certificate_document(const json& c, const std::string& content_sha256) 
   if (c.contains("caution") && !cell(c, "caution").empty() && cell(c, "caution") != "-")
     doc.blocks.push_back(Paragraph{"Caution: " + cell(c, "caution"), false, true});
   doc.footer = "Content SHA-256 " + content_sha256 +
+               trail_checkpoint_note(c) +
                ". This PDF is a rendering of the stored certificate; the stored record is authoritative.";
   return doc;
 }
