@@ -179,7 +179,6 @@ AuditVerification verify_audit_trail(SQLite::Database& db, const VerifyOptions& 
   }
   AuditVerification out;
   out.problems = verify_schema(db, out.schema_objects);
-  const std::size_t schema_problems = out.problems.size();
   const auto records = audit_records(db);
   check_chain(records, out);
   verify_checkpoints(db, records, options, out);
@@ -268,8 +267,9 @@ AuditVerification verify_audit_trail(SQLite::Database& db, const VerifyOptions& 
                                         u.table, u.key)});
 
   // Trail order: the first problem is the earliest record that went wrong; unaudited rows come last.
-  // The schema comes first: a dropped trigger or an added table explains what follows.
-  std::stable_sort(out.problems.begin() + static_cast<std::ptrdiff_t>(schema_problems), out.problems.end(), [](const AuditProblem& a, const AuditProblem& b) {
+  // Schema problems (seq 0) come after the trail's, with the unaudited rows: the changed row is the news, a dropped
+  // trigger only how it was done.
+  std::stable_sort(out.problems.begin(), out.problems.end(), [](const AuditProblem& a, const AuditProblem& b) {
     const auto order = [](const AuditProblem& p) {
       return p.seq == 0 ? std::numeric_limits<std::int64_t>::max() : p.seq;
     };

@@ -69,8 +69,9 @@ std::string hash_at(const std::vector<AuditRecord>& records, std::int64_t n) {
   return n == 0 ? genesis_hash() : records[static_cast<std::size_t>(n - 1)].hash;
 }
 
-void check_since(const Checkpoint& kept, const std::optional<Checkpoint>& in_db, const std::vector<AuditRecord>& records,
-                 const VerifyOptions& options, std::int64_t last_number, AuditVerification& out) {
+void check_since(const Checkpoint& kept, const std::optional<Checkpoint>& in_db,
+                 const std::vector<AuditRecord>& records, const VerifyOptions& options, std::int64_t last_number,
+                 AuditVerification& out) {
   const std::string where = fmt::format(" in {}", options.since_source);
   check_signature(kept, options, where, out);
   const auto trail = static_cast<std::int64_t>(records.size());
@@ -129,10 +130,10 @@ void verify_checkpoints(SQLite::Database& db, const std::vector<AuditRecord>& re
             seq, c.signed_at,
             fmt::format("{} covers fewer records than the checkpoint before it ({}).", checkpoint_text(c), covered)));
       } else if (c.records > trail) {
-        out.problems.push_back(checkpoint_problem(
-            seq, c.signed_at,
-            fmt::format("{} covers {} audit records, but the trail holds only {}: {} were deleted.",
-                        checkpoint_text(c), c.records, trail, range_text(trail + 1, c.records))));
+        out.problems.push_back(
+            checkpoint_problem(seq, c.signed_at,
+                               fmt::format("{} covers {} audit records, but the trail holds only {}: {} were deleted.",
+                                           checkpoint_text(c), c.records, trail, range_text(trail + 1, c.records))));
       } else if (!rewritten && hash_at(records, c.records) != c.head_hash) {
         rewritten = true;
         out.problems.push_back(checkpoint_problem(

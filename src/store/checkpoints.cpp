@@ -16,8 +16,8 @@ using nlohmann::json;
 
 std::string checkpoint_statement(const Checkpoint& c) {
   // Plain lines rather than JSON: an inspector can rebuild it by hand and check it with `openssl pkeyutl`.
-  return fmt::format("plumb audit checkpoint\nnumber: {}\nrecords: {}\nhead: {}\nsigned at: {}\ncovers: {}\n",
-                     c.number, c.records, c.head_hash, c.signed_at, c.covers);
+  return fmt::format("plumb audit checkpoint\nnumber: {}\nrecords: {}\nhead: {}\nsigned at: {}\ncovers: {}\n", c.number,
+                     c.records, c.head_hash, c.signed_at, c.covers);
 }
 
 Checkpoint checkpoint_from_row(SQLite::Statement& q) {
@@ -41,8 +41,8 @@ std::optional<Checkpoint> latest_checkpoint(SQLite::Database& db) {
 
 std::optional<Checkpoint> checkpoint_covering(SQLite::Database& db, std::int64_t seq) {
   if (!db.tableExists("checkpoints")) return std::nullopt;
-  SQLite::Statement q(db, fmt::format("SELECT {} FROM checkpoints WHERE records >= ? ORDER BY number LIMIT 1",
-                                      checkpoint_columns));
+  SQLite::Statement q(
+      db, fmt::format("SELECT {} FROM checkpoints WHERE records >= ? ORDER BY number LIMIT 1", checkpoint_columns));
   q.bind(1, seq);
   if (!q.executeStep()) return std::nullopt;
   return checkpoint_from_row(q);
@@ -73,8 +73,8 @@ std::optional<Checkpoint> write_checkpoint(SQLite::Database& db, const LabKey& k
   c.covers = !last && before > 0 ? "records before checkpoints" : "command";
   c.public_key = key.public_hex();
   c.signature = key.sign(checkpoint_statement(c));
-  SQLite::Statement insert(db, fmt::format("INSERT INTO checkpoints ({}) VALUES (?, ?, ?, ?, ?, ?, ?)",
-                                           checkpoint_columns));
+  SQLite::Statement insert(
+      db, fmt::format("INSERT INTO checkpoints ({}) VALUES (?, ?, ?, ?, ?, ?, ?)", checkpoint_columns));
   insert.bind(1, c.number);
   insert.bind(2, c.records);
   insert.bind(3, c.head_hash);
@@ -87,9 +87,8 @@ std::optional<Checkpoint> write_checkpoint(SQLite::Database& db, const LabKey& k
 }
 
 json checkpoint_json(const Checkpoint& c) {
-  return {{"plumb_checkpoint", 1},     {"number", c.number},       {"records", c.records},
-          {"head_hash", c.head_hash},  {"signed_at", c.signed_at}, {"covers", c.covers},
-          {"public_key", c.public_key}, {"signature", c.signature}};
+  return {{"plumb_checkpoint", 1},    {"number", c.number}, {"records", c.records},       {"head_hash", c.head_hash},
+          {"signed_at", c.signed_at}, {"covers", c.covers}, {"public_key", c.public_key}, {"signature", c.signature}};
 }
 
 Checkpoint read_checkpoint_file(const std::filesystem::path& file, const std::string& option) {

@@ -44,7 +44,8 @@ std::optional<Checkpoint> checkpoint_covering_row(SQLite::Database& db, const st
                                                   const std::string& row_key);
 /// The current row of a `SELECT number, records, head_hash, signed_at, covers, public_key, signature`.
 Checkpoint checkpoint_from_row(SQLite::Statement& q);
-inline constexpr const char* checkpoint_columns = "number, records, head_hash, signed_at, covers, public_key, signature";
+inline constexpr const char* checkpoint_columns =
+    "number, records, head_hash, signed_at, covers, public_key, signature";
 
 /// A checkpoint as exported: {"plumb_checkpoint": 1, "number": ..., ...}.
 nlohmann::json checkpoint_json(const Checkpoint& c);

@@ -93,9 +93,10 @@ LabKey LabKey::generate() {
 
 LabKey LabKey::load(const std::filesystem::path& file) {
   if (!std::filesystem::exists(file))
-    throw InputError(fmt::format("the lab's signing key \"{}\" does not exist; plumb signs every command's records "
-                                 "with it (create it with `plumb key create`, or set PLUMB_KEY to the lab's key file).",
-                                 file.string()));
+    throw InputError(
+        fmt::format("the lab's signing key \"{}\" does not exist; plumb signs every command's records "
+                    "with it (create it with `plumb key create`, or set PLUMB_KEY to the lab's key file).",
+                    file.string()));
   const std::string pem = key_file_text(file);
   Bio bio(BIO_new_mem_buf(pem.data(), static_cast<int>(pem.size())), &BIO_free);
   EVP_PKEY* key = bio ? PEM_read_bio_PrivateKey(bio.get(), nullptr, nullptr, nullptr) : nullptr;
@@ -108,8 +109,8 @@ LabKey LabKey::load(const std::filesystem::path& file) {
 
 void LabKey::save(const std::filesystem::path& key_file, const std::filesystem::path& public_file) const {
   if (std::filesystem::exists(public_file))
-    throw InputError(fmt::format("public key file \"{}\" already exists; plumb never replaces a key.",
-                                 public_file.string()));
+    throw InputError(
+        fmt::format("public key file \"{}\" already exists; plumb never replaces a key.", public_file.string()));
   Bio bio(BIO_new(BIO_s_mem()), &BIO_free);
   if (!bio || PEM_write_bio_PrivateKey(bio.get(), key_.get(), nullptr, nullptr, 0, nullptr, nullptr) != 1)
     throw StorageError("OpenSSL could not write the private key.");
@@ -150,8 +151,7 @@ std::string LabKey::public_pem() const {
 }
 
 std::string read_public_key_file(const std::filesystem::path& file, const std::string& option) {
-  if (!std::filesystem::exists(file))
-    throw InputError(fmt::format("{} \"{}\" does not exist.", option, file.string()));
+  if (!std::filesystem::exists(file)) throw InputError(fmt::format("{} \"{}\" does not exist.", option, file.string()));
   const std::string pem = key_file_text(file);
   Bio bio(BIO_new_mem_buf(pem.data(), static_cast<int>(pem.size())), &BIO_free);
   EVP_PKEY* key = bio ? PEM_read_bio_PUBKEY(bio.get(), nullptr, nullptr, nullptr) : nullptr;

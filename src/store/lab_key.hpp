@@ -16,7 +16,7 @@ std::filesystem::path key_path_for(const std::filesystem::path& db);
 std::filesystem::path public_key_path_for(const std::filesystem::path& key);
 
 class LabKey {
-public:
+ public:
   /// A new random key.
   static LabKey generate();
   /// Reads a PEM private key; InputError (one sentence naming the file) when missing or not an Ed25519 key.
@@ -32,7 +32,7 @@ public:
   [[nodiscard]] std::string public_hex() const;
   [[nodiscard]] std::string public_pem() const;
 
-private:
+ private:
   explicit LabKey(evp_pkey_st* key);
   std::shared_ptr<evp_pkey_st> key_;
 };

@@ -18,8 +18,9 @@ struct SchemaObject {
 
 std::map<std::string, SchemaObject> schema_objects(SQLite::Database& db) {
   // SQLite's own objects (sqlite_sequence, sqlite_stat1, automatic indexes) are not plumb's to compare.
-  SQLite::Statement q(db, "SELECT type, name, tbl_name, coalesce(sql, '') FROM sqlite_schema "
-                          "WHERE name NOT LIKE 'sqlite_%'");
+  SQLite::Statement q(db,
+                      "SELECT type, name, tbl_name, coalesce(sql, '') FROM sqlite_schema "
+                      "WHERE name NOT LIKE 'sqlite_%'");
   std::map<std::string, SchemaObject> out;
   while (q.executeStep())
     out[q.getColumn(1).getString()] = {q.getColumn(0).getString(), q.getColumn(2).getString(),
@@ -86,8 +87,8 @@ void compare_columns(SQLite::Database& expected_db, SQLite::Database& db, const 
   }
   for (const auto& [name, info] : expected)
     if (!actual.count(name)) {
-      out.push_back(schema_problem(table, fmt::format("column {}.{} is missing: it was dropped outside plumb.", table,
-                                                      name)));
+      out.push_back(
+          schema_problem(table, fmt::format("column {}.{} is missing: it was dropped outside plumb.", table, name)));
       named = true;
     }
   if (!named)
@@ -112,14 +113,15 @@ std::vector<AuditProblem> verify_schema(SQLite::Database& db, std::int64_t& obje
   for (const auto& [name, e] : expected) {
     const auto a = actual.find(name);
     if (a == actual.end()) {
-      out.push_back(schema_problem(e.table, fmt::format("{} is missing: it was dropped outside plumb.",
-                                                        object_text(e.type, name, e.table))));
+      out.push_back(schema_problem(
+          e.table, fmt::format("{} is missing: it was dropped outside plumb.", object_text(e.type, name, e.table))));
     } else if (a->second.type != e.type || a->second.table != e.table) {
-      out.push_back(schema_problem(e.table, fmt::format("{} is now {}: it was replaced outside plumb.",
-                                                        object_text(e.type, name, e.table),
-                                                        object_text(a->second.type, name, a->second.table))));
+      out.push_back(schema_problem(
+          e.table, fmt::format("{} is now {}: it was replaced outside plumb.", object_text(e.type, name, e.table),
+                               object_text(a->second.type, name, a->second.table))));
     } else if (a->second.sql != e.sql) {
-      if (e.type == "table") compare_columns(expected_db, db, name, out);
+      if (e.type == "table")
+        compare_columns(expected_db, db, name, out);
       else
         out.push_back(schema_problem(e.table, fmt::format("{} differs from what plumb's migrations create: it was "
                                                           "replaced outside plumb.",

@@ -50,8 +50,9 @@ TEST_CASE("schema: an added column is named", "[cli][audit][schema][attack]") {
 TEST_CASE("schema: an added trigger and an added table are named", "[cli][audit][schema][attack]") {
   plumb::test::ScratchDir dir;
   const auto db = plumb::test::example_lab(dir).string();
-  REQUIRE(sqlite3_shell(db, "CREATE TABLE notes (id INTEGER PRIMARY KEY, text TEXT); CREATE TRIGGER quiet AFTER "
-                            "INSERT ON weights BEGIN SELECT 1; END;") == 0);
+  REQUIRE(sqlite3_shell(db,
+                        "CREATE TABLE notes (id INTEGER PRIMARY KEY, text TEXT); CREATE TRIGGER quiet AFTER "
+                        "INSERT ON weights BEGIN SELECT 1; END;") == 0);
   const auto r = verify_all(db, dir);
   CHECK(r.status == 1);
   CHECK_THAT(r.out, Catch::Contains("table notes is not created by plumb's migrations") &&
@@ -61,8 +62,9 @@ TEST_CASE("schema: an added trigger and an added table are named", "[cli][audit]
 TEST_CASE("schema: a trigger replaced by one that does nothing is named", "[cli][audit][schema][attack]") {
   plumb::test::ScratchDir dir;
   const auto db = plumb::test::example_lab(dir).string();
-  REQUIRE(sqlite3_shell(db, "DROP TRIGGER weights_no_delete; CREATE TRIGGER weights_no_delete BEFORE DELETE ON "
-                            "weights BEGIN SELECT 1; END;") == 0);
+  REQUIRE(sqlite3_shell(db,
+                        "DROP TRIGGER weights_no_delete; CREATE TRIGGER weights_no_delete BEFORE DELETE ON "
+                        "weights BEGIN SELECT 1; END;") == 0);
   const auto r = verify_all(db, dir);
   CHECK(r.status == 1);
   CHECK_THAT(r.err, Catch::Contains("trigger weights_no_delete (on table weights) differs from what plumb's "

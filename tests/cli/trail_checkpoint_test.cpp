@@ -35,8 +35,8 @@ struct SignedLab {
 
 void record_check(const SignedLab& lab, const plumb::test::ScratchDir& dir, const std::string& file,
                   const std::string& on) {
-  const auto r = run_plumb({"--db", lab.db.string(), "check", "record", "BAL-A", "--weight", "W100", "--readings",
-                            file, "--on", on, "--by", "A. Technician"},
+  const auto r = run_plumb({"--db", lab.db.string(), "check", "record", "BAL-A", "--weight", "W100", "--readings", file,
+                            "--on", on, "--by", "A. Technician"},
                            dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
@@ -80,8 +80,10 @@ long long query(const fs::path& db, const std::string& sql) {
 
 /// The checkpoint covering the audit record of `table` `key`, found with SQL alone.
 long long covering_checkpoint(const fs::path& db, const std::string& table, const std::string& key) {
-  return query(db, "SELECT min(number) FROM checkpoints WHERE records >= (SELECT seq FROM audit_log WHERE "
-                   "table_name = '" + table + "' AND row_key = '" + key + "')");
+  return query(db,
+               "SELECT min(number) FROM checkpoints WHERE records >= (SELECT seq FROM audit_log WHERE "
+               "table_name = '" +
+                   table + "' AND row_key = '" + key + "')");
 }
 
 /// The insider's edit left a chain that checks out record by record (so only the signed checkpoints can tell).
@@ -120,8 +122,7 @@ TEST_CASE("a fresh lab signs every command and an inspector verifies a copy with
                         Catch::Contains("the public key " + lab.public_key.string()));
 
   // The certificate names the checkpoint that covers it (the one signed by the command that issued it).
-  const auto shown =
-      run_plumb({"--db", lab.db.string(), "certificate", "show", "3", "--format", "json"}, dir.path());
+  const auto shown = run_plumb({"--db", lab.db.string(), "certificate", "show", "3", "--format", "json"}, dir.path());
   REQUIRE(shown.status == 0);
   const json cp = json::parse(shown.out)["trail_checkpoint"];
   const long long expected = covering_checkpoint(lab.db, "certificates", "id=1");
@@ -159,8 +160,10 @@ TEST_CASE("checkpoint: a run deleted from the middle with the later records renu
   const long long seq = query(copy, "SELECT seq FROM audit_log WHERE table_name = 'check_runs' AND row_key = 'id=2'");
   const long long checkpoint = covering_checkpoint(copy, "check_runs", "id=2");
   plumb::test::insider_rewrite(copy, [seq](SQLite::Database& d) {
-    d.exec("DELETE FROM readings WHERE run_id = 2; DELETE FROM run_weights WHERE run_id = 2; "
-           "DELETE FROM check_runs WHERE id = 2; DELETE FROM audit_log WHERE seq = " + std::to_string(seq));
+    d.exec(
+        "DELETE FROM readings WHERE run_id = 2; DELETE FROM run_weights WHERE run_id = 2; "
+        "DELETE FROM check_runs WHERE id = 2; DELETE FROM audit_log WHERE seq = " +
+        std::to_string(seq));
     // One at a time, in order, so that no two records share a number meanwhile.
     SQLite::Statement later(d, "SELECT seq FROM audit_log WHERE seq > ? ORDER BY seq");
     later.bind(1, seq);
@@ -177,7 +180,8 @@ TEST_CASE("checkpoint: a run deleted from the middle with the later records renu
   CHECK_THAT(r.out, Catch::Contains("but the trail holds only"));
 }
 
-TEST_CASE("checkpoint: a trail record backdated with the chain recomputed is named", "[cli][audit][checkpoint][attack]") {
+TEST_CASE("checkpoint: a trail record backdated with the chain recomputed is named",
+          "[cli][audit][checkpoint][attack]") {
   plumb::test::ScratchDir dir;
   const auto lab = lab_with_runs(dir);
   const auto copy = scratch_copy(lab, dir);
@@ -216,13 +220,15 @@ TEST_CASE("checkpoint: an approval forged at the end of the trail is not covered
   const long long records = query(copy, "SELECT count(*) FROM audit_log");
   const long long checkpoints = query(copy, "SELECT count(*) FROM checkpoints");
   const auto forge = [](SQLite::Database& d) {
-    d.exec("INSERT INTO certificate_events (id, certificate_id, event, by_name, meaning, recorded_at, os_user) VALUES "
-           "(1, 1, 'approved', 'Q. Manager', 'reviewed and approved', '2026-12-02T10:00:00Z', 'qm')");
-    d.exec("INSERT INTO audit_log (seq, at, os_user, actor, action, table_name, row_key, after_json, prev_hash, hash) "
-           "SELECT max(seq) + 1, '2026-12-02T10:00:00Z', 'qm', 'Q. Manager', 'insert', 'certificate_events', 'id=1', "
-           "'{\"id\":1,\"certificate_id\":1,\"event\":\"approved\",\"by_name\":\"Q. Manager\",\"meaning\":\"reviewed "
-           "and approved\",\"replaced_by\":null,\"reason\":null,\"recorded_at\":\"2026-12-02T10:00:00Z\",\"os_user\":"
-           "\"qm\"}', '', '' FROM audit_log");
+    d.exec(
+        "INSERT INTO certificate_events (id, certificate_id, event, by_name, meaning, recorded_at, os_user) VALUES "
+        "(1, 1, 'approved', 'Q. Manager', 'reviewed and approved', '2026-12-02T10:00:00Z', 'qm')");
+    d.exec(
+        "INSERT INTO audit_log (seq, at, os_user, actor, action, table_name, row_key, after_json, prev_hash, hash) "
+        "SELECT max(seq) + 1, '2026-12-02T10:00:00Z', 'qm', 'Q. Manager', 'insert', 'certificate_events', 'id=1', "
+        "'{\"id\":1,\"certificate_id\":1,\"event\":\"approved\",\"by_name\":\"Q. Manager\",\"meaning\":\"reviewed "
+        "and approved\",\"replaced_by\":null,\"reason\":null,\"recorded_at\":\"2026-12-02T10:00:00Z\",\"os_user\":"
+        "\"qm\"}', '', '' FROM audit_log");
   };
   SECTION("with no checkpoint after it") {
     plumb::test::insider_rewrite(copy, forge);
@@ -236,8 +242,9 @@ TEST_CASE("checkpoint: an approval forged at the end of the trail is not covered
   SECTION("with a checkpoint copied from the last one and moved on to cover it") {
     plumb::test::insider_rewrite(copy, [&](SQLite::Database& d) {
       forge(d);
-      d.exec("INSERT INTO checkpoints SELECT number + 1, records + 1, (SELECT hash FROM audit_log ORDER BY seq DESC "
-             "LIMIT 1), signed_at, covers, public_key, signature FROM checkpoints ORDER BY number DESC LIMIT 1");
+      d.exec(
+          "INSERT INTO checkpoints SELECT number + 1, records + 1, (SELECT hash FROM audit_log ORDER BY seq DESC "
+          "LIMIT 1), signed_at, covers, public_key, signature FROM checkpoints ORDER BY number DESC LIMIT 1");
     });
     require_consistent_chain(copy);
     const auto r = verify(copy, lab, dir);
@@ -265,9 +272,10 @@ TEST_CASE("checkpoint: the last records deleted with their rows are caught by an
   CHECK(verify(copy, lab, dir, {"--since", kept.string()}).status == 0);
   const long long seq = query(copy, "SELECT seq FROM audit_log WHERE table_name = 'check_runs' AND row_key = 'id=4'");
   plumb::test::insider_rewrite(copy, [seq](SQLite::Database& d) {
-    d.exec("DELETE FROM readings WHERE run_id = 4; DELETE FROM run_weights WHERE run_id = 4; "
-           "DELETE FROM check_runs WHERE id = 4; DELETE FROM audit_log WHERE seq >= " + std::to_string(seq) +
-           "; DELETE FROM checkpoints WHERE records >= " + std::to_string(seq));
+    d.exec(
+        "DELETE FROM readings WHERE run_id = 4; DELETE FROM run_weights WHERE run_id = 4; "
+        "DELETE FROM check_runs WHERE id = 4; DELETE FROM audit_log WHERE seq >= " +
+        std::to_string(seq) + "; DELETE FROM checkpoints WHERE records >= " + std::to_string(seq));
   });
   require_consistent_chain(copy);
   r = verify(copy, lab, dir, {"--since", kept.string()});
@@ -316,8 +324,8 @@ TEST_CASE("a command without the lab's key is refused with the database unchange
   const auto lab = lab_with_runs(dir);
   fs::rename(dir.file("lab.db.key"), dir.file("elsewhere.key"));
   const std::string before = plumb::test::dump_database(lab.db);
-  auto r = run_plumb({"--db", lab.db.string(), "check", "record", "BAL-A", "--weight", "W100", "--readings",
-                      "pass.csv", "--on", "2026-12-04", "--by", "A. Technician"},
+  auto r = run_plumb({"--db", lab.db.string(), "check", "record", "BAL-A", "--weight", "W100", "--readings", "pass.csv",
+                      "--on", "2026-12-04", "--by", "A. Technician"},
                      dir.path());
   CHECK(r.status == 2);
   CHECK(r.out.empty());
@@ -351,16 +359,25 @@ TEST_CASE("a database from before checkpoints is signed when its key is created"
       version = n;
     }
     d.exec("PRAGMA user_version = " + std::to_string(version));
-    d.exec("INSERT INTO lab (id, name, created_at, created_by) VALUES (1, 'Old Lab', '2025-06-01T09:00:00Z', "
-           "'Q. Manager')");
-    const json row = {{"id", 1}, {"name", "Old Lab"}, {"created_at", "2025-06-01T09:00:00Z"}, {"created_by", "Q. Manager"}};
-    const json record = {{"seq", 1},        {"at", "2025-06-01T09:00:00Z"}, {"os_user", "qm"},
-                         {"actor", "Q. Manager"}, {"action", "insert"},      {"table_name", "lab"},
-                         {"row_key", "id=1"},  {"before_json", nullptr},     {"after_json", row.dump()},
+    d.exec(
+        "INSERT INTO lab (id, name, created_at, created_by) VALUES (1, 'Old Lab', '2025-06-01T09:00:00Z', "
+        "'Q. Manager')");
+    const json row = {
+        {"id", 1}, {"name", "Old Lab"}, {"created_at", "2025-06-01T09:00:00Z"}, {"created_by", "Q. Manager"}};
+    const json record = {{"seq", 1},
+                         {"at", "2025-06-01T09:00:00Z"},
+                         {"os_user", "qm"},
+                         {"actor", "Q. Manager"},
+                         {"action", "insert"},
+                         {"table_name", "lab"},
+                         {"row_key", "id=1"},
+                         {"before_json", nullptr},
+                         {"after_json", row.dump()},
                          {"reason", nullptr}};
-    SQLite::Statement q(d, "INSERT INTO audit_log (seq, at, os_user, actor, action, table_name, row_key, after_json, "
-                           "prev_hash, hash) VALUES (1, '2025-06-01T09:00:00Z', 'qm', 'Q. Manager', 'insert', 'lab', "
-                           "'id=1', ?, ?, ?)");
+    SQLite::Statement q(d,
+                        "INSERT INTO audit_log (seq, at, os_user, actor, action, table_name, row_key, after_json, "
+                        "prev_hash, hash) VALUES (1, '2025-06-01T09:00:00Z', 'qm', 'Q. Manager', 'insert', 'lab', "
+                        "'id=1', ?, ?, ?)");
     q.bind(1, row.dump());
     q.bind(2, std::string(64, '0'));
     q.bind(3, plumb::test::documented_audit_hash(std::string(64, '0'), record.dump()));
@@ -383,8 +400,9 @@ TEST_CASE("a database from before checkpoints is signed when its key is created"
   INFO(r.err);
   REQUIRE(r.status == 0);
   CHECK_THAT(r.out, Catch::Contains("Checkpoint 1 signed: it covers the 1 records written before checkpoints."));
-  CHECK(query(db, "SELECT count(*) FROM checkpoints WHERE number = 1 AND records = 1 AND covers = 'records before "
-                  "checkpoints'") == 1);
+  CHECK(query(db,
+              "SELECT count(*) FROM checkpoints WHERE number = 1 AND records = 1 AND covers = 'records before "
+              "checkpoints'") == 1);
   struct stat st {};
   REQUIRE(::stat(dir.file("old.db.key").c_str(), &st) == 0);
   CHECK((st.st_mode & 0777U) == 0600U);
@@ -409,17 +427,18 @@ TEST_CASE("restore records the backup's checkpoint, and a checkpoint kept from b
   REQUIRE(run_plumb({"--db", lab.db.string(), "audit", "checkpoint", "export", "--out", kept.string()}, dir.path())
               .status == 0);
 
-  r = run_plumb({"--db", lab.db.string(), "restore", "safe.db", "--force", "--reason", "disk replaced", "--by",
-                 "Q. Manager"},
-                dir.path());
+  r = run_plumb(
+      {"--db", lab.db.string(), "restore", "safe.db", "--force", "--reason", "disk replaced", "--by", "Q. Manager"},
+      dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
   CHECK_THAT(r.out, Catch::Contains("The restore removes 1 record recorded after the backup") &&
                         Catch::Contains("1 in check_runs") &&
                         Catch::Contains("The backup's last signed checkpoint is " + std::to_string(backup_checkpoint)));
   CHECK(query(lab.db, "SELECT backup_checkpoint FROM restores") == backup_checkpoint);
-  CHECK(query(lab.db, "SELECT count(*) FROM restores r JOIN checkpoints c ON c.number = r.backup_checkpoint AND "
-                      "c.head_hash = r.backup_checkpoint_hash") == 1);
+  CHECK(query(lab.db,
+              "SELECT count(*) FROM restores r JOIN checkpoints c ON c.number = r.backup_checkpoint AND "
+              "c.head_hash = r.backup_checkpoint_hash") == 1);
   CHECK(query(lab.db, "SELECT removed_records FROM restores") == 1);
   // The restore itself is signed: the trail verifies with the public key ...
   CHECK(verify(lab.db, lab, dir).status == 0);

@@ -29,9 +29,12 @@ std::string documented_audit_hash(const std::string& prev_hash, const std::strin
 void edit_recorded_field(SQLite::Database& db, const std::string& table, const std::string& key_column, long long key,
                          const std::string& column, const nlohmann::json& value) {
   SQLite::Statement update(db, "UPDATE \"" + table + "\" SET \"" + column + "\" = ? WHERE \"" + key_column + "\" = ?");
-  if (value.is_null()) update.bind(1);
-  else if (value.is_number_integer()) update.bind(1, value.get<long long>());
-  else update.bind(1, value.get<std::string>());
+  if (value.is_null())
+    update.bind(1);
+  else if (value.is_number_integer())
+    update.bind(1, value.get<long long>());
+  else
+    update.bind(1, value.get<std::string>());
   update.bind(2, key);
   if (update.exec() != 1) throw std::runtime_error("no row " + table + " " + key_column + "=" + std::to_string(key));
 
@@ -86,8 +89,9 @@ void insider_rewrite(const std::filesystem::path& db, const std::function<void(S
   };
   std::vector<Row> rows;
   {
-    SQLite::Statement q(d, "SELECT seq, at, os_user, actor, action, table_name, row_key, before_json, after_json, "
-                           "reason FROM audit_log ORDER BY seq");
+    SQLite::Statement q(d,
+                        "SELECT seq, at, os_user, actor, action, table_name, row_key, before_json, after_json, "
+                        "reason FROM audit_log ORDER BY seq");
     const auto text_or_null = [](const SQLite::Column& c) {
       return c.isNull() ? nlohmann::json() : nlohmann::json(c.getString());
     };

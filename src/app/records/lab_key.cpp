@@ -28,11 +28,13 @@ KeyCreation create_lab_key(store::Database& db, const store::Actor& actor) {
   KeyCreation out;
   const auto key_file = store::key_path_for(db.path());
   if (std::filesystem::exists(key_file))
-    throw InputError(fmt::format("the lab's key \"{}\" exists already; plumb never replaces a key.", key_file.string()));
+    throw InputError(
+        fmt::format("the lab's key \"{}\" exists already; plumb never replaces a key.", key_file.string()));
   if (const auto last = store::latest_checkpoint(db.sql()))
-    throw InputError(fmt::format("database \"{}\" has {} signed checkpoints, signed with key {}; a new key cannot "
-                                 "continue them (set PLUMB_KEY to the file of that key).",
-                                 db.path().string(), last->number, store::key_fingerprint(last->public_key)));
+    throw InputError(
+        fmt::format("database \"{}\" has {} signed checkpoints, signed with key {}; a new key cannot "
+                    "continue them (set PLUMB_KEY to the file of that key).",
+                    db.path().string(), last->number, store::key_fingerprint(last->public_key)));
   store::CreatedFileGuard key_guard(key_file);
   store::CreatedFileGuard public_guard(store::public_key_path_for(key_file));
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
