@@ -35,7 +35,8 @@ std::vector<Command> audit_commands() {
                 return 0;
               }};
   Command verify{
-      "audit", "verify",
+      "audit",
+      "verify",
       "prove the trail: the schema, the hash chain, every signed checkpoint and every table row (exit 1 on any "
       "mismatch)",
       "plumb audit verify --public-key lab.db.pub --since checkpoint-2026-11-30.json",
@@ -48,8 +49,7 @@ std::vector<Command> audit_commands() {
       },
       [](const po::variables_map& vm, Env& env) {
         auto db = env.open();
-        const auto result =
-            app::verify_audit(db, {optional_string(vm, "public-key"), optional_string(vm, "since")});
+        const auto result = app::verify_audit(db, {optional_string(vm, "public-key"), optional_string(vm, "since")});
         const auto& v = result.audit;
         if (v.ok()) {
           fmt::print(env.out,
@@ -57,8 +57,9 @@ std::vector<Command> audit_commands() {
                      "the schema ({} tables, indexes and triggers) is what plumb's migrations create.\n",
                      v.records, v.rows, v.tables, v.schema_objects);
           if (v.last_checkpoint)
-            fmt::print(env.out, "{} signed checkpoints proved with Ed25519 key {} ({}); the last, checkpoint {}, "
-                                "signed {}, covers all {} records.\n",
+            fmt::print(env.out,
+                       "{} signed checkpoints proved with Ed25519 key {} ({}); the last, checkpoint {}, "
+                       "signed {}, covers all {} records.\n",
                        v.checkpoints, v.key_fingerprint, result.key_source, v.last_checkpoint->number,
                        v.last_checkpoint->signed_at, v.last_checkpoint->records);
           if (vm.count("since"))
@@ -74,7 +75,8 @@ std::vector<Command> audit_commands() {
         return 1;
       }};
   Command checkpoint{
-      "audit", "checkpoint",
+      "audit",
+      "checkpoint",
       "export the latest signed checkpoint (count, head hash, time, signature) to keep outside the database",
       "plumb audit checkpoint export --out /mnt/safe/checkpoint-2026-11-30.json",
       [](po::options_description& d, po::positional_options_description& p) {

@@ -2,8 +2,8 @@
 
 #include <SQLiteCpp/Statement.h>
 #include <SQLiteCpp/Transaction.h>
-#include <sqlite3.h>
 #include <fmt/format.h>
+#include <sqlite3.h>
 
 #include <algorithm>
 #include <limits>

@@ -50,12 +50,12 @@ std::string genesis_hash();
 
 struct AuditProblem {
   enum class Kind {
-    missing_record,   ///< a gap in the sequence numbers: audit records were deleted
-    broken_link,      ///< prev_hash is not the hash of the record before: removed, inserted or reordered
-    altered_record,   ///< the record's content does not match its own hash
-    field_mismatch,   ///< a table row differs from what the trail recorded
-    row_missing,      ///< the trail recorded a row that the table no longer has
-    unaudited_row,    ///< a table row that no audit record describes
+    missing_record,    ///< a gap in the sequence numbers: audit records were deleted
+    broken_link,       ///< prev_hash is not the hash of the record before: removed, inserted or reordered
+    altered_record,    ///< the record's content does not match its own hash
+    field_mismatch,    ///< a table row differs from what the trail recorded
+    row_missing,       ///< the trail recorded a row that the table no longer has
+    unaudited_row,     ///< a table row that no audit record describes
     duplicate_record,  ///< two audit records describe the same row
     checkpoint,        ///< a signed checkpoint that is missing, forged, or no longer matches the trail
     unsigned_records,  ///< audit records after the last signed checkpoint
@@ -77,8 +77,8 @@ struct AuditVerification {
   std::string last_hash;          ///< hash of the last record (genesis when the trail is empty)
   std::int64_t checkpoints = 0;   ///< signed checkpoints proved
   std::optional<Checkpoint> last_checkpoint;
-  std::string key_fingerprint;    ///< of the key that signed them (store::key_fingerprint)
-  std::int64_t schema_objects = 0;  ///< tables, indexes and triggers compared with the migrations
+  std::string key_fingerprint;         ///< of the key that signed them (store::key_fingerprint)
+  std::int64_t schema_objects = 0;     ///< tables, indexes and triggers compared with the migrations
   std::vector<AuditProblem> problems;  ///< in trail order; the first is the first thing that went wrong
 
   [[nodiscard]] bool ok() const { return problems.empty(); }

@@ -86,8 +86,8 @@ TEST_CASE("concurrency: audit verify never reports a false difference while two 
           "[cli][concurrency][audit]") {
   plumb::test::ScratchDir dir;
   const auto db = plumb::test::example_lab(dir);
-  REQUIRE(plumb::test::run_plumb({"--db", db.string(), "balance", "add", "BAL-B", "--capacity", "220g",
-                                  "--readability", "0.1mg", "--every", "7d", "--smallest-net", "200mg"},
+  REQUIRE(plumb::test::run_plumb({"--db", db.string(), "balance", "add", "BAL-B", "--capacity", "220g", "--readability",
+                                  "0.1mg", "--every", "7d", "--smallest-net", "200mg"},
                                  dir.path())
               .status == 0);
   dir.write("r.csv",

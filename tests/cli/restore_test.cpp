@@ -124,8 +124,8 @@ TEST_CASE("restore refuses to replace another lab's database unless told so", "[
   CHECK(safety_copies(dir).empty());
 
   // Told so, but the other lab's records are signed with its own key: this lab's key cannot go on signing them.
-  const std::vector<std::string> merge = {"--db",         db,          "restore",  "other-copy.db", "--force",
-                                          "--other-lab",  "--reason",  "site merged into Birch Hollow"};
+  const std::vector<std::string> merge = {
+      "--db", db, "restore", "other-copy.db", "--force", "--other-lab", "--reason", "site merged into Birch Hollow"};
   r = run_plumb(merge, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("set PLUMB_KEY to the file of the backup's key"));

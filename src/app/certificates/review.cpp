@@ -8,8 +8,8 @@
 #include "app/certificates/resolve.hpp"
 #include "app/certificates/state.hpp"
 #include "core/errors.hpp"
-#include "store/repository.hpp"
 #include "store/checkpoints.hpp"
+#include "store/repository.hpp"
 #include "store/status_events.hpp"
 
 namespace plumb::app {
@@ -69,8 +69,11 @@ json certificate_document(store::Database& db, const store::CertificateRecord& c
   // The signed checkpoint that covers the certificate's audit record: with the lab's public key, anyone can prove
   // that the trail holding this certificate is the one the lab signed (doc/audit-trail.md).
   if (const auto cp = store::checkpoint_covering_row(db.sql(), "certificates", fmt::format("id={}", c.id)))
-    doc["trail_checkpoint"] = {{"number", cp->number}, {"records", cp->records}, {"head_hash", cp->head_hash},
-                               {"signed_at", cp->signed_at}, {"key", store::key_fingerprint(cp->public_key)}};
+    doc["trail_checkpoint"] = {{"number", cp->number},
+                               {"records", cp->records},
+                               {"head_hash", cp->head_hash},
+                               {"signed_at", cp->signed_at},
+                               {"key", store::key_fingerprint(cp->public_key)}};
   return doc;
 }
 

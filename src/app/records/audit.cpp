@@ -123,8 +123,9 @@ Verification verify_audit(store::Database& db, const VerifyRequest& request) {
     out.independent_key = true;
   }
   out.key_source = out.independent_key ? options.public_key_source
-                                       : std::string("the key recorded in the database (give --public-key for a proof "
-                                                     "independent of it)");
+                                       : std::string(
+                                             "the key recorded in the database (give --public-key for a proof "
+                                             "independent of it)");
   if (request.since) {
     options.since = store::read_checkpoint_file(*request.since, "--since");
     options.since_source = *request.since;
@@ -137,9 +138,10 @@ store::Checkpoint export_checkpoint(store::Database& db, const std::filesystem::
   if (file.empty()) throw InputError("--out must name the file to write the checkpoint to.");
   const auto last = store::latest_checkpoint(db.sql());
   if (!last)
-    throw InputError(fmt::format("database \"{}\" has no signed checkpoint yet; create the lab's key with `plumb key "
-                                 "create`.",
-                                 db.path().string()));
+    throw InputError(
+        fmt::format("database \"{}\" has no signed checkpoint yet; create the lab's key with `plumb key "
+                    "create`.",
+                    db.path().string()));
   store::write_whole_file(file, store::checkpoint_json(*last).dump(2) + "\n", "checkpoint");
   std::filesystem::permissions(file, std::filesystem::perms::owner_read | std::filesystem::perms::owner_write);
   return *last;

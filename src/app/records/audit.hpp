@@ -38,7 +38,7 @@ struct VerifyRequest {
 
 struct Verification {
   store::AuditVerification audit;
-  std::string key_source;  ///< which key the checkpoints were proved with, for the user
+  std::string key_source;        ///< which key the checkpoints were proved with, for the user
   bool independent_key = false;  ///< that key came from outside the database
 };
 

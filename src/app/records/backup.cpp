@@ -129,10 +129,11 @@ void require_same_lab(const RestoreRequest& r, const std::optional<store::LabIde
 void require_backup_key(const RestoreRequest& r, const std::optional<store::Checkpoint>& backup_checkpoint,
                         const std::string& key, const std::filesystem::path& key_file) {
   if (!backup_checkpoint || backup_checkpoint->public_key == key) return;
-  throw InputError(fmt::format("backup \"{}\" was signed with key {}, but the key for database \"{}\" ({}) is key {}; "
-                               "set PLUMB_KEY to the file of the backup's key.",
-                               r.file.string(), store::key_fingerprint(backup_checkpoint->public_key),
-                               r.db_path.string(), key_file.string(), store::key_fingerprint(key)));
+  throw InputError(
+      fmt::format("backup \"{}\" was signed with key {}, but the key for database \"{}\" ({}) is key {}; "
+                  "set PLUMB_KEY to the file of the backup's key.",
+                  r.file.string(), store::key_fingerprint(backup_checkpoint->public_key), r.db_path.string(),
+                  key_file.string(), store::key_fingerprint(key)));
 }
 
 void record_restore(store::Database& restored, const store::Actor& actor, const RestoreRequest& r,
@@ -140,25 +141,26 @@ void record_restore(store::Database& restored, const store::Actor& actor, const 
   SQLite::Transaction tx(restored.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   store::Recorder rec(restored.sql(), actor);
   const auto& d = out.difference;
-  rec.insert("restores",
-             {{"backup_file", std::filesystem::absolute(r.file).lexically_normal().string()},
-              {"backup_sha256", backup_sha256},
-              {"backup_records", d.second_records},
-              {"backup_last_hash", d.second_last_hash.empty() ? store::genesis_hash() : d.second_last_hash},
-              {"replaced_records", out.replaced_existing ? store::Value(d.first_records) : store::Value()},
-              {"replaced_last_hash",
-               out.replaced_existing && !d.first_last_hash.empty() ? store::Value(d.first_last_hash) : store::Value()},
-              {"common_records", d.common},
-              {"removed_records", out.replaced_existing ? d.first_only() : std::int64_t{0}},
-              {"safety_copy", out.replaced_existing ? store::Value(out.previous_saved.string()) : store::Value()},
-              {"reason", r.reason},
-              {"by_name", actor.name},
-              {"recorded_at", rec.now()},
-              {"os_user", actor.os_user},
-              {"backup_checkpoint", out.backup_checkpoint ? store::Value(out.backup_checkpoint->number) : store::Value()},
-              {"backup_checkpoint_hash",
-               out.backup_checkpoint ? store::Value(out.backup_checkpoint->head_hash) : store::Value()}},
-             {"id"}, r.reason);
+  rec.insert(
+      "restores",
+      {{"backup_file", std::filesystem::absolute(r.file).lexically_normal().string()},
+       {"backup_sha256", backup_sha256},
+       {"backup_records", d.second_records},
+       {"backup_last_hash", d.second_last_hash.empty() ? store::genesis_hash() : d.second_last_hash},
+       {"replaced_records", out.replaced_existing ? store::Value(d.first_records) : store::Value()},
+       {"replaced_last_hash",
+        out.replaced_existing && !d.first_last_hash.empty() ? store::Value(d.first_last_hash) : store::Value()},
+       {"common_records", d.common},
+       {"removed_records", out.replaced_existing ? d.first_only() : std::int64_t{0}},
+       {"safety_copy", out.replaced_existing ? store::Value(out.previous_saved.string()) : store::Value()},
+       {"reason", r.reason},
+       {"by_name", actor.name},
+       {"recorded_at", rec.now()},
+       {"os_user", actor.os_user},
+       {"backup_checkpoint", out.backup_checkpoint ? store::Value(out.backup_checkpoint->number) : store::Value()},
+       {"backup_checkpoint_hash",
+        out.backup_checkpoint ? store::Value(out.backup_checkpoint->head_hash) : store::Value()}},
+      {"id"}, r.reason);
   rec.commit(tx);
 }
 

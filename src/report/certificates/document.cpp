@@ -105,8 +105,7 @@ Document certificate_document(const json& c, const std::string& content_sha256) 
   doc.blocks.push_back(std::move(s));
   if (c.contains("caution") && !cell(c, "caution").empty() && cell(c, "caution") != "-")
     doc.blocks.push_back(Paragraph{"Caution: " + cell(c, "caution"), false, true});
-  doc.footer = "Content SHA-256 " + content_sha256 +
-               trail_checkpoint_note(c) +
+  doc.footer = "Content SHA-256 " + content_sha256 + trail_checkpoint_note(c) +
                ". This PDF is a rendering of the stored certificate; the stored record is authoritative.";
   return doc;
 }
