@@ -5,10 +5,11 @@
 
 #include <nlohmann/json.hpp>
 
-#include "app/certificates/pdf.hpp"
 #include "app/certificates/issue.hpp"
-#include "app/history/html_report.hpp"
+#include "app/certificates/pdf.hpp"
+#include "app/certificates/review.hpp"
 #include "app/demo/demo_lab.hpp"
+#include "app/history/html_report.hpp"
 #include "app/status/due.hpp"
 #include "cli/command_groups.hpp"
 #include "cli/progress.hpp"
@@ -53,7 +54,10 @@ std::vector<Command> demo_commands() {
                    report::certificate_text(cert.certificate.content, cert.certificate.content_sha256));
         // The same certificate as PDF, and the lab's HTML history report, beside the database.
         const std::filesystem::path pdf = path.string() + ".certificate.pdf", html = path.string() + ".report.html";
-        app::write_certificate_pdf(cert.certificate, pdf);
+        auto shown = cert.certificate;  // the PDF footer names the signed checkpoint covering it
+        shown.content["trail_checkpoint"] =
+            app::certificate_document(db, cert.certificate).value("trail_checkpoint", nlohmann::json());
+        app::write_certificate_pdf(shown, pdf);
         app::write_history_report(db, {html, std::nullopt, summary.report_on});
         fmt::print(env.out, "\nAlso written: {} (the certificate as PDF) and {} (HTML history report).\n",
                    pdf.string(), html.string());
