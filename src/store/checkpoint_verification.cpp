@@ -25,6 +25,10 @@ std::string range_text(std::int64_t first, std::int64_t last) {
   return first == last ? fmt::format("audit record {}", first) : fmt::format("audit records {}-{}", first, last);
 }
 
+std::string deleted_text(std::int64_t first, std::int64_t last) {
+  return range_text(first, last) + (first == last ? " was" : " were");
+}
+
 std::string checkpoint_text(const Checkpoint& c) {
   return fmt::format("checkpoint {} (signed {}, covering {} audit records)", c.number, c.signed_at, c.records);
 }
@@ -91,9 +95,9 @@ void check_since(const Checkpoint& kept, const std::optional<Checkpoint>& in_db,
   if (kept.records > trail)
     out.problems.push_back(checkpoint_problem(
         seq, kept.signed_at,
-        fmt::format("{} of {} covers {} audit records, but the trail holds only {}: {} were deleted.",
+        fmt::format("{} of {} covers {} audit records, but the trail holds only {}: {} deleted.",
                     checkpoint_text(kept), options.since_source, kept.records, trail,
-                    range_text(trail + 1, kept.records))));
+                    deleted_text(trail + 1, kept.records))));
   else if (hash_at(records, kept.records) != kept.head_hash)
     out.problems.push_back(checkpoint_problem(
         seq, kept.signed_at,
@@ -132,16 +136,16 @@ void verify_checkpoints(SQLite::Database& db, const std::vector<AuditRecord>& re
       } else if (c.records > trail) {
         out.problems.push_back(
             checkpoint_problem(seq, c.signed_at,
-                               fmt::format("{} covers {} audit records, but the trail holds only {}: {} were deleted.",
-                                           checkpoint_text(c), c.records, trail, range_text(trail + 1, c.records))));
+                               fmt::format("{} covers {} audit records, but the trail holds only {}: {} deleted.",
+                                           checkpoint_text(c), c.records, trail, deleted_text(trail + 1, c.records))));
       } else if (!rewritten && hash_at(records, c.records) != c.head_hash) {
         rewritten = true;
         out.problems.push_back(checkpoint_problem(
             seq, c.signed_at,
-            fmt::format("{} no longer matches the trail: {} ({}) are not what it signed; the records were rewritten "
+            fmt::format("{} no longer matches the trail: {} ({}) {} not what it signed; the records were rewritten "
                         "and the hash chain recomputed.",
                         checkpoint_text(c), range_text(covered + 1, std::max(c.records, covered + 1)),
-                        records_named(records, covered + 1, c.records))));
+                        records_named(records, covered + 1, c.records), c.records > covered + 1 ? "are" : "is")));
       }
       covered = std::max(covered, c.records);
       expected = c.number + 1;

@@ -126,6 +126,6 @@ wait "$v"
   CHECK(std::stoi(slurp(dir.file("verifies.txt"))) >= 2);
   SQLite::Database sql(db.string(), SQLite::OPEN_READONLY);
   CHECK(sql.execAndGet("SELECT count(*) FROM check_runs").getInt() == 24);
-  // Every command signed its own checkpoint: 4 of the setup, 1 balance, 24 checks.
+  // Every command signed its own checkpoint: 3 of the example lab, 1 balance, 24 checks.
   CHECK(sql.execAndGet("SELECT count(*) FROM checkpoints").getInt() == 4 + 24);
 }
