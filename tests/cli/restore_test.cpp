@@ -177,7 +177,8 @@ TEST_CASE("safety copies of restores in the same second get names of their own, 
     CHECK(std::regex_search(m.string(), std::regex("Z-[0-9]+$")));                      // a taken name with a counter
     CHECK(run_plumb({"--db", m.string(), "audit", "verify"}, dir.path()).status == 0);  // a whole database
   }
-  // A database restored where there was none is the owner's only, too.
+  // A database restored where there was none is the owner's only, too (the lab's key comes along to sign it).
+  fs::copy_file(dir.file("lab.db.key"), dir.file("new.db.key"));
   REQUIRE(run_plumb({"--db", "new.db", "restore", "copy.db", "--reason", "new lab PC"}, dir.path()).status == 0);
   CHECK(mode_of(dir.file("new.db")) == 0600U);
 }

@@ -129,7 +129,7 @@ TEST_CASE("a fresh lab signs every command and an inspector verifies a copy with
   CHECK(cp["number"] == expected);
   SQLite::Database d(lab.db.string(), SQLite::OPEN_READONLY);
   SQLite::Statement q(d, "SELECT records, head_hash FROM checkpoints WHERE number = ?");
-  q.bind(1, expected);
+  q.bind(1, static_cast<std::int64_t>(expected));
   REQUIRE(q.executeStep());
   CHECK(cp["records"] == q.getColumn(0).getInt64());
   CHECK(cp["head_hash"] == q.getColumn(1).getString());
@@ -166,7 +166,7 @@ TEST_CASE("checkpoint: a run deleted from the middle with the later records renu
         std::to_string(seq));
     // One at a time, in order, so that no two records share a number meanwhile.
     SQLite::Statement later(d, "SELECT seq FROM audit_log WHERE seq > ? ORDER BY seq");
-    later.bind(1, seq);
+    later.bind(1, static_cast<std::int64_t>(seq));
     std::vector<long long> seqs;
     while (later.executeStep()) seqs.push_back(later.getColumn(0).getInt64());
     for (long long s : seqs) d.exec("UPDATE audit_log SET seq = seq - 1 WHERE seq = " + std::to_string(s));

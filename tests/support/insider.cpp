@@ -32,10 +32,10 @@ void edit_recorded_field(SQLite::Database& db, const std::string& table, const s
   if (value.is_null())
     update.bind(1);
   else if (value.is_number_integer())
-    update.bind(1, value.get<long long>());
+    update.bind(1, value.get<std::int64_t>());
   else
     update.bind(1, value.get<std::string>());
-  update.bind(2, key);
+  update.bind(2, static_cast<std::int64_t>(key));
   if (update.exec() != 1) throw std::runtime_error("no row " + table + " " + key_column + "=" + std::to_string(key));
 
   SQLite::Statement q(db, "SELECT seq, action, after_json FROM audit_log WHERE after_json LIKE ? ORDER BY seq");
@@ -114,7 +114,7 @@ void insider_rewrite(const std::filesystem::path& db, const std::function<void(S
     const std::string hash = documented_audit_hash(prev, r.record.dump());
     update.bind(1, prev);
     update.bind(2, hash);
-    update.bind(3, r.seq);
+    update.bind(3, static_cast<std::int64_t>(r.seq));
     update.exec();
     update.reset();
     prev = hash;
