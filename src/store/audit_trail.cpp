@@ -267,11 +267,11 @@ AuditVerification verify_audit_trail(SQLite::Database& db, const VerifyOptions& 
                                         u.table, u.key)});
 
   // Trail order: the first problem is the earliest record that went wrong; unaudited rows come last.
-  // Schema problems (seq 0) come after the trail's, with the unaudited rows: the changed row is the news, a dropped
-  // trigger only how it was done.
+  // Schema problems come last of all: the changed row is the news, a dropped trigger only how it was done.
   std::stable_sort(out.problems.begin(), out.problems.end(), [](const AuditProblem& a, const AuditProblem& b) {
     const auto order = [](const AuditProblem& p) {
-      return p.seq == 0 ? std::numeric_limits<std::int64_t>::max() : p.seq;
+      constexpr auto last = std::numeric_limits<std::int64_t>::max();
+      return p.kind == AuditProblem::Kind::schema ? last : p.seq == 0 ? last - 1 : p.seq;
     };
     return order(a) < order(b);
   });

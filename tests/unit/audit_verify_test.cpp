@@ -134,8 +134,9 @@ std::string text_of(const SQLite::Column& c) { return c.isInteger() ? std::to_st
 
 std::vector<std::string> audited_tables(SQLite::Database& db) {
   std::vector<std::string> out;
-  SQLite::Statement q(db, "SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%' AND "
-                          "name <> 'audit_log' ORDER BY name");
+  SQLite::Statement q(db,
+                      "SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%' AND "
+                      "name NOT IN ('audit_log', 'checkpoints') ORDER BY name");  // checkpoints are proved apart
   while (q.executeStep()) out.push_back(q.getColumn(0).getString());
   return out;
 }

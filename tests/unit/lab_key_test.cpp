@@ -25,7 +25,7 @@ const std::string signature2 =
 
 /// A PKCS#8 PEM of a raw Ed25519 secret key: the fixed DER prefix of RFC 8410 section 7, then the 32 bytes.
 std::string pkcs8_pem(const std::string& secret_hex) {
-  std::string der = "\x30\x2e\x02\x01\x00\x30\x05\x06\x03\x2b\x65\x70\x04\x22\x04\x20";
+  std::string der("\x30\x2e\x02\x01\x00\x30\x05\x06\x03\x2b\x65\x70\x04\x22\x04\x20", 16);  // holds a NUL
   for (std::size_t i = 0; i < secret_hex.size(); i += 2)
     der += static_cast<char>(std::stoi(secret_hex.substr(i, 2), nullptr, 16));
   unsigned char b64[128] = {};
