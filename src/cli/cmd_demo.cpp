@@ -6,8 +6,8 @@
 #include <nlohmann/json.hpp>
 
 #include "app/certificates/issue.hpp"
-#include "app/certificates/review.hpp"
 #include "app/certificates/pdf.hpp"
+#include "app/certificates/review.hpp"
 #include "app/demo/demo_lab.hpp"
 #include "app/history/html_report.hpp"
 #include "app/status/due.hpp"

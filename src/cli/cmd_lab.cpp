@@ -2,6 +2,7 @@
 
 #include "app/registry/lab.hpp"
 #include "cli/command_groups.hpp"
+#include "store/lab_key.hpp"
 
 namespace plumb::cli {
 
@@ -17,6 +18,11 @@ std::vector<Command> lab_commands() {
                [](const po::variables_map& vm, Env& env) {
                  app::create_lab(env.db_path, Env::actor(vm), vm["lab"].as<std::string>());
                  fmt::print(env.out, "Initialised {} for {}.\n", env.db_path.string(), vm["lab"].as<std::string>());
+                 const auto key = store::key_path_for(env.db_path);
+                 fmt::print(env.out,
+                            "Every command's records are signed with the lab's key {}; give inspectors "
+                            "its public key {}.\n",
+                            key.string(), store::public_key_path_for(key).string());
                  return 0;
                }};
   return {init};

@@ -22,6 +22,7 @@ std::vector<Command> demo_commands();
 std::vector<Command> service_commands();
 std::vector<Command> instrument_commands();
 std::vector<Command> audit_commands();
+std::vector<Command> key_commands();
 std::vector<Command> backup_commands();
 std::vector<Command> import_commands();
 std::vector<Command> report_commands();

@@ -279,7 +279,13 @@ TEST_CASE("backup copies a verified database and restore puts it back, refusing 
   CHECK(plumb::test::dump_database(dir.file("copy.db")) == plumb::test::dump_database(db));
   CHECK(run_plumb({"--db", db, "backup", "copy.db"}, dir.path()).status == 2);  // exists: needs --force
 
-  // Restore into a fresh path, then over the live database (which is saved first).
+  // Restore into a fresh path, then over the live database (which is saved first). The restore is signed, so the
+  // lab's key must come along to the new path (doc/audit-trail.md): without it nothing is written.
+  r = run_plumb({"--db", "fresh.db", "restore", "copy.db", "--reason", "new lab PC"}, dir.path());
+  CHECK(r.status == 2);
+  CHECK_THAT(r.err, Catch::Contains("fresh.db.key"));
+  CHECK_FALSE(std::filesystem::exists(dir.file("fresh.db")));
+  std::filesystem::copy_file(dir.file("lab.db.key"), dir.file("fresh.db.key"));
   r = run_plumb({"--db", "fresh.db", "restore", "copy.db", "--reason", "new lab PC"}, dir.path());
   REQUIRE(r.status == 0);
   CHECK(run_plumb({"--db", "fresh.db", "audit", "verify"}, dir.path()).status == 0);

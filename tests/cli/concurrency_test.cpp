@@ -79,3 +79,53 @@ wait "$r"
   // and its 10 readings together).
   CHECK(audit.rows == 7 + 2 * per_writer);
 }
+
+// audit verify reads one snapshot: while two writers record checks, every verification in a loop must pass (before
+// it read in one transaction, 5 runs in 8 reported a run "written outside plumb"). Bounded: 12 checks a writer.
+TEST_CASE("concurrency: audit verify never reports a false difference while two writers record checks",
+          "[cli][concurrency][audit]") {
+  plumb::test::ScratchDir dir;
+  const auto db = plumb::test::example_lab(dir);
+  REQUIRE(plumb::test::run_plumb({"--db", db.string(), "balance", "add", "BAL-B", "--capacity", "220g", "--readability",
+                                  "0.1mg", "--every", "7d", "--smallest-net", "200mg"},
+                                 dir.path())
+              .status == 0);
+  dir.write("r.csv",
+            "reading\n100.0003\n100.0001\n100.0002\n100.0004\n100.0002\n100.0003\n100.0001\n100.0002\n"
+            "100.0003\n100.0002\n");
+  dir.write("verify-race.sh", R"(set -u
+plumb="$1"; db="$2"; n="$3"
+writer() {
+  for i in $(seq 1 "$n"); do
+    "$plumb" --db "$db" check record "$1" --weight W100 --readings r.csv --on 2026-11-30 --by "Writer $1" \
+      >/dev/null 2>>"err-$1.txt" || echo "$i" >>"failed-$1.txt"
+  done
+}
+verifier() {
+  runs=0
+  while [ ! -e writers.done ]; do
+    "$plumb" --db "$db" audit verify >/dev/null 2>>err-verify.txt || echo x >>failed-verify.txt
+    runs=$((runs + 1))
+  done
+  echo "$runs" >verifies.txt
+}
+verifier & v=$!
+writer BAL-A & a=$!
+writer BAL-B & b=$!
+wait "$a" "$b"
+touch writers.done
+wait "$v"
+)");
+  const std::string cmd = "cd '" + dir.path().string() + "' && bash verify-race.sh '" +
+                          plumb::test::plumb_binary().string() + "' '" + db.string() + "' 12";
+  REQUIRE(std::system(cmd.c_str()) == 0);
+  for (const char* who : {"BAL-A", "BAL-B", "verify"}) {
+    INFO(who << ": " << slurp(dir.file(std::string("err-") + who + ".txt")));
+    CHECK_FALSE(std::filesystem::exists(dir.file(std::string("failed-") + who + ".txt")));
+  }
+  CHECK(std::stoi(slurp(dir.file("verifies.txt"))) >= 2);
+  SQLite::Database sql(db.string(), SQLite::OPEN_READONLY);
+  CHECK(sql.execAndGet("SELECT count(*) FROM check_runs").getInt() == 24);
+  // Every command signed its own checkpoint: 3 of the example lab, 1 balance, 24 checks.
+  CHECK(sql.execAndGet("SELECT count(*) FROM checkpoints").getInt() == 4 + 24);
+}

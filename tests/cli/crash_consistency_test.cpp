@@ -60,7 +60,8 @@ std::string integrity(const std::filesystem::path& db) {
 }
 
 void copy_database(const std::filesystem::path& from, const std::filesystem::path& to) {
-  for (const char* suffix : {"", "-wal", "-shm"}) {
+  // The lab's signing key goes with the copy (DB.key beside it), or the copy could not be written to.
+  for (const char* suffix : {"", "-wal", "-shm", ".key"}) {
     std::filesystem::remove(to.string() + suffix);
     if (std::filesystem::exists(from.string() + suffix))
       std::filesystem::copy_file(from.string() + suffix, to.string() + suffix);

@@ -6,6 +6,7 @@
 #include <sys/stat.h>
 
 #include <chrono>
+#include <cstdlib>
 #include <fstream>
 #include <nlohmann/json.hpp>
 #include <regex>
@@ -122,14 +123,22 @@ TEST_CASE("restore refuses to replace another lab's database unless told so", "[
   CHECK(plumb::test::dump_database(db) == before);
   CHECK(safety_copies(dir).empty());
 
-  // Told so: the other lab's records replace these, every one of them counted as removed.
-  r = run_plumb(
-      {"--db", db, "restore", "other-copy.db", "--force", "--other-lab", "--reason", "site merged into Birch Hollow"},
-      dir.path());
+  // Told so, but the other lab's records are signed with its own key: this lab's key cannot go on signing them.
+  const std::vector<std::string> merge = {
+      "--db", db, "restore", "other-copy.db", "--force", "--other-lab", "--reason", "site merged into Birch Hollow"};
+  r = run_plumb(merge, dir.path());
+  CHECK(r.status == 2);
+  CHECK_THAT(r.err, Catch::Contains("set PLUMB_KEY to the file of the backup's key"));
+  CHECK(plumb::test::dump_database(db) == before);
+  // With the other lab's key: its records replace these, every one of them counted as removed.
+  ::setenv("PLUMB_KEY", (dir.path() / "other.db.key").c_str(), 1);
+  r = run_plumb(merge, dir.path());
+  const auto verified = run_plumb({"--db", db, "audit", "verify"}, dir.path());
+  ::unsetenv("PLUMB_KEY");
   INFO(r.err);
   REQUIRE(r.status == 0);
   CHECK_THAT(r.out, Catch::Contains("removes 5 records"));  // the trails share nothing, not even the lab record
-  CHECK(run_plumb({"--db", db, "audit", "verify"}, dir.path()).status == 0);
+  CHECK(verified.status == 0);
   r = run_plumb({"--db", db, "weight", "list", "--format", "json"}, dir.path());
   CHECK(json::parse(r.out).empty());
 }
@@ -168,7 +177,8 @@ TEST_CASE("safety copies of restores in the same second get names of their own, 
     CHECK(std::regex_search(m.string(), std::regex("Z-[0-9]+$")));                      // a taken name with a counter
     CHECK(run_plumb({"--db", m.string(), "audit", "verify"}, dir.path()).status == 0);  // a whole database
   }
-  // A database restored where there was none is the owner's only, too.
+  // A database restored where there was none is the owner's only, too (the lab's key comes along to sign it).
+  fs::copy_file(dir.file("lab.db.key"), dir.file("new.db.key"));
   REQUIRE(run_plumb({"--db", "new.db", "restore", "copy.db", "--reason", "new lab PC"}, dir.path()).status == 0);
   CHECK(mode_of(dir.file("new.db")) == 0600U);
 }

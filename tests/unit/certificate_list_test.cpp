@@ -79,7 +79,7 @@ TEST_CASE("a withdrawn certificate is listed as withdrawn, leaves the queue and 
     SQLite::Transaction tx(db.sql());
     store::Recorder rec(db.sql(), quality);
     store::add_certificate_withdrawal(rec, first.id, "run 1 entered against the wrong balance");
-    tx.commit();
+    rec.commit(tx);  // signed like every command
   }
 
   const auto withdrawn = app::list_certificates(db, {std::string("withdrawn"), {}, {}, {}});

@@ -273,7 +273,7 @@ store::RunRecord record_calibration(store::Database& db, const store::Actor& act
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   store::Recorder rec(db.sql(), actor);
   const std::int64_t id = record_calibration_in(db, rec, in);
-  tx.commit();
+  rec.commit(tx);
   return *store::find_run(db.sql(), id);
 }
 

@@ -79,7 +79,7 @@ IssueOutcome issue_certificate(store::Database& db, const store::Actor& actor, c
                                  run_id, newer->id, newer->reason, newer->id));
   store::Recorder rec(db.sql(), actor);
   const auto cert = issue_certificate_in(db, rec, run_id, layout, std::nullopt);
-  tx.commit();
+  rec.commit(tx);
   return {cert, false};
 }
 

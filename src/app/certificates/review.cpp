@@ -8,6 +8,7 @@
 #include "app/certificates/resolve.hpp"
 #include "app/certificates/state.hpp"
 #include "core/errors.hpp"
+#include "store/checkpoints.hpp"
 #include "store/repository.hpp"
 #include "store/status_events.hpp"
 
@@ -72,6 +73,14 @@ json certificate_document(store::Database& db, const store::CertificateRecord& c
   json doc = c.content;
   doc["content_sha256"] = c.content_sha256;
   doc["status"] = certificate_status(db, c);
+  // The signed checkpoint that covers the certificate's audit record: with the lab's public key, anyone can prove
+  // that the trail holding this certificate is the one the lab signed (doc/audit-trail.md).
+  if (const auto cp = store::checkpoint_covering_row(db.sql(), "certificates", fmt::format("id={}", c.id)))
+    doc["trail_checkpoint"] = {{"number", cp->number},
+                               {"records", cp->records},
+                               {"head_hash", cp->head_hash},
+                               {"signed_at", cp->signed_at},
+                               {"key", store::key_fingerprint(cp->public_key)}};
   return doc;
 }
 
@@ -110,7 +119,7 @@ store::CertificateRecord approve_certificate(store::Database& db, const store::A
   e.by_name = actor.name;
   e.meaning = meaning;
   store::add_certificate_event(rec, e);
-  tx.commit();
+  rec.commit(tx);
   return cert;
 }
 

@@ -181,7 +181,7 @@ store::RunRecord record_pipette_check(store::Database& db, const store::Actor& a
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   store::Recorder rec(db.sql(), actor);
   const std::int64_t id = record_pipette_check_in(db, rec, in);
-  tx.commit();
+  rec.commit(tx);
   return *store::find_run(db.sql(), id);
 }
 

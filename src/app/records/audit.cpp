@@ -9,6 +9,9 @@
 #include "core/dates.hpp"
 #include "core/errors.hpp"
 #include "store/audit_trail.hpp"
+#include "store/checkpoints.hpp"
+#include "store/file_output.hpp"
+#include "store/lab_key.hpp"
 #include "store/repository.hpp"
 
 namespace plumb::app {
@@ -107,6 +110,41 @@ AuditLog audit_log(store::Database& db, const AuditLogFilter& filter) {
   return log;
 }
 
-store::AuditVerification verify_audit(store::Database& db) { return store::verify_audit_trail(db.sql()); }
+Verification verify_audit(store::Database& db, const VerifyRequest& request) {
+  store::VerifyOptions options;
+  Verification out;
+  if (request.public_key) {
+    options.public_key = store::read_public_key_file(*request.public_key, "--public-key");
+    options.public_key_source = fmt::format("the public key {}", *request.public_key);
+    out.independent_key = true;
+  } else if (const auto key_file = store::key_path_for(db.path()); std::filesystem::exists(key_file)) {
+    options.public_key = store::LabKey::load(key_file).public_hex();
+    options.public_key_source = fmt::format("the lab's key file {}", key_file.string());
+    out.independent_key = true;
+  }
+  out.key_source = out.independent_key ? options.public_key_source
+                                       : std::string(
+                                             "the key recorded in the database (give --public-key for a proof "
+                                             "independent of it)");
+  if (request.since) {
+    options.since = store::read_checkpoint_file(*request.since, "--since");
+    options.since_source = *request.since;
+  }
+  out.audit = store::verify_audit_trail(db.sql(), options);
+  return out;
+}
+
+store::Checkpoint export_checkpoint(store::Database& db, const std::filesystem::path& file) {
+  if (file.empty()) throw InputError("--out must name the file to write the checkpoint to.");
+  const auto last = store::latest_checkpoint(db.sql());
+  if (!last)
+    throw InputError(
+        fmt::format("database \"{}\" has no signed checkpoint yet; create the lab's key with `plumb key "
+                    "create`.",
+                    db.path().string()));
+  store::write_whole_file(file, store::checkpoint_json(*last).dump(2) + "\n", "checkpoint");
+  std::filesystem::permissions(file, std::filesystem::perms::owner_read | std::filesystem::perms::owner_write);
+  return *last;
+}
 
 }  // namespace plumb::app

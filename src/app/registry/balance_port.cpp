@@ -76,7 +76,7 @@ store::BalancePort set_balance_port(store::Database& db, const store::Actor& act
   p.reason = in.reason;
   store::Recorder rec(db.sql(), actor);
   p.id = store::add_balance_port(rec, p);
-  tx.commit();
+  rec.commit(tx);
   return *store::current_balance_port(db.sql(), in.balance_id);
 }
 

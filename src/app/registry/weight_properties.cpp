@@ -108,7 +108,7 @@ store::WeightProperties set_weight_properties(store::Database& db, const store::
   store::WeightProperties p = parse_weight_properties(in, *w, store::weight_properties_in_force(db.sql(), id));
   store::Recorder rec(db.sql(), actor);
   p.id = store::add_weight_properties(rec, p);
-  tx.commit();
+  rec.commit(tx);
   return *store::weight_properties_in_force(db.sql(), id);
 }
 

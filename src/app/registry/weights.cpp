@@ -46,7 +46,7 @@ store::WeightRecord add_weight(store::Database& db, const store::Actor& actor, c
     store::add_weight_class_override(rec, *override_record);
   }
   if (properties) store::add_weight_properties(rec, *properties);
-  tx.commit();
+  rec.commit(tx);
   return *store::find_weight(db.sql(), w.id);
 }
 
@@ -74,7 +74,7 @@ RecalibrationOutcome recalibrate_weight(store::Database& db, const store::Actor&
     out.overridden = override_record->beyond;
     store::add_weight_class_override(rec, *override_record);
   }
-  tx.commit();
+  rec.commit(tx);
   history = store::weight_certificates(db.sql(), id);
   const store::WeightCalibration* today = certificate_in_force(history, today_utc());
   out.in_force_today = today && today->id == out.weight.current.id;

@@ -323,7 +323,7 @@ CorrectionOutcome correct_check(store::Database& db, const store::Actor& actor, 
     store::add_certificate_event(rec, e);
     out.superseded_certificate = old;
   }
-  tx.commit();
+  rec.commit(tx);
   return out;
 }
 

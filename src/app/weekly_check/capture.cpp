@@ -186,7 +186,7 @@ store::RunRecord WeeklyCapture::record(const store::Actor& actor) {
   const std::int64_t id = record_check_in(rec, lookups, in, [&](store::RowGroup& group, std::int64_t run_id) {
                             store::add_raw_lines(group, run_id, lines_);
                           }).run_id;
-  tx.commit();
+  rec.commit(tx);
   return *store::find_run(db_.sql(), id);
 }
 

@@ -16,7 +16,7 @@ store::RunRecord record_check(store::Database& db, const store::Actor& actor, co
   store::Recorder rec(db.sql(), actor);
   CheckLookups lookups(db);
   const std::int64_t id = record_check_in(rec, lookups, in).run_id;
-  tx.commit();
+  rec.commit(tx);
   return *store::find_run(db.sql(), id);
 }
 

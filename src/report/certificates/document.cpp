@@ -5,6 +5,7 @@
 #include <algorithm>
 
 #include "checks/procedure.hpp"
+#include "report/certificates/trail_checkpoint_note.hpp"
 #include "report/history/charts.hpp"
 
 #include "report/certificates/status_text.hpp"
@@ -184,7 +185,7 @@ Document certificate_document(const json& shown) {
   doc.blocks.push_back(signatures_of(c, status));
   if (c.contains("caution") && !cell(c, "caution").empty() && cell(c, "caution") != "-")
     doc.blocks.push_back(Paragraph{"Caution: " + cell(c, "caution"), false, true});
-  doc.footer = "Content SHA-256 " + cell(c, "content_sha256") +
+  doc.footer = "Content SHA-256 " + cell(c, "content_sha256") + trail_checkpoint_note(c) +
                ". This is a rendering of the stored certificate; the stored record is authoritative.";
   return doc;
 }
