@@ -8,7 +8,7 @@
 namespace plumb::report {
 namespace {
 
-constexpr const char* css = R"(
+constexpr const char* certificate_css = R"(
 body { font-family: "DejaVu Sans", sans-serif; color: #1d2733; max-width: 52em; margin: 1.5em auto; padding: 0 1em;
        line-height: 1.35; }
 header.lab { display: flex; justify-content: space-between; border-bottom: 2px solid #1d2733; padding-bottom: .5em; }
@@ -48,7 +48,8 @@ class HtmlFlow {
     out_ =
         "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n"
         "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n";
-    out_ += fmt::format("<title>{} {}</title>\n<style>{}</style>\n</head>\n<body>\n", e(h.title), e(h.number), css);
+    out_ += fmt::format("<title>{} {}</title>\n<style>{}</style>\n</head>\n<body>\n", e(h.title), e(h.number),
+                        certificate_css);
     if (!h.watermark.empty()) {
       out_ += fmt::format("<div class=\"watermark\" aria-hidden=\"true\">{}</div>\n", e(h.watermark));
       out_ += fmt::format("<p class=\"mark\">{}</p>\n", e(h.watermark + ": " + h.status));
