@@ -48,6 +48,18 @@ void balance_block(const json& c, Document& doc) {
                                ? fmt::format("{:.5f} mg (run {}), suitable per ISO 8655-6 Table 1",
                                              rb["repeatability_g"].get<double>() * 1e3, cell(rb, "repeatability_run"))
                                : "-"}}});
+  // The balance calibration whose U(E) stands for the balance in the uncertainty budget, or why none does.
+  KeyValues cal;
+  if (bal.contains("calibration_run") && !bal["calibration_run"].is_null())
+    cal.rows.emplace_back(
+        "Balance calibration in the budget",
+        fmt::format("calibration run {}, certificate {}", cell(bal, "calibration_run"),
+                    bal.contains("calibration_certificate") && bal["calibration_certificate"].is_string()
+                        ? bal["calibration_certificate"].get<std::string>()
+                        : "not issued"));
+  else if (bal.contains("calibration_absent"))
+    cal.rows.emplace_back("Balance calibration in the budget", cell(bal, "calibration_absent"));
+  if (!cal.rows.empty()) doc.blocks.push_back(std::move(cal));
   Table t{{"Reference weight", "Nominal", "Class", "Conventional mass", "U (k)", "Certificate", "Calibrated", "Due"},
           {1.0, 0.7, 0.5, 1.3, 1.2, 1.1, 0.9, 0.9},
           {false, true, false, true, true, false, false, false},
