@@ -19,6 +19,7 @@
 #include "report/runs/json.hpp"
 #include "report/runs/text.hpp"
 #include "store/repository.hpp"
+#include "store/users.hpp"
 
 namespace plumb::cli {
 namespace {
@@ -97,10 +98,10 @@ int record_weekly_check(const po::variables_map& vm, Env& env, const std::string
   in.default_unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
   in.readings_csv = read_input(vm["readings"].as<std::string>(), in.readings_source);
   in.on = date_performed(vm);
-  if (!vm.count("by")) throw InputError("--by must name the operator who performed the check.");
-  in.operator_name = vm["by"].as<std::string>();
   auto db = env.open();
-  const auto run = app::record_check(db, Env::actor(vm), in);
+  const auto actor = env.actor(db);
+  in.operator_name = actor.name;  // the authenticated user performed it
+  const auto run = app::record_check(db, actor, in);
   return print_and_gate(run, vm, format, env);
 }
 
@@ -110,15 +111,15 @@ int record_calibration(const po::variables_map& vm, Env& env, const std::string&
   in.default_unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
   in.readings_csv = read_input(vm["readings"].as<std::string>(), in.readings_source);
   in.on = date_performed(vm);
-  if (!vm.count("by")) throw InputError("--by must name the operator who performed the calibration.");
-  in.operator_name = vm["by"].as<std::string>();
   in.temperature_c = optional_string(vm, "temperature");
   in.pressure_hpa = optional_string(vm, "pressure");
   in.humidity_pct = optional_string(vm, "humidity");
   in.air_formula = vm["air-formula"].as<std::string>();
   in.model = vm["model"].as<std::string>();
   auto db = env.open();
-  const auto run = app::record_calibration(db, Env::actor(vm), in);
+  const auto actor = env.actor(db);
+  in.operator_name = actor.name;
+  const auto run = app::record_calibration(db, actor, in);
   return print_and_gate(run, vm, format, env);
 }
 
@@ -140,10 +141,10 @@ int record_pipette(const po::variables_map& vm, Env& env, const std::string& for
   in.default_unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
   in.readings_csv = read_input(vm["readings"].as<std::string>(), in.readings_source);
   in.on = date_performed(vm);
-  if (!vm.count("by")) throw InputError("--by must name the operator who performed the check.");
-  in.operator_name = vm["by"].as<std::string>();
   auto db = env.open();
-  const auto run = app::record_pipette_check(db, Env::actor(vm), in);
+  const auto actor = env.actor(db);
+  in.operator_name = actor.name;
+  const auto run = app::record_pipette_check(db, actor, in);
   return print_and_gate(run, vm, format, env);
 }
 
@@ -188,7 +189,6 @@ std::vector<Command> check_commands() {
             "on", po::value<std::string>(), "date performed, YYYY-MM-DD (default today, the local date)")(
             "gate", po::bool_switch(), "exit with status 1 when the check fails");
         add_format_option(d);
-        add_by_option(d, "the operator who performed the check");
         p.add("instrument", 1);
       },
       [](const po::variables_map& vm, Env& env) {
@@ -240,7 +240,7 @@ std::vector<Command> check_commands() {
             "readings", po::value<std::string>(), "corrected readings CSV (default: the run's readings); - for stdin")(
             "unit", po::value<std::string>()->default_value("g"), "unit of readings without a unit column")(
             "on", po::value<std::string>(), "corrected date performed, YYYY-MM-DD")(
-            "operator", po::value<std::string>(), "corrected name of the operator who performed the check")(
+            "operator", po::value<std::string>(), "user id of the operator who performed the check, when that was wrong")(
             "weight", po::value<std::vector<std::string>>(), "repeatability: corrected reference weight id")(
             "temperature", po::value<std::string>(), "calibration: corrected air temperature, degC")(
             "pressure", po::value<std::string>(), "calibration and gravimetric: corrected air pressure, hPa")(
@@ -255,20 +255,18 @@ std::vector<Command> check_commands() {
             "layout", po::value<std::string>(), "layout of the replacement certificate (default: that of the one it "
                                                 "replaces)");
         add_format_option(d);
-        add_by_option(d, "the person making the correction");
         p.add("run", 1);
       },
       [](const po::variables_map& vm, Env& env) {
         const auto format = format_of(vm, {"text", "json"});
         if (!vm.count("reason")) throw InputError("--reason must say why the run is corrected (it is kept with the correction).");
-        if (!vm.count("by")) throw InputError("--by must name the person making the correction.");
         app::CorrectionInput in;
         in.run = vm["run"].as<std::string>();
         in.reason = vm["reason"].as<std::string>();
         if (vm.count("readings")) in.readings_csv = read_input(vm["readings"].as<std::string>(), in.readings_source);
         in.default_unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
         in.on = optional_string(vm, "on");
-        in.operator_name = optional_string(vm, "operator");
+        const auto operator_id = optional_string(vm, "operator");
         if (vm.count("weight")) in.weight_ids = vm["weight"].as<std::vector<std::string>>();
         for (const std::string_view option : checks::procedure_options()) {
           const std::string name(option);
@@ -276,7 +274,12 @@ std::vector<Command> check_commands() {
         }
         in.layout_path = optional_string(vm, "layout");
         auto db = env.open();
-        const auto out = app::correct_check(db, Env::actor(vm), in);
+        if (operator_id) {
+          const auto user = store::find_user_by_login(db.sql(), *operator_id);
+          if (!user) throw InputError(fmt::format("--operator \"{}\" is not a user id of this lab.", *operator_id));
+          in.operator_name = user->full_name;
+        }
+        const auto out = app::correct_check(db, env.actor(db), in);
         if (format == "json") {
           nlohmann::json j = {{"original", report::run_json(out.original)},
                               {"correction", report::run_json(out.correction)},
@@ -304,15 +307,13 @@ std::vector<Command> check_commands() {
         d.add_options()("run", po::value<std::string>()->required(), "run number or LAST (positional)")(
             "reason", po::value<std::string>(), "why the run is void (required; kept with the run)");
         add_format_option(d);
-        add_by_option(d, "the person voiding the run");
         p.add("run", 1);
       },
       [](const po::variables_map& vm, Env& env) {
         const auto format = format_of(vm, {"text", "json"});
         if (!vm.count("reason")) throw InputError("--reason must say why the run is void (it is kept with the run).");
-        if (!vm.count("by")) throw InputError("--by must name the person voiding the run.");
         auto db = env.open();
-        const auto out = app::void_run(db, Env::actor(vm), vm["run"].as<std::string>(), vm["reason"].as<std::string>());
+        const auto out = app::void_run(db, env.actor(db), vm["run"].as<std::string>(), vm["reason"].as<std::string>());
         if (format == "json") {
           nlohmann::json j = {{"run", report::run_json(out.run)},
                               {"withdrawn_certificate", out.withdrawn_certificate

@@ -84,7 +84,6 @@ Command recalibrate_command() {
                 "dcc-schema", po::value<std::string>(),
                 "the DCC 3.1.2 XSD to validate --from-dcc against, its D-SI import local (default: $PLUMB_DCC_SCHEMA)");
             add_override_reason_option(d);
-            add_by_option(d);
             p.add("id", 1);
           },
           [](const po::variables_map& vm, Env& env) {
@@ -92,8 +91,8 @@ Command recalibrate_command() {
             const auto typed = from_dcc ? app::WeightCertificateInput{} : typed_certificate(vm);
             const auto dcc = from_dcc ? dcc_input(vm) : app::WeightDccInput{};
             auto db = env.open();
-            const auto out = from_dcc ? app::recalibrate_weight_from_dcc(db, Env::actor(vm), vm["id"].as<std::string>(), dcc)
-                                      : app::recalibrate_weight(db, Env::actor(vm), vm["id"].as<std::string>(), typed);
+            const auto out = from_dcc ? app::recalibrate_weight_from_dcc(db, env.actor(db), vm["id"].as<std::string>(), dcc)
+                                      : app::recalibrate_weight(db, env.actor(db), vm["id"].as<std::string>(), typed);
             const auto& w = out.weight;
             fmt::print(env.out, "Weight {} recalibrated: certificate {} ({} to {}), conventional mass {} g{}.\n", w.id,
                        w.current.certificate_no, to_string(w.current.calibrated_on), to_string(w.current.due_on),
@@ -150,7 +149,6 @@ std::vector<Command> weight_commands() {
                     "density", po::value<std::string>(),
                     "density with its unit, e.g. 7950kg/m3 (default: 8000kg/m3, conventional)");
                 add_override_reason_option(d);
-                add_by_option(d);
                 p.add("id", 1);
               },
               [](const po::variables_map& vm, Env& env) {
@@ -167,7 +165,7 @@ std::vector<Command> weight_commands() {
                 in.density = optional_string(vm, "density");
                 in.override_reason = optional_string(vm, "override-reason");
                 auto db = env.open();
-                const auto w = app::add_weight(db, Env::actor(vm), in);
+                const auto w = app::add_weight(db, env.actor(db), in);
                 fmt::print(env.out, "Weight {} registered: conventional mass {} g (certificate {}, due {}).\n", w.id,
                            w.conventional_mass().in_grams().to_string(), w.current.certificate_no,
                            to_string(w.current.due_on));

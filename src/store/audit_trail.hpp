@@ -24,6 +24,7 @@ struct AuditRecord {
   std::optional<std::string> reason;
   std::string prev_hash;
   std::string hash;
+  std::optional<std::int64_t> user_id;  ///< the account that wrote it; none before user accounts
 
   /// The fields the hash covers, as the Recorder wrote them (everything but the two hashes).
   [[nodiscard]] nlohmann::json hashed_content() const;
@@ -54,7 +55,8 @@ struct AuditProblem {
     field_mismatch,   ///< a table row differs from what the trail recorded
     row_missing,      ///< the trail recorded a row that the table no longer has
     unaudited_row,    ///< a table row that no audit record describes
-    duplicate_record  ///< two audit records describe the same row
+    duplicate_record,  ///< two audit records describe the same row
+    signature_mismatch  ///< a signature no longer matches the record it names (store/signature_check.hpp)
   };
   Kind kind = Kind::altered_record;
   std::int64_t seq = 0;  ///< the audit record concerned (0 for an unaudited row)

@@ -42,7 +42,7 @@ TEST_CASE("audit log prints one readable line per record, decimals with their un
   const auto db = plumb::test::example_lab(dir).string();
   dir.write("r.csv", readings);
   REQUIRE(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
-                     "2026-11-30", "--by", "A. Technician"},
+                     "2026-11-30", "--as", "A. Technician"},
                     dir.path())
               .status == 0);
   const auto r = run_plumb({"--db", db, "audit", "log"}, dir.path());
@@ -68,7 +68,7 @@ TEST_CASE("audit log filters by date and by person", "[cli][audit-log]") {
   const auto db = plumb::test::example_lab(dir).string();
   dir.write("r.csv", readings);
   REQUIRE(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
-                     "2026-11-30", "--by", "A. Technician"},
+                     "2026-11-30", "--as", "A. Technician"},
                     dir.path())
               .status == 0);
   const auto count = [&](const std::vector<std::string>& filter) {
@@ -84,9 +84,9 @@ TEST_CASE("audit log filters by date and by person", "[cli][audit-log]") {
   CHECK(count({"--from", utc_date(-1), "--to", utc_date(0)}) == 6);
   CHECK(count({"--from", utc_date(1)}) == 0);
   CHECK(count({"--to", utc_date(-2)}) == 0);
-  CHECK(count({"--by", "A. Technician"}) == 1);
-  CHECK(count({"--by", "Nobody Here"}) == 0);
-  CHECK(count({"--instrument", "BAL-A", "--by", "A. Technician"}) == 1);
+  CHECK(count({"--as", "A. Technician"}) == 1);
+  CHECK(count({"--as", "Nobody Here"}) == 0);
+  CHECK(count({"--instrument", "BAL-A", "--as", "A. Technician"}) == 1);
 
   const auto r = run_plumb({"--db", db, "audit", "log", "--by", "A. Technician", "--from", utc_date(-1)}, dir.path());
   REQUIRE(r.status == 0);
@@ -101,7 +101,7 @@ TEST_CASE("a name with a line break cannot forge an audit line", "[cli][audit-lo
   dir.write("r.csv", readings);
   const std::string forged = "A. Technician\n#99     2026-12-01 09:00  Q. Manager  approved certificate id 1";
   const auto rec = run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
-                              "2026-11-30", "--by", forged},
+                              "2026-11-30", "--as", forged},
                              dir.path());
   // Refused at the door (a control character in a name) or recorded as given: either way not as a second record.
   REQUIRE((rec.status == 0 || rec.status == 2));

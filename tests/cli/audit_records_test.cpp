@@ -35,14 +35,14 @@ TEST_CASE("a correction supersedes the run and its certificate and keeps both vi
   dir.write("typed.csv", failing_readings);
   dir.write("fixed.csv", passing_readings);
   REQUIRE(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "typed.csv", "--on",
-                     "2026-11-30", "--by", "A. Technician"},
+                     "2026-11-30", "--as", "A. Technician"},
                     dir.path())
               .status == 0);
-  REQUIRE(run_plumb({"--db", db, "certificate", "issue", "1", "--by", "Q. Manager"}, dir.path()).status == 0);
+  REQUIRE(run_plumb({"--db", db, "certificate", "issue", "1", "--as", "Q. Manager"}, dir.path()).status == 0);
   const std::string old_number = number_of_certificate(db, dir, "1");
 
   auto r = run_plumb({"--db", db, "check", "correct", "1", "--readings", "fixed.csv", "--reason",
-                      "readings typed from the wrong worksheet", "--by", "Q. Manager", "--format", "json"},
+                      "readings typed from the wrong worksheet", "--as", "Q. Manager", "--format", "json"},
                      dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
@@ -124,7 +124,7 @@ TEST_CASE("a correction supersedes the run and its certificate and keeps both vi
   CHECK(due["items"][0]["due_on"] == "2026-12-07");
 
   // A superseded run cannot be corrected again, nor certified.
-  r = run_plumb({"--db", db, "check", "correct", "1", "--on", "2026-11-29", "--reason", "x", "--by", "Q. Manager"},
+  r = run_plumb({"--db", db, "check", "correct", "1", "--on", "2026-11-29", "--reason", "x", "--as", "Q. Manager"},
                 dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("already corrected by run 2"));
@@ -136,17 +136,17 @@ TEST_CASE("a certificate is a draft until someone other than its operator approv
   const auto db = plumb::test::example_lab(dir).string();
   dir.write("r.csv", passing_readings);
   REQUIRE(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
-                     "2026-11-30", "--by", "A. Technician"},
+                     "2026-11-30", "--as", "A. Technician"},
                     dir.path())
               .status == 0);
-  REQUIRE(run_plumb({"--db", db, "certificate", "issue", "LAST", "--by", "A. Technician"}, dir.path()).status == 0);
+  REQUIRE(run_plumb({"--db", db, "certificate", "issue", "LAST", "--as", "A. Technician"}, dir.path()).status == 0);
   const std::string number = number_of_certificate(db, dir, "1");
   auto r = run_plumb({"--db", db, "certificate", "show", number}, dir.path());
   CHECK_THAT(r.out, Catch::Contains("STATUS: DRAFT") && Catch::Contains("Not approved yet"));
 
   // The operator cannot approve their own check (names compared ignoring case and spacing).
   const std::string before = plumb::test::dump_database(db);
-  r = run_plumb({"--db", db, "certificate", "approve", number, "--by", "a.  technician", "--meaning",
+  r = run_plumb({"--db", db, "certificate", "approve", number, "--as", "a.  technician", "--meaning",
                  "reviewed and approved"},
                 dir.path());
   CHECK(r.status == 2);
@@ -154,7 +154,7 @@ TEST_CASE("a certificate is a draft until someone other than its operator approv
   CHECK_THAT(r.err, Catch::Contains("someone other than its operator"));
   CHECK(plumb::test::dump_database(db) == before);
 
-  r = run_plumb({"--db", db, "certificate", "approve", number, "--by", "Q. Manager", "--meaning",
+  r = run_plumb({"--db", db, "certificate", "approve", number, "--as", "Q. Manager", "--meaning",
                  "reviewed and approved", "--format", "json"},
                 dir.path());
   INFO(r.err);
@@ -170,7 +170,7 @@ TEST_CASE("a certificate is a draft until someone other than its operator approv
 
   // Approved means final: a second approval is refused and nothing is written.
   const std::string approved_dump = plumb::test::dump_database(db);
-  r = run_plumb({"--db", db, "certificate", "approve", number, "--by", "R. Reviewer", "--meaning", "checked"},
+  r = run_plumb({"--db", db, "certificate", "approve", number, "--as", "R. Reviewer", "--meaning", "checked"},
                 dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("already approved by Q. Manager"));
@@ -182,8 +182,8 @@ TEST_CASE("a retired balance or weight is not due and takes no new checks until 
   const auto db = plumb::test::example_lab(dir).string();
   dir.write("r.csv", passing_readings);
   const std::vector<std::string> check = {"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings",
-                                          "r.csv", "--on", "2026-11-30", "--by", "A. Technician"};
-  auto r = run_plumb({"--db", db, "instrument", "retire", "BAL-A", "--reason", "replaced by a newer balance", "--by",
+                                          "r.csv", "--on", "2026-11-30", "--as", "A. Technician"};
+  auto r = run_plumb({"--db", db, "instrument", "retire", "BAL-A", "--reason", "replaced by a newer balance", "--as",
                       "Q. Manager"},
                      dir.path());
   REQUIRE(r.status == 0);
@@ -204,11 +204,11 @@ TEST_CASE("a retired balance or weight is not due and takes no new checks until 
   r = run_plumb(check, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("BAL-A was retired") && Catch::Contains("replaced by a newer balance"));
-  REQUIRE(run_plumb({"--db", db, "instrument", "reinstate", "BAL-A", "--reason", "needed again", "--by", "Q. Manager"},
+  REQUIRE(run_plumb({"--db", db, "instrument", "reinstate", "BAL-A", "--reason", "needed again", "--as", "Q. Manager"},
                     dir.path())
               .status == 0);
 
-  REQUIRE(run_plumb({"--db", db, "weight", "retire", "W100", "--reason", "dropped on the floor", "--by", "Q. Manager"},
+  REQUIRE(run_plumb({"--db", db, "weight", "retire", "W100", "--reason", "dropped on the floor", "--as", "Q. Manager"},
                     dir.path())
               .status == 0);
   r = run_plumb({"--db", db, "due", "--all", "--on", "2026-12-01", "--format", "json"}, dir.path());
@@ -221,7 +221,7 @@ TEST_CASE("a retired balance or weight is not due and takes no new checks until 
   r = run_plumb(check, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("--weight W100 was retired"));
-  REQUIRE(run_plumb({"--db", db, "weight", "reinstate", "W100", "--reason", "recalibrated", "--by", "Q. Manager"},
+  REQUIRE(run_plumb({"--db", db, "weight", "reinstate", "W100", "--reason", "recalibrated", "--as", "Q. Manager"},
                     dir.path())
               .status == 0);
   CHECK(run_plumb(check, dir.path()).status == 0);
@@ -240,7 +240,7 @@ TEST_CASE("audit verify exits 1 naming what the sqlite3 shell changed", "[cli][a
   const auto db = plumb::test::example_lab(dir).string();
   dir.write("r.csv", passing_readings);
   REQUIRE(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
-                     "2026-11-30", "--by", "A. Technician"},
+                     "2026-11-30", "--as", "A. Technician"},
                     dir.path())
               .status == 0);
   auto r = run_plumb({"--db", db, "audit", "verify"}, dir.path());
@@ -265,7 +265,7 @@ TEST_CASE("backup copies a verified database and restore puts it back, refusing 
   const auto db = plumb::test::example_lab(dir).string();
   dir.write("r.csv", passing_readings);
   REQUIRE(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
-                     "2026-11-30", "--by", "A. Technician"},
+                     "2026-11-30", "--as", "A. Technician"},
                     dir.path())
               .status == 0);
   auto r = run_plumb({"--db", db, "backup", "copy.db"}, dir.path());
@@ -282,7 +282,7 @@ TEST_CASE("backup copies a verified database and restore puts it back, refusing 
   REQUIRE(r.status == 0);
   CHECK(run_plumb({"--db", "fresh.db", "audit", "verify"}, dir.path()).status == 0);
   REQUIRE(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
-                     "2026-12-01", "--by", "A. Technician"},
+                     "2026-12-01", "--as", "A. Technician"},
                     dir.path())
               .status == 0);
   CHECK(run_plumb({"--db", db, "restore", "copy.db", "--reason", "test"}, dir.path()).status == 2);  // needs --force

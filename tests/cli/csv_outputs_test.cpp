@@ -35,7 +35,7 @@ TEST_CASE("CSV outputs keep awkward text whole and disarm spreadsheet formulas",
             "reading\n100.0003\n100.0001\n100.0002\n100.0002\n100.0003\n100.0001\n100.0002\n100.0004\n"
             "100.0002\n100.0003\n");
   REQUIRE(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
-                     "2026-11-02", "--by", formula_operator},
+                     "2026-11-02", "--as", formula_operator},
                     dir.path())
               .status == 0);
 

@@ -39,7 +39,7 @@ TEST_CASE("history import records validated runs once and reports them", "[cli][
   const auto db = plumb::test::example_lab(dir).string();
   dir.write("history.csv", history());
 
-  auto r = run_plumb({"--db", db, "check", "import", "history.csv", "--by", "Q. Manager", "--format", "json"},
+  auto r = run_plumb({"--db", db, "check", "import", "history.csv", "--as", "Q. Manager", "--format", "json"},
                      dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
@@ -72,7 +72,7 @@ TEST_CASE("history import records validated runs once and reports them", "[cli][
 
   // The same file again is refused, and nothing changes.
   const std::string before = plumb::test::dump_database(db);
-  r = run_plumb({"--db", db, "check", "import", "history.csv", "--by", "Q. Manager"}, dir.path());
+  r = run_plumb({"--db", db, "check", "import", "history.csv", "--as", "Q. Manager"}, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("already imported as batch 1"));
   CHECK(plumb::test::dump_database(db) == before);

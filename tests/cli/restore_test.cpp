@@ -67,10 +67,10 @@ TEST_CASE("a restore is recorded in the restored trail with what it removed", "[
   // After the backup: two weights (a weight and its certificate each) and one retirement: 5 records.
   REQUIRE(run_plumb(add_weight(db, "W1", "1g"), dir.path()).status == 0);
   REQUIRE(run_plumb(add_weight(db, "W2", "2g"), dir.path()).status == 0);
-  REQUIRE(run_plumb({"--db", db, "weight", "retire", "W2", "--reason", "chipped", "--by", "Q. Manager"}, dir.path())
+  REQUIRE(run_plumb({"--db", db, "weight", "retire", "W2", "--reason", "chipped", "--as", "Q. Manager"}, dir.path())
               .status == 0);
 
-  r = run_plumb({"--db", db, "restore", "copy.db", "--force", "--reason", "lab PC disk failed", "--by", "Q. Manager"},
+  r = run_plumb({"--db", db, "restore", "copy.db", "--force", "--reason", "lab PC disk failed", "--as", "Q. Manager"},
                 dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);

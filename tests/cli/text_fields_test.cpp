@@ -28,7 +28,7 @@ TEST_CASE("a line break in --by is refused and cannot forge a line of the audit 
   dir.write("r.csv", readings);
   const std::string forged = "A. Technician\n#999    2026-11-30T09:00:00Z  Head of Quality (OS account root)";
   auto r = run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
-                      "2026-11-30", "--by", forged},
+                      "2026-11-30", "--as", forged},
                      dir.path());
   CHECK(r.status == 2);
   CHECK(r.out.empty());

@@ -57,7 +57,7 @@ TEST_CASE("weight recalibrate --from-dcc records the provider's certificate", "[
   dir.write("NMS-2027-0417.xml", dcc);
 
   auto r = run_plumb({"--db", db, "weight", "recalibrate", "W100", "--from-dcc", "NMS-2027-0417.xml", "--dcc-schema",
-                      schema->string(), "--by", "Q. Manager"},
+                      schema->string(), "--as", "Q. Manager"},
                      dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
@@ -77,7 +77,7 @@ TEST_CASE("weight recalibrate --from-dcc records the provider's certificate", "[
 
   // The same certificate twice is refused, as when typed.
   r = run_plumb({"--db", db, "weight", "recalibrate", "W100", "--from-dcc", "NMS-2027-0417.xml", "--dcc-schema",
-                 schema->string(), "--by", "Q. Manager"},
+                 schema->string(), "--as", "Q. Manager"},
                 dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("NMS-2027-0417") && Catch::Contains("already recorded"));
@@ -115,7 +115,7 @@ TEST_CASE("weight recalibrate --from-dcc: a correction in mg in scientific notat
                  "<dcc:endPerformanceDate>2027-02-18+01:00</dcc:endPerformanceDate>");
   dir.write("cert.xml", dcc);
   const auto r = run_plumb({"--db", db, "weight", "recalibrate", "W100", "--from-dcc", "cert.xml", "--dcc-schema",
-                            schema->string(), "--due", "2027-08-18", "--by", "Q. Manager"},
+                            schema->string(), "--due", "2027-08-18", "--as", "Q. Manager"},
                            dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
@@ -146,7 +146,7 @@ TEST_CASE("weight recalibrate --from-dcc refuses an external entity and reads no
   dir.write("cert.xml", dcc);
   const std::string before = plumb::test::dump_database(db);
   const auto r = run_plumb({"--db", db, "weight", "recalibrate", "W100", "--from-dcc", "cert.xml", "--dcc-schema",
-                            schema->string(), "--by", "Q. Manager"},
+                            schema->string(), "--as", "Q. Manager"},
                            dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("DOCTYPE"));

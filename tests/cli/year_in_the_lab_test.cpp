@@ -49,7 +49,7 @@ public:
     return json::parse(r.out);
   }
   json weekly(const std::string& balance, const std::string& on) const {
-    return json_of({"check", "record", balance, "--weight", "W100", "--readings", "r.csv", "--on", on, "--by",
+    return json_of({"check", "record", balance, "--weight", "W100", "--readings", "r.csv", "--on", on, "--as",
                     "T. Okafor"});
   }
   [[nodiscard]] const plumb::test::ScratchDir& dir() const { return dir_; }
@@ -96,12 +96,12 @@ TEST_CASE("a year in the lab: every lifecycle step, and one standing in every ou
   lab.weekly("BAL-B", "2026-06-29");
 
   // July: W100 is overdue; the weekly check is refused until the new certificate is registered.
-  auto r = lab.run({"check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on", "2026-07-06", "--by",
+  auto r = lab.run({"check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on", "2026-07-06", "--as",
                     "T. Okafor"});
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("W100"));
   lab.ok({"weight", "recalibrate", "W100", "--certificate", "LK-2026-088", "--calibrated", "2026-07-01", "--due",
-          "2027-07-01", "--correction", "0.05mg", "--uncertainty", "0.05mg", "--k", "2", "--by", "M. Haddad"});
+          "2027-07-01", "--correction", "0.05mg", "--uncertainty", "0.05mg", "--k", "2", "--as", "M. Haddad"});
   // By hand: reference 100 g + 0.05 mg = 100.00005 g; bias 100.00023 - 100.00005 = +0.18 mg.
   last = lab.weekly("BAL-A", "2026-07-06");
   CHECK_THAT(last["reference_g"].get<double>(), grams_near(100.00005, ug(0.001)));
@@ -116,37 +116,37 @@ TEST_CASE("a year in the lab: every lifecycle step, and one standing in every ou
   // August: the yearly calibration, certified, then corrected (the room was at 22 degC, not 20).
   const json cal = lab.json_of({"check", "record", "BAL-A", "--procedure", "calibration", "--readings", "cal.csv",
                                 "--temperature", "20C", "--pressure", "1013.25hPa", "--humidity", "50%",
-                                "--air-formula", "oiml-r111", "--on", "2026-08-03", "--by", "T. Okafor"});
+                                "--air-formula", "oiml-r111", "--on", "2026-08-03", "--as", "T. Okafor"});
   CHECK(cal["verdict"] == "pass");
   const std::int64_t cal_run = cal["run_id"].get<std::int64_t>();
-  const json cal_cert = lab.json_of({"certificate", "issue", std::to_string(cal_run), "--by", "M. Haddad"});
+  const json cal_cert = lab.json_of({"certificate", "issue", std::to_string(cal_run), "--as", "M. Haddad"});
   const std::string cal_number = cal_cert["number"].get<std::string>();
   const json corrected = lab.json_of({"check", "correct", std::to_string(cal_run), "--temperature", "22C", "--reason",
-                                      "room temperature transcribed as 20 for 22", "--by", "M. Haddad"});
+                                      "room temperature transcribed as 20 for 22", "--as", "M. Haddad"});
   // OIML R 111-1:2004 E.3-1 at 22 degC, 1013.25 hPa, 50 %: 1.190498 kg/m3 (worked in tests/cli/lifecycle_test.cpp).
   CHECK(corrected["correction"]["environment"]["air_density_kg_m3"].get<double>() == Approx(1.190498).epsilon(2e-6));
   const std::string replacement = corrected["new_certificate"].get<std::string>();
   // The operator of the corrected run may not approve its replacement; a second person does.
-  r = lab.run({"certificate", "approve", replacement, "--meaning", "reviewed and approved", "--by", "T. Okafor"});
+  r = lab.run({"certificate", "approve", replacement, "--meaning", "reviewed and approved", "--as", "T. Okafor"});
   CHECK(r.status == 2);
-  lab.ok({"certificate", "approve", replacement, "--meaning", "reviewed and approved", "--by", "M. Haddad"});
+  lab.ok({"certificate", "approve", replacement, "--meaning", "reviewed and approved", "--as", "M. Haddad"});
 
   // September: BAL-A moves to Room 5; the next certificate says so, the earlier ones keep Room 2.
   lab.ok({"instrument", "update", "BAL-A", "--location", "Room 5", "--from", "2026-09-01", "--reason",
-          "moved to the new weighing room", "--by", "M. Haddad"});
+          "moved to the new weighing room", "--as", "M. Haddad"});
   lab.weekly("BAL-A", "2026-09-07");
-  const json sept = lab.json_of({"certificate", "issue", "LAST", "--by", "M. Haddad"});
+  const json sept = lab.json_of({"certificate", "issue", "LAST", "--as", "M. Haddad"});
   CHECK(sept["instrument"]["location"] == "Room 5");
   CHECK(sept["instrument"]["serial"] == "LW-5521");
-  const json july_cert = lab.json_of({"certificate", "issue", "9", "--by", "M. Haddad"});
+  const json july_cert = lab.json_of({"certificate", "issue", "9", "--as", "M. Haddad"});
   CHECK(july_cert["instrument"]["location"] == "Room 2");
 
   // The check of 2026-09-14 is entered twice; the duplicate, already certified, is voided.
   lab.weekly("BAL-A", "2026-09-14");
   const json dup = lab.weekly("BAL-A", "2026-09-14");
   const std::string dup_run = std::to_string(dup["run_id"].get<std::int64_t>());
-  const json dup_cert = lab.json_of({"certificate", "issue", dup_run, "--by", "M. Haddad"});
-  lab.ok({"check", "void", dup_run, "--reason", "entered twice", "--by", "M. Haddad"});
+  const json dup_cert = lab.json_of({"certificate", "issue", dup_run, "--as", "M. Haddad"});
+  lab.ok({"check", "void", dup_run, "--reason", "entered twice", "--as", "M. Haddad"});
 
   // Certificates as a list, and the queue of drafts.
   const json certs = lab.json_of({"certificate", "list"});
@@ -162,7 +162,7 @@ TEST_CASE("a year in the lab: every lifecycle step, and one standing in every ou
   CHECK(r.out.find(replacement) == std::string::npos);
 
   // October: BAL-B is retired.
-  lab.ok({"instrument", "retire", "BAL-B", "--reason", "replaced by BAL-A", "--by", "M. Haddad"});
+  lab.ok({"instrument", "retire", "BAL-B", "--reason", "replaced by BAL-A", "--as", "M. Haddad"});
 
   // 2026-12-01: BAL-A's last current weekly check is 2026-09-14 (the duplicate is void): overdue since 09-21.
   // Its calibration (the correction of 2026-08-03) is in date until 2027-08-03. BAL-B is retired.

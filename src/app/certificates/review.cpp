@@ -9,7 +9,9 @@
 #include "app/certificates/state.hpp"
 #include "core/errors.hpp"
 #include "store/repository.hpp"
+#include "store/signatures.hpp"
 #include "store/status_events.hpp"
+#include "store/users.hpp"
 
 namespace plumb::app {
 namespace {
@@ -29,6 +31,27 @@ std::string normalized(const std::string& name) {
     out += static_cast<char>(std::tolower(c));
   }
   return out;
+}
+
+/// Separation of duties, by user id: nobody approves the certificate of a run they recorded, nor of a run that
+/// corrects (or was corrected into) one they recorded or corrected. Each run of the correction chain was written by
+/// one account; a run from before user accounts has none, and then its operator's name is compared as before.
+void require_separation_of_duties(store::Database& db, std::int64_t signer, const std::string& signer_name,
+                                  const store::RunRecord& run, const std::string& certificate) {
+  std::optional<store::RunRecord> r = run;
+  while (r) {
+    const auto writer = store::writer_of(db.sql(), "check_runs", fmt::format("id={}", r->id));
+    if (writer && *writer == signer)
+      throw AccessError(fmt::format("{} (user {}) {} check run {} of certificate {}; a certificate must be approved by "
+                                    "someone who neither recorded nor corrected its run.",
+                                    signer_name, signer, r->supersedes ? "recorded the correction" : "recorded", r->id,
+                                    certificate));
+    if (!writer && same_person(signer_name, r->operator_name))
+      throw AccessError(fmt::format("{} performed check run {} of certificate {}; a certificate must be approved by "
+                                    "someone other than its operator.",
+                                    signer_name, r->id, certificate));
+    r = r->supersedes ? store::find_run(db.sql(), *r->supersedes) : std::nullopt;
+  }
 }
 
 }  // namespace
@@ -54,6 +77,13 @@ json certificate_status(store::Database& db, const store::CertificateRecord& c) 
   }
   if (c.supersedes)
     if (auto old = store::find_certificate_by_id(db.sql(), *c.supersedes)) status["replaces"] = old->number;
+  status["signatures"] = json::array();
+  for (const auto& sig : store::signatures_of(db.sql(), "certificates", fmt::format("id={}", c.id)))
+    status["signatures"].push_back({{"name", sig.printed_name},
+                                    {"user_id", sig.user_id},
+                                    {"at", sig.signed_at},
+                                    {"meaning", sig.meaning},
+                                    {"signed_sha256", sig.signed_sha256}});
   if (auto w = store::certificate_withdrawal(db.sql(), c.id))
     status["withdrawn"] = {{"at", w->recorded_at}, {"recorded_by", w->by_name}, {"reason", w->reason}};
   status["state"] = std::string(state_key(certificate_state(
@@ -72,14 +102,11 @@ store::CertificateRecord approve_certificate(store::Database& db, const store::A
                                              const std::string& selector, const std::string& meaning) {
   if (normalized(meaning).empty())
     throw InputError("--meaning must state what the signature means, e.g. \"reviewed and approved\".");
-  if (normalized(actor.name).empty()) throw InputError("--by must name the person approving the certificate.");
+  if (!actor.user_id) throw AccessError("approving a certificate is a signature: it needs an authenticated user.");
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   store::CertificateRecord cert = resolve_certificate(db, selector);
   const store::RunRecord run = *store::find_run(db.sql(), cert.run_id);
-  if (same_person(actor.name, run.operator_name))
-    throw InputError(fmt::format("--by \"{}\" performed check run {} of certificate {}; a certificate must be "
-                                 "approved by someone other than its operator.",
-                                 actor.name, run.id, cert.number));
+  require_separation_of_duties(db, *actor.user_id, actor.name, run, cert.number);
   if (auto done = store::certificate_event(db.sql(), cert.id, "approved"))
     throw InputError(fmt::format("certificate {} was already approved by {} on {}; an approved certificate cannot "
                                  "change.",
@@ -101,6 +128,7 @@ store::CertificateRecord approve_certificate(store::Database& db, const store::A
   e.by_name = actor.name;
   e.meaning = meaning;
   store::add_certificate_event(rec, e);
+  store::add_signature(rec, db.sql(), "certificates", fmt::format("id={}", cert.id), meaning);
   tx.commit();
   return cert;
 }

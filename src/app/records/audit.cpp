@@ -10,6 +10,7 @@
 #include "core/errors.hpp"
 #include "store/audit_trail.hpp"
 #include "store/repository.hpp"
+#include "store/signature_check.hpp"
 
 namespace plumb::app {
 namespace {
@@ -107,6 +108,10 @@ AuditLog audit_log(store::Database& db, const AuditLogFilter& filter) {
   return log;
 }
 
-store::AuditVerification verify_audit(store::Database& db) { return store::verify_audit_trail(db.sql()); }
+store::AuditVerification verify_audit(store::Database& db) {
+  store::AuditVerification out = store::verify_audit_trail(db.sql());
+  for (auto& p : store::signature_problems(db.sql())) out.problems.push_back(std::move(p));
+  return out;
+}
 
 }  // namespace plumb::app

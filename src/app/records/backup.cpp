@@ -12,6 +12,7 @@
 #include "store/embedded.hpp"
 #include "store/file_digest.hpp"
 #include "store/private_file.hpp"
+#include "store/users.hpp"
 #include "store/recorder.hpp"
 
 namespace plumb::app {
@@ -149,7 +150,7 @@ void record_restore(store::Database& restored, const store::Actor& actor, const 
 
 }  // namespace
 
-RestoreOutcome restore_database(const RestoreRequest& r, const store::Actor& actor) {
+RestoreOutcome restore_database(const RestoreRequest& r, const std::function<store::Actor(store::Database&)>& who) {
   const auto& db_path = r.db_path;
   const auto& file = r.file;
   if (r.reason.find_first_not_of(" \t") == std::string::npos)
@@ -164,6 +165,11 @@ RestoreOutcome restore_database(const RestoreRequest& r, const store::Actor& act
         fmt::format("database \"{}\" exists and restore would replace it; add --force (its present content "
                     "is saved beside it first).",
                     db_path.string()));
+  std::optional<store::Actor> actor;
+  if (exists) {
+    store::Database current(db_path, store::Database::Open::existing);
+    actor = who(current);
+  }
   RestoreOutcome out;
   out.source = check_copy(file);
   if (!out.source.ok) return out;
@@ -203,7 +209,21 @@ RestoreOutcome restore_database(const RestoreRequest& r, const store::Actor& act
   // Opening through plumb applies any newer migrations to an older backup; the restore is recorded in the restored
   // trail, and then the result is proved again.
   store::Database restored(db_path, store::Database::Open::existing);
-  record_restore(restored, actor, r, out, backup_sha256);
+  if (!actor) {
+    try {
+      actor = who(restored);
+    } catch (...) {
+      for (const char* suffix : {"", "-wal", "-shm"}) std::filesystem::remove(db_path.string() + suffix);
+      throw;
+    }
+  }
+  // The account that restores may be newer than the backup: then the record names it without an id the restored
+  // accounts do not have.
+  if (actor->user_id && !store::find_user(restored.sql(), *actor->user_id)) {
+    actor->name += " (an account of the replaced database)";
+    actor->user_id.reset();
+  }
+  record_restore(restored, *actor, r, out, backup_sha256);
   out.after = store::verify_audit_trail(restored.sql());
   out.restored = true;
   return out;

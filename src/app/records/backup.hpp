@@ -3,6 +3,7 @@
 // snapshot while other plumb processes keep reading and writing. A copy counts only once it has passed
 // PRAGMA integrity_check and `audit verify`.
 #include <filesystem>
+#include <functional>
 #include <optional>
 #include <string>
 
@@ -54,7 +55,10 @@ struct RestoreOutcome {
 /// DB.before-restore-TIMESTAMP (a new name each time, mode 0600). The restore is recorded in the restored trail
 /// (table restores): the backup file, its SHA-256 and last audit hash, who, why, and how many audit records of
 /// the replaced database the restore removed.
-RestoreOutcome restore_database(const RestoreRequest& request, const store::Actor& actor);
+/// `who` authenticates the person restoring: against the database being replaced when there is one (before
+/// anything changes), else against the restored accounts (a failure removes the restored file again).
+RestoreOutcome restore_database(const RestoreRequest& request,
+                                const std::function<store::Actor(store::Database&)>& who);
 
 /// Integrity check, schema version and audit verification of the database file at `path`, opened read-only.
 CopyCheck check_copy(const std::filesystem::path& path);

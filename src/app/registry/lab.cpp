@@ -7,6 +7,7 @@
 #include "core/errors.hpp"
 #include "store/created_file.hpp"
 #include "store/repository.hpp"
+#include "store/users.hpp"
 
 namespace plumb::app {
 
@@ -37,12 +38,23 @@ void init_lab(store::Database& db, const store::Actor& actor, const std::string&
   tx.commit();
 }
 
-void create_lab(const std::filesystem::path& path, const store::Actor& actor, const std::string& name) {
+bool create_lab(const std::filesystem::path& path, const NewUser& admin, const std::string& name) {
+  if (std::filesystem::exists(path)) {
+    store::Database db(path, store::Database::Open::existing);
+    if (store::find_lab(db.sql()) && store::count_users(db.sql()) == 0) {
+      add_first_administrator(db, admin);
+      return false;
+    }
+  }
   validate_lab_name(name);
   store::CreatedFileGuard file(path);
   store::Database db(path, store::Database::Open::create);
+  if (auto lab = store::find_lab(db.sql()))
+    throw InputError(fmt::format("database \"{}\" is already set up for lab \"{}\".", db.path().string(), lab->name));
+  const store::Actor actor = add_first_administrator(db, admin);
   init_lab(db, actor, name);
   file.keep();
+  return true;
 }
 
 }  // namespace plumb::app

@@ -64,6 +64,9 @@ std::string certificate_review_lines(const json& status) {
                                  field(a, "by"), field(a, "at"), field(a, "meaning"), field(a, "os_user")));
   else
     out += "  Not approved yet (draft).\n";
+  for (const auto& sig : status.value("signatures", json::array()))
+    add_wrapped(out, fmt::format("  Signed electronically by {} (user {}) at {} UTC, meaning \"{}\".", field(sig, "name"),
+                                 sig.value("user_id", 0), field(sig, "at"), field(sig, "meaning")));
   if (status.value("state", "") == "withdrawn")
     add_wrapped(out, fmt::format("  Withdrawn: {}.", field(status["withdrawn"], "reason")));
   if (status.value("superseded", json()).is_object())
