@@ -26,8 +26,9 @@ std::vector<Command> lab_commands() {
                  admin.full_name = vm["admin-name"].as<std::string>();
                  const auto password = read_password(env.password, "plumb: the administrator's new password: ");
                  if (!password)
-                   throw InputError("the first administrator needs a password: give --password-file FILE or "
-                                    "--password-stdin, or run at a terminal.");
+                   throw InputError(
+                       "the first administrator needs a password: give --password-file FILE or "
+                       "--password-stdin, or run at a terminal.");
                  admin.password = *password;
                  const std::string lab = vm.count("lab") ? vm["lab"].as<std::string>() : "";
                  if (!app::create_lab(env.db_path, admin, lab)) {
@@ -39,8 +40,9 @@ std::vector<Command> lab_commands() {
                             admin.login, admin.full_name);
                  store::Database db(env.db_path, store::Database::Open::existing);
                  if (store::security_settings(db.sql()).password_hashing == "test-only-fast")
-                   fmt::print(env.out, "This database hashes passwords with test-only fast limits: never keep records "
-                                       "in it.\n");
+                   fmt::print(env.out,
+                              "This database hashes passwords with test-only fast limits: never keep records "
+                              "in it.\n");
                  return 0;
                }};
   return {init};

@@ -33,7 +33,10 @@ Command account_command(const std::string& verb, const std::string& summary, con
                         bool needs_reason,
                         void (*change)(store::Database&, const store::Actor&, const std::string&, const std::string&),
                         const std::string& done) {
-  return {"user", verb, summary, example,
+  return {"user",
+          verb,
+          summary,
+          example,
           [needs_reason](po::options_description& d, po::positional_options_description& p) {
             d.add_options()("id", po::value<std::string>()->required(), "user id (positional)");
             if (needs_reason) d.add_options()("reason", po::value<std::string>(), "why (required; recorded)");
@@ -53,11 +56,14 @@ Command account_command(const std::string& verb, const std::string& summary, con
 }  // namespace
 
 std::vector<Command> user_commands() {
-  Command add{"user", "add", "add a user account with its roles (an administrator's command); its first password "
-                             "must be changed at the first log-in",
+  Command add{"user",
+              "add",
+              "add a user account with its roles (an administrator's command); its first password "
+              "must be changed at the first log-in",
               "plumb user add ptech --name \"Priya Tech\" --role technician --new-password-file first.pw",
               [](po::options_description& d, po::positional_options_description& p) {
-                d.add_options()("id", po::value<std::string>()->required(), "the new user id (positional; never reused)")(
+                d.add_options()("id", po::value<std::string>()->required(),
+                                "the new user id (positional; never reused)")(
                     "name", po::value<std::string>()->required(), "full (printed) name")(
                     "role", po::value<std::vector<std::string>>(),
                     "technician|reviewer|quality-manager|administrator (repeat for several)");
@@ -73,48 +79,58 @@ std::vector<Command> user_commands() {
                 const auto admin = env.actor(db);
                 u.password = new_password(vm, u.login);
                 const auto user = app::add_user(db, admin, u);
-                fmt::print(env.out, "User {} ({}) added with the role(s) {}; the password must be changed at the first "
-                                    "log-in.\n",
+                fmt::print(env.out,
+                           "User {} ({}) added with the role(s) {}; the password must be changed at the first "
+                           "log-in.\n",
                            user.login, user.full_name, fmt::join(u.roles, ", "));
                 return 0;
               }};
-  Command list{"user", "list", "list the user accounts with their roles and standing", "plumb user list --format json",
-               [](po::options_description& d, po::positional_options_description&) { add_format_option(d); },
-               [](const po::variables_map& vm, Env& env) {
-                 const auto format = format_of(vm, {"text", "json"});
-                 auto db = env.open();
-                 const auto users = app::list_users(db);
-                 const auto settings = store::security_settings(db.sql());
-                 if (format == "json") {
-                   nlohmann::json j = nlohmann::json::array();
-                   for (const auto& u : users)
-                     j.push_back({{"user_id", u.user.id},
-                                  {"id", u.user.login},
-                                  {"name", u.user.full_name},
-                                  {"roles", u.roles},
-                                  {"active", u.active},
-                                  {"locked", u.locked},
-                                  {"must_change_password", u.must_change},
-                                  {"created_at", u.user.created_at}});
-                   env.out << nlohmann::json{{"users", j}, {"password_hashing", settings.password_hashing}}.dump(2)
-                           << "\n";
-                   return 0;
-                 }
-                 for (const auto& u : users)
-                   fmt::print(env.out, "{:<4}{:<16}{:<28}{:<36}{}\n", u.user.id, u.user.login, u.user.full_name,
-                              fmt::format("{}", fmt::join(u.roles, ", ")),
-                              !u.active ? "deactivated" : u.locked ? "locked" : u.must_change ? "must change password"
-                                                                                             : "active");
-                 if (settings.password_hashing == "test-only-fast")
-                   fmt::print(env.out, "Passwords in this database are hashed with test-only fast limits: never keep "
-                                       "records in it.\n");
-                 return 0;
-               }};
-  Command grant{"user", "grant", "grant a role to a user (an administrator's command; recorded)",
+  Command list{
+      "user",
+      "list",
+      "list the user accounts with their roles and standing",
+      "plumb user list --format json",
+      [](po::options_description& d, po::positional_options_description&) { add_format_option(d); },
+      [](const po::variables_map& vm, Env& env) {
+        const auto format = format_of(vm, {"text", "json"});
+        auto db = env.open();
+        const auto users = app::list_users(db);
+        const auto settings = store::security_settings(db.sql());
+        if (format == "json") {
+          nlohmann::json j = nlohmann::json::array();
+          for (const auto& u : users)
+            j.push_back({{"user_id", u.user.id},
+                         {"id", u.user.login},
+                         {"name", u.user.full_name},
+                         {"roles", u.roles},
+                         {"active", u.active},
+                         {"locked", u.locked},
+                         {"must_change_password", u.must_change},
+                         {"created_at", u.user.created_at}});
+          env.out << nlohmann::json{{"users", j}, {"password_hashing", settings.password_hashing}}.dump(2) << "\n";
+          return 0;
+        }
+        for (const auto& u : users)
+          fmt::print(env.out, "{:<4}{:<16}{:<28}{:<36}{}\n", u.user.id, u.user.login, u.user.full_name,
+                     fmt::format("{}", fmt::join(u.roles, ", ")),
+                     !u.active       ? "deactivated"
+                     : u.locked      ? "locked"
+                     : u.must_change ? "must change password"
+                                     : "active");
+        if (settings.password_hashing == "test-only-fast")
+          fmt::print(env.out,
+                     "Passwords in this database are hashed with test-only fast limits: never keep "
+                     "records in it.\n");
+        return 0;
+      }};
+  Command grant{"user",
+                "grant",
+                "grant a role to a user (an administrator's command; recorded)",
                 "plumb user grant ptech --role reviewer",
                 [](po::options_description& d, po::positional_options_description& p) {
                   d.add_options()("id", po::value<std::string>()->required(), "user id (positional)")(
-                      "role", po::value<std::string>()->required(), "technician|reviewer|quality-manager|administrator");
+                      "role", po::value<std::string>()->required(),
+                      "technician|reviewer|quality-manager|administrator");
                   p.add("id", 1);
                 },
                 [](const po::variables_map& vm, Env& env) {
@@ -124,7 +140,9 @@ std::vector<Command> user_commands() {
                              vm["role"].as<std::string>());
                   return 0;
                 }};
-  Command revoke{"user", "revoke", "revoke a role from a user (an administrator's command; recorded)",
+  Command revoke{"user",
+                 "revoke",
+                 "revoke a role from a user (an administrator's command; recorded)",
                  "plumb user revoke ptech --role reviewer --reason \"moved to another lab\"",
                  [](po::options_description& d, po::positional_options_description& p) {
                    d.add_options()("id", po::value<std::string>()->required(), "user id (positional)")(
@@ -141,7 +159,8 @@ std::vector<Command> user_commands() {
                               vm["role"].as<std::string>());
                    return 0;
                  }};
-  Command reset{"user", "reset-password",
+  Command reset{"user",
+                "reset-password",
                 "give a user a temporary password, to be changed at the next log-in (an administrator's command)",
                 "plumb user reset-password ptech --new-password-file temporary.pw",
                 [](po::options_description& d, po::positional_options_description& p) {
@@ -157,20 +176,25 @@ std::vector<Command> user_commands() {
                   fmt::print(env.out, "User {} has a temporary password; it must be changed at the next log-in.\n", id);
                   return 0;
                 }};
-  Command password{"user", "password", "change your own password (after giving the current one)",
+  Command password{"user",
+                   "password",
+                   "change your own password (after giving the current one)",
                    "plumb --user ptech --password-file old.pw user password --new-password-file new.pw",
                    [](po::options_description& d, po::positional_options_description&) { add_new_password_option(d); },
                    [](const po::variables_map& vm, Env& env) {
                      auto db = env.open();
                      const auto me = env.authenticated(db);
                      if (!me.password_entered)
-                       throw AccessError("changing a password needs the current one: give --user ID with "
-                                         "--password-file FILE or --password-stdin, or run at a terminal.");
+                       throw AccessError(
+                           "changing a password needs the current one: give --user ID with "
+                           "--password-file FILE or --password-stdin, or run at a terminal.");
                      app::change_own_password(db, me.actor, new_password(vm, me.login));
                      fmt::print(env.out, "The password of {} is changed.\n", me.login);
                      return 0;
                    }};
-  Command policy{"user", "policy", "the lab's password and session rules (an administrator's command; recorded)",
+  Command policy{"user",
+                 "policy",
+                 "the lab's password and session rules (an administrator's command; recorded)",
                  "plumb user policy --min-length 14 --lock-after 5 --idle-minutes 15 --max-age-days 180",
                  [](po::options_description& d, po::positional_options_description&) {
                    d.add_options()("min-length", po::value<int>(), "minimum password length in characters (8-128)")(
@@ -218,8 +242,10 @@ std::vector<Command> user_commands() {
 }
 
 std::vector<Command> login_commands() {
-  Command login{"login", "", "open a session: later commands on this database run as you until `plumb logout` or the "
-                             "lab's idle time",
+  Command login{"login",
+                "",
+                "open a session: later commands on this database run as you until `plumb logout` or the "
+                "lab's idle time",
                 "plumb --db lab.db login --user ptech",
                 [](po::options_description& d, po::positional_options_description&) {
                   d.add_options()("user", po::value<std::string>(), "your user id");
@@ -234,7 +260,10 @@ std::vector<Command> login_commands() {
                              s.full_name, s.idle_minutes);
                   return 0;
                 }};
-  Command logout{"logout", "", "end your session on this database", "plumb --db lab.db logout",
+  Command logout{"logout",
+                 "",
+                 "end your session on this database",
+                 "plumb --db lab.db logout",
                  [](po::options_description&, po::positional_options_description&) {},
                  [](const po::variables_map&, Env& env) {
                    auto db = env.open();

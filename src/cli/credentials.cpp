@@ -41,9 +41,10 @@ std::string from_password_file(const std::filesystem::path& path) {
   }
   if (st.st_uid != ::geteuid() || (st.st_mode & 077) != 0) {
     ::close(fd);
-    throw InputError(fmt::format("--password-file \"{}\" has mode {:04o} or another owner; it must be readable by its "
-                                 "owner only (chmod 600 \"{}\").",
-                                 path.string(), st.st_mode & 07777, path.string()));
+    throw InputError(
+        fmt::format("--password-file \"{}\" has mode {:04o} or another owner; it must be readable by its "
+                    "owner only (chmod 600 \"{}\").",
+                    path.string(), st.st_mode & 07777, path.string()));
   }
   std::string text = read_fd(fd);
   ::close(fd);
@@ -53,7 +54,7 @@ std::string from_password_file(const std::filesystem::path& path) {
 std::optional<std::string> from_terminal(const std::string& prompt) {
   const int fd = ::open("/dev/tty", O_RDWR | O_CLOEXEC);
   if (fd < 0) return std::nullopt;
-  termios old {};
+  termios old{};
   if (::tcgetattr(fd, &old) != 0) {
     ::close(fd);
     return std::nullopt;

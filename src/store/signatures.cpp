@@ -23,20 +23,22 @@ std::vector<SignatureRecord> signatures_from(SQLite::Statement& q) {
 }  // namespace
 
 std::optional<std::string> signed_content(SQLite::Database& db, const std::string& table, const std::string& row_key) {
-  SQLite::Statement q(db,
-                      "SELECT after_json FROM audit_log WHERE table_name = ? AND row_key = ? AND after_json IS NOT NULL "
-                      "ORDER BY seq LIMIT 1");
+  SQLite::Statement q(
+      db,
+      "SELECT after_json FROM audit_log WHERE table_name = ? AND row_key = ? AND after_json IS NOT NULL "
+      "ORDER BY seq LIMIT 1");
   q.bind(1, table);
   q.bind(2, row_key);
   if (!q.executeStep()) return std::nullopt;
   return q.getColumn(0).getString();
 }
 
-SignatureRecord add_signature(Recorder& rec, SQLite::Database& db, const std::string& table,
-                              const std::string& row_key, const std::string& meaning) {
+SignatureRecord add_signature(Recorder& rec, SQLite::Database& db, const std::string& table, const std::string& row_key,
+                              const std::string& meaning) {
   if (!rec.actor().user_id) throw StorageError("a signature needs an authenticated user.");
   const auto content = signed_content(db, table, row_key);
-  if (!content) throw StorageError(fmt::format("{} {} is not in the audit trail; it cannot be signed.", table, row_key));
+  if (!content)
+    throw StorageError(fmt::format("{} {} is not in the audit trail; it cannot be signed.", table, row_key));
   SignatureRecord s;
   s.user_id = *rec.actor().user_id;
   s.printed_name = rec.actor().name;

@@ -31,8 +31,8 @@ std::optional<std::string> signed_content(SQLite::Database& db, const std::strin
 
 /// Signs the record `table` `row_key` (written earlier in this transaction or before) as the recorder's user with
 /// `meaning`. StorageError when the record is not in the trail or the recorder has no user.
-SignatureRecord add_signature(Recorder& rec, SQLite::Database& db, const std::string& table,
-                              const std::string& row_key, const std::string& meaning);
+SignatureRecord add_signature(Recorder& rec, SQLite::Database& db, const std::string& table, const std::string& row_key,
+                              const std::string& meaning);
 
 /// The signatures of one record, in order.
 std::vector<SignatureRecord> signatures_of(SQLite::Database& db, const std::string& table, const std::string& row_key);

@@ -5,7 +5,9 @@
 namespace plumb::store {
 namespace {
 
-std::string account_column_text(const SQLite::Column& c) { return c.isNull() ? std::string() : c.getString(); }
+std::string account_column_text(const SQLite::Column& c) {
+  return c.isNull() ? std::string() : c.getString();
+}
 
 constexpr const char* user_select = "SELECT id, login, full_name, created_at FROM users";
 
@@ -14,7 +16,9 @@ UserRecord user_from(SQLite::Statement& q) {
           q.getColumn(3).getString()};
 }
 
-Value account_text_or_null(const std::string& s) { return s.empty() ? Value() : Value(s); }
+Value account_text_or_null(const std::string& s) {
+  return s.empty() ? Value() : Value(s);
+}
 
 }  // namespace
 
@@ -39,7 +43,9 @@ std::vector<UserRecord> all_users(SQLite::Database& db) {
   return out;
 }
 
-std::int64_t count_users(SQLite::Database& db) { return db.execAndGet("SELECT count(*) FROM users").getInt64(); }
+std::int64_t count_users(SQLite::Database& db) {
+  return db.execAndGet("SELECT count(*) FROM users").getInt64();
+}
 
 std::optional<PasswordRecord> current_password(SQLite::Database& db, std::int64_t user_id) {
   SQLite::Statement q(db,
@@ -57,7 +63,8 @@ std::vector<AccountEvent> account_events(SQLite::Database& db, std::int64_t user
   std::vector<AccountEvent> out;
   while (q.executeStep())
     out.push_back({q.getColumn(0).getInt64(), q.getColumn(1).getInt64(), q.getColumn(2).getString(),
-                   account_column_text(q.getColumn(3)), account_column_text(q.getColumn(4)), q.getColumn(5).getString()});
+                   account_column_text(q.getColumn(3)), account_column_text(q.getColumn(4)),
+                   q.getColumn(5).getString()});
   return out;
 }
 
@@ -135,12 +142,10 @@ void add_security_settings(Recorder& rec, const SecuritySettings& s) {
 }
 
 std::int64_t add_session(Recorder& rec, std::int64_t user_id, const std::string& token_sha256, int idle_minutes) {
-  return rec.insert("sessions",
-                    {{"user_id", user_id},
-                     {"token_sha256", token_sha256},
-                     {"opened_at", rec.now()},
-                     {"idle_minutes", idle_minutes}},
-                    {"id"});
+  return rec.insert(
+      "sessions",
+      {{"user_id", user_id}, {"token_sha256", token_sha256}, {"opened_at", rec.now()}, {"idle_minutes", idle_minutes}},
+      {"id"});
 }
 
 void end_session(Recorder& rec, std::int64_t session_id, const std::string& why) {
@@ -148,8 +153,7 @@ void end_session(Recorder& rec, std::int64_t session_id, const std::string& why)
 }
 
 std::optional<std::int64_t> writer_of(SQLite::Database& db, const std::string& table, const std::string& row_key) {
-  SQLite::Statement q(db,
-                      "SELECT user_id FROM audit_log WHERE table_name = ? AND row_key = ? ORDER BY seq LIMIT 1");
+  SQLite::Statement q(db, "SELECT user_id FROM audit_log WHERE table_name = ? AND row_key = ? ORDER BY seq LIMIT 1");
   q.bind(1, table);
   q.bind(2, row_key);
   if (!q.executeStep() || q.getColumn(0).isNull()) return std::nullopt;

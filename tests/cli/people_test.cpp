@@ -2,8 +2,8 @@
 // 11.300; EU GMP Annex 11 item 12), each behaviour shown on a scratch database through the built binary. The
 // Part 11 section numbers are cited from the regulation's text as published in the eCFR (Title 21, Chapter I,
 // Subchapter A, Part 11), recalled from memory for this comment.
-#include <catch2/catch.hpp>
 #include <sys/stat.h>
+#include <catch2/catch.hpp>
 
 #include <fstream>
 #include <nlohmann/json.hpp>
@@ -69,9 +69,9 @@ TEST_CASE("a new database is created with its first administrator, folder 0700 a
   ScratchDir dir;
   const auto pw = secret_file(dir, "admin.pw", "a long admin password");
   const auto db = (dir.path() / "new-folder" / "lab.db").string();
-  const auto r = run_plumb({"--db", db, "--password-file", pw, "init", "--lab", "Files Lab", "--admin", "ada",
-                            "--admin-name", "Ada Quill"},
-                           dir.path());
+  const auto r = run_plumb(
+      {"--db", db, "--password-file", pw, "init", "--lab", "Files Lab", "--admin", "ada", "--admin-name", "Ada Quill"},
+      dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
   CHECK(mode_of(dir.path() / "new-folder") == 0700);
@@ -94,8 +94,9 @@ TEST_CASE("the administrator manages accounts and nothing else, and roles decide
                       "2026-11-03", "--as", "Test Administrator"},
                      dir.path());
   CHECK(r.status == 4);
-  CHECK(r.err == "plumb: user test-admin may not run `plumb check record`: it needs the role technician or reviewer "
-                 "or quality manager.\n");
+  CHECK(r.err ==
+        "plumb: user test-admin may not run `plumb check record`: it needs the role technician or reviewer "
+        "or quality manager.\n");
   const auto first = secret_file(dir, "first.pw", "first password 0001");
   const auto admin_pw = dir.file(".plumb-test-password").string();
   r = as_user(db, "test-admin", admin_pw,
@@ -115,8 +116,9 @@ TEST_CASE("the administrator manages accounts and nothing else, and roles decide
   r = as_user(db, "test-admin", admin_pw, {"user", "grant", "test-admin", "--role", "reviewer"}, dir);
   CHECK(r.status == 4);
   CHECK(r.err.find("may not change the roles of their own account") != std::string::npos);
-  CHECK(sql(db, "SELECT event, role FROM account_events WHERE user_id = (SELECT id FROM users WHERE login = 'tina') "
-                "ORDER BY id") == "role granted|technician\nrole granted|reviewer\n");
+  CHECK(sql(db,
+            "SELECT event, role FROM account_events WHERE user_id = (SELECT id FROM users WHERE login = 'tina') "
+            "ORDER BY id") == "role granted|technician\nrole granted|reviewer\n");
   r = as_user(db, "test-admin", admin_pw, {"user", "revoke", "tina", "--role", "reviewer", "--reason", "trial over"},
               dir);
   REQUIRE(r.status == 0);
@@ -130,10 +132,9 @@ TEST_CASE("a user id is never reused and a deactivated user cannot log in", "[pe
   const auto db = plumb::test::example_lab(dir).string();
   const auto admin_pw = dir.file(".plumb-test-password").string();
   const auto first = secret_file(dir, "first.pw", "first password 0001");
-  auto r = as_user(db, "test-admin", admin_pw,
-                   {"user", "add", "omar", "--name", "Omar Lindqvist", "--role", "technician", "--new-password-file",
-                    first},
-                   dir);
+  auto r = as_user(
+      db, "test-admin", admin_pw,
+      {"user", "add", "omar", "--name", "Omar Lindqvist", "--role", "technician", "--new-password-file", first}, dir);
   REQUIRE(r.status == 0);
   r = as_user(db, "test-admin", admin_pw, {"user", "deactivate", "omar", "--reason", "left the lab"}, dir);
   REQUIRE(r.status == 0);
@@ -141,17 +142,19 @@ TEST_CASE("a user id is never reused and a deactivated user cannot log in", "[pe
   CHECK(r.status == 4);
   CHECK(r.err == "plumb: the account omar is deactivated; it cannot log in.\n");
   // The id cannot be given to someone else, and the account is still there.
-  r = as_user(db, "test-admin", admin_pw,
-              {"user", "add", "omar", "--name", "Omar Someone-Else", "--role", "technician", "--new-password-file",
-               first},
-              dir);
+  r = as_user(
+      db, "test-admin", admin_pw,
+      {"user", "add", "omar", "--name", "Omar Someone-Else", "--role", "technician", "--new-password-file", first},
+      dir);
   CHECK(r.status == 2);
   CHECK(r.err == "plumb: user id \"omar\" exists already (Omar Lindqvist); user ids are never reused.\n");
   // Numeric ids are never reused either, even if rows were deleted behind plumb's back (AUTOINCREMENT).
   const std::string before = sql(db, "SELECT max(id) FROM users");
-  REQUIRE(std::system(("sqlite3 '" + db + "' \"DROP TRIGGER users_no_delete; DROP TRIGGER account_events_no_delete; DROP TRIGGER "
+  REQUIRE(std::system(("sqlite3 '" + db +
+                       "' \"DROP TRIGGER users_no_delete; DROP TRIGGER account_events_no_delete; DROP TRIGGER "
                        "passwords_no_delete; DELETE FROM account_events WHERE "
-                       "user_id = " + before.substr(0, before.size() - 1) + "; DELETE FROM passwords WHERE user_id = " +
+                       "user_id = " +
+                       before.substr(0, before.size() - 1) + "; DELETE FROM passwords WHERE user_id = " +
                        before.substr(0, before.size() - 1) + "; DELETE FROM users WHERE login = 'omar'\"")
                           .c_str()) == 0);
   r = as_user(db, "test-admin", admin_pw,
@@ -182,11 +185,13 @@ TEST_CASE("failed log-ins lock the account at the lab's limit, and that is recor
   auto r = as_user(db, "lea", first, {"login"}, dir);
   CHECK(r.status == 4);
   CHECK(r.err.find("the account lea is locked after 3 failed log-ins") != std::string::npos);
-  CHECK(sql(db, "SELECT event FROM account_events WHERE user_id = (SELECT id FROM users WHERE login = 'lea') AND "
-                "event IN ('failed log-in', 'locked') ORDER BY id") ==
+  CHECK(sql(db,
+            "SELECT event FROM account_events WHERE user_id = (SELECT id FROM users WHERE login = 'lea') AND "
+            "event IN ('failed log-in', 'locked') ORDER BY id") ==
         "failed log-in\nfailed log-in\nfailed log-in\nlocked\n");
-  REQUIRE(as_user(db, "test-admin", admin_pw, {"user", "unlock", "lea", "--reason", "identity confirmed"}, dir).status ==
-          0);
+  REQUIRE(
+      as_user(db, "test-admin", admin_pw, {"user", "unlock", "lea", "--reason", "identity confirmed"}, dir).status ==
+      0);
   r = as_user(db, "lea", first, {"login"}, dir);
   CHECK(r.status == 4);  // unlocked; now the forced change of a first password applies
   CHECK(r.err.find("must be changed before anything else") != std::string::npos);
@@ -202,9 +207,9 @@ TEST_CASE("an administrator's password reset forces a change, so the administrat
   REQUIRE(run_plumb({"--db", db, "user", "list", "--as", "Q. Manager"}, dir.path()).status == 0);
   const std::string manager = plumb::test::test_login("Q. Manager");
   const auto temporary = secret_file(dir, "temp.pw", "temporary password 42");
-  REQUIRE(as_user(db, "test-admin", admin_pw, {"user", "reset-password", manager, "--new-password-file", temporary},
-                  dir)
-              .status == 0);
+  REQUIRE(
+      as_user(db, "test-admin", admin_pw, {"user", "reset-password", manager, "--new-password-file", temporary}, dir)
+          .status == 0);
   auto r = as_user(db, manager, temporary, {"certificate", "approve", "1", "--meaning", "reviewed and approved"}, dir);
   CHECK(r.status == 4);
   CHECK(r.err.find("was set by an administrator and must be changed before anything else") != std::string::npos);
@@ -254,8 +259,9 @@ TEST_CASE("a session: token file 0600, only its SHA-256 stored, ends at logout o
   INFO(r.err);
   CHECK(r.status == 0);
   // Idle past the lab's limit (the last use moved two hours back): the session has ended.
-  REQUIRE(std::system(("sqlite3 '" + db + "' \"UPDATE session_activity SET last_used_at = '2000-01-01T00:00:00Z'\"")
-                          .c_str()) == 0);
+  REQUIRE(std::system(
+              ("sqlite3 '" + db + "' \"UPDATE session_activity SET last_used_at = '2000-01-01T00:00:00Z'\"").c_str()) ==
+          0);
   r = run_plumb({"--db", db, "--password-stdin", "certificate", "issue", "1"}, dir.path(), "\n");
   CHECK(r.status == 4);
   CHECK(r.err.find("ended after more than 15 minutes idle") != std::string::npos);
@@ -274,8 +280,8 @@ TEST_CASE("a password file that others can read is refused, and --by is refused 
   auto r = as_user(db, "test-admin", dir.file("open.pw").string(), {"login"}, dir);
   CHECK(r.status == 2);
   CHECK(r.err.find("has mode 0644 or another owner; it must be readable by its owner only") != std::string::npos);
-  r = run_plumb({"--db", db, "balance", "add", "BAL-Z", "--capacity", "220g", "--readability", "0.1mg", "--every",
-                 "7d", "--by", "Q. Manager"},
+  r = run_plumb({"--db", db, "balance", "add", "BAL-Z", "--capacity", "220g", "--readability", "0.1mg", "--every", "7d",
+                 "--by", "Q. Manager"},
                 dir.path());
   CHECK(r.status == 2);
   CHECK(r.err.find("--by is gone: plumb records the logged-in user") != std::string::npos);
@@ -285,19 +291,22 @@ TEST_CASE("a signature holds the signer's id, printed name, UTC time, meaning an
           "[signatures]") {
   ScratchDir dir;
   const auto db = lab_with_certificate(dir);
-  auto r = run_plumb({"--db", db, "certificate", "approve", "1", "--meaning", "reviewed and approved", "--as",
-                      "Q. Manager"},
-                     dir.path());
+  auto r =
+      run_plumb({"--db", db, "certificate", "approve", "1", "--meaning", "reviewed and approved", "--as", "Q. Manager"},
+                dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
-  const auto row = sql(db, "SELECT s.user_id = u.id, s.printed_name, s.meaning, s.table_name, s.row_key, "
-                           "s.signed_at GLOB '[0-9][0-9][0-9][0-9]-[0-9][0-9]-[0-9][0-9]T[0-9][0-9]:[0-9][0-9]:[0-9][0-9]Z' "
-                           "FROM signatures s JOIN users u ON u.full_name = 'Q. Manager'");
+  const auto row =
+      sql(db,
+          "SELECT s.user_id = u.id, s.printed_name, s.meaning, s.table_name, s.row_key, "
+          "s.signed_at GLOB '[0-9][0-9][0-9][0-9]-[0-9][0-9]-[0-9][0-9]T[0-9][0-9]:[0-9][0-9]:[0-9][0-9]Z' "
+          "FROM signatures s JOIN users u ON u.full_name = 'Q. Manager'");
   CHECK(row == "1|Q. Manager|reviewed and approved|certificates|id=1|1\n");
   // The signed SHA-256 is that of the certificate's record in the trail, computed here by sqlite3's own
   // SHA-256 is not available, so with sha256sum (GNU coreutils) over the stored after_json.
-  const std::string content = sql(db, "SELECT after_json FROM audit_log WHERE table_name = 'certificates' AND "
-                                      "row_key = 'id=1'");
+  const std::string content = sql(db,
+                                  "SELECT after_json FROM audit_log WHERE table_name = 'certificates' AND "
+                                  "row_key = 'id=1'");
   dir.write("signed.txt", content.substr(0, content.size() - 1));
   REQUIRE(std::system(("sha256sum '" + dir.file("signed.txt").string() + "' | cut -c1-64 > '" +
                        dir.file("sum.txt").string() + "'")
@@ -316,8 +325,7 @@ TEST_CASE("a signature holds the signer's id, printed name, UTC time, meaning an
   CHECK(r.out.find("Signed electronically by Q. Manager") != std::string::npos);
 }
 
-TEST_CASE("a signature moved to another record, or signed content changed, makes audit verify fail",
-          "[signatures]") {
+TEST_CASE("a signature moved to another record, or signed content changed, makes audit verify fail", "[signatures]") {
   ScratchDir dir;
   const auto db = lab_with_certificate(dir);
   dir.write("ok.csv", passing_readings);
@@ -326,16 +334,18 @@ TEST_CASE("a signature moved to another record, or signed content changed, makes
                     dir.path())
               .status == 0);
   REQUIRE(run_plumb({"--db", db, "certificate", "issue", "2", "--as", "A. Technician"}, dir.path()).status == 0);
-  REQUIRE(run_plumb({"--db", db, "certificate", "approve", "1", "--meaning", "reviewed and approved", "--as",
-                     "Q. Manager"},
-                    dir.path())
-              .status == 0);
+  REQUIRE(
+      run_plumb({"--db", db, "certificate", "approve", "1", "--meaning", "reviewed and approved", "--as", "Q. Manager"},
+                dir.path())
+          .status == 0);
   REQUIRE(run_plumb({"--db", db, "audit", "verify"}, dir.path()).status == 0);
   // Moved: the signature now names certificate 2.
   const std::string moved = dir.file("moved.db").string();
   std::filesystem::copy_file(db, moved);
-  REQUIRE(std::system(("sqlite3 '" + moved + "' \"DROP TRIGGER signatures_no_update; UPDATE signatures SET row_key = "
-                       "'id=2'\"").c_str()) == 0);
+  REQUIRE(std::system(("sqlite3 '" + moved +
+                       "' \"DROP TRIGGER signatures_no_update; UPDATE signatures SET row_key = "
+                       "'id=2'\"")
+                          .c_str()) == 0);
   auto r = run_plumb({"--db", moved, "audit", "verify", "--all"}, dir.path());
   CHECK(r.status == 1);
   CHECK(r.out.find("signature 1 (Q. Manager") != std::string::npos);

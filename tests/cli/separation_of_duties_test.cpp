@@ -55,9 +55,9 @@ TEST_CASE("the account that recorded a run cannot approve its certificate under 
   CHECK(r.status == 2);
   CHECK(r.err.find("--by is gone") != std::string::npos);
   // ... and the account itself, whatever it is called, is the one that recorded the run.
-  r = run_plumb({"--db", db, "certificate", "approve", "1", "--meaning", "reviewed and approved", "--as",
-                 "P. Lindgren"},
-                dir.path());
+  r = run_plumb(
+      {"--db", db, "certificate", "approve", "1", "--meaning", "reviewed and approved", "--as", "P. Lindgren"},
+      dir.path());
   CHECK(r.status == 4);
   CHECK(r.err.find("P. Lindgren (user ") != std::string::npos);
   CHECK(r.err.find("recorded check run 1 of certificate BC-") != std::string::npos);
@@ -85,9 +85,9 @@ TEST_CASE("look-alike names (no-break space, zero-width space, Cyrillic letter) 
                       "P. Lindgren", "--by", "P. Lindgr\u0435n"},
                      dir.path());
   CHECK(r.status == 2);
-  r = run_plumb({"--db", db, "certificate", "approve", "1", "--meaning", "reviewed and approved", "--as",
-                 "P. Lindgren"},
-                dir.path());
+  r = run_plumb(
+      {"--db", db, "certificate", "approve", "1", "--meaning", "reviewed and approved", "--as", "P. Lindgren"},
+      dir.path());
   CHECK(r.status == 4);
   CHECK(count_of(db, "certificate_events") == "0");
 }
@@ -100,9 +100,9 @@ TEST_CASE("an operator who corrects her own run cannot approve the replacement",
   ok({"--db", db, "check", "correct", "1", "--readings", "fixed.csv", "--reason", "last reading mistyped", "--as",
       "P. Lindgren"},
      dir);
-  const auto r = run_plumb({"--db", db, "certificate", "approve", "LAST", "--meaning", "reviewed and approved", "--as",
-                            "P. Lindgren"},
-                           dir.path());
+  const auto r = run_plumb(
+      {"--db", db, "certificate", "approve", "LAST", "--meaning", "reviewed and approved", "--as", "P. Lindgren"},
+      dir.path());
   CHECK(r.status == 4);
   CHECK(r.err.find("recorded the correction check run 2") != std::string::npos);
   CHECK(count_of(db, "signatures") == "1");  // the correction's; no approval
@@ -116,15 +116,15 @@ TEST_CASE("the author of a correction cannot approve its certificate, nor can th
   ok({"--db", db, "check", "correct", "1", "--readings", "fixed.csv", "--reason", "last reading mistyped", "--as",
       "R. Reviewer"},
      dir);
-  auto r = run_plumb({"--db", db, "certificate", "approve", "LAST", "--meaning", "reviewed and approved", "--as",
-                      "R. Reviewer"},
-                     dir.path());
+  auto r = run_plumb(
+      {"--db", db, "certificate", "approve", "LAST", "--meaning", "reviewed and approved", "--as", "R. Reviewer"},
+      dir.path());
   CHECK(r.status == 4);
   CHECK(r.err.find("R. Reviewer (user ") != std::string::npos);
   CHECK(r.err.find("recorded the correction check run 2") != std::string::npos);
-  r = run_plumb({"--db", db, "certificate", "approve", "LAST", "--meaning", "reviewed and approved", "--as",
-                 "P. Lindgren"},
-                dir.path());
+  r = run_plumb(
+      {"--db", db, "certificate", "approve", "LAST", "--meaning", "reviewed and approved", "--as", "P. Lindgren"},
+      dir.path());
   CHECK(r.status == 4);
   CHECK(r.err.find("recorded check run 1") != std::string::npos);
   // A third person may; the correction and the approval are each signed.

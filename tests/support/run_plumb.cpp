@@ -85,9 +85,12 @@ Plan plan_of(const std::vector<std::string>& args) {
   for (; i < p.args.size() && p.args[i].rfind("--", 0) == 0; ++i) {
     const auto& a = p.args[i];
     if (a == "--user" || a == "--password-file" || a == "--password-stdin") p.explicit_login = true;
-    if (a == "--db" && i + 1 < p.args.size()) p.db = p.args[++i];
-    else if (a.rfind("--db=", 0) == 0) p.db = a.substr(5);
-    else if ((a == "--user" || a == "--password-file") && i + 1 < p.args.size()) ++i;
+    if (a == "--db" && i + 1 < p.args.size())
+      p.db = p.args[++i];
+    else if (a.rfind("--db=", 0) == 0)
+      p.db = a.substr(5);
+    else if ((a == "--user" || a == "--password-file") && i + 1 < p.args.size())
+      ++i;
   }
   if (i < p.args.size()) p.command = p.args[i];
   return p;
@@ -121,7 +124,8 @@ bool ensure_member(const std::filesystem::path& db, const std::string& name, con
   const auto change = run_raw({"--db", db.string(), "--user", login, "--password-file", first.string(), "user",
                                "password", "--new-password-file", pw.string()},
                               cwd, "");
-  if (change.status != 0) throw std::runtime_error("test member \"" + name + "\" could not set its password: " + change.err);
+  if (change.status != 0)
+    throw std::runtime_error("test member \"" + name + "\" could not set its password: " + change.err);
   return true;
 }
 
@@ -130,9 +134,12 @@ bool ensure_member(const std::filesystem::path& db, const std::string& name, con
 std::string test_login(const std::string& full_name) {
   std::string slug;
   for (unsigned char c : full_name) {
-    if ((c >= 'a' && c <= 'z') || (c >= '0' && c <= '9')) slug += static_cast<char>(c);
-    else if (c >= 'A' && c <= 'Z') slug += static_cast<char>(c - 'A' + 'a');
-    else if (!slug.empty() && slug.back() != '-') slug += '-';
+    if ((c >= 'a' && c <= 'z') || (c >= '0' && c <= '9'))
+      slug += static_cast<char>(c);
+    else if (c >= 'A' && c <= 'Z')
+      slug += static_cast<char>(c - 'A' + 'a');
+    else if (!slug.empty() && slug.back() != '-')
+      slug += '-';
   }
   while (!slug.empty() && slug.back() == '-') slug.pop_back();
   if (slug.size() > 40) slug.resize(40);

@@ -25,8 +25,10 @@ AccountState account_state(const std::vector<store::AccountEvent>& events) {
   for (const auto& e : events) {
     if (e.event == "role granted" || e.event == "role revoked") {
       if (const auto r = role_from_stored(e.role)) {
-        if (e.event == "role granted") s.roles.insert(*r);
-        else s.roles.erase(*r);
+        if (e.event == "role granted")
+          s.roles.insert(*r);
+        else
+          s.roles.erase(*r);
       }
     } else if (e.event == "deactivated") {
       s.active = false;

@@ -19,8 +19,8 @@ void check_login(const std::string& login) {
     return (c >= 'a' && c <= 'z') || (c >= '0' && c <= '9') || c == '.' || c == '_' || c == '-';
   });
   if (!fits)
-    throw InputError(fmt::format("user id \"{}\" must be 1-64 characters of a-z, 0-9, '.', '_' and '-'.",
-                                 shown_on_one_line(login)));
+    throw InputError(
+        fmt::format("user id \"{}\" must be 1-64 characters of a-z, 0-9, '.', '_' and '-'.", shown_on_one_line(login)));
 }
 
 /// Printed names must look like what they are: the spaces and invisible characters that make two names print
@@ -30,10 +30,10 @@ void check_full_name(const std::string& name, const std::string& field) {
   validate_free_text(name, field);
   if (name.size() > 200) throw InputError(fmt::format("{} must be 1-200 characters.", field));
   static const std::vector<std::pair<std::string, std::string>> invisible = {
-      {"\u00A0", "U+00A0 no-break space"}, {"\u200B", "U+200B zero-width space"},
+      {"\u00A0", "U+00A0 no-break space"},        {"\u200B", "U+200B zero-width space"},
       {"\u200C", "U+200C zero-width non-joiner"}, {"\u200D", "U+200D zero-width joiner"},
       {"\u202F", "U+202F narrow no-break space"}, {"\u2060", "U+2060 word joiner"},
-      {"\u3000", "U+3000 ideographic space"}, {"\uFEFF", "U+FEFF zero-width no-break space"}};
+      {"\u3000", "U+3000 ideographic space"},     {"\uFEFF", "U+FEFF zero-width no-break space"}};
   for (const auto& [bytes, what] : invisible)
     if (name.find(bytes) != std::string::npos)
       throw InputError(fmt::format("{} \"{}\" holds {}; a printed name may hold only ordinary spaces.", field,
@@ -41,9 +41,10 @@ void check_full_name(const std::string& name, const std::string& field) {
   for (char32_t c = 0x2000; c <= 0x200A; ++c) {
     std::string bytes = {static_cast<char>(0xE2), static_cast<char>(0x80), static_cast<char>(0x80 + (c - 0x2000))};
     if (name.find(bytes) != std::string::npos)
-      throw InputError(fmt::format("{} \"{}\" holds a typographic space (U+{:04X}); a printed name may hold only "
-                                   "ordinary spaces.",
-                                   field, shown_on_one_line(name), static_cast<unsigned>(c)));
+      throw InputError(
+          fmt::format("{} \"{}\" holds a typographic space (U+{:04X}); a printed name may hold only "
+                      "ordinary spaces.",
+                      field, shown_on_one_line(name), static_cast<unsigned>(c)));
   }
   if (name.front() == ' ' || name.back() == ' ' || name.find("  ") != std::string::npos)
     throw InputError(fmt::format("{} \"{}\" must not start or end with a space or hold two in a row.", field, name));
@@ -57,9 +58,8 @@ store::UserRecord require_user(store::Database& db, const std::string& login) {
 }
 
 std::size_t code_points(const std::string& s) {
-  return static_cast<std::size_t>(std::count_if(s.begin(), s.end(), [](char c) {
-    return (static_cast<unsigned char>(c) & 0xC0) != 0x80;
-  }));
+  return static_cast<std::size_t>(
+      std::count_if(s.begin(), s.end(), [](char c) { return (static_cast<unsigned char>(c) & 0xC0) != 0x80; }));
 }
 
 void refuse_self(const store::Actor& admin, const store::UserRecord& user, const std::string& what) {
@@ -68,7 +68,9 @@ void refuse_self(const store::Actor& admin, const store::UserRecord& user, const
                                   what, user.login));
 }
 
-void require_reason(const std::string& reason, const std::string& field) { validate_free_text(reason, field); }
+void require_reason(const std::string& reason, const std::string& field) {
+  validate_free_text(reason, field);
+}
 
 }  // namespace
 
@@ -76,8 +78,8 @@ void check_new_password(store::Database& db, const std::string& password, const 
   const auto settings = store::security_settings(db.sql());
   if (password.size() > 1024) throw InputError(fmt::format("{} is longer than 1,024 bytes.", field));
   if (const auto fault = text_fault(password))
-    throw InputError(fmt::format("{} holds {} at character {}; choose another password.", field, fault->what,
-                                 fault->character));
+    throw InputError(
+        fmt::format("{} holds {} at character {}; choose another password.", field, fault->what, fault->character));
   if (code_points(password) < static_cast<std::size_t>(settings.min_password_length))
     throw InputError(fmt::format("{} is {} characters long; the lab's minimum is {}.", field, code_points(password),
                                  settings.min_password_length));
@@ -88,9 +90,10 @@ store::Actor add_first_administrator(store::Database& db, const NewUser& admin) 
   check_full_name(admin.full_name, "--admin-name");
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   if (store::count_users(db.sql()) > 0)
-    throw InputError(fmt::format("database \"{}\" has user accounts already; its administrators add users with "
-                                 "`plumb user add`.",
-                                 db.path().string()));
+    throw InputError(
+        fmt::format("database \"{}\" has user accounts already; its administrators add users with "
+                    "`plumb user add`.",
+                    db.path().string()));
   check_new_password(db, admin.password, "the administrator's password");
   // A database from before user accounts holds records already: it always gets the production limits.
   const bool has_records = db.sql().execAndGet("SELECT count(*) FROM audit_log").getInt64() > 0;
@@ -121,13 +124,14 @@ store::UserRecord add_user(store::Database& db, const store::Actor& admin, const
   Roles roles;
   for (const auto& r : user.roles) roles.insert(parse_role(r, "--role"));
   if (roles.count(Role::administrator) && roles.size() > 1)
-    throw InputError("--role administrator cannot be combined with other roles: administrators manage accounts and "
-                     "nothing else.");
+    throw InputError(
+        "--role administrator cannot be combined with other roles: administrators manage accounts and "
+        "nothing else.");
   check_new_password(db, user.password, "the new user's password");
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   if (auto existing = store::find_user_by_login(db.sql(), user.login))
-    throw InputError(fmt::format("user id \"{}\" exists already ({}); user ids are never reused.", user.login,
-                                 existing->full_name));
+    throw InputError(
+        fmt::format("user id \"{}\" exists already ({}); user ids are never reused.", user.login, existing->full_name));
   store::Recorder rec(db.sql(), admin);
   const std::int64_t id = store::add_user(rec, user.login, user.full_name);
   store::add_password(rec, id, hash_password(user.password, store::security_settings(db.sql()).password_hashing), true);
@@ -144,8 +148,9 @@ void grant_role(store::Database& db, const store::Actor& admin, const std::strin
   const AccountState state = account_state(store::account_events(db.sql(), user.id));
   if (state.roles.count(r)) throw InputError(fmt::format("user {} holds the role {} already.", login, role_name(r)));
   if ((r == Role::administrator && !state.roles.empty()) || state.roles.count(Role::administrator))
-    throw InputError("--role administrator cannot be combined with other roles: administrators manage accounts and "
-                     "nothing else.");
+    throw InputError(
+        "--role administrator cannot be combined with other roles: administrators manage accounts and "
+        "nothing else.");
   store::Recorder rec(db.sql(), admin);
   store::add_account_event(rec, user.id, "role granted", std::string(role_name(r)));
   tx.commit();

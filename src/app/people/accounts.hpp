@@ -14,10 +14,10 @@
 namespace plumb::app {
 
 struct NewUser {
-  std::string login;      ///< a-z, 0-9, '.', '_', '-'; never reused
-  std::string full_name;  ///< the printed name on records and signatures
+  std::string login;               ///< a-z, 0-9, '.', '_', '-'; never reused
+  std::string full_name;           ///< the printed name on records and signatures
   std::vector<std::string> roles;  ///< as typed
-  std::string password;   ///< the first password: temporary, changed at the first log-in
+  std::string password;            ///< the first password: temporary, changed at the first log-in
 };
 
 /// The database's first administrator: only when it has no accounts yet (a new database, or one from before

@@ -41,8 +41,7 @@ struct SessionUser {
 };
 
 /// The session of `token`, when it is open and not idle; an idle one is ended (recorded) and refused.
-std::optional<SessionUser> live_session(store::Database& db, const std::string& token,
-                                        const std::string& now) {
+std::optional<SessionUser> live_session(store::Database& db, const std::string& token, const std::string& now) {
   const auto s = store::find_session_by_token_hash(db.sql(), store::sha256_hex(token));
   if (!s || s->ended_at) return std::nullopt;
   const auto user = store::find_user(db.sql(), s->user_id);
@@ -52,9 +51,10 @@ std::optional<SessionUser> live_session(store::Database& db, const std::string& 
     store::Recorder rec(db.sql(), {user->full_name, store::current_os_user(), user->id});
     store::end_session(rec, s->id, "idle");
     tx.commit();
-    throw AccessError(fmt::format("the session of {} ended after more than {} minutes idle (last used {}); log in "
-                                  "again with `plumb login`.",
-                                  user->login, s->idle_minutes, s->last_used_at));
+    throw AccessError(
+        fmt::format("the session of {} ended after more than {} minutes idle (last used {}); log in "
+                    "again with `plumb login`.",
+                    user->login, s->idle_minutes, s->last_used_at));
   }
   return SessionUser{*s, *user};
 }
@@ -63,22 +63,24 @@ std::optional<SessionUser> live_session(store::Database& db, const std::string& 
 AccountState usable_account(store::Database& db, const store::UserRecord& user, const std::string& command,
                             const store::SecuritySettings& settings, const std::string& now) {
   const AccountState state = account_state(store::account_events(db.sql(), user.id));
-  if (!state.active)
-    throw AccessError(fmt::format("the account {} is deactivated; it cannot log in.", user.login));
+  if (!state.active) throw AccessError(fmt::format("the account {} is deactivated; it cannot log in.", user.login));
   if (state.locked)
-    throw AccessError(fmt::format("the account {} is locked after {} failed log-ins; an administrator must unlock it "
-                                  "(`plumb user unlock {}`).",
-                                  user.login, settings.max_failed_logins, user.login));
+    throw AccessError(
+        fmt::format("the account {} is locked after {} failed log-ins; an administrator must unlock it "
+                    "(`plumb user unlock {}`).",
+                    user.login, settings.max_failed_logins, user.login));
   if (command != "user password") {
     const auto pw = store::current_password(db.sql(), user.id);
     if (pw && pw->must_change)
-      throw AccessError(fmt::format("the password of {} was set by an administrator and must be changed before "
-                                    "anything else: `plumb --user {} user password`.",
-                                    user.login, user.login));
+      throw AccessError(
+          fmt::format("the password of {} was set by an administrator and must be changed before "
+                      "anything else: `plumb --user {} user password`.",
+                      user.login, user.login));
     if (pw && password_expired(pw->set_at, settings.password_max_age_days, now))
-      throw AccessError(fmt::format("the password of {} is older than the lab's limit of {} days; change it with "
-                                    "`plumb --user {} user password`.",
-                                    user.login, *settings.password_max_age_days, user.login));
+      throw AccessError(
+          fmt::format("the password of {} is older than the lab's limit of {} days; change it with "
+                      "`plumb --user {} user password`.",
+                      user.login, *settings.password_max_age_days, user.login));
   }
   return state;
 }
@@ -96,9 +98,10 @@ store::UserRecord check_password(store::Database& db, const std::string& login, 
   }
   const AccountState state = account_state(store::account_events(db.sql(), user->id));
   if (state.locked)  // checked first: a locked account takes no more guesses
-    throw AccessError(fmt::format("the account {} is locked after {} failed log-ins; an administrator must unlock it "
-                                  "(`plumb user unlock {}`).",
-                                  user->login, settings.max_failed_logins, user->login));
+    throw AccessError(
+        fmt::format("the account {} is locked after {} failed log-ins; an administrator must unlock it "
+                    "(`plumb user unlock {}`).",
+                    user->login, settings.max_failed_logins, user->login));
   if (!password_matches(pw->hash, password)) {
     record_failure(db, *user, settings);
     throw AccessError(refused);
@@ -116,9 +119,10 @@ Authenticated authenticate(store::Database& db, const std::string& command, cons
   const auto settings = store::security_settings(db.sql());
   const std::string now = store::utc_timestamp();
   if (store::count_users(db.sql()) == 0)
-    throw AccessError(fmt::format("database \"{}\" has no user accounts yet; add its first administrator with "
-                                  "`plumb --db {} init --admin ID --admin-name \"FULL NAME\"`.",
-                                  db.path().string(), db.path().string()));
+    throw AccessError(
+        fmt::format("database \"{}\" has no user accounts yet; add its first administrator with "
+                    "`plumb --db {} init --admin ID --admin-name \"FULL NAME\"`.",
+                    db.path().string(), db.path().string()));
 
   std::optional<SessionUser> session;
   if (credentials.session_token) session = live_session(db, *credentials.session_token, now);
@@ -128,8 +132,9 @@ Authenticated authenticate(store::Database& db, const std::string& command, cons
   Authenticated out;
   store::UserRecord user;
   if (!session || credentials.login || permission->signs) {
-    const std::optional<std::string> login =
-        credentials.login ? credentials.login : session ? std::optional(session->user.login) : std::nullopt;
+    const std::optional<std::string> login = credentials.login ? credentials.login
+                                             : session         ? std::optional(session->user.login)
+                                                               : std::nullopt;
     if (!login) throw AccessError(fmt::format("`plumb {}` needs a logged-in user: {}.", command, how_to_log_in));
     const auto password = credentials.password ? credentials.password(*login) : std::nullopt;
     if (!password)

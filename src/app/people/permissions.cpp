@@ -62,8 +62,8 @@ void require_permission(const std::string& command, const Roles& held, const std
     if (p->roles.count(r)) return;
   std::vector<std::string> names;
   for (Role r : p->roles) names.emplace_back(role_name(r));
-  throw AccessError(fmt::format("user {} may not run `plumb {}`: it needs the role {}.", login, command,
-                                fmt::join(names, " or ")));
+  throw AccessError(
+      fmt::format("user {} may not run `plumb {}`: it needs the role {}.", login, command, fmt::join(names, " or ")));
 }
 
 }  // namespace plumb::app

@@ -9,10 +9,14 @@ namespace plumb::app {
 
 std::string_view role_name(Role r) {
   switch (r) {
-    case Role::technician: return "technician";
-    case Role::reviewer: return "reviewer";
-    case Role::quality_manager: return "quality manager";
-    case Role::administrator: return "administrator";
+    case Role::technician:
+      return "technician";
+    case Role::reviewer:
+      return "reviewer";
+    case Role::quality_manager:
+      return "quality manager";
+    case Role::administrator:
+      return "administrator";
   }
   return "";
 }
@@ -28,9 +32,10 @@ Role parse_role(const std::string& text, const std::string& field) {
   for (char& c : spaced)
     if (c == '-' || c == '_') c = ' ';
   if (auto r = role_from_stored(spaced)) return *r;
-  throw InputError(fmt::format("{} \"{}\" is not a role; the roles are technician, reviewer, quality-manager and "
-                               "administrator.",
-                               field, shown_on_one_line(text)));
+  throw InputError(
+      fmt::format("{} \"{}\" is not a role; the roles are technician, reviewer, quality-manager and "
+                  "administrator.",
+                  field, shown_on_one_line(text)));
 }
 
 }  // namespace plumb::app
