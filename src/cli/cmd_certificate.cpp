@@ -124,7 +124,7 @@ std::vector<Command> certificate_commands() {
                     const auto c = app::approve_certificate(db, signer, vm["number"].as<std::string>(),
                                                             vm["meaning"].as<std::string>());
                     if (format == "text")
-                      fmt::print(env.out, "Certificate {} approved and signed by {}.\n", c.number, signer.name);
+                      fmt::print(env.out, "Certificate {} approved by {}.\n", c.number, signer.name);
                     print_certificate(db, c, format, std::nullopt, env);
                     return 0;
                   }};

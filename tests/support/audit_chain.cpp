@@ -13,7 +13,7 @@ AuditCheck check_audit_chain(const std::filesystem::path& db) {
   SQLite::Database sql(db.string(), SQLite::OPEN_READONLY);
   sql.setBusyTimeout(30000);
   SQLite::Statement q(sql, "SELECT seq, at, os_user, actor, action, table_name, row_key, before_json, after_json, "
-                           "reason, prev_hash, hash FROM audit_log ORDER BY seq");
+                           "reason, prev_hash, hash, user_id FROM audit_log ORDER BY seq");
   AuditCheck check;
   std::string prev(64, '0');
   const auto text_or_null = [](const SQLite::Column& c) {
@@ -30,7 +30,7 @@ AuditCheck check_audit_chain(const std::filesystem::path& db) {
       check.problem = "seq " + std::to_string(seq) + ": prev_hash is not the previous row's hash";
       return check;
     }
-    const nlohmann::json record = {{"seq", seq},
+    nlohmann::json record = {{"seq", seq},
                                    {"at", q.getColumn(1).getString()},
                                    {"os_user", q.getColumn(2).getString()},
                                    {"actor", q.getColumn(3).getString()},
@@ -40,6 +40,8 @@ AuditCheck check_audit_chain(const std::filesystem::path& db) {
                                    {"before_json", text_or_null(q.getColumn(7))},
                                    {"after_json", text_or_null(q.getColumn(8))},
                                    {"reason", text_or_null(q.getColumn(9))}};
+    // Since user accounts (schema/011_users.sql) a record names its account, and its hash covers the id.
+    if (!q.getColumn(12).isNull()) record["user_id"] = q.getColumn(12).getInt64();
     prev = q.getColumn(11).getString();
     if (store::audit_hash(q.getColumn(10).getString(), record) != prev) {
       check.problem = "seq " + std::to_string(seq) + ": hash does not match its record";

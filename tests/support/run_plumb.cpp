@@ -113,10 +113,16 @@ bool has_user(const std::filesystem::path& db, const std::string& login) {
 bool ensure_member(const std::filesystem::path& db, const std::string& name, const std::filesystem::path& cwd) {
   const std::string login = name == admin_name ? admin_login : test_login(name);
   if (has_user(db, login)) return true;
-  if (!has_user(db, admin_login)) return false;
   const auto pw = password_file(cwd, ".plumb-test-password", test_password);
+  // `plumb demo` makes its own administrator, whose demo-only password it prints.
+  std::string admin = admin_login, admin_pw = pw.string();
+  if (!has_user(db, admin_login)) {
+    if (!has_user(db, "demo-admin")) return false;
+    admin = "demo-admin";
+    admin_pw = password_file(cwd, ".plumb-demo-admin-password", "demo-only-admin-pass").string();
+  }
   const auto first = password_file(cwd, ".plumb-test-first-password", first_password);
-  const auto add = run_raw({"--db", db.string(), "--user", admin_login, "--password-file", pw.string(), "user", "add",
+  const auto add = run_raw({"--db", db.string(), "--user", admin, "--password-file", admin_pw, "user", "add",
                             login, "--name", name, "--role", "technician", "--role", "reviewer", "--role",
                             "quality-manager", "--new-password-file", first.string()},
                            cwd, "");

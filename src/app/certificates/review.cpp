@@ -102,11 +102,9 @@ store::CertificateRecord approve_certificate(store::Database& db, const store::A
                                              const std::string& selector, const std::string& meaning) {
   if (normalized(meaning).empty())
     throw InputError("--meaning must state what the signature means, e.g. \"reviewed and approved\".");
-  if (!actor.user_id) throw AccessError("approving a certificate is a signature: it needs an authenticated user.");
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   store::CertificateRecord cert = resolve_certificate(db, selector);
   const store::RunRecord run = *store::find_run(db.sql(), cert.run_id);
-  require_separation_of_duties(db, *actor.user_id, actor.name, run, cert.number);
   if (auto done = store::certificate_event(db.sql(), cert.id, "approved"))
     throw InputError(fmt::format("certificate {} was already approved by {} on {}; an approved certificate cannot "
                                  "change.",
@@ -121,6 +119,8 @@ store::CertificateRecord approve_certificate(store::Database& db, const store::A
     throw InputError(fmt::format("certificate {} was superseded by {} ({}); review that one instead.", cert.number,
                                  by ? by->number : "another certificate", gone->reason));
   }
+  if (!actor.user_id) throw AccessError("approving a certificate is a signature: it needs an authenticated user.");
+  require_separation_of_duties(db, *actor.user_id, actor.name, run, cert.number);
   store::Recorder rec(db.sql(), actor);
   store::CertificateEvent e;
   e.certificate_id = cert.id;
