@@ -66,6 +66,25 @@ Mass weight_expanded_sum(const std::vector<CalibrationWeight>& weights, const Lo
   return sum;
 }
 
+/// Where each weight's values in a buoyancy or drift row came from: "W100: ...; W50: ...".
+std::string weight_sources(const std::vector<CalibrationWeight>& weights, const LoadResult& load, bool density) {
+  std::string out;
+  for (const auto& id : load.weight_ids)
+    for (const auto& w : weights) {
+      if (w.id != id) continue;
+      std::string what;
+      if (density)
+        what = fmt::format("rho {:.0f} kg/m3, u {:.3g} kg/m3{}", w.density_kg_m3, w.u_density_kg_m3,
+                           w.density_source.empty() ? "" : " (" + w.density_source + ")");
+      else
+        what = w.drift ? fmt::format("D = {}{}", w.drift->to_string(),
+                                     w.drift_source.empty() ? "" : " (" + w.drift_source + ")")
+                       : "no D" + (w.drift_source.empty() ? std::string() : " (" + w.drift_source + ")");
+      out += fmt::format("{}{}: {}", out.empty() ? "" : "; ", id, what);
+    }
+  return out;
+}
+
 CalibrationSetResult evaluate_set(const CalibrationInput& in, const CalibrationSet& set, const std::string& set_name,
                                   const CalibrationSetResult* inherit, const std::optional<AirDensityUse>& air) {
   CalibrationSetResult r;
@@ -126,9 +145,16 @@ CalibrationSetResult evaluate_set(const CalibrationInput& in, const CalibrationS
                            : "certificate U/k of each weight, summed";
     c.push_back(wc);
     auto bc = stats::Contribution::standard("air buoyancy", L.u_buoyancy.g(), -1.0);
-    bc.note = air ? "from the measured air density" : "air density not measured: 1.2 kg/m3 +/- 10 %";
+    bc.note = fmt::format(
+        "EURAMET cg-18 v4.0, against the conventional adjustment (rho_0 = 1.2 kg/m3, "
+        "rho_c = 8000 kg/m3); {}; {}",
+        air ? fmt::format("air density {:.4f} kg/m3, u {:.2g} kg/m3, measured", air->rho_a, air->u_rho_a)
+            : std::string("air density not measured: 1.2 kg/m3 +/- 10 %"),
+        weight_sources(in.weights, L, true));
     c.push_back(bc);
-    c.push_back(stats::Contribution::rectangular("weight drift", L.u_drift.g() * std::sqrt(3.0), -1.0));
+    auto dc = stats::Contribution::rectangular("weight drift", L.u_drift.g() * std::sqrt(3.0), -1.0);
+    dc.note = "EURAMET cg-18 v4.0, rectangular, u = D / sqrt 3; " + weight_sources(in.weights, L, false);
+    c.push_back(dc);
     lc.budget = stats::combine(fmt::format("error of indication at {}", L.nominal.to_string()), "g", std::move(c),
                                in.budget_options);
 

@@ -29,6 +29,8 @@ struct CalibrationWeight {
   double u_density_kg_m3 = 0.0;                    ///< standard uncertainty of the density
   std::optional<ExactMass> drift;                  ///< D: largest change expected since its calibration
   std::string certificate;                         ///< traceability: certificate number and issuer
+  std::string density_source;  ///< where rho and u(rho) came from, for the budget row (empty: not stated)
+  std::string drift_source;    ///< where D came from, or why there is none
 
   [[nodiscard]] ExactMass reference_mass() const { return conventional_mass.value_or(nominal); }
   /// u(m_c): U / k from the certificate, else the class MPE / sqrt 3. Throws InputError if neither is known.

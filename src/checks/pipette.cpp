@@ -87,12 +87,26 @@ ChannelResult evaluate_channel(const PipetteRunInput& in, const gravimetric::ZFa
   r.systematic_error_pct = 100.0 * r.systematic_error.ul() / selected.approx().ul();
   r.random_error = Volume::microlitres(zf * s.sd());
   r.cv_pct = 100.0 * s.sd() / s.mean();  // Z cancels
-  r.uncertainty = pipette_uncertainty(
-      {r.mean_mass, r.random_error, r.n, selected.approx(), in.balance.readability.approx(),
-       in.balance.standard_uncertainty,
-       in.evaporation_per_weighing ? std::optional<Mass>(in.evaporation_per_weighing->approx()) : std::nullopt,
-       in.environment, z},
-      in.uncertainty);
+  PipetteMeanInputs u_in;
+  u_in.mean_mass = r.mean_mass;
+  u_in.random_error = r.random_error;
+  u_in.n = r.n;
+  u_in.selected = selected.approx();
+  u_in.readability = in.balance.readability.approx();
+  if (in.balance_calibration) {
+    const WeighingUncertainty w = weighing_uncertainty_at(*in.balance_calibration, r.mean_mass);
+    u_in.balance_u = w.u;
+    u_in.balance_u_basis = w.basis;
+    u_in.balance_u_includes_rounding = true;
+  } else {
+    u_in.balance_u = in.balance.standard_uncertainty;
+    if (u_in.balance_u) u_in.balance_u_basis = "the balance's standard uncertainty of a weighing, as given";
+    u_in.no_balance_u_reason = in.no_balance_calibration;
+  }
+  if (in.evaporation_per_weighing) u_in.evaporation = in.evaporation_per_weighing->approx();
+  u_in.environment = in.environment;
+  u_in.z = z;
+  r.uncertainty = pipette_uncertainty(u_in, in.uncertainty);
   r.limits = pipette_limits::limits_at(in.pipette.limits, in.pipette.nominal, selected, in.pipette.channels);
 
   const int dp = volume_decimals(selected);

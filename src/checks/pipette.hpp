@@ -18,6 +18,7 @@
 #include <string_view>
 #include <vector>
 
+#include "checks/balance_weighing_u.hpp"
 #include "checks/pipette_uncertainty.hpp"
 #include "checks/verdict.hpp"
 #include "core/dates.hpp"
@@ -72,6 +73,9 @@ struct PipetteRunInput {
   std::optional<ExactMass> evaporation_per_weighing;  ///< added to every weighing
   std::vector<TestVolumeWeighings> volumes;
   PipetteUncertaintyOptions uncertainty;  ///< entered instrument uncertainties; stated defaults otherwise
+  /// The balance's latest calibration: the u of each channel's weighing at its mean mass comes from it.
+  std::optional<BalanceCalibrationUse> balance_calibration;
+  std::string no_balance_calibration;  ///< without one: why, for the budget row
 };
 
 inline constexpr std::size_t min_replicates = 4;

@@ -48,9 +48,17 @@ PipetteUncertainty pipette_uncertainty(const PipetteMeanInputs& in, const Pipett
   std::vector<stats::Contribution> inputs;
   inputs.push_back(stats::Contribution::type_a("repeatability of the mean, s_r / sqrt(n)",
                                                in.random_error.ul() / std::sqrt(n), n - 1.0));
-  if (in.balance_u)
+  if (in.balance_u) {
     inputs.push_back(stats::Contribution::standard("balance calibration, u of a weighing", in.balance_u->mg(), z));
-  inputs.push_back(stats::Contribution::rounding("balance readability d", in.readability.mg(), z));
+    inputs.back().note = in.balance_u_basis;
+  }
+  if (!in.balance_u || !in.balance_u_includes_rounding) {
+    inputs.push_back(stats::Contribution::rounding("balance readability d", in.readability.mg(), z));
+    if (!in.balance_u)
+      inputs.back().note =
+          (in.no_balance_u_reason.empty() ? std::string("no balance calibration given") : in.no_balance_u_reason) +
+          ": the readability alone stands for the balance (fallback)";
+  }
   inputs.push_back(
       stats::Contribution::standard("water temperature (thermometer)", u_t, m * z_temperature_slope(in.environment)));
   inputs.back().note = options.water_temperature_u_c

@@ -3,7 +3,9 @@
 // volume and channel, the mean volume V = Z (m + e) carries
 //   repeatability of the mean   s_r / sqrt(n)                 Type A, n - 1 dof
 //   balance calibration         Z u(m)                        u of a weighing from the balance's calibration
-//   balance readability         Z d / (2 sqrt 3)              rounding of the zero indication
+//                                                             (checks/balance_weighing_u.hpp), rounding included
+//   balance readability         Z d / (2 sqrt 3)              the fallback without a calibration, or beside a
+//                                                             u of a weighing that leaves the rounding out
 //   water temperature           m dZ/dt u(t)                  dZ/dt through water and air density
 //   air density                 m dZ/drho_a u(rho_a)
 //   evaporation                 Z e / sqrt 3                  the entered correction e, known to within itself
@@ -42,6 +44,11 @@ struct PipetteMeanInputs {
   Volume selected;                ///< V_s
   Mass readability;               ///< d
   std::optional<Mass> balance_u;  ///< standard u of a weighing from the balance's calibration
+  std::string balance_u_basis;    ///< where balance_u came from, for the budget row
+  /// balance_u is a calibration's u(E), which holds the rounding of d at zero and load (EURAMET cg-18): no
+  /// separate readability row then.
+  bool balance_u_includes_rounding = false;
+  std::string no_balance_u_reason;  ///< without balance_u: why, for the readability row (the fallback)
   std::optional<Mass> evaporation;
   gravimetric::Environment environment;
   gravimetric::ZFactor z;

@@ -12,8 +12,8 @@ namespace plumb::checks {
 namespace {
 
 constexpr std::array<std::string_view, 1> repeatability_options{"weight"};
-constexpr std::array<std::string_view, 5> calibration_options{"temperature", "pressure", "humidity", "air-formula",
-                                                              "model"};
+constexpr std::array<std::string_view, 8> calibration_options{
+    "temperature", "pressure", "humidity", "air-formula", "model", "temperature-u", "pressure-u", "humidity-u"};
 constexpr std::array<std::string_view, 7> gravimetric_options{"balance",     "water-temp",    "pressure",
                                                               "humidity",    "evaporation",   "water-temp-u",
                                                               "air-density-u"};
@@ -23,9 +23,9 @@ constexpr std::array<std::string_view, 7> calibration_results{"as_found",    "as
                                                               "environment", "settings", "weights_used"};
 constexpr std::array<std::string_view, 6> gravimetric_results{"volumes", "z",      "environment",
                                                               "balance", "pipette", "reasons"};
-constexpr std::array<std::string_view, 11> every_option{"weight",      "temperature",  "pressure",     "humidity",
-                                                        "air-formula", "model",        "balance",      "water-temp",
-                                                        "evaporation", "water-temp-u", "air-density-u"};
+constexpr std::array<std::string_view, 14> every_option{
+    "weight",     "temperature", "pressure",     "humidity",      "air-formula",   "model",      "balance",
+    "water-temp", "evaporation", "water-temp-u", "air-density-u", "temperature-u", "pressure-u", "humidity-u"};
 
 ProcedureSpec make_spec(Procedure p) {
   switch (p) {

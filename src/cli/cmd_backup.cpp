@@ -74,7 +74,10 @@ std::vector<Command> backup_commands() {
           fmt::print(env.out, "The replaced database ({} audit records) was saved as {}.\n", out.previous_records,
                      out.previous_saved.string());
         }
-        fmt::print(env.out, "The restore is recorded in the restored audit trail.\n");
+        if (out.backup_checkpoint)
+          fmt::print(env.out, "The backup's last signed checkpoint is {} (signed {}, {} records).\n",
+                     out.backup_checkpoint->number, out.backup_checkpoint->signed_at, out.backup_checkpoint->records);
+        fmt::print(env.out, "The restore is recorded and signed in the restored audit trail.\n");
         if (!out.after.ok()) {
           fmt::print(env.err, "plumb: the restored database fails audit verification: {}\n",
                      out.after.problems.front().message);

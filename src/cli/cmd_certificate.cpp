@@ -1,8 +1,6 @@
 #include <fmt/ostream.h>
 
 #include "app/certificates/dcc_export.hpp"
-#include "app/certificates/pdf.hpp"
-#include "app/certificates/review.hpp"
 #include "app/certificates/issue.hpp"
 #include "app/certificates/list.hpp"
 #include "app/certificates/pdf.hpp"
@@ -10,10 +8,9 @@
 #include "app/certificates/review.hpp"
 #include "cli/command_groups.hpp"
 #include "core/errors.hpp"
-#include "report/certificates/list.hpp"
 #include "plumb/version.hpp"
-#include "report/certificates/status_text.hpp"
-#include "report/certificates/text.hpp"
+#include "report/certificates/list.hpp"
+#include "report/certificates/renderings.hpp"
 
 namespace plumb::cli {
 namespace {
@@ -30,49 +27,50 @@ std::optional<std::string> pdf_output(const po::variables_map& vm, const std::st
 // The stored content with its standing today (draft / approved / superseded) beside it.
 void print_certificate(store::Database& db, const store::CertificateRecord& c, const std::string& format,
                        const std::optional<std::string>& output, Env& env) {
-  const nlohmann::json doc = app::certificate_document(db, c);
+  const nlohmann::json shown = app::certificate_document(db, c);
   if (format == "pdf") {
-    // The PDF header shows content["status"] when it is a string: the standing today, not part of the hash.
-    store::CertificateRecord shown = c;
-    shown.content["status"] = report::certificate_status_summary(doc["status"]);
     const auto outcome = app::write_certificate_pdf(shown, *output);
     for (const auto& w : outcome.warnings) fmt::print(env.err, "plumb: {}\n", w);
     fmt::print(env.out, "Certificate {} written to {} ({} page(s)).\n", c.number, *output, outcome.pages);
   } else if (format == "json") {
-    env.out << doc.dump(2) << "\n";
+    env.out << report::certificate_json(shown).dump(2) << "\n";
+  } else if (format == "html") {
+    env.out << report::certificate_html(shown);
   } else {
-    env.out << report::certificate_status_banner(doc["status"]);
-    env.out << report::certificate_text(c.content, c.content_sha256);
-    env.out << report::certificate_review_lines(doc["status"]);
+    env.out << report::certificate_text(shown);
   }
 }
 
 }  // namespace
 
 std::vector<Command> certificate_commands() {
-  Command issue{"certificate", "issue", "issue the certificate of a check run (stored; never changes)",
-                "plumb certificate issue LAST --format text",
-                [](po::options_description& d, po::positional_options_description& p) {
-                  d.add_options()("run", po::value<std::string>()->default_value("LAST"),
-                                  "run number or LAST (the last run recorded)")(
-                      "layout", po::value<std::string>(), "certificate layout JSON (default: $PLUMB_LAYOUT or built-in)");
-                  add_format_option(d, "text|json|pdf");
-                  d.add_options()("output", po::value<std::string>(), "FILE.pdf for --format pdf");
-                  p.add("run", 1);
-                },
-                [](const po::variables_map& vm, Env& env) {
-                  const auto format = format_of(vm, {"text", "json", "pdf"});
-                  const auto output = pdf_output(vm, format);
-                  auto db = env.open();
-                  const auto outcome = app::issue_certificate(db, env.actor(db), vm["run"].as<std::string>(),
-                                                              optional_string(vm, "layout"));
-                  if (outcome.already_issued)
-                    fmt::print(env.err, "plumb: run {} already has certificate {}; shown unchanged.\n",
-                               outcome.certificate.run_id, outcome.certificate.number);
-                  print_certificate(db, outcome.certificate, format, output, env);
-                  return 0;
-                }};
-  Command show{"certificate", "show",
+  Command issue{
+      "certificate",
+      "issue",
+      "issue the certificate of a check run (stored; never changes)",
+      "plumb certificate issue LAST --format text",
+      [](po::options_description& d, po::positional_options_description& p) {
+        d.add_options()("run", po::value<std::string>()->default_value("LAST"),
+                        "run number or LAST (the last run recorded)")(
+            "layout", po::value<std::string>(), "certificate layout JSON (default: $PLUMB_LAYOUT or built-in)");
+        add_format_option(d, "text|json|html|pdf");
+        d.add_options()("output", po::value<std::string>(), "FILE.pdf for --format pdf");
+        p.add("run", 1);
+      },
+      [](const po::variables_map& vm, Env& env) {
+        const auto format = format_of(vm, {"text", "json", "html", "pdf"});
+        const auto output = pdf_output(vm, format);
+        auto db = env.open();
+        const auto outcome =
+            app::issue_certificate(db, env.actor(db), vm["run"].as<std::string>(), optional_string(vm, "layout"));
+        if (outcome.already_issued)
+          fmt::print(env.err, "plumb: run {} already has certificate {}; shown unchanged.\n",
+                     outcome.certificate.run_id, outcome.certificate.number);
+        print_certificate(db, outcome.certificate, format, output, env);
+        return 0;
+      }};
+  Command show{"certificate",
+               "show",
                "show a stored certificate by number, LAST (the last issued) or run number; --format dcc writes it as "
                "a Digital Calibration Certificate (DCC 3.1.2 XML, D-SI 2.1.0 units; see doc/dcc.md)",
                "plumb certificate show CC-2026-0001 --format dcc --country DE > CC-2026-0001.xml",
@@ -80,19 +78,20 @@ std::vector<Command> certificate_commands() {
                  d.add_options()("number", po::value<std::string>()->required(),
                                  "certificate number, LAST (the last certificate issued) or a run number (its "
                                  "certificate)");
-                 add_format_option(d, "text|json|pdf|dcc");
+                 add_format_option(d, "text|json|html|pdf|dcc");
                  d.add_options()("output", po::value<std::string>(), "FILE.pdf for --format pdf")(
                      "country", po::value<std::string>(),
                      "the laboratory's ISO 3166-1 two-letter country code, for --format dcc (e.g. DE)");
                  p.add("number", 1);
                },
                [](const po::variables_map& vm, Env& env) {
-                 const auto format = format_of(vm, {"text", "json", "pdf", "dcc"});
+                 const auto format = format_of(vm, {"text", "json", "html", "pdf", "dcc"});
                  const auto output = pdf_output(vm, format);
                  const auto country = optional_string(vm, "country");
                  if (format == "dcc" && !country)
-                   throw InputError("--format dcc needs --country, the laboratory's ISO 3166-1 two-letter country "
-                                    "code (e.g. --country DE).");
+                   throw InputError(
+                       "--format dcc needs --country, the laboratory's ISO 3166-1 two-letter country "
+                       "code (e.g. --country DE).");
                  if (format != "dcc" && country)
                    throw InputError(fmt::format("--country is for --format dcc, not {}.", format));
                  auto db = env.open();
@@ -104,30 +103,30 @@ std::vector<Command> certificate_commands() {
                                    env);
                  return 0;
                }};
-  Command approve{"certificate", "approve",
-                  "approve a draft certificate as its reviewer (someone other than the run's operator)",
-                  "plumb certificate approve BC-2026-0001 --by \"Q. Manager\" --meaning \"reviewed and approved\"",
-                  [](po::options_description& d, po::positional_options_description& p) {
-                    d.add_options()("number", po::value<std::string>()->required(),
-                                    "certificate number, LAST (the last certificate issued) or a run number")(
-                        "meaning", po::value<std::string>(),
-                        "what the signature means, e.g. \"reviewed and approved\" (required)");
-                    add_format_option(d);
-                    p.add("number", 1);
-                  },
-                  [](const po::variables_map& vm, Env& env) {
-                    const auto format = format_of(vm, {"text", "json"});
-                    if (!vm.count("meaning"))
-                      throw InputError("--meaning must state what the signature means, e.g. \"reviewed and approved\".");
-                    auto db = env.open();
-                    const auto signer = env.actor(db);
-                    const auto c = app::approve_certificate(db, signer, vm["number"].as<std::string>(),
-                                                            vm["meaning"].as<std::string>());
-                    if (format == "text")
-                      fmt::print(env.out, "Certificate {} approved by {}.\n", c.number, signer.name);
-                    print_certificate(db, c, format, std::nullopt, env);
-                    return 0;
-                  }};
+  Command approve{
+      "certificate",
+      "approve",
+      "approve a draft certificate as its reviewer (someone other than the run's operator)",
+      "plumb certificate approve BC-2026-0001 --meaning \"reviewed and approved\"",
+      [](po::options_description& d, po::positional_options_description& p) {
+        d.add_options()("number", po::value<std::string>()->required(),
+                        "certificate number, LAST (the last certificate issued) or a run number")(
+            "meaning", po::value<std::string>(), "what the signature means, e.g. \"reviewed and approved\" (required)");
+        add_format_option(d);
+        p.add("number", 1);
+      },
+      [](const po::variables_map& vm, Env& env) {
+        const auto format = format_of(vm, {"text", "json"});
+        if (!vm.count("meaning"))
+          throw InputError("--meaning must state what the signature means, e.g. \"reviewed and approved\".");
+        auto db = env.open();
+        const auto signer = env.actor(db);
+        const auto c =
+            app::approve_certificate(db, signer, vm["number"].as<std::string>(), vm["meaning"].as<std::string>());
+        if (format == "text") fmt::print(env.out, "Certificate {} approved by {}.\n", c.number, signer.name);
+        print_certificate(db, c, format, std::nullopt, env);
+        return 0;
+      }};
   Command list{
       "certificate",
       "list",

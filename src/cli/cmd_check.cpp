@@ -17,7 +17,9 @@
 #include "core/errors.hpp"
 #include "report/calibration/text.hpp"
 #include "report/runs/json.hpp"
+#include "report/runs/raw_lines.hpp"
 #include "report/runs/text.hpp"
+#include "store/raw_lines.hpp"
 #include "store/repository.hpp"
 #include "store/users.hpp"
 
@@ -40,8 +42,10 @@ std::string read_input(const std::string& path, std::string& source) {
 
 void print_run(const store::RunRecord& run, const std::string& format, Env& env) {
   const auto j = report::run_json(run);
-  if (format == "json") env.out << j.dump(2) << "\n";
-  else env.out << report::run_text(j);
+  if (format == "json")
+    env.out << j.dump(2) << "\n";
+  else
+    env.out << report::run_text(j);
 }
 
 /// --on, or today's local date when it is not given (the bench records what was done today).
@@ -114,6 +118,9 @@ int record_calibration(const po::variables_map& vm, Env& env, const std::string&
   in.temperature_c = optional_string(vm, "temperature");
   in.pressure_hpa = optional_string(vm, "pressure");
   in.humidity_pct = optional_string(vm, "humidity");
+  in.temperature_u = optional_string(vm, "temperature-u");
+  in.pressure_u = optional_string(vm, "pressure-u");
+  in.humidity_u = optional_string(vm, "humidity-u");
   in.air_formula = vm["air-formula"].as<std::string>();
   in.model = vm["model"].as<std::string>();
   auto db = env.open();
@@ -174,6 +181,10 @@ std::vector<Command> check_commands() {
             "humidity", po::value<std::string>(),
             "calibration and gravimetric: relative humidity with its unit, e.g. 45%")(
             "air-formula", po::value<std::string>()->default_value("cipm2007"), "calibration: cipm2007 | oiml-r111")(
+            "temperature-u", po::value<std::string>(),
+            "calibration: standard uncertainty of the air thermometer, e.g. 0.1C (propagated into the air density)")(
+            "pressure-u", po::value<std::string>(), "calibration: standard uncertainty of the barometer, e.g. 0.5hPa")(
+            "humidity-u", po::value<std::string>(), "calibration: standard uncertainty of the hygrometer, e.g. 2%")(
             "model", po::value<std::string>()->default_value("line"),
             "calibration: fitted model, line | through-origin | quadratic")(
             "balance", po::value<std::string>(), "gravimetric: the balance the water was weighed on")(
@@ -205,32 +216,46 @@ std::vector<Command> check_commands() {
         }
         return 3;
       }};
-  Command show{"check", "show", "show one check run with its results", "plumb check show LAST --format json",
-               [](po::options_description& d, po::positional_options_description& p) {
-                 d.add_options()("run", po::value<std::string>()->default_value("LAST"), "run number or LAST")(
-                     "at", po::value<std::string>(), "calibration: the fitted error at this load, e.g. 120g")(
-                     "extrapolate", po::bool_switch(), "with --at: show a load outside the calibrated range, marked");
-                 add_format_option(d);
-                 p.add("run", 1);
-               },
-               [](const po::variables_map& vm, Env& env) {
-                 const auto format = format_of(vm, {"text", "json"});
-                 if (vm["extrapolate"].as<bool>() && !vm.count("at"))
-                   throw InputError("--extrapolate applies only with --at LOAD (the load to read the fitted error at).");
-                 auto db = env.open();
-                 const auto id = app::resolve_run(db, vm["run"].as<std::string>());
-                 const auto run = *store::find_run(db.sql(), id);
-                 if (const auto at = optional_string(vm, "at")) {
-                   // The answer at that load only, not the whole run around it.
-                   const auto e = app::calibration_error_at(run, *at, vm["extrapolate"].as<bool>());
-                   env.out << (format == "json" ? e.dump(2) + "\n" : report::calibration_error_at_text(e));
-                   return 0;
-                 }
-                 print_run(run, format, env);
-                 return 0;
-               }};
+  Command show{
+      "check",
+      "show",
+      "show one check run with its results",
+      "plumb check show LAST --format json",
+      [](po::options_description& d, po::positional_options_description& p) {
+        d.add_options()("run", po::value<std::string>()->default_value("LAST"), "run number or LAST")(
+            "at", po::value<std::string>(), "calibration: the fitted error at this load, e.g. 120g")(
+            "extrapolate", po::bool_switch(), "with --at: show a load outside the calibrated range, marked");
+        add_format_option(d);
+        p.add("run", 1);
+      },
+      [](const po::variables_map& vm, Env& env) {
+        const auto format = format_of(vm, {"text", "json"});
+        if (vm["extrapolate"].as<bool>() && !vm.count("at"))
+          throw InputError("--extrapolate applies only with --at LOAD (the load to read the fitted error at).");
+        auto db = env.open();
+        const auto id = app::resolve_run(db, vm["run"].as<std::string>());
+        const auto run = *store::find_run(db.sql(), id);
+        if (const auto at = optional_string(vm, "at")) {
+          // The answer at that load only, not the whole run around it.
+          const auto e = app::calibration_error_at(run, *at, vm["extrapolate"].as<bool>());
+          env.out << (format == "json" ? e.dump(2) + "\n" : report::calibration_error_at_text(e));
+          return 0;
+        }
+        // A captured run shows its original record: the lines as the balance sent them.
+        const auto lines = store::raw_lines_of(db.sql(), id);
+        if (format == "json") {
+          auto j = report::run_json(run);
+          if (!lines.empty()) j["raw_lines"] = report::raw_lines_json(lines);
+          env.out << j.dump(2) << "\n";
+        } else {
+          print_run(run, format, env);
+          env.out << report::raw_lines_text(lines);
+        }
+        return 0;
+      }};
   Command correct{
-      "check", "correct",
+      "check",
+      "correct",
       "correct a run: a new run supersedes it (reason required); the original stays; a certificate is replaced",
       "plumb check correct 12 --readings fixed.csv --reason \"reading 4 mistyped (100.0040 for 100.0004)\" --by \"Q. "
       "Manager\"",
@@ -240,26 +265,32 @@ std::vector<Command> check_commands() {
             "readings", po::value<std::string>(), "corrected readings CSV (default: the run's readings); - for stdin")(
             "unit", po::value<std::string>()->default_value("g"), "unit of readings without a unit column")(
             "on", po::value<std::string>(), "corrected date performed, YYYY-MM-DD")(
-            "operator", po::value<std::string>(), "user id of the operator who performed the check, when that was wrong")(
+            "operator", po::value<std::string>(),
+            "user id of the operator who performed the check, when that was wrong")(
             "weight", po::value<std::vector<std::string>>(), "repeatability: corrected reference weight id")(
             "temperature", po::value<std::string>(), "calibration: corrected air temperature, degC")(
             "pressure", po::value<std::string>(), "calibration and gravimetric: corrected air pressure, hPa")(
             "humidity", po::value<std::string>(), "calibration and gravimetric: corrected relative humidity, %")(
             "air-formula", po::value<std::string>(), "calibration: corrected air density formula")(
+            "temperature-u", po::value<std::string>(), "calibration: corrected thermometer standard uncertainty")(
+            "pressure-u", po::value<std::string>(), "calibration: corrected barometer standard uncertainty")(
+            "humidity-u", po::value<std::string>(), "calibration: corrected hygrometer standard uncertainty")(
             "model", po::value<std::string>(), "calibration: corrected fitted model")(
             "balance", po::value<std::string>(), "gravimetric: corrected balance the water was weighed on")(
             "water-temp", po::value<std::string>(), "gravimetric: corrected water temperature, degC")(
             "evaporation", po::value<std::string>(), "gravimetric: corrected evaporation loss per weighing")(
             "water-temp-u", po::value<std::string>(), "gravimetric: corrected thermometer standard uncertainty")(
             "air-density-u", po::value<std::string>(), "gravimetric: corrected air density standard uncertainty")(
-            "layout", po::value<std::string>(), "layout of the replacement certificate (default: that of the one it "
-                                                "replaces)");
+            "layout", po::value<std::string>(),
+            "layout of the replacement certificate (default: that of the one it "
+            "replaces)");
         add_format_option(d);
         p.add("run", 1);
       },
       [](const po::variables_map& vm, Env& env) {
         const auto format = format_of(vm, {"text", "json"});
-        if (!vm.count("reason")) throw InputError("--reason must say why the run is corrected (it is kept with the correction).");
+        if (!vm.count("reason"))
+          throw InputError("--reason must say why the run is corrected (it is kept with the correction).");
         app::CorrectionInput in;
         in.run = vm["run"].as<std::string>();
         in.reason = vm["reason"].as<std::string>();
@@ -281,13 +312,13 @@ std::vector<Command> check_commands() {
         }
         const auto out = app::correct_check(db, env.actor(db), in);
         if (format == "json") {
-          nlohmann::json j = {{"original", report::run_json(out.original)},
-                              {"correction", report::run_json(out.correction)},
-                              {"superseded_certificate", out.superseded_certificate
-                                                             ? nlohmann::json(out.superseded_certificate->number)
-                                                             : nlohmann::json()},
-                              {"new_certificate",
-                               out.new_certificate ? nlohmann::json(out.new_certificate->number) : nlohmann::json()}};
+          nlohmann::json j = {
+              {"original", report::run_json(out.original)},
+              {"correction", report::run_json(out.correction)},
+              {"superseded_certificate",
+               out.superseded_certificate ? nlohmann::json(out.superseded_certificate->number) : nlohmann::json()},
+              {"new_certificate",
+               out.new_certificate ? nlohmann::json(out.new_certificate->number) : nlohmann::json()}};
           env.out << j.dump(2) << "\n";
           return 0;
         }
@@ -300,7 +331,8 @@ std::vector<Command> check_commands() {
         return 0;
       }};
   Command void_command{
-      "check", "void",
+      "check",
+      "void",
       "void a run entered in error (reason required): it stays in history, marked void, and stops counting",
       "plumb check void 14 --reason \"entered for BAL-A by mistake; the check was on BAL-B\" --by \"Q. Manager\"",
       [](po::options_description& d, po::positional_options_description& p) {
@@ -315,10 +347,10 @@ std::vector<Command> check_commands() {
         auto db = env.open();
         const auto out = app::void_run(db, env.actor(db), vm["run"].as<std::string>(), vm["reason"].as<std::string>());
         if (format == "json") {
-          nlohmann::json j = {{"run", report::run_json(out.run)},
-                              {"withdrawn_certificate", out.withdrawn_certificate
-                                                            ? nlohmann::json(out.withdrawn_certificate->number)
-                                                            : nlohmann::json()}};
+          nlohmann::json j = {
+              {"run", report::run_json(out.run)},
+              {"withdrawn_certificate",
+               out.withdrawn_certificate ? nlohmann::json(out.withdrawn_certificate->number) : nlohmann::json()}};
           env.out << j.dump(2) << "\n";
           return 0;
         }

@@ -5,14 +5,15 @@
 
 #include <nlohmann/json.hpp>
 
-#include "app/certificates/pdf.hpp"
 #include "app/certificates/issue.hpp"
-#include "app/history/html_report.hpp"
+#include "app/certificates/pdf.hpp"
+#include "app/certificates/review.hpp"
 #include "app/demo/demo_lab.hpp"
+#include "app/history/html_report.hpp"
 #include "app/status/due.hpp"
 #include "cli/command_groups.hpp"
 #include "cli/progress.hpp"
-#include "report/certificates/text.hpp"
+#include "report/certificates/renderings.hpp"
 #include "report/document/demo_logo.hpp"
 #include "store/embedded.hpp"
 #include "store/users.hpp"
@@ -21,7 +22,9 @@ namespace plumb::cli {
 
 std::vector<Command> demo_commands() {
   Command demo{
-      "demo", "", "build an invented demo laboratory with a year of weekly checks, then show what is due",
+      "demo",
+      "",
+      "build an invented demo laboratory with a year of weekly checks, then show what is due",
       "plumb demo            (writes ./plumb-demo.db; or plumb --db /tmp/demo.db demo)",
       [](po::options_description&, po::positional_options_description&) {},
       [](const po::variables_map&, Env& env) {
@@ -51,15 +54,17 @@ std::vector<Command> demo_commands() {
         const auto ines = store::find_user_by_login(db.sql(), "ines");
         const auto cert = app::issue_certificate(db, {ines->full_name, store::current_os_user(), ines->id},
                                                  std::to_string(summary.showcase_run), layout.string());
-        fmt::print(env.out, "\nCertificate of the latest check of AB-01:\n\n{}",
-                   report::certificate_text(cert.certificate.content, cert.certificate.content_sha256));
+        const auto shown = app::certificate_document(db, cert.certificate);
+        fmt::print(env.out, "\nCertificate of the latest check of AB-01:\n\n{}", report::certificate_text(shown));
         // The same certificate as PDF, and the lab's HTML history report, beside the database.
         const std::filesystem::path pdf = path.string() + ".certificate.pdf", html = path.string() + ".report.html";
-        app::write_certificate_pdf(cert.certificate, pdf);
+        app::write_certificate_pdf(shown, pdf);
         app::write_history_report(db, {html, std::nullopt, summary.report_on});
-        fmt::print(env.out, "\nAlso written: {} (the certificate as PDF) and {} (HTML history report).\n",
-                   pdf.string(), html.string());
-        fmt::print(env.out, "\nTry: plumb --db {} due --on {} --within 14d\n     plumb --db {} check show LAST\n     plumb --db {} drift AB-01 --chart ab01-drift.png\n",
+        fmt::print(env.out, "\nAlso written: {} (the certificate as PDF) and {} (HTML history report).\n", pdf.string(),
+                   html.string());
+        fmt::print(env.out,
+                   "\nTry: plumb --db {} due --on {} --within 14d\n     plumb --db {} check show LAST\n     plumb --db "
+                   "{} drift AB-01 --chart ab01-drift.png\n",
                    path.string(), to_string(summary.report_on), path.string(), path.string());
         fmt::print(env.out, "     plumb --db {} certificate queue\n", path.string());
         fmt::print(env.out, "\nDemo accounts (DEMO ONLY: these passwords are printed here and must never protect "

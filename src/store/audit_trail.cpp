@@ -1,13 +1,17 @@
 #include "store/audit_trail.hpp"
 
 #include <SQLiteCpp/Statement.h>
+#include <SQLiteCpp/Transaction.h>
 #include <fmt/format.h>
+#include <sqlite3.h>
 
 #include <algorithm>
 #include <limits>
 #include <map>
 
+#include "store/checkpoint_verification.hpp"
 #include "store/recorder.hpp"
+#include "store/schema_verification.hpp"
 #include "store/table_schema.hpp"
 
 namespace plumb::store {
@@ -32,7 +36,7 @@ std::string shown(const json& v) {
 std::vector<std::string> audited_tables(SQLite::Database& db) {
   SQLite::Statement q(db,
                       "SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%' "
-                      "AND name NOT IN ('audit_log', 'session_activity') ORDER BY name");
+                      "AND name NOT IN ('audit_log', 'session_activity', 'checkpoints') ORDER BY name");
   std::vector<std::string> out;
   while (q.executeStep()) out.push_back(q.getColumn(0).getString());
   return out;
@@ -168,10 +172,19 @@ std::vector<AuditRecord> audit_records(SQLite::Database& db) {
   return out;
 }
 
-AuditVerification verify_audit_trail(SQLite::Database& db) {
+AuditVerification verify_audit_trail(SQLite::Database& db, const VerifyOptions& options) {
+  // One read transaction: every table, the trail and its checkpoints are read from one snapshot, so a command
+  // committing meanwhile in another process is either wholly seen or not at all (no false "written outside plumb").
+  std::optional<SQLite::Transaction> snapshot;
+  if (sqlite3_get_autocommit(db.getHandle())) {
+    snapshot.emplace(db, SQLite::TransactionBehavior::DEFERRED);
+    db.execAndGet("SELECT count(*) FROM sqlite_schema");  // a deferred transaction takes its snapshot at the first read
+  }
   AuditVerification out;
+  out.problems = verify_schema(db, out.schema_objects);
   const auto records = audit_records(db);
   check_chain(records, out);
+  verify_checkpoints(db, records, options, out);
 
   // What the trail says each table holds, by primary key.
   const auto tables = audited_tables(db);
@@ -257,9 +270,11 @@ AuditVerification verify_audit_trail(SQLite::Database& db) {
                                         u.table, u.key)});
 
   // Trail order: the first problem is the earliest record that went wrong; unaudited rows come last.
+  // Schema problems come last of all: the changed row is the news, a dropped trigger only how it was done.
   std::stable_sort(out.problems.begin(), out.problems.end(), [](const AuditProblem& a, const AuditProblem& b) {
     const auto order = [](const AuditProblem& p) {
-      return p.seq == 0 ? std::numeric_limits<std::int64_t>::max() : p.seq;
+      constexpr auto last = std::numeric_limits<std::int64_t>::max();
+      return p.kind == AuditProblem::Kind::schema ? last : p.seq == 0 ? last - 1 : p.seq;
     };
     return order(a) < order(b);
   });

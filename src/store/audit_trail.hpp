@@ -9,6 +9,8 @@
 #include <string>
 #include <vector>
 
+#include "store/checkpoints.hpp"
+
 namespace plumb::store {
 
 struct AuditRecord {
@@ -49,13 +51,16 @@ std::string genesis_hash();
 
 struct AuditProblem {
   enum class Kind {
-    missing_record,   ///< a gap in the sequence numbers: audit records were deleted
-    broken_link,      ///< prev_hash is not the hash of the record before: removed, inserted or reordered
-    altered_record,   ///< the record's content does not match its own hash
-    field_mismatch,   ///< a table row differs from what the trail recorded
-    row_missing,      ///< the trail recorded a row that the table no longer has
-    unaudited_row,    ///< a table row that no audit record describes
-    duplicate_record,  ///< two audit records describe the same row
+    missing_record,     ///< a gap in the sequence numbers: audit records were deleted
+    broken_link,        ///< prev_hash is not the hash of the record before: removed, inserted or reordered
+    altered_record,     ///< the record's content does not match its own hash
+    field_mismatch,     ///< a table row differs from what the trail recorded
+    row_missing,        ///< the trail recorded a row that the table no longer has
+    unaudited_row,      ///< a table row that no audit record describes
+    duplicate_record,   ///< two audit records describe the same row
+    checkpoint,         ///< a signed checkpoint that is missing, forged, or no longer matches the trail
+    unsigned_records,   ///< audit records after the last signed checkpoint
+    schema,             ///< a table, column, trigger or index that the migrations do not create (or one gone)
     signature_mismatch  ///< a signature no longer matches the record it names (store/signature_check.hpp)
   };
   Kind kind = Kind::altered_record;
@@ -68,17 +73,33 @@ struct AuditProblem {
 };
 
 struct AuditVerification {
-  std::int64_t records = 0;       ///< audit records walked
-  std::int64_t rows = 0;          ///< table rows compared with the trail
-  std::int64_t tables = 0;        ///< tables compared
-  std::string last_hash;          ///< hash of the last record (genesis when the trail is empty)
+  std::int64_t records = 0;      ///< audit records walked
+  std::int64_t rows = 0;         ///< table rows compared with the trail
+  std::int64_t tables = 0;       ///< tables compared
+  std::string last_hash;         ///< hash of the last record (genesis when the trail is empty)
+  std::int64_t checkpoints = 0;  ///< signed checkpoints proved
+  std::optional<Checkpoint> last_checkpoint;
+  std::string key_fingerprint;         ///< of the key that signed them (store::key_fingerprint)
+  std::int64_t schema_objects = 0;     ///< tables, indexes and triggers compared with the migrations
   std::vector<AuditProblem> problems;  ///< in trail order; the first is the first thing that went wrong
 
   [[nodiscard]] bool ok() const { return problems.empty(); }
 };
 
-/// Walks the chain and compares every column of every row of every table (but the trail itself) with
-/// the row the trail recorded. Reads only.
-AuditVerification verify_audit_trail(SQLite::Database& db);
+struct VerifyOptions {
+  /// The lab's public key (hex) from outside the database; none: each checkpoint is checked with the key it names,
+  /// which proves it unaltered but not who signed it.
+  std::optional<std::string> public_key;
+  std::string public_key_source;  ///< for messages, e.g. "the public key lab.pub"
+  /// An exported checkpoint whose history must still be there unchanged (audit verify --since).
+  std::optional<Checkpoint> since;
+  std::string since_source;
+};
+
+/// In one read transaction (one consistent snapshot, whatever other processes write meanwhile): compares the schema
+/// with what the compiled-in migrations create, walks the chain, proves every signed checkpoint against it, and
+/// compares every column of every row of every table (but the trail and its checkpoints) with the row the trail
+/// recorded. Reads only.
+AuditVerification verify_audit_trail(SQLite::Database& db, const VerifyOptions& options = {});
 
 }  // namespace plumb::store

@@ -17,6 +17,7 @@
 #include "core/errors.hpp"
 #include "core/text_field.hpp"
 #include "store/canonical_json.hpp"
+#include "store/checkpoints.hpp"
 
 namespace plumb::store {
 
@@ -81,6 +82,14 @@ json row_json(SQLite::Statement& row) {
 Recorder::Recorder(SQLite::Database& db, Actor actor) : db_(db), actor_(std::move(actor)), now_(utc_timestamp()) {
   // Who is recorded in every audit record: plain text on one line, like every stored text.
   check_text_field(actor_.name, "--by");
+  const char* file = sqlite3_db_filename(db_.getHandle(), "main");
+  if (file && *file) key_ = LabKey::load(key_path_for(file));
+}
+
+void Recorder::commit(SQLite::Transaction& tx) {
+  if (!key_) throw StorageError("records of an in-memory database cannot be signed: it has no lab key.");
+  write_checkpoint(db_, *key_, first_seq_);
+  tx.commit();
 }
 
 SQLite::Statement& Recorder::statement(const std::string& sql) {
@@ -164,6 +173,7 @@ void Recorder::append_recorded(const TableSchema& schema, const Row& row, std::i
 void Recorder::chain(PreparedGroup& g) {
   auto [seq, prev] = chain_tail();
   g.seq = seq + 1;
+  if (first_seq_ == 0) first_seq_ = g.seq;
   g.prev_hash = std::move(prev);
   g.hash = audit_hash_of(g);
   if (batch_) {  // the next record follows this one, written or not yet

@@ -3,16 +3,18 @@
 // when, what and why, chained by SHA-256 so that a record changed behind plumb's back is detectable.
 #include <SQLiteCpp/Database.h>
 #include <SQLiteCpp/Statement.h>
+#include <SQLiteCpp/Transaction.h>
 
 #include <functional>
 #include <map>
 #include <memory>
-#include <span>
 #include <nlohmann/json.hpp>
 #include <optional>
+#include <span>
 #include <string>
 #include <vector>
 
+#include "store/lab_key.hpp"
 #include "store/row.hpp"
 #include "store/table_schema.hpp"
 
@@ -46,34 +48,41 @@ struct PreparedGroup {
 
 class Recorder {
 public:
-  Recorder(SQLite::Database& db, Actor actor);
+ /// Reads the lab's signing key of the database file (store::key_path_for) first: a command that cannot sign
+ /// its records is refused before it writes anything (InputError naming the key file). An in-memory database
+ /// has no key; its records cannot be committed with commit().
+ Recorder(SQLite::Database& db, Actor actor);
 
-  /// Inserts `row` into `table` and appends the audit record. `key_columns` name the primary key; a
-  /// single integer key absent from `row` is taken from the new rowid. Returns the rowid.
-  std::int64_t insert(const std::string& table, const Row& row, const std::vector<std::string>& key_columns,
-                      const std::string& reason = "");
+ /// Ends the command: signs a checkpoint covering every record written (store/checkpoints), then commits `tx`.
+ /// Every command that writes records ends this way, so that the trail's end is always signed.
+ void commit(SQLite::Transaction& tx);
 
-  /// Inserts rows that make one record together (a check run with its weights and readings) under one
-  /// audit record (action "insert rows"): the trail then reads one entry per thing a person recorded, and
-  /// a batch import does not write a trail record for every reading. `fill` inserts the rows.
-  void insert_together(const std::string& reason, const std::function<void(RowGroup&)>& fill);
-  /// insert_together in two steps: compute the rows (with their ids) and the audit record ...
-  PreparedGroup prepare_together(const std::string& reason, const std::function<void(RowGroup&)>& fill);
-  /// ... and write them. Groups are written in the order they were prepared.
-  void write(const PreparedGroup& group);
-  /// Several prepared groups at once, in order: each table's rows of all of them with multi-row INSERTs, then
-  /// their audit records (a batch import writes a chunk of runs this way).
-  void write(std::span<const PreparedGroup> groups);
+ /// Inserts `row` into `table` and appends the audit record. `key_columns` name the primary key; a
+ /// single integer key absent from `row` is taken from the new rowid. Returns the rowid.
+ std::int64_t insert(const std::string& table, const Row& row, const std::vector<std::string>& key_columns,
+                     const std::string& reason = "");
 
-  /// Batch mode, for a batch import inside one write transaction: the chain's tail and the next id of each
-  /// of `tables` are read once and then kept in memory (the transaction holds the write lock, so nobody
-  /// else can append), which lets prepare_together run on another thread without touching the database
-  /// while this one writes. Only prepare_together and write may be used until end_batch.
-  void begin_batch(const std::vector<std::string>& tables);
-  void end_batch();
+ /// Inserts rows that make one record together (a check run with its weights and readings) under one
+ /// audit record (action "insert rows"): the trail then reads one entry per thing a person recorded, and
+ /// a batch import does not write a trail record for every reading. `fill` inserts the rows.
+ void insert_together(const std::string& reason, const std::function<void(RowGroup&)>& fill);
+ /// insert_together in two steps: compute the rows (with their ids) and the audit record ...
+ PreparedGroup prepare_together(const std::string& reason, const std::function<void(RowGroup&)>& fill);
+ /// ... and write them. Groups are written in the order they were prepared.
+ void write(const PreparedGroup& group);
+ /// Several prepared groups at once, in order: each table's rows of all of them with multi-row INSERTs, then
+ /// their audit records (a batch import writes a chunk of runs this way).
+ void write(std::span<const PreparedGroup> groups);
 
-  [[nodiscard]] const Actor& actor() const { return actor_; }
-  [[nodiscard]] const std::string& now() const { return now_; }
+ /// Batch mode, for a batch import inside one write transaction: the chain's tail and the next id of each
+ /// of `tables` are read once and then kept in memory (the transaction holds the write lock, so nobody
+ /// else can append), which lets prepare_together run on another thread without touching the database
+ /// while this one writes. Only prepare_together and write may be used until end_batch.
+ void begin_batch(const std::vector<std::string>& tables);
+ void end_batch();
+
+ [[nodiscard]] const Actor& actor() const { return actor_; }
+ [[nodiscard]] const std::string& now() const { return now_; }
 
 private:
   friend class RowGroup;
@@ -109,6 +118,8 @@ private:
 
   SQLite::Database& db_;
   Actor actor_;
+  std::optional<LabKey> key_;
+  std::int64_t first_seq_ = 0;  ///< the first audit record this Recorder wrote (0: none yet)
   std::string now_;  ///< one timestamp for the whole command
   std::map<std::string, std::unique_ptr<SQLite::Statement>> statements_;
   std::map<std::string, TableSchema> schemas_;

@@ -4,6 +4,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "support/audit_chain.hpp"
 #include "support/run_plumb.hpp"
 
 using nlohmann::json;
@@ -51,7 +52,7 @@ TEST_CASE("a correction supersedes the run and its certificate and keeps both vi
   CHECK(c["original"]["verdict"] == "fail");
   CHECK(c["correction"]["run_id"] == 2);
   CHECK(c["correction"]["supersedes"] == 1);
-  CHECK(c["correction"]["verdict"] == "pass");  // re-evaluated: the same readings pass in weekly_check_test
+  CHECK(c["correction"]["verdict"] == "pass");            // re-evaluated: the same readings pass in weekly_check_test
   CHECK(c["correction"]["operator"] == "A. Technician");  // the operator stays; the corrector is in the trail
   CHECK(c["superseded_certificate"] == old_number);
   const std::string new_number = c["new_certificate"].get<std::string>();
@@ -65,7 +66,7 @@ TEST_CASE("a correction supersedes the run and its certificate and keeps both vi
 
   // The superseded certificate says so in text and JSON; the new one names the one it replaces.
   r = run_plumb({"--db", db, "certificate", "show", old_number}, dir.path());
-  CHECK_THAT(r.out, Catch::Contains("STATUS: SUPERSEDED by certificate " + new_number) &&
+  CHECK_THAT(r.out, Catch::Contains("Status: SUPERSEDED by " + new_number) && Catch::Contains("*** SUPERSEDED ***") &&
                         Catch::Contains("no longer valid") && Catch::Contains("VERDICT: FAIL"));
   r = run_plumb({"--db", db, "certificate", "show", old_number, "--format", "json"}, dir.path());
   json status = json::parse(r.out)["status"];
@@ -142,16 +143,16 @@ TEST_CASE("a certificate is a draft until someone other than its operator approv
   REQUIRE(run_plumb({"--db", db, "certificate", "issue", "LAST", "--as", "A. Technician"}, dir.path()).status == 0);
   const std::string number = number_of_certificate(db, dir, "1");
   auto r = run_plumb({"--db", db, "certificate", "show", number}, dir.path());
-  CHECK_THAT(r.out, Catch::Contains("STATUS: DRAFT") && Catch::Contains("Not approved yet"));
+  CHECK_THAT(r.out, Catch::Contains("Status: DRAFT, not approved") && Catch::Contains("*** DRAFT ***"));
 
-  // The operator cannot approve their own check (names compared ignoring case and spacing).
+  // The operator cannot approve their own check: the account that recorded the run is refused (by user id).
   const std::string before = plumb::test::dump_database(db);
-  r = run_plumb({"--db", db, "certificate", "approve", number, "--as", "a.  technician", "--meaning",
-                 "reviewed and approved"},
-                dir.path());
-  CHECK(r.status == 2);
+  r = run_plumb(
+      {"--db", db, "certificate", "approve", number, "--as", "A. Technician", "--meaning", "reviewed and approved"},
+      dir.path());
+  CHECK(r.status == 4);
   CHECK(r.out.empty());
-  CHECK_THAT(r.err, Catch::Contains("someone other than its operator"));
+  CHECK_THAT(r.err, Catch::Contains("someone who neither recorded nor corrected its run"));
   CHECK(plumb::test::dump_database(db) == before);
 
   r = run_plumb({"--db", db, "certificate", "approve", number, "--as", "Q. Manager", "--meaning",
@@ -165,13 +166,17 @@ TEST_CASE("a certificate is a draft until someone other than its operator approv
   CHECK(approved["approval"]["meaning"] == "reviewed and approved");
   CHECK(approved["approval"]["at"].get<std::string>().size() == 20);  // 2026-12-02T01:02:03Z
   r = run_plumb({"--db", db, "certificate", "show", number}, dir.path());
-  CHECK_THAT(r.out, Catch::Contains("STATUS: APPROVED by Q. Manager") && Catch::Contains("Approved by Q. Manager") &&
-                        Catch::Contains("\"reviewed and approved\""));
+  CHECK_THAT(r.out, Catch::Contains("Status: APPROVED by Q. Manager") &&
+                        Catch::Contains("Q. Manager (reviewer and quality manager)") &&
+                        Catch::Contains("\u201creviewed and approved\u201d") && !Catch::Contains("*** DRAFT"));
 
-  // Approved means final: a second approval is refused and nothing is written.
+  // Approved means final: a second approval is refused and nothing is written (the second reviewer's account is
+  // made first, so that the comparison is of the approval alone).
+  const std::vector<std::string> second = {"--db",        db,          "certificate", "approve", number, "--as",
+                                           "R. Reviewer", "--meaning", "checked"};
+  plumb::test::prepare_login(second, dir.path());
   const std::string approved_dump = plumb::test::dump_database(db);
-  r = run_plumb({"--db", db, "certificate", "approve", number, "--as", "R. Reviewer", "--meaning", "checked"},
-                dir.path());
+  r = run_plumb(second, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("already approved by Q. Manager"));
   CHECK(plumb::test::dump_database(db) == approved_dump);
@@ -181,11 +186,11 @@ TEST_CASE("a retired balance or weight is not due and takes no new checks until 
   plumb::test::ScratchDir dir;
   const auto db = plumb::test::example_lab(dir).string();
   dir.write("r.csv", passing_readings);
-  const std::vector<std::string> check = {"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings",
-                                          "r.csv", "--on", "2026-11-30", "--as", "A. Technician"};
-  auto r = run_plumb({"--db", db, "instrument", "retire", "BAL-A", "--reason", "replaced by a newer balance", "--as",
-                      "Q. Manager"},
-                     dir.path());
+  const std::vector<std::string> check = {"--db",       db,      "check", "record",     "BAL-A", "--weight",     "W100",
+                                          "--readings", "r.csv", "--on",  "2026-11-30", "--as",  "A. Technician"};
+  auto r = run_plumb(
+      {"--db", db, "instrument", "retire", "BAL-A", "--reason", "replaced by a newer balance", "--as", "Q. Manager"},
+      dir.path());
   REQUIRE(r.status == 0);
   // Not due for anything: absent from the due list, and listed as retired (no due date) only with --all.
   r = run_plumb({"--db", db, "due", "--within", "1y", "--on", "2026-12-01", "--format", "json"}, dir.path());
@@ -245,12 +250,16 @@ TEST_CASE("audit verify exits 1 naming what the sqlite3 shell changed", "[cli][a
               .status == 0);
   auto r = run_plumb({"--db", db, "audit", "verify"}, dir.path());
   REQUIRE(r.status == 0);
-  // Records: init 1 + weight 2 + balance 2 + the run 1 = 6; rows: 5 + the run, its weight link, 10 readings = 17.
-  CHECK_THAT(r.out, Catch::Contains("Audit trail verified: 6 records chained by SHA-256, 17 rows") &&
+  // Records: init 1 + weight 2 + balance 2 + the run 1 = 6; rows: 5 + the run, its weight link, 10 readings = 17;
+  // besides them the test helper's accounts, one row each.
+  const long long accounts = plumb::test::account_records(db);
+  CHECK_THAT(r.out, Catch::Contains("Audit trail verified: " + std::to_string(6 + accounts) +
+                                    " records chained by SHA-256, " + std::to_string(17 + accounts) + " rows") &&
                         Catch::Contains("Last hash: "));
 
-  REQUIRE(sqlite3_shell(db, "DROP TRIGGER readings_no_update; UPDATE readings SET text = '100.0001' WHERE run_id = 1 "
-                            "AND seq = 4;") == 0);
+  REQUIRE(sqlite3_shell(db,
+                        "DROP TRIGGER readings_no_update; UPDATE readings SET text = '100.0001' WHERE run_id = 1 "
+                        "AND seq = 4;") == 0);
   r = run_plumb({"--db", db, "audit", "verify"}, dir.path());
   CHECK(r.status == 1);
   CHECK(r.out.empty());
@@ -271,14 +280,28 @@ TEST_CASE("backup copies a verified database and restore puts it back, refusing 
   auto r = run_plumb({"--db", db, "backup", "copy.db"}, dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
-  CHECK_THAT(r.out, Catch::Contains("integrity check ok, audit trail verified (6 records, 17 rows)"));
+  // 6 records and 17 rows of the lab and the run (as in the test above), and the helper's accounts, a row each.
+  const long long accounts = plumb::test::account_records(db);
+  CHECK_THAT(r.out, Catch::Contains("integrity check ok, audit trail verified (" + std::to_string(6 + accounts) +
+                                    " records, " + std::to_string(17 + accounts) + " rows)"));
   CHECK(std::filesystem::exists(dir.file("copy.db")));
   CHECK_FALSE(std::filesystem::exists(dir.file("copy.db-wal")));
   CHECK(plumb::test::dump_database(dir.file("copy.db")) == plumb::test::dump_database(db));
   CHECK(run_plumb({"--db", db, "backup", "copy.db"}, dir.path()).status == 2);  // exists: needs --force
 
-  // Restore into a fresh path, then over the live database (which is saved first).
+  // Restore into a fresh path, then over the live database (which is saved first). The restore is signed, so the
+  // lab's key must come along to the new path (doc/audit-trail.md): without it nothing is written.
   r = run_plumb({"--db", "fresh.db", "restore", "copy.db", "--reason", "new lab PC"}, dir.path());
+  CHECK(r.status == 2);
+  CHECK_THAT(r.err, Catch::Contains("fresh.db.key"));
+  CHECK_FALSE(std::filesystem::exists(dir.file("fresh.db")));
+  std::filesystem::copy_file(dir.file("lab.db.key"), dir.file("fresh.db.key"));
+  // No account exists at a path with no database: the one restoring logs in with the backup's accounts.
+  std::vector<std::string> fresh = plumb::test::login_options(dir.file("copy.db"), "Lab Tester", dir.path());
+  REQUIRE(fresh.size() == 4);
+  fresh.insert(fresh.end(), {"--db", "fresh.db", "restore", "copy.db", "--reason", "new lab PC"});
+  r = run_plumb(fresh, dir.path());
+  INFO(r.err);
   REQUIRE(r.status == 0);
   CHECK(run_plumb({"--db", "fresh.db", "audit", "verify"}, dir.path()).status == 0);
   REQUIRE(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
@@ -288,8 +311,11 @@ TEST_CASE("backup copies a verified database and restore puts it back, refusing 
   CHECK(run_plumb({"--db", db, "restore", "copy.db", "--reason", "test"}, dir.path()).status == 2);  // needs --force
   r = run_plumb({"--db", db, "restore", "copy.db", "--force", "--reason", "disk failure"}, dir.path());
   REQUIRE(r.status == 0);
-  // The backup's 6 records and the record of the restore; the run of 2026-12-01 is gone (kept in the safety copy).
-  CHECK_THAT(r.out, Catch::Contains("7 audit records") && Catch::Contains("(7 audit records) was saved as") &&
+  // The backup's 6 records (and the helper's accounts) and the record of the restore; the run of 2026-12-01 is gone
+  // (kept in the safety copy).
+  const std::string seven = std::to_string(7 + accounts);
+  CHECK_THAT(r.out, Catch::Contains(seven + " audit records") &&
+                        Catch::Contains("(" + seven + " audit records) was saved as") &&
                         Catch::Contains("removes 1 record recorded after the backup"));
   CHECK(run_plumb({"--db", db, "check", "show", "2"}, dir.path()).status == 2);
   CHECK(run_plumb({"--db", db, "check", "show", "1"}, dir.path()).status == 0);

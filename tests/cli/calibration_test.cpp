@@ -66,10 +66,15 @@ TEST_CASE("calibration: record, show with budget and fit, error at a load, certi
   //     s = 0.0527046, divided by sqrt(1) (one reading at the load), dof 9
   //   eccentricity: |dI|max = 0.2 at L_ecc = 100 g; at L = 100 g the half-width is 0.2 / (2 x 100) x 100 = 0.1,
   //     u = 0.1 / sqrt 3 = 0.0577350 (square 3.333333e-3)
-  //   reference weight W100: U / k = 0.05 / 2 = 0.025 (square 6.25e-4); buoyancy 0; drift 0 (one certificate)
-  //   u_c^2 = 1.666667e-3 + 2.777778e-3 + 3.333333e-3 + 6.25e-4 = 8.402778e-3, u_c = 0.0916667 mg
-  //     (exactly: 1/600 + 1/360 + 1/300 + 1/1600 = 121/14400 mg^2, u_c = 11/120 mg)
-  //   nu_eff = 9 x (8.402778e-3 / 2.777778e-3)^2 = 9 x 3.025^2 = 82.355625 (Welch-Satterthwaite)
+  //   reference weight W100: U / k = 0.05 / 2 = 0.025 (square 6.25e-4); drift 0 (one certificate, no allowance)
+  //   air buoyancy (EURAMET cg-18 v4.0, GUM 5.1.2 second-order term): no density entered, so 8000 kg/m3 with
+  //     u(rho) = 210 / sqrt 3 = 121.2435565 kg/m3 (OIML R 111-1:2004 Table 5, E2 >= 100 g: 7810 to 8210, from
+  //     memory); rho_a = 1.1992943 kg/m3 (below) with the OIML formula's own u 2e-4 x rho_a = 2.398589e-4 kg/m3:
+  //     100 g x (1.2 - 1.1992943) x 121.2435565 / 8000^2 = 1.336890e-7 g and 100 g x 2.398589e-4 x 121.2435565
+  //     / 8000^2 = 4.543960e-8 g, u = 1.4120024e-7 g = 1.4120024e-4 mg (square 1.99375e-8 mg^2)
+  //   u_c^2 = 1.666667e-3 + 2.777778e-3 + 3.333333e-3 + 6.25e-4 + 1.99375e-8 = 8.402798e-3, u_c = 0.09166678 mg
+  //     (121/14400 mg^2 without the buoyancy term: 11/120 mg)
+  //   nu_eff = 9 x (8.402798e-3 / 2.777778e-3)^2 = 82.356016 (Welch-Satterthwaite)
   //   k: GUM Table G.2 at 95.45 % gives 2.05 for nu = 50 and 2.03 for nu = 100, so 2.03 < k < 2.05
   //   U = k u_c: between 2.03 x 0.0916667 = 0.18608 and 2.05 x 0.0916667 = 0.18792 mg
   const json& w100 = loads[2];
@@ -81,8 +86,8 @@ TEST_CASE("calibration: record, show with budget and fit, error at a load, certi
   CHECK_THAT(ecc_line["value"].get<double>(), grams_near(0.0001, ug(1e-7)));  // half-width
   CHECK(ecc_line["divisor"].get<double>() == Approx(1.7320508).epsilon(1e-7));
   CHECK_THAT(ecc_line["contribution_g"].get<double>(), grams_near(0.0000577350269, ug(0.00005)));  // 0.1 mg / sqrt 3
-  CHECK_THAT(w100["u_c_g"].get<double>(), grams_near(0.000091666666667, ug(1e-6)));                // 11/120 mg
-  CHECK(w100["nu_eff"].get<double>() == Approx(82.355625).margin(1e-6).epsilon(0));
+  CHECK_THAT(w100["u_c_g"].get<double>(), grams_near(9.166677541665e-5, ug(1e-5)));
+  CHECK(w100["nu_eff"].get<double>() == Approx(82.35601582).margin(1e-5).epsilon(0));
   CHECK(w100["k"].get<double>() > 2.03);
   CHECK(w100["k"].get<double>() < 2.05);
   CHECK(w100["U_g"].get<double>() > 0.00018608);
@@ -159,7 +164,7 @@ TEST_CASE("calibration: record, show with budget and fit, error at a load, certi
   REQUIRE(r.status == 0);
   for (const char* must : {"BALANCE CALIBRATION CERTIFICATE", "CC-", "RC-W20", "RC-W200", "U = k u_c",
                            "ILAC G8", "simple acceptance", "As found", "No adjustment was made", "1.1993 kg/m3",
-                           "RESULT: PASS", "2027-11-30", "does not replace, accredited calibration"}) {
+                           "VERDICT: PASS", "2027-11-30", "does not replace, accredited calibration"}) {
     INFO(must);
     CHECK_THAT(r.out, Catch::Contains(must, Catch::CaseSensitive::No));
   }

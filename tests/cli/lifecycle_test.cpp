@@ -46,9 +46,10 @@ TEST_CASE("instrument attributes change by dated versions and certificates state
   plumb::test::ScratchDir dir;
   const auto db = plumb::test::example_lab(dir).string();
   dir.write("r.csv", passing_readings);
-  ok({"--db", db, "balance", "add", "BAL-B", "--capacity", "220g", "--readability", "0.1mg", "--every", "7d",
-      "--smallest-net", "200mg", "--location", "Room 3", "--maker", "Fennick Scales", "--model", "FX 220",
-      "--serial", "FX-0091", "--asset-tag", "QA-0417", "--since", "2026-01-05", "--as", "Q. Manager"},
+  ok({"--db",          db,        "balance",        "add",        "BAL-B",          "--capacity", "220g",
+      "--readability", "0.1mg",   "--every",        "7d",         "--smallest-net", "200mg",      "--location",
+      "Room 3",        "--maker", "Fennick Scales", "--model",    "FX 220",         "--serial",   "FX-0091",
+      "--asset-tag",   "QA-0417", "--since",        "2026-01-05", "--as",           "Q. Manager"},
      dir);
   json page = json_of({"--db", db, "balance", "show", "BAL-B", "--format", "json"}, dir);
   CHECK(page["identity"]["maker"] == "Fennick Scales");
@@ -70,7 +71,8 @@ TEST_CASE("instrument attributes change by dated versions and certificates state
                 dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("nothing to change"));
-  r = run_plumb({"--db", db, "instrument", "update", "BAL-A", "--location", "Room 5", "--as", "Q. Manager"}, dir.path());
+  r = run_plumb({"--db", db, "instrument", "update", "BAL-A", "--location", "Room 5", "--as", "Q. Manager"},
+                dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("--reason"));
 
@@ -102,15 +104,15 @@ TEST_CASE("instrument attributes change by dated versions and certificates state
   CHECK(after["instrument"]["location"] == "Room 5");
   CHECK(after["instrument"]["serial"] == "SN-77");
   r = run_plumb({"--db", db, "certificate", "show", "2"}, dir.path());
-  CHECK_THAT(r.out, Catch::Contains("serial SN-77"));
+  CHECK_THAT(r.out, Catch::Matches("[\\s\\S]*Serial number +SN-77\n[\\s\\S]*"));
 
   // A policy change from a date judges the checks of that date by it: BAL-A under the lab's s <= 0.05 mg fails the
   // passing readings (s = 0.0949 mg, worked in tests/unit/repeatability_test.cpp).
   ok({"--db", db, "instrument", "update", "BAL-A", "--policy", "lab", "--max-sd", "0.05mg", "--max-bias", "0.5mg",
       "--from", "2026-12-03", "--reason", "tighter limit for the assay", "--as", "Q. Manager"},
      dir);
-  r = run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on", "2026-12-03",
-                 "--as", "A. Technician", "--format", "json"},
+  r = run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
+                 "2026-12-03", "--as", "A. Technician", "--format", "json"},
                 dir.path());
   REQUIRE(r.status == 0);
   const json tight = json::parse(r.out);
@@ -121,8 +123,9 @@ TEST_CASE("instrument attributes change by dated versions and certificates state
   ok({"--db", db, "pipette", "add", "P-07", "--nominal", "100uL", "--range", "fixed", "--every", "3mo", "--since",
       "2026-06-01", "--as", "Q. Manager"},
      dir);
-  r = run_plumb({"--db", db, "instrument", "update", "P-07", "--max-sd", "0.1mg", "--reason", "x", "--as", "Q. Manager"},
-                dir.path());
+  r = run_plumb(
+      {"--db", db, "instrument", "update", "P-07", "--max-sd", "0.1mg", "--reason", "x", "--as", "Q. Manager"},
+      dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("P-07 is a pipette"));
 }
@@ -141,15 +144,15 @@ TEST_CASE("a calibration and a pipette run are corrected with new run conditions
   ok({"--db", db, "pipette", "add", "P-07", "--nominal", "100uL", "--range", "fixed", "--every", "3mo", "--since",
       "2026-06-01", "--as", "Q. Manager"},
      dir);
-  ok({"--db", db, "check", "record", "P-07", "--procedure", "gravimetric", "--balance", "SM-02", "--water-temp", "20C",
-      "--pressure", "1013hPa", "--humidity", "50%", "--readings", "w.csv", "--on", "2026-11-30", "--as", "A. Technician"},
+  ok({"--db",      db,           "check",        "record", "P-07",       "--procedure", "gravimetric",
+      "--balance", "SM-02",      "--water-temp", "20C",    "--pressure", "1013hPa",     "--humidity",
+      "50%",       "--readings", "w.csv",        "--on",   "2026-11-30", "--as",        "A. Technician"},
      dir);
   ok({"--db", db, "certificate", "issue", "LAST", "--as", "Q. Manager"}, dir);
 
   // A condition of another procedure is refused, naming the ones this run takes.
-  auto r = run_plumb({"--db", db, "check", "correct", "2", "--temperature", "21C", "--reason", "x", "--as",
-                      "Q. Manager"},
-                     dir.path());
+  auto r = run_plumb(
+      {"--db", db, "check", "correct", "2", "--temperature", "21C", "--reason", "x", "--as", "Q. Manager"}, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("--temperature does not apply to run 2, a gravimetric run") &&
                         Catch::Contains("--water-temp"));
@@ -180,9 +183,10 @@ TEST_CASE("a calibration run is corrected with a new air temperature", "[cli][li
   plumb::test::ScratchDir dir;
   const auto db = plumb::test::calibration_lab(dir).string();
   dir.write("cal.csv", plumb::test::calibration_run_file());
-  ok({"--db", db, "check", "record", "BAL-C", "--procedure", "calibration", "--readings", "cal.csv", "--temperature",
-      "20C", "--pressure", "1013.25hPa", "--humidity", "50%", "--air-formula", "oiml-r111", "--model", "through-origin",
-      "--on", "2026-11-30", "--as", "A. Technician"},
+  ok({"--db",           db,           "check",      "record",        "BAL-C",        "--procedure",
+      "calibration",    "--readings", "cal.csv",    "--temperature", "20C",          "--pressure",
+      "1013.25hPa",     "--humidity", "50%",        "--air-formula", "oiml-r111",    "--model",
+      "through-origin", "--on",       "2026-11-30", "--as",          "A. Technician"},
      dir);
   // OIML R 111-1:2004 Annex E (E.3-1) by hand at t = 22 degC, p = 1013.25 hPa, h = 50 %: 0.34848 x 1013.25 =
   // 353.09736; 0.45 x exp(0.061 x 22) = 0.45 x exp(1.342) = 1.722010; (353.09736 - 1.722010) / 295.15 =
@@ -246,7 +250,7 @@ TEST_CASE("a run entered in error is voided: kept, marked, left out, its certifi
 
   // The certificate says so, cannot be approved, and the run cannot be voided twice or corrected.
   r = run_plumb({"--db", db, "certificate", "show", "2"}, dir.path());
-  CHECK_THAT(r.out, Catch::Contains("STATUS: WITHDRAWN"));
+  CHECK_THAT(r.out, Catch::Contains("Status: WITHDRAWN on"));
   r = run_plumb({"--db", db, "certificate", "approve", "2", "--meaning", "reviewed", "--as", "Q. Manager"}, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("withdrawn"));

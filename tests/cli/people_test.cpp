@@ -321,8 +321,13 @@ TEST_CASE("a signature holds the signer's id, printed name, UTC time, meaning an
   REQUIRE(doc["status"]["signatures"].size() == 1);
   CHECK(doc["status"]["signatures"][0]["name"] == "Q. Manager");
   CHECK(doc["status"]["signatures"][0]["meaning"] == "reviewed and approved");
+  // The signer's function: the roles that allowed the approval, as held when signing (the helper's members hold
+  // technician, reviewer and quality manager).
+  CHECK(doc["status"]["signatures"][0]["function"] == "reviewer and quality manager");
+  const std::string at = doc["status"]["signatures"][0]["at"].get<std::string>();
   r = run_plumb({"--db", db, "certificate", "show", "1"}, dir.path());
-  CHECK(r.out.find("Signed electronically by Q. Manager") != std::string::npos);
+  CHECK_THAT(r.out, Catch::Contains("Q. Manager (reviewer and quality manager)") &&
+                        Catch::Contains("signed electronically on " + at) && Catch::Contains("reviewed and approved"));
 }
 
 TEST_CASE("a signature moved to another record, or signed content changed, makes audit verify fail", "[signatures]") {

@@ -147,7 +147,7 @@ TEST_CASE("pipette check: register, record, show, certify, due", "[cli][pipette]
 
   r = run_plumb({"--db", db, "certificate", "issue", "LAST", "--format", "text", "--as", "Q. Manager"}, dir.path());
   REQUIRE(r.status == 0);
-  for (const char* must : {"PIPETTE CHECK CERTIFICATE", "PC-2026-0001", "Example Analytical Lab", "P-07", "SM-02",
+  for (const char* must : {"Pipette check certificate", "PC-2026-0001", "Example Analytical Lab", "P-07", "SM-02",
                            "W100", "RC-2291", "1.0028509", "ISO 8655-2:2002", "100.015", "0.09992",
                            "VERDICT: PASS", "2027-03-01", "simple acceptance", "clinical",
                            "does not replace, accredited calibration", "Reviewed by"}) {

@@ -52,7 +52,7 @@ TEST_CASE("USP <41>: ten replicate weighings recorded, and the certificate says 
 
   r = run_plumb({"--db", db, "certificate", "issue", "LAST", "--as", "Q. Manager"}, dir.path());
   must(r);
-  CHECK_THAT(squeezed(r.out), Catch::Contains("minimum number of readings 10: USP General Chapter <41> Balances "
+  CHECK_THAT(squeezed(r.out), Catch::Contains("Minimum number of readings 10: USP General Chapter <41> Balances "
                                               "(2013 onwards) asks for not less than 10 replicate weighings"));
   CHECK_THAT(r.out, !Catch::Contains("from memory"));
 }
@@ -80,9 +80,9 @@ TEST_CASE("a lab policy of 3 replicate weighings: accepted, noted, and stated on
 
   r = run_plumb({"--db", db, "certificate", "issue", "LAST", "--as", "Q. Manager"}, dir.path());
   must(r);
-  CHECK_THAT(squeezed(r.out), Catch::Contains("minimum number of readings 3: the lab's policy for this balance asks "
+  CHECK_THAT(squeezed(r.out), Catch::Contains("Minimum number of readings 3: the lab's policy for this balance asks "
                                               "for at least 3 replicate weighings") &&
-                                  Catch::Contains("Policy lab limits"));
+                                  Catch::Contains("Tolerance policy lab limits"));
 
   // Two readings are below that policy: refused, naming it, nothing written.
   dir.write("two.csv", "reading\n100.0002\n100.0004\n");

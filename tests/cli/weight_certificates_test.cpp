@@ -165,7 +165,8 @@ TEST_CASE("a certificate outside its R 111 class is refused unless the lab recor
           "[cli][weights][r111]") {
   plumb::test::ScratchDir dir;
   const auto db = lab_with_old_certificate(dir);
-  const std::string before = plumb::test::dump_database(db);
+  plumb::test::prepare_login(recalibrate(db, "CAL-26-015", "2026-01-20", "2099-01-20", "0.2mg"), dir.path());
+  const std::string before = plumb::test::dump_database(db);  // with the member's account: the refusals are compared
   // E2 100 g: MPE 0.16 mg (OIML R 111-1:2004 Table 1, reference-data CSV), so U may be at most 0.0533 mg.
   auto r = run_plumb(recalibrate(db, "CAL-26-015", "2026-01-20", "2099-01-20", "0.2mg"), dir.path());
   CHECK(r.status == 2);

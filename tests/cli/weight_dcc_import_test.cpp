@@ -144,10 +144,12 @@ TEST_CASE("weight recalibrate --from-dcc refuses an external entity and reads no
       replaced(provider_dcc(), "<dcc:digitalCalibrationCertificate ", entity + "<dcc:digitalCalibrationCertificate ");
   dcc = replaced(dcc, "<dcc:uniqueIdentifier>NMS-2027-0417", "<dcc:uniqueIdentifier>&leak;");
   dir.write("cert.xml", dcc);
+  const std::vector<std::string> args = {"--db",           db,           "weight",    "recalibrate",
+                                         "W100",           "--from-dcc", "cert.xml",  "--dcc-schema",
+                                         schema->string(), "--as",       "Q. Manager"};
+  plumb::test::prepare_login(args, dir.path());  // the member's account first: the refusal is what is compared
   const std::string before = plumb::test::dump_database(db);
-  const auto r = run_plumb({"--db", db, "weight", "recalibrate", "W100", "--from-dcc", "cert.xml", "--dcc-schema",
-                            schema->string(), "--as", "Q. Manager"},
-                           dir.path());
+  const auto r = run_plumb(args, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("DOCTYPE"));
   CHECK_THAT(r.err + r.out, !Catch::Contains("TOP-SECRET"));

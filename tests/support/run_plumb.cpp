@@ -2,7 +2,12 @@
 
 #include <SQLiteCpp/Database.h>
 #include <SQLiteCpp/Statement.h>
+#include <fcntl.h>
+#include <signal.h>
+#include <sys/ioctl.h>
 #include <sys/stat.h>
+#include <sys/wait.h>
+#include <unistd.h>
 
 #include <algorithm>
 #include <cstdint>
@@ -47,14 +52,21 @@ std::filesystem::path password_file(const std::filesystem::path& cwd, const char
   return p;
 }
 
-/// The command as plumb would run it, without the helper's additions.
-RunResult run_raw(const std::vector<std::string>& args, const std::filesystem::path& cwd, const std::string& input) {
-  const auto in = cwd / ".stdin", out = cwd / ".stdout", err = cwd / ".stderr";
-  std::ofstream(in, std::ios::binary) << input;
+/// The shell command that runs plumb in `cwd` exactly with `args`, without the helper's additions: test-only fast
+/// password hashing and a session folder of the scratch directory's own.
+std::string raw_shell_command(const std::vector<std::string>& args, const std::filesystem::path& cwd) {
   std::string cmd = "cd " + quote(cwd.string()) +
                     " && env -u PLUMB_DB -u PLUMB_LAYOUT PLUMB_TEST_ONLY_FAST_PASSWORD_HASHING=1 XDG_STATE_HOME=" +
                     quote((cwd / ".plumb-state").string()) + " " + quote(plumb_binary().string());
   for (const auto& a : args) cmd += " " + quote(a);
+  return cmd;
+}
+
+/// The command as plumb would run it, without the helper's additions.
+RunResult run_raw(const std::vector<std::string>& args, const std::filesystem::path& cwd, const std::string& input) {
+  const auto in = cwd / ".stdin", out = cwd / ".stdout", err = cwd / ".stderr";
+  std::ofstream(in, std::ios::binary) << input;
+  std::string cmd = raw_shell_command(args, cwd);
   cmd += " <" + quote(in.string()) + " >" + quote(out.string()) + " 2>" + quote(err.string());
   const int raw = std::system(cmd.c_str());
   RunResult r;
@@ -122,9 +134,9 @@ bool ensure_member(const std::filesystem::path& db, const std::string& name, con
     admin_pw = password_file(cwd, ".plumb-demo-admin-password", "demo-only-admin-pass").string();
   }
   const auto first = password_file(cwd, ".plumb-test-first-password", first_password);
-  const auto add = run_raw({"--db", db.string(), "--user", admin, "--password-file", admin_pw, "user", "add",
-                            login, "--name", name, "--role", "technician", "--role", "reviewer", "--role",
-                            "quality-manager", "--new-password-file", first.string()},
+  const auto add = run_raw({"--db", db.string(), "--user", admin, "--password-file", admin_pw, "user", "add", login,
+                            "--name", name, "--role", "technician", "--role", "reviewer", "--role", "quality-manager",
+                            "--new-password-file", first.string()},
                            cwd, "");
   if (add.status != 0) throw std::runtime_error("test member \"" + name + "\" could not be added: " + add.err);
   const auto change = run_raw({"--db", db.string(), "--user", login, "--password-file", first.string(), "user",
@@ -178,9 +190,9 @@ void ScratchDir::write(const std::string& name, const std::string& text) const {
   std::ofstream(path_ / name, std::ios::binary) << text;
 }
 
-RunResult run_plumb(const std::vector<std::string>& args, const std::filesystem::path& cwd, const std::string& input) {
+std::vector<std::string> logged_in_args(const std::vector<std::string>& args, const std::filesystem::path& cwd) {
   const Plan p = plan_of(args);
-  if (p.explicit_login || !p.db) return run_raw(p.args, cwd, input);
+  if (p.explicit_login || !p.db) return p.args;
   const auto pw = password_file(cwd, ".plumb-test-password", test_password).string();
   const auto db = p.db->is_absolute() ? *p.db : cwd / *p.db;
   if (p.command == "init") {
@@ -188,14 +200,123 @@ RunResult run_plumb(const std::vector<std::string>& args, const std::filesystem:
     full.insert(full.end(), p.args.begin(), p.args.end());
     if (std::find(p.args.begin(), p.args.end(), "--admin") == p.args.end())
       full.insert(full.end(), {"--admin", admin_login, "--admin-name", admin_name});
-    return run_raw(full, cwd, input);
+    return full;
   }
   const std::string member = p.member.value_or(default_member);
-  if (!std::filesystem::exists(db) || !ensure_member(db, member, cwd)) return run_raw(p.args, cwd, input);
+  if (!std::filesystem::exists(db) || !ensure_member(db, member, cwd)) return p.args;
   std::vector<std::string> full = {"--user", member == admin_name ? admin_login : test_login(member), "--password-file",
                                    pw};
   full.insert(full.end(), p.args.begin(), p.args.end());
-  return run_raw(full, cwd, input);
+  return full;
+}
+
+std::vector<std::string> login_options(const std::filesystem::path& db, const std::string& member,
+                                       const std::filesystem::path& cwd) {
+  if (!ensure_member(db, member, cwd)) return {};
+  return {"--user", member == admin_name ? admin_login : test_login(member), "--password-file",
+          password_file(cwd, ".plumb-test-password", test_password).string()};
+}
+
+std::string plumb_shell_command(const std::vector<std::string>& args, const std::filesystem::path& cwd) {
+  return raw_shell_command(logged_in_args(args, cwd), cwd);
+}
+
+RunResult run_plumb(const std::vector<std::string>& args, const std::filesystem::path& cwd, const std::string& input) {
+  return run_raw(logged_in_args(args, cwd), cwd, input);
+}
+
+PlumbProcess::PlumbProcess(const std::vector<std::string>& args, const std::filesystem::path& cwd,
+                           const std::string& input, int stdin_fd, int stdout_fd, bool terminal)
+    : cwd_(cwd) {
+  // The log-in first: making a member's account runs plumb, which would replace the .stdin written below.
+  const auto full = logged_in_args(args, cwd);
+  std::ofstream(cwd / ".stdin", std::ios::binary) << input;
+  // Everything the child needs is built before fork: after it, only async-signal-safe calls until exec.
+  const std::string binary = plumb_binary().string();
+  std::vector<std::string> argv_text{binary};
+  argv_text.insert(argv_text.end(), full.begin(), full.end());
+  std::vector<char*> argv;
+  for (auto& a : argv_text) argv.push_back(a.data());
+  argv.push_back(nullptr);
+  std::vector<std::string> env_text;
+  for (char** e = environ; *e; ++e) {
+    const std::string_view entry(*e);
+    if (entry.rfind("PLUMB_DB=", 0) == 0 || entry.rfind("PLUMB_LAYOUT=", 0) == 0) continue;
+    if (entry.rfind("PLUMB_TEST_ONLY_FAST_PASSWORD_HASHING=", 0) == 0 || entry.rfind("XDG_STATE_HOME=", 0) == 0)
+      continue;
+    env_text.emplace_back(entry);
+  }
+  env_text.emplace_back("PLUMB_TEST_ONLY_FAST_PASSWORD_HASHING=1");
+  env_text.emplace_back("XDG_STATE_HOME=" + (cwd / ".plumb-state").string());
+  std::vector<char*> envp;
+  for (auto& e : env_text) envp.push_back(e.data());
+  envp.push_back(nullptr);
+  const std::string in_path = (cwd / ".stdin").string(), out_path = (cwd / ".stdout").string(),
+                    err_path = (cwd / ".stderr").string(), dir = cwd.string();
+  pid_ = ::fork();
+  if (pid_ < 0) throw std::runtime_error("fork failed");
+  if (pid_ == 0) {
+    if (terminal) {
+      ::setsid();
+      ::ioctl(stdin_fd, TIOCSCTTY, 0);
+    }
+    const int in = stdin_fd >= 0 ? stdin_fd : ::open(in_path.c_str(), O_RDONLY);
+    const int out = stdout_fd >= 0 ? stdout_fd : ::open(out_path.c_str(), O_WRONLY | O_CREAT | O_TRUNC, 0600);
+    const int err = ::open(err_path.c_str(), O_WRONLY | O_CREAT | O_TRUNC, 0600);
+    ::dup2(in, 0);
+    ::dup2(out, 1);
+    ::dup2(err, 2);
+    // The test's other descriptors stay with the test: a simulator's end of a pseudo-terminal held open by
+    // plumb would keep plumb from ever seeing the line close.
+    for (int fd = 3; fd < 1024; ++fd) ::close(fd);
+    if (::chdir(dir.c_str()) != 0) ::_exit(127);
+    ::execve(binary.c_str(), argv.data(), envp.data());
+    ::_exit(127);
+  }
+}
+
+PlumbProcess::~PlumbProcess() {
+  if (!waited_ && pid_ > 0) {
+    ::kill(pid_, SIGKILL);
+    ::waitpid(pid_, nullptr, 0);
+  }
+}
+
+void PlumbProcess::signal(int signal) const {
+  ::kill(pid_, signal);
+}
+
+std::string PlumbProcess::output_so_far() const {
+  return slurp(cwd_ / ".stdout");
+}
+
+void PlumbProcess::wait_for_output(const std::string& text, int seconds) const {
+  for (int waited_ms = 0; output_so_far().find(text) == std::string::npos; waited_ms += 2) {
+    if (waited_ms > seconds * 1000)
+      throw std::runtime_error("plumb did not print \"" + text + "\"; it printed:\n" + output_so_far());
+    ::usleep(2000);
+  }
+}
+
+RunResult PlumbProcess::wait(int seconds) {
+  RunResult r;
+  int raw = 0;
+  for (int waited_ms = 0;; waited_ms += 5) {
+    const pid_t done = ::waitpid(pid_, &raw, WNOHANG);
+    if (done == pid_) break;
+    if (waited_ms > seconds * 1000) {
+      ::kill(pid_, SIGKILL);
+      ::waitpid(pid_, &raw, 0);
+      waited_ = true;
+      throw std::runtime_error("plumb did not end within the time allowed");
+    }
+    ::usleep(5000);
+  }
+  waited_ = true;
+  r.status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
+  r.out = slurp(cwd_ / ".stdout");
+  r.err = slurp(cwd_ / ".stderr");
+  return r;
 }
 
 std::string dump_database(const std::filesystem::path& db) {

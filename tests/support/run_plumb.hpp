@@ -45,10 +45,45 @@ RunResult run_plumb(const std::vector<std::string>& args, const std::filesystem:
 /// does before running, for a caller that must compare the database before and after the command itself.
 void prepare_login(const std::vector<std::string>& args, const std::filesystem::path& cwd);
 
+/// The options that log `member` in to `db` (created there if missing), for a script that starts plumb itself:
+/// {"--user", LOGIN, "--password-file", FILE}; empty when `db` has no test administrator to create it with.
+std::vector<std::string> login_options(const std::filesystem::path& db, const std::string& member,
+                                       const std::filesystem::path& cwd);
+
 /// The user id (login) a test member's full name gets: "A. Technician" -> "a-technician-1b2c3d4e".
 std::string test_login(const std::string& full_name);
 /// The password of every test member and of the test administrator (in `cwd`/.plumb-test-password).
 inline constexpr const char* test_password = "test-password-for-plumb";
+/// The shell command that runs `plumb args...` in `cwd` as run_plumb does, logged in the same way (for a terminal
+/// multiplexer to run it).
+std::string plumb_shell_command(const std::vector<std::string>& args, const std::filesystem::path& cwd);
+
+/// A plumb started and left running (a capture the test feeds, interrupts or cuts off), with the working directory
+/// `cwd`, logged in as run_plumb does. Each of stdin / stdout / stderr is the descriptor given, or a file in `cwd`
+/// (.stdin holding `input`, .stdout, .stderr). With `terminal`, the child starts a session whose controlling terminal
+/// is `stdin_fd` (a pseudo-terminal's slave), so Ctrl-C typed on it interrupts plumb as at a real terminal.
+class PlumbProcess {
+ public:
+  PlumbProcess(const std::vector<std::string>& args, const std::filesystem::path& cwd, const std::string& input = "",
+               int stdin_fd = -1, int stdout_fd = -1, bool terminal = false);
+  ~PlumbProcess();
+  PlumbProcess(const PlumbProcess&) = delete;
+  PlumbProcess& operator=(const PlumbProcess&) = delete;
+  [[nodiscard]] int pid() const { return pid_; }
+  /// What plumb has printed to its .stdout file so far.
+  [[nodiscard]] std::string output_so_far() const;
+  /// Waits until plumb's .stdout holds `text` (at most `seconds`; then throws, with what it printed).
+  void wait_for_output(const std::string& text, int seconds = 10) const;
+  /// Sends `signal` to plumb.
+  void signal(int signal) const;
+  /// Waits for plumb to end (at most `seconds`, then kills it and fails); the status and what it printed to files.
+  RunResult wait(int seconds = 20);
+
+ private:
+  std::filesystem::path cwd_;
+  int pid_ = -1;
+  bool waited_ = false;
+};
 
 /// `sqlite3 DB .dump`: the whole content of a database as SQL text, for before/after comparison.
 std::string dump_database(const std::filesystem::path& db);

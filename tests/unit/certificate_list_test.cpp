@@ -79,7 +79,7 @@ TEST_CASE("a withdrawn certificate is listed as withdrawn, leaves the queue and 
     SQLite::Transaction tx(db.sql());
     store::Recorder rec(db.sql(), quality);
     store::add_certificate_withdrawal(rec, first.id, "run 1 entered against the wrong balance");
-    tx.commit();
+    rec.commit(tx);  // signed like every command
   }
 
   const auto withdrawn = app::list_certificates(db, {std::string("withdrawn"), {}, {}, {}});
@@ -97,7 +97,7 @@ TEST_CASE("a withdrawn certificate is listed as withdrawn, leaves the queue and 
   const auto status = app::certificate_status(db, first);
   CHECK(status["state"] == "withdrawn");
   CHECK(status["withdrawn"]["reason"] == "run 1 entered against the wrong balance");
-  CHECK_THAT(report::certificate_status_banner(status), Catch::StartsWith("STATUS: WITHDRAWN"));
+  CHECK_THAT(report::certificate_status_line(status), Catch::StartsWith("WITHDRAWN on "));
   CHECK_THAT(report::certificate_status_summary(status), Catch::StartsWith("WITHDRAWN on "));
 
   // Filters in words and refusals naming the option.

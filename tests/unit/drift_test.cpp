@@ -167,3 +167,21 @@ TEST_CASE("too few results or no time span give a message, not a crash", "[stats
   crossed.tolerance = {2.0, 1.0};
   CHECK_THROWS_AS(analyse_drift(worked(), crossed), plumb::InputError);
 }
+
+TEST_CASE("every drift sentence names its quantity, the fitted line's too", "[stats][drift]") {
+  // Limit 1.85 mg: the line 1.02 + 0.011 d (worked example above) reaches it at d >= (1.85 - 1.02) / 0.011 = 75.45,
+  // so on day 76 = 2024-03-17, inside the 80-day horizon.
+  auto o = upper(1.85);
+  o.quantity = "bias";
+  const auto r = analyse_drift(worked(), o);
+  REQUIRE(r.trend_reaches);
+  CHECK(r.trend_reaches->date == parse_date("2024-03-17"));
+  bool line_named = false, bound_named = false;
+  for (const auto& s : r.explanation) {
+    line_named = line_named || (s.find("The fitted line of bias itself reaches the upper limit") != std::string::npos &&
+                                s.find("on 2024-03-17") != std::string::npos);
+    bound_named = bound_named || s.find("prediction bound of the bias trend") != std::string::npos;
+  }
+  CHECK(line_named);
+  CHECK(bound_named);
+}

@@ -63,7 +63,7 @@ TEST_CASE("imported runs are traced to the certificate valid on their date", "[i
     c.calibrated_on = parse_date("2025-02-03");
     c.due_on = parse_date("2026-02-03");
     store::add_weight_calibration(rec, "W1", c);
-    tx.commit();
+    rec.commit(tx);  // signed like every command
   }
   add_usp41_balance(db, "BAL-H", "6mo", "2023-12-01");
   const std::int64_t old_id = first.current.id;

@@ -73,7 +73,7 @@ std::int64_t add_short_legacy_run(store::Database& db, const store::RunRecord& f
   SQLite::Transaction tx(db.sql());
   store::Recorder rec(db.sql(), quality);
   const std::int64_t id = store::add_run(rec, run);
-  tx.commit();
+  rec.commit(tx);  // signed like every command
   return id;
 }
 
@@ -135,7 +135,7 @@ TEST_CASE("a pipette check takes the balance's repeatability from its latest ful
     SQLite::Transaction tx(db.sql());
     store::Recorder rec(db.sql(), quality);
     store::add_run_void(rec, full.id, "entered against the wrong balance");
-    tx.commit();
+    rec.commit(tx);  // signed like every command
   }
   CHECK_THROWS_WITH(app::record_pipette_check(db, quality, pipette_run("2026-12-02")),
                     Catch::Contains("not suitable") && Catch::Contains("no repeatability on record"));

@@ -430,3 +430,44 @@ TEST_CASE("Boundary: a CV exactly at the lab limit passes, a limit one digit low
   in.pipette.limits = {pl::LimitsPolicy::Kind::lab_pct, dec("1"), dec("0.019")};
   CHECK(ck::evaluate_pipette_run(in).verdict == Verdict::fail);
 }
+
+TEST_CASE("pipette budget: the balance's calibration U(E) at the weighed load replaces the readability term",
+          "[pipette][uncertainty]") {
+  // The worked example above, weighed on a balance whose calibration (EURAMET cg-18) states U(E) = 0.04 mg (k = 2)
+  // at 0.05 g and U(E) = 0.06 mg (k = 2) at 0.2 g (invented numbers). The mean weighing m = 99.731 mg lies between
+  // them: u = 0.02 + (0.03 - 0.02) x (0.099731 - 0.05) / (0.2 - 0.05) = 0.02 + 0.01 x 0.33154 = 0.0233154 mg
+  // (linear interpolation, checks/balance_weighing_u.hpp). u(E) holds the rounding of d at zero and load, so the
+  // readability line is left out. Contributions to u(V) in uL (GUM 5.1.2, V = Z m, ISO 8655-6 method):
+  //   repeatability of the mean  0.0331413184 (as above)
+  //   balance calibration        0.0233154 x 1.0028509 = 0.0233818699
+  //   water temperature 0.0023472493, air density 0.0008781170, water density formula 0.0000421325 (as above)
+  //   u_c = sqrt(sum of squares) = 0.0406366985 uL, U(e_s) = 2 u_c = 0.0812733971 uL.
+  auto in = fixed_100ul_run();
+  ck::BalanceCalibrationUse cal;
+  cal.balance_id = "B-7";
+  cal.run_id = 4;
+  cal.performed_on = plumb::parse_date("2026-10-01", "date");
+  cal.certificate = "CC-2026-0004";
+  cal.loads = {{plumb::Mass::grams(0.2), plumb::Mass::milligrams(0.06), 2.0},
+               {plumb::Mass::grams(0.05), plumb::Mass::milligrams(0.04), 2.0}};
+  in.balance_calibration = cal;
+  const ck::PipetteRunResult r = ck::evaluate_pipette_run(in);
+  const auto& lines = r.volumes.at(0).channels.at(0).uncertainty.budget.lines;
+  REQUIRE(lines.size() == 5);
+  CHECK_THAT(lines[1].input.source, Contains("balance calibration"));
+  CHECK(lines[1].contribution == Approx(0.0233818699).margin(5e-9).epsilon(0));
+  CHECK_THAT(lines[1].input.note,
+             Contains("calibration run 4 of 2026-10-01 (certificate CC-2026-0004)") && Contains("interpolated"));
+  for (const auto& l : lines) CHECK_THAT(l.input.source, !Contains("readability"));
+  CHECK_THAT(r.volumes.at(0).channels.at(0).uncertainty.systematic_expanded,
+             volume_near(Volume::microlitres(0.0812733971), ul(5e-8)));
+
+  // Without a calibration the readability line is the fallback, and it says why.
+  auto bare = fixed_100ul_run();
+  bare.no_balance_calibration = "no calibration of balance B-7 recorded on or before 2026-11-30";
+  const ck::PipetteRunResult without = ck::evaluate_pipette_run(bare);
+  const auto& fallback = without.volumes.at(0).channels.at(0).uncertainty.budget.lines;
+  REQUIRE(fallback.size() == 5);
+  CHECK_THAT(fallback[1].input.source, Contains("readability"));
+  CHECK_THAT(fallback[1].input.note, Contains("no calibration of balance B-7") && Contains("fallback"));
+}

@@ -62,7 +62,7 @@ TEST_CASE("groups written together land as prepared, whether their tables match 
     rec.write(same);
     rec.write(mixed);
     rec.end_batch();
-    tx.commit();
+    rec.commit(tx);  // signed like every command
   }
   const auto count = [&](const std::string& sql) { return db.sql().execAndGet(sql).getInt64(); };
   CHECK(count("SELECT count(*) FROM check_runs") == 6);

@@ -94,7 +94,9 @@ void add_calibration_content(const store::RunRecord& run, json& content) {
       {"readability_g", r["readability_g"]},
       {"capacity_g", r["capacity_g"]},
       {"notes", r["notes"]}};
-  content["status"] = run.verdict == Verdict::pass ? "in service" : "out of service";
+  // "status" is the certificate's own standing when it is shown (app/certificates/review.hpp), so the instrument's
+  // service status after the calibration has its own key.
+  content["service_status"] = run.verdict == Verdict::pass ? "in service" : "out of service";
 }
 
 }  // namespace plumb::app

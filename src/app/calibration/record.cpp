@@ -13,12 +13,14 @@
 #include "app/registry/lab.hpp"
 #include "app/registry/service_status.hpp"
 #include "app/registry/weight_in_force.hpp"
+#include "app/registry/weight_properties.hpp"
 #include "checks/calibration.hpp"
 #include "core/condition_units.hpp"
 #include "core/errors.hpp"
 #include "report/calibration/json.hpp"
 #include "store/calibration.hpp"
 #include "store/repository.hpp"
+#include "store/weight_properties.hpp"
 
 namespace plumb::app {
 namespace {
@@ -38,6 +40,8 @@ struct UsedWeight {
   store::WeightRecord record;
   std::optional<store::WeightCalibration> previous;  ///< the certificate before the current one, for drift
   std::optional<ExactMass> drift;
+  std::string drift_basis;  ///< where D came from, or why there is none
+  WeightDensity density;
 };
 
 ExactMass abs_mass(ExactMass m) { return m < ExactMass{} ? ExactMass{} - m : m; }
@@ -77,11 +81,34 @@ public:
                                    where, id, to_string(in_force->due_on), in_force->certificate_no, to_string(on_)));
     require_in_service(db_, "weight", id);
     w->current = *in_force;
-    UsedWeight u{*w, std::nullopt, std::nullopt};
-    // Drift D (EURAMET cg-18 7.1.2.4): estimated from the change between the weight's last two certificates.
+    const auto stated = store::weight_properties_in_force(db_.sql(), id);
+    UsedWeight u{*w, std::nullopt, std::nullopt, {}, {}};
+    try {
+      u.density = density_for_budget(*w, stated);
+    } catch (const InputError& e) {
+      throw InputError(fmt::format("{}: {}", where, e.what()));
+    }
+    // Drift D (EURAMET cg-18): estimated from the change between the weight's last two certificates, or the
+    // allowance the lab stated; with both, the larger (the allowance is the lab's own bound on the change).
     for (std::size_t i = 1; i < history.size(); ++i)
       if (history[i].id == in_force->id) u.previous = history[i - 1];
-    if (u.previous) u.drift = abs_mass(w->current.correction - u.previous->correction);
+    const std::optional<ExactMass> allowance = stated ? stated->drift : std::nullopt;
+    if (u.previous) {
+      u.drift = abs_mass(w->current.correction - u.previous->correction);
+      u.drift_basis = fmt::format("change since certificate {} of {}", u.previous->certificate_no,
+                                  to_string(u.previous->calibrated_on));
+      if (allowance && *u.drift < *allowance) {
+        u.drift_basis = fmt::format("drift allowance entered by {} (larger than the {} {})", stated->by_name,
+                                    u.drift->to_string(), u.drift_basis);
+        u.drift = allowance;
+      }
+    } else if (allowance) {
+      u.drift = allowance;
+      u.drift_basis = fmt::format("drift allowance entered {} by {}; no earlier certificate",
+                                  stated->recorded_at.substr(0, 10), stated->by_name);
+    } else {
+      u.drift_basis = "no earlier certificate and no drift allowance entered: drift not included";
+    }
     order_.push_back(id);
     return weights_.emplace(id, std::move(u)).first->second;
   }
@@ -200,6 +227,26 @@ checks::CalibrationSet build_set(std::vector<FileLoad>& loads, const std::string
   return set;
 }
 
+/// How the air density's u was formed: the formula's own u and each instrument's u through its sensitivity.
+std::string air_statement(const density::AirDensity& air, const density::Environment& env,
+                          const std::optional<std::string>& u_t, const std::optional<std::string>& u_p,
+                          const std::optional<std::string>& u_h) {
+  const auto part = [](const char* what, const std::optional<std::string>& entered, double u, double c,
+                       const char* unit, const char* per) {
+    if (!entered) return fmt::format("{} not entered", what);
+    return fmt::format("{} = {} {} x {:.3g} kg/m3 per {} = {:.2g} kg/m3", what, *entered, unit, std::abs(c), per,
+                       std::abs(c) * u);
+  };
+  return fmt::format(
+      "air density {:.5f} kg/m3 from t, p and h by {}; u = {:.2g} kg/m3 combines the equation's own "
+      "relative u {:.2g} ({:.2g} kg/m3) with u(t), u(p), u(h) through the formula's sensitivity "
+      "coefficients: {}; {}; {}",
+      air.rho, density::to_string(air.formula), air.u, density::formula_relative_uncertainty(air.formula),
+      air.u_formula, part("u(t)", u_t, env.u_t_c, air.dt, "degC", "K"),
+      part("u(p)", u_p, env.u_pressure_hpa, air.dp, "hPa", "hPa"),
+      part("u(h)", u_h, env.u_rh_pct, air.dh, "%RH", "%RH"));
+}
+
 json weight_trace(const std::string& id, const UsedWeight& u) {
   const auto& w = u.record;
   return {{"id", id},
@@ -213,12 +260,11 @@ json weight_trace(const std::string& id, const UsedWeight& u) {
           {"correction_g", w.current.correction.in_grams().to_string()},
           {"uncertainty_g", w.current.uncertainty.in_grams().to_string()},
           {"k", w.current.k.to_string()},
-          {"density_kg_m3", w.density_kg_m3 ? w.density_kg_m3->to_string() : "8000"},
-          {"density_assumed", !w.density_kg_m3.has_value()},
+          {"density_kg_m3", fmt::format("{:.0f}", u.density.rho_kg_m3)},
+          {"u_density_kg_m3", fmt::format("{:.3g}", u.density.u_kg_m3)},
+          {"density_source", u.density.source},
           {"drift_g", u.drift ? json(u.drift->in_grams().to_string()) : json()},
-          {"drift_basis", u.previous ? fmt::format("change since certificate {} of {}", u.previous->certificate_no,
-                                                   to_string(u.previous->calibrated_on))
-                                     : "no earlier certificate: drift not estimated"}};
+          {"drift_basis", u.drift_basis}};
 }
 
 }  // namespace
@@ -227,7 +273,7 @@ store::RunRecord record_calibration(store::Database& db, const store::Actor& act
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   store::Recorder rec(db.sql(), actor);
   const std::int64_t id = record_calibration_in(db, rec, in);
-  tx.commit();
+  rec.commit(tx);
   return *store::find_run(db.sql(), id);
 }
 
@@ -263,9 +309,32 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
   const auto stored_t = exact(in.temperature_c, parse_celsius, "--temperature");
   const auto stored_p = exact(in.pressure_hpa, parse_hectopascals, "--pressure");
   const auto stored_h = exact(in.humidity_pct, parse_percent_rh, "--humidity");
+  // The instruments' standard uncertainties, for the air density's u; upper bounds far above any laboratory
+  // instrument (beyond them the value is a typing slip).
+  const auto u_t = environment_value(in.temperature_u, "--temperature-u", parse_celsius, 0.0, 2.0, "degC",
+                                     "the plausible range of a thermometer's standard uncertainty");
+  const auto u_p = environment_value(in.pressure_u, "--pressure-u", parse_hectopascals, 0.0, 10.0, "hPa",
+                                     "the plausible range of a barometer's standard uncertainty");
+  const auto u_h = environment_value(in.humidity_u, "--humidity-u", parse_percent_rh, 0.0, 20.0, "%",
+                                     "the plausible range of a hygrometer's standard uncertainty");
+  if (given == 0 && (u_t || u_p || u_h)) {
+    const auto& [option, text] = u_t   ? std::pair{"--temperature-u", *in.temperature_u}
+                                 : u_p ? std::pair{"--pressure-u", *in.pressure_u}
+                                       : std::pair{"--humidity-u", *in.humidity_u};
+    throw InputError(
+        fmt::format("{} {} is given, but the air was not measured: an instrument's uncertainty goes with "
+                    "--temperature, --pressure and --humidity.",
+                    option, text));
+  }
+  const auto stored_u_t = exact(in.temperature_u, parse_celsius, "--temperature-u");
+  const auto stored_u_p = exact(in.pressure_u, parse_hectopascals, "--pressure-u");
+  const auto stored_u_h = exact(in.humidity_u, parse_percent_rh, "--humidity-u");
   std::optional<density::Environment> environment;
   if (given == 3) {
     environment = density::Environment{*t, *p, *h};
+    environment->u_t_c = u_t.value_or(0.0);
+    environment->u_pressure_hpa = u_p.value_or(0.0);
+    environment->u_rh_pct = u_h.value_or(0.0);
     density::validate(*environment);
   }
 
@@ -318,8 +387,11 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
     w.expanded_uncertainty = u.record.current.uncertainty;
     w.coverage_factor = u.record.current.k.to_double();
     w.weight_class = weights::parse_weight_class(u.record.weight_class);
-    if (u.record.density_kg_m3) w.density_kg_m3 = u.record.density_kg_m3->to_double();
+    w.density_kg_m3 = u.density.rho_kg_m3;
+    w.u_density_kg_m3 = u.density.u_kg_m3;
+    w.density_source = u.density.source;
     w.drift = u.drift;
+    w.drift_source = u.drift_basis;
     w.certificate = u.record.current.certificate_no;
     ci.weights.push_back(std::move(w));
   }
@@ -367,10 +439,17 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
       {"air_method", environment ? std::string(density::to_string(formula)) : std::string("assumed")},
       {"air_density_kg_m3", result.air ? result.air->rho : 1.2},
       {"u_air_density_kg_m3", result.air ? result.air->u : 0.12 / std::sqrt(3.0)},
-      {"statement", environment ? fmt::format("air density {:.4f} kg/m3 (u = {:.1g} kg/m3) from t, p and h by {}; u "
-                                              "covers the equation only (the thermometer, barometer and hygrometer "
-                                              "uncertainties are not entered)",
-                                              result.air->rho, result.air->u, density::to_string(formula))
+      {"instrument_u", environment ? json{{"temperature_c", stored_u_t ? json(*stored_u_t) : json()},
+                                          {"pressure_hpa", stored_u_p ? json(*stored_u_p) : json()},
+                                          {"humidity_pct", stored_u_h ? json(*stored_u_h) : json()}}
+                                   : json()},
+      {"air_density_u_parts", result.air ? json{{"formula_kg_m3", result.air->u_formula},
+                                                {"conditions_kg_m3", result.air->u_conditions},
+                                                {"drho_dt_kg_m3_per_K", result.air->dt},
+                                                {"drho_dp_kg_m3_per_hPa", result.air->dp},
+                                                {"drho_dh_kg_m3_per_pct", result.air->dh}}
+                                         : json()},
+      {"statement", environment ? air_statement(*result.air, *environment, stored_u_t, stored_u_p, stored_u_h)
                                 : std::string("air density not measured: 1.2 kg/m3 +/- 10 % (rectangular) "
                                               "assumed, no buoyancy correction applied")}};
   json trace = json::array();

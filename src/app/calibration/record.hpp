@@ -33,6 +33,9 @@ struct CalibrationRunInput {
   std::string on;
   std::string operator_name;
   std::optional<std::string> temperature_c, pressure_hpa, humidity_pct;  ///< all three, or none (not measured)
+  /// Standard uncertainties of the thermometer, barometer and hygrometer (each optional; only with the three
+  /// conditions), propagated into the air density's u.
+  std::optional<std::string> temperature_u, pressure_u, humidity_u;
   std::string air_formula = "cipm2007";  ///< cipm2007 | oiml-r111
   std::string model = "line";            ///< line | through-origin | quadratic
   std::optional<std::int64_t> supersedes;  ///< a correction: the run this one replaces

@@ -68,7 +68,7 @@ store::CalibrationSettings set_calibration_settings(store::Database& db, const s
   }
   store::Recorder rec(db.sql(), actor);
   s.id = store::add_calibration_settings(rec, s);
-  tx.commit();
+  rec.commit(tx);
   return *store::find_calibration_settings(db.sql(), s.instrument_id);
 }
 

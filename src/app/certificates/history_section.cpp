@@ -33,7 +33,8 @@ nlohmann::json certificate_history(store::Database& db, const store::RunRecord& 
   const HistoryQuantity& q = *found;
   const report::SeriesView s = series_view(db, inst, q, {std::nullopt, run.performed_on});
   nlohmann::json points = nlohmann::json::array();
-  const std::size_t first = s.points.size() > certificate_history_points ? s.points.size() - certificate_history_points : 0;
+  const std::size_t first =
+      s.points.size() > certificate_history_points ? s.points.size() - certificate_history_points : 0;
   const report::HistoryChartMarks marks = chart_marks(s, history_view(db, inst, {std::nullopt, run.performed_on}));
   for (std::size_t i = first; i < s.points.size(); ++i) {
     nlohmann::json p = {{"run_id", s.run_ids[i]},

@@ -12,7 +12,7 @@
 #include "checks/procedure.hpp"
 #include "core/errors.hpp"
 #include "report/certificates/document.hpp"
-#include "report/certificates/text.hpp"
+#include "report/certificates/renderings.hpp"
 #include "report/document/layout.hpp"
 #include "report/document/pdf.hpp"
 #include "report/runs/json.hpp"
@@ -26,9 +26,12 @@ using nlohmann::json;
 /// What a procedure adds to the content every certificate has.
 void add_procedure_content(store::Database& db, const store::RunRecord& run, json& content) {
   switch (run.procedure) {
-    case checks::Procedure::repeatability: return;  // the run's results and its weights say it all
-    case checks::Procedure::calibration: return add_calibration_content(run, content);
-    case checks::Procedure::gravimetric: return add_pipette_certificate_parts(db, run, content);
+    case checks::Procedure::repeatability:
+      return;  // the run's results and its weights say it all
+    case checks::Procedure::calibration:
+      return add_calibration_content(run, content);
+    case checks::Procedure::gravimetric:
+      return add_pipette_certificate_parts(db, run, content);
   }
 }
 
@@ -36,8 +39,11 @@ void add_procedure_content(store::Database& db, const store::RunRecord& run, jso
 /// cannot be drawn (from a layout that passed validation but still breaks a renderer) is refused, not kept.
 void require_drawable(const store::CertificateRecord& cert) {
   try {
-    (void)report::certificate_text(cert.content, cert.content_sha256);
-    (void)report::render_pdf(report::certificate_document(cert.content, cert.content_sha256));
+    json shown = cert.content;
+    shown["content_sha256"] = cert.content_sha256;
+    (void)report::certificate_text(shown);
+    (void)report::certificate_html(shown);
+    (void)report::render_pdf(report::certificate_document(shown));
   } catch (const InputError&) {
     throw;
   } catch (const std::exception& e) {
@@ -61,7 +67,6 @@ nlohmann::json weight_traceability_json(const store::WeightRecord& w, const stor
           {"due_on", to_string(c.due_on)}};
 }
 
-
 IssueOutcome issue_certificate(store::Database& db, const store::Actor& actor, const std::string& selector,
                                const std::optional<std::string>& layout_path) {
   const json layout = report::load_layout(layout_path);
@@ -74,7 +79,7 @@ IssueOutcome issue_certificate(store::Database& db, const store::Actor& actor, c
                                  run_id, newer->id, newer->reason, newer->id));
   store::Recorder rec(db.sql(), actor);
   const auto cert = issue_certificate_in(db, rec, run_id, layout, std::nullopt);
-  tx.commit();
+  rec.commit(tx);
   return {cert, false};
 }
 
@@ -86,7 +91,8 @@ std::optional<store::RunRecord> superseding_run(store::Database& db, std::int64_
 }
 
 store::CertificateRecord issue_certificate_in(store::Database& db, store::Recorder& rec, std::int64_t run_id,
-                                              const json& layout, const std::optional<store::CertificateRecord>& replaces) {
+                                              const json& layout,
+                                              const std::optional<store::CertificateRecord>& replaces) {
   const store::LabRecord lab = require_lab(db);
   const store::RunRecord run = *store::find_run(db.sql(), run_id);
 
@@ -133,6 +139,9 @@ store::CertificateRecord issue_certificate_in(store::Database& db, store::Record
                     {"address_lines", layout.value("address_lines", json::array())},
                     {"accreditation", layout.value("accreditation", "")},
                     {"logo_png", layout.value("logo_png", "")}}},
+                  // ISO/IEC 17025 7.8.2.1 e): whom the certificate is for; the lab's own instrument by default.
+                  {"customer", layout.value("customer", "").empty() ? lab.name + " (the laboratory's own instrument)"
+                                                                    : layout.value("customer", "")},
                   {"instrument", instrument},
                   {"weights", weights},
                   {"check", report::run_json(run)},

@@ -4,10 +4,15 @@
 #include <fmt/format.h>
 
 #include <cctype>
+#include <string>
+#include <vector>
 
 #include "app/certificates/resolve.hpp"
 #include "app/certificates/state.hpp"
+#include "app/people/account_state.hpp"
+#include "app/people/permissions.hpp"
 #include "core/errors.hpp"
+#include "store/checkpoints.hpp"
 #include "store/repository.hpp"
 #include "store/signatures.hpp"
 #include "store/status_events.hpp"
@@ -42,21 +47,37 @@ void require_separation_of_duties(store::Database& db, std::int64_t signer, cons
   while (r) {
     const auto writer = store::writer_of(db.sql(), "check_runs", fmt::format("id={}", r->id));
     if (writer && *writer == signer)
-      throw AccessError(fmt::format("{} (user {}) {} check run {} of certificate {}; a certificate must be approved by "
-                                    "someone who neither recorded nor corrected its run.",
-                                    signer_name, signer, r->supersedes ? "recorded the correction" : "recorded", r->id,
-                                    certificate));
+      throw AccessError(
+          fmt::format("{} (user {}) {} check run {} of certificate {}; a certificate must be approved by "
+                      "someone who neither recorded nor corrected its run.",
+                      signer_name, signer, r->supersedes ? "recorded the correction" : "recorded", r->id, certificate));
     if (!writer && same_person(signer_name, r->operator_name))
-      throw AccessError(fmt::format("{} performed check run {} of certificate {}; a certificate must be approved by "
-                                    "someone other than its operator.",
-                                    signer_name, r->id, certificate));
+      throw AccessError(
+          fmt::format("{} performed check run {} of certificate {}; a certificate must be approved by "
+                      "someone other than its operator.",
+                      signer_name, r->id, certificate));
     r = r->supersedes ? store::find_run(db.sql(), *r->supersedes) : std::nullopt;
   }
 }
 
 }  // namespace
 
-bool same_person(const std::string& a, const std::string& b) { return normalized(a) == normalized(b); }
+bool same_person(const std::string& a, const std::string& b) {
+  return normalized(a) == normalized(b);
+}
+
+/// The signer's function on the certificate: the roles, held when the signature was made, that allowed it.
+std::string signer_function(store::Database& db, const store::SignatureRecord& sig) {
+  std::vector<store::AccountEvent> then;
+  for (auto& e : store::account_events(db.sql(), sig.user_id))
+    if (e.at <= sig.signed_at) then.push_back(std::move(e));
+  const AccountState state = account_state(then);
+  std::vector<std::string> names;
+  if (const Permission* p = permission_of("certificate approve"))
+    for (Role r : state.roles)
+      if (p->roles.count(r)) names.emplace_back(role_name(r));
+  return names.empty() ? std::string("signer") : fmt::format("{}", fmt::join(names, " and "));
+}
 
 json certificate_status(store::Database& db, const store::CertificateRecord& c) {
   json status = {{"state", "draft"},
@@ -76,10 +97,16 @@ json certificate_status(store::Database& db, const store::CertificateRecord& c) 
     }
   }
   if (c.supersedes)
-    if (auto old = store::find_certificate_by_id(db.sql(), *c.supersedes)) status["replaces"] = old->number;
+    if (auto old = store::find_certificate_by_id(db.sql(), *c.supersedes)) {
+      status["replaces"] = old->number;
+      // Why it replaces the old one: the reason of the correction that superseded it (ISO/IEC 17025 7.8.8).
+      if (auto gone = store::certificate_event(db.sql(), old->id, "superseded"))
+        status["replaces_reason"] = gone->reason;
+    }
   status["signatures"] = json::array();
   for (const auto& sig : store::signatures_of(db.sql(), "certificates", fmt::format("id={}", c.id)))
     status["signatures"].push_back({{"name", sig.printed_name},
+                                    {"function", signer_function(db, sig)},
                                     {"user_id", sig.user_id},
                                     {"at", sig.signed_at},
                                     {"meaning", sig.meaning},
@@ -95,6 +122,14 @@ json certificate_document(store::Database& db, const store::CertificateRecord& c
   json doc = c.content;
   doc["content_sha256"] = c.content_sha256;
   doc["status"] = certificate_status(db, c);
+  // The signed checkpoint that covers the certificate's audit record: with the lab's public key, anyone can prove
+  // that the trail holding this certificate is the one the lab signed (doc/audit-trail.md).
+  if (const auto cp = store::checkpoint_covering_row(db.sql(), "certificates", fmt::format("id={}", c.id)))
+    doc["trail_checkpoint"] = {{"number", cp->number},
+                               {"records", cp->records},
+                               {"head_hash", cp->head_hash},
+                               {"signed_at", cp->signed_at},
+                               {"key", store::key_fingerprint(cp->public_key)}};
   return doc;
 }
 
@@ -106,9 +141,10 @@ store::CertificateRecord approve_certificate(store::Database& db, const store::A
   store::CertificateRecord cert = resolve_certificate(db, selector);
   const store::RunRecord run = *store::find_run(db.sql(), cert.run_id);
   if (auto done = store::certificate_event(db.sql(), cert.id, "approved"))
-    throw InputError(fmt::format("certificate {} was already approved by {} on {}; an approved certificate cannot "
-                                 "change.",
-                                 cert.number, done->by_name, done->recorded_at));
+    throw InputError(
+        fmt::format("certificate {} was already approved by {} on {}; an approved certificate cannot "
+                    "change.",
+                    cert.number, done->by_name, done->recorded_at));
   if (auto withdrawn = store::certificate_withdrawal(db.sql(), cert.id))
     throw InputError(
         fmt::format("certificate {} was withdrawn on {} ({}); a withdrawn certificate cannot be "
@@ -129,7 +165,7 @@ store::CertificateRecord approve_certificate(store::Database& db, const store::A
   e.meaning = meaning;
   store::add_certificate_event(rec, e);
   store::add_signature(rec, db.sql(), "certificates", fmt::format("id={}", cert.id), meaning);
-  tx.commit();
+  rec.commit(tx);
   return cert;
 }
 

@@ -13,8 +13,9 @@
 namespace plumb::app {
 
 /// {"state": "draft"|"approved"|"superseded"|"withdrawn", "approval": {...}|null, "superseded": {...}|null,
-///  "withdrawn": {...}|null, "replaces": NUMBER|null} (app/certificates/state.hpp says which state wins). Not
-///  covered by content_sha256: it is the certificate's standing today.
+///  "withdrawn": {...}|null, "replaces": NUMBER|null, "replaces_reason": TEXT (with "replaces")}
+///  (app/certificates/state.hpp says which state wins). Not covered by content_sha256: it is the certificate's standing
+///  today.
 nlohmann::json certificate_status(store::Database& db, const store::CertificateRecord& c);
 
 /// What renderers (text, JSON, PDF) receive: the stored content plus "content_sha256" and "status".

@@ -15,6 +15,7 @@
 #include "app/people/accounts.hpp"
 #include "app/pipette/record.hpp"
 #include "app/pipette/registry.hpp"
+#include "app/records/lab_key.hpp"
 #include "app/registry/balances.hpp"
 #include "app/registry/lab.hpp"
 #include "app/registry/weights.hpp"
@@ -34,7 +35,7 @@ using nlohmann::json;
 
 // Box-Muller on mt19937_64's raw output: unlike std::normal_distribution, the same on every platform.
 class Gauss {
-public:
+ public:
   explicit Gauss(std::uint64_t seed) : engine_(seed) {}
   double next() {
     const double u1 = (static_cast<double>(engine_() >> 11) + 1.0) * 0x1.0p-53;
@@ -43,7 +44,7 @@ public:
   }
   std::uint64_t raw() { return engine_(); }
 
-private:
+ private:
   std::mt19937_64 engine_;
 };
 
@@ -53,15 +54,15 @@ void make_room(const std::filesystem::path& path, const std::string& demo_lab) {
     store::Database existing(path, store::Database::Open::existing);
     const auto lab = store::find_lab(existing.sql());
     if (!lab || lab->name != demo_lab)
-      throw InputError(fmt::format("--db \"{}\" exists and is not a plumb demo database; choose another file.",
-                                   path.string()));
+      throw InputError(
+          fmt::format("--db \"{}\" exists and is not a plumb demo database; choose another file.", path.string()));
   }
   for (const char* suffix : {"", "-wal", "-shm"}) std::filesystem::remove(path.string() + suffix);
 }
 
 /// One calibration of the scenario: its balance's settings, then the run, through the validated paths.
-std::int64_t record_demo_calibration(store::Database& db, const store::Actor& quality, const store::Actor& operator_actor,
-                                     const json& c) {
+std::int64_t record_demo_calibration(store::Database& db, const store::Actor& quality,
+                                     const store::Actor& operator_actor, const json& c) {
   const json& s = c["settings"];
   CalibrationSettingsInput settings;
   settings.instrument_id = c["balance"];
@@ -82,6 +83,10 @@ std::int64_t record_demo_calibration(store::Database& db, const store::Actor& qu
   in.temperature_c = c["temperature"].get<std::string>();
   in.pressure_hpa = c["pressure"].get<std::string>();
   in.humidity_pct = c["humidity"].get<std::string>();
+  // The demo lab's thermometer, barometer and hygrometer uncertainties, for the air density's u.
+  for (const auto& [key, field] : {std::pair{"temperature_u", &in.temperature_u},
+                                   std::pair{"pressure_u", &in.pressure_u}, std::pair{"humidity_u", &in.humidity_u}})
+    if (c.contains(key)) *field = c[key].get<std::string>();
   in.model = c["model"];
   return record_calibration(db, operator_actor, in).id;
 }
@@ -101,7 +106,8 @@ std::string pipette_weighings(const json& p, const store::PipetteRecord& rec, in
         bias_pct = p["fault"]["bias_pct"].get<double>();
       const double selected = v.approx().ul();
       for (int i = 0; i < 10; ++i) {
-        const double volume = selected * (1.0 + bias_pct / 100.0) + selected * p["cv_pct"].get<double>() / 100.0 * noise.next();
+        const double volume =
+            selected * (1.0 + bias_pct / 100.0) + selected * p["cv_pct"].get<double>() / 100.0 * noise.next();
         const double mg = std::round(volume / z_ul_per_mg / d_mg) * d_mg;
         csv += fmt::format("{},{},{:.{}f}\n", v.ul_text(), ch, mg / 1e3, decimals);
       }
@@ -134,7 +140,7 @@ std::map<std::string, store::Actor> add_demo_users(store::Database& db, const js
     SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
     store::Recorder rec(db.sql(), actor);
     store::add_password(rec, user.id, store::current_password(db.sql(), user.id)->hash, false);
-    tx.commit();
+    rec.commit(tx);
     actors[u.name] = actor;
   }
   return actors;
@@ -151,6 +157,8 @@ DemoSummary build_demo(const std::filesystem::path& path, const std::function<vo
   make_room(path, summary.lab);
 
   store::Database db(path, store::Database::Open::create);
+  // The accounts' records are the first ones signed: the lab's key is there before them (init_lab then uses it).
+  ensure_lab_key(db.path());
   const auto people = scenario["people"].get<std::vector<std::string>>();
   const auto actors = add_demo_users(db, scenario, summary.users);
   const store::Actor quality = actors.at("Dr. Ines Varga");
@@ -166,6 +174,13 @@ DemoSummary build_demo(const std::filesystem::path& path, const std::function<vo
     in.certificate = w["certificate"];
     in.calibrated = w["calibrated"];
     in.due = w["due"];
+    // What the demo lab states beyond the certificate, for the buoyancy and drift terms of its calibrations.
+    const auto stated = [&](const char* key) {
+      return w.contains(key) ? std::optional<std::string>(w[key].get<std::string>()) : std::nullopt;
+    };
+    in.density = stated("density");
+    in.density_u = stated("density_u");
+    in.drift = stated("drift");
     add_weight(db, quality, in);
   }
   const Date first = parse_date(scenario["first_check"].get<std::string>());

@@ -113,7 +113,7 @@ store::Actor add_first_administrator(store::Database& db, const NewUser& admin) 
   store::add_password(rec, id, hash_password(admin.password, store::security_settings(db.sql()).password_hashing),
                       false);
   store::add_account_event(rec, id, "role granted", std::string(role_name(Role::administrator)));
-  tx.commit();
+  rec.commit(tx);
   return actor;
 }
 
@@ -136,7 +136,7 @@ store::UserRecord add_user(store::Database& db, const store::Actor& admin, const
   const std::int64_t id = store::add_user(rec, user.login, user.full_name);
   store::add_password(rec, id, hash_password(user.password, store::security_settings(db.sql()).password_hashing), true);
   for (Role r : roles) store::add_account_event(rec, id, "role granted", std::string(role_name(r)));
-  tx.commit();
+  rec.commit(tx);
   return *store::find_user(db.sql(), id);
 }
 
@@ -153,7 +153,7 @@ void grant_role(store::Database& db, const store::Actor& admin, const std::strin
         "nothing else.");
   store::Recorder rec(db.sql(), admin);
   store::add_account_event(rec, user.id, "role granted", std::string(role_name(r)));
-  tx.commit();
+  rec.commit(tx);
 }
 
 void revoke_role(store::Database& db, const store::Actor& admin, const std::string& login, const std::string& role,
@@ -167,7 +167,7 @@ void revoke_role(store::Database& db, const store::Actor& admin, const std::stri
   if (!state.roles.count(r)) throw InputError(fmt::format("user {} does not hold the role {}.", login, role_name(r)));
   store::Recorder rec(db.sql(), admin);
   store::add_account_event(rec, user.id, "role revoked", std::string(role_name(r)), reason);
-  tx.commit();
+  rec.commit(tx);
 }
 
 void deactivate_user(store::Database& db, const store::Actor& admin, const std::string& login,
@@ -180,7 +180,7 @@ void deactivate_user(store::Database& db, const store::Actor& admin, const std::
     throw InputError(fmt::format("user {} is deactivated already.", login));
   store::Recorder rec(db.sql(), admin);
   store::add_account_event(rec, user.id, "deactivated", "", reason);
-  tx.commit();
+  rec.commit(tx);
 }
 
 void reactivate_user(store::Database& db, const store::Actor& admin, const std::string& login,
@@ -192,7 +192,7 @@ void reactivate_user(store::Database& db, const store::Actor& admin, const std::
     throw InputError(fmt::format("user {} is active; only a deactivated account can be reactivated.", login));
   store::Recorder rec(db.sql(), admin);
   store::add_account_event(rec, user.id, "reactivated", "", reason);
-  tx.commit();
+  rec.commit(tx);
 }
 
 void unlock_user(store::Database& db, const store::Actor& admin, const std::string& login, const std::string& reason) {
@@ -203,7 +203,7 @@ void unlock_user(store::Database& db, const store::Actor& admin, const std::stri
     throw InputError(fmt::format("user {} is not locked.", login));
   store::Recorder rec(db.sql(), admin);
   store::add_account_event(rec, user.id, "unlocked", "", reason);
-  tx.commit();
+  rec.commit(tx);
 }
 
 void reset_password(store::Database& db, const store::Actor& admin, const std::string& login,
@@ -217,7 +217,7 @@ void reset_password(store::Database& db, const store::Actor& admin, const std::s
                       true);
   if (account_state(store::account_events(db.sql(), user.id)).locked)
     store::add_account_event(rec, user.id, "unlocked", "", "password reset by an administrator");
-  tx.commit();
+  rec.commit(tx);
 }
 
 void change_own_password(store::Database& db, const store::Actor& user, const std::string& new_password) {
@@ -229,7 +229,7 @@ void change_own_password(store::Database& db, const store::Actor& user, const st
   store::Recorder rec(db.sql(), user);
   store::add_password(rec, *user.user_id,
                       hash_password(new_password, store::security_settings(db.sql()).password_hashing), false);
-  tx.commit();
+  rec.commit(tx);
 }
 
 store::SecuritySettings set_policy(store::Database& db, const store::Actor& admin, const PolicyChange& change) {
@@ -258,7 +258,7 @@ store::SecuritySettings set_policy(store::Database& db, const store::Actor& admi
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   store::Recorder rec(db.sql(), admin);
   store::add_security_settings(rec, s);  // password_hashing as it was: fixed when the database was created
-  tx.commit();
+  rec.commit(tx);
   return store::security_settings(db.sql());
 }
 

@@ -1,12 +1,15 @@
 #include "app/people/authenticate.hpp"
 
 #include <SQLiteCpp/Transaction.h>
+
 #include <fmt/format.h>
+#include <filesystem>
 
 #include "app/people/account_state.hpp"
 #include "app/people/password_hash.hpp"
 #include "app/people/permissions.hpp"
 #include "core/errors.hpp"
+#include "store/lab_key.hpp"
 #include "store/users.hpp"
 
 namespace plumb::app {
@@ -25,14 +28,14 @@ void record_failure(store::Database& db, const store::UserRecord& user, const st
   if (!before.locked && before.failures + 1 >= settings.max_failed_logins)
     store::add_account_event(rec, user.id, "locked", "",
                              fmt::format("{} failed log-ins in a row", settings.max_failed_logins));
-  tx.commit();
+  rec.commit(tx);
 }
 
 void record_success_after_failures(store::Database& db, const store::UserRecord& user) {
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   store::Recorder rec(db.sql(), {user.full_name, store::current_os_user(), user.id});
   store::add_account_event(rec, user.id, "logged in");
-  tx.commit();
+  rec.commit(tx);
 }
 
 struct SessionUser {
@@ -50,7 +53,7 @@ std::optional<SessionUser> live_session(store::Database& db, const std::string& 
     SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
     store::Recorder rec(db.sql(), {user->full_name, store::current_os_user(), user->id});
     store::end_session(rec, s->id, "idle");
-    tx.commit();
+    rec.commit(tx);
     throw AccessError(
         fmt::format("the session of {} ended after more than {} minutes idle (last used {}); log in "
                     "again with `plumb login`.",
@@ -119,10 +122,13 @@ Authenticated authenticate(store::Database& db, const std::string& command, cons
   const auto settings = store::security_settings(db.sql());
   const std::string now = store::utc_timestamp();
   if (store::count_users(db.sql()) == 0)
-    throw AccessError(
-        fmt::format("database \"{}\" has no user accounts yet; add its first administrator with "
-                    "`plumb --db {} init --admin ID --admin-name \"FULL NAME\"`.",
-                    db.path().string(), db.path().string()));
+    throw AccessError(fmt::format(
+        "database \"{}\" has no user accounts yet; {}add its first administrator with `plumb --db {} init --admin ID "
+        "--admin-name \"FULL NAME\"`.",
+        db.path().string(),
+        std::filesystem::exists(store::key_path_for(db.path())) ? ""
+                                                                : "create the lab's key with `plumb key create`, then ",
+        db.path().string()));
 
   std::optional<SessionUser> session;
   if (credentials.session_token) session = live_session(db, *credentials.session_token, now);
@@ -171,7 +177,7 @@ OpenedSession open_session(store::Database& db, const Credentials& credentials) 
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   store::Recorder rec(db.sql(), who.actor);
   store::add_session(rec, *who.actor.user_id, store::sha256_hex(out.token), settings.idle_minutes);
-  tx.commit();
+  rec.commit(tx);
   return out;
 }
 
@@ -182,7 +188,7 @@ bool close_session(store::Database& db, const std::string& token) {
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   store::Recorder rec(db.sql(), {user ? user->full_name : "unknown", store::current_os_user(), s->user_id});
   store::end_session(rec, s->id, "logged out");
-  tx.commit();
+  rec.commit(tx);
   return true;
 }
 

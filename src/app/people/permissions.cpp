@@ -10,11 +10,13 @@ namespace plumb::app {
 namespace {
 
 // Technicians record checks; reviewers approve, correct and void; quality managers also manage the registry
-// (instruments, weights, their policies) and restore backups; administrators manage accounts and nothing else.
+// (instruments, weights, their policies, balance ports), restore backups and create the lab's signing key (it
+// vouches for the records, which is the quality manager's charge); administrators manage accounts and nothing else.
 const std::vector<Permission>& table() {
   using enum Role;
   static const std::vector<Permission> all = {
       {"check record", {technician, reviewer, quality_manager}},
+      {"check capture", {technician, reviewer, quality_manager}},
       {"check import", {quality_manager}},
       {"certificate issue", {technician, reviewer, quality_manager}},
       {"certificate approve", {reviewer, quality_manager}, true},
@@ -24,13 +26,16 @@ const std::vector<Permission>& table() {
       {"weight recalibrate", {quality_manager}},
       {"weight retire", {quality_manager}},
       {"weight reinstate", {quality_manager}},
+      {"weight set-properties", {quality_manager}},
       {"balance add", {quality_manager}},
       {"balance set-calibration", {quality_manager}},
+      {"balance port", {quality_manager}},
       {"pipette add", {quality_manager}},
       {"instrument update", {quality_manager}},
       {"instrument retire", {quality_manager}},
       {"instrument reinstate", {quality_manager}},
       {"restore", {quality_manager}},
+      {"key create", {quality_manager}},
       {"user add", {administrator}},
       {"user grant", {administrator}},
       {"user revoke", {administrator}},

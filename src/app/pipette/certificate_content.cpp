@@ -36,7 +36,7 @@ void add_pipette_certificate_parts(store::Database& db, const store::RunRecord& 
                              {"limits_policy", d.limits.key()},
                              {"limits", limits_summary(d.limits)},
                              {"limits_source", d.limits.kind == pipette_limits::LimitsPolicy::Kind::iso8655_2
-                                                   ? "ISO 8655-2:2002 Table 1 (transcribed from memory)"
+                                                   ? "ISO 8655-2:2002 Table 1"
                                                    : "the laboratory's own limits"}};
   }
   json balance_used = json::object();
@@ -63,6 +63,10 @@ void add_pipette_certificate_parts(store::Database& db, const store::RunRecord& 
       }
     }
   }
+  // The balance calibration whose U(E) stands for the balance in the uncertainty budget, or why none does.
+  const json& stated = run.results.value("balance", json::object());
+  for (const char* key : {"calibration_run", "calibration_certificate", "calibration_absent"})
+    if (stated.contains(key)) balance_used[key] = stated[key];
   content["balance_used"] = balance_used;
   content["weights"] = weights;  // the reference weights behind the balance's check: the traceability chain
   const std::string caution = content.value("caution", "");

@@ -7,6 +7,7 @@
 #include <charconv>
 #include <map>
 
+#include "app/pipette/balance_calibration.hpp"
 #include "app/pipette/registry.hpp"
 #include "app/registry/fields.hpp"
 #include "app/registry/lab.hpp"
@@ -180,7 +181,7 @@ store::RunRecord record_pipette_check(store::Database& db, const store::Actor& a
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   store::Recorder rec(db.sql(), actor);
   const std::int64_t id = record_pipette_check_in(db, rec, in);
-  tx.commit();
+  rec.commit(tx);
   return *store::find_run(db.sql(), id);
 }
 
@@ -270,6 +271,9 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
   input.environment = {water.to_double(), pressure.to_double(), humidity.to_double()};
   input.evaporation_per_weighing = evaporation;
   input.uncertainty = u_options;
+  const BalanceCalibrationLookup calibration = balance_calibration_on(db, bal.balance.id, on);
+  input.balance_calibration = calibration.calibration;
+  input.no_balance_calibration = calibration.absent_reason;
   for (const WeighingLine& w : lines) {
     auto tv =
         std::find_if(input.volumes.begin(), input.volumes.end(), [&](const auto& v) { return v.volume == w.volume; });
@@ -306,13 +310,20 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
                             {"channels", def.channels},
                             {"limits", limits_summary(def.limits)},
                             {"check_every", pipette->every.to_string()}};
-  run.results["balance"] = {{"id", bal.balance.id},
-                            {"readability_g", bal.balance.readability.approx().g()},
-                            {"repeatability_g", bal.repeatability ? json(bal.repeatability->g()) : json()},
-                            {"repeatability_run", bal.repeatability_run ? json(*bal.repeatability_run) : json()},
-                            {"latest_check_run", bal.latest.id},
-                            {"latest_check_on", to_string(bal.latest.performed_on)},
-                            {"due_on", bal.latest.next_due ? json(to_string(*bal.latest.next_due)) : json()}};
+  run.results["balance"] = {
+      {"id", bal.balance.id},
+      {"readability_g", bal.balance.readability.approx().g()},
+      {"repeatability_g", bal.repeatability ? json(bal.repeatability->g()) : json()},
+      {"repeatability_run", bal.repeatability_run ? json(*bal.repeatability_run) : json()},
+      {"latest_check_run", bal.latest.id},
+      {"latest_check_on", to_string(bal.latest.performed_on)},
+      {"due_on", bal.latest.next_due ? json(to_string(*bal.latest.next_due)) : json()},
+      // The calibration whose U(E) stands for the balance in the budget, or why none does.
+      {"calibration_run", calibration.calibration ? json(calibration.calibration->run_id) : json()},
+      {"calibration_certificate", calibration.calibration && !calibration.calibration->certificate.empty()
+                                      ? json(calibration.calibration->certificate)
+                                      : json()},
+      {"calibration_absent", calibration.calibration ? json() : json(calibration.absent_reason)}};
   run.results["environment"] = {{"water_temperature_c", water.to_double()},
                                 {"air_pressure_hpa", pressure.to_double()},
                                 {"humidity_pct", humidity.to_double()},

@@ -138,7 +138,7 @@ store::PipetteRecord add_pipette(store::Database& db, const store::Actor& actor,
     throw InputError(fmt::format("instrument id \"{}\" already exists.", d.id));
   store::Recorder rec(db.sql(), actor);
   store::add_pipette(rec, p);
-  tx.commit();
+  rec.commit(tx);
   return *store::find_pipette(db.sql(), d.id);
 }
 

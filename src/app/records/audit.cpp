@@ -9,6 +9,9 @@
 #include "core/dates.hpp"
 #include "core/errors.hpp"
 #include "store/audit_trail.hpp"
+#include "store/checkpoints.hpp"
+#include "store/file_output.hpp"
+#include "store/lab_key.hpp"
 #include "store/repository.hpp"
 #include "store/signature_check.hpp"
 
@@ -25,7 +28,9 @@ bool in(const json& row, const char* column, const std::set<std::int64_t>& ids) 
   return row.contains(column) && row[column].is_number_integer() && ids.count(row[column].get<std::int64_t>()) > 0;
 }
 
-bool is_id(const json& row, const char* column, std::int64_t id) { return in(row, column, {id}); }
+bool is_id(const json& row, const char* column, std::int64_t id) {
+  return in(row, column, {id});
+}
 
 std::vector<store::AuditRecord> of_instrument(const std::vector<store::AuditRecord>& all, const std::string& id) {
   std::set<std::int64_t> runs, certificates;
@@ -53,10 +58,10 @@ std::vector<store::AuditRecord> of_certificate(const std::vector<store::AuditRec
   for (const auto& r : all) {
     bool related = false;
     for (const auto& [table, row] : store::recorded_rows(r))
-      related = related || (table == "certificates"
-                                ? is_id(row, "id", c.id) || is_id(row, "supersedes", c.id)
-                                : (table == "check_runs" && is_id(row, "id", c.run_id)) ||
-                                      is_id(row, "run_id", c.run_id) || is_id(row, "certificate_id", c.id));
+      related = related ||
+                (table == "certificates" ? is_id(row, "id", c.id) || is_id(row, "supersedes", c.id)
+                                         : (table == "check_runs" && is_id(row, "id", c.run_id)) ||
+                                               is_id(row, "run_id", c.run_id) || is_id(row, "certificate_id", c.id));
     if (related) out.push_back(r);
   }
   return out;
@@ -89,7 +94,8 @@ void narrow(AuditLog& log, const AuditLogFilter& f) {
 
 AuditLog audit_log(store::Database& db, const AuditLogFilter& filter) {
   if (filter.instrument && filter.certificate)
-    throw InputError("--instrument and --certificate cannot be combined; give one of them (or neither for the whole lab).");
+    throw InputError(
+        "--instrument and --certificate cannot be combined; give one of them (or neither for the whole lab).");
   AuditLog log;
   if (filter.instrument) {
     if (!store::instrument_exists(db.sql(), *filter.instrument))
@@ -108,10 +114,42 @@ AuditLog audit_log(store::Database& db, const AuditLogFilter& filter) {
   return log;
 }
 
-store::AuditVerification verify_audit(store::Database& db) {
-  store::AuditVerification out = store::verify_audit_trail(db.sql());
-  for (auto& p : store::signature_problems(db.sql())) out.problems.push_back(std::move(p));
+Verification verify_audit(store::Database& db, const VerifyRequest& request) {
+  store::VerifyOptions options;
+  Verification out;
+  if (request.public_key) {
+    options.public_key = store::read_public_key_file(*request.public_key, "--public-key");
+    options.public_key_source = fmt::format("the public key {}", *request.public_key);
+    out.independent_key = true;
+  } else if (const auto key_file = store::key_path_for(db.path()); std::filesystem::exists(key_file)) {
+    options.public_key = store::LabKey::load(key_file).public_hex();
+    options.public_key_source = fmt::format("the lab's key file {}", key_file.string());
+    out.independent_key = true;
+  }
+  out.key_source = out.independent_key ? options.public_key_source
+                                       : std::string(
+                                             "the key recorded in the database (give --public-key for a proof "
+                                             "independent of it)");
+  if (request.since) {
+    options.since = store::read_checkpoint_file(*request.since, "--since");
+    options.since_source = *request.since;
+  }
+  out.audit = store::verify_audit_trail(db.sql(), options);
+  for (auto& p : store::signature_problems(db.sql())) out.audit.problems.push_back(std::move(p));
   return out;
+}
+
+store::Checkpoint export_checkpoint(store::Database& db, const std::filesystem::path& file) {
+  if (file.empty()) throw InputError("--out must name the file to write the checkpoint to.");
+  const auto last = store::latest_checkpoint(db.sql());
+  if (!last)
+    throw InputError(
+        fmt::format("database \"{}\" has no signed checkpoint yet; create the lab's key with `plumb key "
+                    "create`.",
+                    db.path().string()));
+  store::write_whole_file(file, store::checkpoint_json(*last).dump(2) + "\n", "checkpoint");
+  std::filesystem::permissions(file, std::filesystem::perms::owner_read | std::filesystem::perms::owner_write);
+  return *last;
 }
 
 }  // namespace plumb::app

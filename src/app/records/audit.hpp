@@ -1,6 +1,7 @@
 #pragma once
 // The audit trail for an inspector: who did what, when and why, for the whole lab, one instrument or one
 // certificate; and the proof that nothing was changed behind plumb's back.
+#include <filesystem>
 #include <optional>
 #include <string>
 #include <vector>
@@ -30,7 +31,25 @@ struct AuditLog {
 /// period that ends before it starts, or an empty name.
 AuditLog audit_log(store::Database& db, const AuditLogFilter& filter);
 
-/// Verifies the trail of the database (see store::verify_audit_trail).
-store::AuditVerification verify_audit(store::Database& db);
+struct VerifyRequest {
+  std::optional<std::string> public_key;  ///< --public-key: PEM file of the lab's public key
+  std::optional<std::string> since;       ///< --since: a checkpoint exported earlier
+};
+
+struct Verification {
+  store::AuditVerification audit;
+  std::string key_source;        ///< which key the checkpoints were proved with, for the user
+  bool independent_key = false;  ///< that key came from outside the database
+};
+
+/// Verifies the trail of the database (see store::verify_audit_trail). The checkpoints are proved with the public
+/// key given; without one, with the lab's key file when it can be read; otherwise only with the key each
+/// checkpoint names (which proves them unaltered, not who signed them). InputError naming the option for a file
+/// that is missing or not what it should be.
+Verification verify_audit(store::Database& db, const VerifyRequest& request = {});
+
+/// Writes the latest signed checkpoint to `file` as JSON (mode 0600, replaced whole). InputError when the database
+/// has none.
+store::Checkpoint export_checkpoint(store::Database& db, const std::filesystem::path& file);
 
 }  // namespace plumb::app

@@ -11,9 +11,10 @@
 #include "core/errors.hpp"
 #include "store/embedded.hpp"
 #include "store/file_digest.hpp"
+#include "store/lab_key.hpp"
 #include "store/private_file.hpp"
-#include "store/users.hpp"
 #include "store/recorder.hpp"
+#include "store/users.hpp"
 
 namespace plumb::app {
 namespace {
@@ -124,28 +125,44 @@ void require_same_lab(const RestoreRequest& r, const std::optional<store::LabIde
                   r.file.string(), lab_text(*backup, dates), r.db_path.string(), lab_text(*replaced, dates)));
 }
 
+/// The restored trail goes on being signed with the key that signed the backup's checkpoints: another key would
+/// leave a trail that no one public key proves.
+void require_backup_key(const RestoreRequest& r, const std::optional<store::Checkpoint>& backup_checkpoint,
+                        const std::string& key, const std::filesystem::path& key_file) {
+  if (!backup_checkpoint || backup_checkpoint->public_key == key) return;
+  throw InputError(
+      fmt::format("backup \"{}\" was signed with key {}, but the key for database \"{}\" ({}) is key {}; "
+                  "set PLUMB_KEY to the file of the backup's key.",
+                  r.file.string(), store::key_fingerprint(backup_checkpoint->public_key), r.db_path.string(),
+                  key_file.string(), store::key_fingerprint(key)));
+}
+
 void record_restore(store::Database& restored, const store::Actor& actor, const RestoreRequest& r,
                     const RestoreOutcome& out, const std::string& backup_sha256) {
   SQLite::Transaction tx(restored.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   store::Recorder rec(restored.sql(), actor);
   const auto& d = out.difference;
-  rec.insert("restores",
-             {{"backup_file", std::filesystem::absolute(r.file).lexically_normal().string()},
-              {"backup_sha256", backup_sha256},
-              {"backup_records", d.second_records},
-              {"backup_last_hash", d.second_last_hash.empty() ? store::genesis_hash() : d.second_last_hash},
-              {"replaced_records", out.replaced_existing ? store::Value(d.first_records) : store::Value()},
-              {"replaced_last_hash",
-               out.replaced_existing && !d.first_last_hash.empty() ? store::Value(d.first_last_hash) : store::Value()},
-              {"common_records", d.common},
-              {"removed_records", out.replaced_existing ? d.first_only() : std::int64_t{0}},
-              {"safety_copy", out.replaced_existing ? store::Value(out.previous_saved.string()) : store::Value()},
-              {"reason", r.reason},
-              {"by_name", actor.name},
-              {"recorded_at", rec.now()},
-              {"os_user", actor.os_user}},
-             {"id"}, r.reason);
-  tx.commit();
+  rec.insert(
+      "restores",
+      {{"backup_file", std::filesystem::absolute(r.file).lexically_normal().string()},
+       {"backup_sha256", backup_sha256},
+       {"backup_records", d.second_records},
+       {"backup_last_hash", d.second_last_hash.empty() ? store::genesis_hash() : d.second_last_hash},
+       {"replaced_records", out.replaced_existing ? store::Value(d.first_records) : store::Value()},
+       {"replaced_last_hash",
+        out.replaced_existing && !d.first_last_hash.empty() ? store::Value(d.first_last_hash) : store::Value()},
+       {"common_records", d.common},
+       {"removed_records", out.replaced_existing ? d.first_only() : std::int64_t{0}},
+       {"safety_copy", out.replaced_existing ? store::Value(out.previous_saved.string()) : store::Value()},
+       {"reason", r.reason},
+       {"by_name", actor.name},
+       {"recorded_at", rec.now()},
+       {"os_user", actor.os_user},
+       {"backup_checkpoint", out.backup_checkpoint ? store::Value(out.backup_checkpoint->number) : store::Value()},
+       {"backup_checkpoint_hash",
+        out.backup_checkpoint ? store::Value(out.backup_checkpoint->head_hash) : store::Value()}},
+      {"id"}, r.reason);
+  rec.commit(tx);
 }
 
 }  // namespace
@@ -165,6 +182,9 @@ RestoreOutcome restore_database(const RestoreRequest& r, const std::function<sto
         fmt::format("database \"{}\" exists and restore would replace it; add --force (its present content "
                     "is saved beside it first).",
                     db_path.string()));
+  // The restore is a command like any other: without the lab's key it cannot be signed, so nothing is touched.
+  const auto key_file = store::key_path_for(db_path);
+  const std::string key = store::LabKey::load(key_file).public_hex();
   std::optional<store::Actor> actor;
   if (exists) {
     store::Database current(db_path, store::Database::Open::existing);
@@ -177,11 +197,13 @@ RestoreOutcome restore_database(const RestoreRequest& r, const std::function<sto
   try {
     SQLite::Database source(file.string(), SQLite::OPEN_READONLY);
     out.backup_lab = store::lab_identity(source);
+    out.backup_checkpoint = store::latest_checkpoint(source);
     if (exists) {
       SQLite::Database current(db_path.string(), SQLite::OPEN_READWRITE);
       current.setBusyTimeout(30000);
       out.replaced_lab = store::lab_identity(current);
       require_same_lab(r, out.replaced_lab, out.backup_lab);
+      require_backup_key(r, out.backup_checkpoint, key, key_file);
       out.replaced_existing = true;
       if (current.tableExists("audit_log")) out.difference = store::compare_trails(current, source);
       out.previous_records = out.difference.first_records;
@@ -194,6 +216,7 @@ RestoreOutcome restore_database(const RestoreRequest& r, const std::function<sto
       }
       copy_pages(source, current);
     } else {
+      require_backup_key(r, out.backup_checkpoint, key, key_file);
       out.difference.second_records = source.execAndGet("SELECT count(*) FROM audit_log").getInt64();
       out.difference.second_last_hash = out.source.audit.last_hash;
       if (db_path.has_parent_path()) std::filesystem::create_directories(db_path.parent_path());

@@ -8,6 +8,7 @@
 #include <string>
 
 #include "store/audit_trail.hpp"
+#include "store/checkpoints.hpp"
 #include "store/database.hpp"
 #include "store/recorder.hpp"
 #include "store/trail_comparison.hpp"
@@ -47,14 +48,16 @@ struct RestoreOutcome {
   std::int64_t previous_records = 0;     ///< audit records the replaced database had
   store::TrailComparison difference;     ///< the replaced trail (first) against the backup's (second)
   std::optional<store::LabIdentity> replaced_lab, backup_lab;
+  std::optional<store::Checkpoint> backup_checkpoint;  ///< the backup's last signed checkpoint (recorded with it)
   store::AuditVerification after;        ///< the restored database, verified again once in place
 };
 
 /// Verifies the backup, then copies it over the database (refused when that exists, unless `force`; refused when
 /// the two belong to different labs, unless also `other_lab`). The replaced content is first saved beside it as
 /// DB.before-restore-TIMESTAMP (a new name each time, mode 0600). The restore is recorded in the restored trail
-/// (table restores): the backup file, its SHA-256 and last audit hash, who, why, and how many audit records of
-/// the replaced database the restore removed.
+/// (table restores): the backup file, its SHA-256, last audit hash and last signed checkpoint, who, why, and how
+/// many audit records of the replaced database the restore removed; then signed like any command. Refused first
+/// when the lab's signing key (store::key_path_for) cannot be read.
 /// `who` authenticates the person restoring: against the database being replaced when there is one (before
 /// anything changes), else against the restored accounts (a failure removes the restored file again).
 RestoreOutcome restore_database(const RestoreRequest& request,

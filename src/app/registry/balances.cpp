@@ -42,7 +42,7 @@ store::BalanceRecord add_balance(store::Database& db, const store::Actor& actor,
     throw InputError(fmt::format("instrument id \"{}\" already exists.", b.id));
   store::Recorder rec(db.sql(), actor);
   store::add_balance(rec, b);
-  tx.commit();
+  rec.commit(tx);
   return b;
 }
 

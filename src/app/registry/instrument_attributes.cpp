@@ -169,7 +169,7 @@ AttributeChange change_attributes(store::Database& db, const store::Actor& actor
   c.after.version_id = store::add_instrument_version(rec, in.id, c.after);
   c.after.recorded_at = rec.now();
   c.after.recorded_by = actor.name;
-  tx.commit();
+  rec.commit(tx);
   return c;
 }
 

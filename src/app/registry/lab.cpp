@@ -3,9 +3,11 @@
 #include <SQLiteCpp/Transaction.h>
 #include <fmt/format.h>
 
+#include "app/records/lab_key.hpp"
 #include "app/registry/fields.hpp"
 #include "core/errors.hpp"
 #include "store/created_file.hpp"
+#include "store/lab_key.hpp"
 #include "store/repository.hpp"
 #include "store/users.hpp"
 
@@ -30,12 +32,20 @@ void validate_lab_name(const std::string& name) {
 
 void init_lab(store::Database& db, const store::Actor& actor, const std::string& name) {
   validate_lab_name(name);
+  // The lab's signing key is made with the lab (or an existing one, named by PLUMB_KEY, is used); a failed init
+  // leaves no key behind.
+  const auto key_file = store::key_path_for(db.path());
+  store::CreatedFileGuard key_guard(key_file);
+  store::CreatedFileGuard public_guard(store::public_key_path_for(key_file));
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   if (auto lab = store::find_lab(db.sql()))
     throw InputError(fmt::format("database \"{}\" is already set up for lab \"{}\".", db.path().string(), lab->name));
+  ensure_lab_key(db.path());
   store::Recorder rec(db.sql(), actor);
   store::add_lab(rec, name);
-  tx.commit();
+  rec.commit(tx);
+  key_guard.keep();
+  public_guard.keep();
 }
 
 bool create_lab(const std::filesystem::path& path, const NewUser& admin, const std::string& name) {
@@ -51,8 +61,16 @@ bool create_lab(const std::filesystem::path& path, const NewUser& admin, const s
   store::Database db(path, store::Database::Open::create);
   if (auto lab = store::find_lab(db.sql()))
     throw InputError(fmt::format("database \"{}\" is already set up for lab \"{}\".", db.path().string(), lab->name));
+  // The administrator's records are the first ones signed, so the lab's key is there before them (init_lab then
+  // finds it); a failed init leaves neither key nor database behind.
+  const auto key_file = store::key_path_for(db.path());
+  store::CreatedFileGuard key_guard(key_file);
+  store::CreatedFileGuard public_guard(store::public_key_path_for(key_file));
+  ensure_lab_key(db.path());
   const store::Actor actor = add_first_administrator(db, admin);
   init_lab(db, actor, name);
+  key_guard.keep();
+  public_guard.keep();
   file.keep();
   return true;
 }

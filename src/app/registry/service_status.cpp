@@ -49,7 +49,7 @@ store::ServiceEvent change_service_status(store::Database& db, const store::Acto
   e.recorded_at = rec.now();
   e.os_user = actor.os_user;
   store::add_service_event(rec, e);
-  tx.commit();
+  rec.commit(tx);
   return *store::latest_service_event(db.sql(), item_kind, id);
 }
 

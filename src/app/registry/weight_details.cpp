@@ -3,9 +3,10 @@
 #include <fmt/format.h>
 
 #include "app/registry/weight_in_force.hpp"
+#include "app/registry/weight_properties.hpp"
+#include "app/status/due.hpp"
 #include "core/errors.hpp"
 #include "store/repository.hpp"
-#include "app/status/due.hpp"
 #include "store/status_events.hpp"
 #include "store/weight_certificates.hpp"
 
@@ -33,6 +34,17 @@ report::WeightDetails weight_details(store::Database& db, const std::string& id,
     d.overdue = overdue_on(*c, on);
   }
   d.retirement = store::retirement(db.sql(), "weight", id);
+  d.properties = store::weight_properties_history(db.sql(), id);
+  try {
+    const WeightDensity density =
+        density_for_budget(d.weight, d.properties.empty() ? std::nullopt : std::optional(d.properties.back()));
+    d.density_kg_m3 = density.rho_kg_m3;
+    d.u_density_kg_m3 = density.u_kg_m3;
+    d.density_source = density.source;
+  } catch (const InputError&) {
+    // Shown, not refused: the weight is listed all the same, and a calibration using it says how to enter it.
+    d.density_source = "none entered, and OIML R 111-1:2004 Table 5 sets no limit for its class at this nominal value";
+  }
   d.status = status_of(d);
   // The same standing as the due list and every other output (app/status/due.hpp), "due" included.
   if (d.status != "no certificate in force") {

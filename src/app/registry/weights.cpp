@@ -21,13 +21,11 @@ store::WeightRecord add_weight(store::Database& db, const store::Actor& actor, c
   w.nominal_text = in.nominal;
   w.nominal = positive_mass(in.nominal, "--nominal");
   w.weight_class = std::string(weights::to_string(weights::parse_weight_class(in.weight_class, "--class")));
-  if (in.density) {
-    w.density_kg_m3 = parse_kg_per_cubic_metre(*in.density, "--density");
-    if (w.density_kg_m3->to_double() < 1000 || w.density_kg_m3->to_double() > 25000)
-      throw InputError(
-          fmt::format("--density \"{}\" ({} kg/m3) is outside the range of weight materials (1000 to "
-                      "25000 kg/m3).",
-                      *in.density, w.density_kg_m3->to_string()));
+  const WeightPropertiesInput stated{in.density, in.density_u, in.density_class, in.drift};
+  std::optional<store::WeightProperties> properties;
+  if (!stated.empty()) {
+    properties = parse_weight_properties(stated, w, std::nullopt);
+    w.density_kg_m3 = properties->density_kg_m3;
   }
   const WeightCertificateInput typed{in.certificate, in.correction, in.uncertainty,
                                      in.k,           in.calibrated, in.due,
@@ -47,7 +45,8 @@ store::WeightRecord add_weight(store::Database& db, const store::Actor& actor, c
     override_record->weight_calibration_id = certificate_id;
     store::add_weight_class_override(rec, *override_record);
   }
-  tx.commit();
+  if (properties) store::add_weight_properties(rec, *properties);
+  rec.commit(tx);
   return *store::find_weight(db.sql(), w.id);
 }
 
@@ -75,7 +74,7 @@ RecalibrationOutcome recalibrate_weight(store::Database& db, const store::Actor&
     out.overridden = override_record->beyond;
     store::add_weight_class_override(rec, *override_record);
   }
-  tx.commit();
+  rec.commit(tx);
   history = store::weight_certificates(db.sql(), id);
   const store::WeightCalibration* today = certificate_in_force(history, today_utc());
   out.in_force_today = today && today->id == out.weight.current.id;

@@ -6,6 +6,7 @@
 #include <string>
 
 #include "app/registry/weight_certificate.hpp"
+#include "app/registry/weight_properties.hpp"
 #include "store/database.hpp"
 #include "store/recorder.hpp"
 #include "store/records.hpp"
@@ -14,7 +15,8 @@ namespace plumb::app {
 
 struct WeightInput {
   std::string id, nominal, weight_class, correction = "0g", uncertainty, k = "2", certificate, calibrated, due;
-  std::optional<std::string> density;  ///< kg/m3; conventional 8000 when absent
+  std::optional<std::string> density;  ///< kg/m3, with density_u; else the class's OIML R 111 Table 5 limits
+  std::optional<std::string> density_u, density_class, drift;  ///< see WeightPropertiesInput
   std::optional<std::string> override_reason;  ///< see WeightCertificateInput
 };
 store::WeightRecord add_weight(store::Database& db, const store::Actor& actor, const WeightInput& in);

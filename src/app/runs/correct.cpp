@@ -111,9 +111,12 @@ std::vector<std::string> stored_conditions(store::Database& db, const store::Run
     case checks::Procedure::calibration: {
       const auto d = store::find_calibration_details(db.sql(), run.id);
       if (!d) return {};
-      return {condition_value(d->temperature_c, "C", parse_celsius),
-              condition_value(d->pressure_hpa, "hPa", parse_hectopascals),
-              condition_value(d->humidity_pct, "%", parse_percent_rh), d->model, d->air_method};
+      return {
+          condition_value(d->temperature_c, "C", parse_celsius),
+          condition_value(d->pressure_hpa, "hPa", parse_hectopascals),
+          condition_value(d->humidity_pct, "%", parse_percent_rh), d->model, d->air_method,
+          // The instruments' uncertainties are stored with the results, not in a column.
+          run.results.value("environment", nlohmann::json::object()).value("instrument_u", nlohmann::json()).dump()};
     }
     case checks::Procedure::gravimetric: {
       const auto c = store::find_pipette_run_conditions(db.sql(), run.id);
@@ -207,6 +210,17 @@ std::int64_t record_calibration_correction(store::Database& db, store::Recorder&
   if (auto v = condition(in, "humidity")) c.humidity_pct = v;
   if (auto v = condition(in, "air-formula")) c.air_formula = *v;
   if (auto v = condition(in, "model")) c.model = *v;
+  // The instruments' uncertainties live in the results (no column for them): kept unless corrected.
+  const auto& entered =
+      original.results.value("environment", nlohmann::json::object()).value("instrument_u", nlohmann::json::object());
+  const auto kept = [&](const char* key, const char* option, const char* unit) -> std::optional<std::string> {
+    if (auto v = condition(in, option)) return v;
+    if (!entered.is_object() || !entered.contains(key) || !entered[key].is_string()) return std::nullopt;
+    return entered[key].get<std::string>() + unit;
+  };
+  c.temperature_u = kept("temperature_c", "temperature-u", "C");
+  c.pressure_u = kept("pressure_hpa", "pressure-u", "hPa");
+  c.humidity_u = kept("humidity_pct", "humidity-u", "%");
   c.supersedes = original.id;
   c.reason = in.reason;
   return record_calibration_in(db, rec, c);
@@ -310,7 +324,7 @@ CorrectionOutcome correct_check(store::Database& db, const store::Actor& actor, 
     store::add_certificate_event(rec, e);
     out.superseded_certificate = old;
   }
-  tx.commit();
+  rec.commit(tx);
   return out;
 }
 

@@ -256,7 +256,7 @@ ImportReport import_history(store::Database& db, const store::Actor& actor, cons
                                 {"imported_at", rec.now()},
                                 {"imported_by", actor.name}},
                                {"id"}, "history import");
-  tx.commit();
+  rec.commit(tx);
   if (progress) progress(total, total);
   return std::move(report);
 }

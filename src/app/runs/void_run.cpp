@@ -36,7 +36,7 @@ VoidOutcome void_run(store::Database& db, const store::Actor& actor, const std::
     store::add_certificate_withdrawal(rec, cert->id, reason);
     out.withdrawn_certificate = cert;
   }
-  tx.commit();
+  rec.commit(tx);
   out.run = *store::find_run(db.sql(), out.run.id);
   return out;
 }

@@ -16,31 +16,28 @@ store::RunRecord record_check(store::Database& db, const store::Actor& actor, co
   store::Recorder rec(db.sql(), actor);
   CheckLookups lookups(db);
   const std::int64_t id = record_check_in(rec, lookups, in).run_id;
-  tx.commit();
+  rec.commit(tx);
   return *store::find_run(db.sql(), id);
 }
 
-RecordedCheck record_check_in(store::Recorder& rec, CheckLookups& lookups, const CheckInput& in) {
+RecordedCheck record_check_in(store::Recorder& rec, CheckLookups& lookups, const CheckInput& in,
+                              const store::RunDetails& details) {
   const store::RunRecord run = build_check_run(lookups, in);
-  return {store::add_run(rec, run), run.verdict};
+  return {store::add_run(rec, run, details), run.verdict};
 }
 
-store::RunRecord build_check_run(CheckLookups& lookups, const CheckInput& in) {
+WeeklyCheckSetup prepare_weekly_check(CheckLookups& lookups, const CheckInput& in) {
   const Date on = parse_date(in.on, "--on");
-  if (days_between(today_utc(), on) > 1)
-    throw InputError(fmt::format("--on {} is in the future.", in.on));
+  if (days_between(today_utc(), on) > 1) throw InputError(fmt::format("--on {} is in the future.", in.on));
   if (in.operator_name.empty()) throw InputError("--by must name the operator who performed the check.");
   validate_free_text(in.operator_name, "--by");
   if (in.weight_ids.size() != 1)
     throw InputError(fmt::format("--weight: a repeatability check uses exactly one reference weight ({} given).",
                                  in.weight_ids.size()));
-  std::vector<CsvReading> parsed;
-  if (!in.parsed_readings) parsed = parse_readings_csv(in.readings_csv, in.readings_source, in.default_unit);
-  const std::vector<CsvReading>& readings = in.parsed_readings ? *in.parsed_readings : parsed;
   lookups.require_lab();
-  const store::BalanceRecord balance_then = lookups.balance_on(in.instrument_id, on);
-  const store::BalanceRecord* balance = &balance_then;
-  const store::WeightRecord weight = lookups.traceable_weight(in.weight_ids[0], on);
+  WeeklyCheckSetup setup{on, lookups.balance_on(in.instrument_id, on), lookups.traceable_weight(in.weight_ids[0], on)};
+  const store::BalanceRecord* balance = &setup.balance;
+  const store::WeightRecord& weight = setup.weight;
   // Retired items take no new checks; a correction of an earlier run is not a new check.
   if (!in.supersedes) {
     lookups.require_in_service("instrument", balance->id);
@@ -52,21 +49,34 @@ store::RunRecord build_check_run(CheckLookups& lookups, const CheckInput& in) {
   if (weight.nominal > balance->capacity)
     throw InputError(fmt::format("--weight {}: the load {} is above the capacity {} of {}.", weight.id,
                                  weight.nominal.to_string(), balance->capacity.to_string(), balance->id));
-  const int allowed = balance->readability.in_grams().significant_scale();
+  return setup;
+}
+
+void check_weekly_reading(const MassReading& reading, std::string_view where, const store::BalanceRecord& balance) {
+  const int allowed = balance.readability.in_grams().significant_scale();
+  if (reading.decimals_in_grams() > allowed)
+    throw InputError(fmt::format("{}: reading \"{}\" {} shows more decimals than the readability {} of {} allows.",
+                                 where, reading.text, to_string(reading.unit), balance.readability.to_string(),
+                                 balance.id));
+  if (reading.mass() < ExactMass{})
+    throw InputError(
+        fmt::format("{}: reading \"{}\" {} is negative, which no load on the pan can show; check the "
+                    "tare and the file.",
+                    where, reading.text, to_string(reading.unit)));
+}
+
+store::RunRecord build_check_run(CheckLookups& lookups, const CheckInput& in) {
+  const WeeklyCheckSetup setup = prepare_weekly_check(lookups, in);
+  const Date on = setup.on;
+  const store::BalanceRecord* balance = &setup.balance;
+  const store::WeightRecord& weight = setup.weight;
+  std::vector<CsvReading> parsed;
+  if (!in.parsed_readings) parsed = parse_readings_csv(in.readings_csv, in.readings_source, in.default_unit);
+  const std::vector<CsvReading>& readings = in.parsed_readings ? *in.parsed_readings : parsed;
   checks::RepeatabilityInput input;
   for (const auto& r : readings) {
-    if (r.reading.decimals_in_grams() > allowed)
-      throw InputError(fmt::format("{} line {}: reading \"{}\" {} shows more decimals than the readability {} of {} "
-                                   "allows.",
-                                   in.readings_source, r.line, r.reading.text, to_string(r.reading.unit),
-                                   balance->readability.to_string(), balance->id));
-    const ExactMass m = r.reading.mass();
-    if (m < ExactMass{})
-      throw InputError(
-          fmt::format("{} line {}: reading \"{}\" {} is negative, which no load on the pan can show; check the "
-                      "tare and the file.",
-                      in.readings_source, r.line, r.reading.text, to_string(r.reading.unit)));
-    input.readings.push_back(m);
+    check_weekly_reading(r.reading, fmt::format("{} line {}", in.readings_source, r.line), *balance);
+    input.readings.push_back(r.reading.mass());
   }
   checks::require_enough_readings(readings.size(), balance->policy, in.readings_source);
   input.balance = {balance->capacity, balance->readability, balance->smallest_net};

@@ -4,6 +4,7 @@
 // transaction.
 #include <optional>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include "app/runs/lookups.hpp"
@@ -12,6 +13,7 @@
 #include "store/database.hpp"
 #include "store/recorder.hpp"
 #include "store/records.hpp"
+#include "store/repository.hpp"
 
 namespace plumb::app {
 
@@ -21,7 +23,7 @@ struct CheckInput {
   std::string readings_csv;             ///< the CSV text
   std::string readings_source;          ///< file name for messages
   MassUnit default_unit = MassUnit::g;
-  std::string on;                       ///< date performed, YYYY-MM-DD
+  std::string on;  ///< date performed, YYYY-MM-DD
   std::string operator_name;
   std::optional<std::int64_t> supersedes;  ///< a correction: the run this one replaces
   std::string reason;                      ///< why it replaces it (required with supersedes)
@@ -30,15 +32,27 @@ struct CheckInput {
   std::optional<std::vector<CsvReading>> parsed_readings;
 };
 
-
 /// Validates, computes and records one check in its own transaction; nothing is written on error.
 store::RunRecord record_check(store::Database& db, const store::Actor& actor, const CheckInput& in);
 struct RecordedCheck {
   std::int64_t run_id = 0;
   Verdict verdict = Verdict::pass;
 };
-/// The same inside a transaction the caller holds (batch import, correction).
-RecordedCheck record_check_in(store::Recorder& rec, CheckLookups& lookups, const CheckInput& in);
+/// The same inside a transaction the caller holds (batch import, correction); `details` adds rows of other tables
+/// to the run's record (a captured run's raw lines).
+RecordedCheck record_check_in(store::Recorder& rec, CheckLookups& lookups, const CheckInput& in,
+                              const store::RunDetails& details = {});
+/// What a check needs before its readings, validated: the date, the balance and the weight in force then.
+struct WeeklyCheckSetup {
+  Date on;
+  store::BalanceRecord balance;
+  store::WeightRecord weight;
+};
+/// Validates everything of `in` but its readings (date, operator, weight, lab, balance, service, capacity).
+WeeklyCheckSetup prepare_weekly_check(CheckLookups& lookups, const CheckInput& in);
+/// Refuses a reading the balance cannot have shown (more decimals than its readability, negative); `where` is
+/// "FILE line N".
+void check_weekly_reading(const MassReading& reading, std::string_view where, const store::BalanceRecord& balance);
 /// Validates and computes the check without writing it: the run as it will be recorded (no id yet).
 store::RunRecord build_check_run(CheckLookups& lookups, const CheckInput& in);
 }  // namespace plumb::app

@@ -19,7 +19,9 @@ namespace {
 
 using nlohmann::json;
 
-double num(const json& j, const char* key) { return j.contains(key) && j[key].is_number() ? j[key].get<double>() : 0; }
+double num(const json& j, const char* key) {
+  return j.contains(key) && j[key].is_number() ? j[key].get<double>() : 0;
+}
 
 std::string exact_grams(const json& j, const char* key) {
   if (!j.contains(key) || !j[key].is_string()) return "-";
@@ -57,9 +59,9 @@ void environment_block(const json& cal, Document& doc) {
   doc.blocks.push_back(Heading{"Environment and air density"});
   KeyValues kv;
   if (env.value("measured", false))
-    kv.rows.emplace_back("Conditions", fmt::format("temperature {} degC, pressure {} hPa, relative humidity {} %",
-                                                   cell(env, "temperature_c"), cell(env, "pressure_hpa"),
-                                                   cell(env, "humidity_pct")));
+    kv.rows.emplace_back("Conditions",
+                         fmt::format("temperature {} degC, pressure {} hPa, relative humidity {} %",
+                                     cell(env, "temperature_c"), cell(env, "pressure_hpa"), cell(env, "humidity_pct")));
   if (air.is_object() && air.contains("rho_kg_m3"))
     kv.rows.emplace_back("Air density", fmt::format("{:.5f} kg/m3, u = {:.5f} kg/m3 ({})", num(air, "rho_kg_m3"),
                                                     num(air, "u_kg_m3"), cell(air, "formula")));
@@ -71,11 +73,11 @@ void environment_block(const json& cal, Document& doc) {
 
 void weights_block(const json& weights, Document& doc) {
   doc.blocks.push_back(Heading{"Reference weights (traceability)"});
-  Table t{{"Weight", "Nominal", "Class", "Conventional mass", "Density kg/m3", "U (k)", "Certificate", "Calibrated",
-           "Due"},
-          {0.7, 0.7, 0.5, 1.3, 0.9, 1.2, 1.0, 0.9, 0.9},
-          {false, true, false, true, true, true, false, false, false},
-          {}};
+  Table t{
+      {"Weight", "Nominal", "Class", "Conventional mass", "Density kg/m3", "U (k)", "Certificate", "Calibrated", "Due"},
+      {0.7, 0.7, 0.5, 1.3, 0.9, 1.2, 1.0, 0.9, 0.9},
+      {false, true, false, true, true, true, false, false, false},
+      {}};
   for (const auto& w : weights)
     t.rows.push_back({cell(w, "id"), cell(w, "nominal"), cell(w, "class"), exact_grams(w, "conventional_mass_g"),
                       cell(w, "density_kg_m3") + (w.value("density_assumed", false) ? " (assumed)" : ""),
@@ -113,8 +115,8 @@ KeyValues model_block(const json& fit, const MgFormat& f) {
   const auto se = fit.value("coef_se", std::vector<double>{});
   std::string coefs;
   for (std::size_t i = 0; i < coef.size(); ++i)
-    coefs += fmt::format("{}b{} = {:+.10g} (SE {:.3g})", i ? "; " : "", fit.value("model", "") == "through-origin" ? 1 : i,
-                         coef[i], i < se.size() ? se[i] : 0.0);
+    coefs += fmt::format("{}b{} = {:+.10g} (SE {:.3g})", i ? "; " : "",
+                         fit.value("model", "") == "through-origin" ? 1 : i, coef[i], i < se.size() ? se[i] : 0.0);
   kv.rows.emplace_back("Coefficients", coefs);
   kv.rows.emplace_back("Statistics",
                        fmt::format("R\u00b2 = {:.12f} ({}), RMSE = {} mg, residual SD = {} mg, n = {}, dof = {}",
@@ -128,34 +130,88 @@ KeyValues model_block(const json& fit, const MgFormat& f) {
 void budget_block(const json& stage, const MgFormat& f, Document& doc) {
   const json& rows = stage.value("error_of_indication", json::array());
   if (rows.empty()) return;
-  const auto largest = std::max_element(rows.begin(), rows.end(), [](const json& a, const json& b) {
-    return num(a, "reference_g") < num(b, "reference_g");
-  });
   doc.blocks.push_back(Heading{fmt::format("Uncertainty budget, {} (final stage)", stage.value("title", ""))});
-  doc.blocks.push_back(Paragraph{fmt::format("The budget of E at the largest load, {} ({:.6g} g); contributions "
-                                             "u_i |c_i| in mg (GUM, EURAMET cg-18).",
-                                             cell(*largest, "load"), num(*largest, "reference_g"))});
-  Table t{{"Source", "Value / mg", "Distribution", "Divisor", "c_i", "u_i |c_i| / mg", "dof", "Share"},
-          {1.6, 0.9, 1.0, 0.7, 0.5, 1.0, 0.6, 0.6},
-          {false, true, false, true, true, true, true, true},
-          {}};
+  doc.blocks.push_back(
+      Paragraph{"The budget of E at every load; contributions u_i |c_i| in mg (GUM, EURAMET cg-18).", true});
   const auto dof = [](const json& v) { return v.is_number() ? fmt::format("{:.1f}", v.get<double>()) : "inf"; };
   const MgFormat fine{f.decimals + 1};
-  for (const auto& b : largest->value("budget", json::array()))
-    t.rows.push_back({cell(b, "source"), fine.mg(num(b, "value")), cell(b, "distribution"),
-                      fmt::format("{:.4f}", num(b, "divisor")), fmt::format("{:.1f}", num(b, "sensitivity")),
-                      MgFormat{f.decimals + 2}.mg(num(b, "contribution_g")), dof(b.value("dof", json())),
-                      fmt::format("{:.1f} %", num(b, "share") * 100)});
-  doc.blocks.push_back(std::move(t));
+  for (const auto& l : rows) {
+    doc.blocks.push_back(Paragraph{fmt::format(
+        "Load {} ({}, {:.6g} g): u_c = {} mg, nu_eff = {}, k = {:.3f}, U = k u_c "
+        "= {} mg.",
+        cell(l, "index"), cell(l, "load"), num(l, "reference_g"), MgFormat{f.decimals + 2}.mg(num(l, "u_c_g")),
+        dof(l.value("nu_eff", json())), num(l, "k"), fine.mg(num(l, "U_g")))});
+    Table t{{"Source", "Value / mg", "Distribution", "Divisor", "c_i", "u_i |c_i| / mg", "dof", "Share"},
+            {1.6, 0.9, 1.0, 0.7, 0.5, 1.0, 0.6, 0.6},
+            {false, true, false, true, true, true, true, true},
+            {}};
+    for (const auto& b : l.value("budget", json::array()))
+      t.rows.push_back({cell(b, "source"), fine.mg(num(b, "value")), cell(b, "distribution"),
+                        fmt::format("{:.4f}", num(b, "divisor")), fmt::format("{:.1f}", num(b, "sensitivity")),
+                        MgFormat{f.decimals + 2}.mg(num(b, "contribution_g")), dof(b.value("dof", json())),
+                        fmt::format("{:.1f} %", num(b, "share") * 100)});
+    doc.blocks.push_back(std::move(t));
+    for (const auto& b : l.value("budget", json::array()))
+      if (!b.value("note", "").empty())
+        doc.blocks.push_back(Paragraph{cell(b, "source") + ": " + cell(b, "note"), true});
+  }
   Table per_load{{"#", "Load", "u_c / mg", "nu_eff", "k", "U = k u_c / mg"},
                  {0.3, 1.4, 1.0, 0.8, 0.6, 1.1},
                  {true, false, true, true, true, true},
                  {}};
   for (const auto& l : rows)
-    per_load.rows.push_back({cell(l, "index"), cell(l, "load"), MgFormat{f.decimals + 1}.mg(num(l, "u_c_g")),
+    per_load.rows.push_back({cell(l, "index"), cell(l, "load"), fine.mg(num(l, "u_c_g")),
                              dof(l.value("nu_eff", json())), fmt::format("{:.2f}", num(l, "k")), f.mg(num(l, "U_g"))});
   doc.blocks.push_back(Paragraph{"Combined and expanded uncertainty at every load of the final stage:", true});
   doc.blocks.push_back(std::move(per_load));
+}
+
+// The repeatability and eccentricity tests of one set (as found or as left), from the stored run results.
+void set_tests_block(const json& set, const MgFormat& f, Document& doc) {
+  Table rep{{"Repeatability at load", "n", "Mean / g", "s / mg"}, {1.4, 0.4, 1.2, 0.8}, {false, true, true, true}, {}};
+  for (const auto& r : set.value("repeatability", json::array()))
+    rep.rows.push_back(
+        {exact_grams(r, "load_g"), cell(r, "n"), fmt::format("{:.6f}", num(r, "mean_g")), f.mg(num(r, "sd_g"))});
+  if (!rep.rows.empty()) doc.blocks.push_back(std::move(rep));
+  const json& ecc = set.value("eccentricity", json());
+  if (!ecc.is_object() || ecc.empty()) {
+    doc.blocks.push_back(Paragraph{"Eccentricity: not tested in this set.", true});
+    return;
+  }
+  doc.blocks.push_back(
+      Paragraph{fmt::format("Eccentricity at {} (centre reading {} g); largest |deviation| {} g at {} "
+                            "(relative {:.3g}).",
+                            exact_grams(ecc, "load_g"), cell(ecc, "centre_g"), cell(ecc, "max_abs_deviation_g"),
+                            cell(ecc, "max_position"), num(ecc, "relative_max")),
+                true});
+  Table t{{"Position", "Reading / g", "Deviation from centre / g"}, {1.2, 1.0, 1.4}, {false, true, true}, {}};
+  for (const auto& d : ecc.value("deviations", json::array()))
+    t.rows.push_back({cell(d, "position"), cell(d, "reading_g"), cell(d, "deviation_g")});
+  doc.blocks.push_back(std::move(t));
+}
+
+// Hysteresis where a load was also read going down, and the residuals of the fit.
+void set_details_block(const json& set, const MgFormat& f, Document& doc) {
+  Table hys{{"Load", "I going up / g", "I going down / g", "Hysteresis / mg"},
+            {1.2, 1.1, 1.1, 1.0},
+            {false, true, true, true},
+            {}};
+  for (const auto& l : set.value("loads", json::array()))
+    if (l.contains("hysteresis_g") && l["hysteresis_g"].is_number())
+      hys.rows.push_back({cell(l, "combination"), fmt::format("{:.7f}", num(l, "indication_g")),
+                          fmt::format("{:.7f}", num(l, "indication_down_g")), f.signed_mg(num(l, "hysteresis_g"))});
+  if (!hys.rows.empty()) doc.blocks.push_back(std::move(hys));
+  std::vector<std::string> residuals;
+  for (const auto& r : set.value("fit", json::object()).value("residuals_g", std::vector<double>{}))
+    residuals.push_back(MgFormat{f.decimals + 1}.signed_mg(r));
+  if (!residuals.empty())
+    doc.blocks.push_back(Paragraph{fmt::format("Residuals of the fit / mg: {}.", fmt::join(residuals, ", ")), true});
+  if (!set.value("loads", json::array()).empty())
+    doc.blocks.push_back(
+        Paragraph{"Tolerance basis (load 1): " + cell(set["loads"][0], "tolerance_basis") + ".", true});
+  doc.blocks.push_back(
+      Paragraph{fmt::format("Result of this set: {}{}.", cell(set, "overall"),
+                            set.value("weights_suitable", true) ? "" : " (some weights not suitable: see the notes)")});
 }
 
 void decision_block(const json& cal, Document& doc) {
@@ -181,12 +237,17 @@ void balance_calibration_sections(const json& c, Document& doc) {
   const json* final_stage = nullptr;
   for (const auto& st : stages) {
     doc.blocks.push_back(Heading{fmt::format("{}: {}", st.value("title", ""), cell(st, "state"))});
-    doc.blocks.push_back(Paragraph{"Error of indication E = I - m_ref; U = k u_c; MPE from the tolerance (" +
-                                       cell(cal, "tolerance") + ").",
-                                   true});
+    const json& set = c.value("check", json::object())
+                          .value(st.value("stage", "") == "as-left" ? "as_left" : "as_found", json::object());
+    if (set.is_object()) set_tests_block(set, f, doc);
+    doc.blocks.push_back(Paragraph{
+        "Error of indication E = I - m_ref; U = k u_c; MPE from the tolerance (" + cell(cal, "tolerance") + ").",
+        true});
     doc.blocks.push_back(error_table(st, f));
     doc.blocks.push_back(model_block(st.value("fit", json::object()), f));
-    for (const auto& n : st.value("notes", json::array())) doc.blocks.push_back(Paragraph{"Note: " + n.get<std::string>(), true});
+    if (set.is_object()) set_details_block(set, f, doc);
+    for (const auto& n : st.value("notes", json::array()))
+      doc.blocks.push_back(Paragraph{"Note: " + n.get<std::string>(), true});
     if (st.value("stage", "") == final_key) final_stage = &st;
   }
   if (!final_stage && !stages.empty()) final_stage = &stages.back();
@@ -201,7 +262,8 @@ void balance_calibration_sections(const json& c, Document& doc) {
                                                cell(stages[0], "state"), cell(stages[1], "state"))});
   else if (!stages.empty())
     doc.blocks.push_back(Paragraph{fmt::format("No adjustment was made: as found {}.", cell(stages[0], "state"))});
-  for (const auto& n : cal.value("notes", json::array())) doc.blocks.push_back(Paragraph{"Note: " + n.get<std::string>(), true});
+  for (const auto& n : cal.value("notes", json::array()))
+    doc.blocks.push_back(Paragraph{"Note: " + n.get<std::string>(), true});
   history_chart_section(c, doc);
 }
 

@@ -117,8 +117,14 @@ std::vector<std::string> calibration_set_lines(const json& set, const std::strin
                       "divisor", "c_i", "u_i|c_i| /mg", "dof"));
       for (const auto& r : b["lines"])
         add(fmt::format("      {:<19}{:>12.{}f} {:<12}{:>8.4f}{:>7.1f}{:>13.{}f}{:>7}", field_text(r, "source"),
-                        number_field(r, "value") * 1e3, emg + 1, field_text(r, "distribution"), number_field(r, "divisor"),
-                        number_field(r, "sensitivity"), number_field(r, "contribution_g") * 1e3, emg + 2, dof_text(r["dof"])));
+                        number_field(r, "value") * 1e3, emg + 1, field_text(r, "distribution"),
+                        number_field(r, "divisor"), number_field(r, "sensitivity"),
+                        number_field(r, "contribution_g") * 1e3, emg + 2, dof_text(r["dof"])));
+      for (const auto& r : b["lines"])
+        if (!field_text(r, "note", "").empty())
+          for (const auto& note :
+               wrap(field_text(r, "source") + ": " + field_text(r, "note"), 78, "      ", "        "))
+            add(note);
       add(fmt::format("      u_c = {} mg, nu_eff = {}, k = {:.3f}, U = k u_c = {} mg",
                       mg_unsigned(number_field(b, "combined_g"), emg + 2), dof_text(b["nu_eff"]), number_field(b, "k"),
                       mg_unsigned(number_field(b, "expanded_g"), emg + 1)));

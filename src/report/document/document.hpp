@@ -1,8 +1,9 @@
 #pragma once
-// A small document model for PDF certificates and reports: a header repeated on every page and a list
-// of blocks (heading, key-value list, table, paragraph, verdict, chart, signatures). Each certificate
-// kind maps its stored JSON to blocks (certificate_document.hpp); document_pdf.hpp lays them out on
-// A4 pages with cairo and pango. So a new kind adds its sections, never a renderer.
+// The one document model of a certificate: a header repeated on every page and a list of blocks (heading,
+// key-value list, table, paragraph, verdict, chart, signatures). Each certificate kind maps its stored JSON to
+// blocks (report/certificates/document.hpp); the renderers lay the same blocks out as PDF (pdf.hpp), plain text
+// (text.hpp), HTML (html.hpp) and a JSON list of labelled values (values.hpp). So a new kind adds its sections,
+// never a renderer, and no rendering can say less than another.
 #include <string>
 #include <utility>
 #include <variant>
@@ -21,6 +22,9 @@ struct DocumentHeader {
   std::string number;    ///< printed on every page with "page x of y"
   std::string status;    ///< e.g. "approved", "draft"; printed beside the number when present
   std::string issued;    ///< "Issued 2026-12-01T10:00:00Z by Q. Manager"
+  /// "DRAFT", "WITHDRAWN", "SUPERSEDED": marked across every page and at the top and end of every rendering, so
+  /// no copy of a certificate that is not (or no longer) valid can pass for a valid one. Empty when valid.
+  std::string watermark;
 };
 
 struct Heading {
@@ -55,8 +59,14 @@ struct ChartBlock {
   ChartSpec spec;  ///< drawn at the text width; its own height
 };
 
+/// A person on the certificate. Signed electronically (in plumb, with its meaning and time) or a line to sign by
+/// hand when `signed_at` is empty.
 struct Signatory {
-  std::string role, name;
+  std::string role;       ///< "Performed by", "Reviewed and approved by"
+  std::string name;       ///< printed name; empty: to be filled in by hand
+  std::string function;   ///< "operator", "reviewer", a job title
+  std::string meaning;    ///< what the signature means, as the signer stated it
+  std::string signed_at;  ///< UTC, ISO 8601
 };
 struct Signatures {
   std::vector<Signatory> people;

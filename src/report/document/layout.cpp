@@ -48,7 +48,7 @@ void require_png(const json& value, std::string_view file) {
 void validate_layout(const json& layout, std::string_view file) {
   if (!layout.is_object()) throw InputError(fmt::format("layout file \"{}\" must hold a JSON object.", file));
   for (const auto& [key, value] : layout.items()) {
-    if (key == "comment" || key == "accreditation" || key == "caution") {
+    if (key == "comment" || key == "accreditation" || key == "caution" || key == "customer") {
       require_text(value, file, key);
     } else if (key == "address_lines") {
       require_text_list(value, file, key);
@@ -78,7 +78,7 @@ void validate_layout(const json& layout, std::string_view file) {
       }
     } else {
       throw InputError(
-          fmt::format("layout file \"{}\" field {}: is not known (a layout has comment, address_lines, "
+          fmt::format("layout file \"{}\" field {}: is not known (a layout has comment, address_lines, customer, "
                       "accreditation, logo_png, signatories and caution).",
                       file, shown_on_one_line(key)));
     }

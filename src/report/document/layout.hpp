@@ -14,7 +14,7 @@ namespace plumb::report {
 nlohmann::json load_layout(const std::optional<std::string>& path);
 
 /// Refuses, naming `file` and the field, what a certificate could not be drawn from: a key that is not one of
-/// the layout's (comment, address_lines, accreditation, logo_png, signatories, caution), a value of the wrong
+/// the layout's (comment, address_lines, customer, accreditation, logo_png, signatories, caution), a value of the wrong
 /// type, text that is not plain text on one line (core/text_field.hpp), and a logo that is not a readable PNG.
 void validate_layout(const nlohmann::json& layout, std::string_view file);
 

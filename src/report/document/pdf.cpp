@@ -30,7 +30,9 @@ constexpr PageRgb page_stripe_fill{0.97, 0.97, 0.97};
 constexpr PageRgb page_pass_colour{0.000, 0.620, 0.451};  // the charts' bluish green
 constexpr PageRgb page_fail_colour{0.835, 0.369, 0.000};  // the charts' vermillion
 
-void colour(cairo_t* cr, PageRgb c) { cairo_set_source_rgb(cr, c.r, c.g, c.b); }
+void colour(cairo_t* cr, PageRgb c) {
+  cairo_set_source_rgb(cr, c.r, c.g, c.b);
+}
 
 void hrule(cairo_t* cr, double y, double width = 0.6, PageRgb c = page_rule_grey) {
   colour(cr, c);
@@ -47,7 +49,7 @@ using Surface = std::unique_ptr<cairo_surface_t, SurfaceDeleter>;
 
 /// Writes the blocks page by page. Run twice: first to count the pages, then to draw with "of N".
 class Flow {
-public:
+ public:
   Flow(cairo_t* cr, const Document& doc, cairo_surface_t* logo, int total_pages)
       : cr_(cr), doc_(doc), logo_(logo), total_(total_pages) {}
 
@@ -65,7 +67,7 @@ public:
     return page_;
   }
 
-private:
+ private:
   [[nodiscard]] double bottom() const { return page_h - margin_bottom - footer_h; }
 
   void new_page() {
@@ -142,14 +144,29 @@ private:
     top_of_body_ = y_;
   }
 
+  // Across the page, light enough to read through, on every page of a certificate that is not valid.
+  void watermark() {
+    const std::string& mark = doc_.header.watermark;
+    if (mark.empty()) return;
+    TextLayout t(cr_, mark, 64, true);
+    cairo_save(cr_);
+    cairo_translate(cr_, page_w / 2, page_h / 2);
+    cairo_rotate(cr_, -0.9);
+    cairo_set_source_rgba(cr_, 0.75, 0.1, 0.1, 0.16);
+    t.draw(-t.width() / 2, -t.height() / 2);
+    cairo_restore(cr_);
+  }
+
   void footer() {
+    watermark();
     const double y = page_h - margin_bottom - footer_h + 8;
     hrule(cr_, y);
     const std::string pages = total_ > 0 ? fmt::format("page {} of {}", page_, total_) : fmt::format("page {}", page_);
     TextLayout right(cr_, fmt::format("Certificate No. {}   {}", doc_.header.number, pages), 8, true);
     colour(cr_, page_ink);
     right.draw(page_w - margin_x - right.width(), y + 4);
-    if (!doc_.footer.empty()) text(doc_.footer, margin_x, y + 4, 6.5, page_muted, false, false, text_w - right.width() - 16);
+    if (!doc_.footer.empty())
+      text(doc_.footer, margin_x, y + 4, 6.5, page_muted, false, false, text_w - right.width() - 16);
   }
 
   // ---- blocks -------------------------------------------------------------------------------------
@@ -273,8 +290,17 @@ private:
       for (std::size_t j = i; j < std::min(i + per_row, s.people.size()); ++j) {
         const double x = margin_x + static_cast<double>(j - i) * col_w;
         double y = y_;
-        y += text(s.people[j].role, x, y, 9, page_ink, true, false, col_w - 12);
-        y += text(s.people[j].name.empty() ? " " : s.people[j].name, x, y, 9, page_ink, false, false, col_w - 12);
+        const Signatory& who = s.people[j];
+        y += text(who.role, x, y, 9, page_ink, true, false, col_w - 12);
+        y += text(who.name.empty() ? " " : who.name, x, y, 9, page_ink, false, false, col_w - 12);
+        if (!who.function.empty()) y += text(who.function, x, y, 8, page_muted, false, false, col_w - 12);
+        if (!who.signed_at.empty()) {
+          // Signed in plumb: the signature's meaning and time take the place of the lines to sign by hand.
+          y += text(fmt::format("Signed electronically on {}: \u201c{}\u201d", who.signed_at, who.meaning), x, y, 8,
+                    page_ink, false, true, col_w - 12);
+          tallest = std::max(tallest, y + 4 - y_);
+          continue;
+        }
         y += 26;
         colour(cr_, page_ink);
         cairo_set_line_width(cr_, 0.6);
@@ -324,8 +350,8 @@ RenderedPdf render_pdf(const Document& doc) {
       logo.reset(cairo_image_surface_create_from_png(doc.header.logo_png.c_str()));
     if (!logo || cairo_surface_status(logo.get()) != CAIRO_STATUS_SUCCESS) {
       logo.reset();
-      result.warnings.push_back(
-          fmt::format("logo \"{}\" could not be read as a PNG image; the PDF is drawn without it.", doc.header.logo_png));
+      result.warnings.push_back(fmt::format(
+          "logo \"{}\" could not be read as a PNG image; the PDF is drawn without it.", doc.header.logo_png));
     }
   }
   // First pass counts the pages (drawn to a scratch PDF, so text is measured exactly as in the real one).

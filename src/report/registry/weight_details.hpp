@@ -11,6 +11,7 @@
 #include "store/records.hpp"
 #include "store/status_events.hpp"
 #include "store/weight_certificates.hpp"
+#include "store/weight_properties.hpp"
 
 namespace plumb::report {
 
@@ -24,6 +25,10 @@ struct WeightDetails {
   std::optional<store::ServiceEvent> retirement;  ///< set while the weight is retired
   /// On `on`: "retired", "overdue", "in date" (the words of the due list) or "no certificate in force".
   std::string status;
+  std::vector<store::WeightProperties> properties;  ///< density and drift statements, oldest first
+  /// The density a calibration budget uses (none: it cannot be derived, and `density_source` says why).
+  std::optional<double> density_kg_m3, u_density_kg_m3;
+  std::string density_source;
 };
 
 std::string weight_details_text(const WeightDetails& d);
