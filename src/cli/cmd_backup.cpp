@@ -40,7 +40,6 @@ std::vector<Command> backup_commands() {
             "reason", po::value<std::string>()->required(), "why the database is restored (recorded)")(
             "force", po::bool_switch(), "replace an existing database (its content is saved first)")(
             "other-lab", po::bool_switch(), "with --force: replace even a database of another lab");
-        add_by_option(d);
         p.add("file", 1);
       },
       [](const po::variables_map& vm, Env& env) {
@@ -50,7 +49,7 @@ std::vector<Command> backup_commands() {
         request.force = vm["force"].as<bool>();
         request.other_lab = vm["other-lab"].as<bool>();
         request.reason = vm["reason"].as<std::string>();
-        const auto out = app::restore_database(request, Env::actor(vm));
+        const auto out = app::restore_database(request, [&env](store::Database& db) { return env.actor(db); });
         if (!out.source.ok) {
           fmt::print(env.err, "plumb: nothing restored: {}\n", out.source.failure);
           return 1;

@@ -27,7 +27,6 @@ std::vector<Command> balance_commands() {
                     "location", po::value<std::string>()->default_value(""), "where it stands")(
                     "since", po::value<std::string>(), "in use since (first check due), default today");
                 add_identity_options(d);
-                add_by_option(d);
                 p.add("id", 1);
               },
               [](const po::variables_map& vm, Env& env) {
@@ -43,7 +42,7 @@ std::vector<Command> balance_commands() {
                 in.since = optional_string(vm, "since");
                 in.identity = identity_from(vm);
                 auto db = env.open();
-                const auto b = app::add_balance(db, Env::actor(vm), in);
+                const auto b = app::add_balance(db, env.actor(db), in);
                 fmt::print(env.out, "Balance {} registered: capacity {}, d = {}, checked every {} under {}.\n", b.id,
                            b.capacity.to_string(), b.readability.to_string(), b.every.to_string(), b.policy.name());
                 return 0;

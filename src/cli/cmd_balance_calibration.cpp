@@ -23,7 +23,6 @@ std::vector<Command> balance_calibration_commands() {
                     "calibrate-every", po::value<std::string>()->default_value("1y"),
                     "calibration interval (weekly checks keep --every of balance add)")(
                     "since", po::value<std::string>(), "first calibration due on this date (default today)");
-                add_by_option(d);
                 p.add("id", 1);
               },
               [](const po::variables_map& vm, Env& env) {
@@ -38,7 +37,7 @@ std::vector<Command> balance_calibration_commands() {
                 in.calibrate_every = vm["calibrate-every"].as<std::string>();
                 in.since = optional_string(vm, "since");
                 auto db = env.open();
-                const auto s = app::set_calibration_settings(db, Env::actor(vm), in);
+                const auto s = app::set_calibration_settings(db, env.actor(db), in);
                 fmt::print(env.out, "Calibration settings of {} (row {}): {}.\n", s.instrument_id, s.id,
                            app::describe(s));
                 return 0;

@@ -22,7 +22,7 @@ std::vector<Command> balance_port_commands() {
       "port",
       "set (or, with the id alone, show) the balance's data-output port settings, kept with their history",
       "plumb balance port BAL-A --device /dev/ttyUSB0 --baud 9600 --parity none --data-bits 8 --stop-bits 1 "
-      "--handshake none --unit g --by \"Q. Manager\"",
+      "--handshake none --unit g",
       [](po::options_description& d, po::positional_options_description& p) {
         d.add_options()("id", po::value<std::string>()->required(), "balance id (positional)")(
             "device", po::value<std::string>(), "the port, e.g. /dev/ttyUSB0")("baud", po::value<std::string>(),
@@ -40,7 +40,6 @@ std::vector<Command> balance_port_commands() {
             "unit", po::value<std::string>(), "the unit the balance is set to show (default g)")(
             "reason", po::value<std::string>()->default_value(""), "why the settings change (kept in the trail)")(
             "format", po::value<std::string>()->default_value("text"), "output format when showing: text");
-        add_by_option(d);
         p.add("id", 1);
       },
       [](const po::variables_map& vm, Env& env) {
@@ -64,7 +63,7 @@ std::vector<Command> balance_port_commands() {
                              in.send_command || in.line_pattern || in.unit || in.clear_send_command ||
                              in.clear_line_pattern;
         if (setting) {
-          const auto p = app::set_balance_port(db, Env::actor(vm), in);
+          const auto p = app::set_balance_port(db, env.actor(db), in);
           fmt::print(env.out, "Port of {} set: {}.\n", p.balance_id, port_line(p));
           return 0;
         }

@@ -20,13 +20,14 @@ int capture_weekly_check(const po::variables_map& vm, Env& env) {
   in.check.instrument_id = vm["instrument"].as<std::string>();
   if (vm.count("weight")) in.check.weight_ids = vm["weight"].as<std::vector<std::string>>();
   in.check.on = vm.count("on") ? vm["on"].as<std::string>() : to_string(today_local());
-  if (!vm.count("by")) throw InputError("--by must name the operator who performed the check.");
-  in.check.operator_name = vm["by"].as<std::string>();
   in.unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
   in.count = vm["count"].as<int>();
   const std::string from = vm["from"].as<std::string>();
   if (from != "typed") in.source = from;
   auto db = env.open();
+  // Who weighs is known before the first reading: the authenticated user performed the check.
+  const auto actor = env.actor(db);
+  in.check.operator_name = actor.name;
   app::WeeklyCapture capture(db, in);
 
   std::unique_ptr<capture::ByteSource> port;
@@ -48,7 +49,7 @@ int capture_weekly_check(const po::variables_map& vm, Env& env) {
     env.err << "plumb: " << result.why << "\n";
     return result.end == capture::SessionEnd::interrupted ? 130 : 2;
   }
-  const auto run = capture.record(Env::actor(vm));
+  const auto run = capture.record(actor);
   const auto j = report::run_json(run);
   if (format == "json")
     env.out << j.dump(2) << "\n";
@@ -63,9 +64,9 @@ std::vector<Command> capture_commands() {
   Command capture{"check",
                   "capture",
                   "take a weekly check at the bench, step by step, from the balance's data output or typed readings",
-                  "plumb check capture BAL-A --weight W100 --by \"A. Technician\"\n"
-                  "  plumb check capture BAL-A --weight W100 --from port --by \"A. Technician\"\n"
-                  "  plumb check capture BAL-A --weight W100 --from /dev/ttyUSB1 --by \"A. Technician\"",
+                  "plumb check capture BAL-A --weight W100\n"
+                  "  plumb check capture BAL-A --weight W100 --from port\n"
+                  "  plumb check capture BAL-A --weight W100 --from /dev/ttyUSB1",
                   [](po::options_description& d, po::positional_options_description& p) {
                     d.add_options()("instrument", po::value<std::string>()->required(), "balance id (positional)")(
                         "weight", po::value<std::vector<std::string>>(), "reference weight id")(
@@ -79,7 +80,6 @@ std::vector<Command> capture_commands() {
                         "on", po::value<std::string>(), "date performed, YYYY-MM-DD (default today, the local date)")(
                         "gate", po::bool_switch(), "exit with status 1 when the check fails");
                     add_format_option(d);
-                    add_by_option(d, "the operator who performed the check");
                     p.add("instrument", 1);
                   },
                   capture_weekly_check};

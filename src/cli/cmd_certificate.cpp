@@ -55,7 +55,6 @@ std::vector<Command> certificate_commands() {
             "layout", po::value<std::string>(), "certificate layout JSON (default: $PLUMB_LAYOUT or built-in)");
         add_format_option(d, "text|json|html|pdf");
         d.add_options()("output", po::value<std::string>(), "FILE.pdf for --format pdf");
-        add_by_option(d, "the person issuing the certificate");
         p.add("run", 1);
       },
       [](const po::variables_map& vm, Env& env) {
@@ -63,7 +62,7 @@ std::vector<Command> certificate_commands() {
         const auto output = pdf_output(vm, format);
         auto db = env.open();
         const auto outcome =
-            app::issue_certificate(db, Env::actor(vm), vm["run"].as<std::string>(), optional_string(vm, "layout"));
+            app::issue_certificate(db, env.actor(db), vm["run"].as<std::string>(), optional_string(vm, "layout"));
         if (outcome.already_issued)
           fmt::print(env.err, "plumb: run {} already has certificate {}; shown unchanged.\n",
                      outcome.certificate.run_id, outcome.certificate.number);
@@ -108,25 +107,23 @@ std::vector<Command> certificate_commands() {
       "certificate",
       "approve",
       "approve a draft certificate as its reviewer (someone other than the run's operator)",
-      "plumb certificate approve BC-2026-0001 --by \"Q. Manager\" --meaning \"reviewed and approved\"",
+      "plumb certificate approve BC-2026-0001 --meaning \"reviewed and approved\"",
       [](po::options_description& d, po::positional_options_description& p) {
         d.add_options()("number", po::value<std::string>()->required(),
                         "certificate number, LAST (the last certificate issued) or a run number")(
             "meaning", po::value<std::string>(), "what the signature means, e.g. \"reviewed and approved\" (required)");
         add_format_option(d);
-        add_by_option(d, "the reviewer approving the certificate");
         p.add("number", 1);
       },
       [](const po::variables_map& vm, Env& env) {
         const auto format = format_of(vm, {"text", "json"});
-        if (!vm.count("by")) throw InputError("--by must name the person approving the certificate.");
         if (!vm.count("meaning"))
           throw InputError("--meaning must state what the signature means, e.g. \"reviewed and approved\".");
         auto db = env.open();
-        const auto c = app::approve_certificate(db, Env::actor(vm), vm["number"].as<std::string>(),
-                                                vm["meaning"].as<std::string>());
-        if (format == "text")
-          fmt::print(env.out, "Certificate {} approved by {}.\n", c.number, vm["by"].as<std::string>());
+        const auto signer = env.actor(db);
+        const auto c =
+            app::approve_certificate(db, signer, vm["number"].as<std::string>(), vm["meaning"].as<std::string>());
+        if (format == "text") fmt::print(env.out, "Certificate {} approved by {}.\n", c.number, signer.name);
         print_certificate(db, c, format, std::nullopt, env);
         return 0;
       }};

@@ -21,6 +21,7 @@
 #include "report/runs/text.hpp"
 #include "store/raw_lines.hpp"
 #include "store/repository.hpp"
+#include "store/users.hpp"
 
 namespace plumb::cli {
 namespace {
@@ -41,8 +42,10 @@ std::string read_input(const std::string& path, std::string& source) {
 
 void print_run(const store::RunRecord& run, const std::string& format, Env& env) {
   const auto j = report::run_json(run);
-  if (format == "json") env.out << j.dump(2) << "\n";
-  else env.out << report::run_text(j);
+  if (format == "json")
+    env.out << j.dump(2) << "\n";
+  else
+    env.out << report::run_text(j);
 }
 
 /// --on, or today's local date when it is not given (the bench records what was done today).
@@ -99,10 +102,10 @@ int record_weekly_check(const po::variables_map& vm, Env& env, const std::string
   in.default_unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
   in.readings_csv = read_input(vm["readings"].as<std::string>(), in.readings_source);
   in.on = date_performed(vm);
-  if (!vm.count("by")) throw InputError("--by must name the operator who performed the check.");
-  in.operator_name = vm["by"].as<std::string>();
   auto db = env.open();
-  const auto run = app::record_check(db, Env::actor(vm), in);
+  const auto actor = env.actor(db);
+  in.operator_name = actor.name;  // the authenticated user performed it
+  const auto run = app::record_check(db, actor, in);
   return print_and_gate(run, vm, format, env);
 }
 
@@ -112,8 +115,6 @@ int record_calibration(const po::variables_map& vm, Env& env, const std::string&
   in.default_unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
   in.readings_csv = read_input(vm["readings"].as<std::string>(), in.readings_source);
   in.on = date_performed(vm);
-  if (!vm.count("by")) throw InputError("--by must name the operator who performed the calibration.");
-  in.operator_name = vm["by"].as<std::string>();
   in.temperature_c = optional_string(vm, "temperature");
   in.pressure_hpa = optional_string(vm, "pressure");
   in.humidity_pct = optional_string(vm, "humidity");
@@ -123,7 +124,9 @@ int record_calibration(const po::variables_map& vm, Env& env, const std::string&
   in.air_formula = vm["air-formula"].as<std::string>();
   in.model = vm["model"].as<std::string>();
   auto db = env.open();
-  const auto run = app::record_calibration(db, Env::actor(vm), in);
+  const auto actor = env.actor(db);
+  in.operator_name = actor.name;
+  const auto run = app::record_calibration(db, actor, in);
   return print_and_gate(run, vm, format, env);
 }
 
@@ -145,10 +148,10 @@ int record_pipette(const po::variables_map& vm, Env& env, const std::string& for
   in.default_unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
   in.readings_csv = read_input(vm["readings"].as<std::string>(), in.readings_source);
   in.on = date_performed(vm);
-  if (!vm.count("by")) throw InputError("--by must name the operator who performed the check.");
-  in.operator_name = vm["by"].as<std::string>();
   auto db = env.open();
-  const auto run = app::record_pipette_check(db, Env::actor(vm), in);
+  const auto actor = env.actor(db);
+  in.operator_name = actor.name;
+  const auto run = app::record_pipette_check(db, actor, in);
   return print_and_gate(run, vm, format, env);
 }
 
@@ -197,7 +200,6 @@ std::vector<Command> check_commands() {
             "on", po::value<std::string>(), "date performed, YYYY-MM-DD (default today, the local date)")(
             "gate", po::bool_switch(), "exit with status 1 when the check fails");
         add_format_option(d);
-        add_by_option(d, "the operator who performed the check");
         p.add("instrument", 1);
       },
       [](const po::variables_map& vm, Env& env) {
@@ -214,39 +216,43 @@ std::vector<Command> check_commands() {
         }
         return 3;
       }};
-  Command show{"check", "show", "show one check run with its results", "plumb check show LAST --format json",
-               [](po::options_description& d, po::positional_options_description& p) {
-                 d.add_options()("run", po::value<std::string>()->default_value("LAST"), "run number or LAST")(
-                     "at", po::value<std::string>(), "calibration: the fitted error at this load, e.g. 120g")(
-                     "extrapolate", po::bool_switch(), "with --at: show a load outside the calibrated range, marked");
-                 add_format_option(d);
-                 p.add("run", 1);
-               },
-               [](const po::variables_map& vm, Env& env) {
-                 const auto format = format_of(vm, {"text", "json"});
-                 if (vm["extrapolate"].as<bool>() && !vm.count("at"))
-                   throw InputError("--extrapolate applies only with --at LOAD (the load to read the fitted error at).");
-                 auto db = env.open();
-                 const auto id = app::resolve_run(db, vm["run"].as<std::string>());
-                 const auto run = *store::find_run(db.sql(), id);
-                 if (const auto at = optional_string(vm, "at")) {
-                   // The answer at that load only, not the whole run around it.
-                   const auto e = app::calibration_error_at(run, *at, vm["extrapolate"].as<bool>());
-                   env.out << (format == "json" ? e.dump(2) + "\n" : report::calibration_error_at_text(e));
-                   return 0;
-                 }
-                 // A captured run shows its original record: the lines as the balance sent them.
-                 const auto lines = store::raw_lines_of(db.sql(), id);
-                 if (format == "json") {
-                   auto j = report::run_json(run);
-                   if (!lines.empty()) j["raw_lines"] = report::raw_lines_json(lines);
-                   env.out << j.dump(2) << "\n";
-                 } else {
-                   print_run(run, format, env);
-                   env.out << report::raw_lines_text(lines);
-                 }
-                 return 0;
-               }};
+  Command show{
+      "check",
+      "show",
+      "show one check run with its results",
+      "plumb check show LAST --format json",
+      [](po::options_description& d, po::positional_options_description& p) {
+        d.add_options()("run", po::value<std::string>()->default_value("LAST"), "run number or LAST")(
+            "at", po::value<std::string>(), "calibration: the fitted error at this load, e.g. 120g")(
+            "extrapolate", po::bool_switch(), "with --at: show a load outside the calibrated range, marked");
+        add_format_option(d);
+        p.add("run", 1);
+      },
+      [](const po::variables_map& vm, Env& env) {
+        const auto format = format_of(vm, {"text", "json"});
+        if (vm["extrapolate"].as<bool>() && !vm.count("at"))
+          throw InputError("--extrapolate applies only with --at LOAD (the load to read the fitted error at).");
+        auto db = env.open();
+        const auto id = app::resolve_run(db, vm["run"].as<std::string>());
+        const auto run = *store::find_run(db.sql(), id);
+        if (const auto at = optional_string(vm, "at")) {
+          // The answer at that load only, not the whole run around it.
+          const auto e = app::calibration_error_at(run, *at, vm["extrapolate"].as<bool>());
+          env.out << (format == "json" ? e.dump(2) + "\n" : report::calibration_error_at_text(e));
+          return 0;
+        }
+        // A captured run shows its original record: the lines as the balance sent them.
+        const auto lines = store::raw_lines_of(db.sql(), id);
+        if (format == "json") {
+          auto j = report::run_json(run);
+          if (!lines.empty()) j["raw_lines"] = report::raw_lines_json(lines);
+          env.out << j.dump(2) << "\n";
+        } else {
+          print_run(run, format, env);
+          env.out << report::raw_lines_text(lines);
+        }
+        return 0;
+      }};
   Command correct{
       "check",
       "correct",
@@ -259,7 +265,8 @@ std::vector<Command> check_commands() {
             "readings", po::value<std::string>(), "corrected readings CSV (default: the run's readings); - for stdin")(
             "unit", po::value<std::string>()->default_value("g"), "unit of readings without a unit column")(
             "on", po::value<std::string>(), "corrected date performed, YYYY-MM-DD")(
-            "operator", po::value<std::string>(), "corrected name of the operator who performed the check")(
+            "operator", po::value<std::string>(),
+            "user id of the operator who performed the check, when that was wrong")(
             "weight", po::value<std::vector<std::string>>(), "repeatability: corrected reference weight id")(
             "temperature", po::value<std::string>(), "calibration: corrected air temperature, degC")(
             "pressure", po::value<std::string>(), "calibration and gravimetric: corrected air pressure, hPa")(
@@ -278,21 +285,19 @@ std::vector<Command> check_commands() {
             "layout of the replacement certificate (default: that of the one it "
             "replaces)");
         add_format_option(d);
-        add_by_option(d, "the person making the correction");
         p.add("run", 1);
       },
       [](const po::variables_map& vm, Env& env) {
         const auto format = format_of(vm, {"text", "json"});
         if (!vm.count("reason"))
           throw InputError("--reason must say why the run is corrected (it is kept with the correction).");
-        if (!vm.count("by")) throw InputError("--by must name the person making the correction.");
         app::CorrectionInput in;
         in.run = vm["run"].as<std::string>();
         in.reason = vm["reason"].as<std::string>();
         if (vm.count("readings")) in.readings_csv = read_input(vm["readings"].as<std::string>(), in.readings_source);
         in.default_unit = parse_mass_unit(vm["unit"].as<std::string>(), "--unit");
         in.on = optional_string(vm, "on");
-        in.operator_name = optional_string(vm, "operator");
+        const auto operator_id = optional_string(vm, "operator");
         if (vm.count("weight")) in.weight_ids = vm["weight"].as<std::vector<std::string>>();
         for (const std::string_view option : checks::procedure_options()) {
           const std::string name(option);
@@ -300,15 +305,20 @@ std::vector<Command> check_commands() {
         }
         in.layout_path = optional_string(vm, "layout");
         auto db = env.open();
-        const auto out = app::correct_check(db, Env::actor(vm), in);
+        if (operator_id) {
+          const auto user = store::find_user_by_login(db.sql(), *operator_id);
+          if (!user) throw InputError(fmt::format("--operator \"{}\" is not a user id of this lab.", *operator_id));
+          in.operator_name = user->full_name;
+        }
+        const auto out = app::correct_check(db, env.actor(db), in);
         if (format == "json") {
-          nlohmann::json j = {{"original", report::run_json(out.original)},
-                              {"correction", report::run_json(out.correction)},
-                              {"superseded_certificate", out.superseded_certificate
-                                                             ? nlohmann::json(out.superseded_certificate->number)
-                                                             : nlohmann::json()},
-                              {"new_certificate",
-                               out.new_certificate ? nlohmann::json(out.new_certificate->number) : nlohmann::json()}};
+          nlohmann::json j = {
+              {"original", report::run_json(out.original)},
+              {"correction", report::run_json(out.correction)},
+              {"superseded_certificate",
+               out.superseded_certificate ? nlohmann::json(out.superseded_certificate->number) : nlohmann::json()},
+              {"new_certificate",
+               out.new_certificate ? nlohmann::json(out.new_certificate->number) : nlohmann::json()}};
           env.out << j.dump(2) << "\n";
           return 0;
         }
@@ -321,27 +331,26 @@ std::vector<Command> check_commands() {
         return 0;
       }};
   Command void_command{
-      "check", "void",
+      "check",
+      "void",
       "void a run entered in error (reason required): it stays in history, marked void, and stops counting",
       "plumb check void 14 --reason \"entered for BAL-A by mistake; the check was on BAL-B\" --by \"Q. Manager\"",
       [](po::options_description& d, po::positional_options_description& p) {
         d.add_options()("run", po::value<std::string>()->required(), "run number or LAST (positional)")(
             "reason", po::value<std::string>(), "why the run is void (required; kept with the run)");
         add_format_option(d);
-        add_by_option(d, "the person voiding the run");
         p.add("run", 1);
       },
       [](const po::variables_map& vm, Env& env) {
         const auto format = format_of(vm, {"text", "json"});
         if (!vm.count("reason")) throw InputError("--reason must say why the run is void (it is kept with the run).");
-        if (!vm.count("by")) throw InputError("--by must name the person voiding the run.");
         auto db = env.open();
-        const auto out = app::void_run(db, Env::actor(vm), vm["run"].as<std::string>(), vm["reason"].as<std::string>());
+        const auto out = app::void_run(db, env.actor(db), vm["run"].as<std::string>(), vm["reason"].as<std::string>());
         if (format == "json") {
-          nlohmann::json j = {{"run", report::run_json(out.run)},
-                              {"withdrawn_certificate", out.withdrawn_certificate
-                                                            ? nlohmann::json(out.withdrawn_certificate->number)
-                                                            : nlohmann::json()}};
+          nlohmann::json j = {
+              {"run", report::run_json(out.run)},
+              {"withdrawn_certificate",
+               out.withdrawn_certificate ? nlohmann::json(out.withdrawn_certificate->number) : nlohmann::json()}};
           env.out << j.dump(2) << "\n";
           return 0;
         }

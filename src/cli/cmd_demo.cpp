@@ -16,6 +16,7 @@
 #include "report/certificates/renderings.hpp"
 #include "report/document/demo_logo.hpp"
 #include "store/embedded.hpp"
+#include "store/users.hpp"
 
 namespace plumb::cli {
 
@@ -50,7 +51,8 @@ std::vector<Command> demo_commands() {
         auto demo_layout = scenario["layout"];
         demo_layout["logo_png"] = logo.string();
         std::ofstream(layout) << demo_layout.dump(2);
-        const auto cert = app::issue_certificate(db, {"Dr. Ines Varga", store::current_os_user()},
+        const auto ines = store::find_user_by_login(db.sql(), "ines");
+        const auto cert = app::issue_certificate(db, {ines->full_name, store::current_os_user(), ines->id},
                                                  std::to_string(summary.showcase_run), layout.string());
         const auto shown = app::certificate_document(db, cert.certificate);
         fmt::print(env.out, "\nCertificate of the latest check of AB-01:\n\n{}", report::certificate_text(shown));
@@ -65,6 +67,13 @@ std::vector<Command> demo_commands() {
                    "{} drift AB-01 --chart ab01-drift.png\n",
                    path.string(), to_string(summary.report_on), path.string(), path.string());
         fmt::print(env.out, "     plumb --db {} certificate queue\n", path.string());
+        fmt::print(env.out, "\nDemo accounts (DEMO ONLY: these passwords are printed here and must never protect "
+                            "real records):\n");
+        for (const auto& u : summary.users)
+          fmt::print(env.out, "  {:<12}{:<20}{:<17}password {}\n", u.login, u.name, u.role, u.password);
+        fmt::print(env.out, "Log in with: plumb --db {} login --user mira   (then sign: plumb --db {} certificate "
+                            "approve LAST --meaning \"reviewed and approved\")\n",
+                   path.string(), path.string());
         return 0;
       }};
   return {demo};

@@ -64,7 +64,6 @@ std::vector<Command> import_commands() {
       [](po::options_description& d, po::positional_options_description& p) {
         d.add_options()("file", po::value<std::string>()->required(), "the history CSV (positional)");
         add_format_option(d);
-        add_by_option(d, "the person importing the history (each run keeps its own operator)");
         p.add("file", 1);
       },
       [](const po::variables_map& vm, Env& env) {
@@ -72,7 +71,7 @@ std::vector<Command> import_commands() {
         const std::string file = vm["file"].as<std::string>();
         auto db = env.open();
         Progress bar(env.err, "importing", env.err_is_terminal);
-        const auto report = app::import_history(db, Env::actor(vm), file, file,
+        const auto report = app::import_history(db, env.actor(db), file, file,
                                                 [&](long long done, long long total) { bar.update(done, total); });
         bar.finish();
         if (format == "json") env.out << report_json(report, file).dump(2) << "\n";

@@ -25,11 +25,9 @@ std::vector<Command> instrument_commands() {
             "from", po::value<std::string>(), "the date the change holds from (default today)")(
             "reason", po::value<std::string>(), "why (required; kept in the record)");
         add_identity_options(d);
-        add_by_option(d, "the person recording the change");
         p.add("id", 1);
       },
       [](const po::variables_map& vm, Env& env) {
-        if (!vm.count("by")) throw InputError("--by must name the person who records the change.");
         app::AttributeChangeInput in;
         in.id = vm["id"].as<std::string>();
         in.identity = identity_from(vm);
@@ -43,7 +41,7 @@ std::vector<Command> instrument_commands() {
         in.from = optional_string(vm, "from");
         in.reason = optional_string(vm, "reason").value_or("");
         auto db = env.open();
-        const auto c = app::change_attributes(db, Env::actor(vm), in);
+        const auto c = app::change_attributes(db, env.actor(db), in);
         fmt::print(env.out, "{} {} from {}: {} ({}; recorded by {}).\n", c.kind == "balance" ? "Balance" : "Pipette",
                    in.id, to_string(c.after.effective_on), app::describe_change(c.before, c.after), c.after.reason,
                    c.after.recorded_by);

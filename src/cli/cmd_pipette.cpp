@@ -39,7 +39,6 @@ std::vector<Command> pipette_commands() {
                     "location", po::value<std::string>()->default_value(""), "where it is kept")(
                     "since", po::value<std::string>(), "in use since (first check due), default today");
                 add_identity_options(d);
-                add_by_option(d);
                 p.add("id", 1);
               },
               [](const po::variables_map& vm, Env& env) {
@@ -55,7 +54,7 @@ std::vector<Command> pipette_commands() {
                 in.since = optional_string(vm, "since");
                 in.identity = identity_from(vm);
                 auto db = env.open();
-                const auto p = app::add_pipette(db, Env::actor(vm), in);
+                const auto p = app::add_pipette(db, env.actor(db), in);
                 const auto volumes = checks::default_test_volumes(p.definition);
                 std::string tested;
                 for (const auto& v : volumes) tested += (tested.empty() ? "" : ", ") + v.to_string();

@@ -13,14 +13,12 @@ Command service_command(const std::string& noun, const std::string& verb, const 
           [noun](po::options_description& d, po::positional_options_description& p) {
             d.add_options()("id", po::value<std::string>()->required(), (noun + " id (positional)").c_str())(
                 "reason", po::value<std::string>(), "why (required; kept in the record)");
-            add_by_option(d, "the person deciding this");
             p.add("id", 1);
           },
-          [item_kind, event, verb](const po::variables_map& vm, Env& env) {
+          [item_kind, event](const po::variables_map& vm, Env& env) {
             if (!vm.count("reason")) throw InputError(fmt::format("--reason must say why the item is {}.", event));
-            if (!vm.count("by")) throw InputError(fmt::format("--by must name the person who decides to {} it.", verb));
             auto db = env.open();
-            const auto e = app::change_service_status(db, Env::actor(vm), item_kind, vm["id"].as<std::string>(), event,
+            const auto e = app::change_service_status(db, env.actor(db), item_kind, vm["id"].as<std::string>(), event,
                                                       vm["reason"].as<std::string>());
             fmt::print(env.out, "{} {} {} on {} by {}: {}.\n", item_kind == "weight" ? "Weight" : "Instrument",
                        e.item_id, e.event, e.recorded_at, e.by_name, e.reason);

@@ -41,18 +41,17 @@ Command set_properties_command() {
           "set-properties",
           "state a reference weight's density (with its uncertainty) or density class, and its drift allowance, for "
           "the buoyancy and drift terms of a calibration budget (earlier statements are kept)",
-          "plumb weight set-properties W100 --density 7950kg/m3 --density-u 5kg/m3 --drift 0.02mg --by \"Q. "
-          "Manager\"\n  plumb weight set-properties W1 --density-class E2",
+          "plumb weight set-properties W100 --density 7950kg/m3 --density-u 5kg/m3 --drift 0.02mg\n  plumb weight "
+          "set-properties W1 --density-class E2",
           [](po::options_description& d, po::positional_options_description& p) {
             d.add_options()("id", po::value<std::string>()->required(), "weight id (positional)");
             add_properties_options(d, "density with its unit, e.g. 7950kg/m3 (needs --density-u)");
-            add_by_option(d);
             p.add("id", 1);
           },
           [](const po::variables_map& vm, Env& env) {
             const auto in = properties_input(vm);
             auto db = env.open();
-            const auto p = app::set_weight_properties(db, Env::actor(vm), vm["id"].as<std::string>(), in);
+            const auto p = app::set_weight_properties(db, env.actor(db), vm["id"].as<std::string>(), in);
             fmt::print(env.out, "Weight {}: {}; drift allowance {}.\n", p.weight_id,
                        p.density_kg_m3 ? fmt::format("density {} kg/m3, u {} kg/m3", p.density_kg_m3->to_string(),
                                                      p.u_density_kg_m3->to_string())
@@ -70,9 +69,10 @@ constexpr const char* typed_certificate_options[] = {"certificate", "calibrated"
 app::WeightCertificateInput typed_certificate(const po::variables_map& vm) {
   for (const char* name : typed_certificate_options)
     if (!vm.count(name))
-      throw InputError(fmt::format("the option '--{}' is required but missing (or read the certificate from its DCC "
-                                   "with --from-dcc FILE).",
-                                   name));
+      throw InputError(
+          fmt::format("the option '--{}' is required but missing (or read the certificate from its DCC "
+                      "with --from-dcc FILE).",
+                      name));
   if (!vm.count("due")) throw InputError("the option '--due' is required but missing.");
   app::WeightCertificateInput in;
   in.certificate = vm["certificate"].as<std::string>();
@@ -95,18 +95,22 @@ app::WeightDccInput dcc_input(const po::variables_map& vm) {
   app::WeightDccInput in;
   in.file = vm["from-dcc"].as<std::string>();
   const char* env_schema = std::getenv("PLUMB_DCC_SCHEMA");
-  if (vm.count("dcc-schema")) in.schema = vm["dcc-schema"].as<std::string>();
-  else if (env_schema && *env_schema) in.schema = env_schema;
+  if (vm.count("dcc-schema"))
+    in.schema = vm["dcc-schema"].as<std::string>();
+  else if (env_schema && *env_schema)
+    in.schema = env_schema;
   else
-    throw InputError("--from-dcc needs the DCC 3.1.2 schema to validate the file: give --dcc-schema FILE.xsd or set "
-                     "PLUMB_DCC_SCHEMA.");
+    throw InputError(
+        "--from-dcc needs the DCC 3.1.2 schema to validate the file: give --dcc-schema FILE.xsd or set "
+        "PLUMB_DCC_SCHEMA.");
   in.due = optional_string(vm, "due");
   in.override_reason = optional_string(vm, "override-reason");
   return in;
 }
 
 Command recalibrate_command() {
-  return {"weight", "recalibrate",
+  return {"weight",
+          "recalibrate",
           "record a new calibration certificate for a registered weight (earlier certificates stay in force for "
           "their dates), typed or read from the provider's DCC XML file (--from-dcc; see doc/dcc.md)",
           "plumb weight recalibrate W100 --certificate RC-2417 --calibrated 2027-02-20 --due 2028-02-20 "
@@ -128,7 +132,6 @@ Command recalibrate_command() {
                 "dcc-schema", po::value<std::string>(),
                 "the DCC 3.1.2 XSD to validate --from-dcc against, its D-SI import local (default: $PLUMB_DCC_SCHEMA)");
             add_override_reason_option(d);
-            add_by_option(d);
             p.add("id", 1);
           },
           [](const po::variables_map& vm, Env& env) {
@@ -136,8 +139,9 @@ Command recalibrate_command() {
             const auto typed = from_dcc ? app::WeightCertificateInput{} : typed_certificate(vm);
             const auto dcc = from_dcc ? dcc_input(vm) : app::WeightDccInput{};
             auto db = env.open();
-            const auto out = from_dcc ? app::recalibrate_weight_from_dcc(db, Env::actor(vm), vm["id"].as<std::string>(), dcc)
-                                      : app::recalibrate_weight(db, Env::actor(vm), vm["id"].as<std::string>(), typed);
+            const auto out = from_dcc
+                                 ? app::recalibrate_weight_from_dcc(db, env.actor(db), vm["id"].as<std::string>(), dcc)
+                                 : app::recalibrate_weight(db, env.actor(db), vm["id"].as<std::string>(), typed);
             const auto& w = out.weight;
             fmt::print(env.out, "Weight {} recalibrated: certificate {} ({} to {}), conventional mass {} g{}.\n", w.id,
                        w.current.certificate_no, to_string(w.current.calibrated_on), to_string(w.current.due_on),
@@ -155,7 +159,9 @@ Command recalibrate_command() {
 }
 
 Command show_command() {
-  return {"weight", "show", "a reference weight with every certificate, the one in force, and class overrides",
+  return {"weight",
+          "show",
+          "a reference weight with every certificate, the one in force, and class overrides",
           "plumb weight show W100 --format json",
           [](po::options_description& d, po::positional_options_description& p) {
             d.add_options()("id", po::value<std::string>()->required(), "weight id (positional)");
@@ -166,8 +172,10 @@ Command show_command() {
             const auto format = format_of(vm, {"text", "json"});
             auto db = env.open();
             const auto details = app::weight_details(db, vm["id"].as<std::string>(), today_local());
-            if (format == "json") env.out << report::weight_details_json(details).dump(2) << "\n";
-            else env.out << report::weight_details_text(details);
+            if (format == "json")
+              env.out << report::weight_details_json(details).dump(2) << "\n";
+            else
+              env.out << report::weight_details_text(details);
             return 0;
           }};
 }
@@ -195,7 +203,6 @@ std::vector<Command> weight_commands() {
                                        "density with its unit, e.g. 7950kg/m3, with --density-u (default: the "
                                        "limits of its class, OIML R 111-1:2004 Table 5)");
                 add_override_reason_option(d);
-                add_by_option(d);
                 p.add("id", 1);
               },
               [](const po::variables_map& vm, Env& env) {
@@ -216,24 +223,31 @@ std::vector<Command> weight_commands() {
                 in.drift = stated.drift;
                 in.override_reason = optional_string(vm, "override-reason");
                 auto db = env.open();
-                const auto w = app::add_weight(db, Env::actor(vm), in);
+                const auto w = app::add_weight(db, env.actor(db), in);
                 fmt::print(env.out, "Weight {} registered: conventional mass {} g (certificate {}, due {}).\n", w.id,
                            w.conventional_mass().in_grams().to_string(), w.current.certificate_no,
                            to_string(w.current.due_on));
                 return 0;
               }};
-  Command list{"weight", "list", "list reference weights with their current certificates", "plumb weight list --format json",
-               [](po::options_description& d, po::positional_options_description&) { add_format_option(d, "text|json|csv"); },
-               [](const po::variables_map& vm, Env& env) {
-                 const auto format = format_of(vm, {"text", "json", "csv"});
-                 auto db = env.open();
-                 const auto weights = store::list_weights(db.sql());
-                 const auto status = app::weight_statuses(db, today_local());
-                 if (format == "json") env.out << report::weights_json(weights, status).dump(2) << "\n";
-                 else if (format == "csv") env.out << report::weights_csv(weights, status);
-                 else env.out << report::weights_text(weights, status);
-                 return 0;
-               }};
+  Command list{
+      "weight",
+      "list",
+      "list reference weights with their current certificates",
+      "plumb weight list --format json",
+      [](po::options_description& d, po::positional_options_description&) { add_format_option(d, "text|json|csv"); },
+      [](const po::variables_map& vm, Env& env) {
+        const auto format = format_of(vm, {"text", "json", "csv"});
+        auto db = env.open();
+        const auto weights = store::list_weights(db.sql());
+        const auto status = app::weight_statuses(db, today_local());
+        if (format == "json")
+          env.out << report::weights_json(weights, status).dump(2) << "\n";
+        else if (format == "csv")
+          env.out << report::weights_csv(weights, status);
+        else
+          env.out << report::weights_text(weights, status);
+        return 0;
+      }};
   return {add, recalibrate_command(), set_properties_command(), list, show_command()};
 }
 

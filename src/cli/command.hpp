@@ -10,6 +10,8 @@
 #include <string>
 #include <vector>
 
+#include "app/people/authenticate.hpp"
+#include "cli/credentials.hpp"
 #include "store/database.hpp"
 #include "store/recorder.hpp"
 
@@ -25,10 +27,18 @@ struct Env {
   bool out_is_terminal = false;
   bool err_is_terminal = false;  ///< progress bars go to stderr only when it is a terminal
 
+  std::string command;                ///< as typed: "check record"
+  std::optional<std::string> user;    ///< --user
+  PasswordSource password;            ///< --password-file / --password-stdin
+
   /// Opens the existing database (InputError if it does not exist).
   [[nodiscard]] store::Database open() const { return store::Database(db_path, store::Database::Open::existing); }
-  /// The person recorded as doing this: --by when given, else the OS account.
-  [[nodiscard]] static store::Actor actor(const po::variables_map& vm);
+  /// The authenticated user this command writes as, allowed to run it by the table of permissions (AccessError
+  /// otherwise); a signing command has had the password entered for it.
+  [[nodiscard]] app::Authenticated authenticated(store::Database& db) const;
+  [[nodiscard]] store::Actor actor(store::Database& db) const { return authenticated(db).actor; }
+  /// What authenticate() needs: --user, the session of this database, and a way to ask for the password.
+  [[nodiscard]] app::Credentials credentials() const;
 };
 
 struct Command {
@@ -45,7 +55,6 @@ const std::vector<Command>& commands();
 
 /// Options several commands share.
 void add_format_option(po::options_description& d, const std::string& choices = "text|json");
-void add_by_option(po::options_description& d, const std::string& what = "the person doing this");
 /// Reads --format and checks it is one of `allowed`.
 std::string format_of(const po::variables_map& vm, const std::vector<std::string>& allowed);
 std::optional<std::string> optional_string(const po::variables_map& vm, const char* name);

@@ -26,5 +26,7 @@ std::vector<Command> key_commands();
 std::vector<Command> backup_commands();
 std::vector<Command> import_commands();
 std::vector<Command> report_commands();
+std::vector<Command> user_commands();
+std::vector<Command> login_commands();
 
 }  // namespace plumb::cli

@@ -7,10 +7,11 @@ const std::vector<Command>& commands() {
   static const std::vector<Command> all = [] {
     std::vector<Command> v;
     for (auto group :
-         {lab_commands, weight_commands, balance_commands, balance_port_commands, balance_calibration_commands,
-          pipette_commands, check_commands, capture_commands, import_commands, certificate_commands, due_commands,
-          summary_commands, history_commands, report_commands, instrument_commands, service_commands, audit_commands,
-          key_commands, backup_commands, demo_commands}) {
+         {lab_commands,     weight_commands,  balance_commands, balance_port_commands, balance_calibration_commands,
+          pipette_commands, check_commands,   capture_commands, import_commands,       certificate_commands,
+          due_commands,     summary_commands, history_commands, report_commands,       instrument_commands,
+          service_commands, audit_commands,   key_commands,     backup_commands,       login_commands,
+          user_commands,    demo_commands}) {
       auto g = group();
       v.insert(v.end(), g.begin(), g.end());
     }

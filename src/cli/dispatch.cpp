@@ -109,19 +109,21 @@ std::string one_line(const char* message) {
 
 }  // namespace
 
-store::Actor Env::actor(const po::variables_map& vm) {
-  store::Actor a;
-  a.os_user = store::current_os_user();
-  a.name = vm.count("by") ? vm["by"].as<std::string>() : a.os_user;
-  return a;
+app::Credentials Env::credentials() const {
+  app::Credentials c;
+  c.login = user;
+  c.session_token = read_session_token(db_path);
+  const PasswordSource source = password;
+  c.password = [source](const std::string& login) {
+    return read_password(source, fmt::format("plumb: password of {}: ", login));
+  };
+  return c;
 }
+
+app::Authenticated Env::authenticated(store::Database& db) const { return app::authenticate(db, command, credentials()); }
 
 void add_format_option(po::options_description& d, const std::string& choices) {
   d.add_options()("format", po::value<std::string>()->default_value("text"), ("output format: " + choices).c_str());
-}
-
-void add_by_option(po::options_description& d, const std::string& what) {
-  d.add_options()("by", po::value<std::string>(), ("name of " + what + " (recorded as given)").c_str());
 }
 
 std::string format_of(const po::variables_map& vm, const std::vector<std::string>& allowed) {
@@ -138,7 +140,8 @@ std::optional<std::string> optional_string(const po::variables_map& vm, const ch
 
 int run(int argc, const char* const* argv, std::ostream& out, std::ostream& err) {
   std::vector<std::string> args(argv + 1, argv + argc);
-  Env env{store::default_database_path(), false, out, err, isatty(STDOUT_FILENO) != 0, isatty(STDERR_FILENO) != 0};
+  Env env{store::default_database_path(), false, out, err, isatty(STDOUT_FILENO) != 0, isatty(STDERR_FILENO) != 0,
+          {}, {}, {}};
   std::size_t i = 0;
   try {
     for (; i < args.size() && args[i].rfind("--", 0) == 0; ++i) {
@@ -159,7 +162,14 @@ int run(int argc, const char* const* argv, std::ostream& out, std::ostream& err)
         write_bash_completion(out);
         return 0;
       }
-      if (args[i] == "--db" && i + 1 < args.size()) {
+      if (args[i] == "--user" && i + 1 < args.size()) {
+        env.user = args[++i];
+        check_text_field(*env.user, "--user");
+      } else if (args[i] == "--password-file" && i + 1 < args.size()) {
+        env.password.file = args[++i];
+      } else if (args[i] == "--password-stdin") {
+        env.password.standard_input = true;
+      } else if (args[i] == "--db" && i + 1 < args.size()) {
         env.db_path = args[++i];
         env.db_given = true;
       } else if (args[i].rfind("--db=", 0) == 0) {
@@ -199,7 +209,16 @@ int run(int argc, const char* const* argv, std::ostream& out, std::ostream& err)
     po::options_description desc("options");
     po::positional_options_description positional;
     help::command_options(*chosen, desc, positional);
+    if (env.password.file && env.password.standard_input)
+      throw InputError("--password-file and --password-stdin are two ways to give the password; give one.");
+    env.command = chosen->verb.empty() ? chosen->noun : chosen->noun + " " + chosen->verb;
     const std::vector<std::string> rest(args.begin() + static_cast<std::ptrdiff_t>(i), args.end());
+    // Identity comes from authentication, never from a name typed on the command line.
+    if (env.command != "audit log")
+      for (const auto& a : rest)
+        if (a == "--by" || a.rfind("--by=", 0) == 0)
+          throw InputError("--by is gone: plumb records the logged-in user; log in with `plumb login --user ID` "
+                           "(or give --user ID with --password-file FILE or --password-stdin).");
     po::variables_map vm;
     po::store(po::command_line_parser(rest).options(desc).positional(positional).run(), vm);
     if (vm.count("help")) {
@@ -215,6 +234,9 @@ int run(int argc, const char* const* argv, std::ostream& out, std::ostream& err)
   } catch (const po::error& e) {
     err << "plumb: " << one_line(describe(e).c_str()) << "\n";
     return 2;
+  } catch (const AccessError& e) {
+    err << "plumb: " << one_line(e.what()) << "\n";
+    return 4;
   } catch (const StorageError& e) {
     err << "plumb: storage error: " << one_line(e.what()) << "\n";
     return 3;

@@ -11,6 +11,9 @@ const char* const usage = "plumb [--db PATH] NOUN [VERB] [options]";
 const std::vector<GlobalOption>& global_options() {
   static const std::vector<GlobalOption> all = {
       {"--db", "PATH", "database file (default: $PLUMB_DB, else $XDG_DATA_HOME/plumb/plumb.db)"},
+      {"--user", "ID", "the user id to authenticate as (else the session of `plumb login`)"},
+      {"--password-file", "FILE", "read the password from FILE's first line (FILE must be mode 0600)"},
+      {"--password-stdin", "", "read the password from the first line of standard input"},
       {"--help", "", "this help; `plumb NOUN VERB --help` explains one command"},
       {"--version", "", "print the version"},
   };
@@ -23,6 +26,7 @@ const std::vector<ExitStatus>& exit_statuses() {
       {1, "a check failed where --gate was asked or a verification failed"},
       {2, "bad input (nothing written)"},
       {3, "storage or internal error"},
+      {4, "not authenticated or not permitted (nothing written but a failed log-in)"},
   };
   return all;
 }

@@ -36,7 +36,7 @@ std::string shown(const json& v) {
 std::vector<std::string> audited_tables(SQLite::Database& db) {
   SQLite::Statement q(db,
                       "SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%' "
-                      "AND name NOT IN ('audit_log', 'checkpoints') ORDER BY name");
+                      "AND name NOT IN ('audit_log', 'session_activity', 'checkpoints') ORDER BY name");
   std::vector<std::string> out;
   while (q.executeStep()) out.push_back(q.getColumn(0).getString());
   return out;
@@ -111,7 +111,7 @@ void check_chain(const std::vector<AuditRecord>& records, AuditVerification& out
 }  // namespace
 
 json AuditRecord::hashed_content() const {
-  return {{"seq", seq},
+  json j = {{"seq", seq},
           {"at", at},
           {"os_user", os_user},
           {"actor", actor},
@@ -121,6 +121,8 @@ json AuditRecord::hashed_content() const {
           {"before_json", json_text_or_null(before_json)},
           {"after_json", json_text_or_null(after_json)},
           {"reason", json_text_or_null(reason)}};
+  if (user_id) j["user_id"] = *user_id;  // records from before user accounts hash as they always did
+  return j;
 }
 
 std::string genesis_hash() { return std::string(64, '0'); }
@@ -148,7 +150,7 @@ std::vector<RecordedRow> recorded_rows(const AuditRecord& record) {
 std::vector<AuditRecord> audit_records(SQLite::Database& db) {
   SQLite::Statement q(db,
                       "SELECT seq, at, os_user, actor, action, table_name, row_key, before_json, after_json, reason, "
-                      "prev_hash, hash FROM audit_log ORDER BY seq");
+                      "prev_hash, hash, user_id FROM audit_log ORDER BY seq");
   std::vector<AuditRecord> out;
   while (q.executeStep()) {
     AuditRecord r;
@@ -164,6 +166,7 @@ std::vector<AuditRecord> audit_records(SQLite::Database& db) {
     r.reason = optional_column_text(q.getColumn(9));
     r.prev_hash = q.getColumn(10).getString();
     r.hash = q.getColumn(11).getString();
+    if (!q.getColumn(12).isNull()) r.user_id = q.getColumn(12).getInt64();
     out.push_back(std::move(r));
   }
   return out;

@@ -26,6 +26,7 @@ struct AuditRecord {
   std::optional<std::string> reason;
   std::string prev_hash;
   std::string hash;
+  std::optional<std::int64_t> user_id;  ///< the account that wrote it; none before user accounts
 
   /// The fields the hash covers, as the Recorder wrote them (everything but the two hashes).
   [[nodiscard]] nlohmann::json hashed_content() const;
@@ -50,16 +51,17 @@ std::string genesis_hash();
 
 struct AuditProblem {
   enum class Kind {
-    missing_record,    ///< a gap in the sequence numbers: audit records were deleted
-    broken_link,       ///< prev_hash is not the hash of the record before: removed, inserted or reordered
-    altered_record,    ///< the record's content does not match its own hash
-    field_mismatch,    ///< a table row differs from what the trail recorded
-    row_missing,       ///< the trail recorded a row that the table no longer has
-    unaudited_row,     ///< a table row that no audit record describes
-    duplicate_record,  ///< two audit records describe the same row
-    checkpoint,        ///< a signed checkpoint that is missing, forged, or no longer matches the trail
-    unsigned_records,  ///< audit records after the last signed checkpoint
-    schema             ///< a table, column, trigger or index that the migrations do not create (or one gone)
+    missing_record,     ///< a gap in the sequence numbers: audit records were deleted
+    broken_link,        ///< prev_hash is not the hash of the record before: removed, inserted or reordered
+    altered_record,     ///< the record's content does not match its own hash
+    field_mismatch,     ///< a table row differs from what the trail recorded
+    row_missing,        ///< the trail recorded a row that the table no longer has
+    unaudited_row,      ///< a table row that no audit record describes
+    duplicate_record,   ///< two audit records describe the same row
+    checkpoint,         ///< a signed checkpoint that is missing, forged, or no longer matches the trail
+    unsigned_records,   ///< audit records after the last signed checkpoint
+    schema,             ///< a table, column, trigger or index that the migrations do not create (or one gone)
+    signature_mismatch  ///< a signature no longer matches the record it names (store/signature_check.hpp)
   };
   Kind kind = Kind::altered_record;
   std::int64_t seq = 0;  ///< the audit record concerned (0 for an unaudited row)
@@ -71,11 +73,11 @@ struct AuditProblem {
 };
 
 struct AuditVerification {
-  std::int64_t records = 0;       ///< audit records walked
-  std::int64_t rows = 0;          ///< table rows compared with the trail
-  std::int64_t tables = 0;        ///< tables compared
-  std::string last_hash;          ///< hash of the last record (genesis when the trail is empty)
-  std::int64_t checkpoints = 0;   ///< signed checkpoints proved
+  std::int64_t records = 0;      ///< audit records walked
+  std::int64_t rows = 0;         ///< table rows compared with the trail
+  std::int64_t tables = 0;       ///< tables compared
+  std::string last_hash;         ///< hash of the last record (genesis when the trail is empty)
+  std::int64_t checkpoints = 0;  ///< signed checkpoints proved
   std::optional<Checkpoint> last_checkpoint;
   std::string key_fingerprint;         ///< of the key that signed them (store::key_fingerprint)
   std::int64_t schema_objects = 0;     ///< tables, indexes and triggers compared with the migrations

@@ -4,12 +4,18 @@
 #include <fmt/format.h>
 #include <sqlite3.h>
 
+#include <sys/stat.h>
+
+#include <cerrno>
 #include <cstdlib>
+#include <cstring>
 #include <string>
+#include <vector>
 
 #include "core/errors.hpp"
 #include "core/natural_order.hpp"
 #include "store/embedded.hpp"
+#include "store/private_file.hpp"
 
 namespace plumb::store {
 namespace {
@@ -26,6 +32,18 @@ int migration_number(std::string_view name) {
 int natural_collation(void*, int a_size, const void* a, int b_size, const void* b) {
   return compare_natural(std::string_view(static_cast<const char*>(a), static_cast<std::size_t>(a_size)),
                          std::string_view(static_cast<const char*>(b), static_cast<std::size_t>(b_size)));
+}
+
+/// The folders plumb makes for a new database are mode 0700 and the file 0600 (SQLite gives its -wal and -shm
+/// files the mode of the database): the lab's records are readable by their owner only.
+void create_private_database_file(const std::filesystem::path& path) {
+  std::vector<std::filesystem::path> missing;
+  for (auto p = path.parent_path(); !p.empty() && !std::filesystem::exists(p); p = p.parent_path())
+    missing.push_back(p);
+  for (auto it = missing.rbegin(); it != missing.rend(); ++it)
+    if (::mkdir(it->c_str(), 0700) != 0 && errno != EEXIST)
+      throw StorageError(fmt::format("cannot create the folder \"{}\": {}.", it->string(), std::strerror(errno)));
+  if (!std::filesystem::exists(path)) create_private_file(path);
 }
 
 }  // namespace
@@ -47,7 +65,7 @@ Database::Database(const std::filesystem::path& path, Open mode) : path_(path) {
   if (mode == Open::existing && !std::filesystem::exists(path))
     throw InputError(fmt::format("database \"{}\" does not exist; create it with `plumb --db {} init --lab NAME`.",
                                  path.string(), path.string()));
-  if (mode == Open::create && path.has_parent_path()) std::filesystem::create_directories(path.parent_path());
+  if (mode == Open::create) create_private_database_file(path);
   try {
     // One connection per process, used by one thread: SQLite's per-call mutexes are not needed.
     const int flags = (mode == Open::create ? (SQLite::OPEN_READWRITE | SQLite::OPEN_CREATE) : SQLite::OPEN_READWRITE) |

@@ -193,6 +193,7 @@ std::string Recorder::audit_hash_of(const PreparedGroup& g) const {
   content.row_key = g.key;
   content.after_json = &g.after_json;
   content.reason = g.reason.empty() ? nullptr : &g.reason;
+  content.user_id = actor_.user_id;
   std::string hashed;
   hashed.reserve(g.prev_hash.size() + 2 * g.after_json.size() + 512);  // escaping may double a text
   hashed += g.prev_hash;
@@ -254,6 +255,10 @@ void append_canonical_audit_json(std::string& out, const AuditContent& c) {
   append_json_integer(out, c.seq);
   out += R"(,"table_name":)";
   append_json_string(out, c.table_name);
+  if (c.user_id) {
+    out += R"(,"user_id":)";
+    append_json_integer(out, *c.user_id);
+  }
   out += '}';
 }
 
@@ -354,7 +359,7 @@ void Recorder::write_rows(const std::string& table, std::span<const Row* const> 
 }
 
 void Recorder::write_audits(std::span<const PreparedGroup> groups) {
-  constexpr int fields = 11;  // before_json is NULL: records are only ever inserts
+  constexpr int fields = 12;  // before_json is NULL: records are only ever inserts
   for (std::size_t from = 0; from < groups.size();) {
     const std::size_t n = std::min(rows_per_statement, groups.size() - from);
     auto& insert = audit_inserts_[n];
@@ -362,11 +367,11 @@ void Recorder::write_audits(std::span<const PreparedGroup> groups) {
       std::string values;
       for (std::size_t i = 0; i < n; ++i) {
         if (i > 0) values += ", ";
-        values += "(?, ?, ?, ?, ?, ?, ?, NULL, ?, ?, ?, ?)";
+        values += "(?, ?, ?, ?, ?, ?, ?, NULL, ?, ?, ?, ?, ?)";
       }
       insert = std::make_unique<SQLite::Statement>(
           db_, "INSERT INTO audit_log (seq, at, os_user, actor, action, table_name, row_key, before_json, "
-               "after_json, reason, prev_hash, hash) VALUES " + values);
+               "after_json, reason, prev_hash, hash, user_id) VALUES " + values);
     }
     insert->reset();  // every parameter is bound again below
     for (std::size_t i = 0; i < n; ++i) {
@@ -385,6 +390,8 @@ void Recorder::write_audits(std::span<const PreparedGroup> groups) {
       else insert->bindNoCopy(at + 9, g.reason);
       insert->bindNoCopy(at + 10, g.prev_hash);
       insert->bindNoCopy(at + 11, g.hash);
+      if (actor_.user_id) insert->bind(at + 12, *actor_.user_id);
+      else insert->bind(at + 12);
     }
     insert->exec();
     from += n;

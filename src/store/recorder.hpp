@@ -21,8 +21,10 @@
 namespace plumb::store {
 
 struct Actor {
-  std::string name;     ///< the --by name, as given (plumb does not authenticate people)
+  std::string name;     ///< the printed name of the authenticated user (app/people/authenticate.hpp)
   std::string os_user;  ///< the operating-system account running plumb
+  /// The user account (table users) that wrote; every record since user accounts has one.
+  std::optional<std::int64_t> user_id{};
 };
 
 /// The OS account name of this process.
@@ -182,6 +184,7 @@ struct AuditContent {
   const std::string* before_json = nullptr;  ///< null: none
   const std::string* after_json = nullptr;   ///< null: none
   const std::string* reason = nullptr;       ///< null: none
+  std::optional<std::int64_t> user_id;       ///< absent (and not hashed) on records from before user accounts
 };
 /// The canonical JSON of a record's content, byte for byte what nlohmann::json::dump() writes for the same
 /// object (keys sorted), so that audit_hash(prev, that object) == SHA-256 of prev + "\n" + this text.

@@ -6,7 +6,9 @@
 #include <nlohmann/json.hpp>
 
 #include <ctime>
+#include <filesystem>
 #include <regex>
+#include <set>
 #include <sstream>
 
 #include "support/run_plumb.hpp"
@@ -32,6 +34,24 @@ std::vector<std::string> lines_of(const std::string& text) {
   return out;
 }
 
+// The test helper logs in through accounts it creates (the test administrator at init, each member at its first
+// command): those records are counted from the trail by their table, so the lab's own records stay counted exactly.
+bool is_account_table(const std::string& table) {
+  static const std::set<std::string> account_tables = {"users",    "passwords",   "account_events", "security_settings",
+                                                       "sessions", "session_ends"};
+  return account_tables.count(table) > 0;
+}
+
+std::size_t account_records(const std::string& db, const std::filesystem::path& dir) {
+  const auto r = run_plumb({"--db", db, "audit", "log", "--format", "json"}, dir);
+  REQUIRE(r.status == 0);
+  const json log = json::parse(r.out);
+  std::size_t n = 0;
+  for (const auto& record : log["records"])
+    if (is_account_table(record.value("table", ""))) ++n;
+  return n;
+}
+
 const std::string readings =
     "reading\n100.0003\n100.0001\n100.0002\n100.0004\n100.0002\n100.0003\n100.0001\n100.0002\n100.0003\n100.0002\n";
 
@@ -42,14 +62,17 @@ TEST_CASE("audit log prints one readable line per record, decimals with their un
   const auto db = plumb::test::example_lab(dir).string();
   dir.write("r.csv", readings);
   REQUIRE(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
-                     "2026-11-30", "--by", "A. Technician"},
+                     "2026-11-30", "--as", "A. Technician"},
                     dir.path())
               .status == 0);
   const auto r = run_plumb({"--db", db, "audit", "log"}, dir.path());
   REQUIRE(r.status == 0);
   const auto lines = lines_of(r.out);
-  // The heading, then the lab, the weight, its certificate, the instrument, the balance and the run.
-  REQUIRE(lines.size() == 7);
+  // The heading, then the lab, the weight, its certificate, the instrument, the balance and the run, besides the
+  // helper's accounts (at least the administrator and A. Technician, each with a password).
+  const std::size_t accounts = account_records(db, dir.path());
+  CHECK(accounts >= 4);
+  REQUIRE(lines.size() == 7 + accounts);
   const std::regex record(R"(#\d+ +\d{4}-\d\d-\d\d \d\d:\d\d  \S.*)");
   for (std::size_t i = 1; i < lines.size(); ++i) {
     INFO(lines[i]);
@@ -68,7 +91,7 @@ TEST_CASE("audit log filters by date and by person", "[cli][audit-log]") {
   const auto db = plumb::test::example_lab(dir).string();
   dir.write("r.csv", readings);
   REQUIRE(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
-                     "2026-11-30", "--by", "A. Technician"},
+                     "2026-11-30", "--as", "A. Technician"},
                     dir.path())
               .status == 0);
   const auto count = [&](const std::vector<std::string>& filter) {
@@ -79,36 +102,58 @@ TEST_CASE("audit log filters by date and by person", "[cli][audit-log]") {
     REQUIRE(r.status == 0);
     return json::parse(r.out)["records"].size();
   };
-  // Everything was recorded today (UTC), or yesterday if the test ran across midnight.
-  CHECK(count({}) == 6);
-  CHECK(count({"--from", utc_date(-1), "--to", utc_date(0)}) == 6);
+  // The same, without the records of the helper's accounts (a member's own password change is by that member).
+  const auto lab_count = [&](const std::vector<std::string>& filter) {
+    std::vector<std::string> args = {"--db", db, "audit", "log", "--format", "json"};
+    args.insert(args.end(), filter.begin(), filter.end());
+    const auto r = run_plumb(args, dir.path());
+    REQUIRE(r.status == 0);
+    const json log = json::parse(r.out);
+    std::size_t n = 0;
+    for (const auto& record : log["records"])
+      if (!is_account_table(record.value("table", ""))) ++n;
+    return n;
+  };
+  // Everything was recorded today (UTC), or yesterday if the test ran across midnight: the lab, the weight, its
+  // certificate, the instrument, the balance and the run, and the helper's accounts.
+  const std::size_t accounts = account_records(db, dir.path());
+  CHECK(accounts >= 4);
+  CHECK(count({}) == 6 + accounts);
+  CHECK(count({"--from", utc_date(-1), "--to", utc_date(0)}) == 6 + accounts);
   CHECK(count({"--from", utc_date(1)}) == 0);
   CHECK(count({"--to", utc_date(-2)}) == 0);
-  CHECK(count({"--by", "A. Technician"}) == 1);
+  CHECK(lab_count({"--by", "A. Technician"}) == 1);
   CHECK(count({"--by", "Nobody Here"}) == 0);
   CHECK(count({"--instrument", "BAL-A", "--by", "A. Technician"}) == 1);
+  const std::size_t by_technician = count({"--by", "A. Technician"});
 
   const auto r = run_plumb({"--db", db, "audit", "log", "--by", "A. Technician", "--from", utc_date(-1)}, dir.path());
   REQUIRE(r.status == 0);
   CHECK_THAT(r.out, Catch::StartsWith("Audit trail of the whole lab, from " + utc_date(-1) +
                                       " on (UTC), by "
-                                      "A. Technician: 1 record(s)"));
+                                      "A. Technician: " +
+                                      std::to_string(by_technician) + " record(s)"));
 }
 
 TEST_CASE("a name with a line break cannot forge an audit line", "[cli][audit-log][security]") {
   plumb::test::ScratchDir dir;
   const auto db = plumb::test::example_lab(dir).string();
-  dir.write("r.csv", readings);
   const std::string forged = "A. Technician\n#99     2026-12-01 09:00  Q. Manager  approved certificate id 1";
-  const auto rec = run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
-                              "2026-11-30", "--by", forged},
+  dir.write("first.pw", "a-first-password-long-enough\n");
+  std::filesystem::permissions(dir.file("first.pw"),
+                               std::filesystem::perms::owner_read | std::filesystem::perms::owner_write);
+  const auto before = run_plumb({"--db", db, "audit", "log"}, dir.path());
+  REQUIRE(before.status == 0);
+  // The printed name of an account is the only name plumb records: the forged one is offered there.
+  const auto add = run_plumb({"--db", db, "user", "add", "forger", "--name", forged, "--role", "technician",
+                              "--new-password-file", "first.pw", "--as", "Test Administrator"},
                              dir.path());
   // Refused at the door (a control character in a name) or recorded as given: either way not as a second record.
-  REQUIRE((rec.status == 0 || rec.status == 2));
+  REQUIRE((add.status == 0 || add.status == 2));
   const auto r = run_plumb({"--db", db, "audit", "log"}, dir.path());
   REQUIRE(r.status == 0);
   const auto lines = lines_of(r.out);
-  CHECK(lines.size() == (rec.status == 0 ? 7u : 6u));
+  if (add.status == 2) CHECK(r.out.substr(r.out.find('\n')) == before.out.substr(before.out.find('\n')));
   for (const auto& l : lines) CHECK_THAT(l, !Catch::StartsWith("#99"));
-  if (rec.status == 0) CHECK_THAT(r.out, Catch::Contains("A. Technician\\n#99"));  // shown, escaped, on its line
+  if (add.status == 0) CHECK_THAT(r.out, Catch::Contains("A. Technician\\n#99"));  // shown, escaped, on its line
 }

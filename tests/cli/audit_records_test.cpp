@@ -4,6 +4,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "support/audit_chain.hpp"
 #include "support/run_plumb.hpp"
 
 using nlohmann::json;
@@ -35,14 +36,14 @@ TEST_CASE("a correction supersedes the run and its certificate and keeps both vi
   dir.write("typed.csv", failing_readings);
   dir.write("fixed.csv", passing_readings);
   REQUIRE(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "typed.csv", "--on",
-                     "2026-11-30", "--by", "A. Technician"},
+                     "2026-11-30", "--as", "A. Technician"},
                     dir.path())
               .status == 0);
-  REQUIRE(run_plumb({"--db", db, "certificate", "issue", "1", "--by", "Q. Manager"}, dir.path()).status == 0);
+  REQUIRE(run_plumb({"--db", db, "certificate", "issue", "1", "--as", "Q. Manager"}, dir.path()).status == 0);
   const std::string old_number = number_of_certificate(db, dir, "1");
 
   auto r = run_plumb({"--db", db, "check", "correct", "1", "--readings", "fixed.csv", "--reason",
-                      "readings typed from the wrong worksheet", "--by", "Q. Manager", "--format", "json"},
+                      "readings typed from the wrong worksheet", "--as", "Q. Manager", "--format", "json"},
                      dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
@@ -51,7 +52,7 @@ TEST_CASE("a correction supersedes the run and its certificate and keeps both vi
   CHECK(c["original"]["verdict"] == "fail");
   CHECK(c["correction"]["run_id"] == 2);
   CHECK(c["correction"]["supersedes"] == 1);
-  CHECK(c["correction"]["verdict"] == "pass");  // re-evaluated: the same readings pass in weekly_check_test
+  CHECK(c["correction"]["verdict"] == "pass");            // re-evaluated: the same readings pass in weekly_check_test
   CHECK(c["correction"]["operator"] == "A. Technician");  // the operator stays; the corrector is in the trail
   CHECK(c["superseded_certificate"] == old_number);
   const std::string new_number = c["new_certificate"].get<std::string>();
@@ -65,8 +66,7 @@ TEST_CASE("a correction supersedes the run and its certificate and keeps both vi
 
   // The superseded certificate says so in text and JSON; the new one names the one it replaces.
   r = run_plumb({"--db", db, "certificate", "show", old_number}, dir.path());
-  CHECK_THAT(r.out, Catch::Contains("Status: SUPERSEDED by " + new_number) &&
-                        Catch::Contains("*** SUPERSEDED ***") &&
+  CHECK_THAT(r.out, Catch::Contains("Status: SUPERSEDED by " + new_number) && Catch::Contains("*** SUPERSEDED ***") &&
                         Catch::Contains("no longer valid") && Catch::Contains("VERDICT: FAIL"));
   r = run_plumb({"--db", db, "certificate", "show", old_number, "--format", "json"}, dir.path());
   json status = json::parse(r.out)["status"];
@@ -125,7 +125,7 @@ TEST_CASE("a correction supersedes the run and its certificate and keeps both vi
   CHECK(due["items"][0]["due_on"] == "2026-12-07");
 
   // A superseded run cannot be corrected again, nor certified.
-  r = run_plumb({"--db", db, "check", "correct", "1", "--on", "2026-11-29", "--reason", "x", "--by", "Q. Manager"},
+  r = run_plumb({"--db", db, "check", "correct", "1", "--on", "2026-11-29", "--reason", "x", "--as", "Q. Manager"},
                 dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("already corrected by run 2"));
@@ -137,25 +137,25 @@ TEST_CASE("a certificate is a draft until someone other than its operator approv
   const auto db = plumb::test::example_lab(dir).string();
   dir.write("r.csv", passing_readings);
   REQUIRE(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
-                     "2026-11-30", "--by", "A. Technician"},
+                     "2026-11-30", "--as", "A. Technician"},
                     dir.path())
               .status == 0);
-  REQUIRE(run_plumb({"--db", db, "certificate", "issue", "LAST", "--by", "A. Technician"}, dir.path()).status == 0);
+  REQUIRE(run_plumb({"--db", db, "certificate", "issue", "LAST", "--as", "A. Technician"}, dir.path()).status == 0);
   const std::string number = number_of_certificate(db, dir, "1");
   auto r = run_plumb({"--db", db, "certificate", "show", number}, dir.path());
   CHECK_THAT(r.out, Catch::Contains("Status: DRAFT, not approved") && Catch::Contains("*** DRAFT ***"));
 
-  // The operator cannot approve their own check (names compared ignoring case and spacing).
+  // The operator cannot approve their own check: the account that recorded the run is refused (by user id).
   const std::string before = plumb::test::dump_database(db);
-  r = run_plumb({"--db", db, "certificate", "approve", number, "--by", "a.  technician", "--meaning",
-                 "reviewed and approved"},
-                dir.path());
-  CHECK(r.status == 2);
+  r = run_plumb(
+      {"--db", db, "certificate", "approve", number, "--as", "A. Technician", "--meaning", "reviewed and approved"},
+      dir.path());
+  CHECK(r.status == 4);
   CHECK(r.out.empty());
-  CHECK_THAT(r.err, Catch::Contains("someone other than its operator"));
+  CHECK_THAT(r.err, Catch::Contains("someone who neither recorded nor corrected its run"));
   CHECK(plumb::test::dump_database(db) == before);
 
-  r = run_plumb({"--db", db, "certificate", "approve", number, "--by", "Q. Manager", "--meaning",
+  r = run_plumb({"--db", db, "certificate", "approve", number, "--as", "Q. Manager", "--meaning",
                  "reviewed and approved", "--format", "json"},
                 dir.path());
   INFO(r.err);
@@ -167,13 +167,16 @@ TEST_CASE("a certificate is a draft until someone other than its operator approv
   CHECK(approved["approval"]["at"].get<std::string>().size() == 20);  // 2026-12-02T01:02:03Z
   r = run_plumb({"--db", db, "certificate", "show", number}, dir.path());
   CHECK_THAT(r.out, Catch::Contains("Status: APPROVED by Q. Manager") &&
-                        Catch::Contains("Q. Manager (reviewer)") &&
+                        Catch::Contains("Q. Manager (reviewer and quality manager)") &&
                         Catch::Contains("\u201creviewed and approved\u201d") && !Catch::Contains("*** DRAFT"));
 
-  // Approved means final: a second approval is refused and nothing is written.
+  // Approved means final: a second approval is refused and nothing is written (the second reviewer's account is
+  // made first, so that the comparison is of the approval alone).
+  const std::vector<std::string> second = {"--db",        db,          "certificate", "approve", number, "--as",
+                                           "R. Reviewer", "--meaning", "checked"};
+  plumb::test::prepare_login(second, dir.path());
   const std::string approved_dump = plumb::test::dump_database(db);
-  r = run_plumb({"--db", db, "certificate", "approve", number, "--by", "R. Reviewer", "--meaning", "checked"},
-                dir.path());
+  r = run_plumb(second, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("already approved by Q. Manager"));
   CHECK(plumb::test::dump_database(db) == approved_dump);
@@ -183,11 +186,11 @@ TEST_CASE("a retired balance or weight is not due and takes no new checks until 
   plumb::test::ScratchDir dir;
   const auto db = plumb::test::example_lab(dir).string();
   dir.write("r.csv", passing_readings);
-  const std::vector<std::string> check = {"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings",
-                                          "r.csv", "--on", "2026-11-30", "--by", "A. Technician"};
-  auto r = run_plumb({"--db", db, "instrument", "retire", "BAL-A", "--reason", "replaced by a newer balance", "--by",
-                      "Q. Manager"},
-                     dir.path());
+  const std::vector<std::string> check = {"--db",       db,      "check", "record",     "BAL-A", "--weight",     "W100",
+                                          "--readings", "r.csv", "--on",  "2026-11-30", "--as",  "A. Technician"};
+  auto r = run_plumb(
+      {"--db", db, "instrument", "retire", "BAL-A", "--reason", "replaced by a newer balance", "--as", "Q. Manager"},
+      dir.path());
   REQUIRE(r.status == 0);
   // Not due for anything: absent from the due list, and listed as retired (no due date) only with --all.
   r = run_plumb({"--db", db, "due", "--within", "1y", "--on", "2026-12-01", "--format", "json"}, dir.path());
@@ -206,11 +209,11 @@ TEST_CASE("a retired balance or weight is not due and takes no new checks until 
   r = run_plumb(check, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("BAL-A was retired") && Catch::Contains("replaced by a newer balance"));
-  REQUIRE(run_plumb({"--db", db, "instrument", "reinstate", "BAL-A", "--reason", "needed again", "--by", "Q. Manager"},
+  REQUIRE(run_plumb({"--db", db, "instrument", "reinstate", "BAL-A", "--reason", "needed again", "--as", "Q. Manager"},
                     dir.path())
               .status == 0);
 
-  REQUIRE(run_plumb({"--db", db, "weight", "retire", "W100", "--reason", "dropped on the floor", "--by", "Q. Manager"},
+  REQUIRE(run_plumb({"--db", db, "weight", "retire", "W100", "--reason", "dropped on the floor", "--as", "Q. Manager"},
                     dir.path())
               .status == 0);
   r = run_plumb({"--db", db, "due", "--all", "--on", "2026-12-01", "--format", "json"}, dir.path());
@@ -223,7 +226,7 @@ TEST_CASE("a retired balance or weight is not due and takes no new checks until 
   r = run_plumb(check, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("--weight W100 was retired"));
-  REQUIRE(run_plumb({"--db", db, "weight", "reinstate", "W100", "--reason", "recalibrated", "--by", "Q. Manager"},
+  REQUIRE(run_plumb({"--db", db, "weight", "reinstate", "W100", "--reason", "recalibrated", "--as", "Q. Manager"},
                     dir.path())
               .status == 0);
   CHECK(run_plumb(check, dir.path()).status == 0);
@@ -242,17 +245,21 @@ TEST_CASE("audit verify exits 1 naming what the sqlite3 shell changed", "[cli][a
   const auto db = plumb::test::example_lab(dir).string();
   dir.write("r.csv", passing_readings);
   REQUIRE(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
-                     "2026-11-30", "--by", "A. Technician"},
+                     "2026-11-30", "--as", "A. Technician"},
                     dir.path())
               .status == 0);
   auto r = run_plumb({"--db", db, "audit", "verify"}, dir.path());
   REQUIRE(r.status == 0);
-  // Records: init 1 + weight 2 + balance 2 + the run 1 = 6; rows: 5 + the run, its weight link, 10 readings = 17.
-  CHECK_THAT(r.out, Catch::Contains("Audit trail verified: 6 records chained by SHA-256, 17 rows") &&
+  // Records: init 1 + weight 2 + balance 2 + the run 1 = 6; rows: 5 + the run, its weight link, 10 readings = 17;
+  // besides them the test helper's accounts, one row each.
+  const long long accounts = plumb::test::account_records(db);
+  CHECK_THAT(r.out, Catch::Contains("Audit trail verified: " + std::to_string(6 + accounts) +
+                                    " records chained by SHA-256, " + std::to_string(17 + accounts) + " rows") &&
                         Catch::Contains("Last hash: "));
 
-  REQUIRE(sqlite3_shell(db, "DROP TRIGGER readings_no_update; UPDATE readings SET text = '100.0001' WHERE run_id = 1 "
-                            "AND seq = 4;") == 0);
+  REQUIRE(sqlite3_shell(db,
+                        "DROP TRIGGER readings_no_update; UPDATE readings SET text = '100.0001' WHERE run_id = 1 "
+                        "AND seq = 4;") == 0);
   r = run_plumb({"--db", db, "audit", "verify"}, dir.path());
   CHECK(r.status == 1);
   CHECK(r.out.empty());
@@ -267,13 +274,16 @@ TEST_CASE("backup copies a verified database and restore puts it back, refusing 
   const auto db = plumb::test::example_lab(dir).string();
   dir.write("r.csv", passing_readings);
   REQUIRE(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
-                     "2026-11-30", "--by", "A. Technician"},
+                     "2026-11-30", "--as", "A. Technician"},
                     dir.path())
               .status == 0);
   auto r = run_plumb({"--db", db, "backup", "copy.db"}, dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
-  CHECK_THAT(r.out, Catch::Contains("integrity check ok, audit trail verified (6 records, 17 rows)"));
+  // 6 records and 17 rows of the lab and the run (as in the test above), and the helper's accounts, a row each.
+  const long long accounts = plumb::test::account_records(db);
+  CHECK_THAT(r.out, Catch::Contains("integrity check ok, audit trail verified (" + std::to_string(6 + accounts) +
+                                    " records, " + std::to_string(17 + accounts) + " rows)"));
   CHECK(std::filesystem::exists(dir.file("copy.db")));
   CHECK_FALSE(std::filesystem::exists(dir.file("copy.db-wal")));
   CHECK(plumb::test::dump_database(dir.file("copy.db")) == plumb::test::dump_database(db));
@@ -286,18 +296,26 @@ TEST_CASE("backup copies a verified database and restore puts it back, refusing 
   CHECK_THAT(r.err, Catch::Contains("fresh.db.key"));
   CHECK_FALSE(std::filesystem::exists(dir.file("fresh.db")));
   std::filesystem::copy_file(dir.file("lab.db.key"), dir.file("fresh.db.key"));
-  r = run_plumb({"--db", "fresh.db", "restore", "copy.db", "--reason", "new lab PC"}, dir.path());
+  // No account exists at a path with no database: the one restoring logs in with the backup's accounts.
+  std::vector<std::string> fresh = plumb::test::login_options(dir.file("copy.db"), "Lab Tester", dir.path());
+  REQUIRE(fresh.size() == 4);
+  fresh.insert(fresh.end(), {"--db", "fresh.db", "restore", "copy.db", "--reason", "new lab PC"});
+  r = run_plumb(fresh, dir.path());
+  INFO(r.err);
   REQUIRE(r.status == 0);
   CHECK(run_plumb({"--db", "fresh.db", "audit", "verify"}, dir.path()).status == 0);
   REQUIRE(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
-                     "2026-12-01", "--by", "A. Technician"},
+                     "2026-12-01", "--as", "A. Technician"},
                     dir.path())
               .status == 0);
   CHECK(run_plumb({"--db", db, "restore", "copy.db", "--reason", "test"}, dir.path()).status == 2);  // needs --force
   r = run_plumb({"--db", db, "restore", "copy.db", "--force", "--reason", "disk failure"}, dir.path());
   REQUIRE(r.status == 0);
-  // The backup's 6 records and the record of the restore; the run of 2026-12-01 is gone (kept in the safety copy).
-  CHECK_THAT(r.out, Catch::Contains("7 audit records") && Catch::Contains("(7 audit records) was saved as") &&
+  // The backup's 6 records (and the helper's accounts) and the record of the restore; the run of 2026-12-01 is gone
+  // (kept in the safety copy).
+  const std::string seven = std::to_string(7 + accounts);
+  CHECK_THAT(r.out, Catch::Contains(seven + " audit records") &&
+                        Catch::Contains("(" + seven + " audit records) was saved as") &&
                         Catch::Contains("removes 1 record recorded after the backup"));
   CHECK(run_plumb({"--db", db, "check", "show", "2"}, dir.path()).status == 2);
   CHECK(run_plumb({"--db", db, "check", "show", "1"}, dir.path()).status == 0);

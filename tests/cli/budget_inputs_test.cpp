@@ -50,7 +50,7 @@ TEST_CASE("weight density, density class and drift allowance: entered, kept as h
   CHECK(w["properties"].empty());
 
   auto r = run_plumb({"--db", db, "weight", "set-properties", "W100", "--density", "7950kg/m3", "--density-u", "5kg/m3",
-                      "--drift", "0.02mg", "--by", "Q. Manager"},
+                      "--drift", "0.02mg", "--as", "Q. Manager"},
                      dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
@@ -63,7 +63,7 @@ TEST_CASE("weight density, density class and drift allowance: entered, kept as h
 
   // The class instead of the density; the drift allowance stays. E1 >= 100 g: 7934 to 8067 kg/m3 (from memory),
   // u = 67 / sqrt 3 = 38.6824680 kg/m3. The earlier statement stays in the history.
-  r = run_plumb({"--db", db, "weight", "set-properties", "W100", "--density-class", "E1", "--by", "Q. Manager"},
+  r = run_plumb({"--db", db, "weight", "set-properties", "W100", "--density-class", "E1", "--as", "Q. Manager"},
                 dir.path());
   REQUIRE(r.status == 0);
   w = run_json(dir, {"--db", db, "weight", "show", "W100", "--format", "json"});
@@ -90,7 +90,7 @@ TEST_CASE("weight density, density class and drift allowance: entered, kept as h
                  "0.1C",         "--pressure-u",
                  "0.5hPa",       "--humidity-u",
                  "5%",           "--on",
-                 "2026-11-30",   "--by",
+                 "2026-11-30",   "--as",
                  "A. Technician"},
                 dir.path());
   INFO(r.err);
@@ -134,7 +134,7 @@ TEST_CASE("weight density, density class and drift allowance: entered, kept as h
   CHECK_THAT(r.out, Catch::Contains("air buoyancy: EURAMET cg-18 v4.0"));
 
   // A correction keeps the entered instrument uncertainties unless corrected.
-  r = run_plumb({"--db", db, "check", "correct", "LAST", "--humidity", "51%", "--reason", "humidity misread", "--by",
+  r = run_plumb({"--db", db, "check", "correct", "LAST", "--humidity", "51%", "--reason", "humidity misread", "--as",
                  "Q. Manager", "--format", "json"},
                 dir.path());
   INFO(r.err);
@@ -153,12 +153,12 @@ TEST_CASE("pipette budget: the balance's latest calibration stands for the balan
             "reading\n100.0003\n100.0004\n100.0003\n100.0004\n100.0003\n100.0004\n100.0003\n100.0004\n"
             "100.0003\n100.0004\n");
   auto r = run_plumb({"--db", db, "check", "record", "BAL-C", "--weight", "W100", "--readings", "weekly.csv", "--on",
-                      "2026-11-27", "--by", "A. Technician"},
+                      "2026-11-27", "--as", "A. Technician"},
                      dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
   r = run_plumb({"--db", db, "pipette", "add", "PV-1", "--nominal", "1000uL", "--range", "fixed", "--every", "3mo",
-                 "--since", "2026-06-01", "--by", "Q. Manager"},
+                 "--since", "2026-06-01", "--as", "Q. Manager"},
                 dir.path());
   REQUIRE(r.status == 0);
   std::string weighings = "volume,channel,reading\n";
@@ -169,7 +169,7 @@ TEST_CASE("pipette budget: the balance's latest calibration stands for the balan
   const std::vector<std::string> pipette_run = {
       "--db",      db,           "check",        "record", "PV-1",         "--procedure", "gravimetric",
       "--balance", "BAL-C",      "--water-temp", "20C",    "--pressure",   "1013hPa",     "--humidity",
-      "50%",       "--readings", "w.csv",        "--by",   "A. Technician"};
+      "50%",       "--readings", "w.csv",        "--as",   "A. Technician"};
 
   // Before any calibration of BAL-C: the readability line stands for the balance, and says why.
   auto args = pipette_run;
@@ -195,7 +195,7 @@ TEST_CASE("pipette budget: the balance's latest calibration stands for the balan
   // After the calibration: U(E) at its smallest load (20 g, above the 1 g weighed) stands for the balance.
   dir.write("cal.csv", calibration_run_file());
   r = run_plumb({"--db", db, "check", "record", "BAL-C", "--procedure", "calibration", "--readings", "cal.csv", "--on",
-                 "2026-11-30", "--by", "A. Technician"},
+                 "2026-11-30", "--as", "A. Technician"},
                 dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);

@@ -32,7 +32,7 @@ TEST_CASE("calibration: record, show with budget and fit, error at a load, certi
   auto r = run_plumb({"--db",        db,           "check",        "record",        "BAL-C",     "--procedure",
                       "calibration", "--readings", "cal.csv",      "--temperature", "20C",       "--pressure",
                       "1013.25hPa",  "--humidity", "50%",          "--air-formula", "oiml-r111", "--on",
-                      "2026-11-30",  "--by",       "A. Technician"},
+                      "2026-11-30",  "--as",       "A. Technician"},
                      dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
@@ -160,7 +160,7 @@ TEST_CASE("calibration: record, show with budget and fit, error at a load, certi
   CHECK_THAT(dump, Catch::Contains("'W100+W50'"));
   CHECK_THAT(dump, Catch::Contains("'front-left'"));
 
-  r = run_plumb({"--db", db, "certificate", "issue", "LAST", "--by", "Q. Manager"}, dir.path());
+  r = run_plumb({"--db", db, "certificate", "issue", "LAST", "--as", "Q. Manager"}, dir.path());
   REQUIRE(r.status == 0);
   for (const char* must : {"BALANCE CALIBRATION CERTIFICATE", "CC-", "RC-W20", "RC-W200", "U = k u_c",
                            "ILAC G8", "simple acceptance", "As found", "No adjustment was made", "1.1993 kg/m3",
@@ -202,7 +202,7 @@ TEST_CASE("calibration: guard band states, a failed as-left puts the balance out
          "as-left,indication,W200,,up,200.0025,g\n";
   dir.write("cal.csv", csv);
   auto r = run_plumb({"--db", db, "check", "record", "BAL-C", "--procedure", "calibration", "--readings", "cal.csv",
-                      "--on", "2026-11-30", "--by", "A. Technician", "--format", "json", "--gate"},
+                      "--on", "2026-11-30", "--as", "A. Technician", "--format", "json", "--gate"},
                      dir.path());
   INFO(r.err);
   CHECK(r.status == 1);  // --gate: the calibration failed

@@ -95,7 +95,7 @@ class BalanceSimulator {
 
 std::vector<std::string> capture_args(const std::string& db, const std::string& from) {
   return {"--db",   db,   "check", "capture",    "BAL-A", "--weight",     "W100",
-          "--from", from, "--on",  "2026-11-30", "--by",  "A. Technician"};
+          "--from", from, "--on",  "2026-11-30", "--as",  "A. Technician"};
 }
 
 // Ten stable readings worked by hand: deviations from 100.0003 g in 0.1 mg are -1, +1, 0, 0, +2, -1, +1, 0, +1, 0:
@@ -257,7 +257,7 @@ TEST_CASE("a captured check gives the same result and record as check record of 
   REQUIRE(plumb.wait().status == 0);
   recorded.write("readings.csv", csv);
   REQUIRE(run_plumb({"--db", db_r, "check", "record", "BAL-A", "--weight", "W100", "--readings", "readings.csv", "--on",
-                     "2026-11-30", "--by", "A. Technician"},
+                     "2026-11-30", "--as", "A. Technician"},
                     recorded.path())
               .status == 0);
   auto a = json::parse(run_plumb({"--db", db_c, "check", "show", "LAST", "--format", "json"}, captured.path()).out);
@@ -276,7 +276,7 @@ TEST_CASE("capture from the balance's port settings: the lab's line pattern and 
   const auto db = plumb::test::example_lab(dir).string();
   BalanceSimulator balance;
   REQUIRE(run_plumb({"--db", db, "balance", "port", "BAL-A", "--device", balance.device(), "--send-command", "READ",
-                     "--line-pattern", "NET: {value} {unit} {mark:OK|MOVING}", "--by", "Q. Manager"},
+                     "--line-pattern", "NET: {value} {unit} {mark:OK|MOVING}", "--as", "Q. Manager"},
                     dir.path())
               .status == 0);
   // Enter pressed once for each reading: each asks the balance with READ and CR LF.
@@ -309,8 +309,9 @@ TEST_CASE("capture from the balance's port settings: the lab's line pattern and 
 TEST_CASE("a capture cut off by a pulled cable writes nothing", "[capture]") {
   plumb::test::ScratchDir dir;
   const auto db = plumb::test::example_lab(dir);
-  const auto before = plumb::test::dump_database(db);
   BalanceSimulator balance;
+  plumb::test::prepare_login(capture_args(db.string(), balance.device()), dir.path());  // the operator's account
+  const auto before = plumb::test::dump_database(db);
   plumb::test::PlumbProcess plumb(capture_args(db.string(), balance.device()), dir.path());
   for (std::size_t i = 0; i < 4; ++i) {
     balance.send("+  " + stable_readings[i] + " g\r\n");
@@ -327,6 +328,7 @@ TEST_CASE("a capture cut off by a pulled cable writes nothing", "[capture]") {
 TEST_CASE("a capture interrupted with Ctrl-C writes nothing", "[capture]") {
   plumb::test::ScratchDir dir;
   const auto db = plumb::test::example_lab(dir);
+  plumb::test::prepare_login(capture_args(db.string(), "typed"), dir.path());  // the operator's account first
   const auto before = plumb::test::dump_database(db);
   const auto files_before = files_in(dir.path());
   BalanceSimulator balance;
@@ -389,6 +391,7 @@ TEST_CASE("typed readings at a real terminal: prompts, refusals, running summary
 TEST_CASE("Ctrl-C or stop typed at the terminal ends the capture and writes nothing", "[capture]") {
   plumb::test::ScratchDir dir;
   const auto db = plumb::test::example_lab(dir);
+  plumb::test::prepare_login(capture_args(db.string(), "typed"), dir.path());  // the operator's account first
   const auto before = plumb::test::dump_database(db);
   for (const std::string keys : {"\x03", "stop\n"}) {
     Terminal terminal;
@@ -437,7 +440,7 @@ TEST_CASE("typed readings through tmux: the prompts as a technician sees them", 
     }
   };
   // The pane stays after plumb ends (remain-on-exit), so its last screen can be read.
-  const std::string command = plumb::test::plumb_shell_command(capture_args(db, "typed"));
+  const std::string command = plumb::test::plumb_shell_command(capture_args(db, "typed"), dir.path());
   REQUIRE(tmux("new-session -d -s capture -x 200 -y 60 \"" + command + "\"") == 0);
   tmux("set-option -t capture remain-on-exit on");
   wait_for("type the reading:");

@@ -40,15 +40,15 @@ std::string small_lab(const ScratchDir& dir) {
                  dir.path()));
   for (const char* balance : {"BAL-A", "BAL-B", "BAL-A"})
     must(run_plumb({"--db", db, "check", "record", balance, "--weight", "W100", "--readings", "r.csv", "--on",
-                    "2026-11-30", "--by", "A. Technician"},
+                    "2026-11-30", "--as", "A. Technician"},
                    dir.path()));
   for (const char* run : {"1", "2", "3"})
-    must(run_plumb({"--db", db, "certificate", "issue", run, "--by", "Q. Manager"}, dir.path()));
-  must(run_plumb({"--db", db, "certificate", "approve", "BC-2026-0002", "--by", "R. Reviewer", "--meaning",
+    must(run_plumb({"--db", db, "certificate", "issue", run, "--as", "Q. Manager"}, dir.path()));
+  must(run_plumb({"--db", db, "certificate", "approve", "BC-2026-0002", "--as", "R. Reviewer", "--meaning",
                   "reviewed and approved"},
                  dir.path()));
   must(run_plumb({"--db", db, "check", "correct", "1", "--readings", "fixed.csv", "--reason", "last reading mistyped",
-                  "--by", "Q. Manager"},
+                  "--as", "Q. Manager"},
                  dir.path()));
   return db;
 }
@@ -191,7 +191,7 @@ TEST_CASE("certificate queue: drafts oldest first with their wait, and approving
   must(r);
   CHECK_THAT(r.out, Catch::Contains("0 draft certificate(s)") && Catch::Contains("nothing waits for a reviewer"));
 
-  must(run_plumb({"--db", db, "certificate", "approve", "BC-2026-0003", "--by", "R. Reviewer", "--meaning",
+  must(run_plumb({"--db", db, "certificate", "approve", "BC-2026-0003", "--as", "R. Reviewer", "--meaning",
                   "reviewed and approved"},
                  dir.path()));
   r = run_plumb({"--db", db, "certificate", "queue", "--on", five_days_on, "--format", "json"}, dir.path());
@@ -206,7 +206,7 @@ TEST_CASE("LAST means the last certificate where a certificate is meant, the las
   const auto db = small_lab(dir);
   // Run 5 has no certificate: the last run is 5, the last certificate BC-2026-0004 (of run 4).
   must(run_plumb({"--db", db, "check", "record", "BAL-B", "--weight", "W100", "--readings", "r.csv", "--on",
-                  "2026-11-30", "--by", "A. Technician"},
+                  "2026-11-30", "--as", "A. Technician"},
                  dir.path()));
   auto r = run_plumb({"--db", db, "certificate", "show", "LAST", "--format", "json"}, dir.path());
   must(r);
@@ -224,7 +224,7 @@ TEST_CASE("LAST means the last certificate where a certificate is meant, the las
 
   // approve LAST approves the last certificate (BC-2026-0004), not run 5's.
   r = run_plumb(
-      {"--db", db, "certificate", "approve", "LAST", "--by", "R. Reviewer", "--meaning", "reviewed and approved"},
+      {"--db", db, "certificate", "approve", "LAST", "--as", "R. Reviewer", "--meaning", "reviewed and approved"},
       dir.path());
   must(r);
   CHECK_THAT(r.out, Catch::StartsWith("Certificate BC-2026-0004 approved by R. Reviewer."));

@@ -78,28 +78,28 @@ std::string lab_with_every_kind(const plumb::test::ScratchDir& dir) {
   dir.write("w.csv", w);
   const std::vector<std::vector<std::string>> steps = {
       {"instrument", "update", "BAL-C", "--maker", "Northfield", "--model", "AX-220", "--serial", "NF-0042", "--from",
-       "2026-01-05", "--reason", "identification from the rating plate", "--by", "Q. Manager"},
-      {"check", "record", "BAL-C", "--weight", "W100", "--readings", "wk.csv", "--on", "2026-11-30", "--by",
+       "2026-01-05", "--reason", "identification from the rating plate", "--as", "Q. Manager"},
+      {"check", "record", "BAL-C", "--weight", "W100", "--readings", "wk.csv", "--on", "2026-11-30", "--as",
        "A. Technician"},
-      {"certificate", "issue", "LAST", "--by", "A. Technician"},
-      {"certificate", "approve", "LAST", "--meaning", "reviewed and approved", "--by", "Q. Manager"},
-      {"check", "correct", "1", "--readings", "wk2.csv", "--reason", "reading 5 mistyped on the first entry", "--by",
+      {"certificate", "issue", "LAST", "--as", "A. Technician"},
+      {"certificate", "approve", "LAST", "--meaning", "reviewed and approved", "--as", "Q. Manager"},
+      {"check", "correct", "1", "--readings", "wk2.csv", "--reason", "reading 5 mistyped on the first entry", "--as",
        "Q. Manager"},
-      {"certificate", "approve", "LAST", "--meaning", "reviewed and approved", "--by", "R. Reviewer"},
+      {"certificate", "approve", "LAST", "--meaning", "reviewed and approved", "--as", "R. Reviewer"},
       {"check", "record", "BAL-C", "--procedure", "calibration", "--readings", "cal.csv", "--temperature", "20C",
-       "--pressure", "1013.25hPa", "--humidity", "50%", "--on", "2026-11-30", "--by", "A. Technician"},
-      {"certificate", "issue", "LAST", "--by", "Q. Manager"},
+       "--pressure", "1013.25hPa", "--humidity", "50%", "--on", "2026-11-30", "--as", "A. Technician"},
+      {"certificate", "issue", "LAST", "--as", "Q. Manager"},
       {"balance", "add", "SM-02", "--capacity", "120g", "--readability", "0.01mg", "--every", "7d", "--smallest-net",
        "50mg", "--location", "Weighing room", "--since", "2026-01-05"},
-      {"check", "record", "SM-02", "--weight", "W100", "--readings", "sm.csv", "--on", "2026-11-30", "--by",
+      {"check", "record", "SM-02", "--weight", "W100", "--readings", "sm.csv", "--on", "2026-11-30", "--as",
        "A. Technician"},
       {"pipette", "add", "P-07", "--nominal", "100uL", "--range", "fixed", "--every", "3mo", "--location", "Lab 2",
        "--since", "2026-06-01", "--serial", "PX-7781"},
       {"check", "record", "P-07", "--procedure", "gravimetric", "--balance", "SM-02", "--water-temp", "20C",
-       "--pressure", "1013hPa", "--humidity", "50%", "--readings", "w.csv", "--on", "2026-12-01", "--by",
+       "--pressure", "1013hPa", "--humidity", "50%", "--readings", "w.csv", "--on", "2026-12-01", "--as",
        "A. Technician"},
-      {"certificate", "issue", "LAST", "--by", "Q. Manager"},
-      {"check", "void", "LAST", "--reason", "water temperature probe found broken", "--by", "Q. Manager"}};
+      {"certificate", "issue", "LAST", "--as", "Q. Manager"},
+      {"check", "void", "LAST", "--reason", "water temperature probe found broken", "--as", "Q. Manager"}};
   for (auto step : steps) {
     step.insert(step.begin(), {"--db", db});
     INFO(step[2] << " " << step[3]);

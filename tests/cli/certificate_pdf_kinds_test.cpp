@@ -62,7 +62,7 @@ std::string calibrated_balance(const plumb::test::ScratchDir& dir) {
   const auto r = run_plumb({"--db",        db,           "check",        "record",        "BAL-C",     "--procedure",
                             "calibration", "--readings", "cal.csv",      "--temperature", "20C",       "--pressure",
                             "1013.25hPa",  "--humidity", "50%",          "--air-formula", "oiml-r111", "--on",
-                            "2026-11-30",  "--by",       "A. Technician"},
+                            "2026-11-30",  "--as",       "A. Technician"},
                            dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
@@ -84,14 +84,14 @@ std::string checked_pipette(const plumb::test::ScratchDir& dir) {
                                  "--every", "7d", "--smallest-net", "50mg", "--location", "Weighing room", "--since",
                                  "2026-01-05"},
         std::vector<std::string>{"--db", db, "check", "record", "SM-02", "--weight", "W100", "--readings", "sm02.csv",
-                                 "--on", "2026-11-30", "--by", "A. Technician"},
+                                 "--on", "2026-11-30", "--as", "A. Technician"},
         std::vector<std::string>{"--db", db, "pipette", "add", "P-07", "--nominal", "100uL", "--range", "fixed",
-                                 "--every", "3mo", "--location", "Lab 2", "--since", "2026-06-01", "--by",
+                                 "--every", "3mo", "--location", "Lab 2", "--since", "2026-06-01", "--as",
                                  "Q. Manager"},
         std::vector<std::string>{"--db",        db,           "check",        "record",       "P-07",  "--procedure",
                                  "gravimetric", "--balance",  "SM-02",        "--water-temp", "20C",   "--pressure",
                                  "1013hPa",     "--humidity", "50%",          "--readings",   "w.csv", "--on",
-                                 "2026-12-01",  "--by",       "A. Technician"}}) {
+                                 "2026-12-01",  "--as",       "A. Technician"}}) {
     const auto r = run_plumb(step, dir.path());
     INFO(r.err);
     REQUIRE(r.status == 0);
@@ -108,7 +108,7 @@ TEST_CASE("calibration certificate PDF: tables, chart, budget, rule, on every pa
   }
   plumb::test::ScratchDir dir;
   const auto db = calibrated_balance(dir);
-  auto r = run_plumb({"--db", db, "certificate", "issue", "LAST", "--format", "pdf", "--output", "cal.pdf", "--by",
+  auto r = run_plumb({"--db", db, "certificate", "issue", "LAST", "--format", "pdf", "--output", "cal.pdf", "--as",
                       "Q. Manager"},
                      dir.path());
   INFO(r.err);
@@ -142,7 +142,7 @@ TEST_CASE("pipette certificate PDF: results table, balance traceability, Z, on e
   }
   plumb::test::ScratchDir dir;
   const auto db = checked_pipette(dir);
-  auto r = run_plumb({"--db", db, "certificate", "issue", "LAST", "--format", "pdf", "--output", "pip.pdf", "--by",
+  auto r = run_plumb({"--db", db, "certificate", "issue", "LAST", "--format", "pdf", "--output", "pip.pdf", "--as",
                       "Q. Manager"},
                      dir.path());
   INFO(r.err);
@@ -171,7 +171,7 @@ TEST_CASE("pipette budget: an entered thermometer u is stored, kept by a correct
   const auto db = checked_pipette(dir);
   // Run 2 is the gravimetric check (run 1 the balance's weekly check). Correct it with u(t) = 0.05 degC entered.
   auto r = run_plumb({"--db", db, "check", "correct", "2", "--water-temp-u", "0.05C", "--reason",
-                      "thermometer calibration certificate found", "--by", "Q. Manager"},
+                      "thermometer calibration certificate found", "--as", "Q. Manager"},
                      dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);

@@ -21,9 +21,10 @@ namespace {
 constexpr int trials = 30;
 constexpr int runs = 3000;  // x 10 readings: more than the page cache holds, so the WAL fills mid-import
 
-/// Starts plumb with output discarded; returns its process id.
-pid_t spawn_plumb(const std::vector<std::string>& args) {
+/// Starts plumb, logged in with `login` (plumb::test::login_options), with output discarded; returns its process id.
+pid_t spawn_plumb(const std::vector<std::string>& login, const std::vector<std::string>& args) {
   std::vector<std::string> all = {plumb::test::plumb_binary().string()};
+  all.insert(all.end(), login.begin(), login.end());
   all.insert(all.end(), args.begin(), args.end());
   std::vector<char*> argv;
   for (auto& a : all) argv.push_back(a.data());
@@ -81,13 +82,16 @@ TEST_CASE("crash consistency: check import killed at random moments is all or no
              std::to_string(r % 8 + 3) + "-1" + std::to_string(r % 10) + ",A. Technician,W100,100.000" +
              std::to_string(1 + (i + r) % 4) + ",g\n";
   dir.write("history.csv", csv);
+  // The importing member's account is made first, so every copy below has it and "before" includes it.
+  const auto login = plumb::test::login_options(lab, "Lab Tester", dir.path());
+  REQUIRE(login.size() == 4);
   const Counts before = counts(lab);
 
   // One complete import, timed, gives the "all" state and the window to kill in.
   const auto full = dir.file("full.db");
   copy_database(lab, full);
   const auto t0 = std::chrono::steady_clock::now();
-  const pid_t whole = spawn_plumb({"--db", full.string(), "check", "import", dir.file("history.csv").string()});
+  const pid_t whole = spawn_plumb(login, {"--db", full.string(), "check", "import", dir.file("history.csv").string()});
   int whole_status = -1;
   waitpid(whole, &whole_status, 0);
   const auto window_us =
@@ -105,7 +109,7 @@ TEST_CASE("crash consistency: check import killed at random moments is all or no
   for (int t = 0; t < trials; ++t) {
     const auto db = dir.file("trial.db");
     copy_database(lab, db);
-    const pid_t pid = spawn_plumb({"--db", db.string(), "check", "import", dir.file("history.csv").string()});
+    const pid_t pid = spawn_plumb(login, {"--db", db.string(), "check", "import", dir.file("history.csv").string()});
     REQUIRE(pid > 0);
     std::this_thread::sleep_for(std::chrono::microseconds(moment(rng)));
     kill(pid, SIGKILL);
@@ -127,8 +131,8 @@ TEST_CASE("crash consistency: check import killed at random moments is all or no
 
     // Every fifth trial: running the import again completes it, or refuses it when it had committed.
     if (t % 5 == 4) {
-      const auto again =
-          plumb::test::run_plumb({"--db", db.string(), "check", "import", dir.file("history.csv").string()}, dir.path());
+      const auto again = plumb::test::run_plumb(
+          {"--db", db.string(), "check", "import", dir.file("history.csv").string()}, dir.path());
       CHECK(again.status == (now == after ? 2 : 0));
       CHECK(counts(db) == after);
       CHECK(plumb::test::check_audit_chain(db).problem.empty());

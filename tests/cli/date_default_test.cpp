@@ -56,7 +56,7 @@ TEST_CASE("a check recorded without --on is dated today and says so", "[cli][dat
   dir.write("r.csv", ten_readings);
   const std::string before = local_date();
   auto r = run_plumb(
-      {"--db", db, "check", "record", "SM-02", "--weight", "W100", "--readings", "r.csv", "--by", "A. Technician"},
+      {"--db", db, "check", "record", "SM-02", "--weight", "W100", "--readings", "r.csv", "--as", "A. Technician"},
       dir.path());
   const std::string after = local_date();
   INFO(r.err);
@@ -73,7 +73,7 @@ TEST_CASE("a check recorded without --on is dated today and says so", "[cli][dat
 
   // Given explicitly, the date is printed as it was typed, with no note.
   r = run_plumb({"--db", db, "check", "record", "SM-02", "--weight", "W100", "--readings", "r.csv", "--on",
-                 local_date(-1), "--by", "A. Technician"},
+                 local_date(-1), "--as", "A. Technician"},
                 dir.path());
   REQUIRE(r.status == 0);
   CHECK_THAT(r.out, Catch::Contains("on " + local_date(-1) + " by") && !Catch::Contains("(today)"));
@@ -83,7 +83,7 @@ TEST_CASE("a pipette check recorded without --on is dated today", "[cli][dates]"
   plumb::test::ScratchDir dir;
   const auto db = lab_dated_around_today(dir);
   dir.write("r.csv", ten_readings);
-  REQUIRE(run_plumb({"--db", db, "check", "record", "SM-02", "--weight", "W100", "--readings", "r.csv", "--by",
+  REQUIRE(run_plumb({"--db", db, "check", "record", "SM-02", "--weight", "W100", "--readings", "r.csv", "--as",
                      "A. Technician"},
                     dir.path())
               .status == 0);
@@ -99,7 +99,7 @@ TEST_CASE("a pipette check recorded without --on is dated today", "[cli][dates]"
   const std::string before = local_date();
   const auto r = run_plumb(
       {"--db", db, "check", "record", "P-07", "--procedure", "gravimetric", "--balance", "SM-02", "--water-temp", "20C",
-       "--pressure", "1013hPa", "--humidity", "50%", "--readings", "w.csv", "--by", "A. Technician"},
+       "--pressure", "1013hPa", "--humidity", "50%", "--readings", "w.csv", "--as", "A. Technician"},
       dir.path());
   const std::string after = local_date();
   INFO(r.err);

@@ -81,9 +81,9 @@ std::string certified_calibration(const plumb::test::ScratchDir& dir) {
   ok({"--db",        db,           "check",        "record",        "BAL-C",     "--procedure",
       "calibration", "--readings", "cal.csv",      "--temperature", "20C",        "--pressure",
       "1013.25hPa",     "--humidity", "50%",           "--air-formula", "oiml-r111", "--on",
-      "2026-11-30",  "--by",       "A. Technician"},
+      "2026-11-30",  "--as",       "A. Technician"},
      dir);
-  ok({"--db", db, "certificate", "issue", "LAST", "--by", "Q. Manager"}, dir);
+  ok({"--db", db, "certificate", "issue", "LAST", "--as", "Q. Manager"}, dir);
   return db;
 }
 
@@ -173,7 +173,7 @@ TEST_CASE("dcc: a calibration certificate validates and carries the hand-worked 
   CHECK(xpath_texts(d, "//dcc:respPerson/dcc:role") == std::vector<std::string>{"performed by", "issued by"});
 
   // Approved: the approver with the meaning and time of the signature, and the certificate valid.
-  ok({"--db", db, "certificate", "approve", "CC-2026-0001", "--by", "R. Reviewer", "--meaning",
+  ok({"--db", db, "certificate", "approve", "CC-2026-0001", "--as", "R. Reviewer", "--meaning",
       "reviewed and approved"},
      dir);
   doc = valid_dcc(db, "CC-2026-0001", dir, *schema);
@@ -246,10 +246,10 @@ TEST_CASE("dcc: a pipette certificate validates and carries the ISO 8655-6 resul
       "--smallest-net", "50mg", "--location", "Weighing room", "--since", "2026-01-05"},
      dir);
   ok({"--db", db, "check", "record", "SM-02", "--weight", "W100", "--readings", "sm02.csv", "--on", "2026-11-30",
-      "--by", "A. Technician"},
+      "--as", "A. Technician"},
      dir);
   ok({"--db", db, "pipette", "add", "P-07", "--nominal", "100uL", "--range", "fixed", "--every", "3mo", "--location",
-      "Lab 2", "--since", "2026-06-01", "--by", "Q. Manager"},
+      "Lab 2", "--since", "2026-06-01", "--as", "Q. Manager"},
      dir);
   std::string w = "volume,channel,reading\n";
   for (const char* reading :
@@ -258,9 +258,9 @@ TEST_CASE("dcc: a pipette certificate validates and carries the ISO 8655-6 resul
   dir.write("w.csv", w);
   ok({"--db",      db,           "check",        "record", "P-07",       "--procedure", "gravimetric",
       "--balance", "SM-02",      "--water-temp", "20C",     "--pressure", "1013hPa",        "--humidity",
-      "50%",        "--readings", "w.csv",        "--on",   "2026-12-01", "--by",        "A. Technician"},
+      "50%",        "--readings", "w.csv",        "--on",   "2026-12-01", "--as",        "A. Technician"},
      dir);
-  ok({"--db", db, "certificate", "issue", "LAST", "--by", "Q. Manager"}, dir);
+  ok({"--db", db, "certificate", "issue", "LAST", "--as", "Q. Manager"}, dir);
   auto doc = valid_dcc(db, "PC-2026-0001", dir, *schema);
   xmlDoc* d = doc.get();
   check_units(d);
@@ -310,10 +310,10 @@ TEST_CASE("dcc: a weekly check certificate validates, and withdrawn it says so a
   std::string readings = "reading\n";
   for (int i = 0; i < 10; ++i) readings += i % 2 ? "100.0004\n" : "100.0003\n";
   dir.write("r.csv", readings);
-  ok({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on", "2026-11-30", "--by",
+  ok({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on", "2026-11-30", "--as",
       "A. Technician"},
      dir);
-  ok({"--db", db, "certificate", "issue", "LAST", "--by", "Q. Manager"}, dir);
+  ok({"--db", db, "certificate", "issue", "LAST", "--as", "Q. Manager"}, dir);
   auto doc = valid_dcc(db, "BC-2026-0001", dir, *schema);
   xmlDoc* d = doc.get();
   check_units(d);
@@ -329,7 +329,7 @@ TEST_CASE("dcc: a weekly check certificate validates, and withdrawn it says so a
   CHECK(xpath_text(d, "//dcc:measuringEquipment//dcc:identification[dcc:issuer='other']/dcc:value") == "RC-2291");
   CHECK(xpath_text(d, "//dcc:statement[@refType='plumb_conformity']/dcc:conformity") == "pass");
 
-  ok({"--db", db, "check", "void", "1", "--reason", "recorded on the wrong balance", "--by", "Q. Manager"}, dir);
+  ok({"--db", db, "check", "void", "1", "--reason", "recorded on the wrong balance", "--as", "Q. Manager"}, dir);
   doc = valid_dcc(db, "BC-2026-0001", dir, *schema);
   d = doc.get();
   CHECK(xpath_text(d, "//dcc:statement[@refType='plumb_certificateStatus']/dcc:valid") == "false");
@@ -347,11 +347,11 @@ TEST_CASE("dcc: a replacement names the certificate it replaces, and the replace
   const auto db = plumb::test::example_lab(dir).string();
   dir.write("r.csv", "reading\n" + std::string("100.0003\n100.0004\n100.0003\n100.0003\n100.0004\n") +
                        "100.0003\n100.0004\n100.0003\n100.0003\n100.0004\n");
-  ok({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on", "2026-11-30", "--by",
+  ok({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on", "2026-11-30", "--as",
       "A. Technician"},
      dir);
-  ok({"--db", db, "certificate", "issue", "LAST", "--by", "Q. Manager"}, dir);
-  ok({"--db", db, "check", "correct", "1", "--on", "2026-11-29", "--reason", "date typed wrong", "--by", "Q. Manager"},
+  ok({"--db", db, "certificate", "issue", "LAST", "--as", "Q. Manager"}, dir);
+  ok({"--db", db, "check", "correct", "1", "--on", "2026-11-29", "--reason", "date typed wrong", "--as", "Q. Manager"},
      dir);
   auto doc = valid_dcc(db, "BC-2026-0002", dir, *schema);
   CHECK(xpath_text(doc.get(), "//dcc:statement[@refType='plumb_replaces']/dcc:declaration/dcc:content") ==
@@ -400,12 +400,12 @@ TEST_CASE("dcc: the item's maker, model, serial and asset tag, and the lab's add
      dir);
   dir.write("r.csv", "reading\n" + std::string("100.0003\n100.0004\n100.0003\n100.0003\n100.0004\n") +
                        "100.0003\n100.0004\n100.0003\n100.0003\n100.0004\n");
-  ok({"--db", db, "check", "record", "BAL-M", "--weight", "W100", "--readings", "r.csv", "--on", "2026-11-30", "--by",
+  ok({"--db", db, "check", "record", "BAL-M", "--weight", "W100", "--readings", "r.csv", "--on", "2026-11-30", "--as",
       "A. Technician"},
      dir);
   dir.write("layout.json", R"({"address_lines": ["Building 4, Room 2.17", "1 Example Street, Exampletown"],
     "accreditation": "EX-K-00000", "signatories": [{"role": "Performed by", "name": "{operator}"}]})");
-  ok({"--db", db, "certificate", "issue", "LAST", "--layout", "layout.json", "--by", "Q. Manager"}, dir);
+  ok({"--db", db, "certificate", "issue", "LAST", "--layout", "layout.json", "--as", "Q. Manager"}, dir);
   auto doc = valid_dcc(db, "LAST", dir, *schema);
   xmlDoc* d = doc.get();
   CHECK(xpath_text(d, "//dcc:item/dcc:manufacturer/dcc:name/dcc:content") == "Invented Weighing Works");

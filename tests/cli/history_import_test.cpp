@@ -39,8 +39,8 @@ TEST_CASE("history import records validated runs once and reports them", "[cli][
   const auto db = plumb::test::example_lab(dir).string();
   dir.write("history.csv", history());
 
-  auto r = run_plumb({"--db", db, "check", "import", "history.csv", "--by", "Q. Manager", "--format", "json"},
-                     dir.path());
+  auto r =
+      run_plumb({"--db", db, "check", "import", "history.csv", "--as", "Q. Manager", "--format", "json"}, dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
   CHECK(r.err.empty());  // no progress bar when stderr is not a terminal
@@ -71,16 +71,19 @@ TEST_CASE("history import records validated runs once and reports them", "[cli][
   CHECK_THAT(json::parse(r.out)["sd_g"].get<double>(), grams_near(0.0011595018087, ug(0.0001)));
 
   // The same file again is refused, and nothing changes.
+  const std::vector<std::string> again = {"--db", db, "check", "import", "history.csv", "--as", "Q. Manager"};
+  plumb::test::prepare_login(again, dir.path());  // the member's account first: the comparison is of the import
   const std::string before = plumb::test::dump_database(db);
-  r = run_plumb({"--db", db, "check", "import", "history.csv", "--by", "Q. Manager"}, dir.path());
+  r = run_plumb(again, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("already imported as batch 1"));
   CHECK(plumb::test::dump_database(db) == before);
 
   const auto audit = plumb::test::check_audit_chain(db);
   CHECK(audit.problem.empty());
-  // lab, weight, its certificate, instrument, balance; one record per run (run + weight + 10 readings); the batch.
-  CHECK(audit.rows == 5 + 3 + 1);
+  // lab, weight, its certificate, instrument, balance; one record per run (run + weight + 10 readings); the batch;
+  // and the accounts the test helper logged in with.
+  CHECK(audit.rows == 5 + 3 + 1 + plumb::test::account_records(db));
 }
 
 TEST_CASE("lab summary shows each instrument's latest result and agrees with the due list", "[cli][import]") {
@@ -121,6 +124,7 @@ TEST_CASE("lab summary shows each instrument's latest result and agrees with the
 
   r = run_plumb({"--db", db, "due", "--on", "2026-06-01", "--format", "csv"}, dir.path());
   REQUIRE(r.status == 0);
-  CHECK_THAT(r.out, Catch::Contains("balance,BAL-A,overdue,2026-04-13,-49,\"Room 2\",\"last passed 2026-04-06 (run 1)\""));
+  CHECK_THAT(r.out,
+             Catch::Contains("balance,BAL-A,overdue,2026-04-13,-49,\"Room 2\",\"last passed 2026-04-06 (run 1)\""));
   CHECK_THAT(r.out, Catch::Contains("balance,BAL-B,overdue,2026-05-01,-31,\"Room 3\",\"no check recorded yet\""));
 }

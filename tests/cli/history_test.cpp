@@ -75,7 +75,7 @@ std::string hand_built_lab(const plumb::test::ScratchDir& dir) {
   for (int i = 0; i < 5; ++i) {
     dir.write("r.csv", readings(i));
     r = run_plumb({"--db", db, "check", "record", "BAL-L", "--procedure", "repeatability", "--weight", "W100",
-                   "--readings", "r.csv", "--on", dates[i], "--by", "A. Technician"},
+                   "--readings", "r.csv", "--on", dates[i], "--as", "A. Technician"},
                   dir.path());
     REQUIRE(r.status == 0);
   }
@@ -211,10 +211,10 @@ TEST_CASE("PDF certificate: number on every page, verdict, due date, caution", "
   const auto db = plumb::test::example_lab(dir).string();
   dir.write("long.csv", readings(2, 100));  // 200 readings: the readings table runs onto a second page
   auto r = run_plumb({"--db", db, "check", "record", "BAL-A", "--procedure", "repeatability", "--weight", "W100",
-                      "--readings", "long.csv", "--on", "2026-11-30", "--by", "A. Technician"},
+                      "--readings", "long.csv", "--on", "2026-11-30", "--as", "A. Technician"},
                      dir.path());
   REQUIRE(r.status == 0);
-  r = run_plumb({"--db", db, "certificate", "issue", "LAST", "--format", "pdf", "--output", "cert.pdf", "--by",
+  r = run_plumb({"--db", db, "certificate", "issue", "LAST", "--format", "pdf", "--output", "cert.pdf", "--as",
                  "Q. Manager"},
                 dir.path());
   REQUIRE(r.status == 0);

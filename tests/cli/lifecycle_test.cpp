@@ -46,9 +46,10 @@ TEST_CASE("instrument attributes change by dated versions and certificates state
   plumb::test::ScratchDir dir;
   const auto db = plumb::test::example_lab(dir).string();
   dir.write("r.csv", passing_readings);
-  ok({"--db", db, "balance", "add", "BAL-B", "--capacity", "220g", "--readability", "0.1mg", "--every", "7d",
-      "--smallest-net", "200mg", "--location", "Room 3", "--maker", "Fennick Scales", "--model", "FX 220",
-      "--serial", "FX-0091", "--asset-tag", "QA-0417", "--since", "2026-01-05", "--by", "Q. Manager"},
+  ok({"--db",          db,        "balance",        "add",        "BAL-B",          "--capacity", "220g",
+      "--readability", "0.1mg",   "--every",        "7d",         "--smallest-net", "200mg",      "--location",
+      "Room 3",        "--maker", "Fennick Scales", "--model",    "FX 220",         "--serial",   "FX-0091",
+      "--asset-tag",   "QA-0417", "--since",        "2026-01-05", "--as",           "Q. Manager"},
      dir);
   json page = json_of({"--db", db, "balance", "show", "BAL-B", "--format", "json"}, dir);
   CHECK(page["identity"]["maker"] == "Fennick Scales");
@@ -56,26 +57,27 @@ TEST_CASE("instrument attributes change by dated versions and certificates state
   CHECK(page["identity"]["asset_tag"] == "QA-0417");
   CHECK(page["location"] == "Room 3");
 
-  ok({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on", "2026-11-30", "--by",
+  ok({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on", "2026-11-30", "--as",
       "A. Technician"},
      dir);
   // A change may not be dated on or before the last check: that check's records state the attributes then.
   auto r = run_plumb({"--db", db, "instrument", "update", "BAL-A", "--location", "Room 5", "--from", "2026-11-30",
-                      "--reason", "moved", "--by", "Q. Manager"},
+                      "--reason", "moved", "--as", "Q. Manager"},
                      dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("last check of BAL-A (2026-11-30)"));
-  r = run_plumb({"--db", db, "instrument", "update", "BAL-A", "--location", "Room 2", "--reason", "no move", "--by",
+  r = run_plumb({"--db", db, "instrument", "update", "BAL-A", "--location", "Room 2", "--reason", "no move", "--as",
                  "Q. Manager"},
                 dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("nothing to change"));
-  r = run_plumb({"--db", db, "instrument", "update", "BAL-A", "--location", "Room 5", "--by", "Q. Manager"}, dir.path());
+  r = run_plumb({"--db", db, "instrument", "update", "BAL-A", "--location", "Room 5", "--as", "Q. Manager"},
+                dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("--reason"));
 
   ok({"--db", db, "instrument", "update", "BAL-A", "--location", "Room 5", "--serial", "SN-77", "--from", "2026-12-01",
-      "--reason", "moved to the new weighing room", "--by", "Q. Manager"},
+      "--reason", "moved to the new weighing room", "--as", "Q. Manager"},
      dir);
   page = json_of({"--db", db, "balance", "show", "BAL-A", "--format", "json"}, dir);
   CHECK(page["location"] == "Room 5");
@@ -91,14 +93,14 @@ TEST_CASE("instrument attributes change by dated versions and certificates state
   CHECK(page["runs"][0]["standing"] == "current");
 
   // The certificate of the 2026-11-30 check, issued after the move, states Room 2 and no serial number.
-  const json before = json_of({"--db", db, "certificate", "issue", "1", "--format", "json", "--by", "Q. Manager"}, dir);
+  const json before = json_of({"--db", db, "certificate", "issue", "1", "--format", "json", "--as", "Q. Manager"}, dir);
   CHECK(before["instrument"]["location"] == "Room 2");
   CHECK(before["instrument"]["serial"] == "");
   // A check on 2026-12-02 is certified with the attributes from 2026-12-01.
-  ok({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on", "2026-12-02", "--by",
+  ok({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on", "2026-12-02", "--as",
       "A. Technician"},
      dir);
-  const json after = json_of({"--db", db, "certificate", "issue", "2", "--format", "json", "--by", "Q. Manager"}, dir);
+  const json after = json_of({"--db", db, "certificate", "issue", "2", "--format", "json", "--as", "Q. Manager"}, dir);
   CHECK(after["instrument"]["location"] == "Room 5");
   CHECK(after["instrument"]["serial"] == "SN-77");
   r = run_plumb({"--db", db, "certificate", "show", "2"}, dir.path());
@@ -107,10 +109,10 @@ TEST_CASE("instrument attributes change by dated versions and certificates state
   // A policy change from a date judges the checks of that date by it: BAL-A under the lab's s <= 0.05 mg fails the
   // passing readings (s = 0.0949 mg, worked in tests/unit/repeatability_test.cpp).
   ok({"--db", db, "instrument", "update", "BAL-A", "--policy", "lab", "--max-sd", "0.05mg", "--max-bias", "0.5mg",
-      "--from", "2026-12-03", "--reason", "tighter limit for the assay", "--by", "Q. Manager"},
+      "--from", "2026-12-03", "--reason", "tighter limit for the assay", "--as", "Q. Manager"},
      dir);
-  r = run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on", "2026-12-03",
-                 "--by", "A. Technician", "--format", "json"},
+  r = run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
+                 "2026-12-03", "--as", "A. Technician", "--format", "json"},
                 dir.path());
   REQUIRE(r.status == 0);
   const json tight = json::parse(r.out);
@@ -119,10 +121,11 @@ TEST_CASE("instrument attributes change by dated versions and certificates state
 
   // Balance fields on a pipette are refused, naming them.
   ok({"--db", db, "pipette", "add", "P-07", "--nominal", "100uL", "--range", "fixed", "--every", "3mo", "--since",
-      "2026-06-01", "--by", "Q. Manager"},
+      "2026-06-01", "--as", "Q. Manager"},
      dir);
-  r = run_plumb({"--db", db, "instrument", "update", "P-07", "--max-sd", "0.1mg", "--reason", "x", "--by", "Q. Manager"},
-                dir.path());
+  r = run_plumb(
+      {"--db", db, "instrument", "update", "P-07", "--max-sd", "0.1mg", "--reason", "x", "--as", "Q. Manager"},
+      dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("P-07 is a pipette"));
 }
@@ -133,23 +136,23 @@ TEST_CASE("a calibration and a pipette run are corrected with new run conditions
   dir.write("sm02.csv", sm02_readings);
   dir.write("w.csv", pipette_weighings);
   ok({"--db", db, "balance", "add", "SM-02", "--capacity", "120g", "--readability", "0.01mg", "--every", "7d",
-      "--smallest-net", "50mg", "--since", "2026-01-05", "--by", "Q. Manager"},
+      "--smallest-net", "50mg", "--since", "2026-01-05", "--as", "Q. Manager"},
      dir);
   ok({"--db", db, "check", "record", "SM-02", "--weight", "W100", "--readings", "sm02.csv", "--on", "2026-11-30",
-      "--by", "A. Technician"},
+      "--as", "A. Technician"},
      dir);
   ok({"--db", db, "pipette", "add", "P-07", "--nominal", "100uL", "--range", "fixed", "--every", "3mo", "--since",
-      "2026-06-01", "--by", "Q. Manager"},
+      "2026-06-01", "--as", "Q. Manager"},
      dir);
-  ok({"--db", db, "check", "record", "P-07", "--procedure", "gravimetric", "--balance", "SM-02", "--water-temp", "20C",
-      "--pressure", "1013hPa", "--humidity", "50%", "--readings", "w.csv", "--on", "2026-11-30", "--by", "A. Technician"},
+  ok({"--db",      db,           "check",        "record", "P-07",       "--procedure", "gravimetric",
+      "--balance", "SM-02",      "--water-temp", "20C",    "--pressure", "1013hPa",     "--humidity",
+      "50%",       "--readings", "w.csv",        "--on",   "2026-11-30", "--as",        "A. Technician"},
      dir);
-  ok({"--db", db, "certificate", "issue", "LAST", "--by", "Q. Manager"}, dir);
+  ok({"--db", db, "certificate", "issue", "LAST", "--as", "Q. Manager"}, dir);
 
   // A condition of another procedure is refused, naming the ones this run takes.
-  auto r = run_plumb({"--db", db, "check", "correct", "2", "--temperature", "21C", "--reason", "x", "--by",
-                      "Q. Manager"},
-                     dir.path());
+  auto r = run_plumb(
+      {"--db", db, "check", "correct", "2", "--temperature", "21C", "--reason", "x", "--as", "Q. Manager"}, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("--temperature does not apply to run 2, a gravimetric run") &&
                         Catch::Contains("--water-temp"));
@@ -159,7 +162,7 @@ TEST_CASE("a calibration and a pipette run are corrected with new run conditions
   // = 47209594.3; ratio = 289.57710 x 322.797 / 47209594.3 = 0.00197998; rho_w = 999.97495 x (1 - 0.00197998)
   // = 997.99502 kg/m3 (20 degC gave 998.20675).
   const json c = json_of({"--db", db, "check", "correct", "2", "--water-temp", "21C", "--reason",
-                          "water thermometer read 1 degC low", "--by", "Q. Manager", "--format", "json"},
+                          "water thermometer read 1 degC low", "--as", "Q. Manager", "--format", "json"},
                          dir);
   CHECK(c["original"]["run_id"] == 2);
   CHECK(c["correction"]["supersedes"] == 2);
@@ -170,7 +173,7 @@ TEST_CASE("a calibration and a pipette run are corrected with new run conditions
   CHECK(c["superseded_certificate"].is_string());
   CHECK(c["new_certificate"].is_string());
   // The same conditions again change nothing.
-  r = run_plumb({"--db", db, "check", "correct", "3", "--water-temp", "21C", "--reason", "again", "--by", "Q. Manager"},
+  r = run_plumb({"--db", db, "check", "correct", "3", "--water-temp", "21C", "--reason", "again", "--as", "Q. Manager"},
                 dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("changes nothing"));
@@ -180,15 +183,16 @@ TEST_CASE("a calibration run is corrected with a new air temperature", "[cli][li
   plumb::test::ScratchDir dir;
   const auto db = plumb::test::calibration_lab(dir).string();
   dir.write("cal.csv", plumb::test::calibration_run_file());
-  ok({"--db", db, "check", "record", "BAL-C", "--procedure", "calibration", "--readings", "cal.csv", "--temperature",
-      "20C", "--pressure", "1013.25hPa", "--humidity", "50%", "--air-formula", "oiml-r111", "--model", "through-origin",
-      "--on", "2026-11-30", "--by", "A. Technician"},
+  ok({"--db",           db,           "check",      "record",        "BAL-C",        "--procedure",
+      "calibration",    "--readings", "cal.csv",    "--temperature", "20C",          "--pressure",
+      "1013.25hPa",     "--humidity", "50%",        "--air-formula", "oiml-r111",    "--model",
+      "through-origin", "--on",       "2026-11-30", "--as",          "A. Technician"},
      dir);
   // OIML R 111-1:2004 Annex E (E.3-1) by hand at t = 22 degC, p = 1013.25 hPa, h = 50 %: 0.34848 x 1013.25 =
   // 353.09736; 0.45 x exp(0.061 x 22) = 0.45 x exp(1.342) = 1.722010; (353.09736 - 1.722010) / 295.15 =
   // 1.190498 kg/m3 (at 20 degC: 1.199294).
   const json c = json_of({"--db", db, "check", "correct", "1", "--temperature", "22C", "--reason",
-                          "temperature transcribed as 20 for 22", "--by", "Q. Manager", "--format", "json"},
+                          "temperature transcribed as 20 for 22", "--as", "Q. Manager", "--format", "json"},
                          dir);
   CHECK(c["correction"]["supersedes"] == 1);
   CHECK(c["correction"]["environment"]["air_density_kg_m3"].get<double>() == Approx(1.190498).epsilon(2e-6));
@@ -204,27 +208,27 @@ TEST_CASE("a run entered in error is voided: kept, marked, left out, its certifi
   plumb::test::ScratchDir dir;
   const auto db = plumb::test::example_lab(dir).string();
   dir.write("r.csv", passing_readings);
-  ok({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on", "2026-11-23", "--by",
+  ok({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on", "2026-11-23", "--as",
       "A. Technician"},
      dir);
-  ok({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on", "2026-11-30", "--by",
+  ok({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on", "2026-11-30", "--as",
       "A. Technician"},
      dir);
-  ok({"--db", db, "certificate", "issue", "2", "--by", "Q. Manager"}, dir);
+  ok({"--db", db, "certificate", "issue", "2", "--as", "Q. Manager"}, dir);
   json due = json_of({"--db", db, "due", "--all", "--on", "2026-12-01", "--format", "json"}, dir);
   REQUIRE(due["items"][0]["id"] == "BAL-A");
   CHECK(due["items"][0]["due_on"] == "2026-12-07");
 
-  auto r = run_plumb({"--db", db, "check", "correct", "2", "--reason", "entered in error", "--by", "Q. Manager"},
+  auto r = run_plumb({"--db", db, "check", "correct", "2", "--reason", "entered in error", "--as", "Q. Manager"},
                      dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("plumb check void"));
-  r = run_plumb({"--db", db, "check", "void", "2", "--by", "Q. Manager"}, dir.path());
+  r = run_plumb({"--db", db, "check", "void", "2", "--as", "Q. Manager"}, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("--reason"));
 
   const json v = json_of({"--db", db, "check", "void", "2", "--reason", "recorded twice; the check was on 11-23",
-                          "--by", "Q. Manager", "--format", "json"},
+                          "--as", "Q. Manager", "--format", "json"},
                          dir);
   CHECK(v["run"]["status"] == "void");
   CHECK(v["run"]["void"]["reason"] == "recorded twice; the check was on 11-23");
@@ -247,13 +251,13 @@ TEST_CASE("a run entered in error is voided: kept, marked, left out, its certifi
   // The certificate says so, cannot be approved, and the run cannot be voided twice or corrected.
   r = run_plumb({"--db", db, "certificate", "show", "2"}, dir.path());
   CHECK_THAT(r.out, Catch::Contains("Status: WITHDRAWN on"));
-  r = run_plumb({"--db", db, "certificate", "approve", "2", "--meaning", "reviewed", "--by", "Q. Manager"}, dir.path());
+  r = run_plumb({"--db", db, "certificate", "approve", "2", "--meaning", "reviewed", "--as", "Q. Manager"}, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("withdrawn"));
-  r = run_plumb({"--db", db, "check", "void", "2", "--reason", "again", "--by", "Q. Manager"}, dir.path());
+  r = run_plumb({"--db", db, "check", "void", "2", "--reason", "again", "--as", "Q. Manager"}, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("void already"));
-  r = run_plumb({"--db", db, "check", "correct", "2", "--on", "2026-11-29", "--reason", "x", "--by", "Q. Manager"},
+  r = run_plumb({"--db", db, "check", "correct", "2", "--on", "2026-11-29", "--reason", "x", "--as", "Q. Manager"},
                 dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("is void"));

@@ -122,7 +122,7 @@ void run_case(const fs::path& file) {
               "reading\n100.0003\n100.0001\n100.0002\n100.0002\n100.0003\n100.0001\n100.0002\n100.0004\n"
               "100.0002\n100.0003\n");
     const auto r = plumb::test::run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings",
-                                           "ok.csv", "--on", "2026-11-02", "--by", "A. Technician"},
+                                           "ok.csv", "--on", "2026-11-02", "--as", "A. Technician"},
                                           dir.path());
     INFO("baseline check, stderr: " << r.err);
     REQUIRE(r.status == 0);
@@ -141,6 +141,8 @@ void run_case(const fs::path& file) {
   }
   std::vector<std::string> args;
   for (const auto& a : c.at("args")) args.push_back(substitute(a.get<std::string>(), db));
+  // The member the command logs in as exists before the "before" picture: creating it is not the command's doing.
+  plumb::test::prepare_login(args, dir.path());
   const std::string before = plumb::test::dump_database(db);
   const auto files_before = listing(dir.path());
   const auto r = plumb::test::run_plumb(args, dir.path(), with_bytes(c.value("stdin", "")));

@@ -44,7 +44,7 @@ std::string lab_with_balance(const plumb::test::ScratchDir& dir) {
                                  "--every", "7d", "--smallest-net", "50mg", "--location", "Weighing room", "--since",
                                  "2026-01-05"},
         std::vector<std::string>{"--db", db, "check", "record", "SM-02", "--weight", "W100", "--readings", "sm02.csv",
-                                 "--on", "2026-11-30", "--by", "A. Technician"}}) {
+                                 "--on", "2026-11-30", "--as", "A. Technician"}}) {
     const auto r = run_plumb(step, dir.path());
     REQUIRE(r.status == 0);
   }
@@ -58,7 +58,7 @@ TEST_CASE("pipette check: register, record, show, certify, due", "[cli][pipette]
   const auto db = lab_with_balance(dir);
 
   auto r = run_plumb({"--db", db, "pipette", "add", "P-07", "--nominal", "100uL", "--range", "fixed", "--every", "3mo",
-                      "--location", "Lab 2", "--since", "2026-06-01", "--by", "Q. Manager"},
+                      "--location", "Lab 2", "--since", "2026-06-01", "--as", "Q. Manager"},
                      dir.path());
   REQUIRE(r.status == 0);
   CHECK_THAT(r.out, Catch::Contains("P-07") && Catch::Contains("ISO 8655-2:2002") && Catch::Contains("100 uL"));
@@ -87,7 +87,7 @@ TEST_CASE("pipette check: register, record, show, certify, due", "[cli][pipette]
   dir.write("w.csv", "volume,channel,reading\n" + weighings("100uL", 1, ten));
   r = run_plumb({"--db",      db,           "check",        "record", "P-07",       "--procedure", "gravimetric",
                  "--balance", "SM-02",      "--water-temp", "20C",    "--pressure", "1013hPa",     "--humidity",
-                 "50%",       "--readings", "w.csv",        "--on",   "2026-12-01", "--by",        "A. Technician"},
+                 "50%",       "--readings", "w.csv",        "--on",   "2026-12-01", "--as",        "A. Technician"},
                 dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
@@ -145,7 +145,7 @@ TEST_CASE("pipette check: register, record, show, certify, due", "[cli][pipette]
   REQUIRE(r.status == 0);
   CHECK_THAT(r.out, Catch::Contains("1.0028509") && Catch::Contains("100.015") && Catch::Contains("SM-02"));
 
-  r = run_plumb({"--db", db, "certificate", "issue", "LAST", "--format", "text", "--by", "Q. Manager"}, dir.path());
+  r = run_plumb({"--db", db, "certificate", "issue", "LAST", "--format", "text", "--as", "Q. Manager"}, dir.path());
   REQUIRE(r.status == 0);
   for (const char* must : {"Pipette check certificate", "PC-2026-0001", "Example Analytical Lab", "P-07", "SM-02",
                            "W100", "RC-2291", "1.0028509", "ISO 8655-2:2002", "100.015", "0.09992",
@@ -195,7 +195,7 @@ TEST_CASE("pipette check: evaporation, an incomplete multichannel run fails and 
   auto r = run_plumb({"--db",        db,           "check",      "record",        "P-07",          "--procedure",
                       "gravimetric", "--balance",  "SM-02",      "--water-temp",  "20C",           "--pressure",
                       "1013hPa",     "--humidity", "50%",        "--evaporation", "0.01mg",        "--readings",
-                      "w.csv",       "--on",       "2026-12-01", "--by",          "A. Technician", "--format",
+                      "w.csv",       "--on",       "2026-12-01", "--as",          "A. Technician", "--format",
                       "json"},
                      dir.path());
   INFO(r.err);
@@ -215,7 +215,7 @@ TEST_CASE("pipette check: evaporation, an incomplete multichannel run fails and 
   r = run_plumb({"--db",        db,           "check",         "record",       "M-8",   "--procedure",
                  "gravimetric", "--balance",  "SM-02",         "--water-temp", "20C",   "--pressure",
                  "1013hPa",     "--humidity", "50%",           "--readings",   "m.csv", "--on",
-                 "2026-12-01",  "--by",       "A. Technician", "--format",     "json",  "--gate"},
+                 "2026-12-01",  "--as",       "A. Technician", "--format",     "json",  "--gate"},
                 dir.path());
   CHECK(r.status == 1);  // --gate on a failed check
   j = json::parse(r.out);

@@ -41,7 +41,7 @@ TEST_CASE("USP <41>: ten replicate weighings recorded, and the certificate says 
             "reading\n100.0003\n100.0001\n100.0002\n100.0004\n100.0002\n100.0003\n100.0001\n100.0002\n"
             "100.0003\n100.0002\n");
   must(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
-                  "2026-11-30", "--by", "A. Technician"},
+                  "2026-11-30", "--as", "A. Technician"},
                  dir.path()));
   auto r = run_plumb({"--db", db, "check", "show", "LAST", "--format", "json"}, dir.path());
   must(r);
@@ -50,7 +50,7 @@ TEST_CASE("USP <41>: ten replicate weighings recorded, and the certificate says 
   CHECK(run["required_readings"] == 10);
   CHECK_THAT(run["readings_basis"].get<std::string>(), Catch::Contains("USP General Chapter <41> Balances"));
 
-  r = run_plumb({"--db", db, "certificate", "issue", "LAST", "--by", "Q. Manager"}, dir.path());
+  r = run_plumb({"--db", db, "certificate", "issue", "LAST", "--as", "Q. Manager"}, dir.path());
   must(r);
   CHECK_THAT(squeezed(r.out), Catch::Contains("Minimum number of readings 10: USP General Chapter <41> Balances "
                                               "(2013 onwards) asks for not less than 10 replicate weighings"));
@@ -63,12 +63,12 @@ TEST_CASE("a lab policy of 3 replicate weighings: accepted, noted, and stated on
   const auto db = plumb::test::example_lab(dir).string();
   must(run_plumb(
       {"--db", db, "instrument", "update", "BAL-A", "--max-bias", "0.5mg", "--min-readings", "3", "--from",
-       "2026-11-02", "--reason", "lab SOP LQ-7: triplicate weighings for the daily check", "--by", "Q. Manager"},
+       "2026-11-02", "--reason", "lab SOP LQ-7: triplicate weighings for the daily check", "--as", "Q. Manager"},
       dir.path()));
   // 100.0002, 100.0004, 100.0003 by hand: mean 100.0003 g, bias against 100.00003 g = +0.27 mg <= 0.5 mg.
   dir.write("three.csv", "reading\n100.0002\n100.0004\n100.0003\n");
   auto r = run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "three.csv", "--on",
-                      "2026-11-30", "--by", "A. Technician", "--format", "json"},
+                      "2026-11-30", "--as", "A. Technician", "--format", "json"},
                      dir.path());
   must(r);
   const json run = json::parse(r.out);
@@ -78,7 +78,7 @@ TEST_CASE("a lab policy of 3 replicate weighings: accepted, noted, and stated on
   REQUIRE(run["notes"].size() == 1);
   CHECK_THAT(run["notes"][0].get<std::string>(), Catch::Contains("Only 3 readings"));
 
-  r = run_plumb({"--db", db, "certificate", "issue", "LAST", "--by", "Q. Manager"}, dir.path());
+  r = run_plumb({"--db", db, "certificate", "issue", "LAST", "--as", "Q. Manager"}, dir.path());
   must(r);
   CHECK_THAT(squeezed(r.out), Catch::Contains("Minimum number of readings 3: the lab's policy for this balance asks "
                                               "for at least 3 replicate weighings") &&
@@ -88,7 +88,7 @@ TEST_CASE("a lab policy of 3 replicate weighings: accepted, noted, and stated on
   dir.write("two.csv", "reading\n100.0002\n100.0004\n");
   const std::string before = plumb::test::dump_database(db);
   r = run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "two.csv", "--on",
-                 "2026-11-30", "--by", "A. Technician"},
+                 "2026-11-30", "--as", "A. Technician"},
                 dir.path());
   CHECK(r.status == 2);
   CHECK(r.err ==
@@ -115,7 +115,7 @@ TEST_CASE("capacity is judged on the load: a full-capacity weight on a balance t
             "reading\n200.0103\n200.0101\n200.0102\n200.0104\n200.0102\n200.0103\n200.0101\n200.0102\n"
             "200.0103\n200.0102\n");
   auto r = run_plumb({"--db", db, "check", "record", "BAL-F", "--weight", "W200", "--readings", "high.csv", "--on",
-                      "2026-11-30", "--by", "A. Technician", "--format", "json"},
+                      "2026-11-30", "--as", "A. Technician", "--format", "json"},
                      dir.path());
   must(r);
   const json run = json::parse(r.out);
@@ -146,7 +146,7 @@ TEST_CASE("capacity is judged on the load in a calibration: 220 g on a 220 g bal
       "as-found,indication,W200+W20,,up,220.0012,g\n";
   dir.write("cal.csv", csv);
   auto r = run_plumb({"--db", db, "check", "record", "BAL-C", "--procedure", "calibration", "--readings", "cal.csv",
-                      "--on", "2026-11-30", "--by", "A. Technician", "--format", "json"},
+                      "--on", "2026-11-30", "--as", "A. Technician", "--format", "json"},
                      dir.path());
   must(r);
   const json j = json::parse(r.out);

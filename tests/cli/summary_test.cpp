@@ -57,12 +57,12 @@ TEST_CASE("summary shows balance results in mg to the readability and fills the 
            std::vector<std::string>{"--db", db, "balance", "add", "SM-02", "--capacity", "120g", "--readability",
                                     "0.01mg", "--every", "7d", "--smallest-net", "50mg", "--since", "2026-01-05"},
            {"--db", db, "check", "record", "SM-02", "--weight", "W100", "--readings", "sm02.csv", "--on", "2026-11-30",
-            "--by", "A. Technician"},
+            "--as", "A. Technician"},
            {"--db", db, "pipette", "add", "P-07", "--nominal", "100uL", "--range", "fixed", "--every", "3mo", "--since",
             "2026-06-01"},
            {"--db",      db,           "check",        "record", "P-07",       "--procedure", "gravimetric",
             "--balance", "SM-02",      "--water-temp", "20C",     "--pressure", "1013hPa",        "--humidity",
-            "50%",        "--readings", "w.csv",        "--on",   "2026-12-01", "--by",        "A. Technician"},
+            "50%",        "--readings", "w.csv",        "--on",   "2026-12-01", "--as",        "A. Technician"},
        }) {
     const auto r = run_plumb(step, dir.path());
     INFO(r.err);

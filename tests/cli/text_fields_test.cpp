@@ -5,6 +5,7 @@
 
 #include <algorithm>
 #include <cstdlib>
+#include <filesystem>
 #include <fstream>
 
 #include "support/run_plumb.hpp"
@@ -22,18 +23,22 @@ std::size_t lines_of(const std::string& s) {
 
 }  // namespace
 
-TEST_CASE("a line break in --by is refused and cannot forge a line of the audit log", "[cli][text_field]") {
+TEST_CASE("a line break in a user's printed name is refused and cannot forge a line of the audit log",
+          "[cli][text_field]") {
   plumb::test::ScratchDir dir;
   const auto db = plumb::test::example_lab(dir).string();
-  dir.write("r.csv", readings);
+  // The printed name of an account is the only name plumb records with a write: the forgery is tried there.
+  dir.write("first.pw", "a-first-password-long-enough\n");
+  std::filesystem::permissions(dir.file("first.pw"),
+                               std::filesystem::perms::owner_read | std::filesystem::perms::owner_write);
   const std::string forged = "A. Technician\n#999    2026-11-30T09:00:00Z  Head of Quality (OS account root)";
-  auto r = run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
-                      "2026-11-30", "--by", forged},
+  auto r = run_plumb({"--db", db, "user", "add", "forger", "--name", forged, "--role", "technician",
+                      "--new-password-file", "first.pw", "--as", "Test Administrator"},
                      dir.path());
   CHECK(r.status == 2);
   CHECK(r.out.empty());
   CHECK(lines_of(r.err) == 1);
-  CHECK_THAT(r.err, Catch::StartsWith("plumb: --by \"A. Technician\\n#999") && Catch::Contains("line break"));
+  CHECK_THAT(r.err, Catch::StartsWith("plumb: --name \"A. Technician\\n#999") && Catch::Contains("line break"));
 
   r = run_plumb({"--db", db, "audit", "log"}, dir.path());
   REQUIRE(r.status == 0);

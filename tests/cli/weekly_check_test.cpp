@@ -28,7 +28,7 @@ TEST_CASE("weekly check: record, show, certify, due", "[cli]") {
   dir.write("readings.csv", passing_readings);
 
   auto r = run_plumb({"--db", db, "check", "record", "BAL-A", "--procedure", "repeatability", "--weight", "W100",
-                      "--readings", "readings.csv", "--on", "2026-11-30", "--by", "A. Technician"},
+                      "--readings", "readings.csv", "--on", "2026-11-30", "--as", "A. Technician"},
                      dir.path());
   REQUIRE(r.status == 0);
   CHECK_THAT(r.out, Catch::Contains("PASS"));
@@ -57,7 +57,7 @@ TEST_CASE("weekly check: record, show, certify, due", "[cli]") {
   CHECK(j["next_due"] == "2026-12-07");
   CHECK(j["readings"][3]["text"] == "100.0004");
 
-  r = run_plumb({"--db", db, "certificate", "issue", "LAST", "--format", "text", "--by", "Q. Manager"}, dir.path());
+  r = run_plumb({"--db", db, "certificate", "issue", "LAST", "--format", "text", "--as", "Q. Manager"}, dir.path());
   REQUIRE(r.status == 0);
   for (const char* must : {"BC-2026-0001", "Example Analytical Lab", "BAL-A", "W100", "RC-2291", "2026-11-30",
                            "A. Technician", "100.0004", "USP <41>", "VERDICT: PASS", "2026-12-07",
@@ -88,7 +88,7 @@ TEST_CASE("a failed check puts the balance out of service until a passing check"
                        "100.0000\n100.0004\n");
   dir.write("good.csv", passing_readings);
   auto r = run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "bad.csv", "--on",
-                      "2026-11-23", "--by", "A. Technician", "--gate"},
+                      "2026-11-23", "--as", "A. Technician", "--gate"},
                      dir.path());
   CHECK(r.status == 1);  // --gate: a failed check exits 1
   r = run_plumb({"--db", db, "due", "--on", "2026-11-24", "--format", "json"}, dir.path());
@@ -96,7 +96,7 @@ TEST_CASE("a failed check puts the balance out of service until a passing check"
   REQUIRE(due["items"].size() == 1);
   CHECK(due["items"][0]["status"] == "out of service");
   r = run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "-", "--on", "2026-11-24",
-                 "--by", "A. Technician"},
+                 "--as", "A. Technician"},
                 dir.path(), passing_readings);
   REQUIRE(r.status == 0);
   due = json::parse(run_plumb({"--db", db, "due", "--on", "2026-11-24", "--format", "json"}, dir.path()).out);

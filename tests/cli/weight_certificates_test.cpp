@@ -42,7 +42,7 @@ std::vector<std::string> recalibrate(const std::string& db, const std::string& c
                                      const std::string& due, const std::string& correction,
                                      const std::string& u = "0.04mg") {
   return {"--db",      db,      "weight", "recalibrate",  "W100",     "--certificate", certificate, "--calibrated",
-          on,          "--due", due,      "--correction", correction, "--uncertainty", u,           "--by",
+          on,          "--due", due,      "--correction", correction, "--uncertainty", u,           "--as",
           "Q. Manager"};
 }
 
@@ -63,7 +63,7 @@ TEST_CASE("a recalibrated weight keeps every certificate, each in force for its 
   for (const auto& x : readings) csv += x + "\n";
   dir.write("r.csv", csv);
   r = run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
-                 "2026-02-02", "--by", "A. Technician"},
+                 "2026-02-02", "--as", "A. Technician"},
                 dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("overdue"));
@@ -78,7 +78,7 @@ TEST_CASE("a recalibrated weight keeps every certificate, each in force for its 
   // Now a check after the recalibration is traced to the new certificate: bias = 100.00023 - 99.99995 g
   // = 0.00028 g (by hand).
   r = run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on",
-                 "2026-02-02", "--by", "A. Technician", "--format", "json"},
+                 "2026-02-02", "--as", "A. Technician", "--format", "json"},
                 dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
@@ -121,7 +121,7 @@ TEST_CASE("a recalibrated weight keeps every certificate, each in force for its 
   // Retired: marked so by show and list, whatever its certificates say.
   r = run_plumb({"--db", db, "weight", "list"}, dir.path());
   CHECK_THAT(r.out, Catch::Contains("in date"));
-  REQUIRE(run_plumb({"--db", db, "weight", "retire", "W100", "--reason", "chipped", "--by", "Q. Manager"}, dir.path())
+  REQUIRE(run_plumb({"--db", db, "weight", "retire", "W100", "--reason", "chipped", "--as", "Q. Manager"}, dir.path())
               .status == 0);
   r = run_plumb({"--db", db, "weight", "show", "W100"}, dir.path());
   CHECK_THAT(r.out, Catch::Contains("retired") && Catch::Contains("by Q. Manager: chipped"));
@@ -142,7 +142,7 @@ TEST_CASE("history import traces a run dated before the current certificate to t
     for (const auto& x : readings)
       csv += std::string("BAL-A,repeatability,") + date + ",A. Technician,W100," + x + ",g\n";
   dir.write("history.csv", csv);
-  auto r = run_plumb({"--db", db, "check", "import", "history.csv", "--by", "Q. Manager"}, dir.path());
+  auto r = run_plumb({"--db", db, "check", "import", "history.csv", "--as", "Q. Manager"}, dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
   // 2025: conventional mass 100 g + 0.10 mg = 100.0001 g, bias 100.00023 - 100.0001 = 0.00013 g (by hand).
@@ -155,7 +155,7 @@ TEST_CASE("history import traces a run dated before the current certificate to t
   REQUIRE(r.status == 0);
   CHECK_THAT(json::parse(r.out)["bias_g"].get<double>(), grams_near(0.00028, ug(1e-6)));
   // The stored trace names each run's own certificate.
-  r = run_plumb({"--db", db, "certificate", "issue", "1", "--by", "Q. Manager", "--format", "json"}, dir.path());
+  r = run_plumb({"--db", db, "certificate", "issue", "1", "--as", "Q. Manager", "--format", "json"}, dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
   CHECK_THAT(r.out, Catch::Contains("CAL-25-001"));
@@ -165,7 +165,8 @@ TEST_CASE("a certificate outside its R 111 class is refused unless the lab recor
           "[cli][weights][r111]") {
   plumb::test::ScratchDir dir;
   const auto db = lab_with_old_certificate(dir);
-  const std::string before = plumb::test::dump_database(db);
+  plumb::test::prepare_login(recalibrate(db, "CAL-26-015", "2026-01-20", "2099-01-20", "0.2mg"), dir.path());
+  const std::string before = plumb::test::dump_database(db);  // with the member's account: the refusals are compared
   // E2 100 g: MPE 0.16 mg (OIML R 111-1:2004 Table 1, reference-data CSV), so U may be at most 0.0533 mg.
   auto r = run_plumb(recalibrate(db, "CAL-26-015", "2026-01-20", "2099-01-20", "0.2mg"), dir.path());
   CHECK(r.status == 2);

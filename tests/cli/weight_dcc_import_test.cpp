@@ -57,7 +57,7 @@ TEST_CASE("weight recalibrate --from-dcc records the provider's certificate", "[
   dir.write("NMS-2027-0417.xml", dcc);
 
   auto r = run_plumb({"--db", db, "weight", "recalibrate", "W100", "--from-dcc", "NMS-2027-0417.xml", "--dcc-schema",
-                      schema->string(), "--by", "Q. Manager"},
+                      schema->string(), "--as", "Q. Manager"},
                      dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
@@ -77,7 +77,7 @@ TEST_CASE("weight recalibrate --from-dcc records the provider's certificate", "[
 
   // The same certificate twice is refused, as when typed.
   r = run_plumb({"--db", db, "weight", "recalibrate", "W100", "--from-dcc", "NMS-2027-0417.xml", "--dcc-schema",
-                 schema->string(), "--by", "Q. Manager"},
+                 schema->string(), "--as", "Q. Manager"},
                 dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("NMS-2027-0417") && Catch::Contains("already recorded"));
@@ -115,7 +115,7 @@ TEST_CASE("weight recalibrate --from-dcc: a correction in mg in scientific notat
                  "<dcc:endPerformanceDate>2027-02-18+01:00</dcc:endPerformanceDate>");
   dir.write("cert.xml", dcc);
   const auto r = run_plumb({"--db", db, "weight", "recalibrate", "W100", "--from-dcc", "cert.xml", "--dcc-schema",
-                            schema->string(), "--due", "2027-08-18", "--by", "Q. Manager"},
+                            schema->string(), "--due", "2027-08-18", "--as", "Q. Manager"},
                            dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
@@ -144,10 +144,12 @@ TEST_CASE("weight recalibrate --from-dcc refuses an external entity and reads no
       replaced(provider_dcc(), "<dcc:digitalCalibrationCertificate ", entity + "<dcc:digitalCalibrationCertificate ");
   dcc = replaced(dcc, "<dcc:uniqueIdentifier>NMS-2027-0417", "<dcc:uniqueIdentifier>&leak;");
   dir.write("cert.xml", dcc);
+  const std::vector<std::string> args = {"--db",           db,           "weight",    "recalibrate",
+                                         "W100",           "--from-dcc", "cert.xml",  "--dcc-schema",
+                                         schema->string(), "--as",       "Q. Manager"};
+  plumb::test::prepare_login(args, dir.path());  // the member's account first: the refusal is what is compared
   const std::string before = plumb::test::dump_database(db);
-  const auto r = run_plumb({"--db", db, "weight", "recalibrate", "W100", "--from-dcc", "cert.xml", "--dcc-schema",
-                            schema->string(), "--by", "Q. Manager"},
-                           dir.path());
+  const auto r = run_plumb(args, dir.path());
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("DOCTYPE"));
   CHECK_THAT(r.err + r.out, !Catch::Contains("TOP-SECRET"));

@@ -24,9 +24,8 @@ namespace {
 const std::string weekly_readings =
     "reading\n100.0003\n100.0001\n100.0002\n100.0004\n100.0002\n100.0003\n100.0001\n100.0002\n100.0003\n100.0002\n";
 
-
 class Lab {
-public:
+ public:
   Lab() : db_(dir_.file("year.db").string()) {
     dir_.write("r.csv", weekly_readings);
     dir_.write("cal.csv", plumb::test::calibration_run_file());
@@ -49,12 +48,12 @@ public:
     return json::parse(r.out);
   }
   json weekly(const std::string& balance, const std::string& on) const {
-    return json_of({"check", "record", balance, "--weight", "W100", "--readings", "r.csv", "--on", on, "--by",
-                    "T. Okafor"});
+    return json_of(
+        {"check", "record", balance, "--weight", "W100", "--readings", "r.csv", "--on", on, "--as", "T. Okafor"});
   }
   [[nodiscard]] const plumb::test::ScratchDir& dir() const { return dir_; }
 
-private:
+ private:
   plumb::test::ScratchDir dir_;
   std::string db_;
 };
@@ -77,9 +76,11 @@ TEST_CASE("a year in the lab: every lifecycle step, and one standing in every ou
            {"W20", "20g", "0.025mg"}, {"W50", "50g", "0.03mg"}, {"W200", "200g", "0.10mg"}})
     lab.ok({"weight", "add", id, "--nominal", nominal, "--class", "E2", "--correction", "0mg", "--uncertainty", u,
             "--k", "2", "--certificate", "LK-" + id, "--calibrated", "2026-01-02", "--due", "2027-01-02"});
-  lab.ok({"balance", "add", "BAL-A", "--capacity", "220g", "--readability", "0.1mg", "--every", "7d", "--smallest-net",
-          "200mg", "--location", "Room 2", "--maker", "Larkfield Instruments", "--model", "LW 220", "--serial",
-          "LW-5521", "--since", "2026-01-05"});
+  lab.ok({"balance",       "add",        "BAL-A",    "--capacity", "220g",
+          "--readability", "0.1mg",      "--every",  "7d",         "--smallest-net",
+          "200mg",         "--location", "Room 2",   "--maker",    "Larkfield Instruments",
+          "--model",       "LW 220",     "--serial", "LW-5521",    "--since",
+          "2026-01-05"});
   lab.ok({"balance", "set-calibration", "BAL-A", "--class", "I", "--e", "1mg", "--tolerance", "r76", "--decision-rule",
           "simple", "--calibrate-every", "1y", "--since", "2026-01-05"});
   lab.ok({"balance", "add", "BAL-B", "--capacity", "220g", "--readability", "0.1mg", "--every", "7d", "--smallest-net",
@@ -87,8 +88,8 @@ TEST_CASE("a year in the lab: every lifecycle step, and one standing in every ou
 
   // January to June: monthly weekly checks against W100's first certificate (reference 100 g + 0.03 mg).
   json last;
-  for (const char* on : {"2026-01-05", "2026-02-02", "2026-03-02", "2026-04-06", "2026-05-04", "2026-06-01",
-                         "2026-06-29"}) {
+  for (const char* on :
+       {"2026-01-05", "2026-02-02", "2026-03-02", "2026-04-06", "2026-05-04", "2026-06-01", "2026-06-29"}) {
     last = lab.weekly("BAL-A", on);
     CHECK(last["verdict"] == "pass");
   }
@@ -96,12 +97,12 @@ TEST_CASE("a year in the lab: every lifecycle step, and one standing in every ou
   lab.weekly("BAL-B", "2026-06-29");
 
   // July: W100 is overdue; the weekly check is refused until the new certificate is registered.
-  auto r = lab.run({"check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on", "2026-07-06", "--by",
+  auto r = lab.run({"check", "record", "BAL-A", "--weight", "W100", "--readings", "r.csv", "--on", "2026-07-06", "--as",
                     "T. Okafor"});
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("W100"));
   lab.ok({"weight", "recalibrate", "W100", "--certificate", "LK-2026-088", "--calibrated", "2026-07-01", "--due",
-          "2027-07-01", "--correction", "0.05mg", "--uncertainty", "0.05mg", "--k", "2", "--by", "M. Haddad"});
+          "2027-07-01", "--correction", "0.05mg", "--uncertainty", "0.05mg", "--k", "2", "--as", "M. Haddad"});
   // By hand: reference 100 g + 0.05 mg = 100.00005 g; bias 100.00023 - 100.00005 = +0.18 mg.
   last = lab.weekly("BAL-A", "2026-07-06");
   CHECK_THAT(last["reference_g"].get<double>(), grams_near(100.00005, ug(0.001)));
@@ -116,37 +117,42 @@ TEST_CASE("a year in the lab: every lifecycle step, and one standing in every ou
   // August: the yearly calibration, certified, then corrected (the room was at 22 degC, not 20).
   const json cal = lab.json_of({"check", "record", "BAL-A", "--procedure", "calibration", "--readings", "cal.csv",
                                 "--temperature", "20C", "--pressure", "1013.25hPa", "--humidity", "50%",
-                                "--air-formula", "oiml-r111", "--on", "2026-08-03", "--by", "T. Okafor"});
+                                "--air-formula", "oiml-r111", "--on", "2026-08-03", "--as", "T. Okafor"});
   CHECK(cal["verdict"] == "pass");
   const std::int64_t cal_run = cal["run_id"].get<std::int64_t>();
-  const json cal_cert = lab.json_of({"certificate", "issue", std::to_string(cal_run), "--by", "M. Haddad"});
+  const json cal_cert = lab.json_of({"certificate", "issue", std::to_string(cal_run), "--as", "M. Haddad"});
   const std::string cal_number = cal_cert["number"].get<std::string>();
   const json corrected = lab.json_of({"check", "correct", std::to_string(cal_run), "--temperature", "22C", "--reason",
-                                      "room temperature transcribed as 20 for 22", "--by", "M. Haddad"});
+                                      "room temperature transcribed as 20 for 22", "--as", "M. Haddad"});
   // OIML R 111-1:2004 E.3-1 at 22 degC, 1013.25 hPa, 50 %: 1.190498 kg/m3 (worked in tests/cli/lifecycle_test.cpp).
   CHECK(corrected["correction"]["environment"]["air_density_kg_m3"].get<double>() == Approx(1.190498).epsilon(2e-6));
   const std::string replacement = corrected["new_certificate"].get<std::string>();
-  // The operator of the corrected run may not approve its replacement; a second person does.
-  r = lab.run({"certificate", "approve", replacement, "--meaning", "reviewed and approved", "--by", "T. Okafor"});
-  CHECK(r.status == 2);
-  lab.ok({"certificate", "approve", replacement, "--meaning", "reviewed and approved", "--by", "M. Haddad"});
+  // The operator of the corrected run may not approve its replacement, nor may the author of the correction; a
+  // third person does (separation of duties by account: exit 4, refused).
+  r = lab.run({"certificate", "approve", replacement, "--meaning", "reviewed and approved", "--as", "T. Okafor"});
+  CHECK(r.status == 4);
+  CHECK_THAT(r.err, Catch::Contains("T. Okafor") && Catch::Contains("neither recorded nor corrected"));
+  r = lab.run({"certificate", "approve", replacement, "--meaning", "reviewed and approved", "--as", "M. Haddad"});
+  CHECK(r.status == 4);
+  CHECK_THAT(r.err, Catch::Contains("M. Haddad") && Catch::Contains("recorded the correction"));
+  lab.ok({"certificate", "approve", replacement, "--meaning", "reviewed and approved", "--as", "E. Marsh"});
 
   // September: BAL-A moves to Room 5; the next certificate says so, the earlier ones keep Room 2.
   lab.ok({"instrument", "update", "BAL-A", "--location", "Room 5", "--from", "2026-09-01", "--reason",
-          "moved to the new weighing room", "--by", "M. Haddad"});
+          "moved to the new weighing room", "--as", "M. Haddad"});
   lab.weekly("BAL-A", "2026-09-07");
-  const json sept = lab.json_of({"certificate", "issue", "LAST", "--by", "M. Haddad"});
+  const json sept = lab.json_of({"certificate", "issue", "LAST", "--as", "M. Haddad"});
   CHECK(sept["instrument"]["location"] == "Room 5");
   CHECK(sept["instrument"]["serial"] == "LW-5521");
-  const json july_cert = lab.json_of({"certificate", "issue", "9", "--by", "M. Haddad"});
+  const json july_cert = lab.json_of({"certificate", "issue", "9", "--as", "M. Haddad"});
   CHECK(july_cert["instrument"]["location"] == "Room 2");
 
   // The check of 2026-09-14 is entered twice; the duplicate, already certified, is voided.
   lab.weekly("BAL-A", "2026-09-14");
   const json dup = lab.weekly("BAL-A", "2026-09-14");
   const std::string dup_run = std::to_string(dup["run_id"].get<std::int64_t>());
-  const json dup_cert = lab.json_of({"certificate", "issue", dup_run, "--by", "M. Haddad"});
-  lab.ok({"check", "void", dup_run, "--reason", "entered twice", "--by", "M. Haddad"});
+  const json dup_cert = lab.json_of({"certificate", "issue", dup_run, "--as", "M. Haddad"});
+  lab.ok({"check", "void", dup_run, "--reason", "entered twice", "--as", "M. Haddad"});
 
   // Certificates as a list, and the queue of drafts.
   const json certs = lab.json_of({"certificate", "list"});
@@ -162,7 +168,7 @@ TEST_CASE("a year in the lab: every lifecycle step, and one standing in every ou
   CHECK(r.out.find(replacement) == std::string::npos);
 
   // October: BAL-B is retired.
-  lab.ok({"instrument", "retire", "BAL-B", "--reason", "replaced by BAL-A", "--by", "M. Haddad"});
+  lab.ok({"instrument", "retire", "BAL-B", "--reason", "replaced by BAL-A", "--as", "M. Haddad"});
 
   // 2026-12-01: BAL-A's last current weekly check is 2026-09-14 (the duplicate is void): overdue since 09-21.
   // Its calibration (the correction of 2026-08-03) is in date until 2027-08-03. BAL-B is retired.
@@ -176,7 +182,8 @@ TEST_CASE("a year in the lab: every lifecycle step, and one standing in every ou
 
   const json summary = lab.json_of({"summary", "--on", on});
   std::map<std::string, std::string> summary_status;
-  for (const auto& i : summary["instruments"]) summary_status[i["id"].get<std::string>()] = i["status"].get<std::string>();
+  for (const auto& i : summary["instruments"])
+    summary_status[i["id"].get<std::string>()] = i["status"].get<std::string>();
   CHECK(summary_status == std::map<std::string, std::string>{{"BAL-A", "overdue"}, {"BAL-B", "retired"}});
 
   for (const auto& [id, expected] : summary_status) {

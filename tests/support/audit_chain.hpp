@@ -14,4 +14,10 @@ struct AuditCheck {
 
 AuditCheck check_audit_chain(const std::filesystem::path& db);
 
+/// The audit records of user accounts (their rows, passwords, events, settings and sessions): what the test helper's
+/// log-in adds, so that a test can still count the lab's own records exactly.
+long long account_records(const std::filesystem::path& db);
+/// The signed checkpoints that cover account records only (the helper's account commands, each signed like any).
+long long account_checkpoints(const std::filesystem::path& db);
+
 }  // namespace plumb::test

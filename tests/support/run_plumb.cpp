@@ -1,11 +1,18 @@
 #include "support/run_plumb.hpp"
 
+#include <SQLiteCpp/Database.h>
+#include <SQLiteCpp/Statement.h>
 #include <fcntl.h>
 #include <signal.h>
 #include <sys/ioctl.h>
+#include <sys/stat.h>
 #include <sys/wait.h>
 #include <unistd.h>
 
+#include <algorithm>
+#include <cstdint>
+#include <cstdio>
+#include <optional>
 #include <tuple>
 
 #include <fstream>
@@ -31,7 +38,142 @@ std::string slurp(const std::filesystem::path& p) {
   return s.str();
 }
 
+constexpr const char* default_member = "Lab Tester";
+constexpr const char* admin_name = "Test Administrator";
+constexpr const char* admin_login = "test-admin";
+constexpr const char* first_password = "first-password-for-plumb";
+
+std::filesystem::path password_file(const std::filesystem::path& cwd, const char* name, const char* password) {
+  const auto p = cwd / name;
+  if (!std::filesystem::exists(p)) {
+    std::ofstream(p) << password << "\n";
+    ::chmod(p.c_str(), 0600);
+  }
+  return p;
+}
+
+/// The shell command that runs plumb in `cwd` exactly with `args`, without the helper's additions: test-only fast
+/// password hashing and a session folder of the scratch directory's own.
+std::string raw_shell_command(const std::vector<std::string>& args, const std::filesystem::path& cwd) {
+  std::string cmd = "cd " + quote(cwd.string()) +
+                    " && env -u PLUMB_DB -u PLUMB_LAYOUT PLUMB_TEST_ONLY_FAST_PASSWORD_HASHING=1 XDG_STATE_HOME=" +
+                    quote((cwd / ".plumb-state").string()) + " " + quote(plumb_binary().string());
+  for (const auto& a : args) cmd += " " + quote(a);
+  return cmd;
+}
+
+/// The command as plumb would run it, without the helper's additions.
+RunResult run_raw(const std::vector<std::string>& args, const std::filesystem::path& cwd, const std::string& input) {
+  const auto in = cwd / ".stdin", out = cwd / ".stdout", err = cwd / ".stderr";
+  std::ofstream(in, std::ios::binary) << input;
+  std::string cmd = raw_shell_command(args, cwd);
+  cmd += " <" + quote(in.string()) + " >" + quote(out.string()) + " 2>" + quote(err.string());
+  const int raw = std::system(cmd.c_str());
+  RunResult r;
+  r.status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
+  r.out = slurp(out);
+  r.err = slurp(err);
+  return r;
+}
+
+struct Plan {
+  std::vector<std::string> args;  ///< without the --as pairs
+  std::optional<std::string> member;
+  std::optional<std::filesystem::path> db;
+  std::string command;  ///< the first word after the global options
+  bool explicit_login = false;
+};
+
+Plan plan_of(const std::vector<std::string>& args) {
+  Plan p;
+  for (std::size_t i = 0; i < args.size(); ++i) {
+    if (args[i] == "--as" && i + 1 < args.size()) {
+      p.member = args[++i];
+      continue;
+    }
+    p.args.push_back(args[i]);
+  }
+  std::size_t i = 0;
+  for (; i < p.args.size() && p.args[i].rfind("--", 0) == 0; ++i) {
+    const auto& a = p.args[i];
+    if (a == "--user" || a == "--password-file" || a == "--password-stdin") p.explicit_login = true;
+    if (a == "--db" && i + 1 < p.args.size())
+      p.db = p.args[++i];
+    else if (a.rfind("--db=", 0) == 0)
+      p.db = a.substr(5);
+    else if ((a == "--user" || a == "--password-file") && i + 1 < p.args.size())
+      ++i;
+  }
+  if (i < p.args.size()) p.command = p.args[i];
+  return p;
+}
+
+bool has_user(const std::filesystem::path& db, const std::string& login) {
+  try {
+    SQLite::Database d(db.string(), SQLite::OPEN_READONLY);
+    if (!d.tableExists("users")) return false;
+    SQLite::Statement q(d, "SELECT count(*) FROM users WHERE login = ?");
+    q.bind(1, login);
+    return q.executeStep() && q.getColumn(0).getInt() > 0;
+  } catch (const std::exception&) {
+    return false;
+  }
+}
+
+/// Creates the member `name` in `db` unless it is there; false when it cannot (a database without the test
+/// administrator, e.g. one from before user accounts).
+bool ensure_member(const std::filesystem::path& db, const std::string& name, const std::filesystem::path& cwd) {
+  const std::string login = name == admin_name ? admin_login : test_login(name);
+  if (has_user(db, login)) return true;
+  const auto pw = password_file(cwd, ".plumb-test-password", test_password);
+  // `plumb demo` makes its own administrator, whose demo-only password it prints.
+  std::string admin = admin_login, admin_pw = pw.string();
+  if (!has_user(db, admin_login)) {
+    if (!has_user(db, "demo-admin")) return false;
+    admin = "demo-admin";
+    admin_pw = password_file(cwd, ".plumb-demo-admin-password", "demo-only-admin-pass").string();
+  }
+  const auto first = password_file(cwd, ".plumb-test-first-password", first_password);
+  const auto add = run_raw({"--db", db.string(), "--user", admin, "--password-file", admin_pw, "user", "add", login,
+                            "--name", name, "--role", "technician", "--role", "reviewer", "--role", "quality-manager",
+                            "--new-password-file", first.string()},
+                           cwd, "");
+  if (add.status != 0) throw std::runtime_error("test member \"" + name + "\" could not be added: " + add.err);
+  const auto change = run_raw({"--db", db.string(), "--user", login, "--password-file", first.string(), "user",
+                               "password", "--new-password-file", pw.string()},
+                              cwd, "");
+  if (change.status != 0)
+    throw std::runtime_error("test member \"" + name + "\" could not set its password: " + change.err);
+  return true;
+}
+
 }  // namespace
+
+std::string test_login(const std::string& full_name) {
+  std::string slug;
+  for (unsigned char c : full_name) {
+    if ((c >= 'a' && c <= 'z') || (c >= '0' && c <= '9'))
+      slug += static_cast<char>(c);
+    else if (c >= 'A' && c <= 'Z')
+      slug += static_cast<char>(c - 'A' + 'a');
+    else if (!slug.empty() && slug.back() != '-')
+      slug += '-';
+  }
+  while (!slug.empty() && slug.back() == '-') slug.pop_back();
+  if (slug.size() > 40) slug.resize(40);
+  std::uint32_t h = 2166136261u;  // FNV-1a: two names with the same letters get different ids
+  for (unsigned char c : full_name) h = (h ^ c) * 16777619u;
+  char hex[9];
+  std::snprintf(hex, sizeof hex, "%08x", h);
+  return (slug.empty() ? "member" : slug) + "-" + hex;
+}
+
+void prepare_login(const std::vector<std::string>& args, const std::filesystem::path& cwd) {
+  const Plan p = plan_of(args);
+  if (p.explicit_login || !p.db || p.command == "init") return;
+  const auto db = p.db->is_absolute() ? *p.db : cwd / *p.db;
+  if (std::filesystem::exists(db)) ensure_member(db, p.member.value_or(default_member), cwd);
+}
 
 ScratchDir::ScratchDir() {
   std::random_device rd;
@@ -48,33 +190,51 @@ void ScratchDir::write(const std::string& name, const std::string& text) const {
   std::ofstream(path_ / name, std::ios::binary) << text;
 }
 
-std::string plumb_shell_command(const std::vector<std::string>& args) {
-  std::string cmd = "env -u PLUMB_DB -u PLUMB_LAYOUT " + quote(plumb_binary().string());
-  for (const auto& a : args) cmd += " " + quote(a);
-  return cmd;
+std::vector<std::string> logged_in_args(const std::vector<std::string>& args, const std::filesystem::path& cwd) {
+  const Plan p = plan_of(args);
+  if (p.explicit_login || !p.db) return p.args;
+  const auto pw = password_file(cwd, ".plumb-test-password", test_password).string();
+  const auto db = p.db->is_absolute() ? *p.db : cwd / *p.db;
+  if (p.command == "init") {
+    std::vector<std::string> full = {"--password-file", pw};
+    full.insert(full.end(), p.args.begin(), p.args.end());
+    if (std::find(p.args.begin(), p.args.end(), "--admin") == p.args.end())
+      full.insert(full.end(), {"--admin", admin_login, "--admin-name", admin_name});
+    return full;
+  }
+  const std::string member = p.member.value_or(default_member);
+  if (!std::filesystem::exists(db) || !ensure_member(db, member, cwd)) return p.args;
+  std::vector<std::string> full = {"--user", member == admin_name ? admin_login : test_login(member), "--password-file",
+                                   pw};
+  full.insert(full.end(), p.args.begin(), p.args.end());
+  return full;
+}
+
+std::vector<std::string> login_options(const std::filesystem::path& db, const std::string& member,
+                                       const std::filesystem::path& cwd) {
+  if (!ensure_member(db, member, cwd)) return {};
+  return {"--user", member == admin_name ? admin_login : test_login(member), "--password-file",
+          password_file(cwd, ".plumb-test-password", test_password).string()};
+}
+
+std::string plumb_shell_command(const std::vector<std::string>& args, const std::filesystem::path& cwd) {
+  return raw_shell_command(logged_in_args(args, cwd), cwd);
 }
 
 RunResult run_plumb(const std::vector<std::string>& args, const std::filesystem::path& cwd, const std::string& input) {
-  const auto in = cwd / ".stdin", out = cwd / ".stdout", err = cwd / ".stderr";
-  std::ofstream(in, std::ios::binary) << input;
-  std::string cmd = "cd " + quote(cwd.string()) + " && " + plumb_shell_command(args);
-  cmd += " <" + quote(in.string()) + " >" + quote(out.string()) + " 2>" + quote(err.string());
-  const int raw = std::system(cmd.c_str());
-  RunResult r;
-  r.status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
-  r.out = slurp(out);
-  r.err = slurp(err);
-  return r;
+  return run_raw(logged_in_args(args, cwd), cwd, input);
 }
 
 PlumbProcess::PlumbProcess(const std::vector<std::string>& args, const std::filesystem::path& cwd,
                            const std::string& input, int stdin_fd, int stdout_fd, bool terminal)
     : cwd_(cwd) {
+  // The log-in first: making a member's account runs plumb, which would replace the .stdin written below.
+  const auto full = logged_in_args(args, cwd);
   std::ofstream(cwd / ".stdin", std::ios::binary) << input;
   // Everything the child needs is built before fork: after it, only async-signal-safe calls until exec.
   const std::string binary = plumb_binary().string();
   std::vector<std::string> argv_text{binary};
-  argv_text.insert(argv_text.end(), args.begin(), args.end());
+  argv_text.insert(argv_text.end(), full.begin(), full.end());
   std::vector<char*> argv;
   for (auto& a : argv_text) argv.push_back(a.data());
   argv.push_back(nullptr);
@@ -82,8 +242,12 @@ PlumbProcess::PlumbProcess(const std::vector<std::string>& args, const std::file
   for (char** e = environ; *e; ++e) {
     const std::string_view entry(*e);
     if (entry.rfind("PLUMB_DB=", 0) == 0 || entry.rfind("PLUMB_LAYOUT=", 0) == 0) continue;
+    if (entry.rfind("PLUMB_TEST_ONLY_FAST_PASSWORD_HASHING=", 0) == 0 || entry.rfind("XDG_STATE_HOME=", 0) == 0)
+      continue;
     env_text.emplace_back(entry);
   }
+  env_text.emplace_back("PLUMB_TEST_ONLY_FAST_PASSWORD_HASHING=1");
+  env_text.emplace_back("XDG_STATE_HOME=" + (cwd / ".plumb-state").string());
   std::vector<char*> envp;
   for (auto& e : env_text) envp.push_back(e.data());
   envp.push_back(nullptr);

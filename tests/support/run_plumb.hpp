@@ -28,16 +28,40 @@ class ScratchDir {
 };
 
 /// Runs `plumb args...` with the working directory `cwd`; `input` goes to standard input.
+///
+/// Log-in for tests, in this one place: every command on an existing database (`--db PATH`) runs authenticated
+/// as a lab member, `--user LOGIN --password-file FILE` added in front (the file, mode 0600, is in `cwd`). `"--as",
+/// "NAME"` anywhere in `args` (taken out before plumb sees it) chooses the member by full name; without it the
+/// member is "Lab Tester". A member is created on first use, by the test administrator, with the roles technician,
+/// reviewer and quality manager, and its first password changed as plumb requires; "Test Administrator" is the
+/// administrator itself. `init` without `--admin` gets `--admin test-admin --admin-name "Test Administrator"`.
+/// Arguments that already hold --user, --password-file or --password-stdin are left alone (tests of log-in).
+/// Every run has PLUMB_TEST_ONLY_FAST_PASSWORD_HASHING=1 (databases created by tests hash with libsodium's minimum
+/// limits) and XDG_STATE_HOME=<cwd>/.plumb-state (session files stay in the scratch folder).
 RunResult run_plumb(const std::vector<std::string>& args, const std::filesystem::path& cwd,
                     const std::string& input = "");
 
-/// The shell command that runs `plumb args...` as run_plumb does (for a terminal multiplexer to run it).
-std::string plumb_shell_command(const std::vector<std::string>& args);
+/// The member of a `--as` name (or "Lab Tester"), created in the database of `args` if missing: what run_plumb
+/// does before running, for a caller that must compare the database before and after the command itself.
+void prepare_login(const std::vector<std::string>& args, const std::filesystem::path& cwd);
+
+/// The options that log `member` in to `db` (created there if missing), for a script that starts plumb itself:
+/// {"--user", LOGIN, "--password-file", FILE}; empty when `db` has no test administrator to create it with.
+std::vector<std::string> login_options(const std::filesystem::path& db, const std::string& member,
+                                       const std::filesystem::path& cwd);
+
+/// The user id (login) a test member's full name gets: "A. Technician" -> "a-technician-1b2c3d4e".
+std::string test_login(const std::string& full_name);
+/// The password of every test member and of the test administrator (in `cwd`/.plumb-test-password).
+inline constexpr const char* test_password = "test-password-for-plumb";
+/// The shell command that runs `plumb args...` in `cwd` as run_plumb does, logged in the same way (for a terminal
+/// multiplexer to run it).
+std::string plumb_shell_command(const std::vector<std::string>& args, const std::filesystem::path& cwd);
 
 /// A plumb started and left running (a capture the test feeds, interrupts or cuts off), with the working directory
-/// `cwd`. Each of stdin / stdout / stderr is the descriptor given, or a file in `cwd` (.stdin holding `input`,
-/// .stdout, .stderr). With `terminal`, the child starts a session whose controlling terminal is `stdin_fd` (a
-/// pseudo-terminal's slave), so Ctrl-C typed on it interrupts plumb as at a real terminal.
+/// `cwd`, logged in as run_plumb does. Each of stdin / stdout / stderr is the descriptor given, or a file in `cwd`
+/// (.stdin holding `input`, .stdout, .stderr). With `terminal`, the child starts a session whose controlling terminal
+/// is `stdin_fd` (a pseudo-terminal's slave), so Ctrl-C typed on it interrupts plumb as at a real terminal.
 class PlumbProcess {
  public:
   PlumbProcess(const std::vector<std::string>& args, const std::filesystem::path& cwd, const std::string& input = "",

@@ -1,25 +1,26 @@
 // `audit verify` against a tamperer who goes around plumb: rows changed, added or removed directly with the
 // sqlite3 library after dropping the append-only triggers, and audit records deleted, reordered or altered.
 // Every tamper runs inside a savepoint that is rolled back, so one database serves all of them.
-#include <catch2/catch.hpp>
 #include <sqlite3.h>
+#include <catch2/catch.hpp>
 
 #include <algorithm>
 #include <map>
 #include <random>
 #include <set>
 
-#include "app/certificates/review.hpp"
 #include "app/certificates/issue.hpp"
-#include "app/runs/correct.hpp"
-#include "app/weekly_check/record.hpp"
-#include "app/registry/weights.hpp"
+#include "app/certificates/review.hpp"
 #include "app/registry/balances.hpp"
 #include "app/registry/lab.hpp"
 #include "app/registry/service_status.hpp"
+#include "app/registry/weights.hpp"
+#include "app/runs/correct.hpp"
+#include "app/weekly_check/record.hpp"
 #include "store/audit_trail.hpp"
-#include "support/run_plumb.hpp"
 #include "support/registry_inputs.hpp"
+#include "support/run_plumb.hpp"
+#include "support/test_accounts.hpp"
 
 using namespace plumb;
 using Kind = store::AuditProblem::Kind;
@@ -32,8 +33,11 @@ const std::string good_readings =
 /// A small lab with a row in every table plumb audits: lab, weights and a recalibration, balances, runs with
 /// readings, certificates, an approval, a correction (superseded run and certificate), a retirement.
 void build_lab(store::Database& db) {
-  const store::Actor tech{"A. Technician", "tech"}, manager{"Q. Manager", "qm"};
-  app::init_lab(db, manager, "Example Analytical Lab");
+  const store::Actor tech{"A. Technician", "tech"};
+  app::init_lab(db, {"Q. Manager", "qm"}, "Example Analytical Lab");
+  // Approving and correcting are signatures: the manager has an account (and so the accounts' tables have rows).
+  test::TestAccounts accounts(db);
+  const store::Actor manager = accounts.add("qman", "Q. Manager", {"quality manager"});
   app::WeightInput w = test::e2_weight("W100", "100g", "RC-2291", "2026-03-02", "2027-03-02");
   w.correction = "0.03mg";
   app::add_weight(db, manager, w);
@@ -62,8 +66,9 @@ void build_lab(store::Database& db) {
   app::CorrectionInput fix;
   fix.run = "2";
   fix.reason = "reading 10 was mistyped";
-  fix.readings_csv = "reading\n100.0003\n100.0001\n100.0002\n100.0004\n100.0002\n100.0003\n100.0001\n100.0002\n"
-                     "100.0003\n100.0003\n";
+  fix.readings_csv =
+      "reading\n100.0003\n100.0001\n100.0002\n100.0004\n100.0002\n100.0003\n100.0001\n100.0002\n"
+      "100.0003\n100.0003\n";
   fix.readings_source = "fixed.csv";
   app::correct_check(db, manager, fix);
   app::change_service_status(db, manager, "instrument", "BAL-B", "retired", "replaced");
@@ -95,7 +100,8 @@ struct Column {
 std::vector<Column> columns_of(SQLite::Database& db, const std::string& table) {
   std::vector<Column> out;
   SQLite::Statement q(db, "PRAGMA table_info(" + table + ")");
-  while (q.executeStep()) out.push_back({q.getColumn(1).getString(), q.getColumn(2).getString(), q.getColumn(5).getInt()});
+  while (q.executeStep())
+    out.push_back({q.getColumn(1).getString(), q.getColumn(2).getString(), q.getColumn(5).getInt()});
   return out;
 }
 
@@ -130,7 +136,9 @@ Forged forge(const SQLite::Column& old, const std::string& type, std::mt19937& r
   return f;
 }
 
-std::string text_of(const SQLite::Column& c) { return c.isInteger() ? std::to_string(c.getInt64()) : c.getString(); }
+std::string text_of(const SQLite::Column& c) {
+  return c.isInteger() ? std::to_string(c.getInt64()) : c.getString();
+}
 
 std::vector<std::string> audited_tables(SQLite::Database& db) {
   std::vector<std::string> out;
@@ -141,7 +149,9 @@ std::vector<std::string> audited_tables(SQLite::Database& db) {
   return out;
 }
 
-std::int64_t count(SQLite::Database& db, const std::string& sql) { return db.execAndGet(sql).getInt64(); }
+std::int64_t count(SQLite::Database& db, const std::string& sql) {
+  return db.execAndGet(sql).getInt64();
+}
 
 }  // namespace
 
@@ -214,8 +224,10 @@ TEST_CASE("audit verify catches one changed field of any row of any table and na
     sqlite3_stmt* update = nullptr;
     const std::string text = "UPDATE " + table + " SET " + col.name + " = ? WHERE rowid = ?";
     REQUIRE(sqlite3_prepare_v2(sql.getHandle(), text.c_str(), -1, &update, nullptr) == SQLITE_OK);
-    if (f.is_int) sqlite3_bind_int64(update, 1, f.i);
-    else sqlite3_bind_text(update, 1, f.s.c_str(), static_cast<int>(f.s.size()), SQLITE_TRANSIENT);
+    if (f.is_int)
+      sqlite3_bind_int64(update, 1, f.i);
+    else
+      sqlite3_bind_text(update, 1, f.s.c_str(), static_cast<int>(f.s.size()), SQLITE_TRANSIENT);
     sqlite3_bind_int64(update, 2, rowid);
     const int rc = sqlite3_step(update);
     sqlite3_finalize(update);
@@ -240,8 +252,8 @@ TEST_CASE("audit verify catches one changed field of any row of any table and na
   }
   CHECK(caught == 120);
   // Each of plumb's own audited tables was tampered with at least once (others' tables may be empty).
-  for (const char* t : {"lab", "weights", "weight_calibrations", "instruments", "balances", "check_runs",
-                        "run_weights", "readings", "certificates", "certificate_events", "service_events"}) {
+  for (const char* t : {"lab", "weights", "weight_calibrations", "instruments", "balances", "check_runs", "run_weights",
+                        "readings", "certificates", "certificate_events", "service_events"}) {
     INFO(t);
     CHECK(caught_per_table[t] > 0);
   }
@@ -274,8 +286,10 @@ TEST_CASE("audit verify catches deleted, reordered, altered and forged audit rec
     CHECK_THAT(v.problems.front().message, Catch::Contains("audit record 7 is missing"));
   }
   SECTION("the last audit record deleted: its row is left undescribed") {
-    const std::string table = sql.execAndGet("SELECT table_name FROM audit_log WHERE seq = " + std::to_string(last)).getString();
-    const std::string key = sql.execAndGet("SELECT row_key FROM audit_log WHERE seq = " + std::to_string(last)).getString();
+    const std::string table =
+        sql.execAndGet("SELECT table_name FROM audit_log WHERE seq = " + std::to_string(last)).getString();
+    const std::string key =
+        sql.execAndGet("SELECT row_key FROM audit_log WHERE seq = " + std::to_string(last)).getString();
     const auto v = tampered("audit_log", "DELETE FROM audit_log WHERE seq = " + std::to_string(last));
     // The last signed checkpoint still counts the deleted record (doc/audit-trail.md, "Checkpoints") ...
     CHECK(v.problems.front().kind == Kind::checkpoint);
@@ -286,9 +300,10 @@ TEST_CASE("audit verify catches deleted, reordered, altered and forged audit rec
     }));
   }
   SECTION("two audit records reordered") {
-    const auto v = tampered("audit_log", "UPDATE audit_log SET seq = -1 WHERE seq = 5; "
-                                         "UPDATE audit_log SET seq = 5 WHERE seq = 9; "
-                                         "UPDATE audit_log SET seq = 9 WHERE seq = -1");
+    const auto v = tampered("audit_log",
+                            "UPDATE audit_log SET seq = -1 WHERE seq = 5; "
+                            "UPDATE audit_log SET seq = 5 WHERE seq = 9; "
+                            "UPDATE audit_log SET seq = 9 WHERE seq = -1");
     CHECK(v.problems.front().kind == Kind::broken_link);
     CHECK(v.problems.front().seq == 5);
     CHECK_THAT(v.problems.front().message, Catch::Contains("reordered"));
@@ -300,11 +315,12 @@ TEST_CASE("audit verify catches deleted, reordered, altered and forged audit rec
   }
   SECTION("a row and its audit record changed together, the hash left alone") {
     // Reading 2 of run 1 is recorded inside run 1's grouped record as [run_id,seq,series,text,...].
-    const auto v = tampered("readings", "DROP TRIGGER audit_log_no_update; "
-                                        "UPDATE readings SET text = '100.0009' WHERE run_id = 1 AND seq = 2; "
-                                        "UPDATE audit_log SET after_json = replace(after_json, "
-                                        "'[1,2,\"\",\"100.0001\"', '[1,2,\"\",\"100.0009\"') "
-                                        "WHERE table_name = 'check_runs' AND row_key = 'id=1'");
+    const auto v = tampered("readings",
+                            "DROP TRIGGER audit_log_no_update; "
+                            "UPDATE readings SET text = '100.0009' WHERE run_id = 1 AND seq = 2; "
+                            "UPDATE audit_log SET after_json = replace(after_json, "
+                            "'[1,2,\"\",\"100.0001\"', '[1,2,\"\",\"100.0009\"') "
+                            "WHERE table_name = 'check_runs' AND row_key = 'id=1'");
     CHECK(v.problems.front().kind == Kind::altered_record);
     CHECK(v.problems.front().table == "check_runs");
     CHECK(v.problems.front().key == "id=1");
@@ -314,8 +330,9 @@ TEST_CASE("audit verify catches deleted, reordered, altered and forged audit rec
                         [](const store::AuditProblem& p) { return p.kind != Kind::schema; }) == 1);
   }
   SECTION("a row inserted behind plumb's back") {
-    const auto v = tampered("readings", "INSERT INTO readings (run_id, seq, series, text, unit, units, scale) "
-                                        "VALUES (1, 11, '', '100.0002', 'g', 1000002, 4)");
+    const auto v = tampered("readings",
+                            "INSERT INTO readings (run_id, seq, series, text, unit, units, scale) "
+                            "VALUES (1, 11, '', '100.0002', 'g', 1000002, 4)");
     CHECK(v.problems.front().kind == Kind::unaudited_row);
     CHECK(v.problems.front().table == "readings");
     CHECK(v.problems.front().key == "run_id=1,seq=11");
@@ -342,23 +359,27 @@ void append_per_row_record(SQLite::Database& sql, const std::string& table, cons
   nlohmann::json after = nlohmann::json::object();
   for (int i = 0; i < row.getColumnCount(); ++i) {
     const SQLite::Column c = row.getColumn(i);
-    if (c.isNull()) after[c.getName()] = nullptr;
-    else if (c.isInteger()) after[c.getName()] = c.getInt64();
-    else after[c.getName()] = c.getString();
+    if (c.isNull())
+      after[c.getName()] = nullptr;
+    else if (c.isInteger())
+      after[c.getName()] = c.getInt64();
+    else
+      after[c.getName()] = c.getString();
   }
   SQLite::Statement tail(sql, "SELECT seq, hash FROM audit_log ORDER BY seq DESC LIMIT 1");
   REQUIRE(tail.executeStep());
   const std::int64_t seq = tail.getColumn(0).getInt64() + 1;
   const std::string prev = tail.getColumn(1).getString();
   tail.reset();
-  nlohmann::json record = {{"seq", seq},           {"at", "2026-06-01T09:00:00Z"}, {"os_user", "tech"},
-                           {"actor", "A. Tech"},   {"action", "insert"},           {"table_name", table},
-                           {"row_key", key},       {"before_json", nullptr},       {"after_json", after.dump()},
+  nlohmann::json record = {{"seq", seq},         {"at", "2026-06-01T09:00:00Z"}, {"os_user", "tech"},
+                           {"actor", "A. Tech"}, {"action", "insert"},           {"table_name", table},
+                           {"row_key", key},     {"before_json", nullptr},       {"after_json", after.dump()},
                            {"reason", nullptr}};
   const std::string hash = store::sha256_hex(prev + "\n" + record.dump());
-  SQLite::Statement insert(sql, "INSERT INTO audit_log (seq, at, os_user, actor, action, table_name, row_key, "
-                                "before_json, after_json, reason, prev_hash, hash) "
-                                "VALUES (?, ?, ?, ?, 'insert', ?, ?, NULL, ?, NULL, ?, ?)");
+  SQLite::Statement insert(sql,
+                           "INSERT INTO audit_log (seq, at, os_user, actor, action, table_name, row_key, "
+                           "before_json, after_json, reason, prev_hash, hash) "
+                           "VALUES (?, ?, ?, ?, 'insert', ?, ?, NULL, ?, NULL, ?, ?)");
   insert.bind(1, seq);
   insert.bind(2, "2026-06-01T09:00:00Z");
   insert.bind(3, "tech");
@@ -383,14 +404,15 @@ TEST_CASE("a trail written one record per row, as before runs were grouped, stil
   build_lab(db);
   SQLite::Database& sql = db.sql();
   const std::int64_t run = count(sql, "SELECT max(id) FROM check_runs") + 1;
-  const std::string results = R"({"n":10,"mean_g":100.00023,"verdict":"pass","readability_statement":")" +
-                              std::string(300, 'x') + R"("})";
+  const std::string results =
+      R"({"n":10,"mean_g":100.00023,"verdict":"pass","readability_statement":")" + std::string(300, 'x') + R"("})";
   REQUIRE(results.size() > store::long_text_bytes);
   exec(sql, "BEGIN");
-  SQLite::Statement run_row(sql, "INSERT INTO check_runs (id, instrument_id, procedure, performed_on, operator, "
-                                 "results_json, verdict, next_due, recorded_at, os_user) VALUES (?, 'BAL-A', "
-                                 "'repeatability', '2026-05-31', 'A. Tech', ?, 'pass', '2026-06-07', "
-                                 "'2026-06-01T09:00:00Z', 'tech')");
+  SQLite::Statement run_row(sql,
+                            "INSERT INTO check_runs (id, instrument_id, procedure, performed_on, operator, "
+                            "results_json, verdict, next_due, recorded_at, os_user) VALUES (?, 'BAL-A', "
+                            "'repeatability', '2026-05-31', 'A. Tech', ?, 'pass', '2026-06-07', "
+                            "'2026-06-01T09:00:00Z', 'tech')");
   run_row.bind(1, run);
   run_row.bind(2, results);
   run_row.exec();
@@ -434,15 +456,17 @@ TEST_CASE("a trail written one record per row, as before runs were grouped, stil
     REQUIRE_FALSE(result.ok());
     return result.problems.front();
   };
-  const auto reading = tampered("readings", "UPDATE readings SET text = '100.0009' WHERE run_id = " +
-                                                std::to_string(run) + " AND seq = 3");
+  const auto reading = tampered(
+      "readings", "UPDATE readings SET text = '100.0009' WHERE run_id = " + std::to_string(run) + " AND seq = 3");
   CHECK(reading.kind == Kind::field_mismatch);
   CHECK(reading.table == "readings");
   CHECK(reading.key == "run_id=" + std::to_string(run) + ",seq=3");
   CHECK(reading.field == "text");
   // The long results text was recorded in full: one changed character is caught against the copy.
-  const auto stored = tampered("check_runs", "UPDATE check_runs SET results_json = replace(results_json, "
-                                             "'100.00023', '100.00024') WHERE id = " + std::to_string(run));
+  const auto stored = tampered("check_runs",
+                               "UPDATE check_runs SET results_json = replace(results_json, "
+                               "'100.00023', '100.00024') WHERE id = " +
+                                   std::to_string(run));
   CHECK(stored.kind == Kind::field_mismatch);
   CHECK(stored.key == "id=" + std::to_string(run));
   CHECK(stored.field == "results_json");

@@ -4,13 +4,19 @@
 #include <fmt/format.h>
 
 #include <cctype>
+#include <string>
+#include <vector>
 
 #include "app/certificates/resolve.hpp"
 #include "app/certificates/state.hpp"
+#include "app/people/account_state.hpp"
+#include "app/people/permissions.hpp"
 #include "core/errors.hpp"
 #include "store/checkpoints.hpp"
 #include "store/repository.hpp"
+#include "store/signatures.hpp"
 #include "store/status_events.hpp"
+#include "store/users.hpp"
 
 namespace plumb::app {
 namespace {
@@ -32,10 +38,45 @@ std::string normalized(const std::string& name) {
   return out;
 }
 
+/// Separation of duties, by user id: nobody approves the certificate of a run they recorded, nor of a run that
+/// corrects (or was corrected into) one they recorded or corrected. Each run of the correction chain was written by
+/// one account; a run from before user accounts has none, and then its operator's name is compared as before.
+void require_separation_of_duties(store::Database& db, std::int64_t signer, const std::string& signer_name,
+                                  const store::RunRecord& run, const std::string& certificate) {
+  std::optional<store::RunRecord> r = run;
+  while (r) {
+    const auto writer = store::writer_of(db.sql(), "check_runs", fmt::format("id={}", r->id));
+    if (writer && *writer == signer)
+      throw AccessError(
+          fmt::format("{} (user {}) {} check run {} of certificate {}; a certificate must be approved by "
+                      "someone who neither recorded nor corrected its run.",
+                      signer_name, signer, r->supersedes ? "recorded the correction" : "recorded", r->id, certificate));
+    if (!writer && same_person(signer_name, r->operator_name))
+      throw AccessError(
+          fmt::format("{} performed check run {} of certificate {}; a certificate must be approved by "
+                      "someone other than its operator.",
+                      signer_name, r->id, certificate));
+    r = r->supersedes ? store::find_run(db.sql(), *r->supersedes) : std::nullopt;
+  }
+}
+
 }  // namespace
 
 bool same_person(const std::string& a, const std::string& b) {
   return normalized(a) == normalized(b);
+}
+
+/// The signer's function on the certificate: the roles, held when the signature was made, that allowed it.
+std::string signer_function(store::Database& db, const store::SignatureRecord& sig) {
+  std::vector<store::AccountEvent> then;
+  for (auto& e : store::account_events(db.sql(), sig.user_id))
+    if (e.at <= sig.signed_at) then.push_back(std::move(e));
+  const AccountState state = account_state(then);
+  std::vector<std::string> names;
+  if (const Permission* p = permission_of("certificate approve"))
+    for (Role r : state.roles)
+      if (p->roles.count(r)) names.emplace_back(role_name(r));
+  return names.empty() ? std::string("signer") : fmt::format("{}", fmt::join(names, " and "));
 }
 
 json certificate_status(store::Database& db, const store::CertificateRecord& c) {
@@ -62,6 +103,14 @@ json certificate_status(store::Database& db, const store::CertificateRecord& c) 
       if (auto gone = store::certificate_event(db.sql(), old->id, "superseded"))
         status["replaces_reason"] = gone->reason;
     }
+  status["signatures"] = json::array();
+  for (const auto& sig : store::signatures_of(db.sql(), "certificates", fmt::format("id={}", c.id)))
+    status["signatures"].push_back({{"name", sig.printed_name},
+                                    {"function", signer_function(db, sig)},
+                                    {"user_id", sig.user_id},
+                                    {"at", sig.signed_at},
+                                    {"meaning", sig.meaning},
+                                    {"signed_sha256", sig.signed_sha256}});
   if (auto w = store::certificate_withdrawal(db.sql(), c.id))
     status["withdrawn"] = {{"at", w->recorded_at}, {"recorded_by", w->by_name}, {"reason", w->reason}};
   status["state"] = std::string(state_key(certificate_state(
@@ -88,15 +137,9 @@ store::CertificateRecord approve_certificate(store::Database& db, const store::A
                                              const std::string& selector, const std::string& meaning) {
   if (normalized(meaning).empty())
     throw InputError("--meaning must state what the signature means, e.g. \"reviewed and approved\".");
-  if (normalized(actor.name).empty()) throw InputError("--by must name the person approving the certificate.");
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   store::CertificateRecord cert = resolve_certificate(db, selector);
   const store::RunRecord run = *store::find_run(db.sql(), cert.run_id);
-  if (same_person(actor.name, run.operator_name))
-    throw InputError(
-        fmt::format("--by \"{}\" performed check run {} of certificate {}; a certificate must be "
-                    "approved by someone other than its operator.",
-                    actor.name, run.id, cert.number));
   if (auto done = store::certificate_event(db.sql(), cert.id, "approved"))
     throw InputError(
         fmt::format("certificate {} was already approved by {} on {}; an approved certificate cannot "
@@ -112,6 +155,8 @@ store::CertificateRecord approve_certificate(store::Database& db, const store::A
     throw InputError(fmt::format("certificate {} was superseded by {} ({}); review that one instead.", cert.number,
                                  by ? by->number : "another certificate", gone->reason));
   }
+  if (!actor.user_id) throw AccessError("approving a certificate is a signature: it needs an authenticated user.");
+  require_separation_of_duties(db, *actor.user_id, actor.name, run, cert.number);
   store::Recorder rec(db.sql(), actor);
   store::CertificateEvent e;
   e.certificate_id = cert.id;
@@ -119,6 +164,7 @@ store::CertificateRecord approve_certificate(store::Database& db, const store::A
   e.by_name = actor.name;
   e.meaning = meaning;
   store::add_certificate_event(rec, e);
+  store::add_signature(rec, db.sql(), "certificates", fmt::format("id={}", cert.id), meaning);
   rec.commit(tx);
   return cert;
 }

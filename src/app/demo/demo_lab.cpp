@@ -1,16 +1,21 @@
 #include "app/demo/demo_lab.hpp"
 
+#include <SQLiteCpp/Transaction.h>
 #include <fmt/format.h>
 
+#include <cctype>
 #include <cmath>
+#include <map>
 #include <nlohmann/json.hpp>
 #include <random>
 
 #include "app/calibration/record.hpp"
 #include "app/calibration/settings.hpp"
 #include "app/certificates/issue.hpp"
+#include "app/people/accounts.hpp"
 #include "app/pipette/record.hpp"
 #include "app/pipette/registry.hpp"
+#include "app/records/lab_key.hpp"
 #include "app/registry/balances.hpp"
 #include "app/registry/lab.hpp"
 #include "app/registry/weights.hpp"
@@ -21,6 +26,7 @@
 #include "metrology/gravimetric.hpp"
 #include "store/embedded.hpp"
 #include "store/repository.hpp"
+#include "store/users.hpp"
 
 namespace plumb::app {
 namespace {
@@ -29,7 +35,7 @@ using nlohmann::json;
 
 // Box-Muller on mt19937_64's raw output: unlike std::normal_distribution, the same on every platform.
 class Gauss {
-public:
+ public:
   explicit Gauss(std::uint64_t seed) : engine_(seed) {}
   double next() {
     const double u1 = (static_cast<double>(engine_() >> 11) + 1.0) * 0x1.0p-53;
@@ -38,7 +44,7 @@ public:
   }
   std::uint64_t raw() { return engine_(); }
 
-private:
+ private:
   std::mt19937_64 engine_;
 };
 
@@ -48,14 +54,15 @@ void make_room(const std::filesystem::path& path, const std::string& demo_lab) {
     store::Database existing(path, store::Database::Open::existing);
     const auto lab = store::find_lab(existing.sql());
     if (!lab || lab->name != demo_lab)
-      throw InputError(fmt::format("--db \"{}\" exists and is not a plumb demo database; choose another file.",
-                                   path.string()));
+      throw InputError(
+          fmt::format("--db \"{}\" exists and is not a plumb demo database; choose another file.", path.string()));
   }
   for (const char* suffix : {"", "-wal", "-shm"}) std::filesystem::remove(path.string() + suffix);
 }
 
 /// One calibration of the scenario: its balance's settings, then the run, through the validated paths.
-std::int64_t record_demo_calibration(store::Database& db, const store::Actor& quality, const json& c) {
+std::int64_t record_demo_calibration(store::Database& db, const store::Actor& quality,
+                                     const store::Actor& operator_actor, const json& c) {
   const json& s = c["settings"];
   CalibrationSettingsInput settings;
   settings.instrument_id = c["balance"];
@@ -72,7 +79,7 @@ std::int64_t record_demo_calibration(store::Database& db, const store::Actor& qu
   for (const auto& row : c["rows"]) in.readings_csv += row.get<std::string>() + "\n";
   in.readings_source = fmt::format("demo calibration of {}", in.instrument_id);
   in.on = c["on"];
-  in.operator_name = c["by"];
+  in.operator_name = operator_actor.name;
   in.temperature_c = c["temperature"].get<std::string>();
   in.pressure_hpa = c["pressure"].get<std::string>();
   in.humidity_pct = c["humidity"].get<std::string>();
@@ -81,7 +88,7 @@ std::int64_t record_demo_calibration(store::Database& db, const store::Actor& qu
                                    std::pair{"pressure_u", &in.pressure_u}, std::pair{"humidity_u", &in.humidity_u}})
     if (c.contains(key)) *field = c[key].get<std::string>();
   in.model = c["model"];
-  return record_calibration(db, {in.operator_name, quality.os_user}, in).id;
+  return record_calibration(db, operator_actor, in).id;
 }
 
 /// The weighings CSV of one invented pipette check: for each ISO 8655-6 test volume and channel, ten
@@ -99,13 +106,44 @@ std::string pipette_weighings(const json& p, const store::PipetteRecord& rec, in
         bias_pct = p["fault"]["bias_pct"].get<double>();
       const double selected = v.approx().ul();
       for (int i = 0; i < 10; ++i) {
-        const double volume = selected * (1.0 + bias_pct / 100.0) + selected * p["cv_pct"].get<double>() / 100.0 * noise.next();
+        const double volume =
+            selected * (1.0 + bias_pct / 100.0) + selected * p["cv_pct"].get<double>() / 100.0 * noise.next();
         const double mg = std::round(volume / z_ul_per_mg / d_mg) * d_mg;
         csv += fmt::format("{},{},{:.{}f}\n", v.ul_text(), ch, mg / 1e3, decimals);
       }
     }
   }
   return csv;
+}
+
+/// The demo's accounts: an administrator, the quality manager, a reviewer and the technicians of the scenario,
+/// each with a demo-only password (kept as given: no change is forced at the first log-in of a demo account).
+std::map<std::string, store::Actor> add_demo_users(store::Database& db, const json& scenario,
+                                                   std::vector<DemoUser>& users) {
+  users.push_back({"demo-admin", "Noor Castellanos", "administrator", "demo-only-admin-pass"});
+  users.push_back({"ines", "Dr. Ines Varga", "quality manager", "demo-only-ines-pass"});
+  users.push_back({"mira", "Mira Solberg", "reviewer", "demo-only-mira-pass"});
+  for (const auto& person : scenario["people"]) {
+    const auto name = person.get<std::string>();
+    std::string login;
+    for (char c : name.substr(0, name.find(' ')))
+      login += static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
+    users.push_back({login, name, "technician", "demo-only-" + login + "-pass"});
+  }
+  std::map<std::string, store::Actor> actors;
+  const store::Actor admin = add_first_administrator(db, {users[0].login, users[0].name, {}, users[0].password});
+  actors[users[0].name] = admin;
+  for (std::size_t i = 1; i < users.size(); ++i) {
+    const auto& u = users[i];
+    const auto user = add_user(db, admin, {u.login, u.name, {u.role}, u.password});
+    const store::Actor actor{u.name, store::current_os_user(), user.id};
+    SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
+    store::Recorder rec(db.sql(), actor);
+    store::add_password(rec, user.id, store::current_password(db.sql(), user.id)->hash, false);
+    rec.commit(tx);
+    actors[u.name] = actor;
+  }
+  return actors;
 }
 
 }  // namespace
@@ -119,8 +157,11 @@ DemoSummary build_demo(const std::filesystem::path& path, const std::function<vo
   make_room(path, summary.lab);
 
   store::Database db(path, store::Database::Open::create);
+  // The accounts' records are the first ones signed: the lab's key is there before them (init_lab then uses it).
+  ensure_lab_key(db.path());
   const auto people = scenario["people"].get<std::vector<std::string>>();
-  const store::Actor quality{"Dr. Ines Varga", store::current_os_user()};
+  const auto actors = add_demo_users(db, scenario, summary.users);
+  const store::Actor quality = actors.at("Dr. Ines Varga");
   init_lab(db, quality, summary.lab);
   for (const auto& w : scenario["weights"]) {
     WeightInput in;
@@ -197,7 +238,7 @@ DemoSummary build_demo(const std::filesystem::path& path, const std::function<vo
       in.readings_source = fmt::format("demo {} week {}", balance.id, week + 1);
       in.on = to_string(on);
       in.operator_name = people[noise.raw() % people.size()];
-      const auto run = record_check(db, {in.operator_name, quality.os_user}, in);
+      const auto run = record_check(db, actors.at(in.operator_name), in);
       ++summary.runs;
       if (run.verdict == Verdict::fail) ++summary.failed_runs;
       if (balance.id == "AB-01") summary.showcase_run = run.id;
@@ -224,14 +265,14 @@ DemoSummary build_demo(const std::filesystem::path& path, const std::function<vo
       in.readings_source = fmt::format("demo {} check {}", pipette.id(), k + 1);
       in.on = to_string(add_days(on, pc["day_after_balance_check"].get<int>()));
       in.operator_name = people[pipette_noise.raw() % people.size()];
-      const auto run = record_pipette_check(db, {in.operator_name, quality.os_user}, in);
+      const auto run = record_pipette_check(db, actors.at(in.operator_name), in);
       ++summary.runs;
       if (run.verdict == Verdict::fail) ++summary.failed_runs;
       progress(summary.runs, total);
     }
   }
   for (const auto& c : scenario.value("calibrations", json::array())) {
-    record_demo_calibration(db, quality, c);
+    record_demo_calibration(db, quality, actors.at(c["by"].get<std::string>()), c);
     ++summary.runs;
   }
   return summary;

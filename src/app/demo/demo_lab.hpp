@@ -4,10 +4,16 @@
 #include <filesystem>
 #include <functional>
 #include <string>
+#include <vector>
 
 #include "core/dates.hpp"
 
 namespace plumb::app {
+
+/// A demo account: invented, with a password printed by `plumb demo` and good for the demo only.
+struct DemoUser {
+  std::string login, name, role, password;
+};
 
 struct DemoSummary {
   std::filesystem::path db_path;
@@ -16,6 +22,7 @@ struct DemoSummary {
   Date report_on;
   std::string lab;
   std::int64_t showcase_run = 0;  ///< a run worth printing a certificate for
+  std::vector<DemoUser> users;
 };
 
 /// Creates the demo database at `path`. An existing file is replaced only if it is itself a plumb demo

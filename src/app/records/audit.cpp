@@ -13,6 +13,7 @@
 #include "store/file_output.hpp"
 #include "store/lab_key.hpp"
 #include "store/repository.hpp"
+#include "store/signature_check.hpp"
 
 namespace plumb::app {
 namespace {
@@ -27,7 +28,9 @@ bool in(const json& row, const char* column, const std::set<std::int64_t>& ids) 
   return row.contains(column) && row[column].is_number_integer() && ids.count(row[column].get<std::int64_t>()) > 0;
 }
 
-bool is_id(const json& row, const char* column, std::int64_t id) { return in(row, column, {id}); }
+bool is_id(const json& row, const char* column, std::int64_t id) {
+  return in(row, column, {id});
+}
 
 std::vector<store::AuditRecord> of_instrument(const std::vector<store::AuditRecord>& all, const std::string& id) {
   std::set<std::int64_t> runs, certificates;
@@ -55,10 +58,10 @@ std::vector<store::AuditRecord> of_certificate(const std::vector<store::AuditRec
   for (const auto& r : all) {
     bool related = false;
     for (const auto& [table, row] : store::recorded_rows(r))
-      related = related || (table == "certificates"
-                                ? is_id(row, "id", c.id) || is_id(row, "supersedes", c.id)
-                                : (table == "check_runs" && is_id(row, "id", c.run_id)) ||
-                                      is_id(row, "run_id", c.run_id) || is_id(row, "certificate_id", c.id));
+      related = related ||
+                (table == "certificates" ? is_id(row, "id", c.id) || is_id(row, "supersedes", c.id)
+                                         : (table == "check_runs" && is_id(row, "id", c.run_id)) ||
+                                               is_id(row, "run_id", c.run_id) || is_id(row, "certificate_id", c.id));
     if (related) out.push_back(r);
   }
   return out;
@@ -91,7 +94,8 @@ void narrow(AuditLog& log, const AuditLogFilter& f) {
 
 AuditLog audit_log(store::Database& db, const AuditLogFilter& filter) {
   if (filter.instrument && filter.certificate)
-    throw InputError("--instrument and --certificate cannot be combined; give one of them (or neither for the whole lab).");
+    throw InputError(
+        "--instrument and --certificate cannot be combined; give one of them (or neither for the whole lab).");
   AuditLog log;
   if (filter.instrument) {
     if (!store::instrument_exists(db.sql(), *filter.instrument))
@@ -131,6 +135,7 @@ Verification verify_audit(store::Database& db, const VerifyRequest& request) {
     options.since_source = *request.since;
   }
   out.audit = store::verify_audit_trail(db.sql(), options);
+  for (auto& p : store::signature_problems(db.sql())) out.audit.problems.push_back(std::move(p));
   return out;
 }
 

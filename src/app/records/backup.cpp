@@ -14,6 +14,7 @@
 #include "store/lab_key.hpp"
 #include "store/private_file.hpp"
 #include "store/recorder.hpp"
+#include "store/users.hpp"
 
 namespace plumb::app {
 namespace {
@@ -166,7 +167,7 @@ void record_restore(store::Database& restored, const store::Actor& actor, const 
 
 }  // namespace
 
-RestoreOutcome restore_database(const RestoreRequest& r, const store::Actor& actor) {
+RestoreOutcome restore_database(const RestoreRequest& r, const std::function<store::Actor(store::Database&)>& who) {
   const auto& db_path = r.db_path;
   const auto& file = r.file;
   if (r.reason.find_first_not_of(" \t") == std::string::npos)
@@ -184,6 +185,11 @@ RestoreOutcome restore_database(const RestoreRequest& r, const store::Actor& act
   // The restore is a command like any other: without the lab's key it cannot be signed, so nothing is touched.
   const auto key_file = store::key_path_for(db_path);
   const std::string key = store::LabKey::load(key_file).public_hex();
+  std::optional<store::Actor> actor;
+  if (exists) {
+    store::Database current(db_path, store::Database::Open::existing);
+    actor = who(current);
+  }
   RestoreOutcome out;
   out.source = check_copy(file);
   if (!out.source.ok) return out;
@@ -226,7 +232,21 @@ RestoreOutcome restore_database(const RestoreRequest& r, const store::Actor& act
   // Opening through plumb applies any newer migrations to an older backup; the restore is recorded in the restored
   // trail, and then the result is proved again.
   store::Database restored(db_path, store::Database::Open::existing);
-  record_restore(restored, actor, r, out, backup_sha256);
+  if (!actor) {
+    try {
+      actor = who(restored);
+    } catch (...) {
+      for (const char* suffix : {"", "-wal", "-shm"}) std::filesystem::remove(db_path.string() + suffix);
+      throw;
+    }
+  }
+  // The account that restores may be newer than the backup: then the record names it without an id the restored
+  // accounts do not have.
+  if (actor->user_id && !store::find_user(restored.sql(), *actor->user_id)) {
+    actor->name += " (an account of the replaced database)";
+    actor->user_id.reset();
+  }
+  record_restore(restored, *actor, r, out, backup_sha256);
   out.after = store::verify_audit_trail(restored.sql());
   out.restored = true;
   return out;

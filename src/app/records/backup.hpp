@@ -3,6 +3,7 @@
 // snapshot while other plumb processes keep reading and writing. A copy counts only once it has passed
 // PRAGMA integrity_check and `audit verify`.
 #include <filesystem>
+#include <functional>
 #include <optional>
 #include <string>
 
@@ -57,7 +58,10 @@ struct RestoreOutcome {
 /// (table restores): the backup file, its SHA-256, last audit hash and last signed checkpoint, who, why, and how
 /// many audit records of the replaced database the restore removed; then signed like any command. Refused first
 /// when the lab's signing key (store::key_path_for) cannot be read.
-RestoreOutcome restore_database(const RestoreRequest& request, const store::Actor& actor);
+/// `who` authenticates the person restoring: against the database being replaced when there is one (before
+/// anything changes), else against the restored accounts (a failure removes the restored file again).
+RestoreOutcome restore_database(const RestoreRequest& request,
+                                const std::function<store::Actor(store::Database&)>& who);
 
 /// Integrity check, schema version and audit verification of the database file at `path`, opened read-only.
 CopyCheck check_copy(const std::filesystem::path& path);

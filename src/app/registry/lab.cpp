@@ -9,6 +9,7 @@
 #include "store/created_file.hpp"
 #include "store/lab_key.hpp"
 #include "store/repository.hpp"
+#include "store/users.hpp"
 
 namespace plumb::app {
 
@@ -47,12 +48,31 @@ void init_lab(store::Database& db, const store::Actor& actor, const std::string&
   public_guard.keep();
 }
 
-void create_lab(const std::filesystem::path& path, const store::Actor& actor, const std::string& name) {
+bool create_lab(const std::filesystem::path& path, const NewUser& admin, const std::string& name) {
+  if (std::filesystem::exists(path)) {
+    store::Database db(path, store::Database::Open::existing);
+    if (store::find_lab(db.sql()) && store::count_users(db.sql()) == 0) {
+      add_first_administrator(db, admin);
+      return false;
+    }
+  }
   validate_lab_name(name);
   store::CreatedFileGuard file(path);
   store::Database db(path, store::Database::Open::create);
+  if (auto lab = store::find_lab(db.sql()))
+    throw InputError(fmt::format("database \"{}\" is already set up for lab \"{}\".", db.path().string(), lab->name));
+  // The administrator's records are the first ones signed, so the lab's key is there before them (init_lab then
+  // finds it); a failed init leaves neither key nor database behind.
+  const auto key_file = store::key_path_for(db.path());
+  store::CreatedFileGuard key_guard(key_file);
+  store::CreatedFileGuard public_guard(store::public_key_path_for(key_file));
+  ensure_lab_key(db.path());
+  const store::Actor actor = add_first_administrator(db, admin);
   init_lab(db, actor, name);
+  key_guard.keep();
+  public_guard.keep();
   file.keep();
+  return true;
 }
 
 }  // namespace plumb::app

@@ -19,6 +19,7 @@
 #include "store/calibration.hpp"
 #include "store/pipettes.hpp"
 #include "store/repository.hpp"
+#include "store/signatures.hpp"
 #include "store/status_events.hpp"
 
 namespace plumb::app {
@@ -284,8 +285,7 @@ CorrectionOutcome correct_check(store::Database& db, const store::Actor& actor, 
   validate_free_text(in.reason, "--reason", false);
   if (in.reason.find_first_not_of(" \t") == std::string::npos)
     throw InputError("--reason must say why the run is corrected (it is kept with the correction).");
-  if (actor.name.find_first_not_of(" \t") == std::string::npos)
-    throw InputError("--by must name the person making the correction.");
+  if (!actor.user_id) throw AccessError("a correction is a signature: it needs an authenticated user.");
   if (!in.readings_csv && !in.on && !in.operator_name && !in.weight_ids && in.conditions.empty())
     throw InputError("nothing to correct: give --readings, --on, --operator, --weight or a run condition; to void a "
                      "run entered in error, use `plumb check void RUN --reason ...`.");
@@ -306,6 +306,7 @@ CorrectionOutcome correct_check(store::Database& db, const store::Actor& actor, 
   store::Recorder rec(db.sql(), actor);
   const std::int64_t id = record_correction(db, rec, out.original, in);
   out.correction = *store::find_run(db.sql(), id);
+  store::add_signature(rec, db.sql(), "check_runs", fmt::format("id={}", id), "author of this correction");
   // Throwing here still writes nothing: the transaction is rolled back.
   if (same_record(db, out.original, out.correction))
     throw InputError(fmt::format("the correction of run {} changes nothing: the readings, date, operator, weights and "

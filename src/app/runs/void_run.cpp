@@ -7,6 +7,7 @@
 #include "app/runs/resolve.hpp"
 #include "core/errors.hpp"
 #include "store/repository.hpp"
+#include "store/signatures.hpp"
 #include "store/status_events.hpp"
 
 namespace plumb::app {
@@ -15,8 +16,7 @@ VoidOutcome void_run(store::Database& db, const store::Actor& actor, const std::
                      const std::string& reason) {
   if (reason.find_first_not_of(" \t") == std::string::npos)
     throw InputError("--reason must say why the run is void (it is kept with the run).");
-  if (actor.name.find_first_not_of(" \t") == std::string::npos)
-    throw InputError("--by must name the person voiding the run.");
+  if (!actor.user_id) throw AccessError("voiding a run is a signature: it needs an authenticated user.");
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   require_lab(db);
   VoidOutcome out;
@@ -30,6 +30,7 @@ VoidOutcome void_run(store::Database& db, const store::Actor& actor, const std::
                                  out.run.id, *out.run.superseded_by, *out.run.superseded_by));
   store::Recorder rec(db.sql(), actor);
   store::add_run_void(rec, out.run.id, reason);
+  store::add_signature(rec, db.sql(), "run_voids", fmt::format("run_id={}", out.run.id), "voided as entered in error");
   if (auto cert = store::certificate_for_run(db.sql(), out.run.id);
       cert && !store::certificate_withdrawal(db.sql(), cert->id)) {
     store::add_certificate_withdrawal(rec, cert->id, reason);

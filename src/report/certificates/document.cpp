@@ -135,6 +135,19 @@ Signatures signatures_of(const json& c, const json& status) {
       std::none_of(s.people.begin(), s.people.end(), [](const Signatory& p) { return !p.signed_at.empty(); }))
     s.people.push_back({"Reviewed and approved by", approval.value("by", ""), approval.value("function", "reviewer"),
                         approval.value("meaning", ""), approval.value("at", "")});
+  // The electronic signatures (21 CFR 11.50): printed name, function, meaning and UTC time of each; the approval
+  // shown above is one of them, and then its line takes the signer's function.
+  for (const auto& sig : status.value("signatures", json::array())) {
+    Signatory signed_by{"Signed electronically by", sig.value("name", ""), sig.value("function", ""),
+                        sig.value("meaning", ""), sig.value("at", "")};
+    const auto same = std::find_if(s.people.begin(), s.people.end(), [&](const Signatory& p) {
+      return p.name == signed_by.name && p.signed_at == signed_by.signed_at;
+    });
+    if (same == s.people.end())
+      s.people.push_back(std::move(signed_by));
+    else if (!signed_by.function.empty())
+      same->function = signed_by.function;
+  }
   return s;
 }
 

@@ -80,6 +80,25 @@ std::string describe_row(const std::string& table, const json& row, const std::m
   if (table == "run_voids") return fmt::format("voided run {}", text_of(row, "run_id"));
   if (table == "certificate_withdrawals")
     return fmt::format("withdrew certificate id {}", text_of(row, "certificate_id"));
+  if (table == "users")
+    return fmt::format("added user {} \"{}\" (user id {})", text_of(row, "login"), text_of(row, "full_name"),
+                       text_of(row, "id"));
+  if (table == "passwords")
+    return fmt::format("set the password of user id {}{}", text_of(row, "user_id"),
+                       text_of(row, "must_change") == "1" ? " (temporary: to be changed at the next log-in)" : "");
+  if (table == "account_events")
+    return fmt::format("{} user id {}{}", text_of(row, "event"), text_of(row, "user_id"),
+                       text_of(row, "role").empty() ? "" : ": " + text_of(row, "role"));
+  if (table == "security_settings")
+    return fmt::format("set the password rules: at least {} characters, lock after {} failed log-ins, sessions end "
+                       "after {} minutes idle",
+                       text_of(row, "min_password_length"), text_of(row, "max_failed_logins"),
+                       text_of(row, "idle_minutes"));
+  if (table == "sessions") return fmt::format("logged in as user id {}", text_of(row, "user_id"));
+  if (table == "session_ends") return fmt::format("ended session {} ({})", text_of(row, "session_id"), text_of(row, "why"));
+  if (table == "signatures")
+    return fmt::format("signed {} {} as \"{}\" ({}, user id {})", text_of(row, "table_name"), text_of(row, "row_key"),
+                       text_of(row, "meaning"), text_of(row, "printed_name"), text_of(row, "user_id"));
   return "";
 }
 
