@@ -61,7 +61,8 @@ const std::vector<std::string>& description() {
       "or a run number for that run's certificate (certificate show, certificate approve, audit log "
       "--certificate). `plumb certificate list` finds a number; `plumb certificate queue` lists the drafts "
       "waiting for a reviewer.",
-      "plumb records names as given with --by; it does not authenticate users. It supports, and does not "
+      "Every write is made by a logged-in user (plumb login, or --user with --password-file or "
+      "--password-stdin; see doc/people.md) and signed into the audit trail. It supports, and does not "
       "replace, accredited calibration, legal-for-trade verification by the competent authority and the "
       "laboratory's own quality procedures. Where results are used for medicine, clinical or food weighing, "
       "follow local regulations and licensed practice, and take an instrument out of use when a check fails.",
