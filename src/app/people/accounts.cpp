@@ -100,7 +100,7 @@ store::Actor add_first_administrator(store::Database& db, const NewUser& admin) 
   // The new account writes its own records: its id is the next one users will give (ids are never reused).
   const std::int64_t id =
       db.sql().execAndGet("SELECT coalesce((SELECT seq FROM sqlite_sequence WHERE name = 'users'), 0) + 1").getInt64();
-  const store::Actor actor{admin.full_name, store::current_os_user(), id};
+  store::Actor actor{admin.full_name, store::current_os_user(), id};
   store::Recorder rec(db.sql(), actor);
   rec.insert("users", {{"id", id}, {"login", admin.login}, {"full_name", admin.full_name}, {"created_at", rec.now()}},
              {"id"});

@@ -65,7 +65,7 @@ std::optional<SessionUser> live_session(store::Database& db, const std::string& 
 /// The account's standing for `command`: AccessError when it may not act at all.
 AccountState usable_account(store::Database& db, const store::UserRecord& user, const std::string& command,
                             const store::SecuritySettings& settings, const std::string& now) {
-  const AccountState state = account_state(store::account_events(db.sql(), user.id));
+  AccountState state = account_state(store::account_events(db.sql(), user.id));
   if (!state.active) throw AccessError(fmt::format("the account {} is deactivated; it cannot log in.", user.login));
   if (state.locked)
     throw AccessError(
