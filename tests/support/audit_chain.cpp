@@ -9,6 +9,20 @@
 
 namespace plumb::test {
 
+nlohmann::json hashed_audit_record(const SQLite::Statement& q, int user_id_column) {
+  const auto text_or_null = [&q](int i) {
+    return q.getColumn(i).isNull() ? nlohmann::json() : nlohmann::json(q.getColumn(i).getString());
+  };
+  nlohmann::json record = {{"seq", q.getColumn(0).getInt64()},      {"at", q.getColumn(1).getString()},
+                           {"os_user", q.getColumn(2).getString()}, {"actor", q.getColumn(3).getString()},
+                           {"action", q.getColumn(4).getString()},  {"table_name", q.getColumn(5).getString()},
+                           {"row_key", q.getColumn(6).getString()}, {"before_json", text_or_null(7)},
+                           {"after_json", text_or_null(8)},         {"reason", text_or_null(9)}};
+  // Since user accounts (schema/011_users.sql) a record names its account, and its hash covers the id.
+  if (!q.getColumn(user_id_column).isNull()) record["user_id"] = q.getColumn(user_id_column).getInt64();
+  return record;
+}
+
 AuditCheck check_audit_chain(const std::filesystem::path& db) {
   SQLite::Database sql(db.string(), SQLite::OPEN_READONLY);
   sql.setBusyTimeout(30000);
@@ -17,9 +31,6 @@ AuditCheck check_audit_chain(const std::filesystem::path& db) {
                       "reason, prev_hash, hash, user_id FROM audit_log ORDER BY seq");
   AuditCheck check;
   std::string prev(64, '0');
-  const auto text_or_null = [](const SQLite::Column& c) {
-    return c.isNull() ? nlohmann::json() : nlohmann::json(c.getString());
-  };
   while (q.executeStep()) {
     ++check.rows;
     const long long seq = q.getColumn(0).getInt64();
@@ -31,18 +42,7 @@ AuditCheck check_audit_chain(const std::filesystem::path& db) {
       check.problem = "seq " + std::to_string(seq) + ": prev_hash is not the previous row's hash";
       return check;
     }
-    nlohmann::json record = {{"seq", seq},
-                             {"at", q.getColumn(1).getString()},
-                             {"os_user", q.getColumn(2).getString()},
-                             {"actor", q.getColumn(3).getString()},
-                             {"action", q.getColumn(4).getString()},
-                             {"table_name", q.getColumn(5).getString()},
-                             {"row_key", q.getColumn(6).getString()},
-                             {"before_json", text_or_null(q.getColumn(7))},
-                             {"after_json", text_or_null(q.getColumn(8))},
-                             {"reason", text_or_null(q.getColumn(9))}};
-    // Since user accounts (schema/011_users.sql) a record names its account, and its hash covers the id.
-    if (!q.getColumn(12).isNull()) record["user_id"] = q.getColumn(12).getInt64();
+    const nlohmann::json record = hashed_audit_record(q, 12);
     prev = q.getColumn(11).getString();
     if (store::audit_hash(q.getColumn(10).getString(), record) != prev) {
       check.problem = "seq " + std::to_string(seq) + ": hash does not match its record";

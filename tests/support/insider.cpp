@@ -1,5 +1,7 @@
 #include "support/insider.hpp"
 
+#include "support/audit_chain.hpp"
+
 #include <SQLiteCpp/Database.h>
 #include <SQLiteCpp/Statement.h>
 #include <SQLiteCpp/Transaction.h>
@@ -92,24 +94,7 @@ void insider_rewrite(const std::filesystem::path& db, const std::function<void(S
     SQLite::Statement q(d,
                         "SELECT seq, at, os_user, actor, action, table_name, row_key, before_json, after_json, "
                         "reason, user_id FROM audit_log ORDER BY seq");
-    const auto text_or_null = [](const SQLite::Column& c) {
-      return c.isNull() ? nlohmann::json() : nlohmann::json(c.getString());
-    };
-    while (q.executeStep()) {
-      rows.push_back({q.getColumn(0).getInt64(),
-                      {{"seq", q.getColumn(0).getInt64()},
-                       {"at", q.getColumn(1).getString()},
-                       {"os_user", q.getColumn(2).getString()},
-                       {"actor", q.getColumn(3).getString()},
-                       {"action", q.getColumn(4).getString()},
-                       {"table_name", q.getColumn(5).getString()},
-                       {"row_key", q.getColumn(6).getString()},
-                       {"before_json", text_or_null(q.getColumn(7))},
-                       {"after_json", text_or_null(q.getColumn(8))},
-                       {"reason", text_or_null(q.getColumn(9))}}});
-      // The account that wrote the record is hashed with it, when there is one (since user accounts).
-      if (!q.getColumn(10).isNull()) rows.back().record["user_id"] = q.getColumn(10).getInt64();
-    }
+    while (q.executeStep()) rows.push_back({q.getColumn(0).getInt64(), hashed_audit_record(q, 10)});
   }
   std::string prev(64, '0');
   SQLite::Statement update(d, "UPDATE audit_log SET prev_hash = ?, hash = ? WHERE seq = ?");
