@@ -11,13 +11,13 @@ std::vector<Command> audit_commands() {
   Command log{"audit",
               "log",
               "who did what, when and why: the trail of the lab, one instrument or one certificate",
-              "plumb audit log --instrument BAL-A --from 2026-11-01 --to 2026-11-30 --by \"A. Technician\"",
+              "plumb audit log --instrument BAL-A --from 2026-11-01 --to 2026-11-30 --author priya",
               [](po::options_description& d, po::positional_options_description&) {
                 d.add_options()("instrument", po::value<std::string>(), "only the records of this instrument")(
                     "certificate", po::value<std::string>(), "only the records of this certificate (number)")(
                     "from", po::value<std::string>(), "only records from this UTC date on, YYYY-MM-DD")(
                     "to", po::value<std::string>(), "only records up to this UTC date, YYYY-MM-DD")(
-                    "by", po::value<std::string>(), "only the records of this person (the name as recorded)");
+                    "author", po::value<std::string>(), "only the records written by this user account (its login)");
                 add_format_option(d, "text|csv|json");
               },
               [](const po::variables_map& vm, Env& env) {
@@ -25,13 +25,13 @@ std::vector<Command> audit_commands() {
                 auto db = env.open();
                 const auto trail = app::audit_log(
                     db, {optional_string(vm, "instrument"), optional_string(vm, "certificate"),
-                         optional_string(vm, "from"), optional_string(vm, "to"), optional_string(vm, "by")});
+                         optional_string(vm, "from"), optional_string(vm, "to"), optional_string(vm, "author")});
                 if (format == "json")
-                  env.out << report::audit_log_json(trail.scope, trail.records).dump(2) << "\n";
+                  env.out << report::audit_log_json(trail.scope, trail.records, trail.authors).dump(2) << "\n";
                 else if (format == "csv")
-                  env.out << report::audit_log_csv(trail.records);
+                  env.out << report::audit_log_csv(trail.records, trail.authors);
                 else
-                  env.out << report::audit_log_text(trail.scope, trail.records);
+                  env.out << report::audit_log_text(trail.scope, trail.records, trail.authors);
                 return 0;
               }};
   Command verify{
@@ -69,9 +69,9 @@ std::vector<Command> audit_commands() {
         }
         if (vm["all"].as<bool>())
           for (const auto& p : v.problems) fmt::print(env.out, "{}\n", p.message);
-        fmt::print(env.err, "plumb: audit verification failed: {}{}\n", v.problems.front().message,
-                   v.problems.size() > 1 ? fmt::format(" ({} problems in all; --all lists them.)", v.problems.size())
-                                         : "");
+        fmt::print(
+            env.err, "plumb: audit verification failed: {}{}\n", v.problems.front().message,
+            v.problems.size() > 1 ? fmt::format(" ({} problems in all; --all lists them.)", v.problems.size()) : "");
         return 1;
       }};
   Command checkpoint{

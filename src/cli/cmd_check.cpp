@@ -162,11 +162,11 @@ std::vector<Command> check_commands() {
       "check",
       "record",
       "record a check run from readings, compute and judge it, schedule the next",
-      "plumb check record BAL-A --procedure repeatability --weight W100 --readings readings.csv --on 2026-11-30 "
-      "--by \"A. Technician\"\n  plumb check record BAL-A --procedure calibration --readings cal.csv "
-      "--temperature 20.3C --pressure 1009hPa --humidity 45% --model line --on 2026-11-30 --by \"A. Technician\"\n"
+      "plumb check record BAL-A --procedure repeatability --weight W100 --readings readings.csv --on 2026-11-30\n"
+      "  plumb check record BAL-A --procedure calibration --readings cal.csv "
+      "--temperature 20.3C --pressure 1009hPa --humidity 45% --model line --on 2026-11-30\n"
       "  plumb check record P-07 --procedure gravimetric --balance SM-02 --water-temp 20.5C "
-      "--pressure 1013hPa --humidity 50% --readings weighings.csv --on 2026-11-30 --by \"A. Technician\"",
+      "--pressure 1013hPa --humidity 50% --readings weighings.csv --on 2026-11-30",
       [](po::options_description& d, po::positional_options_description& p) {
         d.add_options()("instrument", po::value<std::string>()->required(), "instrument id (positional)")(
             "procedure", po::value<std::string>()->default_value("repeatability"),
@@ -257,8 +257,7 @@ std::vector<Command> check_commands() {
       "check",
       "correct",
       "correct a run: a new run supersedes it (reason required); the original stays; a certificate is replaced",
-      "plumb check correct 12 --readings fixed.csv --reason \"reading 4 mistyped (100.0040 for 100.0004)\" --by \"Q. "
-      "Manager\"",
+      "plumb check correct 12 --readings fixed.csv --reason \"reading 4 mistyped (100.0040 for 100.0004)\"",
       [](po::options_description& d, po::positional_options_description& p) {
         d.add_options()("run", po::value<std::string>()->required(), "run number or LAST (positional)")(
             "reason", po::value<std::string>(), "why the run is corrected (required; kept with the correction)")(
@@ -334,7 +333,7 @@ std::vector<Command> check_commands() {
       "check",
       "void",
       "void a run entered in error (reason required): it stays in history, marked void, and stops counting",
-      "plumb check void 14 --reason \"entered for BAL-A by mistake; the check was on BAL-B\" --by \"Q. Manager\"",
+      "plumb check void 14 --reason \"entered for BAL-A by mistake; the check was on BAL-B\"",
       [](po::options_description& d, po::positional_options_description& p) {
         d.add_options()("run", po::value<std::string>()->required(), "run number or LAST (positional)")(
             "reason", po::value<std::string>(), "why the run is void (required; kept with the run)");

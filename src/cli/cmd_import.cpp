@@ -52,7 +52,7 @@ std::vector<Command> import_commands() {
       "check", "import",
       fmt::format("import past checks from a CSV, one reading per row (header: {}[,run]); all or nothing",
                   HistoryCsvParser::header),
-      "plumb check import history.csv --by \"Q. Manager\"\n"
+      "plumb check import history.csv\n"
       "  history.csv:\n"
       "    instrument,procedure,date,operator,weight,reading,unit\n"
       "    BAL-A,repeatability,2024-03-04,A. Technician,W100,100.0003,g\n"

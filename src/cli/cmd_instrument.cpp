@@ -12,7 +12,7 @@ std::vector<Command> instrument_commands() {
       "instrument", "update",
       "record a change of an instrument's attributes (identity, location, interval, policy) from a date, with why",
       "plumb instrument update BAL-A --location \"Room 5\" --from 2026-12-01 --reason \"moved to the new weighing "
-      "room\" --by \"Q. Manager\"",
+      "room\"",
       [](po::options_description& d, po::positional_options_description& p) {
         d.add_options()("id", po::value<std::string>()->required(), "instrument id (positional)")(
             "location", po::value<std::string>(), "where it stands from now on")(

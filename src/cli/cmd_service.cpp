@@ -32,14 +32,14 @@ std::vector<Command> service_commands() {
   return {
       service_command("instrument", "retire", "instrument", "retired",
                       "take an instrument out of use (kept in history; not due; refused for new checks)",
-                      "plumb instrument retire BAL-A --reason \"replaced by BAL-C\" --by \"Q. Manager\""),
+                      "plumb instrument retire BAL-A --reason \"replaced by BAL-C\""),
       service_command("instrument", "reinstate", "instrument", "reinstated", "bring a retired instrument back into use",
-                      "plumb instrument reinstate BAL-A --reason \"repaired and checked\" --by \"Q. Manager\""),
+                      "plumb instrument reinstate BAL-A --reason \"repaired and checked\""),
       service_command("weight", "retire", "weight", "retired",
                       "take a reference weight out of use (kept in history; not due; refused for new checks)",
-                      "plumb weight retire W100 --reason \"dropped, damaged\" --by \"Q. Manager\""),
+                      "plumb weight retire W100 --reason \"dropped, damaged\""),
       service_command("weight", "reinstate", "weight", "reinstated", "bring a retired reference weight back into use",
-                      "plumb weight reinstate W100 --reason \"recalibrated\" --by \"Q. Manager\""),
+                      "plumb weight reinstate W100 --reason \"recalibrated\""),
   };
 }
 

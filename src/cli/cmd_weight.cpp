@@ -114,8 +114,8 @@ Command recalibrate_command() {
           "record a new calibration certificate for a registered weight (earlier certificates stay in force for "
           "their dates), typed or read from the provider's DCC XML file (--from-dcc; see doc/dcc.md)",
           "plumb weight recalibrate W100 --certificate RC-2417 --calibrated 2027-02-20 --due 2028-02-20 "
-          "--correction 0.04mg --uncertainty 0.05mg --k 2 --by \"Q. Manager\"\n"
-          "  plumb weight recalibrate W100 --from-dcc RC-2417.xml --dcc-schema dcc-3.1.2-local.xsd --by \"Q. Manager\"",
+          "--correction 0.04mg --uncertainty 0.05mg --k 2\n"
+          "  plumb weight recalibrate W100 --from-dcc RC-2417.xml --dcc-schema dcc-3.1.2-local.xsd",
           [](po::options_description& d, po::positional_options_description& p) {
             d.add_options()("id", po::value<std::string>()->required(), "weight id (positional)")(
                 "certificate", po::value<std::string>(), "number of the new calibration certificate")(

@@ -13,6 +13,7 @@
 #include "core/errors.hpp"
 #include "core/text_field.hpp"
 #include "plumb/version.hpp"
+#include "store/file_access.hpp"
 
 namespace plumb::cli {
 namespace {
@@ -120,7 +121,9 @@ app::Credentials Env::credentials() const {
   return c;
 }
 
-app::Authenticated Env::authenticated(store::Database& db) const { return app::authenticate(db, command, credentials()); }
+app::Authenticated Env::authenticated(store::Database& db) const {
+  return app::authenticate(db, command, credentials());
+}
 
 void add_format_option(po::options_description& d, const std::string& choices) {
   d.add_options()("format", po::value<std::string>()->default_value("text"), ("output format: " + choices).c_str());
@@ -140,10 +143,11 @@ std::optional<std::string> optional_string(const po::variables_map& vm, const ch
 
 int run(int argc, const char* const* argv, std::ostream& out, std::ostream& err) {
   std::vector<std::string> args(argv + 1, argv + argc);
-  Env env{store::default_database_path(), false, out, err, isatty(STDOUT_FILENO) != 0, isatty(STDERR_FILENO) != 0,
-          {}, {}, {}};
+  Env env{store::default_database_path(), false, out, err, isatty(STDOUT_FILENO) != 0,
+          isatty(STDERR_FILENO) != 0,     {},    {},  {}};
   std::size_t i = 0;
   try {
+    store::apply_lab_file_access();
     for (; i < args.size() && args[i].rfind("--", 0) == 0; ++i) {
       if (args[i] == "--help") {
         print_usage(out);
@@ -204,7 +208,8 @@ int run(int argc, const char* const* argv, std::ostream& out, std::ostream& err)
       std::vector<std::string> verbs;
       for (const auto& c : commands())
         if (c.noun == noun) verbs.push_back(c.verb);
-      throw InputError(fmt::format("\"{}\" needs one of: {} (after it, --help explains).", noun, fmt::join(verbs, ", ")));
+      throw InputError(
+          fmt::format("\"{}\" needs one of: {} (after it, --help explains).", noun, fmt::join(verbs, ", ")));
     }
     po::options_description desc("options");
     po::positional_options_description positional;
@@ -217,8 +222,9 @@ int run(int argc, const char* const* argv, std::ostream& out, std::ostream& err)
     if (env.command != "audit log")
       for (const auto& a : rest)
         if (a == "--by" || a.rfind("--by=", 0) == 0)
-          throw InputError("--by is gone: plumb records the logged-in user; log in with `plumb login --user ID` "
-                           "(or give --user ID with --password-file FILE or --password-stdin).");
+          throw InputError(
+              "--by is gone: plumb records the logged-in user; log in with `plumb login --user ID` "
+              "(or give --user ID with --password-file FILE or --password-stdin).");
     po::variables_map vm;
     po::store(po::command_line_parser(rest).options(desc).positional(positional).run(), vm);
     if (vm.count("help")) {

@@ -40,7 +40,7 @@ const std::vector<EnvironmentVariable>& environment() {
       {"PLUMB_KEY",
        "the lab's Ed25519 signing key (PEM) that signs every command's checkpoint; default: DB.key "
        "beside the database"},
-      {"USER", "the operating-system account recorded beside every --by name"},
+      {"USER", "the operating-system account recorded beside the logged-in user in every audit record"},
   };
   return all;
 }

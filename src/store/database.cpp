@@ -15,6 +15,7 @@
 #include "core/errors.hpp"
 #include "core/natural_order.hpp"
 #include "store/embedded.hpp"
+#include "store/file_access.hpp"
 #include "store/private_file.hpp"
 
 namespace plumb::store {
@@ -35,13 +36,16 @@ int natural_collation(void*, int a_size, const void* a, int b_size, const void* 
 }
 
 /// The folders plumb makes for a new database are mode 0700 and the file 0600 (SQLite gives its -wal and -shm
-/// files the mode of the database): the lab's records are readable by their owner only.
+/// files the mode of the database): the lab's records are readable by their owner only, or with a lab group
+/// (store/file_access.hpp) 02770 and 0660, the group's.
 void create_private_database_file(const std::filesystem::path& path) {
   std::vector<std::filesystem::path> missing;
   for (auto p = path.parent_path(); !p.empty() && !std::filesystem::exists(p); p = p.parent_path())
     missing.push_back(p);
   for (auto it = missing.rbegin(); it != missing.rend(); ++it)
-    if (::mkdir(it->c_str(), 0700) != 0 && errno != EEXIST)
+    if (::mkdir(it->c_str(), record_folder_mode()) == 0)
+      give_to_lab_group(-1, it->c_str());
+    else if (errno != EEXIST)
       throw StorageError(fmt::format("cannot create the folder \"{}\": {}.", it->string(), std::strerror(errno)));
   if (!std::filesystem::exists(path)) create_private_file(path);
 }
@@ -56,7 +60,8 @@ void register_natural_collation(SQLite::Database& db) {
 
 std::filesystem::path default_database_path() {
   if (const char* env = std::getenv("PLUMB_DB"); env && *env) return env;
-  if (const char* xdg = std::getenv("XDG_DATA_HOME"); xdg && *xdg) return std::filesystem::path(xdg) / "plumb" / "plumb.db";
+  if (const char* xdg = std::getenv("XDG_DATA_HOME"); xdg && *xdg)
+    return std::filesystem::path(xdg) / "plumb" / "plumb.db";
   const char* home = std::getenv("HOME");
   return std::filesystem::path(home ? home : ".") / ".local" / "share" / "plumb" / "plumb.db";
 }
@@ -89,7 +94,9 @@ Database::Database(const std::filesystem::path& path, Open mode) : path_(path) {
   }
 }
 
-int Database::schema_version() const { return db_->execAndGet("PRAGMA user_version").getInt(); }
+int Database::schema_version() const {
+  return db_->execAndGet("PRAGMA user_version").getInt();
+}
 
 void Database::migrate() {
   const int current = schema_version();

@@ -8,16 +8,24 @@
 #include <cstring>
 
 #include "core/errors.hpp"
+#include "store/file_access.hpp"
 
 namespace plumb::store {
 
 bool create_private_file(const std::filesystem::path& path) {
-  const int fd = ::open(path.c_str(), O_WRONLY | O_CREAT | O_EXCL | O_CLOEXEC, 0600);
+  const int fd = ::open(path.c_str(), O_WRONLY | O_CREAT | O_EXCL | O_CLOEXEC, record_file_mode());
   if (fd < 0) {
     if (errno == EEXIST) return false;
     throw StorageError(fmt::format("cannot create \"{}\": {}.", path.string(), std::strerror(errno)));
   }
-  // The umask can only take permissions away; 0600 is what the file has, whatever the umask.
+  // The umask can only take permissions away: the file has at most the mode asked for, whatever the umask.
+  try {
+    give_to_lab_group(fd, path.c_str());
+  } catch (...) {
+    ::close(fd);
+    ::unlink(path.c_str());
+    throw;
+  }
   ::close(fd);
   return true;
 }

@@ -1,6 +1,7 @@
 #pragma once
-// Files plumb creates for a lab's records (backups, safety copies) are readable by their owner only, and a new
-// one never replaces another that appeared meanwhile: each is created exclusively (O_EXCL) with mode 0600.
+// Files plumb creates for a lab's records (backups, safety copies) are readable by their owner only (or the lab's
+// group: store/file_access.hpp), and a new one never replaces another that appeared meanwhile: each is created
+// exclusively (O_EXCL) with mode 0600 (0660 with a lab group).
 #include <filesystem>
 
 namespace plumb::store {

@@ -81,7 +81,7 @@ json row_json(SQLite::Statement& row) {
 
 Recorder::Recorder(SQLite::Database& db, Actor actor) : db_(db), actor_(std::move(actor)), now_(utc_timestamp()) {
   // Who is recorded in every audit record: plain text on one line, like every stored text.
-  check_text_field(actor_.name, "--by");
+  check_text_field(actor_.name, "the user's printed name");
   const char* file = sqlite3_db_filename(db_.getHandle(), "main");
   if (file && *file) key_ = LabKey::load(key_path_for(file));
 }

@@ -47,6 +47,13 @@ std::int64_t count_users(SQLite::Database& db) {
   return db.execAndGet("SELECT count(*) FROM users").getInt64();
 }
 
+std::optional<std::int64_t> first_account_record(SQLite::Database& db) {
+  // The first account's own record opens the era of accounts (the index on table_name finds it at once).
+  const auto seq = db.execAndGet("SELECT min(seq) FROM audit_log WHERE table_name = 'users'");
+  if (seq.isNull()) return std::nullopt;
+  return seq.getInt64();
+}
+
 std::optional<PasswordRecord> current_password(SQLite::Database& db, std::int64_t user_id) {
   SQLite::Statement q(db,
                       "SELECT id, hash, must_change, set_at FROM passwords WHERE user_id = ? ORDER BY id DESC LIMIT 1");

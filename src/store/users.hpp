@@ -57,6 +57,8 @@ std::optional<UserRecord> find_user_by_login(SQLite::Database& db, const std::st
 std::optional<UserRecord> find_user(SQLite::Database& db, std::int64_t id);
 std::vector<UserRecord> all_users(SQLite::Database& db);
 std::int64_t count_users(SQLite::Database& db);
+/// The seq of the audit record that added the first account; none while the database has no accounts.
+std::optional<std::int64_t> first_account_record(SQLite::Database& db);
 
 std::optional<PasswordRecord> current_password(SQLite::Database& db, std::int64_t user_id);
 /// The user's account events in order.

@@ -3,6 +3,7 @@
 // line. Record times are the wall clock (UTC), so the dates are computed here, not written in.
 #include <catch2/catch.hpp>
 
+#include <SQLiteCpp/Database.h>
 #include <nlohmann/json.hpp>
 
 #include <ctime>
@@ -11,6 +12,8 @@
 #include <set>
 #include <sstream>
 
+#include "support/csv_output.hpp"
+#include "support/insider.hpp"
 #include "support/run_plumb.hpp"
 
 using nlohmann::json;
@@ -81,8 +84,9 @@ TEST_CASE("audit log prints one readable line per record, decimals with their un
   // example_lab: W100 with correction 0.03 mg and U 0.05 mg, stored as decimal grams "0.00003" and "0.00005".
   CHECK_THAT(r.out, Catch::Contains("recorded certificate RC-2291 of weight W100: correction +0.03 mg, U 0.05 mg"));
   CHECK_THAT(r.out, Catch::Contains("set balance BAL-A: capacity 220 g, d = 0.1 mg"));
-  CHECK_THAT(lines.back(), Catch::EndsWith("  A. Technician  recorded check run 1 on BAL-A (repeatability, "
-                                           "2026-11-30, pass; 10 readings)"));
+  CHECK_THAT(lines.back(), Catch::EndsWith("  A. Technician [" + plumb::test::test_login("A. Technician") +
+                                           "]  recorded check run 1 on BAL-A (repeatability, 2026-11-30, pass; 10 "
+                                           "readings)"));
   CHECK_THAT(r.out, !Catch::Contains("scale=") && !Catch::Contains("units="));
 }
 
@@ -122,17 +126,22 @@ TEST_CASE("audit log filters by date and by person", "[cli][audit-log]") {
   CHECK(count({"--from", utc_date(-1), "--to", utc_date(0)}) == 6 + accounts);
   CHECK(count({"--from", utc_date(1)}) == 0);
   CHECK(count({"--to", utc_date(-2)}) == 0);
-  CHECK(lab_count({"--by", "A. Technician"}) == 1);
-  CHECK(count({"--by", "Nobody Here"}) == 0);
-  CHECK(count({"--instrument", "BAL-A", "--by", "A. Technician"}) == 1);
-  const std::size_t by_technician = count({"--by", "A. Technician"});
+  const std::string technician = plumb::test::test_login("A. Technician");
+  CHECK(lab_count({"--author", technician}) == 1);
+  CHECK(count({"--instrument", "BAL-A", "--author", technician}) == 1);
+  const std::size_t by_technician = count({"--author", technician});
 
-  const auto r = run_plumb({"--db", db, "audit", "log", "--by", "A. Technician", "--from", utc_date(-1)}, dir.path());
+  const auto r = run_plumb({"--db", db, "audit", "log", "--author", technician, "--from", utc_date(-1)}, dir.path());
   REQUIRE(r.status == 0);
   CHECK_THAT(r.out, Catch::StartsWith("Audit trail of the whole lab, from " + utc_date(-1) +
-                                      " on (UTC), by "
-                                      "A. Technician: " +
-                                      std::to_string(by_technician) + " record(s)"));
+                                      " on (UTC), written by A. Technician (" + technician +
+                                      "): " + std::to_string(by_technician) + " record(s)"));
+  // A login that is no account is a mistake, not an empty answer.
+  const auto nobody = run_plumb({"--db", db, "audit", "log", "--author", "nobody-here"}, dir.path());
+  CHECK(nobody.status == 2);
+  CHECK(nobody.err ==
+        "plumb: --author \"nobody-here\" is not the login of any user account (see `plumb user "
+        "list`).\n");
 }
 
 TEST_CASE("a name with a line break cannot forge an audit line", "[cli][audit-log][security]") {
@@ -156,4 +165,53 @@ TEST_CASE("a name with a line break cannot forge an audit line", "[cli][audit-lo
   if (add.status == 2) CHECK(r.out.substr(r.out.find('\n')) == before.out.substr(before.out.find('\n')));
   for (const auto& l : lines) CHECK_THAT(l, !Catch::StartsWith("#99"));
   if (add.status == 0) CHECK_THAT(r.out, Catch::Contains("A. Technician\\n#99"));  // shown, escaped, on its line
+}
+
+TEST_CASE("a line break written into the trail behind plumb's back cannot forge a line of the text or CSV log",
+          "[cli][audit-log][security]") {
+  // An insider with the database file writes control characters into the last record's name and reason with
+  // SQLite, recomputing the chain (tests/support/insider.hpp). The log must still print one line per record, the
+  // CSV one row per record, and verification must name the record as changed.
+  plumb::test::ScratchDir dir;
+  const auto db = plumb::test::example_lab(dir);
+  const auto before = run_plumb({"--db", db.string(), "audit", "log", "--format", "json"}, dir.path());
+  REQUIRE(before.status == 0);
+  const std::size_t records = json::parse(before.out)["records"].size();
+  const std::string forged_actor = "Lab Tester\n#99     2026-12-01 09:00  Q. Manager [qm]  approved certificate id 1";
+  const std::string forged_reason = "none\r\n#100    2026-12-01 09:01  Q. Manager [qm]  voided check run 1";
+  plumb::test::insider_rewrite(db, [&](SQLite::Database& sql) {
+    SQLite::Statement edit(sql,
+                           "UPDATE audit_log SET actor = ?, reason = ? WHERE seq = (SELECT max(seq) FROM audit_log)");
+    edit.bind(1, forged_actor);
+    edit.bind(2, forged_reason);
+    REQUIRE(edit.exec() == 1);
+  });
+
+  const auto text = run_plumb({"--db", db.string(), "audit", "log"}, dir.path());
+  REQUIRE(text.status == 0);
+  const auto lines = lines_of(text.out);
+  CHECK(lines.size() == records + 1);  // the heading and one line per record
+  for (std::size_t i = 1; i < lines.size(); ++i) {
+    INFO(lines[i]);
+    CHECK_THAT(lines[i], !Catch::StartsWith("#99 ") && !Catch::StartsWith("#100 "));
+  }
+  CHECK_THAT(lines.back(), Catch::Contains("Lab Tester\\n#99") && Catch::Contains("none\\r\\n#100"));
+
+  const auto csv = run_plumb({"--db", db.string(), "audit", "log", "--format", "csv"}, dir.path());
+  REQUIRE(csv.status == 0);
+  const json rows = plumb::test::parse_csv(dir, csv.out);
+  REQUIRE(rows.size() == records + 1);  // header and one row per record: the line break stays inside its field
+  const auto& header = rows[0];
+  const auto column = [&](const char* name) {
+    for (std::size_t i = 0; i < header.size(); ++i)
+      if (header[i] == name) return i;
+    FAIL("no column " << name);
+    return std::size_t{0};
+  };
+  CHECK(rows.back()[column("actor")] == forged_actor);
+  CHECK(rows.back()[column("reason")] == forged_reason);
+
+  const auto verify = run_plumb({"--db", db.string(), "audit", "verify"}, dir.path());
+  CHECK(verify.status == 1);
+  CHECK_THAT(verify.err + verify.out, Catch::Contains("checkpoint"));
 }

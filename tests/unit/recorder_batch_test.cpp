@@ -103,5 +103,5 @@ TEST_CASE("the Recorder refuses a text that is not plain text on one line, for a
   CHECK(db.sql().execAndGet("SELECT count(*) FROM audit_log").getInt64() == records_before);
   // The person recorded in the trail is held to the same rule.
   CHECK_THROWS_WITH(store::Recorder(db.sql(), store::Actor{"Q.\x1B[2JManager", "tester"}),
-                    Catch::StartsWith("--by \"Q.\\x1B[2JManager\" holds an escape character"));
+                    Catch::StartsWith("the user's printed name \"Q.\\x1B[2JManager\" holds an escape character"));
 }

@@ -280,8 +280,8 @@ store::RunRecord record_calibration(store::Database& db, const store::Actor& act
 std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, const CalibrationRunInput& in) {
   const Date on = parse_date(in.on, "--on");
   if (days_between(today_utc(), on) > 1) throw InputError(fmt::format("--on {} is in the future.", in.on));
-  if (in.operator_name.empty()) throw InputError("--by must name the operator who performed the calibration.");
-  validate_free_text(in.operator_name, "--by");
+  if (in.operator_name.empty()) throw InputError("operator: the calibration needs the name of who performed it.");
+  validate_free_text(in.operator_name, "operator");
   const stats::Model model = report::parse_model(in.model, "--model");
   density::AirFormula formula = density::AirFormula::cipm2007;
   if (in.air_formula == "oiml-r111") formula = density::AirFormula::oiml_r111;

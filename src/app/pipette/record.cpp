@@ -188,8 +188,8 @@ store::RunRecord record_pipette_check(store::Database& db, const store::Actor& a
 std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, const PipetteCheckInput& in) {
   const Date on = parse_date(in.on, "--on");
   if (days_between(today_utc(), on) > 1) throw InputError(fmt::format("--on {} is in the future.", in.on));
-  if (in.operator_name.empty()) throw InputError("--by must name the operator who performed the check.");
-  validate_free_text(in.operator_name, "--by");
+  if (in.operator_name.empty()) throw InputError("operator: the check needs the name of who performed it.");
+  validate_free_text(in.operator_name, "operator");
 
   // Conditions, named by the options they came from.
   const Decimal water =

@@ -14,6 +14,7 @@
 #include "store/lab_key.hpp"
 #include "store/repository.hpp"
 #include "store/signature_check.hpp"
+#include "store/users.hpp"
 
 namespace plumb::app {
 namespace {
@@ -67,19 +68,24 @@ std::vector<store::AuditRecord> of_certificate(const std::vector<store::AuditRec
   return out;
 }
 
-/// Applies --from, --to and --by, and says so in the scope.
-void narrow(AuditLog& log, const AuditLogFilter& f) {
+/// Applies --from, --to and --author, and says so in the scope.
+void narrow(store::Database& db, AuditLog& log, const AuditLogFilter& f) {
   std::optional<Date> from, to;
   if (f.from) from = parse_date(*f.from, "--from");
   if (f.to) to = parse_date(*f.to, "--to");
   if (from && to && *from > *to) throw InputError(fmt::format("--from {} is after --to {}.", *f.from, *f.to));
-  if (f.by && f.by->find_first_not_of(" \t") == std::string::npos)
-    throw InputError("--by must name the person whose records to show (it is empty).");
-  if (!from && !to && !f.by) return;
+  std::optional<store::UserRecord> author;
+  if (f.author) {
+    author = store::find_user_by_login(db.sql(), *f.author);
+    if (!author)
+      throw InputError(
+          fmt::format("--author \"{}\" is not the login of any user account (see `plumb user list`).", *f.author));
+  }
+  if (!from && !to && !author) return;
   std::erase_if(log.records, [&](const store::AuditRecord& r) {
     // Recorded times are UTC, ISO 8601: the first ten characters are the date.
     const std::string day = r.at.substr(0, 10);
-    return (from && day < to_string(*from)) || (to && day > to_string(*to)) || (f.by && r.actor != *f.by);
+    return (from && day < to_string(*from)) || (to && day > to_string(*to)) || (author && r.user_id != author->id);
   });
   if (from && to)
     log.scope += fmt::format(", {} to {} (UTC)", to_string(*from), to_string(*to));
@@ -87,7 +93,7 @@ void narrow(AuditLog& log, const AuditLogFilter& f) {
     log.scope += fmt::format(", from {} on (UTC)", to_string(*from));
   else if (to)
     log.scope += fmt::format(", up to {} (UTC)", to_string(*to));
-  if (f.by) log.scope += fmt::format(", by {}", *f.by);
+  if (author) log.scope += fmt::format(", written by {} ({})", author->full_name, author->login);
 }
 
 }  // namespace
@@ -110,7 +116,9 @@ AuditLog audit_log(store::Database& db, const AuditLogFilter& filter) {
     log.scope = "the whole lab";
     log.records = store::audit_records(db.sql());
   }
-  narrow(log, filter);
+  narrow(db, log, filter);
+  for (const auto& u : store::all_users(db.sql())) log.authors.logins.emplace(u.id, u.login);
+  log.authors.first_account_seq = store::first_account_record(db.sql());
   return log;
 }
 

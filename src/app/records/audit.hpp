@@ -6,6 +6,7 @@
 #include <string>
 #include <vector>
 
+#include "report/records/audit_line.hpp"
 #include "store/audit_trail.hpp"
 #include "store/database.hpp"
 
@@ -15,20 +16,21 @@ struct AuditLogFilter {
   std::optional<std::string> instrument;   ///< an instrument id
   std::optional<std::string> certificate;  ///< a certificate number (or run number / LAST)
   std::optional<std::string> from, to;     ///< --from / --to: UTC dates, YYYY-MM-DD, inclusive
-  std::optional<std::string> by;           ///< --by: only the records of this person (the name as recorded)
+  std::optional<std::string> author;       ///< --author: only the records written by this user account (its login)
 };
 
 struct AuditLog {
   std::string scope;  ///< "the whole lab", "instrument BAL-A", "certificate BC-2026-0001"
   std::vector<store::AuditRecord> records;
+  report::AuditAuthors authors;  ///< who wrote each record
 };
 
 /// The records of the trail that concern the filter's subject, in order. An instrument's records are its
 /// own rows, every row naming it (instrument_id), its runs and their rows (run_id), their certificates and
 /// their events (certificate_id), and its retire/reinstate events. A certificate's records are its run with
 /// the run's rows, the certificate, its events and the certificate that replaces it.
-/// --from, --to and --by narrow any of these further; InputError naming the option for a malformed date, a
-/// period that ends before it starts, or an empty name.
+/// --from, --to and --author narrow any of these further; InputError naming the option for a malformed date, a
+/// period that ends before it starts, or a login that names no account.
 AuditLog audit_log(store::Database& db, const AuditLogFilter& filter);
 
 struct VerifyRequest {

@@ -28,17 +28,17 @@ store::ServiceEvent change_service_status(store::Database& db, const store::Acto
   if (reason.find_first_not_of(" \t") == std::string::npos)
     throw InputError(fmt::format("--reason must say why {} {} is {}.", item_kind, id, event));
   if (actor.name.find_first_not_of(" \t") == std::string::npos)
-    throw InputError(fmt::format("--by must name the person who decides to {} {} {}.", verb, item_kind, id));
+    throw InputError(fmt::format("the user who decides to {} {} {} has no printed name.", verb, item_kind, id));
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   require_lab(db);
   if (!item_exists(db, item_kind, id)) throw InputError(fmt::format("{} \"{}\" is not registered.", item_kind, id));
   const auto retired = store::retirement(db.sql(), item_kind, id);
   if (event == "retired" && retired)
-    throw InputError(fmt::format("{} {} is already retired (since {}, by {}: {}).", item_kind, id,
-                                 retired->recorded_at, retired->by_name, retired->reason));
+    throw InputError(fmt::format("{} {} is already retired (since {}, by {}: {}).", item_kind, id, retired->recorded_at,
+                                 retired->by_name, retired->reason));
   if (event == "reinstated" && !retired)
-    throw InputError(fmt::format("{} {} is in service; only a retired {} can be reinstated.", item_kind, id,
-                                 item_kind));
+    throw InputError(
+        fmt::format("{} {} is in service; only a retired {} can be reinstated.", item_kind, id, item_kind));
   store::Recorder rec(db.sql(), actor);
   store::ServiceEvent e;
   e.item_kind = item_kind;
@@ -61,9 +61,10 @@ void require_in_service(const std::string& item_kind, const std::string& id,
                         const std::optional<store::ServiceEvent>& retired) {
   if (!retired) return;
   const std::string option = item_kind == "weight" ? "--weight" : "instrument";
-  throw InputError(fmt::format("{} {} was retired on {} by {} ({}); reinstate it with `plumb {} reinstate {} "
-                               "--reason ... --by NAME` before recording a new check.",
-                               option, id, retired->recorded_at, retired->by_name, retired->reason, item_kind, id));
+  throw InputError(
+      fmt::format("{} {} was retired on {} by {} ({}); reinstate it with `plumb {} reinstate {} "
+                  "--reason ...` before recording a new check.",
+                  option, id, retired->recorded_at, retired->by_name, retired->reason, item_kind, id));
 }
 
 }  // namespace plumb::app

@@ -23,8 +23,8 @@ namespace {
 
 // build_check_run names the options of `check record`; in an import the same values come from columns.
 std::string as_column_message(std::string message) {
-  constexpr std::array<std::pair<std::string_view, std::string_view>, 4> renames{
-      {{"--weight", "weight"}, {"--on", "date"}, {"--procedure", "procedure"}, {"--by", "operator"}}};
+  constexpr std::array<std::pair<std::string_view, std::string_view>, 3> renames{
+      {{"--weight", "weight"}, {"--on", "date"}, {"--procedure", "procedure"}}};
   for (const auto& [option, column] : renames)
     if (message.rfind(option, 0) == 0 && message.size() > option.size() &&
         (message[option.size()] == ' ' || message[option.size()] == ':'))

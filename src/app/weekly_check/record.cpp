@@ -29,8 +29,8 @@ RecordedCheck record_check_in(store::Recorder& rec, CheckLookups& lookups, const
 WeeklyCheckSetup prepare_weekly_check(CheckLookups& lookups, const CheckInput& in) {
   const Date on = parse_date(in.on, "--on");
   if (days_between(today_utc(), on) > 1) throw InputError(fmt::format("--on {} is in the future.", in.on));
-  if (in.operator_name.empty()) throw InputError("--by must name the operator who performed the check.");
-  validate_free_text(in.operator_name, "--by");
+  if (in.operator_name.empty()) throw InputError("operator: the check needs the name of who performed it.");
+  validate_free_text(in.operator_name, "operator");
   if (in.weight_ids.size() != 1)
     throw InputError(fmt::format("--weight: a repeatability check uses exactly one reference weight ({} given).",
                                  in.weight_ids.size()));

@@ -123,8 +123,8 @@ std::string approval_queue_text(const std::vector<CertificateListItem>& items, D
            waited(c.waiting_days.value_or(0)), c.operator_name});
   out += t.text("  ");
   out +=
-      "Approve one with `plumb certificate approve NUMBER --by NAME --meaning \"reviewed and approved\"`;\n"
-      "the reviewer must be someone other than the person who performed the check.\n";
+      "Approve one, logged in as a reviewer, with `plumb certificate approve NUMBER --meaning \"reviewed and "
+      "approved\"`;\nthe reviewer must be someone other than the user who recorded or corrected the check.\n";
   return out;
 }
 

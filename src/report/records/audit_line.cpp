@@ -90,12 +90,13 @@ std::string describe_row(const std::string& table, const json& row, const std::m
     return fmt::format("{} user id {}{}", text_of(row, "event"), text_of(row, "user_id"),
                        text_of(row, "role").empty() ? "" : ": " + text_of(row, "role"));
   if (table == "security_settings")
-    return fmt::format("set the password rules: at least {} characters, lock after {} failed log-ins, sessions end "
-                       "after {} minutes idle",
-                       text_of(row, "min_password_length"), text_of(row, "max_failed_logins"),
-                       text_of(row, "idle_minutes"));
+    return fmt::format(
+        "set the password rules: at least {} characters, lock after {} failed log-ins, sessions end "
+        "after {} minutes idle",
+        text_of(row, "min_password_length"), text_of(row, "max_failed_logins"), text_of(row, "idle_minutes"));
   if (table == "sessions") return fmt::format("logged in as user id {}", text_of(row, "user_id"));
-  if (table == "session_ends") return fmt::format("ended session {} ({})", text_of(row, "session_id"), text_of(row, "why"));
+  if (table == "session_ends")
+    return fmt::format("ended session {} ({})", text_of(row, "session_id"), text_of(row, "why"));
   if (table == "signatures")
     return fmt::format("signed {} {} as \"{}\" ({}, user id {})", text_of(row, "table_name"), text_of(row, "row_key"),
                        text_of(row, "meaning"), text_of(row, "printed_name"), text_of(row, "user_id"));
@@ -118,10 +119,20 @@ std::string audit_record_what(const store::AuditRecord& record) {
   return what;
 }
 
-std::string audit_record_line(const store::AuditRecord& record) {
+std::string audit_record_author(const store::AuditRecord& record, const AuditAuthors& authors) {
+  if (!record.user_id)
+    return authors.first_account_seq && record.seq > *authors.first_account_seq ? "not logged in"
+                                                                                : "written before user accounts";
+  const auto login = authors.logins.find(*record.user_id);
+  return login == authors.logins.end() ? fmt::format("user id {}, not an account of this database", *record.user_id)
+                                       : printable(login->second);
+}
+
+std::string audit_record_line(const store::AuditRecord& record, const AuditAuthors& authors) {
   // "2026-11-30T09:12:45Z" -> "2026-11-30 09:12"
   std::string at = record.at.size() >= 16 ? record.at.substr(0, 10) + " " + record.at.substr(11, 5) : record.at;
-  std::string out = fmt::format("{}  {}  {}", printable(at), printable(record.actor), audit_record_what(record));
+  std::string out = fmt::format("{}  {} [{}]  {}", printable(at), printable(record.actor),
+                                audit_record_author(record, authors), audit_record_what(record));
   if (record.reason && !record.reason->empty()) out += fmt::format(": why \"{}\"", printable(*record.reason));
   return out;
 }

@@ -24,22 +24,28 @@ json parsed_or_null(const std::optional<std::string>& text) {
 
 // Every stored text is shown on one line (core/text_field.hpp): a name or reason recorded with a line break
 // (by an older plumb, or written behind its back) cannot make the log show a record that is not there.
-std::string audit_log_text(const std::string& scope, const std::vector<store::AuditRecord>& records) {
+std::string audit_log_text(const std::string& scope, const std::vector<store::AuditRecord>& records,
+                           const AuditAuthors& authors) {
   std::string out = fmt::format(
-      "Audit trail of {}: {} record(s), times in UTC (every column, the OS account and the "
-      "hashes: --format csv or json)\n",
+      "Audit trail of {}: {} record(s), times in UTC, each with the printed name and [login] of "
+      "the user who wrote it (every column, the OS account and the hashes: --format csv or json)\n",
       printable(scope), records.size());
-  for (const auto& r : records) out += fmt::format("#{:<6} {}\n", r.seq, audit_record_line(r));
+  for (const auto& r : records) out += fmt::format("#{:<6} {}\n", r.seq, audit_record_line(r, authors));
   return out;
 }
 
-std::string audit_log_csv(const std::vector<store::AuditRecord>& records) {
+std::string audit_log_csv(const std::vector<store::AuditRecord>& records, const AuditAuthors& authors) {
   std::ostringstream out;
   CsvWriter csv(out);
-  csv.header({"seq", "at_utc", "actor", "os_user", "action", "table", "row_key", "reason", "before_json", "after_json",
-              "prev_hash", "hash"});
+  csv.header({"seq", "at_utc", "actor", "user_id", "user", "os_user", "action", "table", "row_key", "reason",
+              "before_json", "after_json", "prev_hash", "hash"});
   for (const auto& r : records) {
-    csv.integer(r.seq).value(r.at).text(r.actor).text(r.os_user).value(r.action).value(r.table_name);
+    csv.integer(r.seq).value(r.at).text(r.actor);
+    if (r.user_id)
+      csv.integer(*r.user_id);
+    else
+      csv.value("");
+    csv.text(audit_record_author(r, authors)).text(r.os_user).value(r.action).value(r.table_name);
     csv.value(r.row_key).text(r.reason.value_or("")).text(r.before_json.value_or("")).text(r.after_json.value_or(""));
     csv.value(r.prev_hash).value(r.hash);
     csv.end_row();
@@ -60,12 +66,15 @@ json after_of(const store::AuditRecord& r) {
 
 }  // namespace
 
-json audit_log_json(const std::string& scope, const std::vector<store::AuditRecord>& records) {
+json audit_log_json(const std::string& scope, const std::vector<store::AuditRecord>& records,
+                    const AuditAuthors& authors) {
   json list = json::array();
   for (const auto& r : records)
     list.push_back({{"seq", r.seq},
                     {"at", r.at},
                     {"actor", r.actor},
+                    {"user_id", r.user_id ? json(*r.user_id) : json()},
+                    {"user", audit_record_author(r, authors)},
                     {"os_user", r.os_user},
                     {"action", r.action},
                     {"table", r.table_name},
