@@ -107,15 +107,17 @@ TEST_CASE("a correction supersedes the run and its certificate and keeps both vi
 
   r = run_plumb({"--db", db, "audit", "log", "--certificate", old_number, "--format", "csv"}, dir.path());
   REQUIRE(r.status == 0);
-  CHECK(r.out.rfind("seq,at_utc,actor,os_user,action,table,row_key,reason", 0) == 0);
+  CHECK(r.out.rfind("seq,at_utc,actor,user_id,user,os_user,action,table,row_key,reason", 0) == 0);
   CHECK_THAT(r.out, Catch::Contains(",certificates,id=1,") && Catch::Contains(",certificates,id=2,") &&
                         Catch::Contains(",certificate_events,") && Catch::Contains("readings typed from the wrong"));
   r = run_plumb({"--db", db, "audit", "log"}, dir.path());
   // One readable line per record: who, what and why (the OS account is in the CSV and JSON).
   CHECK_THAT(r.out,
-             Catch::Contains("  Q. Manager  recorded check run 2 on BAL-A (repeatability, 2026-11-30, pass, "
-                             "supersedes run 1; 10 readings): why \"readings typed from the wrong worksheet\"") &&
-                 Catch::Contains("  A. Technician  recorded check run 1 on BAL-A (repeatability"));
+             Catch::Contains("  Q. Manager [" + plumb::test::test_login("Q. Manager") +
+                             "]  recorded check run 2 on BAL-A (repeatability, 2026-11-30, pass, supersedes run 1; 10 "
+                             "readings): why \"readings typed from the wrong worksheet\"") &&
+                 Catch::Contains("  A. Technician [" + plumb::test::test_login("A. Technician") +
+                                 "]  recorded check run 1 on BAL-A (repeatability"));
 
   // The correction made the balance pass: due follows the correction, not the superseded failure.
   r = run_plumb({"--db", db, "due", "--on", "2026-12-01", "--format", "json"}, dir.path());

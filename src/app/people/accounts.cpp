@@ -85,23 +85,25 @@ void check_new_password(store::Database& db, const std::string& password, const 
                                  settings.min_password_length));
 }
 
-store::Actor add_first_administrator(store::Database& db, const NewUser& admin) {
+store::Actor first_administrator(store::Database& db, const NewUser& admin) {
   check_login(admin.login);
   check_full_name(admin.full_name, "--admin-name");
-  SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   if (store::count_users(db.sql()) > 0)
     throw InputError(
         fmt::format("database \"{}\" has user accounts already; its administrators add users with "
                     "`plumb user add`.",
                     db.path().string()));
   check_new_password(db, admin.password, "the administrator's password");
-  // A database from before user accounts holds records already: it always gets the production limits.
-  const bool has_records = db.sql().execAndGet("SELECT count(*) FROM audit_log").getInt64() > 0;
   // The new account writes its own records: its id is the next one users will give (ids are never reused).
   const std::int64_t id =
       db.sql().execAndGet("SELECT coalesce((SELECT seq FROM sqlite_sequence WHERE name = 'users'), 0) + 1").getInt64();
-  store::Actor actor{admin.full_name, store::current_os_user(), id};
-  store::Recorder rec(db.sql(), actor);
+  return {admin.full_name, store::current_os_user(), id};
+}
+
+void record_first_administrator(store::Database& db, store::Recorder& rec, const NewUser& admin) {
+  const std::int64_t id = *rec.actor().user_id;
+  // A database from before user accounts holds records already: it always gets the production limits.
+  const bool has_records = db.sql().execAndGet("SELECT count(*) FROM audit_log").getInt64() > 0;
   rec.insert("users", {{"id", id}, {"login", admin.login}, {"full_name", admin.full_name}, {"created_at", rec.now()}},
              {"id"});
   if (store::security_settings(db.sql()).set_at.empty()) {
@@ -113,6 +115,13 @@ store::Actor add_first_administrator(store::Database& db, const NewUser& admin) 
   store::add_password(rec, id, hash_password(admin.password, store::security_settings(db.sql()).password_hashing),
                       false);
   store::add_account_event(rec, id, "role granted", std::string(role_name(Role::administrator)));
+}
+
+store::Actor add_first_administrator(store::Database& db, const NewUser& admin) {
+  SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
+  const store::Actor actor = first_administrator(db, admin);
+  store::Recorder rec(db.sql(), actor);
+  record_first_administrator(db, rec, admin);
   rec.commit(tx);
   return actor;
 }

@@ -23,6 +23,11 @@ struct NewUser {
 /// The database's first administrator: only when it has no accounts yet (a new database, or one from before
 /// user accounts). Its password is its own (no forced change). Returns the actor it writes as.
 store::Actor add_first_administrator(store::Database& db, const NewUser& admin);
+/// The parts of add_first_administrator, for a command that records more in the same transaction (init): the
+/// checks and the actor the new administrator writes as (InputError when the database has accounts already, or for
+/// a login, name or password the lab's rules refuse), then its records, written by `rec` of that actor.
+store::Actor first_administrator(store::Database& db, const NewUser& admin);
+void record_first_administrator(store::Database& db, store::Recorder& rec, const NewUser& admin);
 
 store::UserRecord add_user(store::Database& db, const store::Actor& admin, const NewUser& user);
 void grant_role(store::Database& db, const store::Actor& admin, const std::string& login, const std::string& role);

@@ -67,8 +67,12 @@ bool create_lab(const std::filesystem::path& path, const NewUser& admin, const s
   store::CreatedFileGuard key_guard(key_file);
   store::CreatedFileGuard public_guard(store::public_key_path_for(key_file));
   ensure_lab_key(db.path());
-  const store::Actor actor = add_first_administrator(db, admin);
-  init_lab(db, actor, name);
+  // One transaction: the administrator and the lab are recorded together, or neither.
+  SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
+  store::Recorder rec(db.sql(), first_administrator(db, admin));
+  record_first_administrator(db, rec, admin);
+  store::add_lab(rec, name);
+  rec.commit(tx);
   key_guard.keep();
   public_guard.keep();
   file.keep();
