@@ -3,8 +3,9 @@
 size, the commands an inspector and the lab's staff run, each against a floor measured in the same run.
 
 Per size it prints, for each command: wall time, CPU time (user + system, from wait4) and peak memory (the
-child's maximum resident set size, from wait4), the ratio to its floor, and the growth exponent of the wall time
-from the size before (log(t2/t1) / log(n2/n1): 0 is flat, 1 linear). The floors:
+child's maximum resident set size, from wait4), the ratios to its floor, and the growth exponent of the wall time
+from the size before (log(t2/t1) / log(n2/n1): 0 is flat, 1 linear). On a shared machine the CPU ratio is the
+steadier one (wall time then depends on the neighbours). The floors:
   import          the sqlite3 shell's `.import` of the same CSV into a fresh bare table
   audit verify    sha256sum of the database file + sqlite3 `PRAGMA integrity_check`
   backup          a plain copy of the file (cp) + plumb's own verification (`audit verify`) of the database
@@ -95,7 +96,7 @@ def setup_lab(plumb, db, work, instruments, env):
                    "--new-password-file", first_pw], env)
     quiet([plumb, "--db", db, "--user", "bench-qm", "--password-file", first_pw, "user", "password",
            "--new-password-file", qm_pw], env)
-    quiet([plumb, "--db", db, "login", "--user", "bench-qm", "--password-file", qm_pw], env)
+    quiet([plumb, "--db", db, "--password-file", qm_pw, "login", "--user", "bench-qm"], env)
     for w in range(1, WEIGHTS + 1):
         quiet([plumb, "--db", db, "weight", "add", f"W{w:03d}", "--nominal", "100g", "--class", "E2", "--correction",
                "0.02mg", "--uncertainty", "0.05mg", "--k", "2", "--certificate", f"BENCH-CERT-{w}", "--calibrated",
@@ -227,14 +228,16 @@ def main():
         print(f"\n== {held} readings ({held // READINGS_PER_RUN} runs; this step imported {added}); database "
               f"{os.path.getsize(db) / 1e6:.0f} MB = {os.path.getsize(db) / held:.0f} bytes per reading; the shell's "
               f"bare table {os.path.getsize(bare) / 1e6:.0f} MB")
-        print(f"   {'command':24} {'wall s':>9} {'cpu s':>9} {'peak MiB':>9} | {'floor wall':>10} {'floor MiB':>9} | "
-              f"{'x floor':>8} {'growth':>7}")
+        print(f"   {'command':24} {'wall s':>9} {'cpu s':>9} {'peak MiB':>9} | {'floor wall':>10} {'floor cpu':>9} "
+              f"{'floor MiB':>9} | {'x wall':>8} {'x cpu':>8} | {'growth':>7}")
         for name, (mine, floor) in rows.items():
             growth = ""
             if previous and name in previous and previous[name][0].wall > 0:
                 growth = f"{math.log(mine.wall / previous[name][0].wall) / math.log(held / previous['_held']):.2f}"
+            cpu_ratio = f"{mine.cpu / floor.cpu:7.2f}x" if floor.cpu > 0 else "       -"
             print(f"   {name:24} {mine.wall:9.3f} {mine.cpu:9.3f} {mine.rss_kib / 1024:9.1f} | {floor.wall:10.3f} "
-                  f"{floor.rss_kib / 1024:9.1f} | {mine.wall / floor.wall:7.2f}x {growth:>7}")
+                  f"{floor.cpu:9.3f} {floor.rss_kib / 1024:9.1f} | {mine.wall / floor.wall:7.2f}x {cpu_ratio} | "
+                  f"{growth:>7}")
         rows["_held"] = held
         previous = rows
         sys.stdout.flush()

@@ -21,22 +21,28 @@ namespace {
 
 using nlohmann::json;
 
-json json_text_or_null(const std::optional<std::string>& s) { return s ? json(*s) : json(); }
+json json_text_or_null(const std::optional<std::string>& s) {
+  return s ? json(*s) : json();
+}
 
 std::optional<std::string> optional_column_text(const SQLite::Column& c) {
   if (c.isNull()) return std::nullopt;
   return c.getString();
 }
 
-std::string_view column_view(sqlite3_stmt* q, int i) { return column_text(q, i); }
+std::string_view column_view(sqlite3_stmt* q, int i) {
+  return column_text(q, i);
+}
 
 /// The chain, one record at a time: each record's place, link and hash.
 class ChainCheck {
-public:
+ public:
   explicit ChainCheck(AuditVerification& out) : out_(out), prev_(genesis_hash()) {}
 
   void check(const AuditContent& r, std::string_view prev_hash, std::string_view hash) {
-    const auto where = [&] { return fmt::format("({} {}, recorded {} by {})", r.table_name, r.row_key, r.at, r.actor); };
+    const auto where = [&] {
+      return fmt::format("({} {}, recorded {} by {})", r.table_name, r.row_key, r.at, r.actor);
+    };
     if (r.seq != expected_) {
       out_.problems.push_back({AuditProblem::Kind::missing_record, expected_, std::string(r.table_name),
                                std::string(r.row_key), "", std::string(r.at),
@@ -55,10 +61,10 @@ public:
     hashed_ += '\n';
     append_canonical_audit_json(hashed_, r);
     if (sha256_hex(hashed_) != hash)
-      out_.problems.push_back({AuditProblem::Kind::altered_record, r.seq, std::string(r.table_name),
-                               std::string(r.row_key), "", std::string(r.at),
-                               fmt::format("audit record {} {} was altered: its content no longer matches its hash.",
-                                           r.seq, where())});
+      out_.problems.push_back(
+          {AuditProblem::Kind::altered_record, r.seq, std::string(r.table_name), std::string(r.row_key), "",
+           std::string(r.at),
+           fmt::format("audit record {} {} was altered: its content no longer matches its hash.", r.seq, where())});
     prev_.assign(hash);
     expected_ = r.seq + 1;
     ++walked_;
@@ -70,7 +76,7 @@ public:
   /// Record n is the n-th record: no gap in the sequence numbers.
   [[nodiscard]] bool numbered_by_position() const { return numbered_by_position_; }
 
-private:
+ private:
   AuditVerification& out_;
   std::int64_t expected_ = 1, walked_ = 0;
   bool numbered_by_position_ = true;
@@ -81,20 +87,22 @@ private:
 
 json AuditRecord::hashed_content() const {
   json j = {{"seq", seq},
-          {"at", at},
-          {"os_user", os_user},
-          {"actor", actor},
-          {"action", action},
-          {"table_name", table_name},
-          {"row_key", row_key},
-          {"before_json", json_text_or_null(before_json)},
-          {"after_json", json_text_or_null(after_json)},
-          {"reason", json_text_or_null(reason)}};
+            {"at", at},
+            {"os_user", os_user},
+            {"actor", actor},
+            {"action", action},
+            {"table_name", table_name},
+            {"row_key", row_key},
+            {"before_json", json_text_or_null(before_json)},
+            {"after_json", json_text_or_null(after_json)},
+            {"reason", json_text_or_null(reason)}};
   if (user_id) j["user_id"] = *user_id;  // records from before user accounts hash as they always did
   return j;
 }
 
-std::string genesis_hash() { return std::string(64, '0'); }
+std::string genesis_hash() {
+  return std::string(64, '0');
+}
 
 std::vector<RecordedRow> recorded_rows(const AuditRecord& record) {
   if (!record.after_json) return {};

@@ -91,9 +91,8 @@ void check_since(const Checkpoint& kept, const std::optional<Checkpoint>& in_db,
   if (kept.records > trail)
     out.problems.push_back(checkpoint_problem(
         seq, kept.signed_at,
-        fmt::format("{} of {} covers {} audit records, but the trail holds only {}: {} deleted.",
-                    checkpoint_text(kept), options.since_source, kept.records, trail,
-                    deleted_text(trail + 1, kept.records))));
+        fmt::format("{} of {} covers {} audit records, but the trail holds only {}: {} deleted.", checkpoint_text(kept),
+                    options.since_source, kept.records, trail, deleted_text(trail + 1, kept.records))));
   else if (records.hash_at(kept.records) != kept.head_hash)
     out.problems.push_back(checkpoint_problem(
         seq, kept.signed_at,

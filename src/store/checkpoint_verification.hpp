@@ -17,7 +17,7 @@ namespace plumb::store {
 /// held in memory. When the sequence numbers run 1..n without a gap (the chain check says so), position n is
 /// record n; otherwise (records were deleted) positions are counted, which is slow but only ever on a damaged trail.
 class TrailPositions {
-public:
+ public:
   TrailPositions(SQLite::Database& db, std::int64_t records, bool numbered_by_position);
   [[nodiscard]] std::int64_t size() const { return records_; }
   /// The hash of the record at `position` (1-based); the genesis hash at 0.
@@ -27,7 +27,7 @@ public:
   };
   Named record_at(std::int64_t position);
 
-private:
+ private:
   SQLite::Statement& lookup(std::int64_t position);
   std::int64_t records_;
   SQLite::Statement query_;

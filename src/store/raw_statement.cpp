@@ -14,7 +14,9 @@ RawStatement::RawStatement(SQLite::Database& db, const std::string& sql) : db_(d
   }
 }
 
-RawStatement::~RawStatement() { sqlite3_finalize(stmt_); }
+RawStatement::~RawStatement() {
+  sqlite3_finalize(stmt_);
+}
 
 bool RawStatement::step() {
   const int rc = sqlite3_step(stmt_);

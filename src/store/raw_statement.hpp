@@ -12,7 +12,7 @@
 namespace plumb::store {
 
 class RawStatement {
-public:
+ public:
   /// StorageError naming SQLite's message when `sql` does not prepare.
   RawStatement(SQLite::Database& db, const std::string& sql);
   ~RawStatement();
@@ -25,7 +25,7 @@ public:
   void reset();
   [[nodiscard]] sqlite3_stmt* get() const { return stmt_; }
 
-private:
+ private:
   sqlite3* db_;
   sqlite3_stmt* stmt_ = nullptr;
 };

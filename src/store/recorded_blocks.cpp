@@ -34,7 +34,7 @@ RecordedValue value_of_document(const json& v) {
 /// "rows": [[...], ...]}, ...} for "insert rows", {"column": value, ...} for "insert". Anything else stops the
 /// reading (a handler returning false), and the record is read as a document instead.
 class RecordedBlocksReader {
-public:
+ public:
   RecordedBlocksReader(RecordedBlocks& out, bool rows_record, std::string_view table)
       : out_(out), rows_record_(rows_record), single_table_(table) {}
 
@@ -79,7 +79,8 @@ public:
         r.text.assign(s);
         return after_value();
       }
-      default: return false;
+      default:
+        return false;
     }
   }
   bool start_object(std::size_t /*unused*/) {
@@ -92,21 +93,33 @@ public:
           state_ = State::object_key;
         }
         return true;
-      case State::block_start: state_ = State::columns_key; return true;
+      case State::block_start:
+        state_ = State::columns_key;
+        return true;
       case State::row:
       case State::object_value:
         digest_return_ = state_;
         state_ = State::digest_key;
         return true;
-      default: return false;
+      default:
+        return false;
     }
   }
   bool key(std::string& k) {
     switch (state_) {
-      case State::root: start_block(k); state_ = State::block_start; return true;
-      case State::columns_key: state_ = k == "columns" ? State::columns_start : State::failed; return k == "columns";
-      case State::rows_key: state_ = k == "rows" ? State::rows_start : State::failed; return k == "rows";
-      case State::digest_key: state_ = k == "sha256" ? State::digest_value : State::failed; return k == "sha256";
+      case State::root:
+        start_block(k);
+        state_ = State::block_start;
+        return true;
+      case State::columns_key:
+        state_ = k == "columns" ? State::columns_start : State::failed;
+        return k == "columns";
+      case State::rows_key:
+        state_ = k == "rows" ? State::rows_start : State::failed;
+        return k == "rows";
+      case State::digest_key:
+        state_ = k == "sha256" ? State::digest_value : State::failed;
+        return k == "sha256";
       case State::object_key: {
         RecordedBlock& b = *block_;
         if (b.column_count == b.columns.size()) b.columns.emplace_back();
@@ -114,13 +127,18 @@ public:
         state_ = State::object_value;
         return true;
       }
-      default: return false;
+      default:
+        return false;
     }
   }
   bool end_object() {
     switch (state_) {
-      case State::root: state_ = State::done; return true;
-      case State::block_end: state_ = State::root; return true;
+      case State::root:
+        state_ = State::done;
+        return true;
+      case State::block_end:
+        state_ = State::root;
+        return true;
       case State::digest_end:
         state_ = digest_return_;
         return after_value();
@@ -128,39 +146,70 @@ public:
         block_->row_count = 1;
         state_ = State::done;
         return true;
-      default: return false;
+      default:
+        return false;
     }
   }
   bool start_array(std::size_t /*unused*/) {
     switch (state_) {
-      case State::columns_start: state_ = State::columns; return true;
-      case State::rows_start: state_ = State::rows; return true;
-      case State::rows: row_values_ = 0; state_ = State::row; return true;
-      default: return false;
+      case State::columns_start:
+        state_ = State::columns;
+        return true;
+      case State::rows_start:
+        state_ = State::rows;
+        return true;
+      case State::rows:
+        row_values_ = 0;
+        state_ = State::row;
+        return true;
+      default:
+        return false;
     }
   }
   bool end_array() {
     switch (state_) {
-      case State::columns: state_ = State::rows_key; return true;
-      case State::rows: state_ = State::block_end; return true;
+      case State::columns:
+        state_ = State::rows_key;
+        return true;
+      case State::rows:
+        state_ = State::block_end;
+        return true;
       case State::row:
         if (row_values_ != block_->column_count) return false;
         ++block_->row_count;
         state_ = State::rows;
         return true;
-      default: return false;
+      default:
+        return false;
     }
   }
-  bool parse_error(std::size_t /*unused*/, const std::string& /*unused*/, const nlohmann::detail::exception& /*unused*/) {
+  bool parse_error(std::size_t /*unused*/, const std::string& /*unused*/,
+                   const nlohmann::detail::exception& /*unused*/) {
     return false;
   }
 
   [[nodiscard]] bool complete() const { return state_ == State::done; }
 
-private:
+ private:
   enum class State {
-    start, root, block_start, columns_key, columns_start, columns, rows_key, rows_start, rows, row, block_end,
-    object_key, object_value, digest_key, digest_value, digest_end, done, failed
+    start,
+    root,
+    block_start,
+    columns_key,
+    columns_start,
+    columns,
+    rows_key,
+    rows_start,
+    rows,
+    row,
+    block_end,
+    object_key,
+    object_value,
+    digest_key,
+    digest_value,
+    digest_end,
+    done,
+    failed
   };
 
   void start_block(const std::string_view table) {
@@ -203,11 +252,16 @@ bool has_repeats(const std::vector<std::string>& names, std::size_t n) {
 
 json RecordedValue::to_json() const {
   switch (kind) {
-    case Kind::null: return json();
-    case Kind::integer: return integer;
-    case Kind::text: return text;
-    case Kind::digest: return json{{"sha256", text}};
-    case Kind::other: return other;
+    case Kind::null:
+      return json();
+    case Kind::integer:
+      return integer;
+    case Kind::text:
+      return text;
+    case Kind::digest:
+      return json{{"sha256", text}};
+    case Kind::other:
+      return other;
   }
   return json();
 }

@@ -42,7 +42,7 @@ struct RecordedBlock {
 
 /// The rows of one audit record, reused from record to record.
 class RecordedBlocks {
-public:
+ public:
   /// Reads what an audit record with `action` and `after_json` describes, as store::recorded_rows does: one row
   /// for "insert" into `table_name`, every row of every table for "insert rows", none otherwise or when the text
   /// is not what the action says.
@@ -55,7 +55,7 @@ public:
   RecordedBlock& add_block();
   void clear() { used_ = 0; }
 
-private:
+ private:
   std::vector<RecordedBlock> blocks_;
   std::size_t used_ = 0;
 };

@@ -41,16 +41,16 @@ std::vector<std::string> differing_columns(const TableSchema& info, const json& 
   return out;
 }
 
-AuditProblem field_problem(const TableSchema& info, const RecordNote& rec, const json& recorded_row,
-                           const json& actual, const std::string& field, const std::string& key) {
+AuditProblem field_problem(const TableSchema& info, const RecordNote& rec, const json& recorded_row, const json& actual,
+                           const std::string& field, const std::string& key) {
   const ColumnSchema* col = info.column(field);
   const json recorded = recorded_row.contains(field) ? recorded_row[field] : (col ? col->default_value : json());
   const std::string now = actual.contains(field) ? shown_value(actual[field]) : "absent (the column is gone)";
   // A long text is recorded by its SHA-256: the original cannot be shown, only that it was different.
-  const std::string then = recorded.is_object() && recorded.contains("sha256")
-                               ? fmt::format("a different text (SHA-256 {}...)",
-                                             recorded["sha256"].get<std::string>().substr(0, 16))
-                               : shown_value(recorded);
+  const std::string then =
+      recorded.is_object() && recorded.contains("sha256")
+          ? fmt::format("a different text (SHA-256 {}...)", recorded["sha256"].get<std::string>().substr(0, 16))
+          : shown_value(recorded);
   AuditProblem p{AuditProblem::Kind::field_mismatch, rec.seq, info.name, key, field, rec.at, ""};
   p.message = fmt::format("{} {}, {}: field {} is {} in the table but {} was recorded.", p.table, key,
                           where_recorded(rec), field, now, then);
@@ -60,9 +60,12 @@ AuditProblem field_problem(const TableSchema& info, const RecordNote& rec, const
 /// A stored value as store::row_json gives it.
 json stored_json(sqlite3_stmt* q, int i) {
   switch (sqlite3_column_type(q, i)) {
-    case SQLITE_NULL: return nullptr;
-    case SQLITE_INTEGER: return static_cast<std::int64_t>(sqlite3_column_int64(q, i));
-    case SQLITE_FLOAT: return sqlite3_column_double(q, i);
+    case SQLITE_NULL:
+      return nullptr;
+    case SQLITE_INTEGER:
+      return static_cast<std::int64_t>(sqlite3_column_int64(q, i));
+    case SQLITE_FLOAT:
+      return sqlite3_column_double(q, i);
     case SQLITE_TEXT:
       return std::string(reinterpret_cast<const char*>(sqlite3_column_text(q, i)),
                          static_cast<std::size_t>(sqlite3_column_bytes(q, i)));
@@ -74,22 +77,28 @@ json stored_json(sqlite3_stmt* q, int i) {
   }
 }
 
-std::string_view stored_text(sqlite3_stmt* q, int i) { return column_text(q, i); }
+std::string_view stored_text(sqlite3_stmt* q, int i) {
+  return column_text(q, i);
+}
 
 /// Whether a stored value is certainly what was recorded. False also when unsure: the caller then compares the
 /// two as JSON documents (store::matches_recorded), which is the rule; this only spares the common case that.
 bool surely_matches(const RecordedValue& recorded, sqlite3_stmt* q, int i) {
   const int type = sqlite3_column_type(q, i);
   switch (recorded.kind) {
-    case RecordedValue::Kind::null: return type == SQLITE_NULL;
-    case RecordedValue::Kind::integer: return type == SQLITE_INTEGER && sqlite3_column_int64(q, i) == recorded.integer;
-    case RecordedValue::Kind::text: return type == SQLITE_TEXT && stored_text(q, i) == recorded.text;
+    case RecordedValue::Kind::null:
+      return type == SQLITE_NULL;
+    case RecordedValue::Kind::integer:
+      return type == SQLITE_INTEGER && sqlite3_column_int64(q, i) == recorded.integer;
+    case RecordedValue::Kind::text:
+      return type == SQLITE_TEXT && stored_text(q, i) == recorded.text;
     case RecordedValue::Kind::digest: {
       if (type != SQLITE_TEXT) return false;
       const auto text = stored_text(q, i);
       return text.size() > long_text_bytes && sha256_hex(text) == recorded.text;
     }
-    case RecordedValue::Kind::other: return false;
+    case RecordedValue::Kind::other:
+      return false;
   }
   return false;
 }
@@ -97,18 +106,32 @@ bool surely_matches(const RecordedValue& recorded, sqlite3_stmt* q, int i) {
 /// One part of a key as store::key_text writes it: a text unquoted, anything else as JSON.
 void append_key_part(std::string& key, const RecordedValue& v) {
   switch (v.kind) {
-    case RecordedValue::Kind::text: key += v.text; break;
-    case RecordedValue::Kind::integer: key += fmt::format_int(v.integer).c_str(); break;
-    case RecordedValue::Kind::null: key += "null"; break;
-    default: key += v.to_json().dump(); break;
+    case RecordedValue::Kind::text:
+      key += v.text;
+      break;
+    case RecordedValue::Kind::integer:
+      key += fmt::format_int(v.integer).c_str();
+      break;
+    case RecordedValue::Kind::null:
+      key += "null";
+      break;
+    default:
+      key += v.to_json().dump();
+      break;
   }
 }
 
 void append_stored_key_part(std::string& key, sqlite3_stmt* q, int i) {
   switch (sqlite3_column_type(q, i)) {
-    case SQLITE_TEXT: key += stored_text(q, i); break;
-    case SQLITE_INTEGER: key += fmt::format_int(sqlite3_column_int64(q, i)).c_str(); break;
-    case SQLITE_NULL: key += "null"; break;
+    case SQLITE_TEXT:
+      key += stored_text(q, i);
+      break;
+    case SQLITE_INTEGER:
+      key += fmt::format_int(sqlite3_column_int64(q, i)).c_str();
+      break;
+    case SQLITE_NULL:
+      key += "null";
+      break;
     default: {
       const json v = stored_json(q, i);
       key += v.is_string() ? v.get<std::string>() : v.dump();
@@ -142,9 +165,9 @@ struct RowVerification::TableWalk {
   TableSchema info;
   std::vector<RecordedValue> defaults;  ///< per schema column
   std::vector<int> key_columns;         ///< schema index of each key column
-  std::unique_ptr<RawStatement> scan;  ///< SELECT rowid, * ... ORDER BY rowid (or SELECT * for no rowid)
-  std::unique_ptr<RawStatement> find;  ///< the row with a given key
-  int offset = 1;                            ///< index of the first table column in scan's and find's rows
+  std::unique_ptr<RawStatement> scan;   ///< SELECT rowid, * ... ORDER BY rowid (or SELECT * for no rowid)
+  std::unique_ptr<RawStatement> find;   ///< the row with a given key
+  int offset = 1;                       ///< index of the first table column in scan's and find's rows
   bool has_row = false;
   std::int64_t rowid = 0;
   std::string key;  ///< the key text of the cursor's row
@@ -163,7 +186,7 @@ struct RowVerification::TableWalk {
     std::string key;
     json row;
   };
-  std::vector<Missing> missing;  ///< recorded rows the table does not hold
+  std::vector<Missing> missing;                                  ///< recorded rows the table does not hold
   std::unordered_map<std::string, std::int64_t> missing_by_key;  ///< -> the seq that recorded it
 
   std::unordered_set<std::string> matched_aside;  ///< a table without rowids: keys matched from `pending`
@@ -181,8 +204,10 @@ struct RowVerification::TableWalk {
       if (k > 0) out += ',';
       out += info.key_columns[k];
       out += '=';
-      if (key_columns[k] < 0) out += '?';
-      else append_stored_key_part(out, q, key_columns[k] + offset);
+      if (key_columns[k] < 0)
+        out += '?';
+      else
+        append_stored_key_part(out, q, key_columns[k] + offset);
     }
   }
 
@@ -216,8 +241,7 @@ RowVerification::RowVerification(SQLite::Database& db) : db_(db) {
     for (const auto& k : w->info.key_columns) {
       const auto it = std::find_if(w->info.columns.begin(), w->info.columns.end(),
                                    [&](const ColumnSchema& c) { return c.name == k; });
-      w->key_columns.push_back(it == w->info.columns.end() ? -1
-                                                           : static_cast<int>(it - w->info.columns.begin()));
+      w->key_columns.push_back(it == w->info.columns.end() ? -1 : static_cast<int>(it - w->info.columns.begin()));
       where += fmt::format("{}\"{}\" IS ?", where.empty() ? "" : " AND ", k);
     }
     try {
@@ -270,8 +294,10 @@ void RowVerification::check(const RecordNote& record, const RecordedBlocks& bloc
     for (std::size_t c = 0; c < block.column_count; ++c) {
       const auto it = std::find_if(columns.begin(), columns.end(),
                                    [&](const ColumnSchema& s) { return s.name == block.columns[c]; });
-      if (it == columns.end()) every_column_known = false;
-      else to_block[static_cast<std::size_t>(it - columns.begin())] = static_cast<int>(c);
+      if (it == columns.end())
+        every_column_known = false;
+      else
+        to_block[static_cast<std::size_t>(it - columns.begin())] = static_cast<int>(c);
     }
     for (std::size_t r = 0; r < block.row_count; ++r) {
       std::string& key = w.key_buffer;
@@ -329,10 +355,12 @@ void RowVerification::check(const RecordNote& record, const RecordedBlocks& bloc
           const RecordedValue& v =
               block.value(r, static_cast<std::size_t>(to_block[static_cast<std::size_t>(w.key_columns[k])]));
           const int param = static_cast<int>(k) + 1;
-          if (v.kind == RecordedValue::Kind::integer) sqlite3_bind_int64(q, param, v.integer);
+          if (v.kind == RecordedValue::Kind::integer)
+            sqlite3_bind_int64(q, param, v.integer);
           else if (v.kind == RecordedValue::Kind::text)
             sqlite3_bind_text(q, param, v.text.data(), static_cast<int>(v.text.size()), SQLITE_TRANSIENT);
-          else sqlite3_bind_null(q, param);
+          else
+            sqlite3_bind_null(q, param);
         }
         if (f.step()) {
           std::string found_key;
@@ -384,9 +412,8 @@ void RowVerification::resolve_duplicates() {
     }
   }
   for (const auto& d : unresolved_)
-    problems_[d.problem].message =
-        fmt::format("{} {}, {}: the same row was already recorded by audit record {}.", d.table, d.key,
-                    where_recorded(d.record), first[{d.table, d.key}]);
+    problems_[d.problem].message = fmt::format("{} {}, {}: the same row was already recorded by audit record {}.",
+                                               d.table, d.key, where_recorded(d.record), first[{d.table, d.key}]);
 }
 
 void RowVerification::finish(AuditVerification& out) {
@@ -412,9 +439,9 @@ void RowVerification::finish(AuditVerification& out) {
         break;
       }
       if (!paired)
-        problems_.push_back({AuditProblem::Kind::row_missing, m.record.seq, name, m.key, "", m.record.at,
-                             fmt::format("{} {}, {}: the row is missing from the table.", name, m.key,
-                                         where_recorded(m.record))});
+        problems_.push_back(
+            {AuditProblem::Kind::row_missing, m.record.seq, name, m.key, "", m.record.at,
+             fmt::format("{} {}, {}: the row is missing from the table.", name, m.key, where_recorded(m.record))});
     }
   }
   for (auto& [name, w] : tables_)

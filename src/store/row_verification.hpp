@@ -25,7 +25,7 @@ struct RecordNote {
 };
 
 class RowVerification {
-public:
+ public:
   /// Opens one cursor per audited table (every table but the trail, its checkpoints and session activity).
   explicit RowVerification(SQLite::Database& db);
   ~RowVerification();
@@ -41,9 +41,8 @@ public:
 
   struct TableWalk;
 
-private:
-  void duplicate(const RecordNote& record, const std::string& table, const std::string& key,
-                 std::int64_t first_seq);
+ private:
+  void duplicate(const RecordNote& record, const std::string& table, const std::string& key, std::int64_t first_seq);
   void resolve_duplicates();
 
   SQLite::Database& db_;

@@ -106,11 +106,11 @@ TEST_CASE("a record's rows read event by event are the rows nlohmann's document 
        R"({"check_runs":{"columns":["id","note"],"rows":[[7,"a \"quoted\" text"]]},)"
        R"("readings":{"columns":["run_id","seq","text"],"rows":[[7,1,"100.0003"],[7,2,null],[7,3,{"sha256":"ab"}]]}})"},
       {"insert", R"({"id":3,"name":"BAL-A","notes":null,"results_json":{"sha256":"00ff"}})"},
-      {"insert", R"({"id":3,"id":4})"},                                      // a repeated column: the last one counts
-      {"insert", R"({"id":3.5,"flag":true})"},                                // values the Recorder never writes
-      {"insert", R"({"id":18446744073709551615})"},                           // beyond a 64-bit signed integer
-      {"insert", R"({"text":{"sha256":"ab","also":1}})"},                     // a digest with something beside it
-      {"insert rows", R"({"readings":{"rows":[[1,2]],"columns":["a","b"]}})"},  // the keys in another order
+      {"insert", R"({"id":3,"id":4})"},                    // a repeated column: the last one counts
+      {"insert", R"({"id":3.5,"flag":true})"},             // values the Recorder never writes
+      {"insert", R"({"id":18446744073709551615})"},        // beyond a 64-bit signed integer
+      {"insert", R"({"text":{"sha256":"ab","also":1}})"},  // a digest with something beside it
+      {"insert rows", R"({"readings":{"rows":[[1,2]],"columns":["a","b"]}})"},            // the keys in another order
       {"insert rows", R"({"readings":{"columns":["a","b"],"rows":[[1,2],[3],[4,5]]}})"},  // a row short of a value
       {"insert rows", R"({"readings":{"columns":["a","b"],"rows":[[1,2]]},"readings":{"columns":["a"],"rows":[[9]]}})"},
       {"insert rows", R"({"readings":[1,2]})"},
@@ -132,7 +132,8 @@ TEST_CASE("audit verify finds a row the table holds out of the trail's order", "
   SQLite::Database& sql = db.sql();
   REQUIRE(store::verify_audit_trail(sql).ok());
 
-  SECTION("a reading deleted and written again unchanged moves to the end of the table, and is still what was recorded") {
+  SECTION(
+      "a reading deleted and written again unchanged moves to the end of the table, and is still what was recorded") {
     const auto v = verified_after(sql,
                                   "CREATE TEMP TABLE moved AS SELECT * FROM readings WHERE run_id = 1 AND seq = 4; "
                                   "DELETE FROM readings WHERE run_id = 1 AND seq = 4; "
@@ -205,8 +206,8 @@ TEST_CASE("audit verify names the first record of a row described twice", "[audi
   REQUIRE(duplicates.size() == 12);
   for (const auto& d : duplicates) {
     CHECK(d.seq == copy);
-    CHECK_THAT(d.message, Catch::EndsWith("the same row was already recorded by audit record " +
-                                          std::to_string(first) + "."));
+    CHECK_THAT(d.message,
+               Catch::EndsWith("the same row was already recorded by audit record " + std::to_string(first) + "."));
   }
   CHECK(std::any_of(duplicates.begin(), duplicates.end(),
                     [](const store::AuditProblem& d) { return d.table == "readings" && d.key == "run_id=1,seq=10"; }));
