@@ -291,7 +291,12 @@ void RecordedBlocks::read(std::string_view action, std::string_view table_name, 
     fast = !has_repeats(blocks_[i].columns, blocks_[i].column_count);
     for (std::size_t j = i + 1; fast && j < used_; ++j) fast = blocks_[i].table != blocks_[j].table;
   }
-  if (fast) return;
+  if (fast) {
+    // In the order the document parser gives them (its objects keep keys sorted), so that problems are listed alike.
+    std::sort(blocks_.begin(), blocks_.begin() + static_cast<std::ptrdiff_t>(used_),
+              [](const RecordedBlock& a, const RecordedBlock& b) { return a.table < b.table; });
+    return;
+  }
   clear();
   AuditRecord record;
   record.action = std::string(action);

@@ -105,6 +105,9 @@ TEST_CASE("a record's rows read event by event are the rows nlohmann's document 
       {"insert rows",
        R"({"check_runs":{"columns":["id","note"],"rows":[[7,"a \"quoted\" text"]]},)"
        R"("readings":{"columns":["run_id","seq","text"],"rows":[[7,1,"100.0003"],[7,2,null],[7,3,{"sha256":"ab"}]]}})"},
+      {"insert rows",  // the Recorder's order of tables (run, weights, readings): the document parser sorts them
+       R"({"check_runs":{"columns":["id"],"rows":[[8]]},"run_weights":{"columns":["run_id","position"],"rows":[[8,1]]},)"
+       R"("readings":{"columns":["run_id","seq"],"rows":[[8,1],[8,2]]}})"},
       {"insert", R"({"id":3,"name":"BAL-A","notes":null,"results_json":{"sha256":"00ff"}})"},
       {"insert", R"({"id":3,"id":4})"},                    // a repeated column: the last one counts
       {"insert", R"({"id":3.5,"flag":true})"},             // values the Recorder never writes
