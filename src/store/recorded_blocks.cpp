@@ -6,11 +6,10 @@
 #include "store/audit_trail.hpp"
 
 namespace plumb::store {
-namespace {
 
 using nlohmann::json;
 
-RecordedValue value_of_document(const json& v) {
+RecordedValue recorded_value(const json& v) {
   RecordedValue out;
   if (v.is_null()) return out;
   if (v.is_number_integer() &&
@@ -29,6 +28,8 @@ RecordedValue value_of_document(const json& v) {
   }
   return out;
 }
+
+namespace {
 
 /// Reads the shape the Recorder writes, event by event (nlohmann's SAX interface): {"table": {"columns": [...],
 /// "rows": [[...], ...]}, ...} for "insert rows", {"column": value, ...} for "insert". Anything else stops the
@@ -309,7 +310,7 @@ void RecordedBlocks::read(std::string_view action, std::string_view table_name, 
       if (b.column_count == b.columns.size()) b.columns.emplace_back();
       b.columns[b.column_count] = column;
       if (b.column_count >= b.values.size()) b.values.resize(b.column_count + 1);
-      b.values[b.column_count++] = value_of_document(v);
+      b.values[b.column_count++] = recorded_value(v);
     }
     b.row_count = 1;
   }

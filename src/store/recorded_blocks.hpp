@@ -25,6 +25,9 @@ struct RecordedValue {
   [[nodiscard]] nlohmann::json to_json() const;
 };
 
+/// A value of a JSON document as a recorded value (a column default, a row the document parser read).
+RecordedValue recorded_value(const nlohmann::json& v);
+
 /// One table's rows in one record: the column names once, then each row's values (row-major).
 struct RecordedBlock {
   std::string table;

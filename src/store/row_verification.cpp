@@ -139,25 +139,6 @@ void append_stored_key_part(std::string& key, sqlite3_stmt* q, int i) {
   }
 }
 
-RecordedValue recorded_default(const json& v) {
-  RecordedValue out;
-  if (v.is_null()) return out;
-  if (v.is_number_integer() && !v.is_number_unsigned()) {
-    out.kind = RecordedValue::Kind::integer;
-    out.integer = v.get<std::int64_t>();
-  } else if (v.is_number_unsigned() && v.get<std::uint64_t>() <= static_cast<std::uint64_t>(INT64_MAX)) {
-    out.kind = RecordedValue::Kind::integer;
-    out.integer = v.get<std::int64_t>();
-  } else if (v.is_string()) {
-    out.kind = RecordedValue::Kind::text;
-    out.text = v.get<std::string>();
-  } else {
-    out.kind = RecordedValue::Kind::other;
-    out.other = v;
-  }
-  return out;
-}
-
 }  // namespace
 
 /// One table: its schema, a cursor in rowid order, and what was found out of place.
@@ -236,7 +217,7 @@ RowVerification::RowVerification(SQLite::Database& db) : db_(db) {
     const std::string name = q.getColumn(0).getString();
     auto w = std::make_unique<TableWalk>();
     w->info = read_table_schema(db, name);
-    for (const auto& c : w->info.columns) w->defaults.push_back(recorded_default(c.default_value));
+    for (const auto& c : w->info.columns) w->defaults.push_back(recorded_value(c.default_value));
     std::string where;
     for (const auto& k : w->info.key_columns) {
       const auto it = std::find_if(w->info.columns.begin(), w->info.columns.end(),
