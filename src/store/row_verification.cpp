@@ -170,7 +170,8 @@ struct RowVerification::TableWalk {
   std::vector<Missing> missing;                                  ///< recorded rows the table does not hold
   std::unordered_map<std::string, std::int64_t> missing_by_key;  ///< -> the seq that recorded it
 
-  std::unordered_set<std::string> matched_aside;  ///< a table without rowids: keys matched from `pending`
+  std::unordered_set<std::string> matched_aside;   ///< a table without rowids: keys matched from `pending`
+  std::unordered_set<std::int64_t> matched_ahead;  ///< rows compared before the cursor reached them, by rowid
   std::string key_buffer;
 
   [[nodiscard]] json cursor_json(sqlite3_stmt* q) const {
@@ -193,12 +194,19 @@ struct RowVerification::TableWalk {
   }
 
   void advance() {
-    has_row = scan->step();
-    if (!has_row) return;
-    ++rows;
-    sqlite3_stmt* q = scan->get();
-    rowid = offset ? sqlite3_column_int64(q, 0) : next_synthetic_rowid++;
-    cursor_key(q, key);
+    for (;;) {
+      has_row = scan->step();
+      if (!has_row) return;
+      ++rows;
+      sqlite3_stmt* q = scan->get();
+      rowid = offset ? sqlite3_column_int64(q, 0) : next_synthetic_rowid++;
+      if (const auto done = matched_ahead.find(rowid); done != matched_ahead.end()) {
+        matched_ahead.erase(done);  // compared already, out of order
+        continue;
+      }
+      cursor_key(q, key);
+      return;
+    }
   }
 
   /// Keeps the cursor's row aside and moves on.
@@ -302,8 +310,7 @@ void RowVerification::check(const RecordNote& record, const RecordedBlocks& bloc
         for (const auto& field : differing_columns(w.info, recorded, actual))
           problems_.push_back(field_problem(w.info, record, recorded, actual, field, key));
       };
-      const auto compare_cursor = [&] {
-        sqlite3_stmt* q = w.scan->get();
+      const auto compare_row = [&](sqlite3_stmt* q) {
         bool same = every_column_known;
         for (std::size_t s = 0; same && s < columns.size(); ++s) {
           const int c = to_block[s];
@@ -311,6 +318,9 @@ void RowVerification::check(const RecordNote& record, const RecordedBlocks& bloc
           same = surely_matches(expected, q, static_cast<int>(s) + w.offset);
         }
         if (!same) compare_documents(w.cursor_json(q));
+      };
+      const auto compare_cursor = [&] {
+        compare_row(w.scan->get());
         w.advance();
       };
 
@@ -343,19 +353,27 @@ void RowVerification::check(const RecordNote& record, const RecordedBlocks& bloc
           else
             sqlite3_bind_null(q, param);
         }
+        bool compared = false;
         if (f.step()) {
           std::string found_key;
           w.cursor_key(q, found_key);
           if (found_key == key) at = sqlite3_column_int64(q, 0);
+          if (at && w.has_row && *at > w.rowid && w.matched_ahead.count(*at) == 0) {
+            // Further on. A few rows before it are set aside (a row changed or added in place stops the cursor
+            // there); a row farther on (deleted and written again, say) is compared where it is, and skipped
+            // when the cursor reaches it.
+            for (int n = 0; n < 16 && w.has_row && w.rowid < *at; ++n) w.set_aside();
+            if (w.has_row && w.rowid == *at) {
+              compare_cursor();
+            } else {
+              compare_row(q);
+              w.matched_ahead.insert(*at);
+            }
+            compared = true;
+          }
         }
         f.reset();
-      }
-      if (at && w.has_row && *at > w.rowid) {  // further on: what lies before it was not recorded (yet)
-        while (w.has_row && w.rowid < *at) w.set_aside();
-        if (w.has_row && w.rowid == *at) {
-          compare_cursor();
-          continue;
-        }
+        if (compared) continue;
       }
       if (at || w.matched_aside.count(key) > 0) {  // passed already and not set aside: an earlier record described it
         duplicate(record, w.info.name, key, 0);
