@@ -3,8 +3,9 @@
 // holding either side in memory. The trail is walked in sequence order and each table in rowid order (the order
 // the Recorder inserted its rows, which is the trail's order), merge-join style: the next recorded row of a table
 // is, in a database nobody changed, the next row of that table. A row out of that order is looked up by its
-// primary key; a table row that no record has described yet is kept aside until one does (or reported as written
-// outside plumb at the end). Memory is what one record needs plus what was found out of place.
+// primary key: a few rows before it are kept aside until a record describes them (or reported as written outside
+// plumb at the end), a row far ahead is compared where it is. Memory is what one record needs plus what was found
+// out of place.
 #include <SQLiteCpp/Database.h>
 
 #include <cstdint>
