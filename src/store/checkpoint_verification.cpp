@@ -3,17 +3,18 @@
 #include <SQLiteCpp/Statement.h>
 #include <fmt/format.h>
 
+#include "core/errors.hpp"
 #include "store/lab_key.hpp"
 
 namespace plumb::store {
 namespace {
 
 /// "check_runs id=3, certificates id=2" for the records first..last (1-based), the first three of them.
-std::string records_named(const std::vector<AuditRecord>& records, std::int64_t first, std::int64_t last) {
+std::string records_named(TrailPositions& records, std::int64_t first, std::int64_t last) {
   std::string out;
   const std::int64_t shown = std::min<std::int64_t>(last, first + 2);
-  for (std::int64_t seq = first; seq <= shown && seq <= static_cast<std::int64_t>(records.size()); ++seq) {
-    const AuditRecord& r = records[static_cast<std::size_t>(seq - 1)];
+  for (std::int64_t seq = first; seq <= shown && seq <= records.size(); ++seq) {
+    const auto r = records.record_at(seq);
     if (!out.empty()) out += ", ";
     out += fmt::format("{} {}", r.table_name, r.row_key);
   }
@@ -69,16 +70,11 @@ void check_signature(const Checkpoint& c, const VerifyOptions& options, const st
                     checkpoint_text(c), where)));
 }
 
-std::string hash_at(const std::vector<AuditRecord>& records, std::int64_t n) {
-  return n == 0 ? genesis_hash() : records[static_cast<std::size_t>(n - 1)].hash;
-}
-
-void check_since(const Checkpoint& kept, const std::optional<Checkpoint>& in_db,
-                 const std::vector<AuditRecord>& records, const VerifyOptions& options, std::int64_t last_number,
-                 AuditVerification& out) {
+void check_since(const Checkpoint& kept, const std::optional<Checkpoint>& in_db, TrailPositions& records,
+                 const VerifyOptions& options, std::int64_t last_number, AuditVerification& out) {
   const std::string where = fmt::format(" in {}", options.since_source);
   check_signature(kept, options, where, out);
-  const auto trail = static_cast<std::int64_t>(records.size());
+  const std::int64_t trail = records.size();
   const std::int64_t seq = std::max<std::int64_t>(kept.records, 1);
   if (!in_db) {
     out.problems.push_back(checkpoint_problem(
@@ -95,10 +91,9 @@ void check_since(const Checkpoint& kept, const std::optional<Checkpoint>& in_db,
   if (kept.records > trail)
     out.problems.push_back(checkpoint_problem(
         seq, kept.signed_at,
-        fmt::format("{} of {} covers {} audit records, but the trail holds only {}: {} deleted.",
-                    checkpoint_text(kept), options.since_source, kept.records, trail,
-                    deleted_text(trail + 1, kept.records))));
-  else if (hash_at(records, kept.records) != kept.head_hash)
+        fmt::format("{} of {} covers {} audit records, but the trail holds only {}: {} deleted.", checkpoint_text(kept),
+                    options.since_source, kept.records, trail, deleted_text(trail + 1, kept.records))));
+  else if (records.hash_at(kept.records) != kept.head_hash)
     out.problems.push_back(checkpoint_problem(
         seq, kept.signed_at,
         fmt::format("{} of {}: the trail's audit record {} no longer has the hash it signed; records up to it were "
@@ -108,9 +103,33 @@ void check_since(const Checkpoint& kept, const std::optional<Checkpoint>& in_db,
 
 }  // namespace
 
-void verify_checkpoints(SQLite::Database& db, const std::vector<AuditRecord>& records, const VerifyOptions& options,
+TrailPositions::TrailPositions(SQLite::Database& db, std::int64_t records, bool numbered_by_position)
+    : records_(records),
+      query_(db, numbered_by_position
+                     ? "SELECT hash, table_name, row_key, at FROM audit_log WHERE seq = ?"
+                     : "SELECT hash, table_name, row_key, at FROM audit_log ORDER BY seq LIMIT 1 OFFSET ?"),
+      by_seq_(numbered_by_position) {}
+
+SQLite::Statement& TrailPositions::lookup(std::int64_t position) {
+  query_.reset();
+  query_.bind(1, by_seq_ ? position : position - 1);
+  if (!query_.executeStep()) throw StorageError(fmt::format("audit record {} cannot be read back.", position));
+  return query_;
+}
+
+std::string TrailPositions::hash_at(std::int64_t position) {
+  if (position == 0) return genesis_hash();
+  return lookup(position).getColumn(0).getString();
+}
+
+TrailPositions::Named TrailPositions::record_at(std::int64_t position) {
+  auto& q = lookup(position);
+  return {q.getColumn(1).getString(), q.getColumn(2).getString(), q.getColumn(3).getString()};
+}
+
+void verify_checkpoints(SQLite::Database& db, TrailPositions& records, const VerifyOptions& options,
                         AuditVerification& out) {
-  const auto trail = static_cast<std::int64_t>(records.size());
+  const std::int64_t trail = records.size();
   std::int64_t expected = 1, covered = 0, last_number = 0;
   bool rewritten = false;  // after the first checkpoint that no longer matches, every later one fails too
   std::optional<Checkpoint> since_in_db;
@@ -138,7 +157,7 @@ void verify_checkpoints(SQLite::Database& db, const std::vector<AuditRecord>& re
             checkpoint_problem(seq, c.signed_at,
                                fmt::format("{} covers {} audit records, but the trail holds only {}: {} deleted.",
                                            checkpoint_text(c), c.records, trail, deleted_text(trail + 1, c.records))));
-      } else if (!rewritten && hash_at(records, c.records) != c.head_hash) {
+      } else if (!rewritten && records.hash_at(c.records) != c.head_hash) {
         rewritten = true;
         out.problems.push_back(checkpoint_problem(
             seq, c.signed_at,
@@ -163,7 +182,7 @@ void verify_checkpoints(SQLite::Database& db, const std::vector<AuditRecord>& re
                                 "always has both: its records and checkpoints were deleted.")));
   } else if (covered < trail) {
     out.problems.push_back(unsigned_problem(
-        covered + 1, records[static_cast<std::size_t>(covered)].at,
+        covered + 1, records.record_at(covered + 1).at,
         fmt::format("{} ({}) {} not covered by a signed checkpoint (the last, checkpoint {}, covers {}): written "
                     "outside plumb or without the lab's key.",
                     range_text(covered + 1, trail), records_named(records, covered + 1, trail),
