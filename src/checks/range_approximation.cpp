@@ -46,6 +46,10 @@ RangeApproximation approximate_over_range(std::span<const ApproximationPoint> po
   std::vector<double> r, e, r2, v;
   RangeApproximation a;
   a.k = 0;
+  r.reserve(points.size());
+  e.reserve(points.size());
+  r2.reserve(points.size());
+  v.reserve(points.size());
   for (std::size_t j = 0; j < points.size(); ++j) {
     const auto& p = points[j];
     if (!(p.u_g > 0) || !(p.k > 0))

@@ -11,7 +11,7 @@ namespace plumb::checks {
 
 namespace {
 
-double not_negative(double v, const char* field) {
+double in_use_not_negative(double v, const char* field) {
   if (!std::isfinite(v) || v < 0) throw InputError(fmt::format("{} {} is negative; it must be 0 or more.", field, v));
   return v;
 }
@@ -68,26 +68,26 @@ InUseUncertainty in_use_uncertainty(const RangeApproximation& cal, const InUseTe
     throw InputError(fmt::format("required accuracy {} % is not between 0 and 100 %.", t.required_relative * 100));
   if (!(t.safety_factor >= 1)) throw InputError(fmt::format("safety factor {} is below 1.", t.safety_factor));
   const double root12 = 2.0 * std::sqrt(3.0);
-  r.terms.push_back({"rounding at zero in use", not_negative(t.rounding_zero.g(), "rounding at zero") / root12, false,
-                     "EURAMET cg-18 v4.0: d_0 / (2 sqrt 3)"});
-  r.terms.push_back({"rounding at load in use", not_negative(t.rounding_load.g(), "rounding at load") / root12, false,
-                     "EURAMET cg-18 v4.0: d_L / (2 sqrt 3)"});
-  r.terms.push_back({"repeatability in use", not_negative(t.repeatability.g(), "repeatability in use"), false,
+  r.terms.push_back({"rounding at zero in use", in_use_not_negative(t.rounding_zero.g(), "rounding at zero") / root12,
+                     false, "EURAMET cg-18 v4.0: d_0 / (2 sqrt 3)"});
+  r.terms.push_back({"rounding at load in use", in_use_not_negative(t.rounding_load.g(), "rounding at load") / root12,
+                     false, "EURAMET cg-18 v4.0: d_L / (2 sqrt 3)"});
+  r.terms.push_back({"repeatability in use", in_use_not_negative(t.repeatability.g(), "repeatability in use"), false,
                      "EURAMET cg-18 v4.0: s of a single reading in use, u = s"});
   r.terms.push_back({"temperature change in use",
-                     not_negative(t.sensitivity_per_k, "sensitivity to temperature") *
-                         not_negative(t.temperature_range_k, "temperature change") / root12,
+                     in_use_not_negative(t.sensitivity_per_k, "sensitivity to temperature") *
+                         in_use_not_negative(t.temperature_range_k, "temperature change") / root12,
                      true,
                      fmt::format("EURAMET cg-18 v4.0: TK dT / (2 sqrt 3), TK = {:.3g} /K, dT = {:.3g} K, rectangular",
                                  t.sensitivity_per_k, t.temperature_range_k)});
-  const auto b =
-      buoyancy::correction({1.0, t.sample_density_kg_m3, not_negative(t.sample_density_u_kg_m3, "sample density u"),
-                            buoyancy::rho_0, not_negative(t.air_density_u_kg_m3, "air density u")});
+  const auto b = buoyancy::correction({1.0, t.sample_density_kg_m3,
+                                       in_use_not_negative(t.sample_density_u_kg_m3, "sample density u"),
+                                       buoyancy::rho_0, in_use_not_negative(t.air_density_u_kg_m3, "air density u")});
   r.terms.push_back({"buoyancy of the sample", b.u, true,
                      fmt::format("EURAMET cg-18 v4.0: sample {:.0f} kg/m3 (u {:.3g}) against the adjustment weights "
                                  "(8000 kg/m3) in air 1.2 kg/m3 (u {:.3g}); no correction applied",
                                  t.sample_density_kg_m3, t.sample_density_u_kg_m3, t.air_density_u_kg_m3)});
-  r.terms.push_back({"drift since calibration", not_negative(t.drift_relative, "drift") / std::sqrt(3.0), true,
+  r.terms.push_back({"drift since calibration", in_use_not_negative(t.drift_relative, "drift") / std::sqrt(3.0), true,
                      fmt::format("EURAMET cg-18 v4.0: D_rel / sqrt 3, D_rel = {:.3g}, rectangular", t.drift_relative)});
   double alpha2 = cal.alpha_g * cal.alpha_g, beta2 = cal.beta * cal.beta;
   for (const auto& term : r.terms) (term.relative ? beta2 : alpha2) += term.u * term.u;

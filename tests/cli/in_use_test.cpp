@@ -4,6 +4,7 @@
 // example of tests/cli/calibration_test.cpp (E = +0.1, +0.2, +0.4, +0.6, +0.8 mg at 20, 50, 100, 150, 200 g).
 #include <catch2/catch.hpp>
 
+#include <cctype>
 #include <cmath>
 
 #include <nlohmann/json.hpp>
@@ -17,6 +18,14 @@ using plumb::test::run_plumb;
 using plumb::test::ug;
 
 namespace {
+
+// Text renderings wrap long values at spaces; what they say is compared without whitespace.
+std::string squeezed(const std::string& s) {
+  std::string out;
+  for (char c : s)
+    if (!std::isspace(static_cast<unsigned char>(c))) out += c;
+  return out;
+}
 
 std::string record_calibration(plumb::test::ScratchDir& dir) {
   const auto db = plumb::test::calibration_lab(dir).string();
@@ -61,8 +70,8 @@ TEST_CASE("check show --at gives the error and uncertainty over the range (EURAM
   REQUIRE(issued.status == 0);
   CHECK_THAT(issued.out, Catch::Contains("range_approximation"));
   const auto text = run_plumb({"--db", db, "certificate", "show", "LAST"}, dir.path());
-  CHECK_THAT(text.out, Catch::Contains("Error over the range") && Catch::Contains("Uncertainty over the range") &&
-                           Catch::Contains("EURAMET cg-18 v4.0 approximation"));
+  CHECK_THAT(squeezed(text.out), Catch::Contains("Errorovertherange") && Catch::Contains("Uncertaintyovertherange") &&
+                                     Catch::Contains("EURAMETcg-18v4.0approximation"));
 }
 
 TEST_CASE("balance set-in-use keeps history, balance in-use gives U(W) and the minimum weight, by hand",

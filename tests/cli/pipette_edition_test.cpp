@@ -4,6 +4,8 @@
 // requirements are as recalled from memory of ISO 8655-6:2022 (checks/pipette_edition.hpp).
 #include <catch2/catch.hpp>
 
+#include <cctype>
+
 #include <nlohmann/json.hpp>
 
 #include "support/run_plumb.hpp"
@@ -42,6 +44,14 @@ std::string weighings(int n) {
   std::string csv = "volume,channel,reading\n";
   for (int i = 0; i < n; ++i) csv += "100uL,1," + ten[static_cast<std::size_t>(i)] + "\n";
   return csv;
+}
+
+// Text renderings wrap long values at spaces; what they say is compared without whitespace.
+std::string squeezed(const std::string& s) {
+  std::string out;
+  for (char c : s)
+    if (!std::isspace(static_cast<unsigned char>(c))) out += c;
+  return out;
 }
 
 plumb::test::RunResult record(const std::string& db, const std::string& pipette, const plumb::test::ScratchDir& dir) {
@@ -89,7 +99,7 @@ TEST_CASE("ISO 8655:2022 chosen per pipette: refused runs, the certificate names
   r = run_plumb({"--db", db, "certificate", "issue", "LAST"}, dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
-  CHECK_THAT(r.out, Catch::Contains("ISO 8655-6:2022") && Catch::Contains("ISO 8655-2:2022"));
+  CHECK_THAT(squeezed(r.out), Catch::Contains("ISO8655-6:2022") && Catch::Contains("ISO8655-2:2022"));
   r = run_plumb({"--db", db, "certificate", "show", "LAST", "--format", "html"}, dir.path());
-  CHECK_THAT(r.out, Catch::Contains("ISO 8655-6:2022"));
+  CHECK_THAT(squeezed(r.out), Catch::Contains("ISO8655-6:2022"));
 }

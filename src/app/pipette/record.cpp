@@ -295,8 +295,10 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
   // The edition the pipette is checked to: a run that misses one of its requirements is refused.
   const checks::Iso8655Edition edition = pipette_edition(db, def.id);
   std::vector<checks::EditionVolume> edition_volumes;
+  edition_volumes.reserve(input.volumes.size());
   for (const auto& tv : input.volumes) {
     checks::EditionVolume ev{tv.volume, {}};
+    ev.replicates.reserve(tv.channels.size());
     for (const auto& ch : tv.channels) ev.replicates.emplace_back(ch.channel, ch.weighings.size());
     edition_volumes.push_back(std::move(ev));
   }

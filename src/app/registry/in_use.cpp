@@ -17,21 +17,21 @@ namespace {
 using nlohmann::json;
 
 /// "5K" -> 5 with the unit required: a bare number could be read in another unit.
-Decimal with_suffix(const std::string& text, std::string_view suffix, std::string_view option) {
+Decimal in_use_number_with_unit(const std::string& text, std::string_view suffix, std::string_view option) {
   if (text.size() <= suffix.size() || text.compare(text.size() - suffix.size(), suffix.size(), suffix) != 0)
     throw InputError(
         fmt::format("{} \"{}\" must be a number followed by {} (e.g. 2{}).", option, text, suffix, suffix));
   return Decimal::parse(text.substr(0, text.size() - suffix.size()), option);
 }
 
-Decimal in_range(Decimal v, double lo, double hi, const std::string& text, std::string_view option,
-                 std::string_view what) {
+Decimal in_use_within(Decimal v, double lo, double hi, const std::string& text, std::string_view option,
+                      std::string_view what) {
   const double x = v.to_double();
   if (x < lo || x > hi) throw InputError(fmt::format("{} \"{}\" is outside {}.", option, text, what));
   return v;
 }
 
-ExactMass mass_option(const std::string& text, std::string_view option, const ExactMass& d, bool at_least_d) {
+ExactMass in_use_mass_option(const std::string& text, std::string_view option, const ExactMass& d, bool at_least_d) {
   const ExactMass m = ExactMass::parse(text, option);
   if (m < ExactMass()) throw InputError(fmt::format("{} \"{}\" is negative.", option, text));
   if (at_least_d && m < d)
@@ -82,46 +82,49 @@ store::InUseTermsRecord set_in_use_terms(store::Database& db, const store::Actor
   const ExactMass& d = balance->readability;
   store::InUseTermsRecord t;
   t.balance_id = balance->id;
-  t.rounding_zero = in.rounding_zero ? mass_option(*in.rounding_zero, "--rounding-zero", d, true) : d;
-  t.rounding_load = in.rounding_load ? mass_option(*in.rounding_load, "--rounding-load", d, true) : d;
+  t.rounding_zero = in.rounding_zero ? in_use_mass_option(*in.rounding_zero, "--rounding-zero", d, true) : d;
+  t.rounding_load = in.rounding_load ? in_use_mass_option(*in.rounding_load, "--rounding-load", d, true) : d;
   if (in.repeatability.empty())
     throw InputError("--repeatability is required: the standard deviation of a single reading in use, e.g. 0.12mg.");
-  t.repeatability = mass_option(in.repeatability, "--repeatability", d, false);
+  t.repeatability = in_use_mass_option(in.repeatability, "--repeatability", d, false);
   const auto required = [](const std::string& v, std::string_view option, std::string_view example) {
     if (v.empty()) throw InputError(fmt::format("{} is required, e.g. {}.", option, example));
     return v;
   };
   const std::string dt = required(in.temperature_change, "--temperature-change", "5K");
-  t.temperature_change_k =
-      in_range(with_suffix(dt, "K", "--temperature-change"), 0, 30, dt, "--temperature-change", "0 K to 30 K");
+  t.temperature_change_k = in_use_within(in_use_number_with_unit(dt, "K", "--temperature-change"), 0, 30, dt,
+                                         "--temperature-change", "0 K to 30 K");
   const std::string tk = required(in.sensitivity, "--tk", "1.5ppm/K");
-  t.sensitivity_ppm_per_k = in_range(with_suffix(tk, "ppm/K", "--tk"), 0, 100, tk, "--tk", "0 to 100 ppm/K");
-  t.sample_density_kg_m3 = in_range(with_suffix(in.sample_density, "kg/m3", "--sample-density"), 100, 25000,
-                                    in.sample_density, "--sample-density", "100 kg/m3 to 25000 kg/m3");
-  t.sample_density_u_kg_m3 = in_range(with_suffix(in.sample_density_u, "kg/m3", "--sample-density-u"), 0,
-                                      t.sample_density_kg_m3.to_double() / 2, in.sample_density_u, "--sample-density-u",
-                                      "0 to half the sample density");
+  t.sensitivity_ppm_per_k =
+      in_use_within(in_use_number_with_unit(tk, "ppm/K", "--tk"), 0, 100, tk, "--tk", "0 to 100 ppm/K");
+  t.sample_density_kg_m3 = in_use_within(in_use_number_with_unit(in.sample_density, "kg/m3", "--sample-density"), 100,
+                                         25000, in.sample_density, "--sample-density", "100 kg/m3 to 25000 kg/m3");
+  t.sample_density_u_kg_m3 = in_use_within(in_use_number_with_unit(in.sample_density_u, "kg/m3", "--sample-density-u"),
+                                           0, t.sample_density_kg_m3.to_double() / 2, in.sample_density_u,
+                                           "--sample-density-u", "0 to half the sample density");
   const std::string au = required(in.air_density_u, "--air-density-u", "0.05kg/m3");
-  t.air_density_u_kg_m3 =
-      in_range(with_suffix(au, "kg/m3", "--air-density-u"), 0, 0.2, au, "--air-density-u", "0 to 0.2 kg/m3");
+  t.air_density_u_kg_m3 = in_use_within(in_use_number_with_unit(au, "kg/m3", "--air-density-u"), 0, 0.2, au,
+                                        "--air-density-u", "0 to 0.2 kg/m3");
   const std::string dr = required(in.drift, "--drift", "10ppm");
-  t.drift_ppm = in_range(with_suffix(dr, "ppm", "--drift"), 0, 10000, dr, "--drift", "0 to 10000 ppm");
+  t.drift_ppm = in_use_within(in_use_number_with_unit(dr, "ppm", "--drift"), 0, 10000, dr, "--drift", "0 to 10000 ppm");
   t.error_corrected = in.error_corrected;
   if (in.form != "linear" && in.form != "quadratic-sum")
     throw InputError(fmt::format("--form \"{}\" is not linear or quadratic-sum.", in.form));
   t.form = in.form;
   const std::string ra = required(in.required_accuracy, "--required-accuracy", "0.1%");
-  const Decimal a = with_suffix(ra, "%", "--required-accuracy");
+  const Decimal a = in_use_number_with_unit(ra, "%", "--required-accuracy");
   if (a.to_double() <= 0 || a.to_double() >= 100)
     throw InputError(fmt::format("--required-accuracy \"{}\" must be above 0 % and below 100 %.", ra));
   t.required_accuracy_pct = a;
   const std::string sf = required(in.safety_factor, "--safety-factor", "2");
-  t.safety_factor = in_range(Decimal::parse(sf, "--safety-factor"), 1, 100, sf, "--safety-factor", "1 to 100");
+  t.safety_factor = in_use_within(Decimal::parse(sf, "--safety-factor"), 1, 100, sf, "--safety-factor", "1 to 100");
   t.reason = in.reason;
   store::Recorder rec(db.sql(), actor);
   t.id = store::add_in_use_terms(rec, t);
   rec.commit(tx);
-  return *store::current_in_use_terms(db.sql(), t.balance_id);
+  auto stored = store::current_in_use_terms(db.sql(), t.balance_id);
+  if (!stored) throw StorageError(fmt::format("the in-use terms of {} were not stored.", t.balance_id));
+  return *stored;
 }
 
 checks::InUseTerms in_use_terms_of(const store::InUseTermsRecord& r) {
@@ -162,6 +165,8 @@ json balance_in_use(store::Database& db, const std::string& balance_id, Date on)
   } else {
     const auto& use = *lookup.calibration;
     const auto run = store::find_run(db.sql(), use.run_id);
+    if (!run)
+      throw StorageError(fmt::format("calibration run {} of balance {} is not stored.", use.run_id, balance->id));
     const json& results = run->results;
     const bool left = results.value("final_stage", "") == "as-left" && results.contains("as_left");
     const json& set = left ? results["as_left"] : results["as_found"];
@@ -194,6 +199,11 @@ json balance_in_use(store::Database& db, const std::string& balance_id, Date on)
                        {"minimum_weight_g", u.minimum_weight_g ? json(*u.minimum_weight_g) : json()},
                        {"minimum_weight_basis", u.minimum_weight_basis}};
       from_calibration = u.minimum_weight_g;
+      if (u.minimum_weight_g && *u.minimum_weight_g < appr.reading_min_g)
+        out["in_use"]["minimum_weight_note"] = fmt::format(
+            "{:.6g} g is below the smallest calibrated load ({:.6g} g): U(W) there comes from the approximation "
+            "carried below its calibrated range",
+            *u.minimum_weight_g, appr.reading_min_g);
       if (!u.minimum_weight_g)
         out["in_use"]["minimum_weight_absent"] =
             "no weighing up to the capacity meets the required accuracy with the safety factor";
@@ -220,7 +230,7 @@ json balance_in_use(store::Database& db, const std::string& balance_id, Date on)
     binding = from_calibration ? "calibration" : "usp41";
     statement = fmt::format(
         "A weighing procedure on {} must weigh at least {:.6g} g ({}); the other minimum weight is not available.",
-        balance->id, from_calibration ? *from_calibration : *usp41,
+        balance->id, from_calibration.value_or(usp41.value_or(0.0)),
         from_calibration ? "minimum weight from calibration, EURAMET cg-18 v4.0 with USP <1251>"
                          : "USP <41> minimum weight from the weekly repeatability");
   } else {

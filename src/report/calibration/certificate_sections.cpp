@@ -133,9 +133,12 @@ void range_approximation_block(const json& a, const MgFormat& f, Document& doc) 
   const auto coef = a.value("error_coef", std::vector<double>{});
   std::string coefs;
   const bool through_zero = a.value("model", "") == "through-origin";
-  for (std::size_t i = 0; i < coef.size(); ++i)
-    coefs += fmt::format("{}a{} = {:+.6e}{}", i ? "; " : "", through_zero ? 1 : i, coef[i],
-                         (through_zero || i == 1) ? "" : (i == 0 ? " g" : " /g"));
+  for (std::size_t i = 0; i < coef.size(); ++i) {
+    const bool offset = !through_zero && i == 0;  // a0 is a mass: in mg like E; a1, a2 are per gram of R
+    coefs += fmt::format(
+        "{}a{} = {}", i ? "; " : "", through_zero ? 1 : i,
+        offset ? fmt::format("{:+.6f} mg", coef[i] * 1e3) : fmt::format("{:+.6e}{}", coef[i], i == 2 ? " /g" : ""));
+  }
   KeyValues kv;
   kv.rows.emplace_back("Error over the range", fmt::format("{}: {}", cell(a, "form"), cell(a, "error_formula")));
   kv.rows.emplace_back("Error coefficients", coefs);

@@ -184,7 +184,9 @@ stats::Fit fit_from_json(const json& j) {
 
 checks::RangeApproximation range_approximation_of(const json& set) {
   std::vector<checks::ApproximationPoint> points;
-  for (const auto& l : set.value("loads", json::array()))
+  const json loads = set.value("loads", json::array());
+  points.reserve(loads.size());
+  for (const auto& l : loads)
     points.push_back({l.at("indication_g").get<double>(), l.at("error_g").get<double>(), l.at("u_c_g").get<double>(),
                       l.at("k").get<double>()});
   return checks::approximate_over_range(points,
