@@ -47,8 +47,8 @@ std::vector<std::string> edition_shortfalls(Iso8655Edition e, const PipetteDefin
   if (e == Iso8655Edition::e2002) return out;
   if (pipette.limits.kind == pipette_limits::LimitsPolicy::Kind::iso8655_2)
     out.push_back(fmt::format(
-        "pipette {} is judged by ISO 8655-2:2002 Table 1, which cannot stand for the 2022 edition's limits; enter the "
-        "laboratory's limits for ISO 8655-2:2022",
+        "pipette {} is judged by ISO 8655-2:2002 Table 1, which cannot stand for the 2022 edition's limits; a pipette "
+        "checked to ISO 8655-2:2022 needs the laboratory's limits (pipette add --max-systematic --max-random)",
         pipette.id));
   for (const auto& tv : volumes)
     for (const auto& [channel, count] : tv.replicates)

@@ -1,6 +1,7 @@
-// End to end: the edition of ISO 8655 a pipette is checked to (`pipette set-edition`). Under 2022 a run needs 10
-// replicates at each test volume and the lab's own limits (plumb does not hold the 2022 tables); a run that misses
-// either is refused, exit 2, the database unchanged; a conforming run's certificate names the edition. The 2022
+// End to end: the edition of ISO 8655 a pipette is checked to (`pipette set-edition`). 2022 needs the lab's own
+// limits (plumb does not hold the 2022 tables: refused for a pipette judged by the 2002 table) and 10 replicates at
+// each test volume; a run short of them is refused, exit 2, the database unchanged; a conforming run's certificate
+// names the edition. The 2022
 // requirements are as recalled from memory of ISO 8655-6:2022 (checks/pipette_edition.hpp).
 #include <catch2/catch.hpp>
 
@@ -67,28 +68,25 @@ TEST_CASE("ISO 8655:2022 chosen per pipette: refused runs, the certificate names
           "[cli][pipette][edition]") {
   plumb::test::ScratchDir dir;
   const auto db = edition_lab(dir);
-  for (const char* p : {"P-07", "P-08"}) {
-    const auto r = run_plumb({"--db", db, "pipette", "set-edition", p, "--edition", "2022", "--reason",
-                              "moving to "
-                              "the 2022 editions"},
-                             dir.path());
-    INFO(r.err);
-    REQUIRE(r.status == 0);
-    CHECK_THAT(r.out, Catch::Contains("ISO 8655:2022"));
-  }
-  // P-07 is judged by the 2002 Table 1: refused under 2022, nothing written.
-  dir.write("w.csv", weighings(10));
+  // P-07 is judged by the 2002 Table 1: 2022 is refused for it (plumb holds no 2022 table), nothing written.
   const auto before = plumb::test::dump_database(db);
-  auto r = record(db, "P-07", dir);
+  auto r = run_plumb({"--db", db, "pipette", "set-edition", "P-07", "--edition", "2022"}, dir.path());
   CHECK(r.status == 2);
-  CHECK_THAT(r.err, Catch::Contains("ISO 8655-2:2002 Table 1") && Catch::Contains("ISO 8655:2022"));
+  CHECK_THAT(squeezed(r.err), Catch::Contains("ISO8655-2:2002Table1") && Catch::Contains("--max-systematic"));
   CHECK(plumb::test::dump_database(db) == before);
+  r = run_plumb(
+      {"--db", db, "pipette", "set-edition", "P-08", "--edition", "2022", "--reason", "moving to the 2022 editions"},
+      dir.path());
+  INFO(r.err);
+  REQUIRE(r.status == 0);
+  CHECK_THAT(r.out, Catch::Contains("ISO 8655:2022"));
+  const auto after_edition = plumb::test::dump_database(db);
   // P-08 has the lab's limits, but 9 replicates are one short of 2022's 10.
   dir.write("w.csv", weighings(9));
   r = record(db, "P-08", dir);
   CHECK(r.status == 2);
   CHECK_THAT(r.err, Catch::Contains("9 replicate(s)") && Catch::Contains("needs 10"));
-  CHECK(plumb::test::dump_database(db) == before);
+  CHECK(plumb::test::dump_database(db) == after_edition);
   // Ten: recorded, and the certificate states the edition in every rendering.
   dir.write("w.csv", weighings(10));
   r = record(db, "P-08", dir);

@@ -16,6 +16,14 @@ store::PipetteEdition set_pipette_edition(store::Database& db, const store::Acto
   require_lab(db);
   const auto pipette = store::find_pipette(db.sql(), pipette_id);
   if (!pipette) throw InputError(fmt::format("pipette \"{}\" is not registered.", pipette_id));
+  // The 2022 limits are not held: a pipette judged by the 2002 table could record no run under 2022.
+  if (e == checks::Iso8655Edition::e2022 &&
+      pipette->definition.limits.kind == pipette_limits::LimitsPolicy::Kind::iso8655_2)
+    throw InputError(fmt::format(
+        "--edition 2022: pipette {} is judged by ISO 8655-2:2002 Table 1; plumb does not hold the 2022 edition's "
+        "limits, so a pipette checked to ISO 8655:2022 must be registered with the laboratory's limits (pipette add "
+        "--max-systematic --max-random).",
+        pipette->id()));
   store::PipetteEdition row;
   row.pipette_id = pipette->id();
   row.edition = std::string(checks::key(e));
