@@ -24,7 +24,8 @@ std::string edition_lab(const plumb::test::ScratchDir& dir) {
             "100.00003\n100.00003\n");
   for (const std::vector<std::string>& step :
        {std::vector<std::string>{"--db", db, "balance", "add", "SM-02", "--capacity", "120g", "--readability", "0.01mg",
-                                 "--every", "7d", "--location", "Weighing room", "--since", "2026-01-05"},
+                                 "--every", "7d", "--smallest-net", "50mg", "--location", "Weighing room", "--since",
+                                 "2026-01-05"},
         std::vector<std::string>{"--db", db, "check", "record", "SM-02", "--weight", "W100", "--readings", "sm02.csv",
                                  "--on", "2026-11-30", "--as", "A. Technician"},
         std::vector<std::string>{"--db", db, "pipette", "add", "P-07", "--nominal", "100uL", "--range", "fixed",
