@@ -37,7 +37,7 @@ struct RangeApproximation {
   [[nodiscard]] double error_at(double reading_g) const { return error_fit.predict(reading_g); }
   [[nodiscard]] double u_at(double reading_g) const;
   [[nodiscard]] double expanded_at(double reading_g) const { return k * u_at(reading_g); }
-  /// "E(R) = +2.1e-06 R", "E(R) = -0.01 mg +2.1e-06 R", with the quadratic term when there is one.
+  /// "E(R) = +2.1000e-06 R", "E(R) = -1.0000e-05 g +2.1000e-06 R", with the quadratic term when there is one.
   [[nodiscard]] std::string error_formula() const;
   /// "u(E(R)) = sqrt((0.120 mg)^2 + (1.5e-06 R)^2)".
   [[nodiscard]] std::string uncertainty_formula() const;
