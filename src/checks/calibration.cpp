@@ -126,23 +126,35 @@ CalibrationSetResult evaluate_set(const CalibrationInput& in, const CalibrationS
     const double n_at_load = static_cast<double>(L.up.size());
 
     std::vector<stats::Contribution> c;
-    c.push_back(stats::Contribution::rounding("rounding at zero", dg));
-    c.push_back(stats::Contribution::rounding("rounding at load", dg));
+    auto r0 = stats::Contribution::rounding("rounding at zero", dg);
+    r0.note =
+        fmt::format("EURAMET cg-18 v4.0: the no-load indication rounded to d = {}, d / (2 sqrt 3)", d.to_string());
+    c.push_back(r0);
+    auto rl = stats::Contribution::rounding("rounding at load", dg);
+    rl.note = fmt::format("EURAMET cg-18 v4.0: the loaded indication rounded to d = {}, d / (2 sqrt 3)", d.to_string());
+    c.push_back(rl);
     auto repc =
         stats::Contribution::type_a("repeatability", rep.sd.g() / std::sqrt(n_at_load), static_cast<double>(rep.n - 1));
-    repc.note = fmt::format("s = {:.3g} g from {} readings at {}, divided by sqrt({})", rep.sd.g(), rep.n,
-                            rep.load.to_string(), L.up.size());
+    // cg-18: the indication at the load is a single reading (u = s) or the mean of n readings (u = s / sqrt n).
+    repc.note = fmt::format(
+        "EURAMET cg-18 v4.0, Type A: s = {:.3g} g from the {} readings of the repeatability test at {}; {}", rep.sd.g(),
+        rep.n, rep.load.to_string(),
+        L.up.size() == 1 ? std::string("the indication at this load is a single reading, so u = s")
+                         : fmt::format("the indication at this load is the mean of {} readings, so u = s / sqrt({})",
+                                       L.up.size(), L.up.size()));
     c.push_back(repc);
     if (r.eccentricity) {
       auto ecc = stats::Contribution::rectangular("eccentricity", r.eccentricity->half_width_at(L.reference).g());
-      ecc.note = fmt::format("|dI|max = {} g at {} with L_ecc = {}; |dI|max / (2 L_ecc) x L",
-                             r.eccentricity->max_abs_deviation.in_grams().to_string(), r.eccentricity->max_position,
-                             r.eccentricity->load.to_string());
+      ecc.note =
+          fmt::format("EURAMET cg-18 v4.0, rectangular: |dI|max = {} g at {} with L_ecc = {}; |dI|max / (2 L_ecc) x L",
+                      r.eccentricity->max_abs_deviation.in_grams().to_string(), r.eccentricity->max_position,
+                      r.eccentricity->load.to_string());
       c.push_back(ecc);
     }
     auto wc = stats::Contribution::standard("reference weights", L.u_weights.g(), -1.0);
-    wc.note = L.class_only ? "certificate U/k, or class MPE/sqrt 3 where only the class is known; summed"
-                           : "certificate U/k of each weight, summed";
+    wc.note = L.class_only ? "EURAMET cg-18 v4.0: certificate U/k, or OIML R 111-1:2004 class MPE/sqrt 3 where only "
+                             "the class is known; summed (fully correlated)"
+                           : "EURAMET cg-18 v4.0: certificate U/k of each weight, summed (fully correlated)";
     c.push_back(wc);
     auto bc = stats::Contribution::standard("air buoyancy", L.u_buoyancy.g(), -1.0);
     bc.note = fmt::format(

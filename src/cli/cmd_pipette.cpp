@@ -2,6 +2,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "app/pipette/edition.hpp"
 #include "app/pipette/registry.hpp"
 #include "app/status/due.hpp"
 #include "cli/command_groups.hpp"
@@ -105,7 +106,27 @@ std::vector<Command> pipette_commands() {
                               status_of(p.id()), p.location);
                  return 0;
                }};
-  return {add, list, instrument_show_command("pipette", "P-07")};
+  Command set_edition{
+      "pipette",
+      "set-edition",
+      "choose the edition of ISO 8655 a pipette is checked to (2002 or 2022); its runs are held to that edition",
+      "plumb pipette set-edition P-07 --edition 2022 --reason \"the lab moves to the 2022 editions\"",
+      [](po::options_description& d, po::positional_options_description& p) {
+        d.add_options()("id", po::value<std::string>()->required(), "pipette id (positional)")(
+            "edition", po::value<std::string>()->required(), "2002 | 2022")(
+            "reason", po::value<std::string>(), "why the edition is chosen or changed (kept with it)");
+        p.add("id", 1);
+      },
+      [](const po::variables_map& vm, Env& env) {
+        auto db = env.open();
+        const auto e =
+            app::set_pipette_edition(db, env.actor(db), vm["id"].as<std::string>(), vm["edition"].as<std::string>(),
+                                     optional_string(vm, "reason").value_or(""));
+        fmt::print(env.out, "Pipette {} is checked to ISO 8655:{} from now on (row {}).\n", e.pipette_id, e.edition,
+                   e.id);
+        return 0;
+      }};
+  return {add, list, set_edition, instrument_show_command("pipette", "P-07")};
 }
 
 }  // namespace plumb::cli

@@ -133,8 +133,10 @@ TEST_CASE("calibration: record, show with budget and fit, error at a load, certi
   CHECK(at["nearest_calibrated_loads"][0]["U_g"] == w100["U_g"]);
   r = run_plumb({"--db", db, "check", "show", "LAST", "--at", "120g"}, dir.path());
   REQUIRE(r.status == 0);
-  // A few lines: the run, the error at the load (0.48 mg to d / 10 = 0.01 mg), the two loads beside it, a note.
-  CHECK(std::count(r.out.begin(), r.out.end(), '\n') == 5);
+  // A few lines: the run, the error at the load (0.48 mg to d / 10 = 0.01 mg), the error and uncertainty over the
+  // range with its two formulas (EURAMET cg-18 v4.0), the two loads beside it, a note.
+  CHECK(std::count(r.out.begin(), r.out.end(), '\n') == 7);
+  CHECK_THAT(r.out, Catch::Contains("over the range (EURAMET cg-18 v4.0, straight line with offset)"));
   CHECK_THAT(r.out, Catch::Contains("fitted error at 120 g: E = +0.48 mg"));
   CHECK_THAT(r.out, Catch::Contains("calibrated load 3 (100"));
   // 210 g lies outside the calibrated 20-200 g: refused, or shown marked as extrapolated.

@@ -4,6 +4,7 @@
 
 #include <algorithm>
 
+#include "report/calibration/json.hpp"
 #include "report/calibration/text.hpp"
 
 namespace plumb::app {
@@ -45,6 +46,7 @@ json stage_json(const json& set, const char* key, const char* title) {
           {"eccentricity", set["eccentricity"]},
           {"error_of_indication", error_table(set)},
           {"fit", fit},
+          {"range_approximation", report::to_json(report::range_approximation_of(set))},
           {"max_abs_error_g", set["max_abs_error_g"]},
           {"max_abs_hysteresis_g", set["max_abs_hysteresis_g"]},
           {"weights_suitable", set["weights_suitable"]},

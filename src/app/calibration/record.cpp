@@ -539,6 +539,17 @@ json calibration_error_at(const store::RunRecord& run, const std::string& load, 
                        {"U_g", l->value("U_g", 0.0)},
                        {"k", l->value("k", 0.0)}});
   }
+  // The approximation over the range gives an uncertainty at any reading; the fit's standard error does not.
+  const auto appr = report::range_approximation_of(set);
+  const double r_g = e.indication.g();
+  const json over_range = {{"form", appr.form()},
+                           {"reading_g", r_g},
+                           {"error_g", appr.error_at(r_g)},
+                           {"u_g", appr.u_at(r_g)},
+                           {"k", appr.k},
+                           {"U_g", appr.expanded_at(r_g)},
+                           {"error_formula", appr.error_formula()},
+                           {"uncertainty_formula", appr.uncertainty_formula()}};
   return {{"run_id", run.id},
           {"instrument", run.instrument_id},
           {"date", to_string(run.performed_on)},
@@ -551,6 +562,7 @@ json calibration_error_at(const store::RunRecord& run, const std::string& load, 
           {"error_g", e.error.g()},
           {"se_g", e.se.g()},
           {"extrapolated", e.extrapolated},
+          {"over_range", over_range},
           {"nearest_calibrated_loads", nearest}};
 }
 

@@ -3,6 +3,7 @@
 #include "app/certificates/issue.hpp"
 
 #include "app/pipette/registry.hpp"
+#include "checks/pipette_edition.hpp"
 #include "store/pipettes.hpp"
 #include "store/repository.hpp"
 
@@ -38,6 +39,11 @@ void add_pipette_certificate_parts(store::Database& db, const store::RunRecord& 
                              {"limits_source", d.limits.kind == pipette_limits::LimitsPolicy::Kind::iso8655_2
                                                    ? "ISO 8655-2:2002 Table 1"
                                                    : "the laboratory's own limits"}};
+    // Runs recorded before the edition was a choice were checked to 2002.
+    const json& ed = run.results.value("edition", json());
+    content["edition"] = ed.is_object() ? ed["edition"] : json("2002");
+    content["edition_statement"] =
+        ed.is_object() ? ed["statement"] : json(checks::edition_statement(checks::Iso8655Edition::e2002, d));
   }
   json balance_used = json::object();
   json weights = json::array();

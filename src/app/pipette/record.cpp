@@ -8,6 +8,7 @@
 #include <map>
 
 #include "app/pipette/balance_calibration.hpp"
+#include "app/pipette/edition.hpp"
 #include "app/pipette/registry.hpp"
 #include "app/registry/fields.hpp"
 #include "app/registry/lab.hpp"
@@ -291,6 +292,20 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
                         "at least {} replicates ({} recommended).",
                         in.readings_source, ul(tv.volume), ch.channel, ch.weighings.size(), checks::min_replicates,
                         checks::recommended_replicates));
+  // The edition the pipette is checked to: a run that misses one of its requirements is refused.
+  const checks::Iso8655Edition edition = pipette_edition(db, def.id);
+  std::vector<checks::EditionVolume> edition_volumes;
+  edition_volumes.reserve(input.volumes.size());
+  for (const auto& tv : input.volumes) {
+    checks::EditionVolume ev{tv.volume, {}};
+    ev.replicates.reserve(tv.channels.size());
+    for (const auto& ch : tv.channels) ev.replicates.emplace_back(ch.channel, ch.weighings.size());
+    edition_volumes.push_back(std::move(ev));
+  }
+  if (const auto shortfalls = checks::edition_shortfalls(edition, def, edition_volumes); !shortfalls.empty())
+    throw InputError(fmt::format("{}: {} (pipette {} is checked to ISO 8655:{}; {} requirement(s) not met).",
+                                 in.readings_source, shortfalls.front(), def.id, checks::key(edition),
+                                 shortfalls.size()));
   const checks::PipetteRunResult result = checks::evaluate_pipette_run(input);
 
   store::RunRecord run;
@@ -302,6 +317,8 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
   run.reason = in.reason;
   run.results = report::to_json(result);
   run.results["policy"] = def.limits.key();
+  run.results["edition"] = {{"edition", std::string(checks::key(edition))},
+                            {"statement", checks::edition_statement(edition, def)}};
   run.results["policy_name"] = def.limits.name();
   run.results["pipette"] = {{"id", def.id},
                             {"kind", std::string(checks::to_string(def.kind))},

@@ -127,6 +127,31 @@ KeyValues model_block(const json& fit, const MgFormat& f) {
   return kv;
 }
 
+// EURAMET cg-18 v4.0's approximation of E and u(E) as functions of the reading, with its coefficients.
+void range_approximation_block(const json& a, const MgFormat& f, Document& doc) {
+  if (!a.is_object() || a.empty()) return;
+  const auto coef = a.value("error_coef", std::vector<double>{});
+  std::string coefs;
+  const bool through_zero = a.value("model", "") == "through-origin";
+  for (std::size_t i = 0; i < coef.size(); ++i) {
+    const bool offset = !through_zero && i == 0;  // a0 is a mass: in mg like E; a1, a2 are per gram of R
+    coefs += fmt::format(
+        "{}a{} = {}", i ? "; " : "", through_zero ? 1 : i,
+        offset ? fmt::format("{:+.6f} mg", coef[i] * 1e3) : fmt::format("{:+.6e}{}", coef[i], i == 2 ? " /g" : ""));
+  }
+  KeyValues kv;
+  kv.rows.emplace_back("Error over the range", fmt::format("{}: {}", cell(a, "form"), cell(a, "error_formula")));
+  kv.rows.emplace_back("Error coefficients", coefs);
+  kv.rows.emplace_back("Uncertainty over the range", cell(a, "uncertainty_formula"));
+  kv.rows.emplace_back("Uncertainty coefficients",
+                       fmt::format("alpha = {} mg; beta = {:.6e}; k = {:.2f}",
+                                   MgFormat{f.decimals + 1}.mg(num(a, "alpha_g")), num(a, "beta"), num(a, "k")));
+  kv.rows.emplace_back("Valid for readings",
+                       fmt::format("{:.6g} g to {:.6g} g", num(a, "reading_min_g"), num(a, "reading_max_g")));
+  doc.blocks.push_back(std::move(kv));
+  doc.blocks.push_back(Paragraph{cell(a, "statement"), true});
+}
+
 void budget_block(const json& stage, const MgFormat& f, Document& doc) {
   const json& rows = stage.value("error_of_indication", json::array());
   if (rows.empty()) return;
@@ -245,6 +270,7 @@ void balance_calibration_sections(const json& c, Document& doc) {
         true});
     doc.blocks.push_back(error_table(st, f));
     doc.blocks.push_back(model_block(st.value("fit", json::object()), f));
+    range_approximation_block(st.value("range_approximation", json()), f, doc);
     if (set.is_object()) set_details_block(set, f, doc);
     for (const auto& n : st.value("notes", json::array()))
       doc.blocks.push_back(Paragraph{"Note: " + n.get<std::string>(), true});

@@ -182,6 +182,40 @@ stats::Fit fit_from_json(const json& j) {
   return f;
 }
 
+checks::RangeApproximation range_approximation_of(const json& set) {
+  std::vector<checks::ApproximationPoint> points;
+  const json loads = set.value("loads", json::array());
+  points.reserve(loads.size());
+  for (const auto& l : loads)
+    points.push_back({l.at("indication_g").get<double>(), l.at("error_g").get<double>(), l.at("u_c_g").get<double>(),
+                      l.at("k").get<double>()});
+  return checks::approximate_over_range(points,
+                                        parse_model(set.at("fit").at("model").get<std::string>(), "stored model"));
+}
+
+json to_json(const checks::RangeApproximation& a) {
+  return {{"form", a.form()},
+          {"model", std::string(model_key(a.error_fit.model))},
+          {"error_coef", a.error_fit.coef},
+          {"error_coef_se", a.error_fit.coef_se},
+          {"error_formula", a.error_formula()},
+          {"error_residual_sd_g", a.error_fit.residual_sd},
+          {"alpha_g", a.alpha_g},
+          {"beta", a.beta},
+          {"envelope_raise_g2", a.envelope_raise_g2},
+          {"uncertainty_formula", a.uncertainty_formula()},
+          {"k", a.k},
+          {"reading_min_g", a.reading_min_g},
+          {"reading_max_g", a.reading_max_g},
+          {"statement",
+           fmt::format("EURAMET cg-18 v4.0 approximation over the range {:.6g} g to {:.6g} g of the reading R: the "
+                       "error of indication as a {} fitted by least squares to the errors at the calibrated loads, "
+                       "{}; its standard uncertainty {}, fitted to u(E) and the approximation's residual at each load "
+                       "and covering both at every load; U = k u with k = {:.2f}, the largest k of the loads. Not "
+                       "valid outside the range.",
+                       a.reading_min_g, a.reading_max_g, a.form(), a.error_formula(), a.uncertainty_formula(), a.k)}};
+}
+
 json to_json(const checks::CalibrationResult& r) {
   json air;
   if (r.air)

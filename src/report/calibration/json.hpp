@@ -6,6 +6,7 @@
 #include <nlohmann/json.hpp>
 
 #include "checks/calibration.hpp"
+#include "checks/range_approximation.hpp"
 #include "stats/regression.hpp"
 
 namespace plumb::report {
@@ -18,5 +19,11 @@ stats::Fit fit_from_json(const nlohmann::json& j);
 /// "line" | "through-origin" | "quadratic"
 std::string_view model_key(stats::Model m);
 stats::Model parse_model(std::string_view text, std::string_view field = "--model");
+
+/// The error and its uncertainty approximated over the range (checks/range_approximation) from one stored set
+/// (as found or as left): its loads' mean readings, errors, u_c and k, in the form of the set's fitted model.
+checks::RangeApproximation range_approximation_of(const nlohmann::json& set);
+/// Its coefficients, formulas and the statement the certificate prints.
+nlohmann::json to_json(const checks::RangeApproximation& a);
 
 }  // namespace plumb::report

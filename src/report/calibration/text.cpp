@@ -183,11 +183,22 @@ std::string calibration_error_at_text(const json& a) {
   line(fmt::format("  fitted error at {}: E = {} mg (standard error of the fit {} mg){}", field_text(a, "load"),
                    mg(number_field(a, "error_g"), decimals), mg_unsigned(number_field(a, "se_g"), decimals),
                    a.value("extrapolated", false) ? "; EXTRAPOLATED: outside the calibrated range, not reliable" : ""));
+  if (const json& o = a.value("over_range", json()); o.is_object()) {
+    line(
+        fmt::format("  over the range (EURAMET cg-18 v4.0, {}): at R = {:.10g} g, E = {} mg, u = {} mg, U = {} mg "
+                    "(k = {:.2f})",
+                    field_text(o, "form"), number_field(o, "reading_g"), mg(number_field(o, "error_g"), decimals + 1),
+                    mg_unsigned(number_field(o, "u_g"), decimals + 1),
+                    mg_unsigned(number_field(o, "U_g"), decimals + 1), number_field(o, "k")));
+    line(fmt::format("    {}; {}", field_text(o, "error_formula"), field_text(o, "uncertainty_formula")));
+  }
   for (const auto& l : a.value("nearest_calibrated_loads", json::array()))
     line(fmt::format("  calibrated load {} ({} g): E = {} mg, U = {} mg (k = {:.2f})", field_text(l, "index"),
                      fmt::format("{:.10g}", number_field(l, "reference_g")), mg(number_field(l, "error_g"), decimals),
                      mg_unsigned(number_field(l, "U_g"), decimals), number_field(l, "k")));
-  line("U is stated at the calibrated loads (EURAMET cg-18); between them the error is read from the fitted model.");
+  line(
+      "U is stated at the calibrated loads (EURAMET cg-18 v4.0); between them the error and its uncertainty are "
+      "read from the approximation over the range.");
   return out;
 }
 

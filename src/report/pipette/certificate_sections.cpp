@@ -28,6 +28,7 @@ void check_block(const json& c, Document& doc) {
   doc.blocks.push_back(Heading{"Check"});
   doc.blocks.push_back(KeyValues{{{"Run", cell(run, "run_id")},
                                   {"Method", "gravimetric (ISO 8655-6): each delivery weighed, converted with Z"},
+                                  {"Edition", cell(c, "edition_statement")},
                                   {"Performed", fmt::format("{} by {}", cell(run, "date"), cell(run, "operator"))}}});
 }
 

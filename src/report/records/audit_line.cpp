@@ -77,6 +77,12 @@ std::string describe_row(const std::string& table, const json& row, const std::m
     return fmt::format("set the calibration of {}: tolerance {}, decision rule {}, every {}",
                        text_of(row, "instrument_id"), text_of(row, "tolerance"), text_of(row, "decision_rule"),
                        text_of(row, "calibrate_every"));
+  if (table == "balance_in_use_terms")
+    return fmt::format("set the terms of normal use of {}: form {}, required accuracy {} %, safety factor {}",
+                       text_of(row, "balance_id"), text_of(row, "form"), text_of(row, "required_accuracy_pct"),
+                       text_of(row, "safety_factor"));
+  if (table == "pipette_editions")
+    return fmt::format("chose ISO 8655:{} for pipette {}", text_of(row, "edition"), text_of(row, "pipette_id"));
   if (table == "run_voids") return fmt::format("voided run {}", text_of(row, "run_id"));
   if (table == "certificate_withdrawals")
     return fmt::format("withdrew certificate id {}", text_of(row, "certificate_id"));
