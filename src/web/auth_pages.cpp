@@ -59,8 +59,9 @@ WebResponse login_submit(PageContext& c) {
   const std::string password = c.request.param("password");
   nlohmann::json context = {{"login", login}};
   if (!c.limiter.allow(c.request.remote_addr, std::chrono::steady_clock::now())) {
-    context["password_error"] = "Too many log-in attempts from this address in the last minute; wait a minute and "
-                                "try again.";
+    context["password_error"] =
+        "Too many log-in attempts from this address in the last minute; wait a minute and "
+        "try again.";
     return auth_form(c, "login", context, 429);
   }
   try {
@@ -69,10 +70,10 @@ WebResponse login_submit(PageContext& c) {
     const auto account = std::find_if(users.begin(), users.end(), [&](const auto& u) { return u.user.login == login; });
     if (account != users.end() && account->must_change && account->active && !account->locked) {
       app::authenticate(c.db, "user password", {login, std::nullopt, typed_password(password)});
-      return auth_form(c, "password",
-                       {{"login", login},
-                        {"notice", "An administrator set your password: choose a new one before you go on."}},
-                       200);
+      return auth_form(
+          c, "password",
+          {{"login", login}, {"notice", "An administrator set your password: choose a new one before you go on."}},
+          200);
     }
     const auto session = app::open_session(c.db, {login, std::nullopt, typed_password(password)});
     auto r = redirect_to("/");
@@ -102,8 +103,9 @@ WebResponse password_submit(PageContext& c) {
   const std::string fresh = c.request.param("new_password");
   nlohmann::json context = {{"login", login}};
   if (!c.limiter.allow(c.request.remote_addr, std::chrono::steady_clock::now())) {
-    context["current_error"] = "Too many log-in attempts from this address in the last minute; wait a minute and "
-                               "try again.";
+    context["current_error"] =
+        "Too many log-in attempts from this address in the last minute; wait a minute and "
+        "try again.";
     return auth_form(c, "password", context, 429);
   }
   try {

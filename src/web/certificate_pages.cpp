@@ -9,6 +9,7 @@
 #include "app/certificates/resolve.hpp"
 #include "app/certificates/review.hpp"
 #include "app/people/authenticate.hpp"
+#include "app/runs/void_run.hpp"
 #include "core/dates.hpp"
 #include "core/errors.hpp"
 #include "report/certificates/document.hpp"
@@ -36,22 +37,37 @@ json certificate_row(const report::CertificateListItem& i) {
           {"waiting_days", i.waiting_days ? json(*i.waiting_days) : json("")}};
 }
 
-/// The certificate page with the approval form's refusal beside its field.
+/// The signer of `command` ("certificate approve", "check void"): the session's user with the password entered
+/// for this very signature (app/people refuses a signature without it).
+app::Authenticated signer_of(const PageContext& c, const std::string& command) {
+  const std::string password = c.request.param("password");
+  return app::authenticate(
+      c.db, command,
+      {c.visitor->who.login, c.visitor->token, [password](const std::string&) -> std::optional<std::string> {
+         if (password.empty()) return std::nullopt;
+         return password;
+       }});
+}
+
+/// The certificate page with a form's refusal beside its field.
 WebResponse certificate_view(PageContext& c, const std::string& number, json refusal, int status) {
   const auto cert = app::resolve_certificate(c.db, number);
   const json standing = app::certificate_status(c.db, cert);
   const std::string state = standing.value("state", "draft");
-  json context = {{"number", cert.number},
-                  {"run_id", cert.run_id},
-                  {"kind", cert.kind},
-                  {"issued_at", cert.issued_at},
-                  {"issued_by", cert.issued_by},
-                  {"sha256", cert.content_sha256},
-                  {"state", state},
-                  {"approval", standing["approval"]},
-                  {"withdrawn", standing["withdrawn"]},
-                  {"may_approve", state == "draft" && may(*c.visitor, "certificate approve")},
-                  {"meaning", c.request.param("meaning").empty() ? "reviewed and approved" : c.request.param("meaning")}};
+  json context = {
+      {"number", cert.number},
+      {"run_id", cert.run_id},
+      {"kind", cert.kind},
+      {"issued_at", cert.issued_at},
+      {"issued_by", cert.issued_by},
+      {"sha256", cert.content_sha256},
+      {"state", state},
+      {"approval", standing["approval"]},
+      {"withdrawn", standing["withdrawn"]},
+      {"may_approve", state == "draft" && may(*c.visitor, "certificate approve")},
+      {"may_void", (state == "draft" || state == "approved") && may(*c.visitor, "check void")},
+      {"void_reason", c.request.param("reason")},
+      {"meaning", c.request.param("meaning").empty() ? "reviewed and approved" : c.request.param("meaning")}};
   for (auto& [key, value] : refusal.items()) context[key] = value;
   return html_page("certificate", "Certificate " + cert.number, context, c.visitor, status);
 }
@@ -122,15 +138,9 @@ WebResponse certificate_issue_submit(PageContext& c) {
 WebResponse certificate_approve_submit(PageContext& c) {
   require_role(*c.visitor, "certificate approve");
   const std::string number = c.request.path_parts.at(0);
-  const std::string password = c.request.param("password");
   try {
-    // A signature: the password is entered for this very approval (app/people refuses it otherwise).
-    const auto signer = app::authenticate(
-        c.db, "certificate approve",
-        {c.visitor->who.login, c.visitor->token, [password](const std::string&) -> std::optional<std::string> {
-           if (password.empty()) return std::nullopt;
-           return password;
-         }});
+    // A signature: the password is entered for this very approval.
+    const auto signer = signer_of(c, "certificate approve");
     const auto approved = app::approve_certificate(c.db, signer.actor, number, c.request.param("meaning"));
     return redirect_to("/certificates/" + approved.number);
   } catch (const AccessError& e) {
@@ -139,6 +149,21 @@ WebResponse certificate_approve_submit(PageContext& c) {
     const std::string sentence = e.what();
     const bool about_meaning = sentence.find("meaning") != std::string::npos;
     return certificate_view(c, number, {{about_meaning ? "meaning_error" : "approve_error", sentence}}, 400);
+  }
+}
+
+WebResponse certificate_void_submit(PageContext& c) {
+  require_role(*c.visitor, "check void");
+  const std::string number = c.request.path_parts.at(0);
+  try {
+    const auto cert = app::resolve_certificate(c.db, number);
+    const auto signer = signer_of(c, "check void");
+    app::void_run(c.db, signer.actor, std::to_string(cert.run_id), c.request.param("reason"));
+    return redirect_to("/certificates/" + cert.number);
+  } catch (const AccessError& e) {
+    return certificate_view(c, number, {{"void_password_error", e.what()}}, 403);
+  } catch (const InputError& e) {
+    return certificate_view(c, number, {{"reason_error", e.what()}}, 400);
   }
 }
 

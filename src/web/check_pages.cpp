@@ -55,9 +55,12 @@ int shown_decimals(double readability_g) {
 }
 
 /// n, mean, s, bias and the verdict of a run, as the preview and the result page show them.
-json run_figures(const store::RunRecord& run) {
-  const json j = report::run_json(run);
-  const json& r = j.contains("results") && j["results"].is_object() ? j["results"] : j;
+json run_figures(store::RunRecord run) {
+  // A weekly check built for writing carries its results as the JSON text it will store (results_text).
+  if ((run.results.is_null() || run.results.empty()) && !run.results_text.empty())
+    run.results = json::parse(run.results_text);
+  const json r = report::run_json(run);
+  const json& j = r;
   const int places = shown_decimals(r.value("readability_g", 0.0));
   const auto grams = [&](const char* key) {
     return r.contains(key) && r[key].is_number() ? fmt::format("{:.{}f} g", r[key].get<double>(), places) : "";
@@ -71,14 +74,10 @@ json run_figures(const store::RunRecord& run) {
   json reasons = json::array();
   for (const auto& reason : r.value("reasons", json::array())) reasons.push_back(reason);
   const std::string verdict = j.value("verdict", "");
-  return {{"n", r.value("n", 0)},
-          {"mean", grams("mean_g")},
-          {"sd", milligrams("sd_g")},
-          {"bias", milligrams("bias_g")},
-          {"verdict", verdict},
-          {"passed", verdict == "pass"},
-          {"reasons", reasons},
-          {"run_text", report::run_text(j)}};
+  return {{"n", r.value("n", 0)},     {"mean", grams("mean_g")},
+          {"sd", milligrams("sd_g")}, {"bias", milligrams("bias_g")},
+          {"verdict", verdict},       {"passed", verdict == "pass"},
+          {"reasons", reasons},       {"run_text", report::run_text(j)}};
 }
 
 /// The form's choices and what was typed, with the refusal beside its field.

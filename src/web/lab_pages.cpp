@@ -60,16 +60,18 @@ WebResponse overview_page(PageContext& c) {
                          {"detail", item.detail}});
   }
   const auto queue = app::approval_queue(c.db, std::nullopt, std::nullopt);
-  json tiles = json::array({overview_tile("overdue", overdue, "/instruments?standing=overdue", "alarm"),
-                            overview_tile(fmt::format("due within {} days", window), due, "/instruments?standing=due",
-                                          "watch"),
-                            overview_tile("out of service", out_of_service, "/instruments?standing=out+of+service",
-                                          "alarm"),
-                            overview_tile("retired", retired, "/instruments?standing=retired", "quiet"),
-                            overview_tile("drafts awaiting approval", queue.items.size(), "/certificates", "watch"),
-                            overview_tile("reference weights due", weights_due, "/weights", "watch")});
+  json tiles =
+      json::array({overview_tile("overdue", overdue, "/instruments?standing=overdue", "alarm"),
+                   overview_tile(fmt::format("due within {} days", window), due, "/instruments?standing=due", "watch"),
+                   overview_tile("out of service", out_of_service, "/instruments?standing=out+of+service", "alarm"),
+                   overview_tile("retired", retired, "/instruments?standing=retired", "quiet"),
+                   overview_tile("drafts awaiting approval", queue.items.size(), "/certificates", "watch"),
+                   overview_tile("reference weights due", weights_due, "/weights", "watch")});
   return html_page("overview", "Overview",
-                   {{"on", to_string(today)}, {"window", window}, {"tiles", tiles}, {"attention", attention},
+                   {{"on", to_string(today)},
+                    {"window", window},
+                    {"tiles", tiles},
+                    {"attention", attention},
                     {"has_attention", !attention.empty()}},
                    c.visitor);
 }
@@ -91,7 +93,10 @@ WebResponse instruments_page(PageContext& c) {
                     {"kind", i.kind},
                     {"location", i.location},
                     {"standing", st},
-                    {"tone", st == "in date" ? "ok" : st == "due" ? "watch" : st == "retired" ? "quiet" : "alarm"},
+                    {"tone", st == "in date"   ? "ok"
+                             : st == "due"     ? "watch"
+                             : st == "retired" ? "quiet"
+                                               : "alarm"},
                     {"rank", app::standing_rank(st)},
                     {"next_due", r.next_due ? to_string(*r.next_due) : ""},
                     {"latest", i.latest ? to_string(i.latest->performed_on) : ""},
@@ -116,8 +121,12 @@ WebResponse instruments_page(PageContext& c) {
        std::vector<std::pair<std::string, std::string>>{{"id", "id"}, {"due", "next due"}, {"standing", "standing"}})
     sorts.push_back({{"value", value}, {"label", label}, {"selected", sort == value}});
   return html_page("instruments", "Instruments",
-                   {{"rows", rows}, {"count", rows.size()}, {"q", q}, {"kinds", kinds},
-                    {"standings", standing_options}, {"sorts", sorts}},
+                   {{"rows", rows},
+                    {"count", rows.size()},
+                    {"q", q},
+                    {"kinds", kinds},
+                    {"standings", standing_options},
+                    {"sorts", sorts}},
                    c.visitor);
 }
 
@@ -160,7 +169,10 @@ WebResponse weights_page(PageContext& c) {
                     {"uncertainty", w.current.uncertainty.to_string()},
                     {"due_on", to_string(w.current.due_on)},
                     {"standing", st},
-                    {"tone", st == "in date" ? "ok" : st == "due" ? "watch" : st == "retired" ? "quiet" : "alarm"}});
+                    {"tone", st == "in date"   ? "ok"
+                             : st == "due"     ? "watch"
+                             : st == "retired" ? "quiet"
+                                               : "alarm"}});
   }
   return html_page("weights", "Reference weights", {{"rows", rows}, {"count", rows.size()}, {"q", q}}, c.visitor);
 }
@@ -177,8 +189,12 @@ WebResponse audit_page(PageContext& c) {
   const std::size_t shown = std::min<std::size_t>(all.size(), 500);
   for (std::size_t i = 0; i < shown; ++i) records.push_back(all[all.size() - 1 - i]);
   return html_page("audit", "Audit trail",
-                   {{"scope", log.scope}, {"records", records}, {"total", all.size()}, {"shown", shown},
-                    {"from", c.request.param("from")}, {"to", c.request.param("to")}},
+                   {{"scope", log.scope},
+                    {"records", records},
+                    {"total", all.size()},
+                    {"shown", shown},
+                    {"from", c.request.param("from")},
+                    {"to", c.request.param("to")}},
                    c.visitor);
 }
 

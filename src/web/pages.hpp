@@ -43,5 +43,6 @@ WebResponse certificate_document_page(PageContext& c);
 WebResponse certificate_download(PageContext& c);
 WebResponse certificate_issue_submit(PageContext& c);
 WebResponse certificate_approve_submit(PageContext& c);
+WebResponse certificate_void_submit(PageContext& c);
 
 }  // namespace plumb::web

@@ -17,12 +17,11 @@ std::string render_template(const std::string& name, const nlohmann::json& conte
   return render_mustache(template_text(name), context, template_text);
 }
 
-WebResponse html_page(const std::string& name, const std::string& title, nlohmann::json context,
-                      const Visitor* visitor, int status) {
+WebResponse html_page(const std::string& name, const std::string& title, nlohmann::json context, const Visitor* visitor,
+                      int status) {
   nlohmann::json layout = {{"title", title}};
   if (visitor) {
-    layout["visitor"] = {{"name", visitor->who.actor.name}, {"login", visitor->who.login},
-                         {"csrf", visitor->csrf}};
+    layout["visitor"] = {{"name", visitor->who.actor.name}, {"login", visitor->who.login}, {"csrf", visitor->csrf}};
     layout["nav"] = navigation_of(*visitor);
     context["csrf"] = visitor->csrf;
   }

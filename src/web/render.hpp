@@ -12,8 +12,8 @@ namespace plumb::web {
 std::string render_template(const std::string& name, const nlohmann::json& context);
 
 /// A whole page: templates/<name>.html inside the layout. `visitor` null: the page of someone not logged in.
-WebResponse html_page(const std::string& name, const std::string& title, nlohmann::json context,
-                      const Visitor* visitor, int status = 200);
+WebResponse html_page(const std::string& name, const std::string& title, nlohmann::json context, const Visitor* visitor,
+                      int status = 200);
 
 /// The page that says why a request was refused or failed, in one sentence.
 WebResponse message_page(int status, const std::string& title, const std::string& sentence, const Visitor* visitor);

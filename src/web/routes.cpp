@@ -46,6 +46,7 @@ const std::vector<Route>& routes() {
         r("GET", "/certificates/([A-Za-z0-9._-]+)/document", false, certificate_document_page),
         r("GET", "/certificates/([A-Za-z0-9._-]+)/download/(pdf|json|dcc)", false, certificate_download),
         r("POST", "/certificates/([A-Za-z0-9._-]+)/approve", false, certificate_approve_submit),
+        r("POST", "/certificates/([A-Za-z0-9._-]+)/void", false, certificate_void_submit),
     };
   }();
   return all;
@@ -89,8 +90,11 @@ WebResponse respond(const Site& site, LoginLimiter& limiter, const WebRequest& r
     if (found.visitor) visitor = &*found.visitor;
     PageContext c{site, db, routed, visitor, limiter, found.notice};
     if (!route->open && !visitor) {
-      if (routed.method == "POST") return message_page(401, "Log in first", "This form needs a logged-in user; log "
-                                                                           "in and send it again.", nullptr);
+      if (routed.method == "POST")
+        return message_page(401, "Log in first",
+                            "This form needs a logged-in user; log "
+                            "in and send it again.",
+                            nullptr);
       // A session the lab's idle time ended says so once, on the log-in page; its cookie goes.
       const bool idle = found.notice.find("idle") != std::string::npos;
       auto r = redirect_to(idle ? "/login?idle=1" : "/login");
@@ -108,8 +112,8 @@ WebResponse respond(const Site& site, LoginLimiter& limiter, const WebRequest& r
     return message_page(403, "Not allowed", e.what(), visitor);
   } catch (const InputError& e) {
     const std::string sentence = e.what();
-    const bool unknown = sentence.find("is not registered") != std::string::npos ||
-                         sentence.find("no certificate") != std::string::npos;
+    const bool unknown =
+        sentence.find("is not registered") != std::string::npos || sentence.find("no certificate") != std::string::npos;
     return message_page(unknown ? 404 : 400, unknown ? "Not found" : "Refused", sentence, visitor);
   } catch (const StorageError& e) {
     return message_page(500, "Storage error", e.what(), visitor);

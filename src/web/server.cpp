@@ -66,8 +66,8 @@ void serve(const ServeOptions& options, const std::function<void(const std::stri
     throw InputError("--tls-cert and --tls-key go together: give both (PEM files) or neither.");
   for (const auto& f : {options.tls_cert, options.tls_key})
     if (f && !std::filesystem::is_regular_file(*f))
-      throw InputError(fmt::format("--tls-{} \"{}\" is not a readable file.", f == options.tls_cert ? "cert" : "key",
-                                   f->string()));
+      throw InputError(
+          fmt::format("--tls-{} \"{}\" is not a readable file.", f == options.tls_cert ? "cert" : "key", f->string()));
   Site site{options, random_hex_token(), options.tls_cert.has_value()};
   LoginLimiter limiter(options.login_attempts_per_minute);
 
@@ -94,15 +94,15 @@ void serve(const ServeOptions& options, const std::function<void(const std::stri
   server->Get(".*", [&handle](const httplib::Request& req, httplib::Response& res) { handle(req, res, ""); });
   // The body is read here, within the server's limit (413 beyond it), and parsed by plumb: the library's own form
   // parsing has a fixed limit of its own.
-  server->Post(".*", [&handle](const httplib::Request& req, httplib::Response& res,
-                               const httplib::ContentReader& reader) {
-    std::string body;
-    reader([&body](const char* data, std::size_t length) {
-      body.append(data, length);
-      return true;
-    });
-    handle(req, res, body);
-  });
+  server->Post(".*",
+               [&handle](const httplib::Request& req, httplib::Response& res, const httplib::ContentReader& reader) {
+                 std::string body;
+                 reader([&body](const char* data, std::size_t length) {
+                   body.append(data, length);
+                   return true;
+                 });
+                 handle(req, res, body);
+               });
   server->set_error_handler([&site](const httplib::Request&, httplib::Response& res) {
     WebResponse page;
     page.status = res.status;
@@ -125,9 +125,10 @@ void serve(const ServeOptions& options, const std::function<void(const std::stri
     port = server->bind_to_any_port(options.listen);
     if (port < 0) throw InputError(fmt::format("--listen {}: cannot listen on any port there.", options.listen));
   } else if (!server->bind_to_port(options.listen, port)) {
-    throw InputError(fmt::format("--listen {} --port {}: cannot listen there (in use, or not an address of this "
-                                 "machine).",
-                                 options.listen, port));
+    throw InputError(
+        fmt::format("--listen {} --port {}: cannot listen there (in use, or not an address of this "
+                    "machine).",
+                    options.listen, port));
   }
   running_server = server.get();
   std::signal(SIGINT, stop_serving);

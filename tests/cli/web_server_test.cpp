@@ -2,9 +2,9 @@
 // port and httplib's client asks it. Status codes, security headers, cookies, log-in and lock-out, CSRF, role
 // refusals, escaping, the body limit, the weekly check's preview and record (the same sentence and figures as the
 // CLI), approval as an electronic signature, and the CLI writing the same database at the same time.
-#include <catch2/catch.hpp>
 #include <httplib.h>
 #include <sys/stat.h>
+#include <catch2/catch.hpp>
 
 #include <csignal>
 #include <filesystem>
@@ -120,7 +120,8 @@ class Browser {
 
 void write_private(const ScratchDir& dir, const std::string& name, const std::string& text) {
   dir.write(name, text);
-  std::filesystem::permissions(dir.file(name), std::filesystem::perms::owner_read | std::filesystem::perms::owner_write);
+  std::filesystem::permissions(dir.file(name),
+                               std::filesystem::perms::owner_read | std::filesystem::perms::owner_write);
 }
 
 /// A user with one role, its first password changed as plumb requires; its password is "<login>-password-long".
@@ -238,8 +239,10 @@ TEST_CASE("plumb serve: a session idle past the lab's limit is ended and says so
   REQUIRE(b.get("/")->status == 200);
   // session_activity is operational state (schema/011_users.sql), not a record: backdate the last use by 2 hours,
   // past the default idle limit of 15 minutes.
-  const auto r0 = std::system(("sqlite3 " + db + " \"UPDATE session_activity SET last_used_at = "
-                               "strftime('%Y-%m-%dT%H:%M:%SZ', 'now', '-2 hours')\"").c_str());
+  const auto r0 = std::system(("sqlite3 " + db +
+                               " \"UPDATE session_activity SET last_used_at = "
+                               "strftime('%Y-%m-%dT%H:%M:%SZ', 'now', '-2 hours')\"")
+                                  .c_str());
   REQUIRE(r0 == 0);
   auto r = b.get("/");
   REQUIRE(r);
@@ -357,19 +360,17 @@ TEST_CASE("plumb serve: a weekly check is previewed and recorded by the same cod
   REQUIRE(r);
   const json refused = json::parse(r->body);
   dir.write("readings", bad);
-  const auto cli = run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "readings",
-                              "--on", "2026-11-30"},
-                             dir.path());
+  const auto cli = run_plumb(
+      {"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "readings", "--on", "2026-11-30"},
+      dir.path());
   REQUIRE(cli.status == 2);
   CHECK(refused["field"] == "readings");
   CHECK("plumb: " + refused["message"].get<std::string>() + "\n" == cli.err);
   CHECK_THAT(refused["message"].get<std::string>(), Catch::StartsWith("readings line 3:"));
 
-  r = b.post("/checks/preview", {{"balance", "BAL-A"},
-                                 {"weight", "W100"},
-                                 {"readings", passing_readings},
-                                 {"on", "2026-11-30"},
-                                 {"csrf", csrf}});
+  r = b.post(
+      "/checks/preview",
+      {{"balance", "BAL-A"}, {"weight", "W100"}, {"readings", passing_readings}, {"on", "2026-11-30"}, {"csrf", csrf}});
   REQUIRE(r);
   const json preview = json::parse(r->body);
   CHECK(preview["message"] == "");
@@ -382,15 +383,14 @@ TEST_CASE("plumb serve: a weekly check is previewed and recorded by the same cod
   CHECK(run_plumb({"--db", db, "check", "show", "LAST"}, dir.path()).status == 2);  // a preview records nothing
 
   // Without JavaScript: the form posts, a refusal comes back beside its field, and a good check is recorded.
-  r = b.post("/checks", {{"balance", "BAL-A"}, {"weight", "W100"}, {"readings", bad}, {"on", "2026-11-30"}, {"csrf", csrf}});
+  r = b.post("/checks",
+             {{"balance", "BAL-A"}, {"weight", "W100"}, {"readings", bad}, {"on", "2026-11-30"}, {"csrf", csrf}});
   REQUIRE(r);
   CHECK(r->status == 400);
   CHECK_THAT(r->body, Catch::Contains("<p class=\"refusal\" id=\"readings-error\">readings line 3:"));
-  r = b.post("/checks", {{"balance", "BAL-A"},
-                         {"weight", "W100"},
-                         {"readings", passing_readings},
-                         {"on", "2026-11-30"},
-                         {"csrf", csrf}});
+  r = b.post(
+      "/checks",
+      {{"balance", "BAL-A"}, {"weight", "W100"}, {"readings", passing_readings}, {"on", "2026-11-30"}, {"csrf", csrf}});
   REQUIRE(r);
   CHECK(r->status == 200);
   CHECK_THAT(r->body, Catch::Contains("Check run 1 recorded"));
@@ -436,7 +436,8 @@ TEST_CASE("plumb serve: a technician cannot approve, a reviewer signs with the p
   REQUIRE(v.log_in("rita", rita)->status == 303);
   const std::string rita_csrf = v.csrf_of(page);
   CHECK_THAT(v.get("/certificates")->body, Catch::Contains(number));  // in the queue
-  r = v.post(page + "/approve", {{"password", "wrong-password"}, {"meaning", "reviewed and approved"}, {"csrf", rita_csrf}});
+  r = v.post(page + "/approve",
+             {{"password", "wrong-password"}, {"meaning", "reviewed and approved"}, {"csrf", rita_csrf}});
   REQUIRE(r);
   CHECK(r->status == 403);
   CHECK_THAT(r->body, Catch::Contains("id=\"password-error\">the user id or password is wrong (user rita)."));
@@ -463,10 +464,22 @@ TEST_CASE("plumb serve: a technician cannot approve, a reviewer signs with the p
   CHECK(r->status == 200);
   CHECK(r->get_header_value("Content-Security-Policy").find("default-src 'none'") == 0);
   CHECK_THAT(r->body, Catch::Contains(number));
+
+  // Voiding the run is a signature too: without a reason the app's sentence comes back beside the reason.
+  r = v.post(page + "/void", {{"password", rita}, {"reason", ""}, {"csrf", rita_csrf}});
+  REQUIRE(r);
+  CHECK(r->status == 400);
+  CHECK_THAT(r->body, Catch::Contains("id=\"reason-error\">"));
+  r = v.post(page + "/void", {{"password", rita}, {"reason", "entered on the wrong balance"}, {"csrf", rita_csrf}});
+  REQUIRE(r);
+  CHECK(r->status == 303);
+  CHECK_THAT(v.get(page)->body, Catch::Contains(">withdrawn</p>") && Catch::Contains("entered on the wrong balance"));
+  const auto voided = run_plumb({"--db", db, "check", "show", "1", "--format", "json"}, dir.path());
+  CHECK(json::parse(voided.out)["void"]["by"] == "Rita Review");
+  CHECK(run_plumb({"--db", db, "audit", "verify"}, dir.path()).status == 0);
 }
 
-TEST_CASE("plumb serve and the CLI record into the same database at once without a lock error or a lost run",
-          "[web]") {
+TEST_CASE("plumb serve and the CLI record into the same database at once without a lock error or a lost run", "[web]") {
   ScratchDir dir;
   const auto db = plumb::test::example_lab(dir).string();
   const auto password = add_user(db, dir, "tina", "Tina Bench", "technician");
@@ -550,7 +563,9 @@ TEST_CASE("plumb serve: under TLS the session cookie is Secure and HSTS is sent"
   const auto password = add_user(db, dir, "tina", "Tina Bench", "technician");
   const std::string key = dir.file("tls.key").string(), cert = dir.file("tls.crt").string();
   REQUIRE(std::system(("openssl req -x509 -newkey ec -pkeyopt ec_paramgen_curve:P-256 -nodes -days 2 -subj "
-                       "/CN=127.0.0.1 -keyout " + key + " -out " + cert + " 2>/dev/null").c_str()) == 0);
+                       "/CN=127.0.0.1 -keyout " +
+                       key + " -out " + cert + " 2>/dev/null")
+                          .c_str()) == 0);
   Served served(db, dir, {"--tls-cert", cert, "--tls-key", key});
   Browser b(served.port(), "https");
   auto r = b.log_in("tina", password);

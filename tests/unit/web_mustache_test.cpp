@@ -13,9 +13,13 @@ using plumb::web::render_mustache;
 
 namespace {
 
-std::string_view no_partials(std::string_view name) { throw std::out_of_range(std::string(name)); }
+std::string_view no_partials(std::string_view name) {
+  throw std::out_of_range(std::string(name));
+}
 
-std::string render(std::string_view text, const json& context) { return render_mustache(text, context, no_partials); }
+std::string render(std::string_view text, const json& context) {
+  return render_mustache(text, context, no_partials);
+}
 
 }  // namespace
 
