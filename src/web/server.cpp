@@ -4,6 +4,7 @@
 #include <httplib.h>
 
 #include <csignal>
+#include <cstdint>
 #include <filesystem>
 #include <memory>
 
@@ -52,6 +53,23 @@ WebRequest request_of(const httplib::Request& req, const std::string& body) {
   return r;
 }
 
+WebResponse too_large(const Site& site) {
+  WebResponse page;
+  page.status = 413;
+  page.content_type = "text/plain; charset=utf-8";
+  page.body = fmt::format("The request is larger than the server's limit of {} bytes.\n", site.options.body_limit);
+  page.headers.emplace_back("Connection", "close");  // the unread rest of the body must not be read as a request
+  return page;
+}
+
+WebResponse bad_request() {
+  WebResponse page;
+  page.status = 400;
+  page.content_type = "text/plain; charset=utf-8";
+  page.body = "The request's body could not be read whole.\n";
+  return page;
+}
+
 httplib::Server* running_server = nullptr;
 
 extern "C" void stop_serving(int) {
@@ -94,24 +112,38 @@ void serve(const ServeOptions& options, const std::function<void(const std::stri
   server->Get(".*", [&handle](const httplib::Request& req, httplib::Response& res) { handle(req, res, ""); });
   // The body is read here, within the server's limit (413 beyond it), and parsed by plumb: the library's own form
   // parsing has a fixed limit of its own.
-  server->Post(".*",
-               [&handle](const httplib::Request& req, httplib::Response& res, const httplib::ContentReader& reader) {
-                 std::string body;
-                 reader([&body](const char* data, std::size_t length) {
-                   body.append(data, length);
-                   return true;
-                 });
-                 handle(req, res, body);
-               });
-  server->set_error_handler([&site](const httplib::Request&, httplib::Response& res) {
-    WebResponse page;
-    page.status = res.status;
-    page.content_type = "text/plain; charset=utf-8";
-    page.body = res.status == 413 ? fmt::format("The request is larger than the server's limit of {} bytes.\n",
-                                                site.options.body_limit)
-                                  : fmt::format("HTTP status {}\n", res.status);
-    send_page(page, site, res);
+  server->Post(".*", [&handle, &site](const httplib::Request& req, httplib::Response& res,
+                                      const httplib::ContentReader& reader) {
+    const std::size_t limit = site.options.body_limit;
+    std::uint64_t declared = 0;
+    try {
+      if (req.has_header("Content-Length")) declared = std::stoull(req.get_header_value("Content-Length"));
+    } catch (const std::exception&) {
+      declared = 0;  // chunked or unreadable: the limit is kept while reading
+    }
+    std::string body;
+    const bool complete = declared <= limit && reader([&body, limit](const char* data, std::size_t length) {
+                            body.append(data, length);
+                            return body.size() <= limit;
+                          });
+    if (!complete) {
+      send_page(body.size() > limit || declared > limit ? too_large(site) : bad_request(), site, res);
+      return;
+    }
+    handle(req, res, body);
   });
+  // The library's own refusals (413 before a handler runs, 400 for a malformed request) get a body and the headers;
+  // a page's own refusal keeps the page.
+  const httplib::Server::HandlerWithResponse library_refusal = [&site](const httplib::Request&,
+                                                                       httplib::Response& res) {
+    if (!res.body.empty()) return httplib::Server::HandlerResponse::Unhandled;
+    WebResponse page = res.status == 413 ? too_large(site) : bad_request();
+    page.status = res.status;
+    if (res.status != 413) page.body = fmt::format("HTTP status {}\n", res.status);
+    send_page(page, site, res);
+    return httplib::Server::HandlerResponse::Handled;
+  };
+  server->set_error_handler(library_refusal);
   server->set_exception_handler([&site](const httplib::Request&, httplib::Response& res, std::exception_ptr) {
     WebResponse page;
     page.status = 500;

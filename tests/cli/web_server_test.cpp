@@ -311,10 +311,11 @@ TEST_CASE("plumb serve: every POST needs the CSRF token of its own session", "[w
 TEST_CASE("plumb serve: a balance location holding a script is shown as text", "[web]") {
   ScratchDir dir;
   const auto db = plumb::test::example_lab(dir).string();
-  REQUIRE(run_plumb({"--db", db, "balance", "add", "BAL-X", "--capacity", "220g", "--readability", "0.1mg", "--every",
-                     "7d", "--location", "<script>alert('x')</script>", "--since", "2026-01-05"},
-                    dir.path())
-              .status == 0);
+  REQUIRE(
+      run_plumb({"--db", db, "balance", "add", "BAL-X", "--capacity", "220g", "--readability", "0.1mg", "--every", "7d",
+                 "--smallest-net", "200mg", "--location", "<script>alert('x')</script>", "--since", "2026-01-05"},
+                dir.path())
+          .status == 0);
   const auto password = add_user(db, dir, "tina", "Tina Bench", "technician");
   Served served(db, dir);
   Browser b(served.port());
@@ -502,11 +503,15 @@ TEST_CASE("plumb serve and the CLI record into the same database at once without
       web_status.push_back(r ? r->status : -1);
     }
   });
-  for (int i = 0; i < each; ++i)
-    cli_status.push_back(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings",
-                                    "readings.csv", "--on", "2026-11-29"},
-                                   dir.path())
-                             .status);
+  std::string cli_errors;
+  for (int i = 0; i < each; ++i) {
+    const auto r = run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "readings.csv",
+                              "--on", "2026-11-29"},
+                             dir.path());
+    cli_status.push_back(r.status);
+    cli_errors += r.err;
+  }
+  INFO(cli_errors);
   web.join();
   CHECK(web_status == std::vector<int>(each, 200));
   CHECK(cli_status == std::vector<int>(each, 0));
