@@ -1,11 +1,11 @@
 #!/usr/bin/env python3
-"""Load bench of plumb serve (not a timed test): a lab of --instruments balances with --runs runs of 10 readings each
-(5,000 and 400,000 = 2,000,000 readings by default), then --clients concurrent clients for --seconds seconds on the
+"""Load bench of plumb serve (not a timed test): a lab of --instruments balances with --runs runs of 10 readings in all
+(5,000 balances and 200,000 runs = 2,000,000 readings by default), then --clients concurrent clients for --seconds seconds on the
 overview, an instrument page with its chart and the weekly check form, --writers clients recording weekly checks,
 and, in the same run, the same clients on a static file served by the same server (the floor). Prints requests per
 second, p50/p95/p99 latency and errors for each, and the server's resident memory over the run.
 
-    python3 bench/web_load.py --plumb build/plumb [--instruments 5000] [--runs 400000] [--seconds 60]
+    python3 bench/web_load.py --plumb build/plumb [--instruments 5000] [--runs 200000] [--seconds 60]
 
 The lab is invented (fixed seed); accounts are hashed with plumb's test-only fast limits, since only the pages are
 measured. Each client keeps one HTTP/1.1 connection (Python threads: the clients share one core's interpreter, so
@@ -53,7 +53,7 @@ def setup(plumb, work, instruments, runs):
     for w in range(1, 21):
         run(plumb, db, env, "weight", "add", f"W{w:03d}", "--nominal", "100g", "--class", "E2", "--correction",
             "0.02mg", "--uncertainty", "0.05mg", "--k", "2", "--certificate", f"LOAD-{w}", "--calibrated",
-            "2026-06-01", "--due", "2030-06-01")
+            "2017-06-01", "--due", "2030-06-01")
     procs = []
     for k in range(1, instruments + 1):
         procs.append(subprocess.Popen([plumb, "--db", db, "balance", "add", f"BAL-{k:05d}", "--capacity", "220g",
