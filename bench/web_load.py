@@ -82,18 +82,26 @@ def setup(plumb, work, instruments, runs):
     return db, env, per * instruments * 10
 
 
+SESSION = {}  # tess's one session, shared by every client (the tabs of one browser): plumb serve limits log-ins
+             # to 10 a minute per address, and every client here comes from 127.0.0.1
+
+
 class Client:
-    """One browser: a keep-alive connection and the session cookie of tess."""
+    """One browser tab: a keep-alive connection with the session cookie of tess."""
 
     def __init__(self, port):
         self.conn = http.client.HTTPConnection("127.0.0.1", port, timeout=30)
         self.cookie = ""
-        page = self.request("GET", "/login")[1]
-        token = re.search(r'name="csrf" value="([0-9a-f]+)"', page).group(1)
-        status, _ = self.request("POST", "/login", {"login": "tess", "password": "tess-bench-password", "csrf": token})
-        if status != 303:
-            sys.exit(f"bench: log-in refused ({status})")
-        self.csrf = re.search(r'name="csrf" value="([0-9a-f]+)"', self.request("GET", "/")[1]).group(1)
+        if not SESSION:
+            page = self.request("GET", "/login")[1]
+            token = re.search(r'name="csrf" value="([0-9a-f]+)"', page).group(1)
+            status, _ = self.request("POST", "/login", {"login": "tess", "password": "tess-bench-password",
+                                                        "csrf": token})
+            if status != 303:
+                sys.exit(f"bench: log-in refused ({status})")
+            SESSION["cookie"] = self.cookie
+            SESSION["csrf"] = re.search(r'name="csrf" value="([0-9a-f]+)"', self.request("GET", "/")[1]).group(1)
+        self.cookie, self.csrf = SESSION["cookie"], SESSION["csrf"]
 
     def request(self, method, path, form=None):
         headers = {"Cookie": self.cookie} if self.cookie else {}
@@ -202,6 +210,7 @@ def main():
 
     sampler = threading.Thread(target=sample)
     sampler.start()
+    Client(port)  # logs in once
     try:
         floor, floor_errors = phase(port, args.clients, 0, max(10, args.seconds // 4), args.instruments, True)
         pages, page_errors = phase(port, args.clients, args.writers, args.seconds, args.instruments, False)
