@@ -9,8 +9,8 @@ set(allowed_store store checks stats metrology core)
 set(allowed_report report store checks stats metrology core)
 set(allowed_app app report store checks stats metrology core)
 # Front ends: parse, call app, render with report; reading the store directly is allowed for lists. The command
-# table is cli's, so cli dispatches to the bench front end (capture) for `check capture`.
-set(allowed_cli cli capture app report store checks stats metrology core)
+# table is cli's, so cli dispatches to the bench front end (capture) for `check capture` and to web for `serve`.
+set(allowed_cli cli web capture app report store checks stats metrology core)
 set(allowed_web web app report store checks stats metrology core)
 set(allowed_capture capture app report store checks stats metrology core)
 

@@ -17,6 +17,7 @@
 #include "report/document/demo_logo.hpp"
 #include "store/embedded.hpp"
 #include "store/users.hpp"
+#include "web/serve_options.hpp"
 
 namespace plumb::cli {
 
@@ -74,6 +75,16 @@ std::vector<Command> demo_commands() {
         fmt::print(env.out, "Log in with: plumb --db {} login --user mira   (then sign: plumb --db {} certificate "
                             "approve LAST --meaning \"reviewed and approved\")\n",
                    path.string(), path.string());
+        std::string technician = "a technician";
+        for (const auto& u : summary.users)
+          if (u.role == "technician") {
+            technician = u.login + " (technician)";
+            break;
+          }
+        fmt::print(env.out,
+                   "In a browser: plumb --db {} serve, then open http://127.0.0.1:{}/ and log in as {} or "
+                   "mira (reviewer) with the demo password above.\n",
+                   path.string(), web::default_port, technician);
         return 0;
       }};
   return {demo};

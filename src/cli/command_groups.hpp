@@ -28,5 +28,6 @@ std::vector<Command> import_commands();
 std::vector<Command> report_commands();
 std::vector<Command> user_commands();
 std::vector<Command> login_commands();
+std::vector<Command> serve_commands();  // cmd_serve.cpp: the web application
 
 }  // namespace plumb::cli

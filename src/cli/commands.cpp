@@ -11,7 +11,7 @@ const std::vector<Command>& commands() {
           pipette_commands, check_commands,   capture_commands, import_commands,       certificate_commands,
           due_commands,     summary_commands, history_commands, report_commands,       instrument_commands,
           service_commands, audit_commands,   key_commands,     backup_commands,       login_commands,
-          user_commands,    demo_commands}) {
+          user_commands,    serve_commands,   demo_commands}) {
       auto g = group();
       v.insert(v.end(), g.begin(), g.end());
     }

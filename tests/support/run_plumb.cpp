@@ -111,6 +111,7 @@ Plan plan_of(const std::vector<std::string>& args) {
 bool has_user(const std::filesystem::path& db, const std::string& login) {
   try {
     SQLite::Database d(db.string(), SQLite::OPEN_READONLY);
+    d.setBusyTimeout(30000);  // another process (plumb serve) may be writing: wait, as plumb itself does
     if (!d.tableExists("users")) return false;
     SQLite::Statement q(d, "SELECT count(*) FROM users WHERE login = ?");
     q.bind(1, login);

@@ -48,6 +48,9 @@ const std::vector<Permission>& table() {
       {"user policy", {administrator}},
       {"user password", {}},
       {"login", {}},
+      // plumb serve: reading any page of the web application (every logged-in user); its forms are the commands
+      // above ("check record", "certificate approve", ...), checked against their own rows.
+      {"web view", {}},
       {"logout", {}},
   };
   return all;

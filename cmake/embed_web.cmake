@@ -1,0 +1,21 @@
+# Writes a C++ source holding the web application's templates (src/web/templates/*.html) and static files
+# (src/web/static/*), so `plumb serve` needs no files at run time. Run as:
+# cmake -DOUT=<file.cpp> -DROOT=<source dir> -P cmake/embed_web.cmake
+file(GLOB templates ${ROOT}/src/web/templates/*.html)
+file(GLOB statics ${ROOT}/src/web/static/*)
+list(SORT templates)
+list(SORT statics)
+set(body "#include \"web/assets.hpp\"\nnamespace plumb::web {\nconst std::map<std::string_view, std::string_view>& embedded_assets() {\n")
+string(APPEND body "  static const std::map<std::string_view, std::string_view> all = {\n")
+foreach(f ${templates} ${statics})
+  file(RELATIVE_PATH name ${ROOT}/src/web ${f})
+  file(READ ${f} text)
+  string(FIND "${text}" ")plumbweb\"" clash)
+  if(NOT clash EQUAL -1)
+    message(FATAL_ERROR "${f} holds the raw-string delimiter )plumbweb\"")
+  endif()
+  string(APPEND body "    {\"${name}\", R\"plumbweb(${text})plumbweb\"},\n")
+endforeach()
+string(APPEND body "  };\n  return all;\n}\n}  // namespace plumb::web\n")
+file(WRITE ${OUT}.tmp "${body}")
+file(COPY_FILE ${OUT}.tmp ${OUT} ONLY_IF_DIFFERENT)

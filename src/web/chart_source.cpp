@@ -1,0 +1,32 @@
+#include "web/chart_source.hpp"
+
+#include <fmt/format.h>
+
+#include "app/history/instrument_history.hpp"
+#include "app/history/trends.hpp"
+#include "core/errors.hpp"
+#include "report/chart/chart.hpp"
+
+namespace plumb::web {
+
+std::vector<std::string> chartable_quantities(store::Database& db, const std::string& instrument_id) {
+  const auto instrument = app::find_instrument(db, instrument_id);
+  std::vector<std::string> out;
+  for (const auto& key : app::quantity_keys(instrument.kind)) {
+    const auto q = app::find_quantity(key, instrument);
+    if (!app::series_view(db, instrument, q, {}).points.empty()) out.push_back(key);
+  }
+  return out;
+}
+
+std::string history_chart_svg(store::Database& db, const std::string& instrument_id, const std::string& quantity) {
+  const auto instrument = app::find_instrument(db, instrument_id);
+  const auto q = app::find_quantity(quantity, instrument);
+  const auto series = app::series_view(db, instrument, q, {});
+  if (series.points.empty())
+    throw InputError(fmt::format("instrument {} has no result of {} to draw.", instrument_id, quantity));
+  const auto all = app::history_view(db, instrument, {}, {&q});
+  return report::render_chart(app::history_chart(series, all), report::ChartFormat::svg);
+}
+
+}  // namespace plumb::web

@@ -1,0 +1,17 @@
+#pragma once
+// The one place the web application asks for a chart (so that the charts' renderer can change under it): an
+// instrument's history of one quantity, drawn by the same report/history functions as `plumb history --chart`.
+#include <string>
+#include <vector>
+
+#include "store/database.hpp"
+
+namespace plumb::web {
+
+/// The quantity keys of an instrument that have a result to draw ("bias", "sd", ...).
+std::vector<std::string> chartable_quantities(store::Database& db, const std::string& instrument_id);
+
+/// The history chart of `quantity` as SVG; InputError for an unknown instrument or quantity, or no result.
+std::string history_chart_svg(store::Database& db, const std::string& instrument_id, const std::string& quantity);
+
+}  // namespace plumb::web

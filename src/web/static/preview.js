@@ -1,0 +1,54 @@
+// The live preview of the weekly check form: posts the form to the server and shows what it answers. Nothing is
+// computed here; without JavaScript the form still records (a plain POST) and shows the same figures after.
+(function () {
+  "use strict";
+  var form = document.getElementById("check-form");
+  var panel = document.getElementById("preview");
+  if (!form || !panel || !window.fetch) return;
+  var fields = ["balance", "weight", "on", "readings", "form"];
+  var timer = null;
+  var sent = 0;
+
+  function showRefusal(field, message) {
+    fields.forEach(function (name) {
+      var box = document.getElementById(name + "-error");
+      var input = document.getElementById(name);
+      if (!box) return;
+      var mine = name === field;
+      box.textContent = mine ? message : "";
+      box.hidden = !mine;
+      if (input) {
+        if (mine) input.setAttribute("aria-invalid", "true");
+        else input.removeAttribute("aria-invalid");
+      }
+    });
+  }
+
+  function preview() {
+    var ticket = ++sent;
+    var body = new URLSearchParams(new FormData(form));
+    fetch(form.getAttribute("data-preview"), {
+      method: "POST",
+      body: body,
+      credentials: "same-origin",
+      headers: { "Content-Type": "application/x-www-form-urlencoded" }
+    })
+      .then(function (r) { return r.json(); })
+      .then(function (answer) {
+        if (ticket !== sent) return; // a later preview is on its way
+        showRefusal(answer.field, answer.message);
+        // The server's fragment, rendered from a template that escapes every text it holds.
+        if (answer.html) panel.innerHTML = answer.html;
+      })
+      .catch(function () {});
+  }
+
+  form.addEventListener("input", function () {
+    clearTimeout(timer);
+    timer = setTimeout(preview, 250);
+  });
+  form.addEventListener("change", function () {
+    clearTimeout(timer);
+    timer = setTimeout(preview, 50);
+  });
+})();
