@@ -140,7 +140,7 @@ WebResponse instrument_item_page(PageContext& c) {
   page["charts"] = charts;
   page["is_balance"] = instrument.kind == "balance";
   const auto log = app::audit_log(c.db, {id, std::nullopt, std::nullopt, std::nullopt, std::nullopt});
-  page["audit"] = report::audit_log_json(log.scope, log.records);
+  page["audit"] = report::audit_log_json(log.scope, log.records, log.authors);
   return html_page("instrument", instrument.title, page, c.visitor);
 }
 
@@ -182,7 +182,7 @@ WebResponse audit_page(PageContext& c) {
   if (!c.request.param("from").empty()) filter.from = c.request.param("from");
   if (!c.request.param("to").empty()) filter.to = c.request.param("to");
   const auto log = app::audit_log(c.db, filter);
-  json j = report::audit_log_json(log.scope, log.records);
+  json j = report::audit_log_json(log.scope, log.records, log.authors);
   // The newest first, at most 500 on one page (the CLI's `audit log` gives all of them).
   json records = json::array();
   const auto& all = j["records"];
