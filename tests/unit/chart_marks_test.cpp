@@ -176,9 +176,16 @@ TEST_CASE("the control chart shades and labels its baseline", "[report][chart][c
   const auto points = xml_elements(svg, "point");
   REQUIRE(points.size() == 6);
   const double from = std::stod(b[0].attr("px-from")), to = std::stod(b[0].attr("px-to"));
-  CHECK(std::stod(points[0].attr("px")) > from);
-  CHECK(std::stod(points[3].attr("px")) < to);
-  CHECK(std::stod(points[4].attr("px")) > to);  // the fifth result is judged, not part of the baseline
+  // A point's position: the linear map of the x axis given by the plot entry.
+  const auto plot = xml_elements(svg, "plot").at(0);
+  const auto px = [&](const plumb::test::XmlElement& p) {
+    const double left = std::stod(plot.attr("left")), right = std::stod(plot.attr("right"));
+    const double x_min = std::stod(plot.attr("x-min")), x_max = std::stod(plot.attr("x-max"));
+    return left + (std::stod(p.attr("x")) - x_min) / (x_max - x_min) * (right - left);
+  };
+  CHECK(px(points[0]) > from);
+  CHECK(px(points[3]) < to);
+  CHECK(px(points[4]) > to);  // the fifth result is judged, not part of the baseline
   CHECK(has_text(marks_texts(svg, "legend"), "baseline period (sets centre line and control limits)"));
 }
 

@@ -56,7 +56,8 @@ ChartSpec drift_like_spec() {
   s.trend = t;
   s.notes.push_back(
       "Invented example data; a long note that the chart must wrap over more than one line because "
-      "it is wider than the chart itself, as the caution under every history chart is.");
+      "it is wider than the chart itself, as the caution under every history chart is, and this one goes on "
+      "a little longer still so that no font could fit it on one line of the chart.");
   return s;
 }
 
@@ -89,7 +90,8 @@ TEST_CASE("chart SVG writes every label as real text, the same as its drawing re
   REQUIRE(texts.size() >= 12);
   // Every text the renderer noted is drawn as a <text> of that role with those words (wrapped lines are tspans).
   std::size_t noted = 0;
-  for (const auto& e : plumb::test::xml_elements(svg.substr(svg.find("<metadata>")), "text")) {
+  const auto md = svg.find("<metadata>");
+  for (const auto& e : plumb::test::xml_elements(svg.substr(md, svg.find("</metadata>") - md), "text")) {
     ++noted;
     INFO(e.attr("role") << ": " << e.text);
     const bool found = std::any_of(texts.begin(), texts.end(), [&](const auto& t) {

@@ -110,11 +110,15 @@ TEST_CASE("chart SVG names title, axes with units, points, error bars, tolerance
   const auto plot = xml_elements(svg, "plot").at(0);
   const double left = std::stod(plot.attr("left")), right = std::stod(plot.attr("right"));
   const double top = std::stod(plot.attr("top")), bottom = std::stod(plot.attr("bottom"));
-  for (const auto& p : points) {  // every point visible inside the plot frame
-    CHECK(std::stod(p.attr("px")) > left);
-    CHECK(std::stod(p.attr("px")) < right);
-    CHECK(std::stod(p.attr("py")) > top);
-    CHECK(std::stod(p.attr("py")) < bottom);
+  const double x_min = std::stod(plot.attr("x-min")), x_max = std::stod(plot.attr("x-max"));
+  const double y_min = std::stod(plot.attr("y-min")), y_max = std::stod(plot.attr("y-max"));
+  for (const auto& p : points) {  // every point visible inside the plot frame (the linear map of the axes)
+    const double px = left + (std::stod(p.attr("x")) - x_min) / (x_max - x_min) * (right - left);
+    const double py = bottom - (std::stod(p.attr("y")) - y_min) / (y_max - y_min) * (bottom - top);
+    CHECK(px > left);
+    CHECK(px < right);
+    CHECK(py > top);
+    CHECK(py < bottom);
   }
 
   const auto limits = xml_elements(svg, "tolerance-limit");

@@ -390,9 +390,8 @@ private:
     std::size_t k = 0;
     for (const auto& series : s_.series) {
       const Rgb c = series_colours[k++ % std::size(series_colours)];
-      // Layer by layer (bars, white halos, markers, rings), so that the SVG writes each layer as one group.
+      // Layer by layer (bars, markers, rings), so that the SVG writes each layer as one group.
       for (const auto& p : series.points) error_bar(p, c);
-      for (const auto& p : series.points) circle(X(p.x), Y(p.y), point_radius + 0.8, colour_of({1, 1, 1}));
       for (const auto& p : series.points) point(series.name, p, c);
       for (const auto& p : series.points)
         if (p.flagged) circle(X(p.x), Y(p.y), flag_radius, std::nullopt, pen(tolerance_colour, 1.8));
@@ -503,20 +502,18 @@ private:
     if (!p.error || *p.error <= 0) return;
     const double x = X(p.x), y0 = Y(p.y - *p.error), y1 = Y(p.y + *p.error);
     stroke_lines({{{x, y0}, {x, y1}}, {{x - 3, y0}, {x + 3, y0}}, {{x - 3, y1}, {x + 3, y1}}}, pen(c, 1.0, {}, 0.85));
-    rec_.add("error-bar", {{"x", svg_number(p.x)}, {"y", svg_number(p.y)}, {"u", svg_number(*p.error)}, {"px", px(x)},
-                           {"py-low", px(y0)}, {"py-high", px(y1)}});
+    // Kept short: a long history has hundreds; the point's own entry says where it is.
+    rec_.add("error-bar", {{"u", svg_number(*p.error)}});
   }
 
   void point(const std::string& series, const ChartPoint& p, Rgb c) {
-    const double x = X(p.x), y = Y(p.y);
-    marker(p.outcome, x, y, c);
-    rec_.add("point", {{"series", series},
-                       {"x", svg_number(p.x)},
-                       {"y", svg_number(p.y)},
-                       {"px", px(x)},
-                       {"py", px(y)},
-                       {"flagged", p.flagged ? "true" : "false"},
-                       {"outcome", outcome_key(p.outcome)}});
+    marker(p.outcome, X(p.x), Y(p.y), c);
+    // x, y in data units; where they are drawn follows from the plot entry (left + (x - x-min) / (x-max - x-min) *
+    // (right - left)), so the positions are not repeated for every point of a long history.
+    std::vector<std::pair<std::string, std::string>> a{
+        {"series", series}, {"x", svg_number(p.x)}, {"y", svg_number(p.y)}, {"outcome", outcome_key(p.outcome)}};
+    if (p.flagged) a.emplace_back("flagged", "true");
+    rec_.add("point", std::move(a));
   }
 
   // A pass is a filled dot; a failed run a bold cross; a void run an open square: the shape tells them apart
@@ -529,7 +526,8 @@ private:
       const double r = point_radius + 0.5;
       stroke_rect(x - r, y - r, 2 * r, 2 * r, pen(c, 1.6));
     } else {
-      circle(x, y, point_radius, colour_of(c));
+      // The dot with a white halo 0.8 wide around it: one circle, stroked white across its edge.
+      circle(x, y, point_radius + 0.4, colour_of(c), pen({1, 1, 1}, 0.8));
     }
   }
 

@@ -80,6 +80,17 @@ void geometry_to(std::string& out, const Shape& s) {
       out += "<path d=\"";
       for (const auto& sub : s.subpaths) {
         for (std::size_t i = 0; i < sub.size(); ++i) {
+          // A vertical or horizontal segment (error bars, grid, limits) needs one number, not two.
+          if (i > 0 && sub[i].first == sub[i - 1].first) {
+            out += 'V';
+            number_to(out, sub[i].second);
+            continue;
+          }
+          if (i > 0 && sub[i].second == sub[i - 1].second) {
+            out += 'H';
+            number_to(out, sub[i].first);
+            continue;
+          }
           out += i == 0 ? 'M' : 'L';
           number_to(out, sub[i].first);
           out += ' ';
