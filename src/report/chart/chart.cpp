@@ -339,6 +339,7 @@ private:
 
   void grid() {
     std::vector<std::vector<PointXY>> lines;
+    lines.reserve(yt_.ticks.size() + xt_.ticks.size());
     for (const auto& t : yt_.ticks) lines.push_back({{left_, Y(t.value)}, {right_, Y(t.value)}});
     for (const auto& t : xt_.ticks) lines.push_back({{X(t.value), top_}, {X(t.value), bottom_}});
     stroke_lines(std::move(lines), pen(grid_grey, 0.6));
@@ -360,6 +361,7 @@ private:
     if (s_.trend && s_.trend->prediction_band.size() >= 2) {
       const auto& b = s_.trend->prediction_band;
       std::vector<PointXY> outline;
+      outline.reserve(2 * b.size());
       for (const auto& p : b) outline.emplace_back(X(p.x), Y(p.upper));
       for (auto it = b.rbegin(); it != b.rend(); ++it) outline.emplace_back(X(it->x), Y(it->lower));
       fill_polygon(std::move(outline), colour_of(band_fill));
@@ -451,6 +453,7 @@ private:
     // A limit known at some points only: a bold bar at each point, joined by a thin dotted guide, so that no
     // slope between two points is read as a limit nobody stated.
     std::vector<PointXY> line;
+    line.reserve(c.points.size());
     for (const auto& [x, y] : c.points) line.emplace_back(X(x), Y(y));
     stroke_lines({std::move(line)}, pen(colour,
                                         limit  ? 0.9
@@ -459,6 +462,7 @@ private:
                                         limit ? std::vector<double>{1.5, 2.5} : std::vector<double>{}));
     if (limit) {
       std::vector<std::vector<PointXY>> bars;
+      bars.reserve(c.points.size());
       for (const auto& [x, y] : c.points) bars.push_back({{X(x) - 9, Y(y)}, {X(x) + 9, Y(y)}});
       stroke_lines(std::move(bars), pen(colour, 2.4));
     }
