@@ -60,9 +60,11 @@ std::vector<Command> demo_commands() {
         // The same certificate as PDF, and the lab's HTML history report, beside the database.
         const std::filesystem::path pdf = path.string() + ".certificate.pdf", html = path.string() + ".report.html";
         app::write_certificate_pdf(shown, pdf);
-        app::write_history_report(db, {html, std::nullopt, summary.report_on});
-        fmt::print(env.out, "\nAlso written: {} (the certificate as PDF) and {} (HTML history report).\n", pdf.string(),
-                   html.string());
+        const auto report = app::write_history_report(db, {html, std::nullopt, summary.report_on});
+        fmt::print(env.out,
+                   "\nAlso written: {} (the certificate as PDF) and {} (HTML history report; one page per "
+                   "instrument in {}).\n",
+                   pdf.string(), html.string(), report.folder ? report.folder->string() : html.string());
         fmt::print(env.out,
                    "\nTry: plumb --db {} due --on {} --within 14d\n     plumb --db {} check show LAST\n     plumb --db "
                    "{} drift AB-01 --chart ab01-drift.png\n",

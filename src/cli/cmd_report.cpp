@@ -7,7 +7,10 @@
 namespace plumb::cli {
 
 std::vector<Command> report_commands() {
-  Command report{"report", "", "write a self-contained HTML history report (status, due list, charts, history)",
+  Command report{"report",
+                 "",
+                 "write an HTML history report (status, due list, charts, history): one page, or for the whole lab an "
+                 "overview and one page per instrument",
                  "plumb report --html lab-history.html [--instrument AB-01] [--on 2026-12-01]",
                  [](po::options_description& d, po::positional_options_description&) {
                    d.add_options()("html", po::value<std::string>()->required(), "the report file, FILE.html")(
@@ -21,8 +24,12 @@ std::vector<Command> report_commands() {
                    request.on = vm.count("on") ? parse_date(vm["on"].as<std::string>(), "--on") : today_local();
                    auto db = env.open();
                    const auto written = app::write_history_report(db, request);
-                   fmt::print(env.out, "Report on {} instrument(s) written to {}.\n", written.instruments.size(),
-                              request.output.string());
+                   if (written.folder)
+                     fmt::print(env.out, "Report on {} instrument(s) written to {}, one page per instrument in {}.\n",
+                                written.instruments, request.output.string(), written.folder->string());
+                   else
+                     fmt::print(env.out, "Report on {} instrument(s) written to {}.\n", written.instruments,
+                                request.output.string());
                    return 0;
                  }};
   return {report};

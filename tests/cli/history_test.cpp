@@ -242,17 +242,27 @@ TEST_CASE("PDF certificate: number on every page, verdict, due date, caution", "
   CHECK_THAT(pdftotext(dir.file("again.pdf")), Catch::Contains("VERDICT: PASS"));
 }
 
-TEST_CASE("HTML report is self-contained with inline SVG and unique ids", "[cli][html]") {
-  plumb::test::ScratchDir dir;
-  const auto db = hand_built_lab(dir);
-  auto r = run_plumb({"--db", db, "report", "--html", "lab.html", "--on", "2026-03-31"}, dir.path());
-  REQUIRE(r.status == 0);
-  const std::string html = slurp(dir.file("lab.html"));
+namespace {
+
+// The hrefs of an HTML page's links, unescaped (the report writes them with &amp; where needed).
+std::vector<std::string> links_of(const std::string& html) {
+  std::vector<std::string> out;
+  for (auto p = html.find("<a href=\""); p != std::string::npos; p = html.find("<a href=\"", p + 1)) {
+    const auto q = html.find('"', p + 9);
+    out.push_back(plumb::test::xml_unescape(html.substr(p + 9, q - p - 9)));
+  }
+  return out;
+}
+
+// A page is self-contained: nothing fetched, no script, ids unique within it. The one address allowed is the SVG
+// namespace name, which is a name, never fetched.
+void check_self_contained(std::string html) {
+  const std::string svg_namespace = "xmlns=\"http://www.w3.org/2000/svg\"";
+  for (auto p = html.find(svg_namespace); p != std::string::npos; p = html.find(svg_namespace, p))
+    html.erase(p, svg_namespace.size());
   CHECK(html.find("http://") == std::string::npos);
   CHECK(html.find("https://") == std::string::npos);
   CHECK(html.find("<script") == std::string::npos);
-  CHECK(plumb::test::count_of(html, "<svg") >= 2);
-  CHECK_THAT(html, Catch::Contains("BAL-L") && Catch::Contains("Example Analytical Lab"));
   std::set<std::string> ids;
   for (auto p = html.find(" id=\""); p != std::string::npos; p = html.find(" id=\"", p + 1)) {
     const auto q = html.find('"', p + 5);
@@ -260,7 +270,88 @@ TEST_CASE("HTML report is self-contained with inline SVG and unique ids", "[cli]
     INFO(id);
     CHECK(ids.insert(id).second);
   }
+}
+
+unsigned mode_of(const std::filesystem::path& p) {
+  return static_cast<unsigned>(std::filesystem::status(p).permissions() & std::filesystem::perms::all);
+}
+
+}  // namespace
+
+TEST_CASE("HTML report: an overview that links one self-contained page per instrument, owner-only", "[cli][html]") {
+  plumb::test::ScratchDir dir;
+  const auto db = hand_built_lab(dir);
+  const auto before = plumb::test::dump_database(db);
+  auto r = run_plumb({"--db", db, "report", "--html", "lab.html", "--on", "2026-03-31"}, dir.path());
+  REQUIRE(r.status == 0);
+  const std::string overview = slurp(dir.file("lab.html"));
+  check_self_contained(overview);
+  CHECK_THAT(overview, Catch::Contains("Example Analytical Lab") && Catch::Contains("the whole laboratory"));
+  CHECK(overview.find("<svg") == std::string::npos);  // charts are on the instrument pages
+  // Every instrument of the lab has one row, and its link names an existing page holding that instrument.
+  const auto ids = json::parse(run_plumb({"--db", db, "balance", "list", "--format", "json"}, dir.path()).out);
+  const auto links = links_of(overview);
+  std::size_t instruments = 0;
+  for (const auto& b : ids) {
+    const std::string id = b["id"].get<std::string>();
+    ++instruments;
+    const auto link = std::find_if(links.begin(), links.end(), [&](const std::string& l) {
+      return l.find("lab-instruments/") == 0 && l.size() > id.size() + 5 &&
+             l.compare(l.size() - id.size() - 5, id.size() + 5, id + ".html") == 0;
+    });
+    INFO(id);
+    REQUIRE(link != links.end());
+    const auto page_path = dir.file(*link);
+    REQUIRE(std::filesystem::is_regular_file(page_path));
+    CHECK(mode_of(page_path) == 0600U);
+    const std::string page = slurp(page_path);
+    check_self_contained(page);
+    CHECK_THAT(page, Catch::Contains("<h2 id=\"" + id + "\">"));
+    CHECK_THAT(page, Catch::Contains("<a href=\"../lab.html\">"));  // back to the overview
+  }
+  CHECK(links.size() == instruments);
+  CHECK(mode_of(dir.file("lab.html")) == 0600U);
+  CHECK(mode_of(dir.file("lab-instruments")) == 0700U);
+  // BAL-L has five checks: its page carries its charts inline, their text as text (no glyph outlines).
+  const auto bal_l = std::find_if(links.begin(), links.end(), [](const std::string& l) {
+    return l.size() > 10 && l.compare(l.size() - 10, 10, "BAL-L.html") == 0;
+  });
+  REQUIRE(bal_l != links.end());
+  const std::string page = slurp(dir.file(*bal_l));
+  CHECK(plumb::test::count_of(page, "<svg xmlns") >= 2);
+  CHECK_THAT(page, Catch::Contains("<text class=\"x-axis-label\"") && Catch::Contains(">Date of check</tspan>"));
+  CHECK(page.find("<symbol") == std::string::npos);
+  CHECK(page.find("<use") == std::string::npos);
+  CHECK(plumb::test::dump_database(db) == before);  // read-only
+
   r = run_plumb({"--db", db, "report", "--html", "one.html", "--instrument", "BAL-L"}, dir.path());
   REQUIRE(r.status == 0);
-  CHECK_THAT(slurp(dir.file("one.html")), Catch::Contains("instrument BAL-L"));
+  const std::string one = slurp(dir.file("one.html"));
+  CHECK_THAT(one, Catch::Contains("instrument BAL-L") && Catch::Contains("Status and due list"));
+  CHECK(!std::filesystem::exists(dir.file("one-instruments")));  // one instrument: one page
+  CHECK(mode_of(dir.file("one.html")) == 0600U);
+}
+
+TEST_CASE("HTML report that fails part-way leaves no file of its own behind", "[cli][html][errors]") {
+  plumb::test::ScratchDir dir;
+  const auto db = hand_built_lab(dir);
+  // A folder where the first instrument's page must go: renaming the finished page onto it fails.
+  const auto ids = json::parse(run_plumb({"--db", db, "balance", "list", "--format", "json"}, dir.path()).out);
+  REQUIRE(!ids.empty());
+  const std::string first = ids[0]["id"].get<std::string>();
+  const auto blocked = dir.file("lab-instruments") / ("0001-" + first + ".html");
+  std::filesystem::create_directories(blocked);
+  auto r = run_plumb({"--db", db, "report", "--html", "lab.html", "--on", "2026-03-31"}, dir.path());
+  CHECK(r.status == 3);
+  CHECK_THAT(r.err, Catch::Contains("cannot write the report file") && Catch::Contains("0001-" + first + ".html"));
+  CHECK(!std::filesystem::exists(dir.file("lab.html")));
+  // The folder was there before, so it stays; nothing of the failed report is left in it.
+  std::size_t left = 0;
+  for (const auto& e : std::filesystem::directory_iterator(dir.file("lab-instruments"))) left += e.path() != blocked;
+  CHECK(left == 0);
+
+  // Without the obstacle the same command succeeds.
+  std::filesystem::remove_all(dir.file("lab-instruments"));
+  r = run_plumb({"--db", db, "report", "--html", "lab.html", "--on", "2026-03-31"}, dir.path());
+  CHECK(r.status == 0);
 }

@@ -200,7 +200,9 @@ TEST_CASE("a year in the lab: every lifecycle step, and one standing in every ou
   std::stringstream html;
   html << html_file.rdbuf();
   for (const auto& [id, expected] : summary_status) {
-    const std::regex section("<h2 id=\"" + id + "\">[^]*?status: <span class=\"[^\"]+\">([^<]+)</span>");
+    // The overview's row of the instrument: id (linking its page), title, location, status.
+    const std::regex section("<a href=\"[^\"]+\">" + id +
+                             "</a></td><td>[^<]*</td><td>[^<]*</td><td class=\"[^\"]+\">([^<]+)</td>");
     std::smatch m;
     const std::string text = html.str();
     REQUIRE(std::regex_search(text, m, section));

@@ -5,6 +5,7 @@
 #include <catch2/catch.hpp>
 
 #include <fmt/format.h>
+#include <map>
 #include <nlohmann/json.hpp>
 #include <string>
 #include <vector>
@@ -16,11 +17,11 @@
 #include "report/history/charts.hpp"
 #include "support/history.hpp"
 #include "support/margin.hpp"
+#include "support/svg_dom.hpp"
 #include "support/xml_scan.hpp"
 
 using namespace plumb::report;
 using plumb::parse_date;
-using plumb::test::count_of;
 using plumb::test::milligrams_near;
 using plumb::test::ug;
 using plumb::test::xml_elements;
@@ -40,8 +41,8 @@ bool has_text(const std::vector<std::string>& texts, const std::string& wanted) 
   return false;
 }
 
-// The first series' colour as cairo writes it for a filled dot (Okabe-Ito blue #0072B2).
-const std::string blue_fill = "fill:rgb(0%,44.7%,69.8%)";
+// The first series' colour as the SVG writer writes a filled dot (Okabe-Ito blue #0072B2).
+const std::map<std::string, std::string> blue_fill{{"fill", "#0072b2"}};
 
 // A calibration certificate's content, written by hand: a 220 g balance of class I with e = 1 mg, as found and
 // as left at 50 g, 100 g and 200 g.
@@ -151,9 +152,11 @@ TEST_CASE("failed and void runs get their own marker shape and legend entry", "[
   CHECK(failed == 1);
   CHECK(voided == 1);
   CHECK(passed == 3);
-  // cairo's geometry: only the 3 passes and the legend's dot are filled dots in the series colour; the failed
+  // The drawn geometry: only the 3 passes and the legend's dot are filled dots in the series colour; the failed
   // run is a stroked cross, not a dot of another colour.
-  CHECK(count_of(svg, blue_fill) == 4);
+  const auto nodes = plumb::test::parse_svg(svg);
+  REQUIRE(nodes);
+  CHECK(plumb::test::drawn(*nodes, "circle", blue_fill).size() == 4);
   const auto legend = marks_texts(svg, "legend");
   CHECK(has_text(legend, "check result: failed run"));
   CHECK(has_text(legend, "void run (entered in error)"));
@@ -173,9 +176,16 @@ TEST_CASE("the control chart shades and labels its baseline", "[report][chart][c
   const auto points = xml_elements(svg, "point");
   REQUIRE(points.size() == 6);
   const double from = std::stod(b[0].attr("px-from")), to = std::stod(b[0].attr("px-to"));
-  CHECK(std::stod(points[0].attr("px")) > from);
-  CHECK(std::stod(points[3].attr("px")) < to);
-  CHECK(std::stod(points[4].attr("px")) > to);  // the fifth result is judged, not part of the baseline
+  // A point's position: the linear map of the x axis given by the plot entry.
+  const auto plot = xml_elements(svg, "plot").at(0);
+  const auto px = [&](const plumb::test::XmlElement& p) {
+    const double left = std::stod(plot.attr("left")), right = std::stod(plot.attr("right"));
+    const double x_min = std::stod(plot.attr("x-min")), x_max = std::stod(plot.attr("x-max"));
+    return left + (std::stod(p.attr("x")) - x_min) / (x_max - x_min) * (right - left);
+  };
+  CHECK(px(points[0]) > from);
+  CHECK(px(points[3]) < to);
+  CHECK(px(points[4]) > to);  // the fifth result is judged, not part of the baseline
   CHECK(has_text(marks_texts(svg, "legend"), "baseline period (sets centre line and control limits)"));
 }
 

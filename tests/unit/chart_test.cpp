@@ -1,18 +1,18 @@
 // Charts: the SVG is parsed for what the renderer drew, the PDF's real text is extracted with poppler's
 // pdftotext, and the PNG's header is read.
 //
-// How the SVG is made testable: cairo writes text as glyph outlines and every shape as an anonymous
-// <path>, so the renderer notes each element as it draws it and the SVG carries that record in
-// <title>, <desc> and <metadata> (report/chart/draw_record.hpp). These tests read that record, and cross-check
-// it against cairo's own geometry where that can be counted (each point is one fill in the series
-// colour; each error bar one stroke in that colour at 85 % opacity). The text itself is checked in the
-// PDF, where pango writes real, extractable text.
+// How the SVG is made testable: the renderer notes each element as it draws it and the SVG carries that record
+// in <title>, <desc> and <metadata> (report/chart/draw_record.hpp). These tests read that record, and cross-check
+// it against the drawn geometry, read with libxml2, where that can be counted (each point is one circle in the
+// series colour; each error bar one path stroked in that colour at 85 % opacity). The drawn text is checked as
+// the SVG's real <text> (chart_svg_test.cpp) and in the PDF with pdftotext.
 #include <catch2/catch.hpp>
 
 #include <cmath>
 #include <cstdio>
 #include <filesystem>
 #include <fstream>
+#include <map>
 
 #include "core/errors.hpp"
 #include "report/chart/axis_ticks.hpp"
@@ -20,11 +20,11 @@
 #include "report/history/charts.hpp"
 #include "support/history.hpp"
 #include "support/margin.hpp"
+#include "support/svg_dom.hpp"
 #include "support/xml_scan.hpp"
 
 using namespace plumb::report;
 using plumb::parse_date;
-using plumb::test::count_of;
 using plumb::test::microlitres_near;
 using plumb::test::milligrams_near;
 using plumb::test::ug;
@@ -33,9 +33,10 @@ using plumb::test::xml_elements;
 
 namespace {
 
-// The first series' colour as cairo writes it (Okabe-Ito blue #0072B2).
-const std::string point_fill = "fill:rgb(0%,44.7%,69.8%)";
-const std::string error_bar_stroke = "stroke:rgb(0%,44.7%,69.8%);stroke-opacity:0.85";
+// The first series' colour (Okabe-Ito blue #0072B2, 0.000 0.447 0.698 rounded to bytes) as the SVG writer
+// writes it; error bars in it at 85 % opacity.
+const std::map<std::string, std::string> point_fill{{"fill", "#0072b2"}};
+const std::map<std::string, std::string> error_bar_stroke{{"stroke", "#0072b2"}, {"stroke-opacity", "0.85"}};
 
 ChartSpec sample_spec() {
   ChartSpec s;
@@ -100,18 +101,24 @@ TEST_CASE("chart SVG names title, axes with units, points, error bars, tolerance
   const auto points = xml_elements(svg, "point");
   CHECK(points.size() == 6);
   CHECK(xml_elements(svg, "error-bar").size() == 5);
-  // cairo's own geometry: 6 point fills + 1 legend dot in the series colour; 5 error-bar strokes.
-  CHECK(count_of(svg, point_fill) == 7);
-  CHECK(count_of(svg, error_bar_stroke) == 5);
+  // The drawn geometry: 6 point dots + 1 legend dot in the series colour; 5 error-bar strokes.
+  const auto nodes = plumb::test::parse_svg(svg);
+  REQUIRE(nodes);
+  CHECK(plumb::test::drawn(*nodes, "circle", point_fill).size() == 7);
+  CHECK(plumb::test::drawn(*nodes, "path", error_bar_stroke).size() == 5);
 
   const auto plot = xml_elements(svg, "plot").at(0);
   const double left = std::stod(plot.attr("left")), right = std::stod(plot.attr("right"));
   const double top = std::stod(plot.attr("top")), bottom = std::stod(plot.attr("bottom"));
-  for (const auto& p : points) {  // every point visible inside the plot frame
-    CHECK(std::stod(p.attr("px")) > left);
-    CHECK(std::stod(p.attr("px")) < right);
-    CHECK(std::stod(p.attr("py")) > top);
-    CHECK(std::stod(p.attr("py")) < bottom);
+  const double x_min = std::stod(plot.attr("x-min")), x_max = std::stod(plot.attr("x-max"));
+  const double y_min = std::stod(plot.attr("y-min")), y_max = std::stod(plot.attr("y-max"));
+  for (const auto& p : points) {  // every point visible inside the plot frame (the linear map of the axes)
+    const double px = left + (std::stod(p.attr("x")) - x_min) / (x_max - x_min) * (right - left);
+    const double py = bottom - (std::stod(p.attr("y")) - y_min) / (y_max - y_min) * (bottom - top);
+    CHECK(px > left);
+    CHECK(px < right);
+    CHECK(py > top);
+    CHECK(py < bottom);
   }
 
   const auto limits = xml_elements(svg, "tolerance-limit");

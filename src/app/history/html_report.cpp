@@ -5,13 +5,15 @@
 #include <SQLiteCpp/Statement.h>
 
 #include <algorithm>
+#include <cctype>
+#include <map>
 
+#include "app/history/report_files.hpp"
 #include "app/history/trends.hpp"
 #include "app/registry/lab.hpp"
 #include "app/status/due.hpp"
 #include "core/errors.hpp"
 #include "report/history/charts.hpp"
-#include "store/file_output.hpp"
 #include "store/repository.hpp"
 
 namespace plumb::app {
@@ -33,12 +35,10 @@ void require_html_path(const std::filesystem::path& p) {
     throw InputError(fmt::format("--html \"{}\": the folder \"{}\" does not exist.", p.string(), folder.string()));
 }
 
-std::string svg_of(const report::ChartSpec& spec) { return report::render_chart(spec, report::ChartFormat::svg); }
-
 // The trend findings and charts of one quantity; a statistic that cannot be computed says why instead.
 void add_trends(store::Database& db, const InstrumentInfo& inst, const HistoryQuantity& q, report::InstrumentSection& s) {
   const report::SeriesView series = series_view(db, inst, q, {});
-  const report::HistoryChartMarks marks = chart_marks(series, history_view(db, inst, {}));
+  const report::HistoryChartMarks marks = chart_marks(series, s.history);
   if (series.points.size() < 2) {
     s.findings.push_back(fmt::format("{}: {} result(s), too few for a control chart or a drift line.",
                                      series.quantity.label, series.points.size()));
@@ -50,72 +50,134 @@ void add_trends(store::Database& db, const InstrumentInfo& inst, const HistoryQu
                              ? fmt::format("{}: in control, no Western Electric rule is broken.", series.quantity.label)
                              : fmt::format("{}: {} Western Electric signal(s); the latest: {}", series.quantity.label,
                                            cc.chart.flags.size(), cc.chart.flags.back().explanation));
-    s.svg_charts.push_back(svg_of(control_chart_spec(cc, marks)));
+    s.charts.push_back(control_chart_spec(cc, marks));
   } catch (const InputError& e) {
     s.findings.push_back(fmt::format("{}: no control chart ({})", series.quantity.label, e.what()));
   }
   report::DriftView dv{series, drift_in_period(series, marks)};
   if (dv.drift.fit) {
     s.findings.push_back(dv.drift.explanation.back());
-    s.svg_charts.push_back(svg_of(drift_chart_spec(dv, marks)));
+    s.charts.push_back(drift_chart_spec(dv, marks));
   } else {
     s.findings.push_back(dv.drift.message);
   }
 }
 
-}  // namespace
-
-report::HtmlReport history_report(store::Database& db, const HistoryReportRequest& r) {
-  report::HtmlReport out;
-  out.lab_name = require_lab(db).name;
-  out.on = r.on;
-  std::vector<std::string> ids;
-  if (r.instrument) {
-    ids.push_back(find_instrument(db, *r.instrument).id);
-    out.scope = "instrument " + *r.instrument;
-  } else {
-    ids = instrument_ids(db);
-    out.scope = "the whole laboratory";
+report::InstrumentSection section_of(store::Database& db, const std::string& id,
+                                     const std::map<std::string, report::DueItem>& standing_of) {
+  const InstrumentInfo inst = find_instrument(db, id);
+  report::InstrumentSection s;
+  s.id = inst.id;
+  s.title = inst.title;
+  s.location = inst.location;
+  const auto standing = standing_of.find(standing_key("instrument", id));
+  s.status = standing == standing_of.end() ? "in date" : standing->second.status;
+  s.history = history_view(db, inst, {});
+  const auto keys = quantity_keys(inst.kind);
+  // The watched quantities (bias and repeatability of a balance, e_s % and CV of a pipette); the others follow
+  // from them (the minimum weight from the SD) or repeat them in another unit.
+  for (const auto& q : history_quantities())
+    if (q.instrument_kind == inst.kind && q.watched) add_trends(db, inst, q, s);
+  if (s.status == "retired") {
+    s.findings.push_back(fmt::format("Retired ({}); kept for history, not due for checks.", standing->second.detail));
+  } else if (!keys.empty() && !s.history.rows.empty()) {
+    const auto review = interval_review(db, {id, keys.front(), {}, std::nullopt});
+    s.findings.push_back(fmt::format("Check interval: {} the current {} ({} days recommended). {}",
+                                     stats::to_string(review.recommended.action), inst.every.to_string(),
+                                     review.recommended.recommended_days, review.combination));
   }
-  for (const auto& d : due_items(db, r.on, default_due_window_days, true))
-    if (!r.instrument || d.id == *r.instrument || d.kind == "weight")
-      out.due.push_back(d);
+  return s;
+}
 
-  const auto standing_of = standings_on(db, r.on, default_due_window_days);
-  for (const auto& id : ids) {
-    const InstrumentInfo inst = find_instrument(db, id);
-    report::InstrumentSection s;
-    s.id = inst.id;
-    s.title = inst.title;
-    s.location = inst.location;
-    const auto standing = standing_of.find(standing_key("instrument", id));
-    s.status = standing == standing_of.end() ? "in date" : standing->second.status;
-    s.history = history_view(db, inst, {});
-    const auto keys = quantity_keys(inst.kind);
-    // The watched quantities (bias and repeatability of a balance, e_s % and CV of a pipette); the others follow
-    // from them (the minimum weight from the SD) or repeat them in another unit.
-    for (const auto& q : history_quantities())
-      if (q.instrument_kind == inst.kind && q.watched) add_trends(db, inst, q, s);
-    if (s.status == "retired") {
-      s.findings.push_back(fmt::format("Retired ({}); kept for history, not due for checks.", standing->second.detail));
-    } else if (!keys.empty() && !s.history.rows.empty()) {
-      const auto review = interval_review(db, {id, keys.front(), {}, std::nullopt});
-      s.findings.push_back(fmt::format("Check interval: {} the current {} ({} days recommended). {}",
-                                       stats::to_string(review.recommended.action), inst.every.to_string(),
-                                       review.recommended.recommended_days, review.combination));
-    }
-    out.instruments.push_back(std::move(s));
-  }
-  out.caution = report::history_chart_caution;
+// A page's file name: the instrument id with anything but letters, digits, '.', '_' and '-' replaced, after its
+// place in the list (so two ids that differ only in such characters get two pages, and no id reaches outside the
+// folder).
+std::string page_file_name(std::size_t index, const std::string& id) {
+  std::string safe;
+  for (unsigned char c : id) safe += std::isalnum(c) != 0 || c == '_' || c == '-' ? static_cast<char>(c) : '_';
+  return fmt::format("{:04d}-{}.html", index + 1, safe);
+}
+
+// A relative link to a file name: every byte outside the unreserved characters of RFC 3986 percent-encoded,
+// so a report named "lab #2.html" still links its pages.
+std::string href_of(const std::string& name) {
+  std::string out;
+  for (unsigned char c : name)
+    out += std::isalnum(c) != 0 || c == '-' || c == '.' || c == '_' || c == '~' ? std::string(1, static_cast<char>(c))
+                                                                                : fmt::format("%{:02X}", c);
   return out;
 }
 
-report::HtmlReport write_history_report(store::Database& db, const HistoryReportRequest& r) {
+}  // namespace
+
+report::InstrumentSection instrument_section(store::Database& db, const std::string& instrument_id, Date on) {
+  return section_of(db, find_instrument(db, instrument_id).id, standings_on(db, on, default_due_window_days));
+}
+
+std::filesystem::path instrument_pages_folder(const std::filesystem::path& overview) {
+  return overview.parent_path() / (overview.stem().string() + "-instruments");
+}
+
+HistoryReportWritten write_history_report(store::Database& db, const HistoryReportRequest& r) {
   require_html_path(r.output);
-  report::HtmlReport rep = history_report(db, r);
-  const std::string html = report::html_report(rep);
-  store::write_whole_file(r.output, html, "report file");
-  return rep;
+  report::ReportHeading heading;
+  heading.lab_name = require_lab(db).name;
+  heading.on = r.on;
+  heading.caution = report::history_chart_caution;
+  std::vector<report::DueItem> due;
+  std::optional<std::string> only;
+  if (r.instrument) {
+    only = find_instrument(db, *r.instrument).id;
+    heading.scope = "instrument " + *only;
+  } else {
+    heading.scope = "the whole laboratory";
+  }
+  for (auto& d : due_items(db, r.on, default_due_window_days, true))
+    if (!only || d.id == *only || d.kind == "weight") due.push_back(std::move(d));
+  const auto standing_of = standings_on(db, r.on, default_due_window_days);
+
+  HistoryReportWritten written;
+  written.overview = r.output;
+  ReportFiles files;
+  std::string buffer;
+  if (only) {
+    files.start(r.output);
+    report::append_instrument_page(buffer, heading, section_of(db, *only, standing_of), &due, "");
+    files.write(buffer);
+    files.finish();
+    written.instruments = 1;
+    files.keep();
+    return written;
+  }
+  const auto folder = instrument_pages_folder(r.output);
+  files.make_folder(folder);
+  written.folder = folder;
+  const std::string back = "../" + href_of(r.output.filename().string());
+  std::vector<report::OverviewRow> rows;
+  const auto ids = instrument_ids(db);
+  for (std::size_t i = 0; i < ids.size(); ++i) {
+    const auto section = section_of(db, ids[i], standing_of);
+    const std::string page = page_file_name(i, section.id);
+    files.start(folder / page);
+    report::append_instrument_page(buffer, heading, section, nullptr, back);
+    files.write(buffer);
+    files.finish();
+    rows.push_back({section.id, section.title, section.location, section.status,
+                    href_of(folder.filename().string()) + "/" + page, section.history.rows.size(),
+                    section.findings.empty() ? std::string() : section.findings.front()});
+  }
+  files.start(r.output);
+  report::append_overview_start(buffer, heading, due);
+  for (const auto& row : rows) {
+    report::append_overview_row(buffer, row);
+    if (buffer.size() > (1U << 20U)) files.write(buffer);
+  }
+  report::append_overview_end(buffer, heading, rows.size());
+  files.write(buffer);
+  files.finish();
+  written.instruments = rows.size();
+  files.keep();
+  return written;
 }
 
 }  // namespace plumb::app

@@ -1,10 +1,6 @@
 #include "report/chart/chart.hpp"
 
-#include <cairo-pdf.h>
-#include <cairo-svg.h>
-#include <cairo.h>
 #include <fmt/format.h>
-#include <pango/pangocairo.h>
 
 #include <algorithm>
 #include <cmath>
@@ -16,7 +12,8 @@
 #include "core/errors.hpp"
 #include "report/chart/axis_ticks.hpp"
 #include "report/chart/draw_record.hpp"
-#include "report/chart/pango_text.hpp"
+#include "report/chart/drawing_backend.hpp"
+#include "report/chart/svg_writer.hpp"
 #include "store/file_output.hpp"
 
 namespace plumb::report {
@@ -44,8 +41,6 @@ constexpr double legend_width = 210;
 constexpr double point_radius = 3.6;
 constexpr double flag_radius = 7.5;
 
-void set_colour(cairo_t* cr, Rgb c, double alpha = 1.0) { cairo_set_source_rgba(cr, c.r, c.g, c.b, alpha); }
-
 std::string svg_number(double v) { return fmt::format("{:.6g}", v); }
 
 const char* outcome_key(ChartPoint::Outcome o) {
@@ -60,8 +55,6 @@ const char* outcome_key(ChartPoint::Outcome o) {
   return "pass";
 }
 std::string px(double v) { return fmt::format("{:.2f}", v); }
-
-using Text = TextLayout;
 
 void require_finite(double v, std::string_view field) {
   if (!std::isfinite(v)) throw InputError(fmt::format("chart {} is {}; it must be a finite number.", field, v));
@@ -144,44 +137,113 @@ std::string signed_text(double v, const std::string& unit) {
   return fmt::format("{:+.4g}{}", v, unit.empty() ? "" : " " + unit);
 }
 
+// Text laid out for the drawing: its lines, its size and the metrics the back ends place it by.
+struct LaidText {
+  std::vector<std::string> lines;
+  FontSpec font;
+  double w = 0, h = 0, line_height = 0, ascent = 0;
+  [[nodiscard]] double width() const { return w; }
+  [[nodiscard]] double height() const { return h; }
+};
+
+Colour colour_of(Rgb c, double alpha = 1.0) {
+  return {c.r, c.g, c.b, alpha};
+}
+
 class Renderer {
 public:
-  Renderer(cairo_t* cr, const ChartSpec& s, DrawRecord& rec) : cr_(cr), s_(s), rec_(rec) {}
+ Renderer(const TextMeasure& m, const ChartSpec& s, DrawRecord& rec, Drawing& out)
+     : m_(m), s_(s), rec_(rec), out_(out) {}
 
-  void draw() {
-    set_colour(cr_, {1, 1, 1});
-    cairo_paint(cr_);
-    double y = margin;
-    y = heading(y);
-    layout(y);
-    plot_background();
-    grid();
-    data_layers();
-    axes_text();
-    legend();
-    notes();
+ void draw() {
+   out_.width = s_.width;
+   out_.height = s_.height;
+   fill_rect(0, 0, s_.width, s_.height, colour_of({1, 1, 1}));
+   double y = margin;
+   y = heading(y);
+   layout(y);
+   plot_background();
+   grid();
+   data_layers();
+   axes_text();
+   legend();
+   notes();
   }
 
 private:
+ // ---- drawing primitives: each appends one operation to the drawing ------------------------------
+ [[nodiscard]] LaidText lay(const std::string& text, double size, bool bold = false, bool italic = false,
+                            double wrap = -1) const {
+   LaidText t;
+   t.font = {size, bold, italic};
+   t.lines = wrap_text(m_, text, t.font, wrap);
+   t.line_height = m_.line_height(t.font);
+   t.ascent = m_.ascent(t.font);
+   for (const auto& l : t.lines) t.w = std::max(t.w, m_.width(l, t.font));
+   t.h = t.line_height * static_cast<double>(t.lines.size());
+   return t;
+ }
+ void put(const LaidText& t, double x, double y, Rgb c, const std::string& role, bool vertical = false,
+          double alpha = 1.0) {
+   out_.ops.emplace_back(
+       TextLines{x, y, t.lines, t.font, colour_of(c, alpha), t.line_height, t.ascent, vertical, role});
+ }
+ void fill_rect(double x, double y, double w, double h, Colour c) {
+   Shape r;
+   r.kind = Shape::Kind::rect;
+   r.x = x, r.y = y, r.w = w, r.h = h;
+   r.fill = c;
+   out_.ops.emplace_back(std::move(r));
+ }
+ void stroke_rect(double x, double y, double w, double h, Stroke st) {
+   Shape r;
+   r.kind = Shape::Kind::rect;
+   r.x = x, r.y = y, r.w = w, r.h = h;
+   r.stroke = std::move(st);
+   out_.ops.emplace_back(std::move(r));
+ }
+ void stroke_lines(std::vector<std::vector<PointXY>> subpaths, Stroke st) {
+   if (subpaths.empty()) return;
+   Shape p;
+   p.subpaths = std::move(subpaths);
+   p.stroke = std::move(st);
+   out_.ops.emplace_back(std::move(p));
+ }
+ void fill_polygon(std::vector<PointXY> points, Colour c) {
+   Shape p;
+   p.subpaths.push_back(std::move(points));
+   p.closed = true;
+   p.fill = c;
+   out_.ops.emplace_back(std::move(p));
+ }
+ void circle(double cx, double cy, double r, std::optional<Colour> fill, std::optional<Stroke> stroke = {}) {
+   Shape c;
+   c.kind = Shape::Kind::circle;
+   c.x = cx, c.y = cy, c.w = r;
+   c.fill = fill;
+   c.stroke = std::move(stroke);
+   out_.ops.emplace_back(std::move(c));
+ }
+ static Stroke pen(Rgb c, double width, std::vector<double> dash = {}, double alpha = 1.0) {
+   return {colour_of(c, alpha), width, std::move(dash)};
+ }
+
   // ---- layout -------------------------------------------------------------------------------------
   double heading(double y) {
-    Text title(cr_, s_.title, 15, true, false, s_.width - 2 * margin);
-    set_colour(cr_, ink);
-    title.draw(margin, y);
+    const auto title = lay(s_.title, 15, true, false, s_.width - 2 * margin);
+    put(title, margin, y, ink, "title");
     rec_.add("text", {{"role", "title"}}, s_.title);
     y += title.height() + 2;
     if (!s_.subtitle.empty()) {
-      Text sub(cr_, s_.subtitle, 10.5, false, false, s_.width - 2 * margin);
-      set_colour(cr_, muted);
-      sub.draw(margin, y);
+      const auto sub = lay(s_.subtitle, 10.5, false, false, s_.width - 2 * margin);
+      put(sub, margin, y, muted, "subtitle");
       rec_.add("text", {{"role", "subtitle"}}, s_.subtitle);
       y += sub.height();
     }
     if (scale_.zoomed) {
       // Said where the reader looks first, in the limit colour: the axis is not the full tolerance band.
-      Text zoom(cr_, scale_.statement, 10.5, true, false, s_.width - 2 * margin);
-      set_colour(cr_, tolerance_colour);
-      zoom.draw(margin, y);
+      const auto zoom = lay(scale_.statement, 10.5, true, false, s_.width - 2 * margin);
+      put(zoom, margin, y, tolerance_colour, "zoom-statement");
       rec_.add("scale", {{"zoomed", "true"}, {"ratio", ratio_text(scale_.ratio)}});
       rec_.add("text", {{"role", "zoom-statement"}}, scale_.statement);
       y += zoom.height();
@@ -216,8 +278,8 @@ private:
     yt_ = number_ticks(y_lo, yr.hi + ypad, 6);
 
     double widest_y = 0;
-    for (const auto& t : yt_.ticks) widest_y = std::max(widest_y, Text(cr_, t.label, 9).width());
-    const double y_label_h = Text(cr_, s_.y.text(), 10.5).height();
+    for (const auto& t : yt_.ticks) widest_y = std::max(widest_y, m_.width(t.label, {9}));
+    const double y_label_h = m_.line_height({10.5});
     left_ = margin + y_label_h + 8 + widest_y + 6;
     right_ = s_.width - margin - legend_width - 18;
     top_ = top;
@@ -227,17 +289,17 @@ private:
     shown_notes_.clear();
     const double wrap = s_.width - 2 * margin;
     for (std::size_t i = 0; i < s_.notes.size(); ++i) {
-      const double h = Text(cr_, s_.notes[i], 8, false, false, wrap).height();
+      const double h = lay(s_.notes[i], 8, false, false, wrap).height();
       if (notes_h_ + 2 * h > s_.height / 3 && i + 1 < s_.notes.size()) {
         shown_notes_.push_back(fmt::format("({} further note(s) are in the text report.)", s_.notes.size() - i));
-        notes_h_ += Text(cr_, shown_notes_.back(), 8, false, false, wrap).height();
+        notes_h_ += lay(shown_notes_.back(), 8, false, false, wrap).height();
         break;
       }
       shown_notes_.push_back(s_.notes[i]);
       notes_h_ += h;
     }
-    const double tick_h = Text(cr_, "0123456789", 9).height();
-    const double x_label_h = Text(cr_, s_.x.text(), 10.5).height();
+    const double tick_h = m_.line_height({9});
+    const double x_label_h = m_.line_height({10.5});
     bottom_ = s_.height - margin - notes_h_ - (notes_h_ > 0 ? 8 : 0) - x_label_h - 6 - tick_h - 6;
 
     const double plot_w = right_ - left_;
@@ -251,7 +313,7 @@ private:
         return t.value < xt_.min - 1e-9 * xt_.step || t.value > xt_.max + 1e-9 * xt_.step;
       });
     } else if (s_.x.scale == AxisScale::date) {
-      const double label_w = Text(cr_, "2024-12-31", 9).width();
+      const double label_w = m_.width("2024-12-31", {9});
       const int max_ticks = std::max(2, static_cast<int>(plot_w / (label_w + 18)));
       xt_ = date_ticks(xr.lo - xpad, xr.hi + xpad, max_ticks);
     } else {
@@ -266,54 +328,31 @@ private:
   [[nodiscard]] double X(double x) const { return left_ + (x - xt_.min) / (xt_.max - xt_.min) * (right_ - left_); }
   [[nodiscard]] double Y(double y) const { return bottom_ - (y - yt_.min) / (yt_.max - yt_.min) * (bottom_ - top_); }
 
-  void clip_to_plot() {
-    cairo_save(cr_);
-    cairo_rectangle(cr_, left_, top_, right_ - left_, bottom_ - top_);
-    cairo_clip(cr_);
-  }
-
   // ---- plot area ----------------------------------------------------------------------------------
   void plot_background() {
     if (!s_.tolerance || (!s_.tolerance->lower && !s_.tolerance->upper)) return;
     // Clamped to the plot: a zoomed chart may lie wholly inside the band.
     const double hi = std::clamp(s_.tolerance->upper ? Y(*s_.tolerance->upper) : top_, top_, bottom_);
     const double lo = std::clamp(s_.tolerance->lower ? Y(*s_.tolerance->lower) : bottom_, top_, bottom_);
-    set_colour(cr_, tolerance_fill);
-    cairo_rectangle(cr_, left_, hi, right_ - left_, lo - hi);
-    cairo_fill(cr_);
+    fill_rect(left_, hi, right_ - left_, lo - hi, colour_of(tolerance_fill));
   }
 
   void grid() {
-    cairo_set_line_width(cr_, 0.6);
-    set_colour(cr_, grid_grey);
-    for (const auto& t : yt_.ticks) {
-      cairo_move_to(cr_, left_, Y(t.value));
-      cairo_line_to(cr_, right_, Y(t.value));
-    }
-    for (const auto& t : xt_.ticks) {
-      cairo_move_to(cr_, X(t.value), top_);
-      cairo_line_to(cr_, X(t.value), bottom_);
-    }
-    cairo_stroke(cr_);
-    set_colour(cr_, muted);
-    cairo_set_line_width(cr_, 0.8);
-    cairo_rectangle(cr_, left_, top_, right_ - left_, bottom_ - top_);
-    cairo_stroke(cr_);
+    std::vector<std::vector<PointXY>> lines;
+    lines.reserve(yt_.ticks.size() + xt_.ticks.size());
+    for (const auto& t : yt_.ticks) lines.push_back({{left_, Y(t.value)}, {right_, Y(t.value)}});
+    for (const auto& t : xt_.ticks) lines.push_back({{X(t.value), top_}, {X(t.value), bottom_}});
+    stroke_lines(std::move(lines), pen(grid_grey, 0.6));
+    stroke_rect(left_, top_, right_ - left_, bottom_ - top_, pen(muted, 0.8));
   }
 
   void hline(double y, Rgb c, double width, bool dashed) {
-    set_colour(cr_, c);
-    cairo_set_line_width(cr_, width);
-    const double dash[] = {5, 3};
-    cairo_set_dash(cr_, dash, dashed ? 2 : 0, 0);
-    cairo_move_to(cr_, left_, Y(y));
-    cairo_line_to(cr_, right_, Y(y));
-    cairo_stroke(cr_);
-    cairo_set_dash(cr_, nullptr, 0, 0);
+    stroke_lines({{{left_, Y(y)}, {right_, Y(y)}}},
+                 pen(c, width, dashed ? std::vector<double>{5, 3} : std::vector<double>{}));
   }
 
   void data_layers() {
-    clip_to_plot();
+    out_.ops.emplace_back(ClipBegin{left_, top_, right_ - left_, bottom_ - top_});
     if (s_.baseline) baseline_span(*s_.baseline);
     if (s_.zero_line) {
       hline(0, ink, 0.9, false);
@@ -321,12 +360,11 @@ private:
     }
     if (s_.trend && s_.trend->prediction_band.size() >= 2) {
       const auto& b = s_.trend->prediction_band;
-      cairo_move_to(cr_, X(b.front().x), Y(b.front().upper));
-      for (const auto& p : b) cairo_line_to(cr_, X(p.x), Y(p.upper));
-      for (auto it = b.rbegin(); it != b.rend(); ++it) cairo_line_to(cr_, X(it->x), Y(it->lower));
-      cairo_close_path(cr_);
-      set_colour(cr_, band_fill);
-      cairo_fill(cr_);
+      std::vector<PointXY> outline;
+      outline.reserve(2 * b.size());
+      for (const auto& p : b) outline.emplace_back(X(p.x), Y(p.upper));
+      for (auto it = b.rbegin(); it != b.rend(); ++it) outline.emplace_back(X(it->x), Y(it->lower));
+      fill_polygon(std::move(outline), colour_of(band_fill));
       rec_.add("prediction-band", {{"points", std::to_string(b.size())}});
     }
     if (s_.tolerance) {
@@ -354,22 +392,22 @@ private:
     std::size_t k = 0;
     for (const auto& series : s_.series) {
       const Rgb c = series_colours[k++ % std::size(series_colours)];
+      // Layer by layer (bars, markers, rings), so that the SVG writes each layer as one group.
       for (const auto& p : series.points) error_bar(p, c);
       for (const auto& p : series.points) point(series.name, p, c);
+      for (const auto& p : series.points)
+        if (p.flagged) circle(X(p.x), Y(p.y), flag_radius, std::nullopt, pen(tolerance_colour, 1.8));
     }
-    cairo_restore(cr_);
+    out_.ops.emplace_back(ClipEnd{});
   }
 
   // The baseline behind everything, widened by a few points so that its first and last results sit inside it;
   // labelled near the top of the plot so that the reader sees which results set the limits.
   void baseline_span(const XSpan& b) {
     const double x0 = X(b.from) - 4, x1 = X(b.to) + 4;
-    set_colour(cr_, baseline_fill);
-    cairo_rectangle(cr_, x0, top_, x1 - x0, bottom_ - top_);
-    cairo_fill(cr_);
-    Text t(cr_, b.label, 8.5, false, false, std::max(60.0, x1 - x0 - 6));
-    set_colour(cr_, muted);
-    t.draw(x0 + 3, top_ + 24);  // below the band an off-scale limit's label may take at the top edge
+    fill_rect(x0, top_, x1 - x0, bottom_ - top_, colour_of(baseline_fill));
+    const auto t = lay(b.label, 8.5, false, false, std::max(60.0, x1 - x0 - 6));
+    put(t, x0 + 3, top_ + 24, muted, "baseline-label");  // below the band an off-scale limit's label may take
     rec_.add("baseline",
              {{"from", svg_number(b.from)}, {"to", svg_number(b.to)}, {"px-from", px(x0)}, {"px-to", px(x1)}});
     rec_.add("text", {{"role", "baseline-label"}}, b.label);
@@ -379,20 +417,9 @@ private:
   // so that two adjustments close together do not overprint.
   void marker_line(const XMarker& m) {
     const double x = X(m.x);
-    set_colour(cr_, ink);
-    cairo_set_line_width(cr_, 1.2);
-    const double dash[] = {5, 3};
-    cairo_set_dash(cr_, dash, 2, 0);
-    cairo_move_to(cr_, x, top_);
-    cairo_line_to(cr_, x, bottom_);
-    cairo_stroke(cr_);
-    cairo_set_dash(cr_, nullptr, 0, 0);
-    Text t(cr_, m.label, 8.5);
-    cairo_save(cr_);
-    cairo_translate(cr_, x - t.height() - 1, top_ + 4 + t.width());
-    cairo_rotate(cr_, -std::numbers::pi / 2);
-    t.draw(0, 0);
-    cairo_restore(cr_);
+    stroke_lines({{{x, top_}, {x, bottom_}}}, pen(ink, 1.2, {5, 3}));
+    const auto t = lay(m.label, 8.5);
+    put(t, x - t.height() - 1, top_ + 4 + t.width(), ink, "adjustment-label", true);
     rec_.add("adjustment", {{"x", svg_number(m.x)}, {"px", px(x)}});
     rec_.add("text", {{"role", "adjustment-label"}}, m.label);
   }
@@ -403,30 +430,16 @@ private:
   // which limit and where it is, so the reader knows the band goes on past the frame.
   void off_scale(bool top, const std::string& label, double value) {
     const double edge = top ? top_ + 1.5 : bottom_ - 1.5;
-    set_colour(cr_, tolerance_colour);
-    cairo_set_line_width(cr_, 2.2);
-    const double dash[] = {6, 4};
-    cairo_set_dash(cr_, dash, 2, 0);
-    cairo_move_to(cr_, left_, edge);
-    cairo_line_to(cr_, right_, edge);
-    cairo_stroke(cr_);
-    cairo_set_dash(cr_, nullptr, 0, 0);
+    stroke_lines({{{left_, edge}, {right_, edge}}}, pen(tolerance_colour, 2.2, {6, 4}));
     double& x = top ? top_marker_x_ : bottom_marker_x_;
     if (x == 0) x = left_ + 8;
     const double dir = top ? -1 : 1;  // the arrow points away from the data, towards the limit
     const double tip = edge + dir * 0.5, base = edge - dir * 9;
-    cairo_move_to(cr_, x, tip);
-    cairo_line_to(cr_, x - 5, base);
-    cairo_line_to(cr_, x + 5, base);
-    cairo_close_path(cr_);
-    cairo_fill(cr_);
-    Text t(cr_, label, 9, true);
+    fill_polygon({{x, tip}, {x - 5, base}, {x + 5, base}}, colour_of(tolerance_colour));
+    const auto t = lay(label, 9, true);
     const double ty = top ? edge + 3 : edge - 3 - t.height();
-    set_colour(cr_, {1, 1, 1}, 0.85);
-    cairo_rectangle(cr_, x + 8, ty, t.width() + 6, t.height());
-    cairo_fill(cr_);
-    set_colour(cr_, tolerance_colour);
-    t.draw(x + 11, ty);
+    fill_rect(x + 8, ty, t.width() + 6, t.height(), colour_of({1, 1, 1}, 0.85));
+    put(t, x + 11, ty, tolerance_colour, "off-scale-label");
     rec_.add("off-scale-limit", {{"edge", top ? "top" : "bottom"}, {"value", svg_number(value)}, {"py", px(edge)}});
     rec_.add("text", {{"role", "off-scale-label"}}, label);
     x += t.width() + 30;
@@ -436,23 +449,22 @@ private:
     if (c.points.size() < 2) return;
     const bool limit = c.style == ChartCurve::Style::limit;
     const bool step = c.style == ChartCurve::Style::step_limit;
-    set_colour(cr_, limit || step ? tolerance_colour : trend_colour);
+    const Rgb colour = limit || step ? tolerance_colour : trend_colour;
     // A limit known at some points only: a bold bar at each point, joined by a thin dotted guide, so that no
     // slope between two points is read as a limit nobody stated.
-    cairo_set_line_width(cr_, limit ? 0.9 : step ? 1.6 : 2.0);
-    const double dots[] = {1.5, 2.5};
-    if (limit) cairo_set_dash(cr_, dots, 2, 0);
-    cairo_move_to(cr_, X(c.points.front().first), Y(c.points.front().second));
-    for (const auto& [x, y] : c.points) cairo_line_to(cr_, X(x), Y(y));
-    cairo_stroke(cr_);
-    cairo_set_dash(cr_, nullptr, 0, 0);
+    std::vector<PointXY> line;
+    line.reserve(c.points.size());
+    for (const auto& [x, y] : c.points) line.emplace_back(X(x), Y(y));
+    stroke_lines({std::move(line)}, pen(colour,
+                                        limit  ? 0.9
+                                        : step ? 1.6
+                                               : 2.0,
+                                        limit ? std::vector<double>{1.5, 2.5} : std::vector<double>{}));
     if (limit) {
-      cairo_set_line_width(cr_, 2.4);
-      for (const auto& [x, y] : c.points) {
-        cairo_move_to(cr_, X(x) - 9, Y(y));
-        cairo_line_to(cr_, X(x) + 9, Y(y));
-      }
-      cairo_stroke(cr_);
+      std::vector<std::vector<PointXY>> bars;
+      bars.reserve(c.points.size());
+      for (const auto& [x, y] : c.points) bars.push_back({{X(x) - 9, Y(y)}, {X(x) + 9, Y(y)}});
+      stroke_lines(std::move(bars), pen(colour, 2.4));
     }
     rec_.add("curve", {{"name", c.name},
                        {"style", limit  ? "limit"
@@ -473,146 +485,98 @@ private:
 
   void trend() {
     const auto& t = *s_.trend;
-    set_colour(cr_, trend_colour);
-    cairo_set_line_width(cr_, 2.0);
-    cairo_move_to(cr_, X(t.x0), Y(t.y0));
-    cairo_line_to(cr_, X(t.x1), Y(t.y1));
-    cairo_stroke(cr_);
+    stroke_lines({{{X(t.x0), Y(t.y0)}, {X(t.x1), Y(t.y1)}}}, pen(trend_colour, 2.0));
     rec_.add("trend", {{"x0", svg_number(t.x0)}, {"y0", svg_number(t.y0)}, {"x1", svg_number(t.x1)}, {"y1", svg_number(t.y1)}});
     if (!(t.x_extrapolated && t.y_extrapolated)) return;
-    const double dash[] = {7, 4};
-    cairo_set_dash(cr_, dash, 2, 0);
-    cairo_move_to(cr_, X(t.x1), Y(t.y1));
-    cairo_line_to(cr_, X(*t.x_extrapolated), Y(*t.y_extrapolated));
-    cairo_stroke(cr_);
-    cairo_set_dash(cr_, nullptr, 0, 0);
+    stroke_lines({{{X(t.x1), Y(t.y1)}, {X(*t.x_extrapolated), Y(*t.y_extrapolated)}}}, pen(trend_colour, 2.0, {7, 4}));
     rec_.add("extrapolated", {{"x0", svg_number(t.x1)}, {"y0", svg_number(t.y1)}, {"x1", svg_number(*t.x_extrapolated)},
                               {"y1", svg_number(*t.y_extrapolated)}, {"dashed", "true"}});
     // The word sits above the middle of the dashed part (below it when there is no room above),
     // kept inside the plot so it is never clipped.
-    Text word(cr_, "extrapolated", 9, false, true);
+    const auto word = lay("extrapolated", 9, false, true);
     const double mx = (X(t.x1) + X(*t.x_extrapolated)) / 2, my = (Y(t.y1) + Y(*t.y_extrapolated)) / 2;
-    double tx = std::clamp(mx - word.width() / 2, left_ + 3, right_ - word.width() - 3);
+    const double tx = std::clamp(mx - word.width() / 2, left_ + 3, right_ - word.width() - 3);
     double ty = my - word.height() - 6;
     if (ty < top_ + 2) ty = my + 6;
-    set_colour(cr_, trend_colour);
-    word.draw(tx, ty);
+    put(word, tx, ty, trend_colour, "extrapolated-label");
     rec_.add("text", {{"role", "extrapolated-label"}}, "extrapolated");
   }
 
   void error_bar(const ChartPoint& p, Rgb c) {
     if (!p.error || *p.error <= 0) return;
     const double x = X(p.x), y0 = Y(p.y - *p.error), y1 = Y(p.y + *p.error);
-    set_colour(cr_, c, 0.85);
-    cairo_set_line_width(cr_, 1.0);
-    cairo_move_to(cr_, x, y0);
-    cairo_line_to(cr_, x, y1);
-    for (double yy : {y0, y1}) {
-      cairo_move_to(cr_, x - 3, yy);
-      cairo_line_to(cr_, x + 3, yy);
-    }
-    cairo_stroke(cr_);
-    rec_.add("error-bar", {{"x", svg_number(p.x)}, {"y", svg_number(p.y)}, {"u", svg_number(*p.error)}, {"px", px(x)},
-                           {"py-low", px(y0)}, {"py-high", px(y1)}});
+    stroke_lines({{{x, y0}, {x, y1}}, {{x - 3, y0}, {x + 3, y0}}, {{x - 3, y1}, {x + 3, y1}}}, pen(c, 1.0, {}, 0.85));
+    // Kept short: a long history has hundreds; the point's own entry says where it is.
+    rec_.add("error-bar", {{"u", svg_number(*p.error)}});
   }
 
   void point(const std::string& series, const ChartPoint& p, Rgb c) {
-    const double x = X(p.x), y = Y(p.y);
-    // A white halo, then the dot: two plain fills, so that each point is exactly one path in the
-    // point's colour in the SVG (the chart test counts them).
-    cairo_new_sub_path(cr_);
-    cairo_arc(cr_, x, y, point_radius + 0.8, 0, 2 * std::numbers::pi);
-    set_colour(cr_, {1, 1, 1});
-    cairo_fill(cr_);
-    marker(p.outcome, x, y, c);
-    if (p.flagged) {
-      cairo_new_sub_path(cr_);
-      cairo_arc(cr_, x, y, flag_radius, 0, 2 * std::numbers::pi);
-      set_colour(cr_, tolerance_colour);
-      cairo_set_line_width(cr_, 1.8);
-      cairo_stroke(cr_);
-    }
-    rec_.add("point", {{"series", series},
-                       {"x", svg_number(p.x)},
-                       {"y", svg_number(p.y)},
-                       {"px", px(x)},
-                       {"py", px(y)},
-                       {"flagged", p.flagged ? "true" : "false"},
-                       {"outcome", outcome_key(p.outcome)}});
+    marker(p.outcome, X(p.x), Y(p.y), c);
+    // x, y in data units; where they are drawn follows from the plot entry (left + (x - x-min) / (x-max - x-min) *
+    // (right - left)), so the positions are not repeated for every point of a long history.
+    std::vector<std::pair<std::string, std::string>> a{
+        {"series", series}, {"x", svg_number(p.x)}, {"y", svg_number(p.y)}, {"outcome", outcome_key(p.outcome)}};
+    if (p.flagged) a.emplace_back("flagged", "true");
+    rec_.add("point", std::move(a));
   }
 
   // A pass is a filled dot; a failed run a bold cross; a void run an open square: the shape tells them apart
   // in grey print and for readers who do not see the colours.
   void marker(ChartPoint::Outcome o, double x, double y, Rgb c) {
-    set_colour(cr_, c);
     if (o == ChartPoint::Outcome::failed) {
       const double r = point_radius + 1.5;
-      cairo_set_line_width(cr_, 2.4);
-      cairo_move_to(cr_, x - r, y - r), cairo_line_to(cr_, x + r, y + r);
-      cairo_move_to(cr_, x - r, y + r), cairo_line_to(cr_, x + r, y - r);
-      cairo_stroke(cr_);
+      stroke_lines({{{x - r, y - r}, {x + r, y + r}}, {{x - r, y + r}, {x + r, y - r}}}, pen(c, 2.4));
     } else if (o == ChartPoint::Outcome::void_run) {
       const double r = point_radius + 0.5;
-      cairo_set_line_width(cr_, 1.6);
-      cairo_rectangle(cr_, x - r, y - r, 2 * r, 2 * r);
-      cairo_stroke(cr_);
+      stroke_rect(x - r, y - r, 2 * r, 2 * r, pen(c, 1.6));
     } else {
-      cairo_new_sub_path(cr_);
-      cairo_arc(cr_, x, y, point_radius, 0, 2 * std::numbers::pi);
-      cairo_fill(cr_);
+      // The dot with a white halo 0.8 wide around it: one circle, stroked white across its edge.
+      circle(x, y, point_radius + 0.4, colour_of(c), pen({1, 1, 1}, 0.8));
     }
   }
 
   // ---- text around the plot -----------------------------------------------------------------------
   void axes_text() {
-    set_colour(cr_, ink);
     for (const auto& t : yt_.ticks) {
-      Text l(cr_, t.label, 9);
-      l.draw(left_ - 6 - l.width(), Y(t.value) - l.height() / 2);
+      const auto l = lay(t.label, 9);
+      put(l, left_ - 6 - l.width(), Y(t.value) - l.height() / 2, ink, "y-tick");
       rec_.add("text", {{"role", "y-tick"}, {"value", svg_number(t.value)}}, t.label);
     }
     double tick_bottom = bottom_;
     for (const auto& t : xt_.ticks) {
-      Text l(cr_, t.label, 9);
+      const auto l = lay(t.label, 9);
       const double cx = std::clamp(X(t.value) - l.width() / 2, 2.0, s_.width - l.width() - 2);
-      l.draw(cx, bottom_ + 6);
+      put(l, cx, bottom_ + 6, ink, "x-tick");
       tick_bottom = std::max(tick_bottom, bottom_ + 6 + l.height());
       rec_.add("text", {{"role", "x-tick"}, {"value", svg_number(t.value)}}, t.label);
     }
-    Text xl(cr_, s_.x.text(), 10.5);
-    xl.draw((left_ + right_) / 2 - xl.width() / 2, tick_bottom + 6);
+    const auto xl = lay(s_.x.text(), 10.5);
+    put(xl, (left_ + right_) / 2 - xl.width() / 2, tick_bottom + 6, ink, "x-axis-label");
     rec_.add("text", {{"role", "x-axis-label"}}, s_.x.text());
 
-    Text yl(cr_, s_.y.text(), 10.5);
-    cairo_save(cr_);
-    cairo_translate(cr_, margin, (top_ + bottom_) / 2 + yl.width() / 2);
-    cairo_rotate(cr_, -std::numbers::pi / 2);
-    yl.draw(0, 0);
-    cairo_restore(cr_);
+    const auto yl = lay(s_.y.text(), 10.5);
+    put(yl, margin, (top_ + bottom_) / 2 + yl.width() / 2, ink, "y-axis-label", true);
     rec_.add("text", {{"role", "y-axis-label"}}, s_.y.text());
   }
 
   double legend_entry(double y, const std::function<void(double, double)>& symbol, const std::string& text) {
     const double x = right_ + 18;
-    Text t(cr_, text, 9, false, false, legend_width - 30);
+    const auto t = lay(text, 9, false, false, legend_width - 30);
     symbol(x + 10, y + std::min(t.height(), 12.0) / 2);
-    set_colour(cr_, ink);
-    t.draw(x + 26, y);
+    put(t, x + 26, y, ink, "legend");
     rec_.add("text", {{"role", "legend"}}, text);
     return y + t.height() + 5;
   }
 
   std::function<void(double, double)> line_symbol(Rgb c, double width, bool dashed) {
     return [this, c, width, dashed](double x, double y) {
-      set_colour(cr_, c);
-      cairo_set_line_width(cr_, width);
-      const double dash[] = {4, 2.5};
-      cairo_set_dash(cr_, dash, dashed ? 2 : 0, 0);
-      cairo_move_to(cr_, x - 10, y);
-      cairo_line_to(cr_, x + 10, y);
-      cairo_stroke(cr_);
-      cairo_set_dash(cr_, nullptr, 0, 0);
+      stroke_lines({{{x - 10, y}, {x + 10, y}}},
+                   pen(c, width, dashed ? std::vector<double>{4, 2.5} : std::vector<double>{}));
     };
+  }
+
+  std::function<void(double, double)> swatch(Rgb c) {
+    return [this, c](double x, double y) { fill_rect(x - 10, y - 5, 20, 10, colour_of(c)); };
   }
 
   [[nodiscard]] std::string with_unit(double v) const {
@@ -653,22 +617,19 @@ private:
       }
     }
     if (any_error)
-      y = legend_entry(y, [this](double x, double yy) {
-        set_colour(cr_, muted);
-        cairo_set_line_width(cr_, 1.0);
-        cairo_move_to(cr_, x, yy - 6), cairo_line_to(cr_, x, yy + 6);
-        cairo_move_to(cr_, x - 3, yy - 6), cairo_line_to(cr_, x + 3, yy - 6);
-        cairo_move_to(cr_, x - 3, yy + 6), cairo_line_to(cr_, x + 3, yy + 6);
-        cairo_stroke(cr_);
-      }, "error bar: expanded uncertainty U");
+      y = legend_entry(
+          y,
+          [this](double x, double yy) {
+            stroke_lines(
+                {{{x, yy - 6}, {x, yy + 6}}, {{x - 3, yy - 6}, {x + 3, yy - 6}}, {{x - 3, yy + 6}, {x + 3, yy + 6}}},
+                pen(muted, 1.0));
+          },
+          "error bar: expanded uncertainty U");
     if (any_flag)
-      y = legend_entry(y, [this](double x, double yy) {
-        cairo_new_sub_path(cr_);
-        cairo_arc(cr_, x, yy, flag_radius - 1.5, 0, 2 * std::numbers::pi);
-        set_colour(cr_, tolerance_colour);
-        cairo_set_line_width(cr_, 1.8);
-        cairo_stroke(cr_);
-      }, "flagged point (see the notes)");
+      y = legend_entry(
+          y,
+          [this](double x, double yy) { circle(x, yy, flag_radius - 1.5, std::nullopt, pen(tolerance_colour, 1.8)); },
+          "flagged point (see the notes)");
     if (s_.tolerance) {
       std::string t = s_.tolerance->label;
       if (s_.tolerance->lower && s_.tolerance->upper)
@@ -696,37 +657,20 @@ private:
     }
     if (s_.zero_line) y = legend_entry(y, line_symbol(ink, 0.9, false), "zero");
     if (s_.baseline)
-      y = legend_entry(
-          y,
-          [this](double x, double yy) {
-            set_colour(cr_, baseline_fill);
-            cairo_rectangle(cr_, x - 10, yy - 5, 20, 10);
-            cairo_fill(cr_);
-          },
-          "baseline period (sets centre line and control limits)");
+      y = legend_entry(y, swatch(baseline_fill), "baseline period (sets centre line and control limits)");
     if (!s_.markers.empty())
       y = legend_entry(
           y,
           [this](double x, double yy) {
-            set_colour(cr_, ink);
-            cairo_set_line_width(cr_, 1.2);
-            cairo_move_to(cr_, x, yy - 6), cairo_line_to(cr_, x, yy + 6);
-            cairo_stroke(cr_);
+            stroke_lines({{{x, yy - 6}, {x, yy + 6}}}, pen(ink, 1.2));
           },
           "adjustment (as found / as left)");
     if (s_.trend) {
       y = legend_entry(y, line_symbol(trend_colour, 2.0, false), "trend (least squares)");
       if (s_.trend->x_extrapolated) y = legend_entry(y, line_symbol(trend_colour, 2.0, true), "trend, extrapolated");
-      if (s_.trend->prediction_band.size() >= 2)
-        y = legend_entry(y, [this](double x, double yy) {
-          set_colour(cr_, band_fill);
-          cairo_rectangle(cr_, x - 10, yy - 5, 20, 10);
-          cairo_fill(cr_);
-        }, s_.trend->band_label);
+      if (s_.trend->prediction_band.size() >= 2) y = legend_entry(y, swatch(band_fill), s_.trend->band_label);
       if (!s_.trend->label.empty()) {
-        Text t(cr_, s_.trend->label, 9, false, false, legend_width - 8);
-        set_colour(cr_, ink);
-        t.draw(right_ + 18, y + 6);
+        put(lay(s_.trend->label, 9, false, false, legend_width - 8), right_ + 18, y + 6, ink, "trend-label");
         rec_.add("text", {{"role", "trend-label"}}, s_.trend->label);
       }
     }
@@ -734,34 +678,24 @@ private:
 
   void notes() {
     double y = s_.height - margin - notes_h_;
-    set_colour(cr_, muted);
     for (const auto& n : shown_notes_) {
-      Text t(cr_, n, 8, false, false, s_.width - 2 * margin);
-      t.draw(margin, y);
+      const auto t = lay(n, 8, false, false, s_.width - 2 * margin);
+      put(t, margin, y, muted, "note");
       rec_.add("text", {{"role", "note"}}, n);
       y += t.height();
     }
   }
 
-  cairo_t* cr_;
+  const TextMeasure& m_;
   const ChartSpec& s_;
   DrawRecord& rec_;
+  Drawing& out_;
   ScaleDecision scale_ = scale_decision(s_);
   double top_marker_x_ = 0, bottom_marker_x_ = 0;
   AxisTicks xt_, yt_;
   double left_ = 0, right_ = 0, top_ = 0, bottom_ = 0, notes_h_ = 0;
   std::vector<std::string> shown_notes_;
 };
-
-void draw_on(cairo_surface_t* surface, const ChartSpec& spec, DrawRecord& rec, double scale) {
-  cairo_t* cr = cairo_create(surface);
-  cairo_scale(cr, scale, scale);
-  Renderer(cr, spec, rec).draw();
-  const cairo_status_t st = cairo_status(cr);
-  cairo_destroy(cr);
-  if (st != CAIRO_STATUS_SUCCESS)
-    throw std::runtime_error(fmt::format("chart drawing failed: {}", cairo_status_to_string(st)));
-}
 
 std::string description(const ChartSpec& s) {
   std::size_t points = 0;
@@ -796,51 +730,43 @@ ScaleDecision scale_decision(const ChartSpec& s) {
   return d;
 }
 
-void draw_chart(cairo_t* cr, const ChartSpec& spec) {
+Drawing chart_drawing(const ChartSpec& spec, const TextMeasure& measure) {
   validate(spec);
   DrawRecord unused;
-  cairo_save(cr);
-  // The renderer paints its white background over everything in reach; keep it to the chart's own box.
-  cairo_rectangle(cr, 0, 0, spec.width, spec.height);
-  cairo_clip(cr);
-  Renderer(cr, spec, unused).draw();
-  cairo_restore(cr);
+  Drawing d;
+  Renderer(measure, spec, unused, d).draw();
+  return d;
+}
+
+void append_chart_svg(std::string& out, const ChartSpec& spec, const TextMeasure& measure) {
+  validate(spec);
+  DrawRecord rec;
+  Drawing d;
+  Renderer(measure, spec, rec, d).draw();
+  append_svg(out, d, spec.title, description(spec), rec);
+}
+
+std::string chart_svg(const ChartSpec& spec) {
+  std::string out;
+  append_chart_svg(out, spec, drawing_backend().text_measure());
+  return out;
 }
 
 std::string render_chart(const ChartSpec& spec, ChartFormat format) {
-  validate(spec);
-  std::string out;
-  DrawRecord rec;
   switch (format) {
-    case ChartFormat::svg: {
-      cairo_surface_t* surface = cairo_svg_surface_create_for_stream(append_to_string_closure, &out, spec.width, spec.height);
-      draw_on(surface, spec, rec, 1.0);
-      cairo_surface_finish(surface);
-      cairo_surface_destroy(surface);
-      return annotate_svg(std::move(out), spec.title, description(spec), rec);
-    }
+    case ChartFormat::svg:
+      return "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n" + chart_svg(spec);
     case ChartFormat::pdf: {
-      cairo_surface_t* surface = cairo_pdf_surface_create_for_stream(append_to_string_closure, &out, spec.width, spec.height);
-      cairo_pdf_surface_set_metadata(surface, CAIRO_PDF_METADATA_TITLE, spec.title.c_str());
-      cairo_pdf_surface_set_metadata(surface, CAIRO_PDF_METADATA_CREATOR, "plumb");
-      draw_on(surface, spec, rec, 1.0);
-      cairo_surface_finish(surface);
-      cairo_surface_destroy(surface);
-      return out;
+      const auto& backend = drawing_backend();
+      return backend.pdf(chart_drawing(spec, backend.text_measure()), spec.title);
     }
     case ChartFormat::png: {
       // Two pixels per point: sharp on screens and in print at the chart's natural size.
-      constexpr double scale = 2.0;
-      cairo_surface_t* surface =
-          cairo_image_surface_create(CAIRO_FORMAT_ARGB32, static_cast<int>(std::ceil(spec.width * scale)),
-                                     static_cast<int>(std::ceil(spec.height * scale)));
-      draw_on(surface, spec, rec, scale);
-      cairo_surface_write_to_png_stream(surface, append_to_string_closure, &out);
-      cairo_surface_destroy(surface);
-      return out;
+      const auto& backend = drawing_backend();
+      return backend.png(chart_drawing(spec, backend.text_measure()), 2.0);
     }
   }
-  return out;
+  return {};
 }
 
 ChartFormat chart_format_for(const std::filesystem::path& path) {

@@ -1,19 +1,19 @@
 #pragma once
 // A chart of an instrument's history, described by a plain ChartSpec (no database, no statistics):
-// the caller fills it from a history query, a control chart or a drift analysis, and render_chart
-// draws it with cairo and pango to SVG, PNG or PDF.
+// the caller fills it from a history query, a control chart or a drift analysis; chart_drawing lays it out
+// once as a Drawing (drawing.hpp), which the SVG writer and the cairo back end write as SVG, PNG or PDF.
 //
 // What the spec asks for follows the chart rules of doc/charts.md: a descriptive title naming instrument,
 // quantity and period; axis labels with units; grid lines with 1-2-5 tick steps; honest scaling (every
 // point with its error bar, the tolerance band and the zero line are always in view); visible points;
 // error bars for the expanded uncertainty; a legend; a trend line with its label; its extrapolated part
 // dashed and labelled "extrapolated"; control lines; flagged points marked.
-#include <cairo.h>
-
 #include <filesystem>
 #include <optional>
 #include <string>
 #include <vector>
+
+#include "report/chart/drawing.hpp"
 
 namespace plumb::report {
 
@@ -128,9 +128,15 @@ enum class ChartFormat { svg, png, pdf };
 /// or a size below 320 x 240.
 std::string render_chart(const ChartSpec& spec, ChartFormat format);
 
-/// Draws the chart on an existing cairo context, its top-left corner at the current origin, in the spec's
-/// size: for charts embedded in documents (PDF certificates). Throws InputError like render_chart.
-void draw_chart(cairo_t* cr, const ChartSpec& spec);
+/// The chart laid out as one Drawing, with text widths from `measure`: what every format writes. Throws
+/// InputError like render_chart.
+Drawing chart_drawing(const ChartSpec& spec, const TextMeasure& measure);
+
+/// The chart as an SVG element with real <text> (no XML declaration): for a file, or inline in an HTML page
+/// (the web application and the HTML report call this). Throws InputError like render_chart.
+std::string chart_svg(const ChartSpec& spec);
+/// The same, appended to `out`, with the given metrics (a test may give fixed ones).
+void append_chart_svg(std::string& out, const ChartSpec& spec, const TextMeasure& measure);
 
 /// Format from the extension (.svg, .png, .pdf); throws InputError naming the path otherwise.
 ChartFormat chart_format_for(const std::filesystem::path& path);

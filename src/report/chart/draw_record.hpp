@@ -1,13 +1,13 @@
 #pragma once
 // What the chart renderer actually drew, noted at the moment of drawing, element by element.
 //
-// Why: cairo's SVG surface writes text as glyph outlines and every shape as an anonymous <path>, so the
-// SVG alone cannot tell a test (or an auditor's script) which text was written or which path is a data
-// point. The renderer therefore keeps this record as it draws and annotate_svg() inserts it into the SVG
-// as <title>, <desc> and a <metadata> block. Because an entry is written only where the element is
-// drawn (a point skipped by a bug leaves no entry), the record describes the drawing, not the spec.
-// The real rendered text is checked separately through the PDF, where pango writes extractable text.
+// Why: a shape in an SVG does not say which data it stands for, so the renderer keeps this record as it draws
+// and the SVG writer puts it in a <metadata> block (namespace urn:x-plumb:chart:1): a test, or an auditor's
+// script, reads which point, limit or trend was drawn where. Because an entry is written only where the element
+// is drawn (a point skipped by a bug leaves no entry), the record describes the drawing, not the spec. The text
+// itself is real <text> in the SVG and real text in the PDF.
 #include <string>
+#include <string_view>
 #include <utility>
 #include <vector>
 
@@ -27,10 +27,5 @@ struct DrawRecord {
 };
 
 std::string xml_escape(std::string_view s);
-
-/// Inserts <title>, <desc> and <metadata> (namespace urn:x-plumb:chart:1) right after the opening
-/// <svg> tag of cairo's output. Throws std::logic_error if `svg` has no <svg> tag.
-std::string annotate_svg(std::string svg, std::string_view title, std::string_view description,
-                         const DrawRecord& record);
 
 }  // namespace plumb::report

@@ -1,4 +1,4 @@
-#include "report/document/demo_logo.hpp"
+#include "report/chart/cairo_backend.hpp"
 
 #include <cairo.h>
 #include <fmt/format.h>
@@ -9,7 +9,7 @@
 
 namespace plumb::report {
 
-void write_demo_logo(const std::filesystem::path& path) {
+void write_demo_logo_with_cairo(const std::filesystem::path& path) {
   constexpr int size = 240;
   cairo_surface_t* surface = cairo_image_surface_create(CAIRO_FORMAT_ARGB32, size, size);
   cairo_t* cr = cairo_create(surface);

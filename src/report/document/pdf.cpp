@@ -5,9 +5,12 @@
 
 #include <algorithm>
 #include <filesystem>
+#include <functional>
 #include <memory>
 #include <stdexcept>
 
+#include "report/chart/cairo_backend.hpp"
+#include "report/chart/cairo_player.hpp"
 #include "report/chart/pango_text.hpp"
 
 namespace plumb::report {
@@ -46,12 +49,13 @@ struct SurfaceDeleter {
   void operator()(cairo_surface_t* s) const { cairo_surface_destroy(s); }
 };
 using Surface = std::unique_ptr<cairo_surface_t, SurfaceDeleter>;
+using ChartLayout = std::function<Drawing(const ChartSpec&)>;
 
 /// Writes the blocks page by page. Run twice: first to count the pages, then to draw with "of N".
 class Flow {
  public:
-  Flow(cairo_t* cr, const Document& doc, cairo_surface_t* logo, int total_pages)
-      : cr_(cr), doc_(doc), logo_(logo), total_(total_pages) {}
+  Flow(cairo_t* cr, const Document& doc, cairo_surface_t* logo, int total_pages, const ChartLayout& lay_out)
+      : cr_(cr), doc_(doc), logo_(logo), total_(total_pages), lay_out_(lay_out) {}
 
   int run() {
     first_header();
@@ -276,7 +280,7 @@ class Flow {
     cairo_save(cr_);
     cairo_translate(cr_, margin_x, y_);
     cairo_scale(cr_, scale, scale);
-    draw_chart(cr_, c.spec);
+    play_drawing(cr_, lay_out_(c.spec));
     cairo_restore(cr_);
     y_ += h + 6;
   }
@@ -321,17 +325,18 @@ class Flow {
   const Document& doc_;
   cairo_surface_t* logo_;
   int total_;
+  const ChartLayout& lay_out_;
   int page_ = 1;
   double y_ = 0, top_of_body_ = 0;
 };
 
-int draw_document(const Document& doc, cairo_surface_t* logo, int total, std::string& out) {
+int draw_document(const Document& doc, cairo_surface_t* logo, int total, const ChartLayout& lay_out, std::string& out) {
   Surface surface(cairo_pdf_surface_create_for_stream(append_to_string_closure, &out, page_w, page_h));
   cairo_pdf_surface_set_metadata(surface.get(), CAIRO_PDF_METADATA_TITLE,
                                  (doc.header.title + " " + doc.header.number).c_str());
   cairo_pdf_surface_set_metadata(surface.get(), CAIRO_PDF_METADATA_CREATOR, "plumb");
   cairo_t* cr = cairo_create(surface.get());
-  const int pages = Flow(cr, doc, logo, total).run();
+  const int pages = Flow(cr, doc, logo, total, lay_out).run();
   const cairo_status_t st = cairo_status(cr);
   cairo_destroy(cr);
   cairo_surface_finish(surface.get());
@@ -342,7 +347,7 @@ int draw_document(const Document& doc, cairo_surface_t* logo, int total, std::st
 
 }  // namespace
 
-RenderedPdf render_pdf(const Document& doc) {
+RenderedPdf render_pdf_with_cairo(const Document& doc, const ChartLayout& lay_out) {
   RenderedPdf result;
   Surface logo;
   if (!doc.header.logo_png.empty()) {
@@ -356,8 +361,8 @@ RenderedPdf render_pdf(const Document& doc) {
   }
   // First pass counts the pages (drawn to a scratch PDF, so text is measured exactly as in the real one).
   std::string scratch;
-  const int pages = draw_document(doc, logo.get(), 0, scratch);
-  result.pages = draw_document(doc, logo.get(), pages, result.bytes);
+  const int pages = draw_document(doc, logo.get(), 0, lay_out, scratch);
+  result.pages = draw_document(doc, logo.get(), pages, lay_out, result.bytes);
   return result;
 }
 
