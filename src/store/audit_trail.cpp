@@ -124,10 +124,9 @@ std::vector<RecordedRow> recorded_rows(const AuditRecord& record) {
   return out;
 }
 
-std::vector<AuditRecord> audit_records(SQLite::Database& db) {
-  SQLite::Statement q(db,
-                      "SELECT seq, at, os_user, actor, action, table_name, row_key, before_json, after_json, reason, "
-                      "prev_hash, hash, user_id FROM audit_log ORDER BY seq");
+namespace {
+
+std::vector<AuditRecord> audit_records_of(SQLite::Statement& q) {
   std::vector<AuditRecord> out;
   while (q.executeStep()) {
     AuditRecord r;
@@ -146,6 +145,29 @@ std::vector<AuditRecord> audit_records(SQLite::Database& db) {
     if (!q.getColumn(12).isNull()) r.user_id = q.getColumn(12).getInt64();
     out.push_back(std::move(r));
   }
+  return out;
+}
+
+constexpr const char* audit_record_columns =
+    "SELECT seq, at, os_user, actor, action, table_name, row_key, before_json, after_json, reason, prev_hash, hash, "
+    "user_id FROM audit_log ";
+
+}  // namespace
+
+std::vector<AuditRecord> audit_records(SQLite::Database& db) {
+  SQLite::Statement q(db, std::string(audit_record_columns) + "ORDER BY seq");
+  return audit_records_of(q);
+}
+
+std::int64_t audit_record_count(SQLite::Database& db) {
+  return db.execAndGet("SELECT count(*) FROM audit_log").getInt64();
+}
+
+std::vector<AuditRecord> latest_audit_records(SQLite::Database& db, std::int64_t limit) {
+  SQLite::Statement q(db, std::string(audit_record_columns) + "ORDER BY seq DESC LIMIT ?");
+  q.bind(1, limit);
+  auto out = audit_records_of(q);
+  std::reverse(out.begin(), out.end());
   return out;
 }
 

@@ -45,6 +45,9 @@ std::vector<RecordedRow> recorded_rows(const AuditRecord& record);
 
 /// The whole trail in sequence order.
 std::vector<AuditRecord> audit_records(SQLite::Database& db);
+/// The last `limit` records of the trail, in order (a page that shows the newest reads no more than it shows).
+std::vector<AuditRecord> latest_audit_records(SQLite::Database& db, std::int64_t limit);
+std::int64_t audit_record_count(SQLite::Database& db);
 
 /// The hash a trail starts from (there is no record before the first).
 std::string genesis_hash();

@@ -26,7 +26,7 @@ std::string history_chart_svg(store::Database& db, const std::string& instrument
   if (series.points.empty())
     throw InputError(fmt::format("instrument {} has no result of {} to draw.", instrument_id, quantity));
   const auto all = app::history_view(db, instrument, {}, {&q});
-  return report::render_chart(app::history_chart(series, all), report::ChartFormat::svg);
+  return report::chart_svg(app::history_chart(series, all));
 }
 
 }  // namespace plumb::web

@@ -11,7 +11,9 @@ namespace plumb::web {
 /// The quantity keys of an instrument that have a result to draw ("bias", "sd", ...).
 std::vector<std::string> chartable_quantities(store::Database& db, const std::string& instrument_id);
 
-/// The history chart of `quantity` as SVG; InputError for an unknown instrument or quantity, or no result.
+/// The history chart of `quantity` as an SVG element whose text is real <text> (report::chart_svg: every text
+/// escaped, no ids, no style attributes), inline in a page or served alone; InputError for an unknown instrument or
+/// quantity, or no result.
 std::string history_chart_svg(store::Database& db, const std::string& instrument_id, const std::string& quantity);
 
 }  // namespace plumb::web

@@ -136,10 +136,14 @@ WebResponse instrument_item_page(PageContext& c) {
   json page = app::instrument_page(c.db, instrument.kind, id, today_local());
   json charts = json::array();
   for (const auto& key : chartable_quantities(c.db, id))
-    charts.push_back({{"quantity", key}, {"src", fmt::format("/instruments/{}/chart/{}.svg", id, key)}});
+    charts.push_back({{"quantity", key},
+                      {"src", fmt::format("/instruments/{}/chart/{}.svg", id, key)},
+                      {"svg", history_chart_svg(c.db, id, key)}});
   page["charts"] = charts;
   page["is_balance"] = instrument.kind == "balance";
-  const auto log = app::audit_log(c.db, {id, std::nullopt, std::nullopt, std::nullopt, std::nullopt});
+  app::AuditLogFilter filter;
+  filter.instrument = id;
+  const auto log = app::audit_log(c.db, filter);
   page["audit"] = report::audit_log_json(log.scope, log.records, log.authors);
   return html_page("instrument", instrument.title, page, c.visitor);
 }
@@ -181,17 +185,18 @@ WebResponse audit_page(PageContext& c) {
   app::AuditLogFilter filter;
   if (!c.request.param("from").empty()) filter.from = c.request.param("from");
   if (!c.request.param("to").empty()) filter.to = c.request.param("to");
+  // The newest first, at most 500 on one page (the CLI's `audit log` gives all of them).
+  filter.newest = 500;
   const auto log = app::audit_log(c.db, filter);
   json j = report::audit_log_json(log.scope, log.records, log.authors);
-  // The newest first, at most 500 on one page (the CLI's `audit log` gives all of them).
   json records = json::array();
   const auto& all = j["records"];
-  const std::size_t shown = std::min<std::size_t>(all.size(), 500);
+  const std::size_t shown = all.size();
   for (std::size_t i = 0; i < shown; ++i) records.push_back(all[all.size() - 1 - i]);
   return html_page("audit", "Audit trail",
                    {{"scope", log.scope},
                     {"records", records},
-                    {"total", all.size()},
+                    {"total", log.total},
                     {"shown", shown},
                     {"from", c.request.param("from")},
                     {"to", c.request.param("to")}},

@@ -177,7 +177,7 @@ TEST_CASE("certificate queue: drafts oldest first with their wait, and approving
   r = run_plumb({"--db", db, "certificate", "queue", "--on", five_days_on}, dir.path());
   must(r);
   CHECK_THAT(r.out, Catch::StartsWith("Awaiting approval on " + five_days_on + ": 2 draft certificate(s)") &&
-                        Catch::Contains("5 days") && Catch::Contains("someone other than the person who performed"));
+                        Catch::Contains("5 days") && Catch::Contains("someone other than the user who recorded or corrected"));
   // The day they were issued, they have waited less than a day.
   r = run_plumb({"--db", db, "certificate", "queue", "--on", issued}, dir.path());
   must(r);

@@ -403,6 +403,19 @@ TEST_CASE("plumb serve: a weekly check is previewed and recorded by the same cod
   CHECK_THAT(run["mean_g"].get<double>(), plumb::test::within_fraction_of_d(100.00023, plumb::test::mg(0.1), 100));
   CHECK(run["verdict"] == "pass");
   CHECK(run_plumb({"--db", db, "audit", "verify"}, dir.path()).status == 0);
+
+  // The instrument's page draws the recorded run inline: an SVG whose labels are text, with no style attribute the
+  // page's CSP would block, and one dot per result (one run: one circle in the bias chart).
+  const auto page = b.get("/instruments/BAL-A");
+  REQUIRE(page);
+  CHECK(page->status == 200);
+  const std::string& body = page->body;
+  const auto svg = body.find("<figure class=\"chart\"><svg ");
+  REQUIRE(svg != std::string::npos);
+  const std::string chart = body.substr(svg, body.find("</figure>", svg) - svg);
+  CHECK_THAT(chart, Catch::Contains("<text") && Catch::Contains("BAL-A"));
+  CHECK_THAT(chart, !Catch::Contains("style=") && !Catch::Contains("<symbol"));
+  CHECK_THAT(body, !Catch::Contains("<img src=\"/instruments/BAL-A/chart/"));
 }
 
 TEST_CASE("plumb serve: a technician cannot approve, a reviewer signs with the password and a meaning", "[web]") {

@@ -114,9 +114,18 @@ AuditLog audit_log(store::Database& db, const AuditLogFilter& filter) {
     log.records = of_certificate(store::audit_records(db.sql()), cert);
   } else {
     log.scope = "the whole lab";
-    log.records = store::audit_records(db.sql());
+    if (filter.newest && !filter.from && !filter.to && !filter.author) {
+      // A page of the newest records reads only those: the whole trail may hold millions.
+      log.records = store::latest_audit_records(db.sql(), *filter.newest);
+      log.total = store::audit_record_count(db.sql());
+    } else {
+      log.records = store::audit_records(db.sql());
+    }
   }
   narrow(db, log, filter);
+  if (log.total == 0) log.total = static_cast<std::int64_t>(log.records.size());
+  if (filter.newest && static_cast<std::int64_t>(log.records.size()) > *filter.newest)
+    log.records.erase(log.records.begin(), log.records.end() - *filter.newest);
   for (const auto& u : store::all_users(db.sql())) log.authors.logins.emplace(u.id, u.login);
   log.authors.first_account_seq = store::first_account_record(db.sql());
   return log;

@@ -17,12 +17,14 @@ struct AuditLogFilter {
   std::optional<std::string> certificate;  ///< a certificate number (or run number / LAST)
   std::optional<std::string> from, to;     ///< --from / --to: UTC dates, YYYY-MM-DD, inclusive
   std::optional<std::string> author;       ///< --author: only the records written by this user account (its login)
+  std::optional<std::int64_t> newest;      ///< only the last N records of the whole lab (no other filter)
 };
 
 struct AuditLog {
   std::string scope;  ///< "the whole lab", "instrument BAL-A", "certificate BC-2026-0001"
   std::vector<store::AuditRecord> records;
   report::AuditAuthors authors;  ///< who wrote each record
+  std::int64_t total = 0;         ///< records in the scope before `newest` kept only the last ones
 };
 
 /// The records of the trail that concern the filter's subject, in order. An instrument's records are its
