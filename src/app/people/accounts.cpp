@@ -119,7 +119,7 @@ void record_first_administrator(store::Database& db, store::Recorder& rec, const
 
 store::Actor add_first_administrator(store::Database& db, const NewUser& admin) {
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
-  const store::Actor actor = first_administrator(db, admin);
+  store::Actor actor = first_administrator(db, admin);
   store::Recorder rec(db.sql(), actor);
   record_first_administrator(db, rec, admin);
   rec.commit(tx);
