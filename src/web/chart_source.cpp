@@ -9,12 +9,16 @@
 
 namespace plumb::web {
 
-std::vector<std::string> chartable_quantities(store::Database& db, const std::string& instrument_id) {
+std::vector<InstrumentChart> instrument_charts(store::Database& db, const std::string& instrument_id) {
   const auto instrument = app::find_instrument(db, instrument_id);
-  std::vector<std::string> out;
+  std::vector<InstrumentChart> out;
   for (const auto& key : app::quantity_keys(instrument.kind)) {
     const auto q = app::find_quantity(key, instrument);
-    if (!app::series_view(db, instrument, q, {}).points.empty()) out.push_back(key);
+    // Each quantity's series is read once: for the test "anything to draw?" and for the chart itself.
+    const auto series = app::series_view(db, instrument, q, {});
+    if (series.points.empty()) continue;
+    const auto all = app::history_view(db, instrument, {}, {&q});
+    out.push_back({key, report::chart_svg(app::history_chart(series, all))});
   }
   return out;
 }

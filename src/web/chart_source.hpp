@@ -8,8 +8,13 @@
 
 namespace plumb::web {
 
-/// The quantity keys of an instrument that have a result to draw ("bias", "sd", ...).
-std::vector<std::string> chartable_quantities(store::Database& db, const std::string& instrument_id);
+struct InstrumentChart {
+  std::string quantity;  ///< "bias", "sd", ...
+  std::string svg;       ///< as history_chart_svg draws it
+};
+
+/// The history chart of every quantity of an instrument that has a result to draw, in the quantities' order.
+std::vector<InstrumentChart> instrument_charts(store::Database& db, const std::string& instrument_id);
 
 /// The history chart of `quantity` as an SVG element whose text is real <text> (report::chart_svg: every text
 /// escaped, no ids, no style attributes), inline in a page or served alone; InputError for an unknown instrument or

@@ -135,10 +135,10 @@ WebResponse instrument_item_page(PageContext& c) {
   const auto instrument = app::find_instrument(c.db, id);
   json page = app::instrument_page(c.db, instrument.kind, id, today_local());
   json charts = json::array();
-  for (const auto& key : chartable_quantities(c.db, id))
-    charts.push_back({{"quantity", key},
-                      {"src", fmt::format("/instruments/{}/chart/{}.svg", id, key)},
-                      {"svg", history_chart_svg(c.db, id, key)}});
+  for (const auto& chart : instrument_charts(c.db, id))
+    charts.push_back({{"quantity", chart.quantity},
+                      {"src", fmt::format("/instruments/{}/chart/{}.svg", id, chart.quantity)},
+                      {"svg", chart.svg}});
   page["charts"] = charts;
   page["is_balance"] = instrument.kind == "balance";
   app::AuditLogFilter filter;
