@@ -39,15 +39,6 @@ plumb::test::RunResult as_user(const std::string& db, const std::string& login, 
   return run_plumb(args, dir.path());
 }
 
-std::string sql(const std::string& db, const std::string& query) {
-  const std::string cmd = "sqlite3 '" + db + "' \"" + query + "\" > '" + db + ".sql.txt'";
-  REQUIRE(std::system(cmd.c_str()) == 0);
-  std::ifstream in(db + ".sql.txt");
-  std::stringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
-
 /// The example lab with a passing weekly check of BAL-A recorded by "A. Technician" and its certificate issued.
 std::string lab_with_certificate(const ScratchDir& dir) {
   const auto db = plumb::test::example_lab(dir).string();
@@ -76,13 +67,14 @@ TEST_CASE("a new database is created with its first administrator, folder 0700 a
   REQUIRE(r.status == 0);
   CHECK(mode_of(dir.path() / "new-folder") == 0700);
   CHECK(mode_of(db) == 0600);
-  CHECK(sql(db, "SELECT id, login, full_name FROM users") == "1|ada|Ada Quill\n");
-  CHECK(sql(db, "SELECT role FROM account_events WHERE user_id = 1") == "administrator\n");
+  CHECK(plumb::test::sqlite_shell(db, "SELECT id, login, full_name FROM users") == "1|ada|Ada Quill\n");
+  CHECK(plumb::test::sqlite_shell(db, "SELECT role FROM account_events WHERE user_id = 1") == "administrator\n");
   // Every record of the new database names the administrator's account.
-  CHECK(sql(db, "SELECT count(*) FROM audit_log WHERE user_id IS NOT 1") == "0\n");
+  CHECK(plumb::test::sqlite_shell(db, "SELECT count(*) FROM audit_log WHERE user_id IS NOT 1") == "0\n");
   // The password is kept only as an Argon2id hash.
-  CHECK(sql(db, "SELECT substr(hash, 1, 10) FROM passwords") == "$argon2id$\n");
-  CHECK(sql(db, "SELECT count(*) FROM passwords WHERE hash LIKE '%a long admin password%'") == "0\n");
+  CHECK(plumb::test::sqlite_shell(db, "SELECT substr(hash, 1, 10) FROM passwords") == "$argon2id$\n");
+  CHECK(plumb::test::sqlite_shell(db, "SELECT count(*) FROM passwords WHERE hash LIKE '%a long admin password%'") ==
+        "0\n");
 }
 
 TEST_CASE("the administrator manages accounts and nothing else, and roles decide who may do what", "[people]") {
@@ -116,7 +108,8 @@ TEST_CASE("the administrator manages accounts and nothing else, and roles decide
   r = as_user(db, "test-admin", admin_pw, {"user", "grant", "test-admin", "--role", "reviewer"}, dir);
   CHECK(r.status == 4);
   CHECK(r.err.find("may not change the roles of their own account") != std::string::npos);
-  CHECK(sql(db,
+  CHECK(plumb::test::sqlite_shell(
+            db,
             "SELECT event, role FROM account_events WHERE user_id = (SELECT id FROM users WHERE login = 'tina') "
             "ORDER BY id") == "role granted|technician\nrole granted|reviewer\n");
   r = as_user(db, "test-admin", admin_pw, {"user", "revoke", "tina", "--role", "reviewer", "--reason", "trial over"},
@@ -149,7 +142,7 @@ TEST_CASE("a user id is never reused and a deactivated user cannot log in", "[pe
   CHECK(r.status == 2);
   CHECK(r.err == "plumb: user id \"omar\" exists already (Omar Lindqvist); user ids are never reused.\n");
   // Numeric ids are never reused either, even if rows were deleted behind plumb's back (AUTOINCREMENT).
-  const std::string before = sql(db, "SELECT max(id) FROM users");
+  const std::string before = plumb::test::sqlite_shell(db, "SELECT max(id) FROM users");
   REQUIRE(std::system(("sqlite3 '" + db +
                        "' \"DROP TRIGGER users_no_delete; DROP TRIGGER account_events_no_delete; DROP TRIGGER "
                        "passwords_no_delete; DELETE FROM account_events WHERE "
@@ -162,7 +155,8 @@ TEST_CASE("a user id is never reused and a deactivated user cannot log in", "[pe
               dir);
   INFO(r.err);
   REQUIRE(r.status == 0);
-  CHECK(std::stoi(sql(db, "SELECT id FROM users WHERE login = 'nadia'")) == std::stoi(before) + 1);
+  CHECK(std::stoi(plumb::test::sqlite_shell(db, "SELECT id FROM users WHERE login = 'nadia'")) ==
+        std::stoi(before) + 1);
 }
 
 TEST_CASE("failed log-ins lock the account at the lab's limit, and that is recorded", "[people]") {
@@ -185,7 +179,8 @@ TEST_CASE("failed log-ins lock the account at the lab's limit, and that is recor
   auto r = as_user(db, "lea", first, {"login"}, dir);
   CHECK(r.status == 4);
   CHECK(r.err.find("the account lea is locked after 3 failed log-ins") != std::string::npos);
-  CHECK(sql(db,
+  CHECK(plumb::test::sqlite_shell(
+            db,
             "SELECT event FROM account_events WHERE user_id = (SELECT id FROM users WHERE login = 'lea') AND "
             "event IN ('failed log-in', 'locked') ORDER BY id") ==
         "failed log-in\nfailed log-in\nfailed log-in\nlocked\n");
@@ -213,7 +208,7 @@ TEST_CASE("an administrator's password reset forces a change, so the administrat
   auto r = as_user(db, manager, temporary, {"certificate", "approve", "1", "--meaning", "reviewed and approved"}, dir);
   CHECK(r.status == 4);
   CHECK(r.err.find("was set by an administrator and must be changed before anything else") != std::string::npos);
-  CHECK(sql(db, "SELECT count(*) FROM certificate_events") == "0\n");
+  CHECK(plumb::test::sqlite_shell(db, "SELECT count(*) FROM certificate_events") == "0\n");
   // The user changes it; then the approval goes through, signed by that user.
   const auto own = secret_file(dir, "own.pw", "the manager's own password");
   REQUIRE(as_user(db, manager, temporary, {"user", "password", "--new-password-file", own}, dir).status == 0);
@@ -244,8 +239,8 @@ TEST_CASE("a session: token file 0600, only its SHA-256 stored, ends at logout o
   std::string token;
   std::getline(in, token);
   CHECK(token.size() == 64);
-  CHECK(sql(db, "SELECT count(*) FROM sessions WHERE token_sha256 = '" + token + "'") == "0\n");
-  CHECK(sql(db, "SELECT count(*) FROM sessions") == "1\n");
+  CHECK(plumb::test::sqlite_shell(db, "SELECT count(*) FROM sessions WHERE token_sha256 = '" + token + "'") == "0\n");
+  CHECK(plumb::test::sqlite_shell(db, "SELECT count(*) FROM sessions") == "1\n");
   // --user with --password-stdin is what this test passes; a session alone runs a command that writes ...
   r = run_plumb({"--db", db, "--password-stdin", "certificate", "issue", "1"}, dir.path(), "\n");
   CHECK(r.status == 0);
@@ -265,7 +260,7 @@ TEST_CASE("a session: token file 0600, only its SHA-256 stored, ends at logout o
   r = run_plumb({"--db", db, "--password-stdin", "certificate", "issue", "1"}, dir.path(), "\n");
   CHECK(r.status == 4);
   CHECK(r.err.find("ended after more than 15 minutes idle") != std::string::npos);
-  CHECK(sql(db, "SELECT why FROM session_ends") == "idle\n");
+  CHECK(plumb::test::sqlite_shell(db, "SELECT why FROM session_ends") == "idle\n");
   r = run_plumb({"--db", db, "--password-stdin", "logout"}, dir.path(), "");
   CHECK(r.status == 0);
   CHECK(!std::filesystem::exists(token_file));
@@ -296,17 +291,18 @@ TEST_CASE("a signature holds the signer's id, printed name, UTC time, meaning an
                 dir.path());
   INFO(r.err);
   REQUIRE(r.status == 0);
-  const auto row =
-      sql(db,
-          "SELECT s.user_id = u.id, s.printed_name, s.meaning, s.table_name, s.row_key, "
-          "s.signed_at GLOB '[0-9][0-9][0-9][0-9]-[0-9][0-9]-[0-9][0-9]T[0-9][0-9]:[0-9][0-9]:[0-9][0-9]Z' "
-          "FROM signatures s JOIN users u ON u.full_name = 'Q. Manager'");
+  const auto row = plumb::test::sqlite_shell(
+      db,
+      "SELECT s.user_id = u.id, s.printed_name, s.meaning, s.table_name, s.row_key, "
+      "s.signed_at GLOB '[0-9][0-9][0-9][0-9]-[0-9][0-9]-[0-9][0-9]T[0-9][0-9]:[0-9][0-9]:[0-9][0-9]Z' "
+      "FROM signatures s JOIN users u ON u.full_name = 'Q. Manager'");
   CHECK(row == "1|Q. Manager|reviewed and approved|certificates|id=1|1\n");
   // The signed SHA-256 is that of the certificate's record in the trail, computed here by sqlite3's own
   // SHA-256 is not available, so with sha256sum (GNU coreutils) over the stored after_json.
-  const std::string content = sql(db,
-                                  "SELECT after_json FROM audit_log WHERE table_name = 'certificates' AND "
-                                  "row_key = 'id=1'");
+  const std::string content =
+      plumb::test::sqlite_shell(db,
+                                "SELECT after_json FROM audit_log WHERE table_name = 'certificates' AND "
+                                "row_key = 'id=1'");
   dir.write("signed.txt", content.substr(0, content.size() - 1));
   REQUIRE(std::system(("sha256sum '" + dir.file("signed.txt").string() + "' | cut -c1-64 > '" +
                        dir.file("sum.txt").string() + "'")
@@ -314,7 +310,7 @@ TEST_CASE("a signature holds the signer's id, printed name, UTC time, meaning an
   std::ifstream sum(dir.file("sum.txt"));
   std::string expected;
   std::getline(sum, expected);
-  CHECK(sql(db, "SELECT signed_sha256 FROM signatures") == expected + "\n");
+  CHECK(plumb::test::sqlite_shell(db, "SELECT signed_sha256 FROM signatures") == expected + "\n");
   // Every rendering reads the stored status: JSON has the signature, text names it.
   r = run_plumb({"--db", db, "certificate", "show", "1", "--format", "json"}, dir.path());
   const json doc = json::parse(r.out);

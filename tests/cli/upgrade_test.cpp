@@ -18,16 +18,6 @@ using plumb::test::ScratchDir;
 
 namespace {
 
-std::string query(const std::filesystem::path& db, const std::string& sql) {
-  const std::string out = db.string() + ".query.txt";
-  const std::string cmd = "sqlite3 '" + db.string() + "' \"" + sql + "\" > '" + out + "'";
-  REQUIRE(std::system(cmd.c_str()) == 0);
-  std::ifstream in(out);
-  std::stringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
-
 std::filesystem::path old_database(const ScratchDir& dir) {
   const auto fixture = plumb::test::source_dir() / "tests" / "fixtures" / "pre-accounts" / "lab.sql";
   REQUIRE(std::filesystem::exists(fixture));
@@ -52,9 +42,9 @@ TEST_CASE("a database from before user accounts opens, keeps its records as they
   const auto db = old_database(dir);
   // What the older plumb wrote (make.sh): the lab, W100 and its certificate, BAL-7 with its balance row, two runs by
   // "Rui Tanabe", two certificates, the first approved by "Hana Okafor".
-  REQUIRE(query(db, "PRAGMA user_version") == "10\n");
-  const std::string records_before = query(db, "SELECT count(*) FROM audit_log");
-  const std::string first_hashes = query(db, "SELECT group_concat(hash) FROM audit_log");
+  REQUIRE(plumb::test::sqlite_shell(db, "PRAGMA user_version") == "10\n");
+  const std::string records_before = plumb::test::sqlite_shell(db, "SELECT count(*) FROM audit_log");
+  const std::string first_hashes = plumb::test::sqlite_shell(db, "SELECT group_concat(hash) FROM audit_log");
 
   // The older records are read at once, each still chained as it was.
   auto r = run_plumb({"--db", db.string(), "audit", "log", "--format", "json"}, dir.path());
@@ -67,7 +57,8 @@ TEST_CASE("a database from before user accounts opens, keeps its records as they
     CHECK(rec["user"] == "written before user accounts");
   }
   CHECK(old_log["records"].back()["actor"] == "Rui Tanabe");
-  CHECK(query(db, "PRAGMA user_version") != "10\n");  // the migrations since then were applied on opening
+  CHECK(plumb::test::sqlite_shell(db, "PRAGMA user_version") !=
+        "10\n");  // the migrations since then were applied on opening
 
   // Nothing is written before the lab's key exists; then the older records are covered by its first checkpoint.
   r = run_plumb({"--db", db.string(), "key", "create"}, dir.path());
@@ -85,7 +76,7 @@ TEST_CASE("a database from before user accounts opens, keeps its records as they
   REQUIRE(r.status == 0);
   CHECK_THAT(r.out, Catch::Contains("Added the first administrator hokafor (Hana Okafor)"));
   // A database that holds records never takes the test-only fast hashing, whatever the environment says.
-  CHECK(query(db, "SELECT password_hashing FROM security_settings") == "moderate\n");
+  CHECK(plumb::test::sqlite_shell(db, "SELECT password_hashing FROM security_settings") == "moderate\n");
 
   // A reviewer approves the older draft (its run has no user id: nobody's account recorded it).
   const auto first_pw = secret_file(dir, "first.pw", "a first reviewer password");
@@ -107,16 +98,17 @@ TEST_CASE("a database from before user accounts opens, keeps its records as they
   REQUIRE(r.status == 0);
 
   // The older records are unchanged (same hashes, in the same order) and still say who wrote them then.
-  CHECK(query(db, "SELECT group_concat(hash) FROM (SELECT hash FROM audit_log WHERE seq <= " +
-                      records_before.substr(0, records_before.size() - 1) + " ORDER BY seq)") == first_hashes);
+  CHECK(plumb::test::sqlite_shell(db, "SELECT group_concat(hash) FROM (SELECT hash FROM audit_log WHERE seq <= " +
+                                          records_before.substr(0, records_before.size() - 1) + " ORDER BY seq)") ==
+        first_hashes);
   r = run_plumb({"--db", db.string(), "audit", "log"}, dir.path());
   REQUIRE(r.status == 0);
   CHECK_THAT(r.out, Catch::Contains("  Rui Tanabe [written before user accounts]  recorded check run 2 on BAL-7") &&
                         Catch::Contains("  Hana Okafor [hokafor]  added user hokafor") &&
                         Catch::Contains("  Lise Moreau [lmoreau]  approved certificate"));
   // Every record since the first account names one.
-  CHECK(query(db, "SELECT count(*) FROM audit_log WHERE user_id IS NULL AND seq > " +
-                      records_before.substr(0, records_before.size() - 1)) == "0\n");
+  CHECK(plumb::test::sqlite_shell(db, "SELECT count(*) FROM audit_log WHERE user_id IS NULL AND seq > " +
+                                          records_before.substr(0, records_before.size() - 1)) == "0\n");
 
   // The whole history verifies offline with the public key alone.
   r = run_plumb({"--db", db.string(), "audit", "verify", "--public-key", dir.file("old.db.pub").string()}, dir.path());

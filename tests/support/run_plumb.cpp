@@ -329,6 +329,15 @@ std::string dump_database(const std::filesystem::path& db) {
   return text;
 }
 
+std::string sqlite_shell(const std::filesystem::path& db, const std::string& sql) {
+  const auto out = db.string() + ".query.txt";
+  const std::string cmd = "sqlite3 " + quote(db.string()) + " " + quote(sql) + " > " + quote(out);
+  if (std::system(cmd.c_str()) != 0) throw std::runtime_error("sqlite3 failed for " + db.string() + ": " + sql);
+  std::string text = slurp(out);
+  std::filesystem::remove(out);
+  return text;
+}
+
 std::filesystem::path example_lab(const ScratchDir& dir) {
   const auto db = dir.file("lab.db");
   const std::vector<std::vector<std::string>> steps = {

@@ -88,6 +88,10 @@ class PlumbProcess {
 /// `sqlite3 DB .dump`: the whole content of a database as SQL text, for before/after comparison.
 std::string dump_database(const std::filesystem::path& db);
 
+/// What the sqlite3 shell prints for `sql` on `db` (rows as `a|b`, one per line): SQLite's own view of a database,
+/// independent of plumb's code.
+std::string sqlite_shell(const std::filesystem::path& db, const std::string& sql);
+
 /// Sets up the lab of the weekly-check example: lab, W100 and BAL-A. Returns the database path.
 std::filesystem::path example_lab(const ScratchDir& dir);
 
