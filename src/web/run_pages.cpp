@@ -79,7 +79,10 @@ WebResponse run_view(PageContext& c, std::int64_t id, const json& refusal, int s
                   {"verdict", r.value("verdict", "")},
                   {"standing", standing},
                   {"current", run->current()},
-                  {"voided", run->voided ? json{{"reason", run->voided->reason}} : json()},
+                  {"voided", run->voided ? json{{"reason", run->voided->reason},
+                                                {"by", run->voided->by_name},
+                                                {"at", run->voided->recorded_at}}
+                                         : json()},
                   {"supersedes", run->supersedes ? json(*run->supersedes) : json()},
                   {"superseded_by", run->superseded_by ? json(*run->superseded_by) : json()},
                   {"correction_reason", run->supersedes ? json(run->reason) : json()},

@@ -84,6 +84,28 @@ async function shot(page, name) {
   console.log("browser test: screenshot " + name + ".png of " + page.url());
 }
 
+// Waits for `selector` to read `text`; else fails with what the page shows instead (its refusals and the element).
+async function waitForText(page, selector, text, what) {
+  try {
+    await page.waitForFunction((sel, want) => {
+      const e = document.querySelector(sel);
+      return e && e.textContent.trim() === want;
+    }, { timeout: 15000 }, selector, text);
+  } catch (e) {
+    await shot(page, "failed-" + what);
+    const shown = await page.$$eval("p.refusal:not([hidden]), " + selector, (all) => all.map((x) => x.textContent.trim()));
+    fail(what + ": " + selector + " never read \"" + text + "\"; the page shows: " + JSON.stringify(shown));
+  }
+}
+
+// The caret after the last character of a text box (below the header line it starts with).
+async function toEndOf(page, selector) {
+  await page.focus(selector);
+  await page.keyboard.down("Control");
+  await page.keyboard.press("End");
+  await page.keyboard.up("Control");
+}
+
 async function logIn(page, address, login, password) {
   await page.goto(address + "login");
   await page.type("#login", login);
@@ -194,13 +216,9 @@ async function main() {
     await page.type("#water_temp", "20C");
     await page.type("#pressure", "1013hPa");
     await page.type("#humidity", "50%");
-    await page.focus("#readings");
-    await page.keyboard.press("End");
+    await toEndOf(page, "#readings");
     await page.keyboard.type(pipetteWeighings.map((w) => "1000uL,1," + w).join("\n"));
-    await page.waitForFunction(() => {
-      const v = document.getElementById("preview-verdict");
-      return v && v.textContent.trim() === "P-12: pass";
-    }, { timeout: 15000 });
+    await waitForText(page, "#preview-verdict", "P-12: pass", "pipette-preview");
     await shot(page, "08-pipette-check-preview");
     await Promise.all([page.waitForNavigation(), page.click("#pipette-form button[value=record]")]);
     const pipetteVerdict = await page.$eval("#preview-verdict", (e) => e.textContent.trim());
@@ -250,8 +268,7 @@ async function main() {
     await plain.goto(address + "checks/new");
     await plain.select("#balance", "BAL-A");
     await plain.select("#weight", "W100");
-    await plain.focus("#readings");
-    await plain.keyboard.press("End");
+    await toEndOf(plain, "#readings");
     await plain.keyboard.type(readings.join("\n"));
     await Promise.all([plain.waitForNavigation(), plain.click("#check-form button[value=preview]")]);
     const plainPreview = await plain.$eval("#preview-verdict", (e) => e.textContent.trim());
@@ -263,9 +280,7 @@ async function main() {
     const plainVerdict = await plain.$eval("#verdict", (e) => e.textContent.trim());
     if (plainVerdict !== "BAL-A: pass") fail("without JavaScript the recorded check says \"" + plainVerdict + "\"");
     await shot(plain, "16-no-javascript-recorded");
-    await plain.close();
-
-    await logIn(page, address, "tess", "tess-password-for-the-test");
+    await plain.close();  // its session (the browser's cookies) stays: the pages below are tess's
     await page.goto(address + "instruments/BAL-A");
     await shot(page, "17-instrument");
     await page.goto(address + "audit");
