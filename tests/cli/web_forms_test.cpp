@@ -133,6 +133,8 @@ TEST_CASE("plumb serve: a pipette check is previewed and recorded by the same co
   CHECK_THAT(r->body, Catch::Contains("<option value=\"P-07\">P-07 · 100 uL · 1 channel(s) · ISO 8655:2002"));
   CHECK_THAT(r->body, Catch::Contains("<option value=\"SM-02\">SM-02 · d = 0.01 mg"));
   const std::string csrf = b.csrf_of("/pipette-checks/new");
+  Browser admin(served.port());
+  REQUIRE(admin.log_in("ada", ada)->status == 303);
   const std::string before = records_of(db);
 
   // The live preview: the figures worked by hand (above), printed to 4 decimals of a microlitre.
@@ -183,8 +185,6 @@ TEST_CASE("plumb serve: a pipette check is previewed and recorded by the same co
   CHECK_THAT(r->body, Catch::Contains("Preview (nothing recorded yet)") && Catch::Contains("<td>100.0153 µL</td>"));
 
   // Refused: an administrator does not record checks; a form without the session's token.
-  Browser admin(served.port());
-  REQUIRE(admin.log_in("ada", ada)->status == 303);
   r = admin.post("/pipette-checks", pipette_form(admin.csrf_of("/")));
   REQUIRE(r);
   CHECK(r->status == 403);
@@ -232,6 +232,8 @@ TEST_CASE("plumb serve: a calibration run file is uploaded to the CLI's own cali
                                            {"on", "2026-11-30", "", ""},
                                            {"run_file", file, "cal.csv", "text/csv"}};
   };
+  Browser admin(served.port());
+  REQUIRE(admin.log_in("ada", ada)->status == 303);
   const std::string before = records_of(db);
 
   // A load of a weight the lab does not have: the CLI's sentence (naming the file, line and value) beside the file.
@@ -260,8 +262,6 @@ TEST_CASE("plumb serve: a calibration run file is uploaded to the CLI's own cali
   r = b.post_multipart("/calibrations", form(plumb::test::calibration_run_file(), ""));
   REQUIRE(r);
   CHECK(r->status == 403);
-  Browser admin(served.port());
-  REQUIRE(admin.log_in("ada", ada)->status == 303);
   r = admin.post_multipart("/calibrations", form(plumb::test::calibration_run_file(), admin.csrf_of("/")));
   REQUIRE(r);
   CHECK(r->status == 403);
@@ -460,8 +460,10 @@ TEST_CASE("plumb serve: the users page is an administrator's, and does what `plu
   CHECK(res->status == 303);
   const auto listed = run_plumb({"--db", db, "user", "list", "--format", "json"}, dir.path());
   REQUIRE(listed.status == 0);
+  INFO(listed.out);
   bool nora = false, tina_off = false;
-  for (const auto& u : json::parse(listed.out)["users"]) {
+  const json accounts = json::parse(listed.out);
+  for (const auto& u : accounts["users"]) {
     if (u["id"] == "nora") {
       nora =
           u["name"] == "Nora Newcomer" && u["roles"] == json::array({"reviewer"}) && u["must_change_password"] == true;
@@ -478,4 +480,40 @@ TEST_CASE("plumb serve: the users page is an administrator's, and does what `plu
   CHECK(n.cookies.count("plumb_session") == 0);
   CHECK(t.get("/")->status == 303);
   CHECK(run_plumb({"--db", db, "audit", "verify"}, dir.path()).status == 0);
+}
+
+TEST_CASE("plumb serve: without JavaScript the weekly check's Preview button shows the server's preview", "[web]") {
+  ScratchDir dir;
+  const auto db = plumb::test::example_lab(dir).string();
+  const auto tina = add_user(db, dir, "tina", "Tina Bench", "technician");
+  plumb::test::prepare_login({"--db", db}, dir.path());
+  Served served(db, dir);
+  Browser b(served.port());
+  REQUIRE(b.log_in("tina", tina)->status == 303);
+  const std::string csrf = b.csrf_of("/checks/new");
+  CHECK_THAT(b.get("/checks/new")->body, Catch::Contains("name=\"intent\" value=\"preview\""));
+  const std::string before = records_of(db);
+  // The readings of web_server_test.cpp, worked by hand in tests/unit/repeatability_test.cpp: mean 100.00023 g,
+  // s = 0.0948683 mg, bias +0.2 mg.
+  const std::string readings =
+      "reading\n100.0003\n100.0001\n100.0002\n100.0004\n100.0002\n100.0003\n100.0001\n100.0002\n100.0003\n100.0002\n";
+  const httplib::Params form = {{"balance", "BAL-A"}, {"weight", "W100"},    {"readings", readings},
+                                {"on", "2026-11-30"}, {"intent", "preview"}, {"csrf", csrf}};
+  auto r = b.post("/checks", form);
+  REQUIRE(r);
+  CHECK(r->status == 200);
+  CHECK_THAT(r->body, Catch::Contains("Preview (nothing recorded yet)") && Catch::Contains("<dd>100.00023 g</dd>") &&
+                          Catch::Contains("<dd>0.0949 mg</dd>") && Catch::Contains(">pass</p>"));
+  // The form comes back as typed, ready for "Record".
+  CHECK_THAT(r->body, Catch::Contains("100.0004\n100.0002"));
+  CHECK(records_of(db) == before);
+  // A refusal from the Preview button: beside its field, and nothing written.
+  auto bad = form;
+  bad.erase("readings");
+  bad.emplace("readings", "reading\n100.0003\n100.00031\n");
+  r = b.post("/checks", bad);
+  REQUIRE(r);
+  CHECK(r->status == 400);
+  CHECK_THAT(r->body, Catch::Contains("<p class=\"refusal\" id=\"readings-error\">readings line 3:"));
+  CHECK(records_of(db) == before);
 }
