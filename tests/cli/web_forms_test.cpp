@@ -103,6 +103,12 @@ std::string pipette_lab(const ScratchDir& dir) {
                                  "--on", "2026-11-30", "--as", "A. Technician"},
         std::vector<std::string>{"--db", db, "pipette", "add", "P-07", "--nominal", "100uL", "--range", "fixed",
                                  "--every", "3mo", "--location", "Lab 2", "--since", "2026-06-01", "--as",
+                                 "Q. Manager"},
+        // A retired pipette is not offered on the form.
+        std::vector<std::string>{"--db", db, "pipette", "add", "P-08", "--nominal", "100uL", "--range", "fixed",
+                                 "--every", "3mo", "--location", "Lab 2", "--since", "2026-06-01", "--as",
+                                 "Q. Manager"},
+        std::vector<std::string>{"--db", db, "instrument", "retire", "P-08", "--reason", "tip cone cracked", "--as",
                                  "Q. Manager"}}) {
     const auto r = run_plumb(step, dir.path());
     INFO(r.err);
@@ -132,6 +138,7 @@ TEST_CASE("plumb serve: a pipette check is previewed and recorded by the same co
   CHECK(r->status == 200);
   CHECK_THAT(r->body, Catch::Contains("<option value=\"P-07\">P-07 · 100 uL · 1 channel(s) · ISO 8655:2002"));
   CHECK_THAT(r->body, Catch::Contains("<option value=\"SM-02\">SM-02 · d = 0.01 mg"));
+  CHECK_THAT(r->body, !Catch::Contains("value=\"P-08\""));
   const std::string csrf = b.csrf_of("/pipette-checks/new");
   Browser admin(served.port());
   REQUIRE(admin.log_in("ada", ada)->status == 303);
