@@ -34,7 +34,7 @@ std::string new_user_field_at_fault(const std::string& sentence) {
 
 /// The two password fields of a form: the password, or InputError when they differ (the CLI asks twice as well).
 std::string typed_twice(const PageContext& c) {
-  const std::string first = c.request.param("password");
+  std::string first = c.request.param("password");
   if (first != c.request.param("password_again"))
     throw InputError("the two passwords typed differ; nothing was changed.");
   return first;
