@@ -16,8 +16,9 @@ const shots = path.resolve(process.argv[3] || path.join(__dirname, "out"));
 const chromium = "/usr/bin/chromium";
 
 // A 1000 uL pipette's ten weighings on BAL-A (d = 0.1 mg, ISO 8655-6:2002 Table 1 asks 0.1 mg for 100 uL to
-// 1000 uL): mean 0.99720 g; at 20 degC, 1013 hPa, 50 %RH, Z = 1.0028509 uL/mg (worked in
-// tests/unit/pipette_check_test.cpp), so about 1000.04 uL, far inside ISO 8655-2:2002's 8 uL and 3 uL: pass.
+// 1000 uL). By hand: mean 997.20 mg; at 20 degC, 1013 hPa, 50 %RH, Z = 1.0028509 uL/mg (worked in
+// tests/unit/pipette_check_test.cpp), so 997.20 x 1.0028509 = 1000.0429 uL; squared deviations sum 0.30 mg^2,
+// s = sqrt(0.30 / 9) = 0.18257 mg = 0.1831 uL; far inside ISO 8655-2:2002's 8 uL and 3 uL: pass.
 const pipetteWeighings = ["0.9972", "0.9970", "0.9974", "0.9971", "0.9973", "0.9969", "0.9972", "0.9975", "0.9971",
                           "0.9973"];
 // Readings worked by hand in tests/unit/repeatability_test.cpp: mean 100.00023 g, s 0.0949 mg, bias +0.2 mg: pass.
@@ -223,6 +224,8 @@ async function main() {
     await Promise.all([page.waitForNavigation(), page.click("#pipette-form button[value=record]")]);
     const pipetteVerdict = await page.$eval("#preview-verdict", (e) => e.textContent.trim());
     if (pipetteVerdict !== "P-12: pass") fail("the recorded pipette check says \"" + pipetteVerdict + "\"");
+    const meanShown = await page.$eval("table.figures-table tbody tr td:nth-of-type(2)", (e) => e.textContent.trim());
+    if (meanShown !== "1000.0429 µL") fail("the pipette run's mean volume shows as " + meanShown + ", not 1000.0429 µL");
     const pipetteRun = await page.$eval("a[href^='/runs/']", (e) => e.getAttribute("href"));
     await shot(page, "09-pipette-check-recorded");
     await page.goto(address + "calibrations/new");
