@@ -479,6 +479,18 @@ TEST_CASE("plumb serve: the users page is an administrator's, and does what `plu
   }
   CHECK(nora);
   CHECK(tina_off);
+  // A printed name holding markup is text on the page, never markup.
+  res = a.post("/users", {{"login", "eve"},
+                          {"name", "Eve <script>alert(1)</script>"},
+                          {"role", "technician"},
+                          {"password", "eve-first-password"},
+                          {"password_again", "eve-first-password"},
+                          {"csrf", csrf}});
+  REQUIRE(res);
+  page = a.get("/users");
+  REQUIRE(page);
+  CHECK_THAT(page->body, !Catch::Contains("<script>alert(1)"));
+  if (res->status == 303) CHECK_THAT(page->body, Catch::Contains("Eve &lt;script&gt;alert(1)&lt;/script&gt;"));
   // The new account's first password gets the change form, not a session; the deactivated one logs in no more.
   Browser n(served.port());
   res = n.log_in("nora", "nora-first-password");
