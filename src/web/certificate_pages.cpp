@@ -17,6 +17,7 @@
 #include "report/document/pdf.hpp"
 #include "web/pages.hpp"
 #include "web/render.hpp"
+#include "web/signature.hpp"
 #include "web/visitor.hpp"
 
 namespace plumb::web {
@@ -35,18 +36,6 @@ json certificate_row(const report::CertificateListItem& i) {
           {"state", i.state},
           {"approved_by", i.approved_by.value_or("")},
           {"waiting_days", i.waiting_days ? json(*i.waiting_days) : json("")}};
-}
-
-/// The signer of `command` ("certificate approve", "check void"): the session's user with the password entered
-/// for this very signature (app/people refuses a signature without it).
-app::Authenticated signer_of(const PageContext& c, const std::string& command) {
-  const std::string password = c.request.param("password");
-  return app::authenticate(
-      c.db, command,
-      {c.visitor->who.login, c.visitor->token, [password](const std::string&) -> std::optional<std::string> {
-         if (password.empty()) return std::nullopt;
-         return password;
-       }});
 }
 
 /// The certificate page with a form's refusal beside its field.

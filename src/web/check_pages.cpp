@@ -1,6 +1,7 @@
 // Recording a weekly check in the browser: the form offers the balances and weights in date and in service; the
 // preview and the record go through the same app functions as `plumb check record` (app/weekly_check), so the
-// numbers, the verdict and every refusal are the CLI's. Works with JavaScript off (a plain form POST).
+// numbers, the verdict and every refusal are the CLI's. Works with JavaScript off: the "Preview" button posts the form
+// and the page comes back with the server's preview; "Record" records.
 #include <fmt/format.h>
 
 #include <cmath>
@@ -134,6 +135,14 @@ WebResponse check_preview(PageContext& c) {
 WebResponse check_submit(PageContext& c) {
   require_role(*c.visitor, "check record");
   try {
+    // Without JavaScript the "Preview" button posts the form here: the same computation, nothing written.
+    if (c.request.param("intent") == "preview") {
+      app::CheckLookups lookups(c.db);
+      json context = form_context(c, "");
+      context["preview_html"] =
+          render_template("check_preview", run_figures(app::build_check_run(lookups, check_input(c))));
+      return html_page("check_form", "Record a weekly check", context, c.visitor);
+    }
     const auto run = app::record_check(c.db, c.visitor->who.actor, check_input(c));
     json context = run_figures(run);
     context["run_id"] = run.id;

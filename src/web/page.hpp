@@ -13,12 +13,19 @@
 
 namespace plumb::web {
 
+/// A file sent with a multipart form (an <input type="file">): its name as the browser gave it, and its bytes.
+struct UploadedFile {
+  std::string filename;
+  std::string content;
+};
+
 struct WebRequest {
   std::string method;  ///< GET or POST
   std::string path;
   std::multimap<std::string, std::string> params;  ///< query and form fields
   std::map<std::string, std::string> cookies;
-  std::vector<std::string> path_parts;  ///< the route's captures, e.g. the instrument id
+  std::map<std::string, UploadedFile> files;  ///< a multipart form's files, by field name (the first of a name)
+  std::vector<std::string> path_parts;        ///< the route's captures, e.g. the instrument id
   std::string remote_addr;
 
   /// The first value of `name`, or empty.

@@ -36,6 +36,25 @@ WebResponse check_form(PageContext& c);
 WebResponse check_preview(PageContext& c);
 WebResponse check_submit(PageContext& c);
 
+// pipette_pages.cpp
+WebResponse pipette_check_form(PageContext& c);
+WebResponse pipette_check_preview(PageContext& c);
+WebResponse pipette_check_submit(PageContext& c);
+
+// calibration_pages.cpp
+WebResponse calibration_form(PageContext& c);
+WebResponse calibration_submit(PageContext& c);
+
+// run_pages.cpp
+WebResponse run_page(PageContext& c);
+WebResponse run_void_submit(PageContext& c);
+WebResponse run_correct_submit(PageContext& c);
+
+// user_pages.cpp
+WebResponse users_page(PageContext& c);
+WebResponse user_add_submit(PageContext& c);
+WebResponse user_change_submit(PageContext& c);
+
 // certificate_pages.cpp
 WebResponse certificates_page(PageContext& c);
 WebResponse certificate_item_page(PageContext& c);

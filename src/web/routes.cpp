@@ -40,6 +40,18 @@ const std::vector<Route>& routes() {
         r("GET", "/checks/new", false, check_form),
         r("POST", "/checks/preview", false, check_preview),
         r("POST", "/checks", false, check_submit),
+        r("GET", "/pipette-checks/new", false, pipette_check_form),
+        r("POST", "/pipette-checks/preview", false, pipette_check_preview),
+        r("POST", "/pipette-checks", false, pipette_check_submit),
+        r("GET", "/calibrations/new", false, calibration_form),
+        r("POST", "/calibrations", false, calibration_submit),
+        r("GET", "/runs/([0-9]{1,18})", false, run_page),
+        r("POST", "/runs/([0-9]{1,18})/void", false, run_void_submit),
+        r("POST", "/runs/([0-9]{1,18})/correct", false, run_correct_submit),
+        r("GET", "/users", false, users_page),
+        r("POST", "/users", false, user_add_submit),
+        r("POST", "/users/([a-z0-9._-]{1,64})/(grant|revoke|deactivate|reactivate|unlock|reset)", false,
+          user_change_submit),
         r("GET", "/certificates", false, certificates_page),
         r("POST", "/certificates/issue", false, certificate_issue_submit),
         r("GET", "/certificates/([A-Za-z0-9._-]+)", false, certificate_item_page),
@@ -112,8 +124,9 @@ WebResponse respond(const Site& site, LoginLimiter& limiter, const WebRequest& r
     return message_page(403, "Not allowed", e.what(), visitor);
   } catch (const InputError& e) {
     const std::string sentence = e.what();
-    const bool unknown =
-        sentence.find("is not registered") != std::string::npos || sentence.find("no certificate") != std::string::npos;
+    const bool unknown = sentence.find("is not registered") != std::string::npos ||
+                         sentence.find("no certificate") != std::string::npos ||
+                         sentence.find(" does not exist.") != std::string::npos;
     return message_page(unknown ? 404 : 400, unknown ? "Not found" : "Refused", sentence, visitor);
   } catch (const StorageError& e) {
     return message_page(500, "Storage error", e.what(), visitor);

@@ -41,7 +41,8 @@ void send_page(const WebResponse& page, const Site& site, httplib::Response& res
   res.set_content(page.body, page.content_type.c_str());
 }
 
-WebRequest request_of(const httplib::Request& req, const std::string& body) {
+WebRequest request_of(const httplib::Request& req, const std::string& body,
+                      const httplib::MultipartFormDataItems& parts = {}) {
   WebRequest r;
   r.method = req.method;
   r.path = req.path;
@@ -49,6 +50,14 @@ WebRequest request_of(const httplib::Request& req, const std::string& body) {
   for (const auto& [name, value] : req.params) r.params.emplace(name, value);
   if (!body.empty() && req.get_header_value("Content-Type").starts_with("application/x-www-form-urlencoded"))
     httplib::detail::parse_query_text(body, r.params);
+  // A multipart form: its fields are fields like any other, its files go to `files` (a field sent as a file part
+  // without a file name is a field too, as browsers send them).
+  for (const auto& part : parts) {
+    if (part.filename.empty())
+      r.params.emplace(part.name, part.content);
+    else
+      r.files.emplace(part.name, UploadedFile{part.filename, part.content});
+  }
   r.cookies = parse_cookies(req.get_header_value("Cookie"));
   return r;
 }
@@ -106,10 +115,11 @@ void serve(const ServeOptions& options, const std::function<void(const std::stri
   const auto threads = static_cast<std::size_t>(std::max(1, options.threads));
   server->new_task_queue = [threads] { return new httplib::ThreadPool(threads); };
 
-  const auto handle = [&site, &limiter](const httplib::Request& req, httplib::Response& res, const std::string& body) {
-    send_page(respond(site, limiter, request_of(req, body)), site, res);
+  const auto handle = [&site, &limiter](const httplib::Request& req, httplib::Response& res, const std::string& body,
+                                        const httplib::MultipartFormDataItems& parts) {
+    send_page(respond(site, limiter, request_of(req, body, parts)), site, res);
   };
-  server->Get(".*", [&handle](const httplib::Request& req, httplib::Response& res) { handle(req, res, ""); });
+  server->Get(".*", [&handle](const httplib::Request& req, httplib::Response& res) { handle(req, res, "", {}); });
   // The body is read here, within the server's limit (413 beyond it), and parsed by plumb: the library's own form
   // parsing has a fixed limit of its own.
   server->Post(".*", [&handle, &site](const httplib::Request& req, httplib::Response& res,
@@ -122,15 +132,31 @@ void serve(const ServeOptions& options, const std::function<void(const std::stri
       declared = 0;  // chunked or unreadable: the limit is kept while reading
     }
     std::string body;
-    const bool complete = declared <= limit && reader([&body, limit](const char* data, std::size_t length) {
-                            body.append(data, length);
-                            return body.size() <= limit;
-                          });
+    httplib::MultipartFormDataItems parts;
+    std::size_t received = 0;  // every byte of every part counts against the limit
+    bool complete = declared <= limit;
+    if (complete && req.is_multipart_form_data())
+      complete = reader(
+          [&parts](const httplib::MultipartFormData& header) {
+            parts.push_back(header);
+            return true;
+          },
+          [&parts, &received, limit](const char* data, std::size_t length) {
+            received += length;
+            parts.back().content.append(data, length);
+            return received <= limit;
+          });
+    else if (complete)
+      complete = reader([&body, &received, limit](const char* data, std::size_t length) {
+        body.append(data, length);
+        received += length;
+        return received <= limit;
+      });
     if (!complete) {
-      send_page(body.size() > limit || declared > limit ? too_large(site) : bad_request(), site, res);
+      send_page(received > limit || declared > limit ? too_large(site) : bad_request(), site, res);
       return;
     }
-    handle(req, res, body);
+    handle(req, res, body, parts);
   });
   // The library's own refusals (413 before a handler runs, 400 for a malformed request) get a body and the headers;
   // a page's own refusal keeps the page.

@@ -1,8 +1,10 @@
 // The web application end to end in a real browser: Debian's chromium (/usr/bin/chromium) driven by puppeteer-core
 // (no browser download). A scratch lab is made with the plumb CLI; plumb serve runs on a free port; a technician logs
 // in, records a weekly check (the live preview shows the verdict first), issues its certificate; a reviewer logs in,
-// approves it with her password and downloads the PDF, whose text pdftotext must show. Every page is saved as a
-// screenshot. Usage: node e2e.js PATH/TO/plumb [SCREENSHOT_DIR]. If Chromium cannot start, this says so and fails.
+// approves it with her password and downloads the PDF, whose text pdftotext must show; the technician records a pipette
+// check (the live preview first), the reviewer voids it from the run's page with a reason and her password, the
+// administrator adds a user on the users page, and, with JavaScript off, the technician previews and records a weekly
+// check with plain form posts. Every page is saved as a screenshot. Usage: node e2e.js PATH/TO/plumb [SCREENSHOT_DIR]. If Chromium cannot start, this says so and fails.
 "use strict";
 const { execFileSync, spawn } = require("child_process");
 const fs = require("fs");
@@ -13,6 +15,12 @@ const plumb = path.resolve(process.argv[2] || "build/plumb");
 const shots = path.resolve(process.argv[3] || path.join(__dirname, "out"));
 const chromium = "/usr/bin/chromium";
 
+// A 1000 uL pipette's ten weighings on BAL-A (d = 0.1 mg, ISO 8655-6:2002 Table 1 asks 0.1 mg for 100 uL to
+// 1000 uL). By hand: mean 997.20 mg; at 20 degC, 1013 hPa, 50 %RH, Z = 1.0028509 uL/mg (worked in
+// tests/unit/pipette_check_test.cpp), so 997.20 x 1.0028509 = 1000.0429 uL; squared deviations sum 0.30 mg^2,
+// s = sqrt(0.30 / 9) = 0.18257 mg = 0.1831 uL; far inside ISO 8655-2:2002's 8 uL and 3 uL: pass.
+const pipetteWeighings = ["0.9972", "0.9970", "0.9974", "0.9971", "0.9973", "0.9969", "0.9972", "0.9975", "0.9971",
+                          "0.9973"];
 // Readings worked by hand in tests/unit/repeatability_test.cpp: mean 100.00023 g, s 0.0949 mg, bias +0.2 mg: pass.
 const readings = ["100.0003", "100.0001", "100.0002", "100.0004", "100.0002", "100.0003", "100.0001", "100.0002",
                   "100.0003", "100.0002"];
@@ -49,6 +57,8 @@ function makeLab(dir) {
                  "--due", "2027-03-02"]));
   run(qm.concat(["balance", "add", "BAL-A", "--capacity", "220g", "--readability", "0.1mg", "--every", "7d",
                  "--smallest-net", "200mg", "--location", "Room 2", "--since", "2026-01-05"]));
+  run(qm.concat(["pipette", "add", "P-12", "--nominal", "1000uL", "--range", "fixed", "--every", "3mo", "--location",
+                 "Lab 2", "--since", "2026-06-01"]));
   return db;
 }
 
@@ -73,6 +83,28 @@ function startServer(db, dir) {
 async function shot(page, name) {
   await page.screenshot({ path: path.join(shots, name + ".png"), fullPage: true });
   console.log("browser test: screenshot " + name + ".png of " + page.url());
+}
+
+// Waits for `selector` to read `text`; else fails with what the page shows instead (its refusals and the element).
+async function waitForText(page, selector, text, what) {
+  try {
+    await page.waitForFunction((sel, want) => {
+      const e = document.querySelector(sel);
+      return e && e.textContent.trim() === want;
+    }, { timeout: 15000 }, selector, text);
+  } catch (e) {
+    await shot(page, "failed-" + what);
+    const shown = await page.$$eval("p.refusal:not([hidden]), " + selector, (all) => all.map((x) => x.textContent.trim()));
+    fail(what + ": " + selector + " never read \"" + text + "\"; the page shows: " + JSON.stringify(shown));
+  }
+}
+
+// The caret after the last character of a text box (below the header line it starts with).
+async function toEndOf(page, selector) {
+  await page.focus(selector);
+  await page.keyboard.down("Control");
+  await page.keyboard.press("End");
+  await page.keyboard.up("Control");
 }
 
 async function logIn(page, address, login, password) {
@@ -133,7 +165,7 @@ async function main() {
     if (previewN !== "10") fail("the preview shows n = " + previewN + ", not 10");
     await shot(page, "03-weekly-check-preview");
 
-    await Promise.all([page.waitForNavigation(), page.click("#check-form button[type=submit]")]);
+    await Promise.all([page.waitForNavigation(), page.click("#check-form button[value=record]")]);
     const verdict = await page.$eval("#verdict", (e) => e.textContent.trim());
     if (verdict !== "BAL-A: pass") fail("the recorded check says \"" + verdict + "\", not \"BAL-A: pass\"");
     await shot(page, "04-check-recorded");
@@ -175,13 +207,90 @@ async function main() {
       if (!text.includes(expected)) fail("the PDF's text lacks \"" + expected + "\"");
     console.log("browser test: " + number + ".pdf holds the number, the balance, the operator and the signature");
 
+    await Promise.all([page.waitForNavigation(), page.click("form.leave button")]);
+
+    // The pipette check, with the server's live preview.
+    await logIn(page, address, "tess", "tess-password-for-the-test");
+    await page.goto(address + "pipette-checks/new");
+    await page.select("#pipette", "P-12");
+    await page.select("#balance", "BAL-A");
+    await page.type("#water_temp", "20C");
+    await page.type("#pressure", "1013hPa");
+    await page.type("#humidity", "50%");
+    await toEndOf(page, "#readings");
+    await page.keyboard.type(pipetteWeighings.map((w) => "1000uL,1," + w).join("\n"));
+    await waitForText(page, "#preview-verdict", "P-12: pass", "pipette-preview");
+    await shot(page, "08-pipette-check-preview");
+    await Promise.all([page.waitForNavigation(), page.click("#pipette-form button[value=record]")]);
+    const pipetteVerdict = await page.$eval("#preview-verdict", (e) => e.textContent.trim());
+    if (pipetteVerdict !== "P-12: pass") fail("the recorded pipette check says \"" + pipetteVerdict + "\"");
+    const meanShown = await page.$eval("table.figures-table tbody tr td:nth-of-type(2)", (e) => e.textContent.trim());
+    if (meanShown !== "1000.0429 µL") fail("the pipette run's mean volume shows as " + meanShown + ", not 1000.0429 µL");
+    const pipetteRun = await page.$eval("a[href^='/runs/']", (e) => e.getAttribute("href"));
+    await shot(page, "09-pipette-check-recorded");
+    await page.goto(address + "calibrations/new");
+    await shot(page, "10-calibration-upload");
+    await Promise.all([page.waitForNavigation(), page.click("form.leave button")]);
+
+    // The reviewer voids the pipette run from its page: a reason and her password.
+    await logIn(page, address, "rhea", "rhea-password-for-the-test");
+    await page.goto(address + pipetteRun.slice(1));
+    await shot(page, "11-run-page-reviewer");
+    await page.type("#void-reason", "recorded on the wrong pipette");
+    await page.type("#void-password", "rhea-password-for-the-test");
+    await Promise.all([page.waitForNavigation(), page.click("form[action$='/void'] button")]);
+    const standing = await page.$eval("#standing", (e) => e.textContent.trim());
+    if (standing !== "void") fail("after the void, run " + pipetteRun + " is \"" + standing + "\", not void");
+    const voidReason = await page.$eval("#void-reason-shown", (e) => e.textContent.trim());
+    if (voidReason !== "recorded on the wrong pipette") fail("the void's reason shows as \"" + voidReason + "\"");
+    await shot(page, "12-run-void");
+    await Promise.all([page.waitForNavigation(), page.click("form.leave button")]);
+
+    // The administrator's users page: add a reviewer.
+    await logIn(page, address, "ada", "admin-password-for-the-test");
+    await page.goto(address + "users");
+    await shot(page, "13-users");
+    await page.type("#login", "noor");
+    await page.type("#name", "Noor Lindqvist");
+    await page.click("input[name=role][value=reviewer]");
+    await page.type("#password", "noor-first-password-for-the-test");
+    await page.type("#password_again", "noor-first-password-for-the-test");
+    await Promise.all([page.waitForNavigation(), page.click("#add-user button[type=submit]")]);
+    const row = await page.$eval("#user-noor", (e) => e.textContent);
+    if (!row.includes("Noor Lindqvist") || !row.includes("reviewer") || !row.includes("must change password"))
+      fail("the users page does not list noor as a reviewer who must change the password: " + row);
+    await shot(page, "14-user-added");
+    await Promise.all([page.waitForNavigation(), page.click("form.leave button")]);
+
+    // With JavaScript off: the weekly check's "Preview" button posts the form and the server's preview comes back;
+    // "Record" records.
+    const plain = await browser.newPage();
+    await plain.setJavaScriptEnabled(false);
+    await plain.setViewport({ width: 1280, height: 900 });
+    await logIn(plain, address, "tess", "tess-password-for-the-test");
+    await plain.goto(address + "checks/new");
+    await plain.select("#balance", "BAL-A");
+    await plain.select("#weight", "W100");
+    await toEndOf(plain, "#readings");
+    await plain.keyboard.type(readings.join("\n"));
+    await Promise.all([plain.waitForNavigation(), plain.click("#check-form button[value=preview]")]);
+    const plainPreview = await plain.$eval("#preview-verdict", (e) => e.textContent.trim());
+    if (plainPreview !== "pass") fail("without JavaScript the preview says \"" + plainPreview + "\", not pass");
+    const typedBack = await plain.$eval("#readings", (e) => e.value);
+    if (!typedBack.includes("100.0004")) fail("without JavaScript the preview lost the readings typed");
+    await shot(plain, "15-no-javascript-preview");
+    await Promise.all([plain.waitForNavigation(), plain.click("#check-form button[value=record]")]);
+    const plainVerdict = await plain.$eval("#verdict", (e) => e.textContent.trim());
+    if (plainVerdict !== "BAL-A: pass") fail("without JavaScript the recorded check says \"" + plainVerdict + "\"");
+    await shot(plain, "16-no-javascript-recorded");
+    await plain.close();  // its session (the browser's cookies) stays: the pages below are tess's
     await page.goto(address + "instruments/BAL-A");
-    await shot(page, "08-instrument");
+    await shot(page, "17-instrument");
     await page.goto(address + "audit");
-    await shot(page, "09-audit");
+    await shot(page, "18-audit");
     await page.setViewport({ width: 768, height: 1024 });
     await page.goto(address);
-    await shot(page, "10-overview-tablet");
+    await shot(page, "19-overview-tablet");
     if (refusedByPolicy.length) fail("the browser refused something under the CSP: " + refusedByPolicy.join("; "));
     console.log("browser test: passed (screenshots in " + shots + ")");
   } finally {

@@ -77,17 +77,18 @@ std::vector<WeighingLine> parse_weighings_csv(std::string_view text, const std::
         if (name == "unit") unit_col = col;
       }
       if (volume_col < 0 || reading_col < 0)
-        throw InputError(fmt::format("{} line {}: the header needs a \"volume\" and a \"reading\" column (and "
-                                     "optionally \"channel\" and \"unit\").",
-                                     source, line_no));
+        throw InputError(
+            fmt::format("{} line {}: the header needs a \"volume\" and a \"reading\" column (and "
+                        "optionally \"channel\" and \"unit\").",
+                        source, line_no));
       columns = fields.size();
       header = true;
       header_names = fields;
       continue;
     }
     if (fields.size() != columns)
-      throw InputError(fmt::format("{} line {}: {} field(s) where the header has {}.", source, line_no, fields.size(),
-                                   columns));
+      throw InputError(
+          fmt::format("{} line {}: {} field(s) where the header has {}.", source, line_no, fields.size(), columns));
     check_csv_text(raw, fields, header_names, source, line_no);
     WeighingLine w;
     w.line = line_no;
@@ -108,7 +109,8 @@ std::vector<WeighingLine> parse_weighings_csv(std::string_view text, const std::
       w.reading.unit = parse_mass_unit(field(unit_col), fmt::format("{} line {} column unit: value", source, line_no));
     out.push_back(std::move(w));
   }
-  if (!header) throw InputError(fmt::format("{}: is empty; expected a header row with \"volume\" and \"reading\".", source));
+  if (!header)
+    throw InputError(fmt::format("{}: is empty; expected a header row with \"volume\" and \"reading\".", source));
   if (out.empty()) throw InputError(fmt::format("{}: has a header but no weighings.", source));
   return out;
 }
@@ -140,7 +142,7 @@ std::optional<Mass> repeatability_evidence(const json& results) {
 /// The balance as it stood on the run date: usable, in date, and with its latest repeatability.
 struct BalanceOnDate {
   store::BalanceRecord balance;
-  store::RunRecord latest;        ///< latest check on or before the run date
+  store::RunRecord latest;  ///< latest check on or before the run date
   std::optional<Mass> repeatability;
   std::optional<std::int64_t> repeatability_run;
 };
@@ -150,17 +152,19 @@ BalanceOnDate balance_on(store::Database& db, const std::string& id, Date on) {
   if (!b) throw InputError(fmt::format("--balance \"{}\" is not a registered balance.", id));
   const auto latest = store::latest_run_on_or_before(db.sql(), id, on);
   if (!latest)
-    throw InputError(fmt::format("--balance {} has no check recorded on or before {}; a pipette check needs a "
-                                 "balance that is in service and in date.",
-                                 id, to_string(on)));
+    throw InputError(
+        fmt::format("--balance {} has no check recorded on or before {}; a pipette check needs a "
+                    "balance that is in service and in date.",
+                    id, to_string(on)));
   if (latest->verdict == Verdict::fail)
     throw InputError(fmt::format("--balance {} is out of service on {}: its check run {} on {} failed.", id,
                                  to_string(on), latest->id, to_string(latest->performed_on)));
   if (!latest->next_due || *latest->next_due < on)
-    throw InputError(fmt::format("--balance {} is out of date on {}: its check was due on {} (last check run {} on "
-                                 "{}).",
-                                 id, to_string(on), latest->next_due ? to_string(*latest->next_due) : "-", latest->id,
-                                 to_string(latest->performed_on)));
+    throw InputError(
+        fmt::format("--balance {} is out of date on {}: its check was due on {} (last check run {} on "
+                    "{}).",
+                    id, to_string(on), latest->next_due ? to_string(*latest->next_due) : "-", latest->id,
+                    to_string(latest->performed_on)));
   BalanceOnDate out{*b, *latest, std::nullopt, std::nullopt};
   // The repeatability of ISO 8655-6 Table 1: the SD of the latest check that measured one, counts (neither
   // corrected nor void) and met its own minimum of readings. A short run says too little about s.
@@ -187,6 +191,14 @@ store::RunRecord record_pipette_check(store::Database& db, const store::Actor& a
 }
 
 std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, const PipetteCheckInput& in) {
+  PipetteRunDraft draft = build_pipette_run(db, in);
+  return store::add_run(rec, draft.run, [&](store::RowGroup& group, std::int64_t run_id) {
+    draft.conditions.run_id = run_id;
+    store::add_pipette_run_conditions(group, draft.conditions);
+  });
+}
+
+PipetteRunDraft build_pipette_run(store::Database& db, const PipetteCheckInput& in) {
   const Date on = parse_date(in.on, "--on");
   if (days_between(today_utc(), on) > 1) throw InputError(fmt::format("--on {} is in the future.", in.on));
   if (in.operator_name.empty()) throw InputError("operator: the check needs the name of who performed it.");
@@ -211,17 +223,16 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
   }
   // Upper bounds far above any laboratory instrument: beyond them the value is a typing slip.
   const auto u_option = [](const std::optional<std::string>& text, std::string_view field,
-                           Decimal (*parse)(std::string_view, std::string_view), double hi,
-                           std::string_view unit, std::string_view what) -> std::optional<double> {
+                           Decimal (*parse)(std::string_view, std::string_view), double hi, std::string_view unit,
+                           std::string_view what) -> std::optional<double> {
     if (!text) return std::nullopt;
     return parse_condition(*text, field, parse, 0, hi, unit, what).to_double();
   };
   checks::PipetteUncertaintyOptions u_options;
   u_options.water_temperature_u_c = u_option(in.water_temperature_u, "--water-temp-u", parse_celsius, 2.0, "degC",
-                                              "the plausible range of a thermometer's standard uncertainty");
-  u_options.air_density_u_kg_m3 =
-      u_option(in.air_density_u, "--air-density-u", parse_kg_per_cubic_metre, 0.1, "kg/m3",
-               "the plausible range of an air density's standard uncertainty");
+                                             "the plausible range of a thermometer's standard uncertainty");
+  u_options.air_density_u_kg_m3 = u_option(in.air_density_u, "--air-density-u", parse_kg_per_cubic_metre, 0.1, "kg/m3",
+                                           "the plausible range of an air density's standard uncertainty");
   const auto lines = parse_weighings_csv(in.readings_csv, in.readings_source, in.default_unit);
 
   require_lab(db);
@@ -243,14 +254,15 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
                       def.kind == checks::PipetteKind::fixed ? fmt::format("fixed at {}", ul(def.nominal))
                                                              : fmt::format("{} to {}", ul(lower), ul(def.nominal))));
     if (w.channel > def.channels)
-      throw InputError(fmt::format("{} column channel: channel {} does not exist on pipette {}, which has {} "
-                                   "channel(s).",
-                                   where, w.channel, def.id, def.channels));
+      throw InputError(
+          fmt::format("{} column channel: channel {} does not exist on pipette {}, which has {} "
+                      "channel(s).",
+                      where, w.channel, def.id, def.channels));
     if (w.reading.decimals_in_grams() > allowed)
-      throw InputError(fmt::format("{}: weighing \"{}\" {} shows more decimals than the readability {} of balance {} "
-                                   "allows.",
-                                   where, w.reading.text, to_string(w.reading.unit), bal.balance.readability.to_string(),
-                                   bal.balance.id));
+      throw InputError(fmt::format(
+          "{}: weighing \"{}\" {} shows more decimals than the readability {} of balance {} "
+          "allows.",
+          where, w.reading.text, to_string(w.reading.unit), bal.balance.readability.to_string(), bal.balance.id));
     if (w.reading.mass() <= ExactMass{})
       throw InputError(fmt::format("{}: weighing \"{}\" {} is not a positive mass.", where, w.reading.text,
                                    to_string(w.reading.unit)));
@@ -279,8 +291,8 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
     auto tv =
         std::find_if(input.volumes.begin(), input.volumes.end(), [&](const auto& v) { return v.volume == w.volume; });
     if (tv == input.volumes.end()) tv = input.volumes.insert(input.volumes.end(), {w.volume, {}});
-    auto ch = std::find_if(tv->channels.begin(), tv->channels.end(),
-                           [&](const auto& c) { return c.channel == w.channel; });
+    auto ch =
+        std::find_if(tv->channels.begin(), tv->channels.end(), [&](const auto& c) { return c.channel == w.channel; });
     if (ch == tv->channels.end()) ch = tv->channels.insert(tv->channels.end(), {w.channel, {}});
     ch->weighings.push_back(w.reading);
   }
@@ -341,16 +353,14 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
                                       ? json(calibration.calibration->certificate)
                                       : json()},
       {"calibration_absent", calibration.calibration ? json() : json(calibration.absent_reason)}};
-  run.results["environment"] = {{"water_temperature_c", water.to_double()},
-                                {"air_pressure_hpa", pressure.to_double()},
-                                {"humidity_pct", humidity.to_double()},
-                                {"evaporation_g", evaporation ? json(evaporation->approx().g()) : json()},
-                                // Entered for the budget (null: the stated default applied); a correction reuses them.
-                                {"water_temperature_u_c", u_options.water_temperature_u_c
-                                                              ? json(*u_options.water_temperature_u_c)
-                                                              : json()},
-                                {"air_density_u_kg_m3",
-                                 u_options.air_density_u_kg_m3 ? json(*u_options.air_density_u_kg_m3) : json()}};
+  run.results["environment"] = {
+      {"water_temperature_c", water.to_double()},
+      {"air_pressure_hpa", pressure.to_double()},
+      {"humidity_pct", humidity.to_double()},
+      {"evaporation_g", evaporation ? json(evaporation->approx().g()) : json()},
+      // Entered for the budget (null: the stated default applied); a correction reuses them.
+      {"water_temperature_u_c", u_options.water_temperature_u_c ? json(*u_options.water_temperature_u_c) : json()},
+      {"air_density_u_kg_m3", u_options.air_density_u_kg_m3 ? json(*u_options.air_density_u_kg_m3) : json()}};
   run.verdict = result.verdict;
   if (result.verdict == Verdict::pass) run.next_due = add_interval(on, pipette->every);
   int seq = 1;
@@ -365,10 +375,7 @@ std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, 
   c.air_pressure_hpa = pressure;
   c.humidity_pct = humidity;
   c.evaporation = evaporation;
-  return store::add_run(rec, run, [&](store::RowGroup& group, std::int64_t run_id) {
-    c.run_id = run_id;
-    store::add_pipette_run_conditions(group, c);
-  });
+  return {std::move(run), std::move(c)};
 }
 
 }  // namespace plumb::app

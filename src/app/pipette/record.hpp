@@ -17,6 +17,7 @@
 
 #include "core/units.hpp"
 #include "store/database.hpp"
+#include "store/pipettes.hpp"
 #include "store/recorder.hpp"
 #include "store/records.hpp"
 
@@ -25,17 +26,17 @@ namespace plumb::app {
 struct PipetteCheckInput {
   std::string pipette_id;
   std::string balance_id;
-  std::string water_temperature;  ///< degC, as typed
-  std::string pressure;           ///< hPa, as typed
-  std::string humidity;           ///< %RH, as typed
+  std::string water_temperature;           ///< degC, as typed
+  std::string pressure;                    ///< hPa, as typed
+  std::string humidity;                    ///< %RH, as typed
   std::optional<std::string> evaporation;  ///< mass lost per weighing, with unit, e.g. "0.01mg"
   /// Standard uncertainties for the budget (checks/pipette_uncertainty.hpp), with units; stated defaults when absent.
   std::optional<std::string> water_temperature_u;  ///< the thermometer's, e.g. "0.1C"
   std::optional<std::string> air_density_u;        ///< e.g. "0.005kg/m3"
   std::string readings_csv;
-  std::string readings_source;    ///< file name for messages
+  std::string readings_source;  ///< file name for messages
   MassUnit default_unit = MassUnit::g;
-  std::string on;                 ///< date performed, YYYY-MM-DD
+  std::string on;  ///< date performed, YYYY-MM-DD
   std::string operator_name;
   std::optional<std::int64_t> supersedes;  ///< a correction: the run this one replaces
   std::string reason;                      ///< why it replaces it (required with supersedes)
@@ -45,5 +46,14 @@ struct PipetteCheckInput {
 store::RunRecord record_pipette_check(store::Database& db, const store::Actor& actor, const PipetteCheckInput& in);
 /// The same inside a transaction the caller holds; returns the new run id.
 std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, const PipetteCheckInput& in);
+
+/// A pipette run validated and computed but not written: what record_pipette_check_in stores (no id yet), for a
+/// preview that must show exactly what recording would.
+struct PipetteRunDraft {
+  store::RunRecord run;
+  store::PipetteRunConditions conditions;
+};
+/// Every refusal of record_pipette_check_in, and the same results, without writing anything.
+PipetteRunDraft build_pipette_run(store::Database& db, const PipetteCheckInput& in);
 
 }  // namespace plumb::app

@@ -1,19 +1,19 @@
-// The live preview of the weekly check form: posts the form to the server and shows what it answers. Nothing is
-// computed here; without JavaScript the form still records (a plain POST) and shows the same figures after.
+// The live preview of the check forms (weekly check, pipette check): posts the form to the server (the form's
+// data-preview address) and shows what it answers. Nothing is computed here; without JavaScript the form's
+// "Preview" button posts it and the page comes back with the same figures, and "Record" records.
 (function () {
   "use strict";
-  var form = document.getElementById("check-form");
+  var form = document.querySelector("form[data-preview]");
   var panel = document.getElementById("preview");
   if (!form || !panel || !window.fetch) return;
-  var fields = ["balance", "weight", "on", "readings", "form"];
   var timer = null;
   var sent = 0;
 
   function showRefusal(field, message) {
-    fields.forEach(function (name) {
-      var box = document.getElementById(name + "-error");
+    var boxes = document.querySelectorAll("p.refusal[id$='-error']");
+    Array.prototype.forEach.call(boxes, function (box) {
+      var name = box.id.slice(0, -"-error".length);
       var input = document.getElementById(name);
-      if (!box) return;
       var mine = name === field;
       box.textContent = mine ? message : "";
       box.hidden = !mine;
