@@ -126,7 +126,25 @@ std::vector<Command> pipette_commands() {
                    e.id);
         return 0;
       }};
-  return {add, list, set_edition, instrument_show_command("pipette", "P-07")};
+  Command set_default_edition{
+      "pipette",
+      "default-edition",
+      "choose the lab's default edition of ISO 8655 (2002 or 2022), for every pipette without an edition of its own",
+      "plumb pipette default-edition --edition 2022 --reason \"the lab moves to the 2022 editions\"",
+      [](po::options_description& d, po::positional_options_description&) {
+        d.add_options()("edition", po::value<std::string>()->required(), "2002 | 2022")(
+            "reason", po::value<std::string>(), "why the default is chosen or changed (kept with it)");
+      },
+      [](const po::variables_map& vm, Env& env) {
+        auto db = env.open();
+        const auto e = app::set_lab_pipette_edition(db, env.actor(db), vm["edition"].as<std::string>(),
+                                                    optional_string(vm, "reason").value_or(""));
+        fmt::print(env.out,
+                   "Pipettes without an edition of their own are checked to ISO 8655:{} from now on (row {}).\n",
+                   e.edition, e.id);
+        return 0;
+      }};
+  return {add, list, set_edition, set_default_edition, instrument_show_command("pipette", "P-07")};
 }
 
 }  // namespace plumb::cli

@@ -102,3 +102,52 @@ TEST_CASE("ISO 8655:2022 chosen per pipette: refused runs, the certificate names
   r = run_plumb({"--db", db, "certificate", "show", "LAST", "--format", "html"}, dir.path());
   CHECK_THAT(squeezed(r.out), Catch::Contains("ISO8655-6:2022"));
 }
+
+TEST_CASE("the lab's default edition of ISO 8655: followed by pipettes without their own, recorded and audited",
+          "[cli][pipette][edition]") {
+  plumb::test::ScratchDir dir;
+  const auto db = edition_lab(dir);
+  // P-07 is judged by the 2002 Table 1 and has no edition of its own: a 2022 default would leave it unable to record
+  // a run, so it is refused, naming it, and nothing is written.
+  const std::vector<std::string> to_2022 = {"--db",      db,     "pipette", "default-edition",
+                                            "--edition", "2022", "--as",    "Q. Manager"};
+  plumb::test::prepare_login(to_2022, dir.path());  // the quality manager's account first
+  const auto before = plumb::test::dump_database(db);
+  auto r = run_plumb(to_2022, dir.path());
+  CHECK(r.status == 2);
+  CHECK_THAT(squeezed(r.err), Catch::Contains("pipetteP-07(and0other(s))wouldfollowthelab'sdefault") &&
+                                  Catch::Contains("pipetteset-editionP-07--edition2002"));
+  CHECK(plumb::test::dump_database(db) == before);
+  // P-07 keeps 2002 of its own; then the default can be 2022, which P-08 (the lab's limits, no edition of its own)
+  // follows.
+  REQUIRE(
+      run_plumb({"--db", db, "pipette", "set-edition", "P-07", "--edition", "2002", "--as", "Q. Manager"}, dir.path())
+          .status == 0);
+  r = run_plumb({"--db", db, "pipette", "default-edition", "--edition", "2022", "--reason",
+                 "the lab moves to the 2022 editions", "--as", "Q. Manager"},
+                dir.path());
+  INFO(r.err);
+  REQUIRE(r.status == 0);
+  CHECK_THAT(r.out, Catch::Contains("checked to ISO 8655:2022 from now on"));
+  // P-08 now needs ISO 8655-6:2022's 10 replicates (checks/pipette_edition, recalled from memory): 4 are refused.
+  dir.write("w.csv", weighings(4));
+  const auto before_run = plumb::test::dump_database(db);
+  r = record(db, "P-08", dir);
+  CHECK(r.status == 2);
+  CHECK_THAT(r.err, Catch::Contains("ISO 8655-6:2022 needs 10") && Catch::Contains("checked to ISO 8655:2022"));
+  CHECK(plumb::test::dump_database(db) == before_run);
+  // P-07 keeps its own 2002: 4 replicates are enough there.
+  r = record(db, "P-07", dir);
+  INFO(r.err);
+  CHECK(r.status == 0);
+  dir.write("w.csv", weighings(10));
+  r = record(db, "P-08", dir);
+  INFO(r.err);
+  REQUIRE(r.status == 0);
+  const json j = json::parse(run_plumb({"--db", db, "check", "show", "LAST", "--format", "json"}, dir.path()).out);
+  CHECK(j["edition"]["edition"] == "2022");
+  // The choice is in the audit trail, with its reason, and the trail verifies.
+  r = run_plumb({"--db", db, "audit", "log", "--format", "json"}, dir.path());
+  CHECK_THAT(r.out, Catch::Contains("lab_pipette_editions") && Catch::Contains("the lab moves to the 2022 editions"));
+  CHECK(run_plumb({"--db", db, "audit", "verify"}, dir.path()).status == 0);
+}

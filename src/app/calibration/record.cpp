@@ -44,7 +44,9 @@ struct UsedWeight {
   WeightDensity density;
 };
 
-ExactMass abs_mass(ExactMass m) { return m < ExactMass{} ? ExactMass{} - m : m; }
+ExactMass abs_mass(ExactMass m) {
+  return m < ExactMass{} ? ExactMass{} - m : m;
+}
 
 /// An environment option with its unit (core/condition_units.hpp), inside [lo, hi].
 std::optional<double> environment_value(const std::optional<std::string>& text, const char* option,
@@ -60,7 +62,7 @@ std::optional<double> environment_value(const std::optional<std::string>& text, 
 }
 
 class RunBuilder {
-public:
+ public:
   RunBuilder(store::Database& db, const CalibrationRunInput& in, Date on, const store::BalanceRecord& b)
       : db_(db), in_(in), on_(on), balance_(b) {}
 
@@ -76,9 +78,10 @@ public:
                                    where, id, to_string(on_)));
     // A reference weight whose own calibration is overdue may not be used (common practice).
     if (overdue_on(*in_force, on_))
-      throw InputError(fmt::format("{}: weight {} was due for calibration on {} (certificate {}), before the run date "
-                                   "{}; an overdue weight cannot give a traceable calibration.",
-                                   where, id, to_string(in_force->due_on), in_force->certificate_no, to_string(on_)));
+      throw InputError(
+          fmt::format("{}: weight {} was due for calibration on {} (certificate {}), before the run date "
+                      "{}; an overdue weight cannot give a traceable calibration.",
+                      where, id, to_string(in_force->due_on), in_force->certificate_no, to_string(on_)));
     require_in_service(db_, "weight", id);
     w->current = *in_force;
     const auto stated = store::weight_properties_in_force(db_.sql(), id);
@@ -143,7 +146,7 @@ public:
   const std::vector<std::string>& weight_order() const { return order_; }
   const UsedWeight& used(const std::string& id) const { return weights_.at(id); }
 
-private:
+ private:
   store::Database& db_;
   const CalibrationRunInput& in_;
   Date on_;
@@ -166,28 +169,30 @@ checks::CalibrationSet build_set(std::vector<FileLoad>& loads, const std::string
   checks::CalibrationSet set;
   for (auto* l : loads_of(loads, stage, "repeatability")) {
     if (l->rows.size() < checks::min_repeatability_readings)
-      throw InputError(fmt::format("{} line {}: the {} repeatability series at {} has {} reading(s); at least {} are "
-                                   "needed (10 recommended).",
-                                   source, l->first_line, stage, l->combination, l->rows.size(),
-                                   checks::min_repeatability_readings));
+      throw InputError(fmt::format(
+          "{} line {}: the {} repeatability series at {} has {} reading(s); at least {} are "
+          "needed (10 recommended).",
+          source, l->first_line, stage, l->combination, l->rows.size(), checks::min_repeatability_readings));
     checks::RepeatabilitySeries s{l->conventional, {}};
     for (const auto* r : l->rows) s.readings.push_back(r->reading.mass());
     set.repeatability.push_back(std::move(s));
   }
   const auto ecc = loads_of(loads, stage, "eccentricity");
   if (ecc.size() > 1)
-    throw InputError(fmt::format("{} line {} column load: the {} eccentricity test uses one load, but {} was read "
-                                 "before (line {}).",
-                                 source, ecc[1]->first_line, stage, ecc[0]->combination, ecc[0]->first_line));
+    throw InputError(
+        fmt::format("{} line {} column load: the {} eccentricity test uses one load, but {} was read "
+                    "before (line {}).",
+                    source, ecc[1]->first_line, stage, ecc[0]->combination, ecc[0]->first_line));
   if (!ecc.empty()) {
     checks::EccentricityInput e;
     e.load = ecc[0]->conventional;
     std::map<std::string, int> seen;
     for (const auto* r : ecc[0]->rows) {
       if (auto [it, fresh] = seen.emplace(r->position, r->line); !fresh)
-        throw InputError(fmt::format("{} line {} column position: \"{}\" is read twice in the {} eccentricity test "
-                                     "(first on line {}).",
-                                     source, r->line, r->position, stage, it->second));
+        throw InputError(
+            fmt::format("{} line {} column position: \"{}\" is read twice in the {} eccentricity test "
+                        "(first on line {}).",
+                        source, r->line, r->position, stage, it->second));
       const ExactMass m = r->reading.mass();
       if (r->position == "centre")
         e.centre = m;
@@ -195,14 +200,15 @@ checks::CalibrationSet build_set(std::vector<FileLoad>& loads, const std::string
         e.positions.push_back({r->position, m});
     }
     if (!e.centre)
-      throw InputError(fmt::format("{} line {} column position: the {} eccentricity test has no reading at the "
-                                   "centre; the deviations are taken from it.",
-                                   source, ecc[0]->first_line, stage));
+      throw InputError(
+          fmt::format("{} line {} column position: the {} eccentricity test has no reading at the "
+                      "centre; the deviations are taken from it.",
+                      source, ecc[0]->first_line, stage));
     if (e.positions.size() < checks::min_eccentricity_positions)
-      throw InputError(fmt::format("{} line {} column position: the {} eccentricity test has {} off-centre "
-                                   "position(s); at least {} are needed.",
-                                   source, ecc[0]->first_line, stage, e.positions.size(),
-                                   checks::min_eccentricity_positions));
+      throw InputError(
+          fmt::format("{} line {} column position: the {} eccentricity test has {} off-centre "
+                      "position(s); at least {} are needed.",
+                      source, ecc[0]->first_line, stage, e.positions.size(), checks::min_eccentricity_positions));
     set.eccentricity = std::move(e);
   }
   const auto ind = loads_of(loads, stage, "indication");
@@ -213,9 +219,10 @@ checks::CalibrationSet build_set(std::vector<FileLoad>& loads, const std::string
   for (const auto* l : ind) distinct.insert(l->conventional.in_grams().to_string());
   const std::size_t needed = model == stats::Model::quadratic ? 3 : model == stats::Model::line ? 2 : 1;
   if (distinct.size() < needed)
-    throw InputError(fmt::format("--model {}: the {} error of indication has {} distinct load(s); this model needs at "
-                                 "least {}.",
-                                 report::model_key(model), stage, distinct.size(), needed));
+    throw InputError(
+        fmt::format("--model {}: the {} error of indication has {} distinct load(s); this model needs at "
+                    "least {}.",
+                    report::model_key(model), stage, distinct.size(), needed));
   for (const auto* l : ind) {
     checks::LoadPoint p{l->combination, {}, {}};
     for (const auto* r : l->rows) (r->direction == "down" ? p.down : p.up).push_back(r->reading.mass());
@@ -277,14 +284,21 @@ store::RunRecord record_calibration(store::Database& db, const store::Actor& act
   return *store::find_run(db.sql(), id);
 }
 
-std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, const CalibrationRunInput& in) {
+namespace {
+
+/// Validates `in` and, with a recorder, computes and records the run; without one (a plan checked before the
+/// first reading at the bench) stops once every row, weight and setting has been checked, writing nothing. Rows
+/// without a reading (a plan's) skip the reading's own checks.
+std::int64_t run_calibration(store::Database& db, store::Recorder* recorder, const CalibrationRunInput& in,
+                             const store::RunDetails& extra) {
   const Date on = parse_date(in.on, "--on");
   if (days_between(today_utc(), on) > 1) throw InputError(fmt::format("--on {} is in the future.", in.on));
   if (in.operator_name.empty()) throw InputError("operator: the calibration needs the name of who performed it.");
   validate_free_text(in.operator_name, "operator");
   const stats::Model model = report::parse_model(in.model, "--model");
   density::AirFormula formula = density::AirFormula::cipm2007;
-  if (in.air_formula == "oiml-r111") formula = density::AirFormula::oiml_r111;
+  if (in.air_formula == "oiml-r111")
+    formula = density::AirFormula::oiml_r111;
   else if (in.air_formula != "cipm2007")
     throw InputError(fmt::format("--air-formula \"{}\" is not cipm2007 or oiml-r111.", in.air_formula));
 
@@ -297,9 +311,12 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
       environment_value(in.humidity_pct, "--humidity", parse_percent_rh, 0.0, 100.0, "%", "relative humidity");
   const int given = (t ? 1 : 0) + (p ? 1 : 0) + (h ? 1 : 0);
   if (given != 0 && given != 3)
-    throw InputError(fmt::format("--temperature, --pressure and --humidity go together (the air density needs all "
-                                 "three); {} is missing.",
-                                 !t ? "--temperature" : !p ? "--pressure" : "--humidity"));
+    throw InputError(
+        fmt::format("--temperature, --pressure and --humidity go together (the air density needs all "
+                    "three); {} is missing.",
+                    !t   ? "--temperature"
+                    : !p ? "--pressure"
+                         : "--humidity"));
   // Stored as the exact number in the unit the field names (temperature_c in degC ...), as typed but for the unit.
   const auto exact = [](const std::optional<std::string>& typed, Decimal (*parse)(std::string_view, std::string_view),
                         std::string_view field) -> std::optional<std::string> {
@@ -338,40 +355,50 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
     density::validate(*environment);
   }
 
-  const auto rows = parse_calibration_csv(in.readings_csv, in.readings_source, in.default_unit);
+  std::vector<CalibrationRow> parsed;
+  if (!in.parsed_rows) parsed = parse_calibration_csv(in.readings_csv, in.readings_source, in.default_unit);
+  const std::vector<CalibrationRow>& rows = in.parsed_rows ? *in.parsed_rows : parsed;
   require_lab(db);
   const auto balance = store::find_balance(db.sql(), in.instrument_id);
   if (!balance) throw InputError(fmt::format("balance \"{}\" is not registered.", in.instrument_id));
   if (!in.supersedes) require_in_service(db, "instrument", balance->id);  // a correction is not a new check
   const auto settings = store::find_calibration_settings(db.sql(), balance->id);
   if (!settings)
-    throw InputError(fmt::format("balance {} has no calibration settings; set them first with `plumb balance "
-                                 "set-calibration {} --class ... --decision-rule ... --calibrate-every ...`.",
-                                 balance->id, balance->id));
+    throw InputError(
+        fmt::format("balance {} has no calibration settings; set them first with `plumb balance "
+                    "set-calibration {} --class ... --decision-rule ... --calibrate-every ...`.",
+                    balance->id, balance->id));
 
   const int allowed = balance->readability.in_grams().significant_scale();
   RunBuilder builder(db, in, on, *balance);
   bool as_found_seen = false;
   for (const auto& r : rows) {
-    if (r.reading.decimals_in_grams() > allowed)
-      throw InputError(fmt::format("{} line {} column reading: \"{}\" {} shows more decimals than the readability {} "
-                                   "of {} allows.",
-                                   in.readings_source, r.line, r.reading.text, to_string(r.reading.unit),
-                                   balance->readability.to_string(), balance->id));
+    if (r.reading.text.empty()) {
+      // A plan's row: where the reading goes is checked, the reading comes at the bench.
+    } else if (r.reading.decimals_in_grams() > allowed)
+      throw InputError(
+          fmt::format("{} line {} column reading: \"{}\" {} shows more decimals than the readability {} "
+                      "of {} allows.",
+                      in.readings_source, r.line, r.reading.text, to_string(r.reading.unit),
+                      balance->readability.to_string(), balance->id));
     // Capacity is judged on the load (its nominal mass, in load_of), not on the reading: a full-capacity load on
     // a balance that reads high is within its range, and its error of indication is what the run is for.
-    if (r.reading.mass() < ExactMass{})
+    else if (r.reading.mass() < ExactMass{})
       throw InputError(
           fmt::format("{} line {} column reading: \"{}\" {} is negative, which no load on the pan can "
                       "show; check the tare and the file.",
                       in.readings_source, r.line, r.reading.text, to_string(r.reading.unit)));
-    if (r.stage == "as-found") as_found_seen = true;
+    if (r.stage == "as-found")
+      as_found_seen = true;
     else if (!as_found_seen)
-      throw InputError(fmt::format("{} line {} column stage: as-left readings come before any as-found reading; "
-                                   "record the balance as found first.",
-                                   in.readings_source, r.line));
+      throw InputError(
+          fmt::format("{} line {} column stage: as-left readings come before any as-found reading; "
+                      "record the balance as found first.",
+                      in.readings_source, r.line));
     builder.load_of(r).rows.push_back(&r);
   }
+  if (!recorder) return 0;
+  store::Recorder& rec = *recorder;
   bool adjusted = false;
   for (const auto& r : rows) adjusted = adjusted || r.stage == "as-left";
 
@@ -422,15 +449,14 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
   run.results["final_stage"] = adjusted ? "as-left" : "as-found";
   run.results["final_state"] = std::string(checks::to_string(final_set.overall));
   run.results["adjusted"] = adjusted;
-  run.results["settings"] = {{"id", settings->id},
-                             {"description", describe(*settings)},
-                             {"accuracy_class", settings->accuracy_class ? json(*settings->accuracy_class) : json()},
-                             {"e_g", settings->verification_interval
-                                         ? json(settings->verification_interval->in_grams().to_string())
-                                         : json()},
-                             {"tolerance", settings->tolerance},
-                             {"decision_rule", settings->decision_rule},
-                             {"calibrate_every", settings->calibrate_every.to_string()}};
+  run.results["settings"] = {
+      {"id", settings->id},
+      {"description", describe(*settings)},
+      {"accuracy_class", settings->accuracy_class ? json(*settings->accuracy_class) : json()},
+      {"e_g", settings->verification_interval ? json(settings->verification_interval->in_grams().to_string()) : json()},
+      {"tolerance", settings->tolerance},
+      {"decision_rule", settings->decision_rule},
+      {"calibrate_every", settings->calibrate_every.to_string()}};
   run.results["environment"] = {
       {"measured", environment.has_value()},
       {"temperature_c", stored_t ? json(*stored_t) : json()},
@@ -496,15 +522,28 @@ std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, co
   details.run_id = store::add_run(rec, run, [&](store::RowGroup& group, std::int64_t run_id) {
     details.run_id = run_id;
     store::add_calibration_details(group, details);
+    if (extra) extra(group, run_id);
   });
   return details.run_id;
 }
 
+}  // namespace
+
+std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, const CalibrationRunInput& in,
+                                   const store::RunDetails& extra) {
+  return run_calibration(db, &rec, in, extra);
+}
+
+void check_calibration_plan(store::Database& db, const CalibrationRunInput& in) {
+  run_calibration(db, nullptr, in, {});
+}
+
 json calibration_error_at(const store::RunRecord& run, const std::string& load, bool extrapolate) {
   if (run.procedure != checks::Procedure::calibration)
-    throw InputError(fmt::format("--at: run {} is a {} check, not a calibration; only a calibration has a fitted "
-                                 "model.",
-                                 run.id, checks::to_string(run.procedure)));
+    throw InputError(
+        fmt::format("--at: run {} is a {} check, not a calibration; only a calibration has a fitted "
+                    "model.",
+                    run.id, checks::to_string(run.procedure)));
   const json& results = run.results;
   const bool left = results.contains("as_left") && !results["as_left"].is_null();
   const json& set = left ? results["as_left"] : results["as_found"];
@@ -513,9 +552,10 @@ json calibration_error_at(const store::RunRecord& run, const std::string& load, 
   lin.fit = report::fit_from_json(set["fit"]);
   const double at_g = at.approx().g();
   if (!lin.fit.interpolates(at_g) && !extrapolate)
-    throw InputError(fmt::format("--at {} is outside the calibrated range {:.6g} g to {:.6g} g; the error there would "
-                                 "be an extrapolation (add --extrapolate to see it marked as such).",
-                                 load, lin.fit.x_min, lin.fit.x_max));
+    throw InputError(
+        fmt::format("--at {} is outside the calibrated range {:.6g} g to {:.6g} g; the error there would "
+                    "be an extrapolation (add --extrapolate to see it marked as such).",
+                    load, lin.fit.x_min, lin.fit.x_max));
   const auto e =
       checks::error_at(lin, at.approx(), extrapolate ? checks::Extrapolation::mark : checks::Extrapolation::refuse);
   // The calibrated loads on either side of the load asked for: their errors and expanded uncertainties are

@@ -18,16 +18,21 @@
 #include <optional>
 #include <string>
 
+#include "app/calibration/run_file.hpp"
 #include "core/units.hpp"
 #include "store/database.hpp"
 #include "store/recorder.hpp"
 #include "store/records.hpp"
+#include "store/repository.hpp"
 
 namespace plumb::app {
 
 struct CalibrationRunInput {
   std::string instrument_id;
-  std::string readings_csv;     ///< the run file's text
+  std::string readings_csv;  ///< the run file's text
+  /// Rows already read (a capture at the bench: the plan's rows with their captured readings); readings_csv is
+  /// then not parsed.
+  std::optional<std::vector<CalibrationRow>> parsed_rows;
   std::string readings_source;  ///< its name, for messages
   MassUnit default_unit = MassUnit::g;
   std::string on;
@@ -36,14 +41,20 @@ struct CalibrationRunInput {
   /// Standard uncertainties of the thermometer, barometer and hygrometer (each optional; only with the three
   /// conditions), propagated into the air density's u.
   std::optional<std::string> temperature_u, pressure_u, humidity_u;
-  std::string air_formula = "cipm2007";  ///< cipm2007 | oiml-r111
-  std::string model = "line";            ///< line | through-origin | quadratic
+  std::string air_formula = "cipm2007";    ///< cipm2007 | oiml-r111
+  std::string model = "line";              ///< line | through-origin | quadratic
   std::optional<std::int64_t> supersedes;  ///< a correction: the run this one replaces
   std::string reason;                      ///< why it replaces it (required with supersedes)
 };
 
 store::RunRecord record_calibration(store::Database& db, const store::Actor& actor, const CalibrationRunInput& in);
-std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, const CalibrationRunInput& in);
+/// Inside a transaction the caller holds; `extra` adds rows of its own to the run's group (a capture's raw lines),
+/// so the run's one audit record covers them.
+std::int64_t record_calibration_in(store::Database& db, store::Recorder& rec, const CalibrationRunInput& in,
+                                   const store::RunDetails& extra = {});
+/// Checks everything record_calibration_in checks but the readings (in.parsed_rows: a plan's rows, readings
+/// empty), writing nothing: a capture at the bench says a wrong weight, setting or option before the first reading.
+void check_calibration_plan(store::Database& db, const CalibrationRunInput& in);
 
 /// The fitted error of the final set of a stored calibration run at `load` (e.g. "120g"). Outside the calibrated
 /// range: InputError, or with `extrapolate` a result marked as extrapolated.

@@ -29,10 +29,16 @@ struct CalibrationRow {
 };
 
 inline constexpr std::string_view calibration_csv_header = "stage,part,load,position,direction,reading,unit";
+inline constexpr std::string_view calibration_plan_header = "stage,part,load,position,direction";
 
 /// Parses and checks each field of each row (not yet against the balance or the weights). Throws
 /// InputError naming the file, line, column and value.
 std::vector<CalibrationRow> parse_calibration_csv(std::string_view text, std::string_view source,
                                                   MassUnit default_unit);
+
+/// A calibration plan (`check capture --procedure calibration --plan FILE`): the rows of a run file in the order
+/// they are to be weighed, without the reading and unit columns; each row is checked as in a run file. The rows'
+/// readings are empty until captured.
+std::vector<CalibrationRow> parse_calibration_plan(std::string_view text, std::string_view source);
 
 }  // namespace plumb::app

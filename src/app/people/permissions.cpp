@@ -33,6 +33,7 @@ const std::vector<Permission>& table() {
       {"balance port", {quality_manager}},
       {"pipette add", {quality_manager}},
       {"pipette set-edition", {quality_manager}},
+      {"pipette default-edition", {quality_manager}},
       {"instrument update", {quality_manager}},
       {"instrument retire", {quality_manager}},
       {"instrument reinstate", {quality_manager}},

@@ -15,7 +15,13 @@ namespace plumb::app {
 store::PipetteEdition set_pipette_edition(store::Database& db, const store::Actor& actor, const std::string& pipette_id,
                                           const std::string& edition, const std::string& reason);
 
-/// The edition in force for the pipette.
+/// `pipette default-edition --edition 2022`: the lab's default edition, for every pipette without an edition of
+/// its own (quality manager; history kept in lab_pipette_editions, migration 020). Refused while a pipette that would
+/// follow it is judged by the 2002 table (it could then record no run), naming the first such pipette.
+store::PipetteEdition set_lab_pipette_edition(store::Database& db, const store::Actor& actor,
+                                              const std::string& edition, const std::string& reason);
+
+/// The edition in force for the pipette: its own choice, else the lab's default, else 2002.
 checks::Iso8655Edition pipette_edition(store::Database& db, const std::string& pipette_id);
 
 }  // namespace plumb::app

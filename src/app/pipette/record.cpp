@@ -33,22 +33,15 @@ std::string ul(ExactVolume v) {
   return v.to_string();
 }
 
-/// One weighing line of the CSV.
-struct WeighingLine {
-  int line = 0;
-  ExactVolume volume;
-  int channel = 1;
-  MassReading reading;
-};
-
 std::string_view trim(std::string_view s) {
   while (!s.empty() && (s.front() == ' ' || s.front() == '\t')) s.remove_prefix(1);
   while (!s.empty() && (s.back() == ' ' || s.back() == '\t' || s.back() == '\r')) s.remove_suffix(1);
   return s;
 }
 
-std::vector<WeighingLine> parse_weighings_csv(std::string_view text, const std::string& source, MassUnit default_unit) {
-  std::vector<WeighingLine> out;
+std::vector<PipetteWeighing> parse_weighings_csv(std::string_view text, const std::string& source,
+                                                 MassUnit default_unit) {
+  std::vector<PipetteWeighing> out;
   int volume_col = -1, channel_col = -1, reading_col = -1, unit_col = -1;
   std::size_t columns = 0;
   bool header = false;
@@ -90,7 +83,7 @@ std::vector<WeighingLine> parse_weighings_csv(std::string_view text, const std::
       throw InputError(
           fmt::format("{} line {}: {} field(s) where the header has {}.", source, line_no, fields.size(), columns));
     check_csv_text(raw, fields, header_names, source, line_no);
-    WeighingLine w;
+    PipetteWeighing w;
     w.line = line_no;
     const auto field = [&](int col) { return fields[static_cast<std::size_t>(col)]; };
     w.volume = parse_volume(field(volume_col), fmt::format("{} line {} column volume: value", source, line_no),
@@ -180,45 +173,29 @@ BalanceOnDate balance_on(store::Database& db, const std::string& id, Date on) {
   return out;
 }
 
-}  // namespace
+/// The options of a run other than the water temperature and the weighings, validated.
+struct RunOptions {
+  Date on;
+  Decimal pressure, humidity;
+  std::optional<ExactMass> evaporation;
+  checks::PipetteUncertaintyOptions u_options;
+};
 
-store::RunRecord record_pipette_check(store::Database& db, const store::Actor& actor, const PipetteCheckInput& in) {
-  SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
-  store::Recorder rec(db.sql(), actor);
-  const std::int64_t id = record_pipette_check_in(db, rec, in);
-  rec.commit(tx);
-  return *store::find_run(db.sql(), id);
-}
-
-std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, const PipetteCheckInput& in) {
-  PipetteRunDraft draft = build_pipette_run(db, in);
-  return store::add_run(rec, draft.run, [&](store::RowGroup& group, std::int64_t run_id) {
-    draft.conditions.run_id = run_id;
-    store::add_pipette_run_conditions(group, draft.conditions);
-  });
-}
-
-PipetteRunDraft build_pipette_run(store::Database& db, const PipetteCheckInput& in) {
-  const Date on = parse_date(in.on, "--on");
-  if (days_between(today_utc(), on) > 1) throw InputError(fmt::format("--on {} is in the future.", in.on));
+RunOptions run_options(const PipetteCheckInput& in) {
+  RunOptions o;
+  o.on = parse_date(in.on, "--on");
+  if (days_between(today_utc(), o.on) > 1) throw InputError(fmt::format("--on {} is in the future.", in.on));
   if (in.operator_name.empty()) throw InputError("operator: the check needs the name of who performed it.");
   validate_free_text(in.operator_name, "operator");
-
-  // Conditions, named by the options they came from.
-  const Decimal water =
-      parse_condition(in.water_temperature, "--water-temp", parse_celsius, gravimetric::min_water_temperature_c,
-                      gravimetric::max_water_temperature_c, "degC", "the range of the gravimetric method (ISO 8655-6)");
-  const Decimal pressure = parse_condition(in.pressure, "--pressure", parse_hectopascals, gravimetric::min_pressure_hpa,
-                                           gravimetric::max_pressure_hpa, "hPa", "a plausible laboratory air pressure");
-  const Decimal humidity =
-      parse_condition(in.humidity, "--humidity", parse_percent_rh, 0, 100, "%RH", "a relative humidity");
-  std::optional<ExactMass> evaporation;
+  o.pressure = parse_condition(in.pressure, "--pressure", parse_hectopascals, gravimetric::min_pressure_hpa,
+                               gravimetric::max_pressure_hpa, "hPa", "a plausible laboratory air pressure");
+  o.humidity = parse_condition(in.humidity, "--humidity", parse_percent_rh, 0, 100, "%RH", "a relative humidity");
   if (in.evaporation) {
     const std::string& e = *in.evaporation;
     if (e.empty() || !std::isalpha(static_cast<unsigned char>(e.back())))
       throw InputError(fmt::format("--evaporation \"{}\" needs a unit of mass, e.g. 0.01mg.", e));
-    evaporation = ExactMass::parse(e, "--evaporation");
-    if (*evaporation < ExactMass{})
+    o.evaporation = ExactMass::parse(e, "--evaporation");
+    if (*o.evaporation < ExactMass{})
       throw InputError(fmt::format("--evaporation \"{}\" is negative; give the mass lost per weighing.", e));
   }
   // Upper bounds far above any laboratory instrument: beyond them the value is a typing slip.
@@ -228,25 +205,94 @@ PipetteRunDraft build_pipette_run(store::Database& db, const PipetteCheckInput& 
     if (!text) return std::nullopt;
     return parse_condition(*text, field, parse, 0, hi, unit, what).to_double();
   };
-  checks::PipetteUncertaintyOptions u_options;
-  u_options.water_temperature_u_c = u_option(in.water_temperature_u, "--water-temp-u", parse_celsius, 2.0, "degC",
-                                             "the plausible range of a thermometer's standard uncertainty");
-  u_options.air_density_u_kg_m3 = u_option(in.air_density_u, "--air-density-u", parse_kg_per_cubic_metre, 0.1, "kg/m3",
-                                           "the plausible range of an air density's standard uncertainty");
-  const auto lines = parse_weighings_csv(in.readings_csv, in.readings_source, in.default_unit);
+  o.u_options.water_temperature_u_c = u_option(in.water_temperature_u, "--water-temp-u", parse_celsius, 2.0, "degC",
+                                               "the plausible range of a thermometer's standard uncertainty");
+  o.u_options.air_density_u_kg_m3 = u_option(in.air_density_u, "--air-density-u", parse_kg_per_cubic_metre, 0.1,
+                                             "kg/m3", "the plausible range of an air density's standard uncertainty");
+  return o;
+}
 
+/// The pipette and the balance, as the run needs them on its date.
+struct RunInstruments {
+  store::PipetteRecord pipette;
+  BalanceOnDate bal;
+};
+
+RunInstruments run_instruments(store::Database& db, const PipetteCheckInput& in, Date on) {
   require_lab(db);
   const auto pipette = store::find_pipette(db.sql(), in.pipette_id);
   if (!pipette) throw InputError(fmt::format("pipette \"{}\" is not registered.", in.pipette_id));
   if (!in.supersedes) require_in_service(db, "instrument", pipette->id());  // a correction is not a new check
   require_in_service(db, "instrument", in.balance_id);
+  return {*pipette, balance_on(db, in.balance_id, on)};
+}
+
+}  // namespace
+
+Decimal parse_water_temperature(const std::string& text, std::string_view field) {
+  return parse_condition(text, field, parse_celsius, gravimetric::min_water_temperature_c,
+                         gravimetric::max_water_temperature_c, "degC",
+                         "the range of the gravimetric method (ISO 8655-6)");
+}
+
+void check_pipette_weighing(const MassReading& reading, const std::string& where, const store::BalanceRecord& balance) {
+  if (reading.decimals_in_grams() > balance.readability.in_grams().significant_scale())
+    throw InputError(
+        fmt::format("{}: weighing \"{}\" {} shows more decimals than the readability {} of balance {} "
+                    "allows.",
+                    where, reading.text, to_string(reading.unit), balance.readability.to_string(), balance.id));
+  if (reading.mass() <= ExactMass{})
+    throw InputError(
+        fmt::format("{}: weighing \"{}\" {} is not a positive mass.", where, reading.text, to_string(reading.unit)));
+  if (reading.mass() > balance.capacity)
+    throw InputError(fmt::format("{}: weighing \"{}\" {} exceeds the capacity {} of balance {}.", where, reading.text,
+                                 to_string(reading.unit), balance.capacity.to_string(), balance.id));
+}
+
+void check_pipette_setup(store::Database& db, const PipetteCheckInput& in) {
+  const RunOptions o = run_options(in);
+  run_instruments(db, in, o.on);
+}
+
+store::RunRecord record_pipette_check(store::Database& db, const store::Actor& actor, const PipetteCheckInput& in) {
+  SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
+  store::Recorder rec(db.sql(), actor);
+  const std::int64_t id = record_pipette_check_in(db, rec, in);
+  rec.commit(tx);
+  return *store::find_run(db.sql(), id);
+}
+
+std::int64_t record_pipette_check_in(store::Database& db, store::Recorder& rec, const PipetteCheckInput& in,
+                                     const store::RunDetails& extra) {
+  PipetteRunDraft draft = build_pipette_run(db, in);
+  return store::add_run(rec, draft.run, [&](store::RowGroup& group, std::int64_t run_id) {
+    draft.conditions.run_id = run_id;
+    store::add_pipette_run_conditions(group, draft.conditions);
+    if (extra) extra(group, run_id);
+  });
+}
+
+PipetteRunDraft build_pipette_run(store::Database& db, const PipetteCheckInput& in) {
+  // Conditions, named by the options they came from.
+  const Decimal water = parse_water_temperature(in.water_temperature, "--water-temp");
+  const RunOptions o = run_options(in);
+  const Date on = o.on;
+  const Decimal& pressure = o.pressure;
+  const Decimal& humidity = o.humidity;
+  const std::optional<ExactMass>& evaporation = o.evaporation;
+  const checks::PipetteUncertaintyOptions& u_options = o.u_options;
+  std::vector<PipetteWeighing> parsed;
+  if (!in.parsed_weighings) parsed = parse_weighings_csv(in.readings_csv, in.readings_source, in.default_unit);
+  const std::vector<PipetteWeighing>& lines = in.parsed_weighings ? *in.parsed_weighings : parsed;
+
+  const RunInstruments instruments = run_instruments(db, in, on);
+  const store::PipetteRecord* pipette = &instruments.pipette;
   const checks::PipetteDefinition& def = pipette->definition;
-  const BalanceOnDate bal = balance_on(db, in.balance_id, on);
+  const BalanceOnDate& bal = instruments.bal;
 
   // Every line checked with its line number before anything is computed.
   const ExactVolume lower = def.kind == checks::PipetteKind::variable ? *def.lower_limit : def.nominal;
-  const int allowed = bal.balance.readability.in_grams().significant_scale();
-  for (const WeighingLine& w : lines) {
+  for (const PipetteWeighing& w : lines) {
     const std::string where = fmt::format("{} line {}", in.readings_source, w.line);
     if (w.volume < lower || w.volume > def.nominal)
       throw InputError(
@@ -258,18 +304,7 @@ PipetteRunDraft build_pipette_run(store::Database& db, const PipetteCheckInput& 
           fmt::format("{} column channel: channel {} does not exist on pipette {}, which has {} "
                       "channel(s).",
                       where, w.channel, def.id, def.channels));
-    if (w.reading.decimals_in_grams() > allowed)
-      throw InputError(fmt::format(
-          "{}: weighing \"{}\" {} shows more decimals than the readability {} of balance {} "
-          "allows.",
-          where, w.reading.text, to_string(w.reading.unit), bal.balance.readability.to_string(), bal.balance.id));
-    if (w.reading.mass() <= ExactMass{})
-      throw InputError(fmt::format("{}: weighing \"{}\" {} is not a positive mass.", where, w.reading.text,
-                                   to_string(w.reading.unit)));
-    if (w.reading.mass() > bal.balance.capacity)
-      throw InputError(fmt::format("{}: weighing \"{}\" {} exceeds the capacity {} of balance {}.", where,
-                                   w.reading.text, to_string(w.reading.unit), bal.balance.capacity.to_string(),
-                                   bal.balance.id));
+    check_pipette_weighing(w.reading, where, bal.balance);
   }
 
   // Group by test volume and channel, in the order they first appear.
@@ -287,7 +322,7 @@ PipetteRunDraft build_pipette_run(store::Database& db, const PipetteCheckInput& 
   const BalanceCalibrationLookup calibration = balance_calibration_on(db, bal.balance.id, on);
   input.balance_calibration = calibration.calibration;
   input.no_balance_calibration = calibration.absent_reason;
-  for (const WeighingLine& w : lines) {
+  for (const PipetteWeighing& w : lines) {
     auto tv =
         std::find_if(input.volumes.begin(), input.volumes.end(), [&](const auto& v) { return v.volume == w.volume; });
     if (tv == input.volumes.end()) tv = input.volumes.insert(input.volumes.end(), {w.volume, {}});
@@ -365,7 +400,7 @@ PipetteRunDraft build_pipette_run(store::Database& db, const PipetteCheckInput& 
   if (result.verdict == Verdict::pass) run.next_due = add_interval(on, pipette->every);
   int seq = 1;
   // Stored in the order of the file, each with the series of its test volume and channel.
-  for (const WeighingLine& w : lines)
+  for (const PipetteWeighing& w : lines)
     run.readings.push_back({seq++, store::pipette_series(w.volume, w.channel), w.reading});
 
   store::PipetteRunConditions c;

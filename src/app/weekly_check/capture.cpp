@@ -14,20 +14,6 @@
 namespace plumb::app {
 namespace {
 
-std::string outcome_key(CaptureStep::Outcome o) {
-  switch (o) {
-    case CaptureStep::Outcome::counted:
-      return "counted";
-    case CaptureStep::Outcome::unstable:
-      return "unstable";
-    case CaptureStep::Outcome::not_a_reading:
-      return "not a reading";
-    case CaptureStep::Outcome::refused:
-      return "refused";
-  }
-  return "refused";
-}
-
 stats::ExactSummary spread_summary(const std::vector<ExactMass>& masses) {
   return stats::summarize_exact(in_grams(masses));
 }
@@ -55,12 +41,20 @@ std::optional<std::string> far_from_others(const ExactMass& reading, const std::
       format_mass(Mass::grams(distance), 3));
 }
 
-WeeklyCapture::WeeklyCapture(store::Database& db, const CaptureInput& in) : db_(db), in_(in) {
+namespace {
+
+WeeklyCheckSetup weekly_setup(store::Database& db, const CheckInput& in) {
   CheckLookups lookups(db);
-  setup_ = prepare_weekly_check(lookups, in.check);
-  port_ = store::current_balance_port(db.sql(), setup_.balance.id);
-  unit_ = port_ ? port_->unit : in.unit;
-  if (port_ && port_->line_pattern) pattern_ = LinePattern::parse(*port_->line_pattern, "the balance's line pattern");
+  return prepare_weekly_check(lookups, in);
+}
+
+}  // namespace
+
+WeeklyCapture::WeeklyCapture(store::Database& db, const CaptureInput& in)
+    : db_(db),
+      in_(in),
+      setup_(weekly_setup(db, in.check)),
+      lines_(setup_.balance, store::current_balance_port(db.sql(), setup_.balance.id), in.unit, in.source) {
   const auto least = static_cast<int>(checks::required_readings(setup_.balance.policy));
   if (in.count != 0 && in.count < least)
     throw InputError(fmt::format("--count {}: {}.", in.count, setup_.balance.policy.readings_basis()));
@@ -68,99 +62,28 @@ WeeklyCapture::WeeklyCapture(store::Database& db, const CaptureInput& in) : db_(
   wanted_ = in.count != 0 ? in.count : least;
 }
 
-CaptureStep WeeklyCapture::judge(const BalanceLineReading& line, const std::string& where) {
-  CaptureStep step;
-  if (!line.stable) {
-    step.outcome = CaptureStep::Outcome::unstable;
-    step.message = fmt::format(
-        "{}: reading \"{}\" {} is marked unstable; it is not counted (wait for the stable "
-        "reading).",
-        where, line.text, line.unit_text);
-    return step;
+CaptureStep WeeklyCapture::take(JudgedLine line) {
+  if (line.reading) {
+    line.step.far_warning = far_from_others(line.reading->mass(), masses_of(readings_), setup_.balance.readability);
+    readings_.push_back({*line.reading, static_cast<int>(lines_.lines().size()) + 1});
   }
-  step.outcome = CaptureStep::Outcome::refused;
-  if (!line.unit) {
-    step.message = fmt::format(
-        "{}: reading \"{}\" has the unit \"{}\", which is not a mass unit plumb reads (ug, mg, "
-        "g, kg); set the balance to show {}.",
-        where, line.text, escaped_line(line.unit_text), to_string(unit_));
-    return step;
-  }
-  if (*line.unit != unit_) {
-    step.message = fmt::format("{}: reading \"{}\" {} is not in {}, the unit {} is set to show; it is not counted.",
-                               where, line.text, to_string(*line.unit), to_string(unit_), setup_.balance.id);
-    return step;
-  }
-  const MassReading reading{line.text, *line.unit, line.value};
-  try {
-    check_weekly_reading(reading, where, setup_.balance);
-  } catch (const InputError& e) {
-    step.message = e.what();
-    return step;
-  }
-  if (reading.mass() > setup_.balance.capacity) {
-    step.message = fmt::format("{}: reading \"{}\" {} is above the capacity {} of {}.", where, reading.text,
-                               to_string(reading.unit), setup_.balance.capacity.to_string(), setup_.balance.id);
-    return step;
-  }
-  step.outcome = CaptureStep::Outcome::counted;
-  step.far_warning = far_from_others(reading.mass(), masses_of(readings_), setup_.balance.readability);
-  readings_.push_back({reading, static_cast<int>(lines_.size()) + 1});
-  return step;
-}
-
-void WeeklyCapture::keep(const std::string& shown, const std::string& source, const std::string& received_at,
-                         const CaptureStep& step) {
-  store::RawLine l;
-  l.seq = static_cast<int>(lines_.size()) + 1;
-  l.received_at = received_at;
-  l.source = source;
-  l.line = shown;
-  l.outcome = outcome_key(step.outcome);
-  if (step.outcome == CaptureStep::Outcome::counted) l.reading_seq = counted();
-  l.note = step.far_warning ? "far from the others: " + *step.far_warning : step.message;
-  lines_.push_back(std::move(l));
+  lines_.keep(line, line.reading ? std::optional<int>(counted()) : std::nullopt);
+  return line.step;
 }
 
 CaptureStep WeeklyCapture::take_port_line(const std::string& bytes, const std::string& received_at) {
-  const std::string where = fmt::format("{} line {}", in_.source, lines_.size() + 1);
-  CaptureStep step;
-  if (complete()) {
-    step.outcome = CaptureStep::Outcome::not_a_reading;
-    step.message = fmt::format("{}: the check has all its readings; this line is not counted.", where);
-  } else if (const auto line = read_balance_line(bytes, pattern_ ? &*pattern_ : nullptr)) {
-    step = judge(*line, where);
-  } else {
-    step.outcome = CaptureStep::Outcome::not_a_reading;
-    step.message = fmt::format("{}: \"{}\" is not a reading{}; it is not counted.", where, escaped_line(bytes),
-                               pattern_ ? " in the balance's line pattern" : " in any line shape plumb knows");
-  }
-  keep(escaped_line(bytes), "port", received_at, step);
-  return step;
+  if (complete()) return take(lines_.not_now(bytes, "port", received_at, "the check has all its readings"));
+  const auto rule = [&](const MassReading& r, const std::string& where) {
+    check_weekly_reading(r, where, setup_.balance);
+  };
+  return take(lines_.port_line(bytes, received_at, rule));
 }
 
 CaptureStep WeeklyCapture::take_typed(const std::string& text, const std::string& received_at) {
-  const std::string where = fmt::format("typed line {}", lines_.size() + 1);
-  CaptureStep step;
-  std::optional<BalanceLineReading> line = read_balance_line(text);
-  if (!line) {
-    // A bare number is in the unit the balance shows, as a readings file without a unit column is in --unit.
-    try {
-      const auto first = text.find_first_not_of(" \t");
-      const auto last = text.find_last_not_of(" \t\r\n");
-      const std::string number = first == std::string::npos ? std::string() : text.substr(first, last - first + 1);
-      line = BalanceLineReading{number, Decimal::parse(escaped_line(number), where + ": reading"),
-                                std::string(to_string(unit_)), unit_, true};
-    } catch (const InputError& e) {
-      std::string said = e.what();
-      if (!said.empty() && said.back() == '.') said.pop_back();
-      step.outcome = CaptureStep::Outcome::not_a_reading;
-      step.message = said + "; type the reading as the balance displays it (e.g. 100.0012), or stop.";
-    }
-  }
-  if (line) step = judge(*line, where);
-  keep(escaped_line(text), "typed", received_at, step);
-  return step;
+  const auto rule = [&](const MassReading& r, const std::string& where) {
+    check_weekly_reading(r, where, setup_.balance);
+  };
+  return take(lines_.typed(text, received_at, rule));
 }
 
 CaptureSummary WeeklyCapture::summary() const {
@@ -184,7 +107,7 @@ store::RunRecord WeeklyCapture::record(const store::Actor& actor) {
   store::Recorder rec(db_.sql(), actor);
   CheckLookups lookups(db_);
   const std::int64_t id = record_check_in(rec, lookups, in, [&](store::RowGroup& group, std::int64_t run_id) {
-                            store::add_raw_lines(group, run_id, lines_);
+                            store::add_raw_lines(group, run_id, lines_.lines());
                           }).run_id;
   rec.commit(tx);
   return *store::find_run(db_.sql(), id);

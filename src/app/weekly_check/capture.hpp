@@ -7,10 +7,8 @@
 #include <string>
 #include <vector>
 
+#include "app/bench/balance_lines.hpp"
 #include "app/weekly_check/record.hpp"
-#include "core/balance_line.hpp"
-#include "store/balance_ports.hpp"
-#include "store/raw_lines.hpp"
 
 namespace plumb::app {
 
@@ -23,14 +21,6 @@ struct CaptureInput {
   /// The unit a bare typed number is in, and the unit port lines must show when the balance has no port
   /// settings (otherwise the settings' unit).
   MassUnit unit = MassUnit::g;
-};
-
-/// What became of one line.
-struct CaptureStep {
-  enum class Outcome { counted, unstable, not_a_reading, refused };
-  Outcome outcome = Outcome::refused;
-  std::string message;                     ///< the sentence said at the bench (empty for a plain counted reading)
-  std::optional<std::string> far_warning;  ///< a counted reading far from the others
 };
 
 /// The running summary after each counted reading, as text in grams.
@@ -56,9 +46,9 @@ class WeeklyCapture {
   [[nodiscard]] CaptureSummary summary() const;
   [[nodiscard]] const store::BalanceRecord& balance() const { return setup_.balance; }
   [[nodiscard]] const store::WeightRecord& weight() const { return setup_.weight; }
-  [[nodiscard]] const std::optional<store::BalancePort>& port() const { return port_; }
-  [[nodiscard]] MassUnit expected_unit() const { return unit_; }
-  [[nodiscard]] const std::vector<store::RawLine>& lines() const { return lines_; }
+  [[nodiscard]] const std::optional<store::BalancePort>& port() const { return lines_.port(); }
+  [[nodiscard]] MassUnit expected_unit() const { return lines_.unit(); }
+  [[nodiscard]] const std::vector<store::RawLine>& lines() const { return lines_.lines(); }
   /// The last reading counted, as displayed (after a counted step).
   [[nodiscard]] const MassReading& last_counted() const { return readings_.back().reading; }
 
@@ -66,19 +56,14 @@ class WeeklyCapture {
   store::RunRecord record(const store::Actor& actor);
 
  private:
-  CaptureStep judge(const BalanceLineReading& line, const std::string& where);
-  void keep(const std::string& shown, const std::string& source, const std::string& received_at,
-            const CaptureStep& step);
+  CaptureStep take(JudgedLine line);
 
   store::Database& db_;
   CaptureInput in_;
   WeeklyCheckSetup setup_;
-  std::optional<store::BalancePort> port_;
-  std::optional<LinePattern> pattern_;
-  MassUnit unit_ = MassUnit::g;
+  BenchLines lines_;
   int wanted_ = 0;
   std::vector<CsvReading> readings_;
-  std::vector<store::RawLine> lines_;
 };
 
 /// Whether `reading` is far from `others`: more than 4 times the larger of their sample SD and the readability d

@@ -83,6 +83,8 @@ std::string describe_row(const std::string& table, const json& row, const std::m
                        text_of(row, "safety_factor"));
   if (table == "pipette_editions")
     return fmt::format("chose ISO 8655:{} for pipette {}", text_of(row, "edition"), text_of(row, "pipette_id"));
+  if (table == "lab_pipette_editions")
+    return fmt::format("chose ISO 8655:{} as the lab's default for pipettes", text_of(row, "edition"));
   if (table == "run_voids") return fmt::format("voided run {}", text_of(row, "run_id"));
   if (table == "certificate_withdrawals")
     return fmt::format("withdrew certificate id {}", text_of(row, "certificate_id"));
