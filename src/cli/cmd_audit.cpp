@@ -26,7 +26,7 @@ std::vector<Command> audit_commands() {
                 const auto trail = app::audit_log(
                     db, {optional_string(vm, "instrument"), optional_string(vm, "certificate"),
                          optional_string(vm, "from"), optional_string(vm, "to"), optional_string(vm, "author"),
-                         std::nullopt});
+                         std::nullopt, std::nullopt});
                 if (format == "json")
                   env.out << report::audit_log_json(trail.scope, trail.records, trail.authors).dump(2) << "\n";
                 else if (format == "csv")
