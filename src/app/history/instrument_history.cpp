@@ -33,9 +33,10 @@ std::map<std::int64_t, std::int64_t> superseded_by(const std::vector<store::RunR
 report::QuantityView quantity_view(const RunHistory& h, const HistoryQuantity& q) {
   report::QuantityView v{q.key, q.label, q.unit, q.uncertainty_basis, {}, "", q.non_negative};
   // The latest current run of the quantity's procedure decides the label and the limits that apply now.
-  const auto replaced = superseded_by(h.runs);
-  for (std::size_t i = h.runs.size(); i-- > 0;) {
-    const auto& run = h.runs[i];
+  const auto& runs = *h.runs;
+  const auto replaced = superseded_by(runs);
+  for (std::size_t i = runs.size(); i-- > 0;) {
+    const auto& run = runs[i];
     if (run.procedure != q.procedure || replaced.count(run.id) || run.voided) continue;
     const RunContext c{run, h.first_weights[i]};
     v.label = q.axis_label(c);
@@ -89,11 +90,11 @@ InstrumentInfo find_instrument(store::Database& db, const std::string& id) {
 }
 
 RunHistory read_run_history(store::Database& db, const InstrumentInfo& inst) {
-  RunHistory h{inst, store::runs_of(db.sql(), inst.id), {}};
+  RunHistory h{inst, std::make_shared<const std::vector<store::RunRecord>>(store::runs_of(db.sql(), inst.id)), {}};
   // A lab uses a few reference weights for hundreds of runs: each certificate is read once.
   std::map<std::int64_t, std::optional<store::WeightCalibration>> certificates;
-  h.first_weights.reserve(h.runs.size());
-  for (const auto& run : h.runs) {
+  h.first_weights.reserve(h.runs->size());
+  for (const auto& run : *h.runs) {
     if (run.weights.empty()) {
       h.first_weights.emplace_back();
       continue;
@@ -121,11 +122,12 @@ report::HistoryView history_view(const RunHistory& h, const Period& period) {
 
 report::HistoryView history_view(const RunHistory& h, const Period& period,
                                  const std::vector<const HistoryQuantity*>& quantities) {
-  const auto replaced = superseded_by(h.runs);
+  const auto& runs = *h.runs;
+  const auto replaced = superseded_by(runs);
   report::HistoryView view{h.instrument.id, h.instrument.title, period.from, period.to, {}, {}};
   for (const auto* q : quantities) view.columns.push_back(quantity_view(h, *q));
-  for (std::size_t i = 0; i < h.runs.size(); ++i) {
-    const auto& run = h.runs[i];
+  for (std::size_t i = 0; i < runs.size(); ++i) {
+    const auto& run = runs[i];
     if (!in_period(run.performed_on, period)) continue;
     report::HistoryRow row;
     row.run_id = run.id;
@@ -137,7 +139,7 @@ report::HistoryView history_view(const RunHistory& h, const Period& period,
     row.supersedes = run.supersedes;
     if (auto it = replaced.find(run.id); it != replaced.end()) row.superseded_by = it->second;
     if (run.voided) row.void_reason = run.voided->reason;
-    row.results = run.results;
+    row.results = std::shared_ptr<const nlohmann::json>(h.runs, &run.results);  // shares the history's, no copy
     const RunContext c{run, h.first_weights[i]};
     for (const auto* q : quantities) {
       const auto v = q->procedure == run.procedure ? q->read(c) : std::nullopt;
@@ -175,10 +177,11 @@ report::SeriesView series_view(store::Database& db, const InstrumentInfo& inst, 
 }
 
 report::SeriesView series_view(const RunHistory& h, const HistoryQuantity& q, const Period& period) {
-  const auto replaced = superseded_by(h.runs);
+  const auto& runs = *h.runs;
+  const auto replaced = superseded_by(runs);
   report::SeriesView view{h.instrument.id, h.instrument.title, quantity_view(h, q), {}, {}, 0};
-  for (std::size_t i = 0; i < h.runs.size(); ++i) {
-    const auto& run = h.runs[i];
+  for (std::size_t i = 0; i < runs.size(); ++i) {
+    const auto& run = runs[i];
     if (run.procedure != q.procedure || !in_period(run.performed_on, period)) continue;
     if (replaced.count(run.id)) {
       ++view.superseded_left_out;

@@ -26,7 +26,8 @@ InstrumentInfo find_instrument(store::Database& db, const std::string& id);
 /// or report shows its table, its series and its reviews from one reading of its history.
 struct RunHistory {
   InstrumentInfo instrument;
-  std::vector<store::RunRecord> runs;
+  /// Shared, so that the views made from it point into its runs' results instead of copying them.
+  std::shared_ptr<const std::vector<store::RunRecord>> runs;
   std::vector<std::optional<store::WeightCalibration>> first_weights;  ///< one per run
 };
 RunHistory read_run_history(store::Database& db, const InstrumentInfo& instrument);

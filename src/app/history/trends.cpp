@@ -89,8 +89,8 @@ report::HistoryChartMarks chart_marks(const report::SeriesView& s, const report:
       const auto k = static_cast<std::size_t>(column - all.columns.begin());
       if (row.void_reason && row.values[k]) m.void_runs.push_back({row.date, *row.values[k], 0.0});
     }
-    if (row.current() && row.procedure == checks::Procedure::calibration && row.results.is_object() &&
-        row.results.value("adjusted", false)) {
+    if (row.current() && row.procedure == checks::Procedure::calibration && row.results && row.results->is_object() &&
+        row.results->value("adjusted", false)) {
       m.adjustments.emplace_back(row.date, fmt::format("adjusted (run {})", row.run_id));
       if (!latest || row.date > latest->date || (row.date == latest->date && row.run_id > latest->run_id))
         latest = &row;

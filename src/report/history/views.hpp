@@ -4,6 +4,7 @@
 // read only these, so they never touch the database.
 #include <cstdint>
 #include <nlohmann/json.hpp>
+#include <memory>
 #include <optional>
 #include <string>
 #include <vector>
@@ -42,7 +43,9 @@ struct HistoryRow {
   [[nodiscard]] bool current() const { return !superseded_by && !void_reason; }
   std::vector<std::optional<double>> values;  ///< one per column
   std::vector<std::optional<double>> uncertainties;
-  nlohmann::json results;  ///< as stored with the run
+  /// As stored with the run; shared with the history it was read from (app::RunHistory), not copied: a page of
+  /// hundreds of runs makes several views of one history. Null when the view was made without it.
+  std::shared_ptr<const nlohmann::json> results;
 };
 
 struct HistoryView {
