@@ -68,10 +68,10 @@ std::vector<std::int64_t> instrument_record_seqs(SQLite::Database& db, const std
     named.bind(1, table);
     if (!named.executeStep()) continue;
     // CROSS JOIN keeps the table outside: its few rows of this instrument, each looked up in the trail's index.
-    SQLite::Statement q(db, fmt::format("SELECT a.seq FROM {} t CROSS JOIN audit_log a ON a.table_name = {} AND "
-                                        "a.row_key = {} WHERE {}",
-                                        quoted_identifier(table), quoted_literal(table),
-                                        key_expression(s.key_columns), condition));
+    SQLite::Statement q(
+        db, fmt::format("SELECT a.seq FROM {} t CROSS JOIN audit_log a ON a.table_name = {} AND "
+                        "a.row_key = {} WHERE {}",
+                        quoted_identifier(table), quoted_literal(table), key_expression(s.key_columns), condition));
     q.bind(1, instrument_id);
     while (q.executeStep()) seqs.push_back(q.getColumn(0).getInt64());
   }
@@ -84,7 +84,8 @@ std::vector<RecordName> record_names_since(SQLite::Database& db, std::int64_t se
   SQLite::Statement q(db, "SELECT seq, table_name, row_key FROM audit_log WHERE seq > ? ORDER BY seq");
   q.bind(1, seq);
   std::vector<RecordName> out;
-  while (q.executeStep()) out.push_back({q.getColumn(0).getInt64(), q.getColumn(1).getString(), q.getColumn(2).getString()});
+  while (q.executeStep())
+    out.push_back({q.getColumn(0).getInt64(), q.getColumn(1).getString(), q.getColumn(2).getString()});
   return out;
 }
 

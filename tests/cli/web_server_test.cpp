@@ -617,8 +617,8 @@ std::vector<std::int64_t> audit_rows_shown(const std::string& page) {
 /// The number on the overview's tile `label`.
 int tile_count(const std::string& page, const std::string& label) {
   std::smatch m;
-  REQUIRE(std::regex_search(page, m, std::regex(R"(<span class="count">(\d+)</span> <span class="label">)" + label +
-                                                "</span>")));
+  REQUIRE(std::regex_search(
+      page, m, std::regex(R"(<span class="count">(\d+)</span> <span class="label">)" + label + "</span>")));
   return std::stoi(m[1].str());
 }
 
@@ -632,24 +632,27 @@ TEST_CASE("plumb serve: an instrument's audit trail is its own records only, new
                      "7d", "--smallest-net", "200mg", "--location", "Room 3", "--since", "2026-01-05"},
                     dir.path())
               .status == 0);
-  // 110 weekly checks of BAL-A (one record each) and 5 of BAL-B, imported as a history.
+  // 110 weekly checks of BAL-A (one record each) and 5 of BAL-B, imported as a history (from W100's calibration on).
   std::string history = "instrument,procedure,date,operator,weight,reading,unit\n";
   const auto add_run = [&](const std::string& id, int week) {
     for (const char* reading : {"100.0003", "100.0001", "100.0002", "100.0004", "100.0002", "100.0003", "100.0001",
                                 "100.0002", "100.0003", "100.0002"})
       history += fmt::format("{},repeatability,{},Ann Operator,W100,{},g\n", id,
-                             fmt::format("2026-{:02d}-{:02d}", 2 + week / 28, 1 + week % 28), reading);
+                             fmt::format("2026-{:02d}-{:02d}", 3 + week / 28, 2 + week % 28), reading);
   };
   for (int week = 0; week < 110; ++week) add_run("BAL-A", week);
   for (int week = 0; week < 5; ++week) add_run("BAL-B", week);
   dir.write("history.csv", history);
-  REQUIRE(run_plumb({"--db", db, "check", "import", "history.csv"}, dir.path()).status == 0);
+  const auto imported = run_plumb({"--db", db, "check", "import", "history.csv"}, dir.path());
+  INFO(imported.err);
+  REQUIRE(imported.status == 0);
   // What the CLI says are BAL-A's and BAL-B's records (the whole of each, oldest first).
   const auto seqs_of = [&](const std::string& id) {
     const auto r = run_plumb({"--db", db, "audit", "log", "--instrument", id, "--format", "json"}, dir.path());
     REQUIRE(r.status == 0);
+    const json log = json::parse(r.out);
     std::vector<std::int64_t> seqs;
-    for (const auto& record : json::parse(r.out)["records"]) seqs.push_back(record["seq"].get<std::int64_t>());
+    for (const auto& record : log["records"]) seqs.push_back(record["seq"].get<std::int64_t>());
     return seqs;
   };
   const auto a = seqs_of("BAL-A"), b = seqs_of("BAL-B");
@@ -705,9 +708,9 @@ TEST_CASE("plumb serve: the overview shows on its next load what the CLI recorde
   r = browser.get("/");  // the same page again, from what was kept
   CHECK(tile_count(r->body, "overdue") == 1);
   // A weekly check recorded by the CLI today: BAL-A is due again in 7 days, within the overview's 14.
-  REQUIRE(run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "readings.csv"},
-                    dir.path())
-              .status == 0);
+  REQUIRE(
+      run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "readings.csv"}, dir.path())
+          .status == 0);
   r = browser.get("/");
   REQUIRE(r);
   CHECK(tile_count(r->body, "overdue") == 0);

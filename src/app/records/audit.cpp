@@ -50,7 +50,7 @@ std::int64_t record_number(const std::string& text) {
   const bool digits = !text.empty() && text.size() <= 18 && text.find_first_not_of("0123456789") == std::string::npos;
   if (!digits || std::stoll(text) < 1)
     throw InputError(
-        fmt::format("the audit record "{}" to page back from is not a record number (a whole number from 1).", text));
+        fmt::format("the audit record \"{}\" to page back from is not a record number (a whole number from 1).", text));
   return std::stoll(text);
 }
 

@@ -89,23 +89,28 @@ std::vector<report::DueItem> due_lines_in_id_order(store::Database& db, Date on,
   // One set-based query gives every instrument's latest run, so a large lab is not one query per
   // instrument; only balances with calibration settings need their calibration looked up apart.
   const auto all_settings = store::all_current_calibration_settings(db.sql());
-  store::for_each_instrument_status(db.sql(), "", [&](const store::InstrumentStatus& s) {
-    if (s.kind != "balance") {
-      items.push_back(check_item(s.kind, s, summary_of(s.latest), std::nullopt, on, within_days));
-      return;
-    }
-    const auto found = all_settings.find(s.id);
-    const std::optional<store::CalibrationSettings> settings =
-        found == all_settings.end() ? std::nullopt : std::optional(found->second);
-    if (!settings) {
-      items.push_back(check_item("balance", s, summary_of(s.latest), std::nullopt, on, within_days));
-      return;
-    }
-    const auto last = summary_of(store::latest_run_by_procedure(db.sql(), s.id, checks::Procedure::calibration, false));
-    const auto cal = summary_of(store::latest_run_by_procedure(db.sql(), s.id, checks::Procedure::calibration, true));
-    items.push_back(check_item("balance", s, last, cal, on, within_days));
-    items.push_back(calibration_item(s, settings, cal, on, within_days));
-  }, only_id);
+  store::for_each_instrument_status(
+      db.sql(), "",
+      [&](const store::InstrumentStatus& s) {
+        if (s.kind != "balance") {
+          items.push_back(check_item(s.kind, s, summary_of(s.latest), std::nullopt, on, within_days));
+          return;
+        }
+        const auto found = all_settings.find(s.id);
+        const std::optional<store::CalibrationSettings> settings =
+            found == all_settings.end() ? std::nullopt : std::optional(found->second);
+        if (!settings) {
+          items.push_back(check_item("balance", s, summary_of(s.latest), std::nullopt, on, within_days));
+          return;
+        }
+        const auto last =
+            summary_of(store::latest_run_by_procedure(db.sql(), s.id, checks::Procedure::calibration, false));
+        const auto cal =
+            summary_of(store::latest_run_by_procedure(db.sql(), s.id, checks::Procedure::calibration, true));
+        items.push_back(check_item("balance", s, last, cal, on, within_days));
+        items.push_back(calibration_item(s, settings, cal, on, within_days));
+      },
+      only_id);
   for (const auto& w : only_id.empty() ? store::list_weights(db.sql()) : std::vector<store::WeightRecord>{}) {
     report::DueItem item{"weight", w.id, "", "", w.current.due_on, days_between(on, w.current.due_on),
                  fmt::format("certificate {} ({} class {})", w.current.certificate_no, w.nominal_text, w.weight_class)};

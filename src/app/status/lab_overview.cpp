@@ -40,8 +40,10 @@ std::shared_ptr<const LabOverview> summarise(const std::vector<report::DueItem>&
   for (const auto& item : ordered) {
     const std::string key = standing_key(item.kind == "weight" ? "weight" : "instrument", item.id);
     const auto it = out->standings.find(key);
-    if (it == out->standings.end()) out->standings.emplace(key, item);
-    else if (standing_rank(item.status) < standing_rank(it->second.status)) it->second = item;
+    if (it == out->standings.end())
+      out->standings.emplace(key, item);
+    else if (standing_rank(item.status) < standing_rank(it->second.status))
+      it->second = item;
   }
   for (auto& item : ordered) {
     const bool weight = item.kind == "weight";

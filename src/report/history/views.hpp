@@ -3,8 +3,8 @@
 // app layer from the database and the trend statistics. The renderings (trend_text.hpp, the HTML report)
 // read only these, so they never touch the database.
 #include <cstdint>
-#include <nlohmann/json.hpp>
 #include <memory>
+#include <nlohmann/json.hpp>
 #include <optional>
 #include <string>
 #include <vector>
