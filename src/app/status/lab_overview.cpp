@@ -26,7 +26,7 @@ struct KeptOverview {
 };
 
 std::mutex kept_mutex;
-std::map<std::string, KeptOverview> kept;  // by database path
+std::map<std::string, KeptOverview> kept_overviews;  // by database path
 
 std::shared_ptr<const LabOverview> summarise(const std::vector<report::DueItem>& lines, Date on, int within_days,
                                              std::size_t drafts) {
@@ -99,7 +99,7 @@ std::shared_ptr<const LabOverview> lab_overview(store::Database& db, Date on, in
   // The tail is read before the lines: what is kept is never older than the tail it is kept under.
   const auto [seq, hash] = store::trail_tail(db.sql());
   const Date utc_on = today_utc();
-  auto& k = kept[db.path().string()];
+  auto& k = kept_overviews[db.path().string()];
   const bool same_view = k.overview && k.on == on && k.utc_on == utc_on && k.within_days == within_days;
   if (same_view && k.seq == seq && k.hash == hash) return k.overview;
   std::set<std::string> instruments;
