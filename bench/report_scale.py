@@ -11,6 +11,7 @@ that draw nothing, each against a floor measured in the same run. Prints figures
      shared libraries each loads (LD_DEBUG=libs). With --before OLD_PLUMB the same for another binary.
 
 Usage: bench/report_scale.py [--plumb build/plumb] [--before OLD] [--instruments 20] [--runs 500] [--work DIR]
+With --work DIR the lab is kept there, and a later run with the same DIR (and sizes) uses it again.
 """
 import argparse
 import datetime
@@ -119,10 +120,14 @@ def main():
     print(f"plumb report bench, {datetime.datetime.now(datetime.timezone.utc):%Y-%m-%d %H:%M} UTC; nproc "
           f"{os.cpu_count()}, load {os.getloadavg()[0]:.2f}")
     t0 = time.perf_counter()
-    db = build_lab(plumb, work, args.instruments, args.runs)
     readings = args.instruments * args.runs * READINGS_PER_RUN
-    print(f"lab: {args.instruments} balances x {args.runs} weekly checks = {readings} readings, built in "
-          f"{time.perf_counter() - t0:.0f} s ({os.path.getsize(db) / 1e6:.0f} MB)")
+    if args.work and os.path.exists(os.path.join(work, "lab.db")):  # the lab of an earlier run with this --work
+        db = os.path.join(work, "lab.db")
+        print(f"lab: reused {db} ({os.path.getsize(db) / 1e6:.0f} MB)")
+    else:
+        db = build_lab(plumb, work, args.instruments, args.runs)
+        print(f"lab: {args.instruments} balances x {args.runs} weekly checks = {readings} readings, built in "
+              f"{time.perf_counter() - t0:.0f} s ({os.path.getsize(db) / 1e6:.0f} MB)")
 
     floor = timed(["sqlite3", db, "SELECT count(*), sum(length(text)) FROM readings;"])
     print(f"\nfloor: sqlite3 reading every reading once: wall {floor[0]:.2f} s, cpu {floor[1]:.2f} s")

@@ -5,7 +5,10 @@ overview, an instrument page with its chart and the weekly check form, --writers
 and, in the same run, the same clients on a static file served by the same server (the floor). Prints requests per
 second, p50/p95/p99 latency and errors for each, and the server's resident memory over the run.
 
-    python3 bench/web_load.py --plumb build/plumb [--instruments 5000] [--runs 200000] [--seconds 60]
+    python3 bench/web_load.py --plumb build/plumb [--instruments 5000] [--runs 200000] [--seconds 60] [--lab DIR]
+
+With --lab DIR the lab is built in DIR and kept, and a later run with the same DIR uses it as it is (the checks the
+writers recorded included): the setup takes minutes, and a before/after comparison wants the same lab.
 
 The lab is invented (fixed seed); accounts are hashed with plumb's test-only fast limits, since only the pages are
 measured. Each client keeps one HTTP/1.1 connection (Python threads: the clients share one core's interpreter, so
@@ -188,14 +191,23 @@ def main():
     ap.add_argument("--clients", type=int, default=20)
     ap.add_argument("--writers", type=int, default=2)
     ap.add_argument("--seconds", type=int, default=60)
+    ap.add_argument("--lab", default=None, help="folder to build the lab in and keep, or to reuse it from")
     args = ap.parse_args()
     plumb = os.path.abspath(args.plumb)
-    work = tempfile.mkdtemp(prefix="plumb-web-bench-")
+    work = os.path.abspath(args.lab) if args.lab else tempfile.mkdtemp(prefix="plumb-web-bench-")
+    os.makedirs(work, exist_ok=True)
     print(f"plumb web load bench, {datetime.datetime.now(datetime.timezone.utc):%Y-%m-%d %H:%M} UTC; nproc "
           f"{os.cpu_count()}, load before start {os.getloadavg()[0]:.2f}")
     t0 = time.perf_counter()
-    db, env, readings = setup(plumb, work, args.instruments, args.runs)
-    print(f"setup: {args.instruments} balances, {readings} readings in {time.perf_counter() - t0:.0f} s")
+    if args.lab and os.path.exists(os.path.join(work, "lab.db")):
+        db = os.path.join(work, "lab.db")
+        env = dict(os.environ, PLUMB_TEST_ONLY_FAST_PASSWORD_HASHING="1", XDG_STATE_HOME=os.path.join(work, "state"))
+        readings = int(subprocess.run(["sqlite3", db, "SELECT count(*) FROM readings"], capture_output=True, text=True,
+                                      check=True).stdout)
+        print(f"lab: reused {work} ({readings} readings)")
+    else:
+        db, env, readings = setup(plumb, work, args.instruments, args.runs)
+        print(f"setup: {args.instruments} balances, {readings} readings in {time.perf_counter() - t0:.0f} s")
     server = subprocess.Popen([plumb, "--db", db, "serve", "--port", "0", "--threads", str(args.clients + args.writers)],
                               stdout=subprocess.PIPE, text=True, env=env)
     line = server.stdout.readline()
@@ -235,7 +247,8 @@ def main():
     if floor.get("static file") and pages.get("overview"):
         ratio = statistics.median(pages["overview"]) / statistics.median(floor["static file"])
         print(f"overview p50 / static file p50: {ratio:.1f}x")
-    subprocess.run(["rm", "-rf", work])
+    if not args.lab:
+        subprocess.run(["rm", "-rf", work])
 
 
 if __name__ == "__main__":

@@ -23,10 +23,10 @@ std::vector<Command> audit_commands() {
               [](const po::variables_map& vm, Env& env) {
                 const auto format = format_of(vm, {"text", "csv", "json"});
                 auto db = env.open();
-                const auto trail = app::audit_log(
-                    db, {optional_string(vm, "instrument"), optional_string(vm, "certificate"),
-                         optional_string(vm, "from"), optional_string(vm, "to"), optional_string(vm, "author"),
-                         std::nullopt});
+                const auto trail =
+                    app::audit_log(db, {optional_string(vm, "instrument"), optional_string(vm, "certificate"),
+                                        optional_string(vm, "from"), optional_string(vm, "to"),
+                                        optional_string(vm, "author"), std::nullopt, std::nullopt});
                 if (format == "json")
                   env.out << report::audit_log_json(trail.scope, trail.records, trail.authors).dump(2) << "\n";
                 else if (format == "csv")

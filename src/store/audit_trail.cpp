@@ -6,6 +6,7 @@
 #include <sqlite3.h>
 
 #include <algorithm>
+#include <iterator>
 #include <limits>
 
 #include "store/checkpoint_verification.hpp"
@@ -161,6 +162,28 @@ std::vector<AuditRecord> audit_records(SQLite::Database& db) {
 
 std::int64_t audit_record_count(SQLite::Database& db) {
   return db.execAndGet("SELECT count(*) FROM audit_log").getInt64();
+}
+
+std::vector<AuditRecord> audit_records_by_seq(SQLite::Database& db, const std::vector<std::int64_t>& seqs) {
+  std::vector<AuditRecord> out;
+  // A few hundred numbers to a statement: integers written by us, so the list is safe to write into the SQL.
+  constexpr std::size_t per_statement = 500;
+  for (std::size_t from = 0; from < seqs.size(); from += per_statement) {
+    std::string list;
+    for (std::size_t i = from; i < std::min(seqs.size(), from + per_statement); ++i)
+      list += (list.empty() ? "" : ",") + std::to_string(seqs[i]);
+    SQLite::Statement q(db, std::string(audit_record_columns) + "WHERE seq IN (" + list + ") ORDER BY seq");
+    auto part = audit_records_of(q);
+    std::move(part.begin(), part.end(), std::back_inserter(out));
+  }
+  std::sort(out.begin(), out.end(), [](const AuditRecord& a, const AuditRecord& b) { return a.seq < b.seq; });
+  return out;
+}
+
+std::pair<std::int64_t, std::string> trail_tail(SQLite::Database& db) {
+  SQLite::Statement q(db, "SELECT seq, hash FROM audit_log ORDER BY seq DESC LIMIT 1");
+  if (!q.executeStep()) return {0, genesis_hash()};
+  return {q.getColumn(0).getInt64(), q.getColumn(1).getString()};
 }
 
 std::vector<AuditRecord> latest_audit_records(SQLite::Database& db, std::int64_t limit) {

@@ -7,6 +7,7 @@
 #include <nlohmann/json.hpp>
 #include <optional>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "store/checkpoints.hpp"
@@ -48,6 +49,11 @@ std::vector<AuditRecord> audit_records(SQLite::Database& db);
 /// The last `limit` records of the trail, in order (a page that shows the newest reads no more than it shows).
 std::vector<AuditRecord> latest_audit_records(SQLite::Database& db, std::int64_t limit);
 std::int64_t audit_record_count(SQLite::Database& db);
+/// The records with these sequence numbers, in sequence order (those of one instrument: store/item_trail.hpp).
+std::vector<AuditRecord> audit_records_by_seq(SQLite::Database& db, const std::vector<std::int64_t>& seqs);
+/// The last record's sequence number and hash ({0, genesis} for an empty trail): every write appends a record, so
+/// this pair changes with every change to the records, and a view computed from the database can be kept under it.
+std::pair<std::int64_t, std::string> trail_tail(SQLite::Database& db);
 
 /// The hash a trail starts from (there is no record before the first).
 std::string genesis_hash();

@@ -11,7 +11,7 @@ namespace {
 // backwards to its first run that nothing supersedes and that is not void (index check_runs_superseded,
 // run_voids' key): a handful of index
 // steps per instrument instead of a scan of every run.
-constexpr const char* status_sql = R"(
+constexpr const char* status_select = R"(
 SELECT i.id, i.kind, i.location, i.check_every, i.created_on,
        r.id, r.procedure, r.performed_on, r.operator, r.verdict, r.next_due,
        json_extract(r.results_json, '$.bias_g'), json_extract(r.results_json, '$.sd_g'), b.readability_g,
@@ -28,8 +28,9 @@ LEFT JOIN check_runs r ON r.id = (
     AND NOT EXISTS (SELECT 1 FROM check_runs s WHERE s.supersedes = l.id)
     AND NOT EXISTS (SELECT 1 FROM run_voids v WHERE v.run_id = l.id)
   ORDER BY l.performed_on DESC, l.id DESC LIMIT 1)
-WHERE ?1 = '' OR i.kind = ?1
-ORDER BY i.id COLLATE natural_id)";
+)";
+constexpr const char* every_instrument = "WHERE ?1 = '' OR i.kind = ?1 ORDER BY i.id COLLATE natural_id";
+constexpr const char* one_instrument = "WHERE i.id = ?2 AND (?1 = '' OR i.kind = ?1)";
 
 Date date_column(const SQLite::Column& c) { return parse_date(c.getString(), "stored date"); }
 
@@ -41,9 +42,10 @@ std::optional<double> number_column(const SQLite::Column& c) {
 }  // namespace
 
 void for_each_instrument_status(SQLite::Database& db, const std::string& kind,
-                                const std::function<void(const InstrumentStatus&)>& visit) {
-  SQLite::Statement q(db, status_sql);
+                                const std::function<void(const InstrumentStatus&)>& visit, const std::string& only_id) {
+  SQLite::Statement q(db, std::string(status_select) + (only_id.empty() ? every_instrument : one_instrument));
   q.bind(1, kind);
+  if (!only_id.empty()) q.bind(2, only_id);
   InstrumentStatus s;
   while (q.executeStep()) {
     s.id = q.getColumn(0).getString();

@@ -39,8 +39,10 @@ struct InstrumentStatus {
   std::optional<LatestResult> latest;  ///< the latest run not superseded, by date then run number
 };
 
-/// Visits every instrument (of `kind`, or all when empty) in id order with its latest result.
+/// Visits every instrument (of `kind`, or all when empty) in id order with its latest result; with `only_id`, that
+/// one instrument (by the instruments' key, so a page of one instrument does not walk the lab).
 void for_each_instrument_status(SQLite::Database& db, const std::string& kind,
-                                const std::function<void(const InstrumentStatus&)>& visit);
+                                const std::function<void(const InstrumentStatus&)>& visit,
+                                const std::string& only_id = "");
 
 }  // namespace plumb::store

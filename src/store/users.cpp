@@ -103,7 +103,8 @@ std::optional<SessionRecord> find_session_by_token_hash(SQLite::Database& db, co
   s.opened_at = q.getColumn(2).getString();
   s.idle_minutes = q.getColumn(3).getInt();
   if (!q.getColumn(4).isNull()) s.ended_at = q.getColumn(4).getString();
-  s.last_used_at = q.getColumn(5).isNull() ? s.opened_at : q.getColumn(5).getString();
+  s.used = !q.getColumn(5).isNull();
+  s.last_used_at = s.used ? q.getColumn(5).getString() : s.opened_at;
   return s;
 }
 

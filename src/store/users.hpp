@@ -51,6 +51,7 @@ struct SessionRecord {
   int idle_minutes = 0;
   std::optional<std::string> ended_at;
   std::string last_used_at;  ///< opened_at until the first use
+  bool used = false;         ///< a use is stored (session_activity), not only the opening
 };
 
 std::optional<UserRecord> find_user_by_login(SQLite::Database& db, const std::string& login);

@@ -8,6 +8,7 @@
 
 #include "app/runs/lookups.hpp"
 #include "app/status/due.hpp"
+#include "app/status/lab_overview.hpp"
 #include "app/weekly_check/record.hpp"
 #include "core/dates.hpp"
 #include "core/errors.hpp"
@@ -84,7 +85,8 @@ json run_figures(store::RunRecord run) {
 /// The form's choices and what was typed, with the refusal beside its field.
 json form_context(PageContext& c, const std::string& refusal) {
   const Date today = today_local();
-  const auto standings = app::standings_on(c.db, today, c.site.options.due_window_days);
+  const auto overview = app::lab_overview(c.db, today, c.site.options.due_window_days);  // kept between requests
+  const auto& standings = overview->standings;
   const auto standing_of = [&](const std::string& kind, const std::string& id) {
     const auto s = standings.find(app::standing_key(kind, id));
     return s == standings.end() ? std::string("in date") : s->second.status;

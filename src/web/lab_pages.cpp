@@ -4,12 +4,12 @@
 
 #include <algorithm>
 
-#include "app/certificates/list.hpp"
 #include "app/history/instrument_history.hpp"
 #include "app/records/audit.hpp"
 #include "app/registry/instrument_page.hpp"
 #include "app/registry/weight_details.hpp"
 #include "app/status/due.hpp"
+#include "app/status/lab_overview.hpp"
 #include "app/status/summary.hpp"
 #include "core/dates.hpp"
 #include "report/records/audit_log.hpp"
@@ -22,6 +22,10 @@ namespace plumb::web {
 namespace {
 
 using nlohmann::json;
+
+/// Lines of the overview's table of what needs attention, and records of an instrument's audit trail, on one page.
+constexpr std::size_t overview_attention_shown = 100;
+constexpr std::int64_t instrument_audit_shown = 100;
 
 /// The overview's tiles: how many items stand so, and the list that shows them.
 json overview_tile(const std::string& label, std::size_t count, const std::string& link, const std::string& tone) {
@@ -39,18 +43,13 @@ bool contains_folded(const std::string& haystack, const std::string& needle) {
 }  // namespace
 
 WebResponse overview_page(PageContext& c) {
-  const Date today = today_local();
   const int window = c.site.options.due_window_days;
-  std::size_t overdue = 0, due = 0, out_of_service = 0, retired = 0, weights_due = 0;
+  const auto o = app::lab_overview(c.db, today_local(), window);
   json attention = json::array();
-  for (const auto& item : app::due_items(c.db, today, window, true)) {
+  // The first lines on the page; the lists behind the tiles hold every one.
+  for (std::size_t i = 0; i < std::min(o->attention.size(), overview_attention_shown); ++i) {
+    const auto& item = o->attention[i];
     const bool weight = item.kind == "weight";
-    if (weight && (item.status == "overdue" || item.status == "due")) ++weights_due;
-    if (!weight && item.status == "overdue") ++overdue;
-    if (!weight && item.status == "due") ++due;
-    if (!weight && item.status == "out of service") ++out_of_service;
-    if (!weight && item.status == "retired") ++retired;
-    if (item.status == "in date" || item.status == "retired") continue;
     attention.push_back({{"kind", item.kind},
                          {"id", item.id},
                          {"link", weight ? "/weights" : "/instruments/" + item.id},
@@ -59,20 +58,22 @@ WebResponse overview_page(PageContext& c) {
                          {"days_left", item.days_left ? json(*item.days_left) : json("")},
                          {"detail", item.detail}});
   }
-  const auto queue = app::approval_queue(c.db, std::nullopt, std::nullopt);
-  json tiles =
-      json::array({overview_tile("overdue", overdue, "/instruments?standing=overdue", "alarm"),
-                   overview_tile(fmt::format("due within {} days", window), due, "/instruments?standing=due", "watch"),
-                   overview_tile("out of service", out_of_service, "/instruments?standing=out+of+service", "alarm"),
-                   overview_tile("retired", retired, "/instruments?standing=retired", "quiet"),
-                   overview_tile("drafts awaiting approval", queue.items.size(), "/certificates", "watch"),
-                   overview_tile("reference weights due", weights_due, "/weights", "watch")});
+  json tiles = json::array(
+      {overview_tile("overdue", o->overdue, "/instruments?standing=overdue", "alarm"),
+       overview_tile(fmt::format("due within {} days", window), o->due, "/instruments?standing=due", "watch"),
+       overview_tile("out of service", o->out_of_service, "/instruments?standing=out+of+service", "alarm"),
+       overview_tile("retired", o->retired, "/instruments?standing=retired", "quiet"),
+       overview_tile("drafts awaiting approval", o->drafts, "/certificates", "watch"),
+       overview_tile("reference weights due", o->weights_due, "/weights", "watch")});
   return html_page("overview", "Overview",
-                   {{"on", to_string(today)},
+                   {{"on", to_string(o->on)},
                     {"window", window},
                     {"tiles", tiles},
                     {"attention", attention},
-                    {"has_attention", !attention.empty()}},
+                    {"has_attention", !attention.empty()},
+                    {"attention_shown", attention.size()},
+                    {"attention_total", o->attention.size()},
+                    {"attention_more", o->attention.size() > attention.size()}},
                    c.visitor);
 }
 
@@ -141,10 +142,20 @@ WebResponse instrument_item_page(PageContext& c) {
                       {"svg", chart.svg}});
   page["charts"] = charts;
   page["is_balance"] = instrument.kind == "balance";
+  // The newest records first, a page at a time (?audit_before=SEQ goes further back).
   app::AuditLogFilter filter;
   filter.instrument = id;
+  filter.newest = instrument_audit_shown;
+  if (const auto before = c.request.param("audit_before"); !before.empty()) filter.before = before;
   const auto log = app::audit_log(c.db, filter);
-  page["audit"] = report::audit_log_json(log.scope, log.records, log.authors);
+  json audit = report::audit_log_json(log.scope, log.records, log.authors);
+  auto& records = audit["records"];
+  std::reverse(records.begin(), records.end());
+  audit["shown"] = records.size();
+  audit["total"] = log.total;
+  audit["paged"] = filter.before.has_value();
+  if (log.older && !log.records.empty()) audit["older_than"] = log.records.front().seq;
+  page["audit"] = audit;
   return html_page("instrument", instrument.title, page, c.visitor);
 }
 

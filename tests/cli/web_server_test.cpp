@@ -492,3 +492,137 @@ TEST_CASE("plumb serve: under TLS the session cookie is Secure and HSTS is sent"
   CHECK(refused.status == 2);
   CHECK(refused.err == "plumb: --tls-cert and --tls-key go together: give both (PEM files) or neither.\n");
 }
+
+namespace {
+
+/// The sequence numbers of the audit table on an instrument's page, in the order shown.
+std::vector<std::int64_t> audit_rows_shown(const std::string& page) {
+  std::vector<std::int64_t> seqs;
+  const auto at = page.find("Audit records concerning");
+  REQUIRE(at != std::string::npos);
+  const std::string table = page.substr(at, page.find("</table>", at) - at);
+  const std::regex row(R"(<tr><th scope="row">(\d+)</th>)");
+  for (auto it = std::sregex_iterator(table.begin(), table.end(), row); it != std::sregex_iterator(); ++it)
+    seqs.push_back(std::stoll((*it)[1].str()));
+  return seqs;
+}
+
+/// The number on the overview's tile `label`.
+int tile_count(const std::string& page, const std::string& label) {
+  std::smatch m;
+  REQUIRE(std::regex_search(
+      page, m, std::regex(R"(<span class="count">(\d+)</span> <span class="label">)" + label + "</span>")));
+  return std::stoi(m[1].str());
+}
+
+}  // namespace
+
+TEST_CASE("plumb serve: an instrument's audit trail is its own records only, newest first, a page at a time", "[web]") {
+  ScratchDir dir;
+  const auto db = plumb::test::example_lab(dir).string();
+  const auto password = add_user(db, dir, "tina", "Tina Bench", "technician");
+  REQUIRE(run_plumb({"--db", db, "balance", "add", "BAL-B", "--capacity", "220g", "--readability", "0.1mg", "--every",
+                     "7d", "--smallest-net", "200mg", "--location", "Room 3", "--since", "2026-01-05"},
+                    dir.path())
+              .status == 0);
+  // 110 weekly checks of BAL-A (one record each) and 5 of BAL-B, imported as a history (from W100's calibration on).
+  std::string history = "instrument,procedure,date,operator,weight,reading,unit\n";
+  const auto add_run = [&](const std::string& id, int week) {
+    for (const char* reading : {"100.0003", "100.0001", "100.0002", "100.0004", "100.0002", "100.0003", "100.0001",
+                                "100.0002", "100.0003", "100.0002"})
+      history += fmt::format("{},repeatability,{},Ann Operator,W100,{},g\n", id,
+                             fmt::format("2026-{:02d}-{:02d}", 3 + week / 28, 2 + week % 28), reading);
+  };
+  for (int week = 0; week < 110; ++week) add_run("BAL-A", week);
+  for (int week = 0; week < 5; ++week) add_run("BAL-B", week);
+  dir.write("history.csv", history);
+  const auto imported = run_plumb({"--db", db, "check", "import", "history.csv"}, dir.path());
+  INFO(imported.err);
+  REQUIRE(imported.status == 0);
+  // What the CLI says are BAL-A's and BAL-B's records (the whole of each, oldest first).
+  const auto seqs_of = [&](const std::string& id) {
+    const auto r = run_plumb({"--db", db, "audit", "log", "--instrument", id, "--format", "json"}, dir.path());
+    REQUIRE(r.status == 0);
+    const json log = json::parse(r.out);
+    std::vector<std::int64_t> seqs;
+    for (const auto& record : log["records"]) seqs.push_back(record["seq"].get<std::int64_t>());
+    return seqs;
+  };
+  const auto a = seqs_of("BAL-A"), b = seqs_of("BAL-B");
+  REQUIRE(a.size() > 110);  // registered, and its 110 runs
+  REQUIRE(b.size() > 5);
+
+  Served served(db, dir);
+  Browser browser(served.port());
+  REQUIRE(browser.log_in("tina", password)->status == 303);
+  auto r = browser.get("/instruments/BAL-A");
+  REQUIRE(r);
+  REQUIRE(r->status == 200);
+  // The newest 100 of BAL-A's records, newest first, none of BAL-B's, and a link to the older ones.
+  const auto first = audit_rows_shown(r->body);
+  const std::vector<std::int64_t> newest(a.rbegin(), a.rbegin() + 100);
+  CHECK(first == newest);
+  for (const auto seq : b) CHECK(std::find(first.begin(), first.end(), seq) == first.end());
+  CHECK_THAT(r->body, Catch::Contains(fmt::format("{} records, newest first", a.size())));
+  const std::string older = fmt::format("/instruments/BAL-A?audit_before={}#audit", newest.back());
+  CHECK_THAT(r->body, Catch::Contains("href=\"" + older + "\">Older records</a>"));
+  // The next page: the rest, still newest first, with no further page.
+  r = browser.get(fmt::format("/instruments/BAL-A?audit_before={}", newest.back()));
+  REQUIRE(r);
+  REQUIRE(r->status == 200);
+  const auto second = audit_rows_shown(r->body);
+  CHECK(second == std::vector<std::int64_t>(a.rbegin() + 100, a.rend()));
+  CHECK_THAT(r->body, !Catch::Contains("Older records"));
+  CHECK_THAT(r->body, Catch::Contains("href=\"/instruments/BAL-A#audit\">Newest records</a>"));
+  // BAL-B's page: exactly its records.
+  r = browser.get("/instruments/BAL-B");
+  REQUIRE(r);
+  CHECK(audit_rows_shown(r->body) == std::vector<std::int64_t>(b.rbegin(), b.rend()));
+  // A page number that is not one is refused with the sentence, not ignored.
+  r = browser.get("/instruments/BAL-A?audit_before=12x");
+  REQUIRE(r);
+  CHECK(r->status == 400);
+  CHECK_THAT(r->body, Catch::Contains("the audit record &quot;12x&quot; to page back from is not a record number"));
+}
+
+TEST_CASE("plumb serve: the overview shows on its next load what the CLI recorded while it runs", "[web]") {
+  ScratchDir dir;
+  const auto db = plumb::test::example_lab(dir).string();
+  const auto password = add_user(db, dir, "tina", "Tina Bench", "technician");
+  dir.write("readings.csv", passing_readings);
+  Served served(db, dir);
+  Browser browser(served.port());
+  REQUIRE(browser.log_in("tina", password)->status == 303);
+  // BAL-A (every 7 days since 2026-01-05, never checked) is overdue.
+  auto r = browser.get("/");
+  REQUIRE(r);
+  CHECK(tile_count(r->body, "overdue") == 1);
+  CHECK(tile_count(r->body, "due within 14 days") == 0);
+  r = browser.get("/");  // the same page again, from what was kept
+  CHECK(tile_count(r->body, "overdue") == 1);
+  // A weekly check recorded by the CLI today: BAL-A is due again in 7 days, within the overview's 14.
+  REQUIRE(
+      run_plumb({"--db", db, "check", "record", "BAL-A", "--weight", "W100", "--readings", "readings.csv"}, dir.path())
+          .status == 0);
+  r = browser.get("/");
+  REQUIRE(r);
+  CHECK(tile_count(r->body, "overdue") == 0);
+  CHECK(tile_count(r->body, "due within 14 days") == 1);
+  CHECK_THAT(r->body, Catch::Contains("last passed"));
+  // Another kind of change (a balance registered): read again whole; the new one, never checked, is overdue.
+  REQUIRE(run_plumb({"--db", db, "balance", "add", "BAL-B", "--capacity", "220g", "--readability", "0.1mg", "--every",
+                     "7d", "--smallest-net", "200mg", "--location", "Room 3", "--since", "2026-01-05"},
+                    dir.path())
+              .status == 0);
+  r = browser.get("/");
+  REQUIRE(r);
+  CHECK(tile_count(r->body, "overdue") == 1);
+  CHECK(tile_count(r->body, "due within 14 days") == 1);
+  CHECK_THAT(r->body, Catch::Contains("href=\"/instruments/BAL-B\""));
+  // And a retirement: BAL-B is counted as retired, not overdue.
+  REQUIRE(run_plumb({"--db", db, "instrument", "retire", "BAL-B", "--reason", "replaced"}, dir.path()).status == 0);
+  r = browser.get("/");
+  REQUIRE(r);
+  CHECK(tile_count(r->body, "overdue") == 0);
+  CHECK(tile_count(r->body, "retired") == 1);
+}

@@ -216,7 +216,7 @@ TEST_CASE("an adjustment is marked and the drift is fitted after it only", "[rep
   cal.procedure = plumb::checks::Procedure::calibration;
   cal.verdict = "pass";
   cal.values = {std::nullopt};
-  cal.results = {{"adjusted", true}};
+  cal.results = std::make_shared<const nlohmann::json>(nlohmann::json{{"adjusted", true}});
   all.rows.insert(all.rows.begin() + 3, cal);
 
   const HistoryChartMarks m = plumb::app::chart_marks(s, all);

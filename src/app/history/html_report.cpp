@@ -36,8 +36,8 @@ void require_html_path(const std::filesystem::path& p) {
 }
 
 // The trend findings and charts of one quantity; a statistic that cannot be computed says why instead.
-void add_trends(store::Database& db, const InstrumentInfo& inst, const HistoryQuantity& q, report::InstrumentSection& s) {
-  const report::SeriesView series = series_view(db, inst, q, {});
+void add_trends(const RunHistory& h, const HistoryQuantity& q, report::InstrumentSection& s) {
+  const report::SeriesView series = series_view(h, q, {});
   const report::HistoryChartMarks marks = chart_marks(series, s.history);
   if (series.points.size() < 2) {
     s.findings.push_back(fmt::format("{}: {} result(s), too few for a control chart or a drift line.",
@@ -72,16 +72,18 @@ report::InstrumentSection section_of(store::Database& db, const std::string& id,
   s.location = inst.location;
   const auto standing = standing_of.find(standing_key("instrument", id));
   s.status = standing == standing_of.end() ? "in date" : standing->second.status;
-  s.history = history_view(db, inst, {});
+  // The history is read once; the table, the watched quantities and the interval review all use it.
+  const RunHistory h = read_run_history(db, inst);
+  s.history = history_view(h, {});
   const auto keys = quantity_keys(inst.kind);
   // The watched quantities (bias and repeatability of a balance, e_s % and CV of a pipette); the others follow
   // from them (the minimum weight from the SD) or repeat them in another unit.
   for (const auto& q : history_quantities())
-    if (q.instrument_kind == inst.kind && q.watched) add_trends(db, inst, q, s);
+    if (q.instrument_kind == inst.kind && q.watched) add_trends(h, q, s);
   if (s.status == "retired") {
     s.findings.push_back(fmt::format("Retired ({}); kept for history, not due for checks.", standing->second.detail));
   } else if (!keys.empty() && !s.history.rows.empty()) {
-    const auto review = interval_review(db, {id, keys.front(), {}, std::nullopt});
+    const auto review = interval_review(h, find_quantity(keys.front(), inst), {});
     s.findings.push_back(fmt::format("Check interval: {} the current {} ({} days recommended). {}",
                                      stats::to_string(review.recommended.action), inst.every.to_string(),
                                      review.recommended.recommended_days, review.combination));

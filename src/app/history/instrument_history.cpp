@@ -30,22 +30,30 @@ std::map<std::int64_t, std::int64_t> superseded_by(const std::vector<store::RunR
   return m;
 }
 
-report::QuantityView quantity_view(store::Database& db, const InstrumentInfo& inst, const HistoryQuantity& q,
-                                   const std::vector<store::RunRecord>& runs) {
+report::QuantityView quantity_view(const RunHistory& h, const HistoryQuantity& q) {
   report::QuantityView v{q.key, q.label, q.unit, q.uncertainty_basis, {}, "", q.non_negative};
   // The latest current run of the quantity's procedure decides the label and the limits that apply now.
+  const auto& runs = *h.runs;
   const auto replaced = superseded_by(runs);
-  for (auto it = runs.rbegin(); it != runs.rend(); ++it) {
-    if (it->procedure != q.procedure || replaced.count(it->id) || it->voided) continue;
-    const RunContext c{*it, first_weight(db, *it)};
+  for (std::size_t i = runs.size(); i-- > 0;) {
+    const auto& run = runs[i];
+    if (run.procedure != q.procedure || replaced.count(run.id) || run.voided) continue;
+    const RunContext c{run, h.first_weights[i]};
     v.label = q.axis_label(c);
-    const auto t = q.tolerance(c, inst);
+    const auto t = q.tolerance(c, h.instrument);
     v.tolerance = t.limits;
     v.tolerance_basis = t.basis;
     return v;
   }
   v.tolerance_basis = "no check has been recorded";
   return v;
+}
+
+std::vector<const HistoryQuantity*> quantities_of(const InstrumentInfo& inst) {
+  std::vector<const HistoryQuantity*> quantities;
+  for (const auto& q : history_quantities())
+    if (q.instrument_kind == inst.kind) quantities.push_back(&q);
+  return quantities;
 }
 
 }  // namespace
@@ -81,20 +89,45 @@ InstrumentInfo find_instrument(store::Database& db, const std::string& id) {
   return info;
 }
 
+RunHistory read_run_history(store::Database& db, const InstrumentInfo& inst) {
+  RunHistory h{inst, std::make_shared<const std::vector<store::RunRecord>>(store::runs_of(db.sql(), inst.id)), {}};
+  // A lab uses a few reference weights for hundreds of runs: each certificate is read once.
+  std::map<std::int64_t, std::optional<store::WeightCalibration>> certificates;
+  h.first_weights.reserve(h.runs->size());
+  for (const auto& run : *h.runs) {
+    if (run.weights.empty()) {
+      h.first_weights.emplace_back();
+      continue;
+    }
+    const auto id = run.weights.front().weight_calibration_id;
+    auto it = certificates.find(id);
+    if (it == certificates.end()) it = certificates.emplace(id, store::find_weight_calibration(db.sql(), id)).first;
+    h.first_weights.push_back(it->second);
+  }
+  return h;
+}
+
 report::HistoryView history_view(store::Database& db, const InstrumentInfo& inst, const Period& period) {
-  std::vector<const HistoryQuantity*> quantities;
-  for (const auto& q : history_quantities())
-    if (q.instrument_kind == inst.kind) quantities.push_back(&q);
-  return history_view(db, inst, period, quantities);
+  return history_view(read_run_history(db, inst), period);
 }
 
 report::HistoryView history_view(store::Database& db, const InstrumentInfo& inst, const Period& period,
                                  const std::vector<const HistoryQuantity*>& quantities) {
-  const auto runs = store::runs_of(db.sql(), inst.id);
+  return history_view(read_run_history(db, inst), period, quantities);
+}
+
+report::HistoryView history_view(const RunHistory& h, const Period& period) {
+  return history_view(h, period, quantities_of(h.instrument));
+}
+
+report::HistoryView history_view(const RunHistory& h, const Period& period,
+                                 const std::vector<const HistoryQuantity*>& quantities) {
+  const auto& runs = *h.runs;
   const auto replaced = superseded_by(runs);
-  report::HistoryView view{inst.id, inst.title, period.from, period.to, {}, {}};
-  for (const auto* q : quantities) view.columns.push_back(quantity_view(db, inst, *q, runs));
-  for (const auto& run : runs) {
+  report::HistoryView view{h.instrument.id, h.instrument.title, period.from, period.to, {}, {}};
+  for (const auto* q : quantities) view.columns.push_back(quantity_view(h, *q));
+  for (std::size_t i = 0; i < runs.size(); ++i) {
+    const auto& run = runs[i];
     if (!in_period(run.performed_on, period)) continue;
     report::HistoryRow row;
     row.run_id = run.id;
@@ -106,8 +139,8 @@ report::HistoryView history_view(store::Database& db, const InstrumentInfo& inst
     row.supersedes = run.supersedes;
     if (auto it = replaced.find(run.id); it != replaced.end()) row.superseded_by = it->second;
     if (run.voided) row.void_reason = run.voided->reason;
-    row.results = run.results;
-    const RunContext c{run, first_weight(db, run)};
+    row.results = std::shared_ptr<const nlohmann::json>(h.runs, &run.results);  // shares the history's, no copy
+    const RunContext c{run, h.first_weights[i]};
     for (const auto* q : quantities) {
       const auto v = q->procedure == run.procedure ? q->read(c) : std::nullopt;
       row.values.push_back(v ? std::optional(v->value) : std::nullopt);
@@ -140,10 +173,15 @@ void require_results(store::Database& db, const InstrumentInfo& inst, const Hist
 
 report::SeriesView series_view(store::Database& db, const InstrumentInfo& inst, const HistoryQuantity& q,
                                const Period& period) {
-  const auto runs = store::runs_of(db.sql(), inst.id);
+  return series_view(read_run_history(db, inst), q, period);
+}
+
+report::SeriesView series_view(const RunHistory& h, const HistoryQuantity& q, const Period& period) {
+  const auto& runs = *h.runs;
   const auto replaced = superseded_by(runs);
-  report::SeriesView view{inst.id, inst.title, quantity_view(db, inst, q, runs), {}, {}, 0};
-  for (const auto& run : runs) {
+  report::SeriesView view{h.instrument.id, h.instrument.title, quantity_view(h, q), {}, {}, 0};
+  for (std::size_t i = 0; i < runs.size(); ++i) {
+    const auto& run = runs[i];
     if (run.procedure != q.procedure || !in_period(run.performed_on, period)) continue;
     if (replaced.count(run.id)) {
       ++view.superseded_left_out;
@@ -153,7 +191,7 @@ report::SeriesView series_view(store::Database& db, const InstrumentInfo& inst, 
       ++view.void_left_out;
       continue;
     }
-    const auto v = q.read(RunContext{run, first_weight(db, run)});
+    const auto v = q.read(RunContext{run, h.first_weights[i]});
     if (!v) continue;
     view.points.push_back({run.performed_on, v->value, v->expanded_uncertainty});
     view.run_ids.push_back(run.id);

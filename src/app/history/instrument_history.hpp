@@ -22,11 +22,26 @@ Period parse_period(const std::optional<std::string>& from, const std::optional<
 /// The instrument, or InputError "instrument "X" is not registered."
 InstrumentInfo find_instrument(store::Database& db, const std::string& id);
 
+/// An instrument's runs read once (oldest first) with the certificate of each run's first reference weight: one page
+/// or report shows its table, its series and its reviews from one reading of its history.
+struct RunHistory {
+  InstrumentInfo instrument;
+  /// Shared, so that the views made from it point into its runs' results instead of copying them.
+  std::shared_ptr<const std::vector<store::RunRecord>> runs;
+  std::vector<std::optional<store::WeightCalibration>> first_weights;  ///< one per run
+};
+RunHistory read_run_history(store::Database& db, const InstrumentInfo& instrument);
+
 /// Every run in the period, oldest first, with every quantity of the instrument's kind as a column.
 report::HistoryView history_view(store::Database& db, const InstrumentInfo& instrument, const Period& period);
 
 /// The same with only the given quantities as columns (`history --quantity`).
 report::HistoryView history_view(store::Database& db, const InstrumentInfo& instrument, const Period& period,
+                                 const std::vector<const HistoryQuantity*>& quantities);
+
+/// The same from a history read once.
+report::HistoryView history_view(const RunHistory& history, const Period& period);
+report::HistoryView history_view(const RunHistory& history, const Period& period,
                                  const std::vector<const HistoryQuantity*>& quantities);
 
 /// InputError unless some run of the instrument (in any period) carries `quantity`: a pipette's test volume never
@@ -37,5 +52,6 @@ void require_results(store::Database& db, const InstrumentInfo& instrument, cons
 /// The current (not superseded) results of one quantity in the period, with the tolerance that applies now.
 report::SeriesView series_view(store::Database& db, const InstrumentInfo& instrument, const HistoryQuantity& quantity,
                                const Period& period);
+report::SeriesView series_view(const RunHistory& history, const HistoryQuantity& quantity, const Period& period);
 
 }  // namespace plumb::app

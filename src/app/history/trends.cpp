@@ -89,8 +89,8 @@ report::HistoryChartMarks chart_marks(const report::SeriesView& s, const report:
       const auto k = static_cast<std::size_t>(column - all.columns.begin());
       if (row.void_reason && row.values[k]) m.void_runs.push_back({row.date, *row.values[k], 0.0});
     }
-    if (row.current() && row.procedure == checks::Procedure::calibration && row.results.is_object() &&
-        row.results.value("adjusted", false)) {
+    if (row.current() && row.procedure == checks::Procedure::calibration && row.results && row.results->is_object() &&
+        row.results->value("adjusted", false)) {
       m.adjustments.emplace_back(row.date, fmt::format("adjusted (run {})", row.run_id));
       if (!latest || row.date > latest->date || (row.date == latest->date && row.run_id > latest->run_id))
         latest = &row;
@@ -197,13 +197,18 @@ report::DriftView drift(store::Database& db, const TrendRequest& r) {
 report::IntervalReviewView interval_review(store::Database& db, const TrendRequest& r) {
   const InstrumentInfo inst = find_instrument(db, r.instrument);
   const HistoryQuantity& q = find_quantity(r.quantity, inst);
+  return interval_review(read_run_history(db, inst), q, r.period);
+}
+
+report::IntervalReviewView interval_review(const RunHistory& h, const HistoryQuantity& q, const Period& period) {
+  const InstrumentInfo& inst = h.instrument;
   report::IntervalReviewView v;
   v.instrument_id = inst.id;
   v.instrument_title = inst.title;
   v.current = inst.every;
 
-  // Method 1 reads the verdict of every current run, whatever its procedure.
-  const report::HistoryView all = history_view(db, inst, r.period);
+  // Method 1 reads the verdict of every current run, whatever its procedure (no quantity needed).
+  const report::HistoryView all = history_view(h, period, {});
   std::vector<stats::CheckOutcome> outcomes;
   for (const auto& row : all.rows)
     if (row.current()) outcomes.push_back({row.date, row.verdict == "pass"});
@@ -211,7 +216,7 @@ report::IntervalReviewView interval_review(store::Database& db, const TrendReque
     throw InputError(fmt::format("instrument {} has no check in the period; there is no history to review.", inst.id));
   v.staircase = stats::staircase_review(inst.every, outcomes);
 
-  const report::SeriesView s = series_view(db, inst, q, r.period);
+  const report::SeriesView s = series_view(h, q, period);
   v.quantity_label = s.quantity.label;
   stats::ControlChartReviewOptions options;
   options.tolerance = s.quantity.tolerance;

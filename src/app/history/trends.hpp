@@ -35,6 +35,9 @@ report::DriftView drift(store::Database& db, const TrendRequest& request);
 
 /// Both published methods on the instrument's verdicts and on `quantity`; the shorter interval wins.
 report::IntervalReviewView interval_review(store::Database& db, const TrendRequest& request);
+/// The same from a history read once.
+report::IntervalReviewView interval_review(const RunHistory& history, const HistoryQuantity& quantity,
+                                           const Period& period);
 
 /// Checks the chart path before any work: a known extension and an existing folder (InputError otherwise).
 void require_chart_path(const std::optional<std::filesystem::path>& chart);

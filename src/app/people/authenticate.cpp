@@ -156,7 +156,10 @@ Authenticated authenticate(store::Database& db, const std::string& command, cons
   }
   const AccountState state = usable_account(db, user, command, settings, now);
   require_permission(command, state.roles, user.login);
-  if (session && session->user.id == user.id) store::touch_session(db.sql(), session->session.id, now);
+  // Times are to the second: a session whose stored use is this second keeps it, and the page takes no write lock
+  // (a browser's requests come several to a second; each write would wait behind the lab's recording).
+  if (session && session->user.id == user.id && !(session->session.used && session->session.last_used_at == now))
+    store::touch_session(db.sql(), session->session.id, now);
   out.actor = {user.full_name, store::current_os_user(), user.id};
   out.login = user.login;
   out.roles = state.roles;

@@ -11,6 +11,7 @@
 #include "store/audit_trail.hpp"
 #include "store/checkpoints.hpp"
 #include "store/file_output.hpp"
+#include "store/item_trail.hpp"
 #include "store/lab_key.hpp"
 #include "store/repository.hpp"
 #include "store/signature_check.hpp"
@@ -21,36 +22,12 @@ namespace {
 
 using nlohmann::json;
 
-bool is(const json& row, const char* column, const std::string& value) {
-  return row.contains(column) && row[column].is_string() && row[column].get<std::string>() == value;
-}
-
 bool in(const json& row, const char* column, const std::set<std::int64_t>& ids) {
   return row.contains(column) && row[column].is_number_integer() && ids.count(row[column].get<std::int64_t>()) > 0;
 }
 
 bool is_id(const json& row, const char* column, std::int64_t id) {
   return in(row, column, {id});
-}
-
-std::vector<store::AuditRecord> of_instrument(const std::vector<store::AuditRecord>& all, const std::string& id) {
-  std::set<std::int64_t> runs, certificates;
-  std::vector<store::AuditRecord> out;
-  // Parents are always recorded before their children, so one pass in trail order collects the ids.
-  for (const auto& r : all) {
-    bool related = false;
-    for (const auto& [table, row] : store::recorded_rows(r)) {
-      if (!((table == "instruments" && is(row, "id", id)) || is(row, "instrument_id", id) ||
-            (is(row, "item_kind", "instrument") && is(row, "item_id", id)) || in(row, "run_id", runs) ||
-            in(row, "certificate_id", certificates)))
-        continue;
-      related = true;
-      if (table == "check_runs" && row.contains("id")) runs.insert(row["id"].get<std::int64_t>());
-      if (table == "certificates" && row.contains("id")) certificates.insert(row["id"].get<std::int64_t>());
-    }
-    if (related) out.push_back(r);
-  }
-  return out;
 }
 
 std::vector<store::AuditRecord> of_certificate(const std::vector<store::AuditRecord>& all,
@@ -66,6 +43,15 @@ std::vector<store::AuditRecord> of_certificate(const std::vector<store::AuditRec
     if (related) out.push_back(r);
   }
   return out;
+}
+
+/// The sequence number a page of records goes back from: digits only, at least 1.
+std::int64_t record_number(const std::string& text) {
+  const bool digits = !text.empty() && text.size() <= 18 && text.find_first_not_of("0123456789") == std::string::npos;
+  if (!digits || std::stoll(text) < 1)
+    throw InputError(
+        fmt::format("the audit record \"{}\" to page back from is not a record number (a whole number from 1).", text));
+  return std::stoll(text);
 }
 
 /// Applies --from, --to and --author, and says so in the scope.
@@ -107,7 +93,19 @@ AuditLog audit_log(store::Database& db, const AuditLogFilter& filter) {
     if (!store::instrument_exists(db.sql(), *filter.instrument))
       throw InputError(fmt::format("--instrument \"{}\" is not registered.", *filter.instrument));
     log.scope = "instrument " + *filter.instrument;
-    log.records = of_instrument(store::audit_records(db.sql()), *filter.instrument);
+    auto seqs = store::instrument_record_seqs(db.sql(), *filter.instrument);
+    if (!filter.from && !filter.to && !filter.author) log.total = static_cast<std::int64_t>(seqs.size());
+    // Without a date or author filter a page reads only the records it shows.
+    if (filter.before) {
+      const std::int64_t before = record_number(*filter.before);
+      std::erase_if(seqs, [&](std::int64_t s) { return s >= before; });
+    }
+    if (filter.newest && !filter.from && !filter.to && !filter.author &&
+        static_cast<std::int64_t>(seqs.size()) > *filter.newest) {
+      log.older = true;
+      seqs.erase(seqs.begin(), seqs.end() - *filter.newest);
+    }
+    log.records = store::audit_records_by_seq(db.sql(), seqs);
   } else if (filter.certificate) {
     const auto cert = resolve_certificate(db, *filter.certificate);
     log.scope = "certificate " + cert.number;
@@ -118,14 +116,17 @@ AuditLog audit_log(store::Database& db, const AuditLogFilter& filter) {
       // A page of the newest records reads only those: the whole trail may hold millions.
       log.records = store::latest_audit_records(db.sql(), *filter.newest);
       log.total = store::audit_record_count(db.sql());
+      log.older = log.total > static_cast<std::int64_t>(log.records.size());
     } else {
       log.records = store::audit_records(db.sql());
     }
   }
   narrow(db, log, filter);
   if (log.total == 0) log.total = static_cast<std::int64_t>(log.records.size());
-  if (filter.newest && static_cast<std::int64_t>(log.records.size()) > *filter.newest)
+  if (filter.newest && static_cast<std::int64_t>(log.records.size()) > *filter.newest) {
+    log.older = true;
     log.records.erase(log.records.begin(), log.records.end() - *filter.newest);
+  }
   for (const auto& u : store::all_users(db.sql())) log.authors.logins.emplace(u.id, u.login);
   log.authors.first_account_seq = store::first_account_record(db.sql());
   return log;

@@ -17,7 +17,9 @@ struct AuditLogFilter {
   std::optional<std::string> certificate;  ///< a certificate number (or run number / LAST)
   std::optional<std::string> from, to;     ///< --from / --to: UTC dates, YYYY-MM-DD, inclusive
   std::optional<std::string> author;       ///< --author: only the records written by this user account (its login)
-  std::optional<std::int64_t> newest;      ///< only the last N records of the whole lab (no other filter)
+  std::optional<std::int64_t> newest;      ///< only the last N records (of the lab: with no other filter)
+  /// Of an instrument: only records older than the record of this sequence number (a page further back).
+  std::optional<std::string> before;
 };
 
 struct AuditLog {
@@ -25,11 +27,13 @@ struct AuditLog {
   std::vector<store::AuditRecord> records;
   report::AuditAuthors authors;  ///< who wrote each record
   std::int64_t total = 0;         ///< records in the scope before `newest` kept only the last ones
+  bool older = false;             ///< records older than the first one kept are in the scope (another page)
 };
 
 /// The records of the trail that concern the filter's subject, in order. An instrument's records are its
 /// own rows, every row naming it (instrument_id), its runs and their rows (run_id), their certificates and
-/// their events (certificate_id), and its retire/reinstate events. A certificate's records are its run with
+/// their events (certificate_id), and its retire/reinstate events, found through the trail's index of rows
+/// (store/item_trail.hpp) without reading the rest of the trail. A certificate's records are its run with
 /// the run's rows, the certificate, its events and the certificate that replaces it.
 /// --from, --to and --author narrow any of these further; InputError naming the option for a malformed date, a
 /// period that ends before it starts, or a login that names no account.

@@ -97,8 +97,7 @@ json instrument_page(store::Database& db, const std::string& kind, const std::st
   // The same lines and the same standing as `due --all` and `summary`: the line that matters most decides.
   json lines = json::array();
   std::optional<report::DueItem> worst;
-  for (const auto& item : due_items(db, on, default_due_window_days, true)) {
-    if (item.kind == "weight" || item.id != id) continue;
+  for (const auto& item : instrument_due_items(db, id, on, default_due_window_days, true)) {
     lines.push_back({{"kind", item.kind},
                      {"status", item.status},
                      {"due_on", item.due_on ? json(to_string(*item.due_on)) : json()},

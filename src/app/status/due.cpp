@@ -83,29 +83,35 @@ report::DueItem calibration_item(const store::InstrumentStatus& s, const std::op
 
 }  // namespace
 
-std::vector<report::DueItem> due_items(store::Database& db, Date on, int within_days, bool everything) {
+std::vector<report::DueItem> due_lines_in_id_order(store::Database& db, Date on, int within_days,
+                                                   const std::string& only_id) {
   std::vector<report::DueItem> items;
   // One set-based query gives every instrument's latest run, so a large lab is not one query per
   // instrument; only balances with calibration settings need their calibration looked up apart.
   const auto all_settings = store::all_current_calibration_settings(db.sql());
-  store::for_each_instrument_status(db.sql(), "", [&](const store::InstrumentStatus& s) {
-    if (s.kind != "balance") {
-      items.push_back(check_item(s.kind, s, summary_of(s.latest), std::nullopt, on, within_days));
-      return;
-    }
-    const auto found = all_settings.find(s.id);
-    const std::optional<store::CalibrationSettings> settings =
-        found == all_settings.end() ? std::nullopt : std::optional(found->second);
-    if (!settings) {
-      items.push_back(check_item("balance", s, summary_of(s.latest), std::nullopt, on, within_days));
-      return;
-    }
-    const auto last = summary_of(store::latest_run_by_procedure(db.sql(), s.id, checks::Procedure::calibration, false));
-    const auto cal = summary_of(store::latest_run_by_procedure(db.sql(), s.id, checks::Procedure::calibration, true));
-    items.push_back(check_item("balance", s, last, cal, on, within_days));
-    items.push_back(calibration_item(s, settings, cal, on, within_days));
-  });
-  for (const auto& w : store::list_weights(db.sql())) {
+  store::for_each_instrument_status(
+      db.sql(), "",
+      [&](const store::InstrumentStatus& s) {
+        if (s.kind != "balance") {
+          items.push_back(check_item(s.kind, s, summary_of(s.latest), std::nullopt, on, within_days));
+          return;
+        }
+        const auto found = all_settings.find(s.id);
+        const std::optional<store::CalibrationSettings> settings =
+            found == all_settings.end() ? std::nullopt : std::optional(found->second);
+        if (!settings) {
+          items.push_back(check_item("balance", s, summary_of(s.latest), std::nullopt, on, within_days));
+          return;
+        }
+        const auto last =
+            summary_of(store::latest_run_by_procedure(db.sql(), s.id, checks::Procedure::calibration, false));
+        const auto cal =
+            summary_of(store::latest_run_by_procedure(db.sql(), s.id, checks::Procedure::calibration, true));
+        items.push_back(check_item("balance", s, last, cal, on, within_days));
+        items.push_back(calibration_item(s, settings, cal, on, within_days));
+      },
+      only_id);
+  for (const auto& w : only_id.empty() ? store::list_weights(db.sql()) : std::vector<store::WeightRecord>{}) {
     report::DueItem item{"weight", w.id, "", "", w.current.due_on, days_between(on, w.current.due_on),
                  fmt::format("certificate {} ({} class {})", w.current.certificate_no, w.nominal_text, w.weight_class)};
     item.status = timing_status(*item.days_left, within_days);
@@ -124,6 +130,10 @@ std::vector<report::DueItem> due_items(store::Database& db, Date on, int within_
     i.days_left.reset();
     i.detail = r ? fmt::format("retired {}: {}", r->recorded_at.substr(0, 10), r->reason) : "retired";
   }
+  return items;
+}
+
+void order_due_items(std::vector<report::DueItem>& items, bool everything) {
   if (!everything)
     std::erase_if(items, [](const report::DueItem& i) { return i.status == "in date" || i.status == "retired"; });
   std::stable_sort(items.begin(), items.end(), [](const report::DueItem& a, const report::DueItem& b) {
@@ -133,6 +143,18 @@ std::vector<report::DueItem> due_items(store::Database& db, Date on, int within_
     if (a_retired != b_retired) return b_retired;  // retired items last: nothing is due for them
     return a.days_left.value_or(0) < b.days_left.value_or(0);
   });
+}
+
+std::vector<report::DueItem> due_items(store::Database& db, Date on, int within_days, bool everything) {
+  auto items = due_lines_in_id_order(db, on, within_days, "");
+  order_due_items(items, everything);
+  return items;
+}
+
+std::vector<report::DueItem> instrument_due_items(store::Database& db, const std::string& instrument_id, Date on,
+                                                  int within_days, bool everything) {
+  auto items = due_lines_in_id_order(db, on, within_days, instrument_id);
+  order_due_items(items, everything);
   return items;
 }
 

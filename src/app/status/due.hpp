@@ -17,6 +17,19 @@ namespace plumb::app {
 /// Sorted: out of service first, then by days left.
 /// Retired items come only with `everything`, with status "retired" and no due date.
 std::vector<report::DueItem> due_items(store::Database& db, Date on, int within_days, bool everything = false);
+/// The due lines of one instrument (`everything` as above; no weights): the same lines, in the same order, as
+/// due_items gives for it, without reading the rest of the lab.
+std::vector<report::DueItem> instrument_due_items(store::Database& db, const std::string& instrument_id, Date on,
+                                                  int within_days, bool everything = true);
+
+/// The lines of due_items before they are ordered: every instrument's (or only `only_id`'s) in id order, each
+/// instrument's lines together, then (for the whole lab) every weight's; retired ones marked. With
+/// order_due_items they are exactly due_items (the overview keeps them so, to replace one instrument's lines).
+std::vector<report::DueItem> due_lines_in_id_order(store::Database& db, Date on, int within_days,
+                                                   const std::string& only_id = "");
+/// due_items' order: without `everything` drops what is in date or retired; out of service first, retired last,
+/// then by days left (stable).
+void order_due_items(std::vector<report::DueItem>& items, bool everything);
 
 /// The words every output (due, summary, lists, history, the HTML report, show pages) uses for where an
 /// instrument or weight stands, the one that matters most first.

@@ -146,7 +146,7 @@ json history_json(const HistoryView& v) {
                     {"supersedes", id_json(r.supersedes)},
                     {"superseded_by", id_json(r.superseded_by)},
                     {"values", values},
-                    {"results", r.results}});
+                    {"results", r.results ? *r.results : json()}});
   }
   return {{"instrument", v.instrument_id}, {"title", v.instrument_title}, {"from", date_json(v.from)},
           {"to", date_json(v.to)},         {"columns", columns},          {"runs", runs}};

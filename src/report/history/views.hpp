@@ -3,6 +3,7 @@
 // app layer from the database and the trend statistics. The renderings (trend_text.hpp, the HTML report)
 // read only these, so they never touch the database.
 #include <cstdint>
+#include <memory>
 #include <nlohmann/json.hpp>
 #include <optional>
 #include <string>
@@ -42,7 +43,9 @@ struct HistoryRow {
   [[nodiscard]] bool current() const { return !superseded_by && !void_reason; }
   std::vector<std::optional<double>> values;  ///< one per column
   std::vector<std::optional<double>> uncertainties;
-  nlohmann::json results;  ///< as stored with the run
+  /// As stored with the run; shared with the history it was read from (app::RunHistory), not copied: a page of
+  /// hundreds of runs makes several views of one history. Null when the view was made without it.
+  std::shared_ptr<const nlohmann::json> results;
 };
 
 struct HistoryView {
