@@ -37,7 +37,7 @@ READINGS_PER_RUN = 10
 WEIGHTS = 20
 OPERATORS = ["Ada Quill", "Bo Lindqvist-Arnaud", "Cyrus Mendel", "Dana Okafor", "Eli Tanskanen"]
 HEADER = "instrument,procedure,date,operator,weight,reading,unit\n"
-FIRST_DAY = datetime.date(2017, 1, 2)
+FIRST_DAY = datetime.date(2017, 1, 2)  # moved back in main() when the largest size needs more weeks than since then
 BYTES_PER_READING_ON_DISK = 800  # the lab (about 340), its backup copy (340) and the CSV (65)
 
 
@@ -100,13 +100,14 @@ def setup_lab(plumb, db, work, instruments, env):
     for w in range(1, WEIGHTS + 1):
         quiet([plumb, "--db", db, "weight", "add", f"W{w:03d}", "--nominal", "100g", "--class", "E2", "--correction",
                "0.02mg", "--uncertainty", "0.05mg", "--k", "2", "--certificate", f"BENCH-CERT-{w}", "--calibrated",
-               "2016-06-01", "--due", "2036-06-01"], env)
+               (FIRST_DAY - datetime.timedelta(days=200)).isoformat(), "--due", "2036-06-01"], env)
     procs = []
     for k in range(1, instruments + 1):
         procs.append(subprocess.Popen([plumb, "--db", db, "balance", "add", balance_id(k), "--capacity", "220g",
                                        "--readability", "0.1mg", "--every", "7d", "--smallest-net", "200mg",
                                        "--location", f"Building {k % 7 + 1}, room {k % 40 + 1}", "--since",
-                                       "2016-12-01"], env=env, stdout=subprocess.DEVNULL))
+                                       (FIRST_DAY - datetime.timedelta(days=32)).isoformat()], env=env,
+                                      stdout=subprocess.DEVNULL))
         if len(procs) == 2:
             for p in procs:
                 if p.wait() != 0:
@@ -148,6 +149,10 @@ def main():
     args = ap.parse_args()
     plumb = os.path.abspath(args.plumb)
     sizes = [int(s) for s in args.sizes.split(",")]
+    # Weekly runs of every instrument up to the largest size must end before today (a future date is refused).
+    global FIRST_DAY
+    weeks = max(sizes) // READINGS_PER_RUN // args.instruments + 2
+    FIRST_DAY = min(FIRST_DAY, datetime.date.today() - datetime.timedelta(days=7 * weeks + 7))
     work = os.path.abspath(args.work or tempfile.mkdtemp(prefix="plumb-decade-"))
     os.makedirs(work, exist_ok=True)
     env = dict(os.environ, XDG_STATE_HOME=os.path.join(work, "state"))
@@ -228,6 +233,12 @@ def main():
         print(f"\n== {held} readings ({held // READINGS_PER_RUN} runs; this step imported {added}); database "
               f"{os.path.getsize(db) / 1e6:.0f} MB = {os.path.getsize(db) / held:.0f} bytes per reading; the shell's "
               f"bare table {os.path.getsize(bare) / 1e6:.0f} MB")
+        split = subprocess.run(["sqlite3", db, "SELECT name, sum(pgsize) FROM dbstat GROUP BY name ORDER BY 2 DESC;"],
+                               capture_output=True, text=True)
+        if split.returncode == 0:  # dbstat: what each table and index costs per reading
+            parts = [line.split("|") for line in split.stdout.split()]
+            print("   bytes per reading (dbstat): " + ", ".join(
+                f"{name} {int(size) / held:.1f}" for name, size in parts if int(size) / held >= 0.5))
         print(f"   {'command':24} {'wall s':>9} {'cpu s':>9} {'peak MiB':>9} | {'floor wall':>10} {'floor cpu':>9} "
               f"{'floor MiB':>9} | {'x wall':>8} {'x cpu':>8} | {'growth':>7}")
         for name, (mine, floor) in rows.items():
