@@ -12,6 +12,7 @@
 #include "core/decimal.hpp"
 #include "core/units.hpp"
 #include "report/calibration/error_chart.hpp"
+#include "report/calibration/in_use_section.hpp"
 #include "report/certificates/document.hpp"
 
 namespace plumb::report {
@@ -282,6 +283,7 @@ void balance_calibration_sections(const json& c, Document& doc) {
     doc.blocks.push_back(ChartBlock{calibration_error_chart(c)});
   }
   if (final_stage) budget_block(*final_stage, f, doc);
+  in_use_certificate_section(c.value("in_use", json()), doc);
   decision_block(cal, doc);
   if (cal.value("adjusted", false) && stages.size() > 1)
     doc.blocks.push_back(Paragraph{fmt::format("The balance was adjusted: as found {}, as left {}.",
