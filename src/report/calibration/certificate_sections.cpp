@@ -141,6 +141,7 @@ void range_approximation_block(const json& a, const MgFormat& f, Document& doc) 
         offset ? fmt::format("{:+.6f} mg", coef[i] * 1e3) : fmt::format("{:+.6e}{}", coef[i], i == 2 ? " /g" : ""));
   }
   KeyValues kv;
+  kv.rows.reserve(5);  // (also keeps g++ 12's -Warray-bounds from a false alarm on the first emplace)
   kv.rows.emplace_back("Error over the range", fmt::format("{}: {}", cell(a, "form"), cell(a, "error_formula")));
   kv.rows.emplace_back("Error coefficients", coefs);
   kv.rows.emplace_back("Uncertainty over the range", cell(a, "uncertainty_formula"));

@@ -24,22 +24,28 @@ std::string in_use_grams(const json& j, const char* key) {
 }
 
 KeyValues declared_terms(const json& t) {
-  return {{{"Declared terms",
-            fmt::format("d_0 = {} g, d_L = {} g, s in use = {} g; temperature change {} K with TK = {} ppm/K; "
-                        "sample density {} kg/m3 (u {}); air density u {} kg/m3; drift since calibration {} ppm",
-                        in_use_cell(t, "rounding_zero_g"), in_use_cell(t, "rounding_load_g"),
-                        in_use_cell(t, "repeatability_g"), in_use_cell(t, "temperature_change_k"),
-                        in_use_cell(t, "sensitivity_ppm_per_k"), in_use_cell(t, "sample_density_kg_m3"),
-                        in_use_cell(t, "sample_density_u_kg_m3"), in_use_cell(t, "air_density_u_kg_m3"),
-                        in_use_cell(t, "drift_ppm"))},
-           {"Declared by", fmt::format("{} at {}{}", in_use_cell(t, "set_by"), in_use_cell(t, "set_at"),
-                                       t.value("reason", "").empty() ? "" : " (" + in_use_cell(t, "reason") + ")")},
-           {"Required accuracy", fmt::format("{} % with safety factor {}", in_use_cell(t, "required_accuracy_pct"),
-                                             in_use_cell(t, "safety_factor"))}}};
+  KeyValues kv;
+  kv.rows.reserve(6);  // (also keeps g++ 12's -Warray-bounds from a false alarm on the first emplace)
+  kv.rows.emplace_back(
+      "Declared terms",
+      fmt::format("d_0 = {} g, d_L = {} g, s in use = {} g; temperature change {} K with TK = {} ppm/K; "
+                  "sample density {} kg/m3 (u {}); air density u {} kg/m3; drift since calibration {} ppm",
+                  in_use_cell(t, "rounding_zero_g"), in_use_cell(t, "rounding_load_g"),
+                  in_use_cell(t, "repeatability_g"), in_use_cell(t, "temperature_change_k"),
+                  in_use_cell(t, "sensitivity_ppm_per_k"), in_use_cell(t, "sample_density_kg_m3"),
+                  in_use_cell(t, "sample_density_u_kg_m3"), in_use_cell(t, "air_density_u_kg_m3"),
+                  in_use_cell(t, "drift_ppm")));
+  kv.rows.emplace_back("Declared by",
+                       fmt::format("{} at {}{}", in_use_cell(t, "set_by"), in_use_cell(t, "set_at"),
+                                   t.value("reason", "").empty() ? "" : " (" + in_use_cell(t, "reason") + ")"));
+  kv.rows.emplace_back("Required accuracy",
+                       fmt::format("{} % with safety factor {}", in_use_cell(t, "required_accuracy_pct"),
+                                   in_use_cell(t, "safety_factor")));
+  return kv;
 }
 
 Table in_use_terms_table(const json& u) {
-  Table t{{"Term of normal use", "u", "Kind", "Source"}, {1.5, 0.9, 0.7, 3.6}, {false, true, false, false}, {}};
+  Table t{{"Term of normal use", "u", "Kind", "Source"}, {1.9, 1.0, 0.6, 3.3}, {false, true, false, false}, {}};
   for (const auto& term : u.value("terms", json::array())) {
     const bool relative = term.value("relative", false);
     t.rows.push_back({in_use_cell(term, "source"),
@@ -53,6 +59,7 @@ Table in_use_terms_table(const json& u) {
 KeyValues in_use_figures(const json& in, const json& u) {
   const bool corrected = u.value("error_corrected", false);
   KeyValues kv;
+  kv.rows.reserve(6);  // (also keeps g++ 12's -Warray-bounds from a false alarm on the first emplace)
   kv.rows.emplace_back("Form",
                        fmt::format("{} form, results {}", u.value("form", "") == "linear" ? "linear" : "quadratic-sum",
                                    corrected ? "corrected for the error of indication (W = R - E(R))"
@@ -76,6 +83,7 @@ KeyValues minimum_weights(const json& in, const json& u) {
   const json& usp = in.value("usp41", json());
   const json& mw = in.value("minimum_weight", json());
   KeyValues kv;
+  kv.rows.reserve(6);  // (also keeps g++ 12's -Warray-bounds from a false alarm on the first emplace)
   const std::string from_cal =
       u.contains("minimum_weight_g") && u["minimum_weight_g"].is_number()
           ? fmt::format("{} ({})", in_use_grams(u, "minimum_weight_g"), in_use_cell(u, "minimum_weight_basis"))
