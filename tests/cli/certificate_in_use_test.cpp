@@ -17,6 +17,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "support/dcc_xml.hpp"
 #include "support/margin.hpp"
 #include "support/run_plumb.hpp"
 
@@ -220,4 +221,24 @@ TEST_CASE("the calibration certificate states U(W) in use and both minimum weigh
   CHECK(page["in_use"]["binding"] == "calibration");
   CHECK_THAT(page["in_use"]["calibration_minimum_weight_g"].get<double>(), grams_near(w_min, mg(0.001)));
   CHECK_THAT(page["in_use"]["usp41_minimum_weight_g"].get<double>(), grams_near(0.18378732, mg(0.001)));
+
+  // The DCC carries the same figures, valid against the DCC 3.1.2 schema.
+  const auto schema = plumb::test::dcc_schema_path();
+  if (!schema) {
+    WARN("DCC part skipped: the DCC schema of shared/reference-data/dcc was not found (set PLUMB_REFERENCE_DATA)");
+    return;
+  }
+  const auto x =
+      run_plumb({"--db", db, "certificate", "show", "LAST", "--format", "dcc", "--country", "SE"}, dir.path());
+  in_use_ok(x);
+  auto xml = plumb::test::parse_xml(x.out);
+  REQUIRE(xml);
+  CHECK(plumb::test::validate_against(xml.get(), *schema) == 0);
+  const auto quantity = [&](const std::string& ref) {
+    return std::stod(plumb::test::xpath_text(xml.get(), "//dcc:quantity[@refType='" + ref + "']/si:real/si:value"));
+  };
+  CHECK_THAT(quantity("plumb_inUseA"), grams_near(a, ug(0.01)));
+  CHECK(quantity("plumb_inUseB") == Approx(b).margin(5e-11).epsilon(0));
+  CHECK_THAT(quantity("plumb_minimumWeightCalibration"), grams_near(w_min, mg(0.001)));
+  CHECK_THAT(quantity("plumb_minimumWeightUsp41"), grams_near(0.18378732, mg(0.001)));
 }
