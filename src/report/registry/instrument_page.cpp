@@ -27,10 +27,7 @@ std::string page_grams(const json& j, const char* key) {
 void in_use_fields(std::string& out, const json& u) {
   if (!u.is_object()) return;
   if (u.contains("absent")) field(out, "in use U(W)", page_text(u, "absent"));
-  if (u.contains("formula"))
-    field(out, "in use U(W)",
-          fmt::format("{} ({}; EURAMET cg-18 v4.0)", page_text(u, "formula"),
-                      u.value("error_corrected", false) ? "corrected for the error" : "not corrected for the error"));
+  if (u.contains("formula")) field(out, "in use U(W)", page_text(u, "formula") + "; EURAMET cg-18 v4.0");
   field(out, "minimum weight",
         fmt::format("from calibration {}; USP <41> {}; binding: {}", page_grams(u, "calibration_minimum_weight_g"),
                     page_grams(u, "usp41_minimum_weight_g"),
