@@ -7,6 +7,7 @@
 #include "app/calibration/certificate_content.hpp"
 #include "app/certificates/history_section.hpp"
 #include "app/pipette/certificate_content.hpp"
+#include "app/registry/in_use.hpp"
 #include "app/registry/lab.hpp"
 #include "app/runs/resolve.hpp"
 #include "checks/procedure.hpp"
@@ -29,7 +30,10 @@ void add_procedure_content(store::Database& db, const store::RunRecord& run, jso
     case checks::Procedure::repeatability:
       return;  // the run's results and its weights say it all
     case checks::Procedure::calibration:
-      return add_calibration_content(run, content);
+      add_calibration_content(run, content);
+      // Normal use as declared when the certificate is issued: a certificate, once stored, never changes.
+      content["in_use"] = certificate_in_use(db, run, today_utc());
+      return;
     case checks::Procedure::gravimetric:
       return add_pipette_certificate_parts(db, run, content);
   }

@@ -32,8 +32,9 @@ store::BalanceRecord add_balance(store::Database& db, const store::Actor& actor,
     if (in.max_bias) b.policy.max_bias = positive_mass(*in.max_bias, "--max-bias");
     if (in.max_sd) b.policy.max_sd = positive_mass(*in.max_sd, "--max-sd");
   } else if (!b.smallest_net) {
-    throw InputError("--smallest-net is required for the default USP <41> policy (or give the lab's own "
-                     "--max-bias / --max-sd).");
+    throw InputError(
+        "--smallest-net is required for the default USP <41> policy (or give the lab's own "
+        "--max-bias / --max-sd).");
   }
 
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);

@@ -13,9 +13,8 @@ namespace plumb::app {
 void validate_id(const std::string& id, std::string_view field) {
   check_text_field(id, field);
   const bool ok = !id.empty() && id.size() <= 64 && id != "LAST" &&
-                  std::all_of(id.begin(), id.end(), [](unsigned char c) {
-                    return std::isalnum(c) || c == '-' || c == '_' || c == '.';
-                  });
+                  std::all_of(id.begin(), id.end(),
+                              [](unsigned char c) { return std::isalnum(c) || c == '-' || c == '_' || c == '.'; });
   if (!ok)
     throw InputError(fmt::format("{} \"{}\" is not a valid id (1-64 letters, digits, '-', '_' or '.').", field,
                                  shown_on_one_line(id)));

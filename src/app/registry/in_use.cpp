@@ -72,6 +72,95 @@ const store::RunRecord* latest_weekly(const std::vector<store::RunRecord>& runs,
   return latest;
 }
 
+/// The stage a calibration counts by (as left when adjusted) and its approximation over the range.
+struct InUseStage {
+  std::string key;
+  checks::RangeApproximation approximation;
+};
+
+InUseStage final_stage_of(const store::RunRecord& run) {
+  const json& results = run.results;
+  const bool left = results.value("final_stage", "") == "as-left" && results.contains("as_left");
+  return {left ? "as-left" : "as-found",
+          report::range_approximation_of(left ? results["as_left"] : results["as_found"])};
+}
+
+/// U(W) with its terms, coefficients, form, values at four loads and the minimum weight from calibration.
+json in_use_figures_json(const checks::InUseUncertainty& u, const checks::RangeApproximation& appr) {
+  json rows = json::array();
+  for (const auto& term : u.terms)
+    rows.push_back({{"source", term.source}, {"u", term.u}, {"relative", term.relative}, {"note", term.note}});
+  json at = json::array();
+  for (const double f : {0.01, 0.1, 0.5, 1.0}) {
+    const double w = f * u.capacity_g;
+    at.push_back({{"w_g", w}, {"U_g", u.expanded_at(w)}});
+  }
+  json out = {{"terms", rows},
+              {"alpha_g", u.alpha_g},
+              {"beta", u.beta},
+              {"k", u.k},
+              {"a_g", u.a_g},
+              {"b", u.b},
+              {"form", std::string(checks::key(u.form))},
+              {"error_corrected", u.error_corrected},
+              {"formula", u.formula()},
+              {"at", at},
+              {"minimum_weight_g", u.minimum_weight_g ? json(*u.minimum_weight_g) : json()},
+              {"minimum_weight_basis", u.minimum_weight_basis}};
+  if (u.minimum_weight_g && *u.minimum_weight_g < appr.reading_min_g)
+    out["minimum_weight_note"] = fmt::format(
+        "{:.6g} g is below the smallest calibrated load ({:.6g} g): U(W) there comes from the approximation "
+        "carried below its calibrated range",
+        *u.minimum_weight_g, appr.reading_min_g);
+  if (!u.minimum_weight_g)
+    out["minimum_weight_absent"] = "no weighing up to the capacity meets the required accuracy with the safety factor";
+  return out;
+}
+
+/// The USP <41> minimum weight of the latest weekly check on or before `on`, written into out["usp41"].
+std::optional<double> usp41_on(store::Database& db, const std::string& balance_id, Date on, json& out) {
+  const auto runs = store::runs_of(db.sql(), balance_id);
+  const store::RunRecord* weekly = latest_weekly(runs, on);
+  if (!weekly) {
+    out["usp41"] = {
+        {"absent", fmt::format("no weekly repeatability check of {} on or before {}", balance_id, to_string(on))}};
+    return std::nullopt;
+  }
+  const double usp41 = weekly->results["min_weight_g"].get<double>();
+  out["usp41"] = {{"run_id", weekly->id}, {"date", to_string(weekly->performed_on)}, {"minimum_weight_g", usp41}};
+  return usp41;
+}
+
+/// Which minimum weight a weighing procedure must respect (the larger), said in one sentence, with the caution.
+json minimum_weight_json(const std::string& balance_id, std::optional<double> from_calibration,
+                         std::optional<double> usp41, bool terms_declared) {
+  std::string binding, statement;
+  if (from_calibration && usp41) {
+    binding = *from_calibration >= *usp41 ? "calibration" : "usp41";
+    statement = fmt::format(
+        "A weighing procedure on {} must weigh at least {:.6g} g: the larger of the minimum weight from calibration "
+        "({:.6g} g, EURAMET cg-18 v4.0 with USP <1251>) and the USP <41> minimum weight ({:.6g} g).",
+        balance_id, std::max(*from_calibration, *usp41), *from_calibration, *usp41);
+  } else if (from_calibration || usp41) {
+    binding = from_calibration ? "calibration" : "usp41";
+    statement = fmt::format(
+        "A weighing procedure on {} must weigh at least {:.6g} g ({}); the other minimum weight is not available.",
+        balance_id, from_calibration.value_or(usp41.value_or(0.0)),
+        from_calibration ? "minimum weight from calibration, EURAMET cg-18 v4.0 with USP <1251>"
+                         : "USP <41> minimum weight from the weekly repeatability");
+  } else {
+    statement =
+        fmt::format("No minimum weight of {} can be stated: {}.", balance_id,
+                    terms_declared ? "no calibration or weekly check to draw on"
+                                   : "no in-use terms are declared (plumb balance set-in-use) and no weekly check");
+  }
+  return {{"binding", binding.empty() ? json() : json(binding)},
+          {"statement", statement},
+          {"caution",
+           "Where weighings serve medicine, clinical or food use, local regulations and an accredited calibration "
+           "decide the minimum weight; these figures support, not replace, them."}};
+}
+
 }  // namespace
 
 store::InUseTermsRecord set_in_use_terms(store::Database& db, const store::Actor& actor, const InUseTermsInput& in) {
@@ -167,82 +256,49 @@ json balance_in_use(store::Database& db, const std::string& balance_id, Date on)
     const auto run = store::find_run(db.sql(), use.run_id);
     if (!run)
       throw StorageError(fmt::format("calibration run {} of balance {} is not stored.", use.run_id, balance->id));
-    const json& results = run->results;
-    const bool left = results.value("final_stage", "") == "as-left" && results.contains("as_left");
-    const json& set = left ? results["as_left"] : results["as_found"];
-    const auto appr = report::range_approximation_of(set);
+    const InUseStage stage = final_stage_of(*run);
     out["calibration"] = {{"run_id", use.run_id},
                           {"date", to_string(use.performed_on)},
                           {"certificate", use.certificate},
-                          {"stage", left ? "as-left" : "as-found"},
-                          {"range_approximation", report::to_json(appr)}};
+                          {"stage", stage.key},
+                          {"range_approximation", report::to_json(stage.approximation)}};
     if (terms) {
-      const auto u = checks::in_use_uncertainty(appr, in_use_terms_of(*terms), balance->capacity.approx());
-      json rows = json::array();
-      for (const auto& term : u.terms)
-        rows.push_back({{"source", term.source}, {"u", term.u}, {"relative", term.relative}, {"note", term.note}});
-      json at = json::array();
-      for (const double f : {0.01, 0.1, 0.5, 1.0}) {
-        const double w = f * u.capacity_g;
-        at.push_back({{"w_g", w}, {"U_g", u.expanded_at(w)}});
-      }
-      out["in_use"] = {{"terms", rows},
-                       {"alpha_g", u.alpha_g},
-                       {"beta", u.beta},
-                       {"k", u.k},
-                       {"a_g", u.a_g},
-                       {"b", u.b},
-                       {"form", std::string(checks::key(u.form))},
-                       {"error_corrected", u.error_corrected},
-                       {"formula", u.formula()},
-                       {"at", at},
-                       {"minimum_weight_g", u.minimum_weight_g ? json(*u.minimum_weight_g) : json()},
-                       {"minimum_weight_basis", u.minimum_weight_basis}};
+      const auto u =
+          checks::in_use_uncertainty(stage.approximation, in_use_terms_of(*terms), balance->capacity.approx());
+      out["in_use"] = in_use_figures_json(u, stage.approximation);
       from_calibration = u.minimum_weight_g;
-      if (u.minimum_weight_g && *u.minimum_weight_g < appr.reading_min_g)
-        out["in_use"]["minimum_weight_note"] = fmt::format(
-            "{:.6g} g is below the smallest calibrated load ({:.6g} g): U(W) there comes from the approximation "
-            "carried below its calibrated range",
-            *u.minimum_weight_g, appr.reading_min_g);
-      if (!u.minimum_weight_g)
-        out["in_use"]["minimum_weight_absent"] =
-            "no weighing up to the capacity meets the required accuracy with the safety factor";
     }
   }
-  const auto runs = store::runs_of(db.sql(), balance->id);
-  const store::RunRecord* weekly = latest_weekly(runs, on);
-  std::optional<double> usp41;
-  if (weekly) {
-    usp41 = weekly->results["min_weight_g"].get<double>();
-    out["usp41"] = {{"run_id", weekly->id}, {"date", to_string(weekly->performed_on)}, {"minimum_weight_g", *usp41}};
-  } else {
-    out["usp41"] = {
-        {"absent", fmt::format("no weekly repeatability check of {} on or before {}", balance->id, to_string(on))}};
+  const auto usp41 = usp41_on(db, balance->id, on, out);
+  out["minimum_weight"] = minimum_weight_json(balance->id, from_calibration, usp41, terms.has_value());
+  return out;
+}
+
+json certificate_in_use(store::Database& db, const store::RunRecord& run, Date on) {
+  const auto balance = store::find_balance(db.sql(), run.instrument_id);
+  if (!balance) return json();  // not a balance: nothing of normal use to state
+  const auto terms = store::current_in_use_terms(db.sql(), balance->id);
+  json out{{"balance", balance->id}, {"on", to_string(on)}, {"capacity_g", balance->capacity.in_grams().to_string()}};
+  if (!terms) {
+    out["terms"] = json();
+    out["statement"] = fmt::format(
+        "No terms of normal use are declared for {}: the uncertainty of a weighing result in use and the minimum "
+        "weight from calibration are not stated (plumb balance set-in-use).",
+        balance->id);
+    return out;
   }
-  std::string binding, statement;
-  if (from_calibration && usp41) {
-    binding = *from_calibration >= *usp41 ? "calibration" : "usp41";
-    statement = fmt::format(
-        "A weighing procedure on {} must weigh at least {:.6g} g: the larger of the minimum weight from calibration "
-        "({:.6g} g, EURAMET cg-18 v4.0 with USP <1251>) and the USP <41> minimum weight ({:.6g} g).",
-        balance->id, std::max(*from_calibration, *usp41), *from_calibration, *usp41);
-  } else if (from_calibration || usp41) {
-    binding = from_calibration ? "calibration" : "usp41";
-    statement = fmt::format(
-        "A weighing procedure on {} must weigh at least {:.6g} g ({}); the other minimum weight is not available.",
-        balance->id, from_calibration.value_or(usp41.value_or(0.0)),
-        from_calibration ? "minimum weight from calibration, EURAMET cg-18 v4.0 with USP <1251>"
-                         : "USP <41> minimum weight from the weekly repeatability");
-  } else {
-    statement = fmt::format("No minimum weight of {} can be stated: {}.", balance->id,
-                            terms ? "no calibration or weekly check to draw on"
-                                  : "no in-use terms are declared (plumb balance set-in-use) and no weekly check");
-  }
-  out["minimum_weight"] = {{"binding", binding.empty() ? json() : json(binding)},
-                           {"statement", statement},
-                           {"caution",
-                            "Where weighings serve medicine, clinical or food use, local regulations and an accredited "
-                            "calibration decide the minimum weight; these figures support, not replace, them."}};
+  const InUseStage stage = final_stage_of(run);
+  const auto u = checks::in_use_uncertainty(stage.approximation, in_use_terms_of(*terms), balance->capacity.approx());
+  out["terms"] = terms_json(*terms);
+  out["stage"] = stage.key;
+  out["in_use"] = in_use_figures_json(u, stage.approximation);
+  const auto usp41 = usp41_on(db, balance->id, on, out);
+  out["minimum_weight"] = minimum_weight_json(balance->id, u.minimum_weight_g, usp41, true);
+  out["sources"] =
+      "EURAMET cg-18 version 4.0 (2015), Guidelines on the Calibration of Non-Automatic Weighing Instruments: the "
+      "approximation of the error and its uncertainty over the range, the uncertainty of a weighing result in use "
+      "and its global form; the minimum weight from calibration with the required relative accuracy and safety "
+      "factor as USP <1251> uses it; the USP <41> minimum weight from the weekly repeatability.";
   return out;
 }
 

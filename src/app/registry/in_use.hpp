@@ -16,6 +16,7 @@
 #include "store/database.hpp"
 #include "store/in_use_terms.hpp"
 #include "store/recorder.hpp"
+#include "store/records.hpp"
 
 namespace plumb::app {
 
@@ -47,5 +48,11 @@ checks::InUseTerms in_use_terms_of(const store::InUseTermsRecord& r);
 /// The balance in use on `on`: declared terms and their history, the calibration drawn on, U(W), both minimum
 /// weights and which binds. InputError when the balance is not registered.
 nlohmann::json balance_in_use(store::Database& db, const std::string& balance_id, Date on);
+
+/// What a balance calibration certificate states about normal use: with the run's own final stage and the terms
+/// declared when it is issued, U(W) in its form, the minimum weight from calibration beside the USP <41> one of the
+/// latest weekly check on or before `on`, which binds, and the sources; where no terms are declared, one
+/// "statement" saying so. Null for a run that is not of a registered balance.
+nlohmann::json certificate_in_use(store::Database& db, const store::RunRecord& run, Date on);
 
 }  // namespace plumb::app

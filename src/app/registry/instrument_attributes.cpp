@@ -39,7 +39,9 @@ int parse_min_readings(const std::string& text) {
   return n;
 }
 
-std::string text_or_dash(const std::string& s) { return s.empty() ? "-" : s; }
+std::string text_or_dash(const std::string& s) {
+  return s.empty() ? "-" : s;
+}
 
 std::string policy_text(const store::BalancePolicy& p) {
   std::string s = p.tolerance.name();
@@ -139,9 +141,10 @@ AttributeChange change_attributes(store::Database& db, const store::Actor& actor
     throw InputError(fmt::format("--from {} is before the last change of {} (from {}); changes are recorded in order.",
                                  to_string(on), in.id, to_string(history.back().effective_on)));
   if (const auto last = last_check_date(db, in.id); last && on <= *last)
-    throw InputError(fmt::format("--from {} is on or before the last check of {} ({}), whose records state the "
-                                 "attributes in force then; date the change after it.",
-                                 to_string(on), in.id, to_string(*last)));
+    throw InputError(
+        fmt::format("--from {} is on or before the last check of {} ({}), whose records state the "
+                    "attributes in force then; date the change after it.",
+                    to_string(on), in.id, to_string(*last)));
 
   c.after = c.before;
   c.after.version_id = 0;
@@ -157,9 +160,10 @@ AttributeChange change_attributes(store::Database& db, const store::Actor& actor
     const auto balance = store::find_balance(db.sql(), in.id);
     apply_policy(in, *balance, *c.after.balance_policy);
   } else if (balance_fields) {
-    throw InputError(fmt::format("{} is a {}: --policy, --smallest-net, --max-bias, --max-sd and --min-readings "
-                                 "belong to balances.",
-                                 in.id, c.kind));
+    throw InputError(
+        fmt::format("{} is a {}: --policy, --smallest-net, --max-bias, --max-sd and --min-readings "
+                    "belong to balances.",
+                    in.id, c.kind));
   }
   if (describe_change(c.before, c.after).empty())
     throw InputError(fmt::format("nothing to change: the attributes given are those of {} already.", in.id));

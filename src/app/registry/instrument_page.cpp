@@ -5,6 +5,7 @@
 
 #include "app/certificates/review.hpp"
 #include "app/pipette/registry.hpp"
+#include "app/registry/in_use.hpp"
 #include "app/registry/instrument_attributes.hpp"
 #include "app/status/due.hpp"
 #include "core/errors.hpp"
@@ -52,8 +53,10 @@ json runs_json(store::Database& db, const std::string& id) {
   json out = json::array();
   for (const auto& r : store::runs_of(db.sql(), id)) {
     std::string standing = "current";
-    if (r.voided) standing = "void: " + r.voided->reason;
-    else if (r.superseded_by) standing = fmt::format("superseded by run {}", *r.superseded_by);
+    if (r.voided)
+      standing = "void: " + r.voided->reason;
+    else if (r.superseded_by)
+      standing = fmt::format("superseded by run {}", *r.superseded_by);
     json cert;
     if (const auto c = store::certificate_for_run(db.sql(), r.id))
       cert = {{"number", c->number}, {"state", certificate_status(db, *c).value("state", "draft")}};
@@ -64,6 +67,31 @@ json runs_json(store::Database& db, const std::string& id) {
                    {"verdict", std::string(to_string(r.verdict))},
                    {"standing", standing},
                    {"certificate", cert}});
+  }
+  return out;
+}
+
+/// Of `balance in-use`, what the balance record shows: U(W) in its form, both minimum weights and which binds.
+json in_use_summary(const json& full) {
+  const json& u = full.value("in_use", json());
+  const json& usp = full.value("usp41", json());
+  const json& mw = full["minimum_weight"];
+  json out = {{"terms_declared", full["terms"].is_object()},
+              {"usp41_minimum_weight_g", usp.value("minimum_weight_g", json())},
+              {"usp41_run", usp.value("run_id", json())},
+              {"binding", mw["binding"]},
+              {"statement", mw["statement"]},
+              {"caution", mw["caution"]}};
+  if (u.is_object()) {
+    out["formula"] = u["formula"];
+    out["form"] = u["form"];
+    out["error_corrected"] = u["error_corrected"];
+    out["calibration_minimum_weight_g"] = u["minimum_weight_g"];
+    out["calibration_run"] = full["calibration"].value("run_id", json());
+  } else if (!full["terms"].is_object()) {
+    out["absent"] = "no terms of normal use declared (plumb balance set-in-use)";
+  } else {
+    out["absent"] = full["calibration"].value("absent", std::string("no calibration to draw on"));
   }
   return out;
 }
@@ -79,6 +107,7 @@ json instrument_page(store::Database& db, const std::string& kind, const std::st
     page["capacity"] = b->capacity.to_string();
     page["readability"] = b->readability.to_string();
     page["weekly_check"] = policy_json(history.back().balance_policy);
+    page["in_use"] = in_use_summary(balance_in_use(db, id, on));
   } else {
     const auto p = store::find_pipette(db.sql(), id);
     if (!p) throw InputError(fmt::format("pipette \"{}\" is not registered.", id));

@@ -27,18 +27,16 @@ store::WeightRecord add_weight(store::Database& db, const store::Actor& actor, c
     properties = parse_weight_properties(stated, w, std::nullopt);
     w.density_kg_m3 = properties->density_kg_m3;
   }
-  const WeightCertificateInput typed{in.certificate, in.correction, in.uncertainty,
-                                     in.k,           in.calibrated, in.due,
-                                     in.override_reason};
+  const WeightCertificateInput typed{in.certificate, in.correction, in.uncertainty,    in.k,
+                                     in.calibrated,  in.due,        in.override_reason};
   w.current = parse_weight_certificate(typed, w.nominal);
   auto override_record = judge_against_class(w, w.current, typed);
 
   SQLite::Transaction tx(db.sql(), SQLite::TransactionBehavior::IMMEDIATE);
   require_lab(db);
   if (store::find_weight(db.sql(), w.id))
-    throw InputError(
-        fmt::format("weight id \"{}\" already exists; record a new certificate with `plumb weight recalibrate {}`.",
-                    w.id, w.id));
+    throw InputError(fmt::format(
+        "weight id \"{}\" already exists; record a new certificate with `plumb weight recalibrate {}`.", w.id, w.id));
   store::Recorder rec(db.sql(), actor);
   const std::int64_t certificate_id = store::add_weight(rec, w);
   if (override_record) {

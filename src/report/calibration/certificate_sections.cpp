@@ -12,6 +12,7 @@
 #include "core/decimal.hpp"
 #include "core/units.hpp"
 #include "report/calibration/error_chart.hpp"
+#include "report/calibration/in_use_section.hpp"
 #include "report/certificates/document.hpp"
 
 namespace plumb::report {
@@ -140,6 +141,7 @@ void range_approximation_block(const json& a, const MgFormat& f, Document& doc) 
         offset ? fmt::format("{:+.6f} mg", coef[i] * 1e3) : fmt::format("{:+.6e}{}", coef[i], i == 2 ? " /g" : ""));
   }
   KeyValues kv;
+  kv.rows.reserve(5);  // (also keeps g++ 12's -Warray-bounds from a false alarm on the first emplace)
   kv.rows.emplace_back("Error over the range", fmt::format("{}: {}", cell(a, "form"), cell(a, "error_formula")));
   kv.rows.emplace_back("Error coefficients", coefs);
   kv.rows.emplace_back("Uncertainty over the range", cell(a, "uncertainty_formula"));
@@ -282,6 +284,7 @@ void balance_calibration_sections(const json& c, Document& doc) {
     doc.blocks.push_back(ChartBlock{calibration_error_chart(c)});
   }
   if (final_stage) budget_block(*final_stage, f, doc);
+  in_use_certificate_section(c.value("in_use", json()), doc);
   decision_block(cal, doc);
   if (cal.value("adjusted", false) && stages.size() > 1)
     doc.blocks.push_back(Paragraph{fmt::format("The balance was adjusted: as found {}, as left {}.",

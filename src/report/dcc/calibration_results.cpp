@@ -117,6 +117,32 @@ void add_environment(xmlNodePtr result, const json& calibration) {
                 env["air_density_kg_m3"], Unit::kilogram_per_cubic_metre);
 }
 
+/// Normal use as the certificate states it (content "in_use"): U(W) in its form with the linear coefficients, the
+/// minimum weight from calibration and the USP <41> one, which binds; or the line that no terms are declared.
+void add_in_use(xmlNodePtr results, const json& doc) {
+  const json& in = doc.value("in_use", json());
+  if (!in.is_object() || in.empty()) return;  // issued before normal use was stated
+  xmlNodePtr data = add_result(results, "Uncertainty of a weighing result in use and minimum weight", "plumb_inUse");
+  const json& u = in.value("in_use", json());
+  if (!u.is_object()) {
+    add_text(data, "text", in.value("statement", ""));
+    return;
+  }
+  const json& mw = in.value("minimum_weight", json());
+  add_text(data, "text",
+           fmt::format("{} {} Sources: {} {}", u.value("formula", ""), mw.value("statement", ""),
+                       in.value("sources", ""), mw.value("caution", "")));
+  add_real_quantity(data, "U(W) linear form, a", "plumb_inUseA", decimal_text(u["a_g"], "in-use a"), Unit::gram);
+  add_real_quantity(data, "U(W) linear form, b", "plumb_inUseB", decimal_text(u["b"], "in-use b"), Unit::one);
+  if (u["minimum_weight_g"].is_number())
+    add_real_quantity(data, "minimum weight from calibration", "plumb_minimumWeightCalibration",
+                      decimal_text(u["minimum_weight_g"], "minimum weight from calibration"), Unit::gram);
+  const json& usp = in.value("usp41", json());
+  if (usp.contains("minimum_weight_g"))
+    add_real_quantity(data, "USP <41> minimum weight", "plumb_minimumWeightUsp41",
+                      decimal_text(usp["minimum_weight_g"], "USP <41> minimum weight"), Unit::gram);
+}
+
 }  // namespace
 
 void add_calibration_results(xmlNodePtr results, const json& doc) {
@@ -136,6 +162,7 @@ void add_calibration_results(xmlNodePtr results, const json& doc) {
     add_eccentricity(list, stage);
     add_error_of_indication(list, doc, stage);
     add_fit(list, stage);
+    if (&stage == &cal["stages"].back()) add_in_use(list, doc);
   }
 }
 

@@ -19,6 +19,25 @@ void field(std::string& out, const std::string& label, const std::string& value)
   for (const auto& l : wrap(value, 78, fmt::format("  {:<20}", label), std::string(22, ' '))) add_line(out, l);
 }
 
+std::string page_grams(const json& j, const char* key) {
+  return j.contains(key) && j[key].is_number() ? fmt::format("{:.6g} g", j[key].get<double>()) : "-";
+}
+
+// U(W) in its form and the two minimum weights with the one that binds (app::balance_in_use).
+void in_use_fields(std::string& out, const json& u) {
+  if (!u.is_object()) return;
+  if (u.contains("absent")) field(out, "in use U(W)", page_text(u, "absent"));
+  if (u.contains("formula")) field(out, "in use U(W)", page_text(u, "formula") + "; EURAMET cg-18 v4.0");
+  field(out, "minimum weight",
+        fmt::format("from calibration {}; USP <41> {}; binding: {}", page_grams(u, "calibration_minimum_weight_g"),
+                    page_grams(u, "usp41_minimum_weight_g"),
+                    u.value("binding", json()) == "calibration" ? "from calibration"
+                    : u.value("binding", json()) == "usp41"     ? "USP <41>"
+                                                                : "none"));
+  field(out, "", page_text(u, "statement"));
+  field(out, "", page_text(u, "caution"));
+}
+
 }  // namespace
 
 std::string instrument_page_text(const json& p) {
@@ -45,15 +64,18 @@ std::string instrument_page_text(const json& p) {
       field(out, "readings per check",
             fmt::format("at least {} ({})", w.value("min_readings", 0), w.value("min_readings_basis", "")));
     }
+    in_use_fields(out, p.value("in_use", json()));
   } else {
-    field(out, "volume", fmt::format("{} {}{}", page_text(p, "volume_kind"), page_text(p, "nominal"),
-                                     p["lower_limit"].is_null() ? "" : " (from " + page_text(p, "lower_limit") + ")"));
+    field(out, "volume",
+          fmt::format("{} {}{}", page_text(p, "volume_kind"), page_text(p, "nominal"),
+                      p["lower_limit"].is_null() ? "" : " (from " + page_text(p, "lower_limit") + ")"));
     field(out, "channels", page_text(p, "channels"));
     field(out, "limits", page_text(p, "limits"));
   }
   const json& s = p["standing"];
-  field(out, "status", fmt::format("{}{} (on {})", s.value("status", ""),
-                                   s["due_on"].is_null() ? "" : ", due " + page_text(s, "due_on"), page_text(p, "on")));
+  field(out, "status",
+        fmt::format("{}{} (on {})", s.value("status", ""),
+                    s["due_on"].is_null() ? "" : ", due " + page_text(s, "due_on"), page_text(p, "on")));
   for (const auto& l : s.value("lines", json::array()))
     field(out, "", fmt::format("{}: {} ({})", l.value("kind", ""), l.value("status", ""), l.value("detail", "")));
 
@@ -62,8 +84,8 @@ std::string instrument_page_text(const json& p) {
   for (const auto& v : p.value("attribute_history", json::array())) {
     const bool registered = v.value("change", "") == "registered";
     const std::string why = registered ? "" : v.value("reason", "") + "; ";
-    for (const auto& l : wrap(fmt::format("from {}: {} ({}by {} at {})", v.value("from", ""), v.value("change", ""), why,
-                                          v.value("recorded_by", ""), v.value("recorded_at", "")),
+    for (const auto& l : wrap(fmt::format("from {}: {} ({}by {} at {})", v.value("from", ""), v.value("change", ""),
+                                          why, v.value("recorded_by", ""), v.value("recorded_at", "")),
                               78, "  ", "    "))
       add_line(out, l);
   }
@@ -76,7 +98,8 @@ std::string instrument_page_text(const json& p) {
                               "operator", "verdict", "certificate", "standing"));
   for (const auto& r : runs) {
     const json& c = r["certificate"];
-    const std::string cert = c.is_object() ? fmt::format("{} ({})", page_text(c, "number"), page_text(c, "state")) : "-";
+    const std::string cert =
+        c.is_object() ? fmt::format("{} ({})", page_text(c, "number"), page_text(c, "state")) : "-";
     add_line(out, fmt::format("  {:>5}  {:<10}  {:<13}  {:<20}  {:<7}  {:<16}  {}", r.value("run_id", 0),
                               r.value("date", ""), r.value("procedure", ""), r.value("operator", "").substr(0, 20),
                               r.value("verdict", ""), cert, r.value("standing", "")));
