@@ -55,23 +55,12 @@ class Keyboard {
 // SM-02 (d = 0.01 mg) checked on 2026-11-30 with W100, as in tests/cli/pipette_check_test.cpp, and P-07, a fixed
 // 100 uL pipette judged by ISO 8655-2:2002 Table 1.
 std::string pipette_lab(const plumb::test::ScratchDir& dir) {
-  const auto db = plumb::test::example_lab(dir).string();
-  dir.write("sm02.csv",
-            "reading\n100.00003\n100.00004\n100.00002\n100.00003\n100.00005\n100.00003\n100.00002\n100.00004\n"
-            "100.00003\n100.00003\n");
-  for (const std::vector<std::string>& step :
-       {std::vector<std::string>{"--db", db, "balance", "add", "SM-02", "--capacity", "120g", "--readability", "0.01mg",
-                                 "--every", "7d", "--smallest-net", "50mg", "--location", "Weighing room", "--since",
-                                 "2026-01-05"},
-        std::vector<std::string>{"--db", db, "check", "record", "SM-02", "--weight", "W100", "--readings", "sm02.csv",
-                                 "--on", "2026-11-30", "--as", "A. Technician"},
-        std::vector<std::string>{"--db", db, "pipette", "add", "P-07", "--nominal", "100uL", "--range", "fixed",
-                                 "--every", "3mo", "--location", "Lab 2", "--since", "2026-06-01", "--as",
-                                 "Q. Manager"}}) {
-    const auto r = run_plumb(step, dir.path());
-    INFO(r.err);
-    REQUIRE(r.status == 0);
-  }
+  const auto db = plumb::test::pipette_balance_lab(dir).string();
+  const auto r = run_plumb({"--db", db, "pipette", "add", "P-07", "--nominal", "100uL", "--range", "fixed", "--every",
+                            "3mo", "--location", "Lab 2", "--since", "2026-06-01", "--as", "Q. Manager"},
+                           dir.path());
+  INFO(r.err);
+  REQUIRE(r.status == 0);
   return db;
 }
 

@@ -19,6 +19,7 @@
 
 #include "support/dcc_xml.hpp"
 #include "support/margin.hpp"
+#include "support/rendered_text.hpp"
 #include "support/run_plumb.hpp"
 
 using nlohmann::json;
@@ -28,35 +29,6 @@ using plumb::test::run_plumb;
 using plumb::test::ug;
 
 namespace {
-
-std::string in_use_squeezed(const std::string& s) {
-  std::string out;
-  for (char c : s)
-    if (!std::isspace(static_cast<unsigned char>(c))) out += c;
-  return out;
-}
-
-std::string in_use_html_text(std::string html) {
-  html = std::regex_replace(html, std::regex("<style>[^]*?</style>"), " ");
-  html = std::regex_replace(html, std::regex("<[^>]*>"), " ");
-  for (const auto& [entity, c] : std::vector<std::pair<std::string, std::string>>{
-           {"&lt;", "<"}, {"&gt;", ">"}, {"&quot;", "\""}, {"&#39;", "'"}, {"&amp;", "&"}}) {
-    for (std::size_t at = html.find(entity); at != std::string::npos; at = html.find(entity, at + c.size()))
-      html.replace(at, entity.size(), c);
-  }
-  return html;
-}
-
-std::string in_use_pdf_text(const std::filesystem::path& pdf) {
-  std::string text;
-  if (FILE* p = popen(("pdftotext -raw '" + pdf.string() + "' - 2>/dev/null").c_str(), "r")) {
-    char buf[4096];
-    std::size_t n;
-    while ((n = fread(buf, 1, sizeof buf, p)) > 0) text.append(buf, n);
-    pclose(p);
-  }
-  return text;
-}
 
 void in_use_ok(const plumb::test::RunResult& r) {
   INFO(r.err);
@@ -81,20 +53,20 @@ InUseRenderings in_use_renderings(const std::string& db, const std::string& numb
   InUseRenderings r;
   auto out = run_plumb({"--db", db, "certificate", "show", number}, dir.path());
   in_use_ok(out);
-  r.text = in_use_squeezed(out.out);
+  r.text = plumb::test::without_spaces(out.out);
   out = run_plumb({"--db", db, "certificate", "show", number, "--format", "html"}, dir.path());
   in_use_ok(out);
-  r.html = in_use_squeezed(in_use_html_text(out.out));
+  r.html = plumb::test::without_spaces(plumb::test::html_text(out.out));
   out = run_plumb({"--db", db, "certificate", "show", number, "--format", "json"}, dir.path());
   in_use_ok(out);
   r.json = out.out;
   const json stored = json::parse(out.out);
   for (const auto& v : stored.at("rendering"))
     r.values += v.value("label", "") + " " + (v["value"].is_string() ? v["value"].get<std::string>() : "") + "\n";
-  r.values = in_use_squeezed(r.values);
+  r.values = plumb::test::without_spaces(r.values);
   const std::string pdf = number + ".pdf";
   in_use_ok(run_plumb({"--db", db, "certificate", "show", number, "--format", "pdf", "--output", pdf}, dir.path()));
-  r.pdf = in_use_squeezed(in_use_pdf_text(dir.file(pdf)));
+  r.pdf = plumb::test::without_spaces(plumb::test::pdf_text(dir.file(pdf)));
   return r;
 }
 
@@ -123,7 +95,7 @@ TEST_CASE("the calibration certificate states U(W) in use and both minimum weigh
   // No terms declared: one line says so, in every rendering; `balance show` says so too.
   {
     const auto r = in_use_renderings(db, "LAST", dir);
-    const std::string line = in_use_squeezed("No terms of normal use are declared for BAL-C");
+    const std::string line = plumb::test::without_spaces("No terms of normal use are declared for BAL-C");
     CHECK_THAT(r.text, Catch::Contains(line));
     CHECK_THAT(r.html, Catch::Contains(line));
     CHECK_THAT(r.values, Catch::Contains(line));
@@ -209,7 +181,7 @@ TEST_CASE("the calibration certificate states U(W) in use and both minimum weigh
   // `balance show` gives the same two minimum weights, which binds, and U(W) in its form.
   const auto show = run_plumb({"--db", db, "balance", "show", "BAL-C"}, dir.path());
   in_use_ok(show);
-  const std::string s = in_use_squeezed(show.out);
+  const std::string s = plumb::test::without_spaces(show.out);
   INFO(show.out);
   CHECK_THAT(s, Catch::Contains("(linearform,resultsnotcorrected:|E(W)|added(globaluncertainty));EURAMETcg-18v4.0"));
   CHECK_THAT(number_after(s, "fromcalibration"), grams_near(w_min, mg(0.01)));

@@ -11,45 +11,18 @@
 #include <nlohmann/json.hpp>
 #include <regex>
 
+#include "support/rendered_text.hpp"
 #include "support/run_plumb.hpp"
 
 using nlohmann::json;
 using plumb::test::run_plumb;
 
+using plumb::test::have_pdftotext;
+using plumb::test::html_text;
+using plumb::test::pdf_text;
+using plumb::test::without_spaces;
+
 namespace {
-
-bool have_pdftotext() {
-  return std::system("pdftotext -v >/dev/null 2>&1") == 0;
-}
-
-std::string without_spaces(const std::string& s) {
-  std::string out;
-  for (char c : s)
-    if (!std::isspace(static_cast<unsigned char>(c))) out += c;
-  return out;
-}
-
-std::string html_text(std::string html) {
-  html = std::regex_replace(html, std::regex("<style>[^]*?</style>"), " ");
-  html = std::regex_replace(html, std::regex("<[^>]*>"), " ");
-  for (const auto& [entity, c] : std::vector<std::pair<std::string, std::string>>{
-           {"&lt;", "<"}, {"&gt;", ">"}, {"&quot;", "\""}, {"&#39;", "'"}, {"&amp;", "&"}}) {
-    for (std::size_t at = html.find(entity); at != std::string::npos; at = html.find(entity, at + c.size()))
-      html.replace(at, entity.size(), c);
-  }
-  return html;
-}
-
-std::string pdf_text(const std::filesystem::path& pdf) {
-  std::string text;
-  if (FILE* p = popen(("pdftotext -raw '" + pdf.string() + "' - 2>/dev/null").c_str(), "r")) {
-    char buf[4096];
-    std::size_t n;
-    while ((n = fread(buf, 1, sizeof buf, p)) > 0) text.append(buf, n);
-    pclose(p);
-  }
-  return text;
-}
 
 void ok(const plumb::test::RunResult& r) {
   INFO(r.err);

@@ -18,17 +18,9 @@ namespace {
 
 // The SM-02 balance and its weekly check of tests/cli/pipette_check_test.cpp.
 std::string edition_lab(const plumb::test::ScratchDir& dir) {
-  const auto db = plumb::test::example_lab(dir).string();
-  dir.write("sm02.csv",
-            "reading\n100.00003\n100.00004\n100.00002\n100.00003\n100.00005\n100.00003\n100.00002\n100.00004\n"
-            "100.00003\n100.00003\n");
+  const auto db = plumb::test::pipette_balance_lab(dir).string();
   for (const std::vector<std::string>& step :
-       {std::vector<std::string>{"--db", db, "balance", "add", "SM-02", "--capacity", "120g", "--readability", "0.01mg",
-                                 "--every", "7d", "--smallest-net", "50mg", "--location", "Weighing room", "--since",
-                                 "2026-01-05"},
-        std::vector<std::string>{"--db", db, "check", "record", "SM-02", "--weight", "W100", "--readings", "sm02.csv",
-                                 "--on", "2026-11-30", "--as", "A. Technician"},
-        std::vector<std::string>{"--db", db, "pipette", "add", "P-07", "--nominal", "100uL", "--range", "fixed",
+       {std::vector<std::string>{"--db", db, "pipette", "add", "P-07", "--nominal", "100uL", "--range", "fixed",
                                  "--every", "3mo", "--since", "2026-06-01"},
         std::vector<std::string>{"--db", db, "pipette", "add", "P-08", "--nominal", "100uL", "--range", "fixed",
                                  "--every", "3mo", "--max-systematic", "0.8uL", "--max-random", "0.3uL", "--since",

@@ -354,6 +354,23 @@ std::filesystem::path example_lab(const ScratchDir& dir) {
   return db;
 }
 
+std::filesystem::path pipette_balance_lab(const ScratchDir& dir) {
+  const auto db = example_lab(dir);
+  dir.write("sm02.csv",
+            "reading\n100.00003\n100.00004\n100.00002\n100.00003\n100.00005\n100.00003\n100.00002\n100.00004\n"
+            "100.00003\n100.00003\n");
+  const std::vector<std::vector<std::string>> steps = {
+      {"--db", db.string(), "balance", "add", "SM-02", "--capacity", "120g", "--readability", "0.01mg", "--every", "7d",
+       "--smallest-net", "50mg", "--location", "Weighing room", "--since", "2026-01-05"},
+      {"--db", db.string(), "check", "record", "SM-02", "--weight", "W100", "--readings", "sm02.csv", "--on",
+       "2026-11-30", "--as", "A. Technician"}};
+  for (const auto& s : steps) {
+    const auto r = run_plumb(s, dir.path());
+    if (r.status != 0) throw std::runtime_error("pipette balance lab setup failed: " + r.err);
+  }
+  return db;
+}
+
 std::filesystem::path calibration_lab(const ScratchDir& dir, const std::string& rule) {
   const auto db = dir.file("cal.db").string();
   std::vector<std::vector<std::string>> steps = {

@@ -95,6 +95,11 @@ std::string sqlite_shell(const std::filesystem::path& db, const std::string& sql
 /// Sets up the lab of the weekly-check example: lab, W100 and BAL-A. Returns the database path.
 std::filesystem::path example_lab(const ScratchDir& dir);
 
+/// The example lab with SM-02 (120 g, d = 0.01 mg, Weighing room), the balance of the pipette examples, and its
+/// passing weekly check with W100 on 2026-11-30 by A. Technician (tests/cli/pipette_check_test.cpp). Returns the
+/// database path.
+std::filesystem::path pipette_balance_lab(const ScratchDir& dir);
+
 /// The lab of the calibration example (tests/cli/calibration_test.cpp): BAL-C (220 g, d = 0.1 mg, OIML R 76 class I,
 /// e = 1 mg, decision rule `rule`) and the E2 weights W20, W50, W100, W200 with zero correction, each U within a third
 /// of its OIML R 111-1:2004 MPE. Returns the database path (cal.db).
